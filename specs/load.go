@@ -1,0 +1,575 @@
+package specs
+
+import (
+	"bytes"
+	"errors"
+	"fmt"
+	"io/fs"
+	"math"
+	"os"
+	"path/filepath"
+	"regexp"
+	"sort"
+	"strconv"
+	"strings"
+
+	"gopkg.in/yaml.v3"
+)
+
+// maxNodes bounds how many YAML nodes a spec may expand to. Aliases that
+// expand exponentially (an "alias bomb") hit it long before they cost
+// memory or time.
+const maxNodes = 200_000
+
+// Load reads and validates the spec at path.
+func Load(path string) (*Spec, error) {
+	info, err := os.Stat(path)
+	if err != nil {
+		if errors.Is(err, fs.ErrNotExist) {
+			return nil, Errors{{Pos: Pos{File: path}, Msg: "spec file does not exist"}}
+		}
+		return nil, Errors{{Pos: Pos{File: path}, Msg: err.Error()}}
+	}
+	if info.IsDir() {
+		return nil, Errors{{Pos: Pos{File: path}, Msg: "is a directory; give the spec's YAML file"}}
+	}
+	data, err := os.ReadFile(path)
+	if err != nil {
+		return nil, Errors{{Pos: Pos{File: path}, Msg: err.Error()}}
+	}
+	return Parse(path, data)
+}
+
+var yamlLine = regexp.MustCompile(`^yaml: line (\d+): (.*)$`)
+
+// Parse validates spec text. file names it in messages and is the base for
+// relative paths.
+func Parse(file string, data []byte) (*Spec, error) {
+	data = bytes.TrimPrefix(data, []byte("\xef\xbb\xbf"))
+	if len(bytes.TrimSpace(data)) == 0 {
+		return nil, Errors{{Pos: Pos{File: file, Line: 1, Col: 1}, Msg: "the spec is empty; it needs at least data, years and outputs"}}
+	}
+	var root yaml.Node
+	if err := yaml.Unmarshal(data, &root); err != nil {
+		return nil, Errors{yamlError(file, data, err)}
+	}
+	d := &decoder{file: file, pos: map[string]Pos{}}
+	s := &Spec{File: file, Dir: filepath.Dir(file), positions: d.pos}
+	doc := &root
+	if doc.Kind == yaml.DocumentNode && len(doc.Content) == 1 {
+		doc = doc.Content[0]
+	}
+	d.spec(doc, s)
+	if len(d.errs) > 0 {
+		sort.SliceStable(d.errs, func(i, j int) bool {
+			a, b := d.errs[i].Pos, d.errs[j].Pos
+			return a.Line < b.Line || a.Line == b.Line && a.Col < b.Col
+		})
+		return nil, d.errs
+	}
+	return s, nil
+}
+
+// yamlError turns a yaml.v3 syntax error into one with a column. yaml.v3
+// reports only the line; the column is the line's first non-blank
+// character, or the first tab when tabs are the trouble.
+func yamlError(file string, data []byte, err error) *Error {
+	msg := err.Error()
+	line := 1
+	if m := yamlLine.FindStringSubmatch(msg); m != nil {
+		line, _ = strconv.Atoi(m[1])
+		msg = m[2]
+	} else {
+		msg = strings.TrimPrefix(msg, "yaml: ")
+	}
+	lines := strings.Split(string(data), "\n")
+	col := 1
+	if line >= 1 && line <= len(lines) {
+		text := lines[line-1]
+		if strings.Contains(msg, "cannot start any token") || strings.Contains(msg, "tab") {
+			for l := max(line-1, 0); l < len(lines) && l <= line; l++ {
+				if i := strings.IndexByte(lines[l], '\t'); i >= 0 && strings.TrimLeft(lines[l][:i], " ") == "" {
+					return &Error{Pos: Pos{File: file, Line: l + 1, Col: i + 1}, Msg: "a tab is used for indentation; YAML needs spaces"}
+				}
+			}
+		}
+		col = len(text) - len(strings.TrimLeft(text, " \t")) + 1
+	}
+	return &Error{Pos: Pos{File: file, Line: line, Col: col}, Msg: "YAML syntax: " + msg}
+}
+
+type decoder struct {
+	file  string
+	errs  Errors
+	pos   map[string]Pos
+	nodes int
+}
+
+func (d *decoder) at(n *yaml.Node) Pos { return Pos{File: d.file, Line: n.Line, Col: n.Column} }
+
+func (d *decoder) errorf(n *yaml.Node, format string, args ...any) {
+	d.errs.Add(d.at(n), format, args...)
+}
+
+// resolve follows aliases and counts nodes against the expansion budget.
+func (d *decoder) resolve(n *yaml.Node) *yaml.Node {
+	for n != nil && n.Kind == yaml.AliasNode {
+		n = n.Alias
+	}
+	d.nodes++
+	return n
+}
+
+func (d *decoder) overBudget(n *yaml.Node) bool {
+	if d.nodes > maxNodes {
+		if len(d.errs) == 0 || d.errs[len(d.errs)-1].Msg != aliasMsg {
+			d.errorf(n, aliasMsg)
+		}
+		return true
+	}
+	return false
+}
+
+const aliasMsg = "the spec expands to too many values (YAML aliases that multiply); write it out plainly"
+
+// field is one key a mapping accepts.
+type field struct {
+	name string
+	set  func(n *yaml.Node, path string)
+}
+
+// mapping decodes a mapping node by its known keys; unknown keys are errors
+// with a suggestion. required lists keys that must be present.
+func (d *decoder) mapping(n *yaml.Node, path string, fields []field, required ...string) {
+	n = d.resolve(n)
+	if d.overBudget(n) {
+		return
+	}
+	if n.Kind != yaml.MappingNode {
+		d.errorf(n, "%s must be a mapping of keys to values, not %s", nameOf(path), kindName(n))
+		return
+	}
+	seen := map[string]bool{}
+	names := make([]string, len(fields))
+	for i, f := range fields {
+		names[i] = f.name
+	}
+	for i := 0; i+1 < len(n.Content); i += 2 {
+		k, v := n.Content[i], n.Content[i+1]
+		key := k.Value
+		p := joinPath(path, key)
+		if seen[key] {
+			d.errorf(k, "%s is given twice", p)
+			continue
+		}
+		seen[key] = true
+		var f *field
+		for j := range fields {
+			if fields[j].name == key {
+				f = &fields[j]
+			}
+		}
+		if f == nil {
+			d.errorf(k, "unknown key %q in %s%s", key, nameOf(path), didYouMean(key, names))
+			continue
+		}
+		d.pos[p] = d.at(k)
+		f.set(v, p)
+	}
+	for _, r := range required {
+		if !seen[r] {
+			d.errorf(n, "%s is missing", joinPath(path, r))
+		}
+	}
+}
+
+func joinPath(path, key string) string {
+	if path == "" {
+		return key
+	}
+	return path + "." + key
+}
+
+func nameOf(path string) string {
+	if path == "" {
+		return "the spec"
+	}
+	return path
+}
+
+func kindName(n *yaml.Node) string {
+	switch n.Kind {
+	case yaml.SequenceNode:
+		return "a list"
+	case yaml.MappingNode:
+		return "a mapping"
+	case yaml.ScalarNode:
+		if n.Tag == "!!null" {
+			return "empty"
+		}
+		return fmt.Sprintf("%q", n.Value)
+	}
+	return "that"
+}
+
+func (d *decoder) scalar(n *yaml.Node, path string) (*yaml.Node, bool) {
+	n = d.resolve(n)
+	if n.Kind != yaml.ScalarNode || n.Tag == "!!null" {
+		d.errorf(n, "%s must be a single value, not %s", path, kindName(n))
+		return n, false
+	}
+	return n, true
+}
+
+func (d *decoder) str(dst *string) func(*yaml.Node, string) {
+	return func(n *yaml.Node, path string) {
+		if n, ok := d.scalar(n, path); ok {
+			*dst = n.Value
+		}
+	}
+}
+
+func (d *decoder) boolean(dst *bool) func(*yaml.Node, string) {
+	return func(n *yaml.Node, path string) {
+		n, ok := d.scalar(n, path)
+		if !ok {
+			return
+		}
+		switch strings.ToLower(n.Value) {
+		case "true", "yes", "on":
+			*dst = true
+		case "false", "no", "off":
+			*dst = false
+		default:
+			d.errorf(n, "%s must be true or false, not %q", path, n.Value)
+		}
+	}
+}
+
+func (d *decoder) integer(dst *int, lo, hi int) func(*yaml.Node, string) {
+	return func(n *yaml.Node, path string) {
+		n, ok := d.scalar(n, path)
+		if !ok {
+			return
+		}
+		v, err := strconv.Atoi(n.Value)
+		if err != nil {
+			d.errorf(n, "%s must be a whole number, not %q", path, n.Value)
+			return
+		}
+		if v < lo || v > hi {
+			d.errorf(n, "%s must be between %d and %d, not %d", path, lo, hi, v)
+			return
+		}
+		*dst = v
+	}
+}
+
+func (d *decoder) number(dst *float64, lo, hi float64, loOpen bool) func(*yaml.Node, string) {
+	return func(n *yaml.Node, path string) {
+		n, ok := d.scalar(n, path)
+		if !ok {
+			return
+		}
+		v, err := strconv.ParseFloat(n.Value, 64)
+		if err != nil || math.IsNaN(v) || math.IsInf(v, 0) {
+			d.errorf(n, "%s must be a number, not %q", path, n.Value)
+			return
+		}
+		if v < lo || v > hi || loOpen && v == lo {
+			if loOpen {
+				d.errorf(n, "%s must be greater than %g and at most %g, not %g", path, lo, hi, v)
+			} else {
+				d.errorf(n, "%s must be between %g and %g, not %g", path, lo, hi, v)
+			}
+			return
+		}
+		*dst = v
+	}
+}
+
+// length decodes a length with a unit. Zero is allowed only when
+// allowZero is set; negative lengths never are.
+func (d *decoder) length(dst *Length, allowZero bool) func(*yaml.Node, string) {
+	return func(n *yaml.Node, path string) {
+		n, ok := d.scalar(n, path)
+		if !ok {
+			return
+		}
+		l, err := ParseLength(n.Value)
+		if err != nil {
+			d.errorf(n, "%s: %v", path, err)
+			return
+		}
+		if l < 0 || l == 0 && !allowZero {
+			if allowZero {
+				d.errorf(n, "%s must not be negative, not %s", path, n.Value)
+			} else {
+				d.errorf(n, "%s must be greater than zero, not %s", path, n.Value)
+			}
+			return
+		}
+		*dst = l
+	}
+}
+
+func (d *decoder) choice(dst *string, options ...string) func(*yaml.Node, string) {
+	return func(n *yaml.Node, path string) {
+		n, ok := d.scalar(n, path)
+		if !ok {
+			return
+		}
+		for _, o := range options {
+			if n.Value == o {
+				*dst = o
+				return
+			}
+		}
+		d.errorf(n, "%s must be one of %s, not %q%s", path, strings.Join(options, ", "), n.Value, didYouMean(n.Value, options))
+	}
+}
+
+// strings decodes a list of strings; a single string is a list of one.
+func (d *decoder) strings(dst *[]string) func(*yaml.Node, string) {
+	return func(n *yaml.Node, path string) {
+		n = d.resolve(n)
+		if n.Kind == yaml.ScalarNode && n.Tag != "!!null" {
+			*dst = []string{n.Value}
+			return
+		}
+		if n.Kind != yaml.SequenceNode {
+			d.errorf(n, "%s must be a list, not %s", path, kindName(n))
+			return
+		}
+		for i, item := range n.Content {
+			if d.overBudget(n) {
+				return
+			}
+			p := fmt.Sprintf("%s.%d", path, i)
+			if item, ok := d.scalar(item, p); ok {
+				d.pos[p] = d.at(item)
+				*dst = append(*dst, item.Value)
+			}
+		}
+	}
+}
+
+func (d *decoder) spec(n *yaml.Node, s *Spec) {
+	var order, group string
+	outputsSeen := false
+	d.mapping(n, "", []field{
+		{"title", d.str(&s.Title)},
+		{"dek", d.str(&s.Dek)},
+		{"source", d.str(&s.Source)},
+		{"notes", d.strings(&s.Notes)},
+		{"date", func(n *yaml.Node, path string) {
+			d.str(&s.Date)(n, path)
+			if s.Date != "" && !regexp.MustCompile(`^\d{4}-\d{2}-\d{2}$`).MatchString(s.Date) {
+				d.errorf(n, "date must be written YYYY-MM-DD, not %q", s.Date)
+			}
+		}},
+		{"data", func(n *yaml.Node, path string) {
+			d.mapping(n, path, []field{
+				{"counts", d.str(&s.Data.Counts)},
+				{"totals", d.str(&s.Data.Totals)},
+				{"fold-case", d.boolean(&s.Data.FoldCase)},
+			}, "counts", "totals")
+		}},
+		{"years", func(n *yaml.Node, path string) {
+			d.mapping(n, path, []field{
+				{"from", d.integer(&s.Years.From, 1, 9999)},
+				{"to", d.integer(&s.Years.To, 1, 9999)},
+			}, "from", "to")
+			if s.Years.From != 0 && s.Years.To != 0 && s.Years.To <= s.Years.From {
+				d.errorf(n, "years: to (%d) must come after from (%d)", s.Years.To, s.Years.From)
+			}
+		}},
+		{"terms", func(n *yaml.Node, path string) {
+			d.mapping(n, path, []field{
+				{"list", d.strings(&s.Terms.List)},
+				{"top", d.integer(&s.Terms.Top, 1, 1_000_000)},
+				{"min-total", d.number(&s.Terms.MinTotal, 0, math.MaxFloat64, false)},
+				{"exclude", d.strings(&s.Terms.Exclude)},
+			})
+		}},
+		{"order", d.choice(&order, string(OrderListed), string(OrderAlpha), string(OrderPeakYear))},
+		{"group", d.choice(&group, string(GroupNone), string(GroupPeakDecade))},
+		{"scale", func(n *yaml.Node, path string) {
+			var mode, yr string
+			d.mapping(n, path, []field{
+				{"values", d.choice(&mode, string(ScaleShare), string(ScaleOwnPeak), string(ScaleRaw))},
+				{"y-range", d.choice(&yr, string(YShared), string(YOwn))},
+			})
+			s.Scale.Mode, s.Scale.YRange = ScaleMode(mode), YRange(yr)
+		}},
+		{"palette", func(n *yaml.Node, path string) { d.palette(n, path, &s.Palette) }},
+		{"outputs", func(n *yaml.Node, path string) { outputsSeen = true; d.outputs(n, path, s) }},
+		{"inserts", func(n *yaml.Node, path string) { d.inserts(n, path, s) }},
+	}, "data", "years", "outputs")
+	s.Order, s.Group = Order(order), Grouping(group)
+	if s.Order == "" {
+		s.Order = OrderListed
+		if len(s.Terms.List) == 0 {
+			s.Order = OrderPeakYear
+		}
+	}
+	if s.Group == "" {
+		s.Group = GroupNone
+	}
+	if s.Scale.Mode == "" {
+		s.Scale.Mode = ScaleShare
+	}
+	if s.Scale.YRange == "" {
+		s.Scale.YRange = YOwn
+		if s.Scale.Mode == ScaleOwnPeak {
+			s.Scale.YRange = YShared
+		}
+	}
+	if s.Title == "" {
+		d.errs.Add(Pos{File: d.file, Line: 1, Col: 1}, "title is missing; every page shows it")
+	}
+	if outputsSeen && len(s.Outputs) == 0 && len(d.errs) == 0 {
+		d.errorf(n, "outputs: give at least one output")
+	}
+	d.checkInserts(s)
+	d.palettePaper(&s.Palette)
+}
+
+func (d *decoder) palettePaper(p *Palette) {
+	if p.Paper.Text == "" {
+		p.Paper = Color{Space: SpaceSRGB, V: [3]float64{1, 1, 1}, Text: "#ffffff"}
+	}
+	c := &p.Checks
+	if c.MinStep == 0 {
+		c.MinStep = 5
+	}
+	if c.MinSpan == 0 {
+		c.MinSpan = 30
+	}
+	if c.MinContrast == 0 {
+		c.MinContrast = 3
+	}
+	if c.MinCVDStep == 0 {
+		c.MinCVDStep = 3
+	}
+	if c.Lightness == "" {
+		c.Lightness = "monotone"
+	}
+}
+
+func (d *decoder) palette(n *yaml.Node, path string, p *Palette) {
+	d.mapping(n, path, []field{
+		{"paper", func(n *yaml.Node, path string) { d.color(n, path, &p.Paper) }},
+		{"anchors", func(n *yaml.Node, path string) {
+			n = d.resolve(n)
+			if n.Kind != yaml.SequenceNode {
+				d.errorf(n, "%s must be a list of {year, color}, not %s", path, kindName(n))
+				return
+			}
+			for i, item := range n.Content {
+				var a Anchor
+				var year float64 = math.NaN()
+				p2 := fmt.Sprintf("%s.%d", path, i)
+				d.mapping(item, p2, []field{
+					{"year", d.number(&year, 1, 9999, false)},
+					{"color", func(n *yaml.Node, path string) { d.color(n, path, &a.Color) }},
+				}, "year", "color")
+				if !math.IsNaN(year) && a.Color.Text != "" {
+					a.Year = year
+					if k := len(p.Anchors); k > 0 && p.Anchors[k-1].Year >= year {
+						d.errorf(item, "%s: anchor years must increase (%g after %g)", p2, year, p.Anchors[k-1].Year)
+					}
+					p.Anchors = append(p.Anchors, a)
+				}
+			}
+			if len(p.Anchors) == 1 {
+				d.errorf(n, "%s: give at least two anchors, or none for the built-in palette", path)
+			}
+		}},
+		{"eras", func(n *yaml.Node, path string) {
+			n = d.resolve(n)
+			if n.Kind != yaml.SequenceNode {
+				d.errorf(n, "%s must be a list of boundary years, like [1900, 1945, 1990]", path)
+				return
+			}
+			for i, item := range n.Content {
+				var y int
+				d.integer(&y, 1, 9999)(item, fmt.Sprintf("%s.%d", path, i))
+				if y != 0 {
+					if k := len(p.Eras); k > 0 && p.Eras[k-1] >= y {
+						d.errorf(item, "%s: era boundaries must increase (%d after %d)", path, y, p.Eras[k-1])
+					}
+					p.Eras = append(p.Eras, y)
+				}
+			}
+		}},
+		{"checks", func(n *yaml.Node, path string) {
+			c := &p.Checks
+			d.mapping(n, path, []field{
+				{"min-step", d.number(&c.MinStep, 0, 100, true)},
+				{"min-span", d.number(&c.MinSpan, 0, 200, true)},
+				{"min-contrast", d.number(&c.MinContrast, 1, 21, false)},
+				{"min-cvd-step", d.number(&c.MinCVDStep, 0, 100, true)},
+				{"lightness", d.choice(&c.Lightness, "monotone", "increasing", "decreasing", "any")},
+			})
+		}},
+	})
+}
+
+var (
+	hexColor  = regexp.MustCompile(`^#([0-9a-fA-F]{6}|[0-9a-fA-F]{3})$`)
+	funcColor = regexp.MustCompile(`^(lab|oklch)\(\s*([-+0-9.eE]+)(%?)[\s,]+([-+0-9.eE]+)[\s,]+([-+0-9.eE]+)(deg)?\s*\)$`)
+)
+
+// color reads "#rrggbb", "#rgb", "lab(L a b)" or "oklch(L C h)" (L as
+// 0–1 or a percentage), after CSS Color 4's notations.
+func (d *decoder) color(n *yaml.Node, path string, dst *Color) {
+	n, ok := d.scalar(n, path)
+	if !ok {
+		return
+	}
+	c, err := ParseColor(n.Value)
+	if err != nil {
+		d.errorf(n, "%s: %v", path, err)
+		return
+	}
+	*dst = c
+}
+
+// ParseColor reads a colour in one of the spec's notations.
+func ParseColor(text string) (Color, error) {
+	t := strings.TrimSpace(text)
+	if m := hexColor.FindStringSubmatch(t); m != nil {
+		h := m[1]
+		if len(h) == 3 {
+			h = string([]byte{h[0], h[0], h[1], h[1], h[2], h[2]})
+		}
+		v, _ := strconv.ParseUint(h, 16, 32)
+		return Color{Space: SpaceSRGB, Text: t, V: [3]float64{
+			float64(v>>16&0xff) / 255, float64(v>>8&0xff) / 255, float64(v&0xff) / 255}}, nil
+	}
+	if m := funcColor.FindStringSubmatch(strings.ToLower(t)); m != nil {
+		var v [3]float64
+		for i, s := range []string{m[2], m[4], m[5]} {
+			f, err := strconv.ParseFloat(s, 64)
+			if err != nil {
+				return Color{}, fmt.Errorf("%q: %q is not a number", text, s)
+			}
+			v[i] = f
+		}
+		if m[1] == "lab" {
+			if v[0] < 0 || v[0] > 100 {
+				return Color{}, fmt.Errorf("%q: L* must be between 0 and 100", text)
+			}
+			return Color{Space: SpaceLab, V: v, Text: t}, nil
+		}
+		if m[3] == "%" {
+			v[0] /= 100
+		}
+		if v[0] < 0 || v[0] > 1 || v[1] < 0 {
+			return Color{}, fmt.Errorf("%q: OKLCh needs L between 0 and 1 (or 0%%–100%%) and C ≥ 0", text)
+		}
+		return Color{Space: SpaceOKLCh, V: v, Text: t}, nil
+	}
+	return Color{}, fmt.Errorf("%q is not a colour; write #rrggbb, lab(L a b) or oklch(L C h)", text)
+}

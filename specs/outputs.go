@@ -1,0 +1,289 @@
+package specs
+
+import (
+	"fmt"
+	"math"
+	"regexp"
+
+	"gopkg.in/yaml.v3"
+)
+
+// DefaultOutput returns the settings an output of kind k starts from.
+// They are chosen to give a handsome page with no further keys: a print
+// output is an A4 page of six columns with 3 mm bleed; a screen output is
+// a 1200 px wide scrolling page.
+func DefaultOutput(name string, k Kind) Output {
+	if k == Screen {
+		px := func(v float64) Length { return Length(v * PtPerPx) }
+		return Output{
+			Name: name, Kind: Screen,
+			Trim:          Size{W: px(1200)},
+			Margins:       Margins{px(32), px(32), px(32), px(32)},
+			MinPanelWidth: px(170),
+			Gutter:        px(20), RowGap: px(18),
+			PanelAspect: 1.6, Slack: SlackSpread,
+			Fonts: Fonts{Family: `"Go", "Helvetica Neue", Arial, sans-serif`},
+			Type: TypeSizes{Title: px(34), Dek: px(17), Label: px(14), Ticks: px(11), Key: px(12),
+				Notes: px(12), Folio: px(12), Heading: px(16), Leading: 1.3},
+			Line:  px(1.75),
+			Ticks: TicksBottomRow, PeakDot: true,
+			Flow: FlowScroll,
+		}
+	}
+	mm := func(v float64) Length { return Length(v * PtPerMm) }
+	return Output{
+		Name: name, Kind: Print,
+		Trim:    Size{mm(210), mm(297)},
+		Bleed:   mm(3),
+		Slug:    mm(10),
+		Margins: Margins{Top: mm(14), Bottom: mm(13), Inside: mm(16), Outside: mm(13)},
+		Facing:  true,
+		Columns: 6,
+		Gutter:  mm(4), RowGap: mm(3),
+		PanelAspect: 1.6, Slack: SlackSpread,
+		Type: TypeSizes{Title: 22, Dek: 9.5, Label: 7, Ticks: 5.5, Key: 6.5,
+			Notes: 6, Folio: 7, Heading: 8, Leading: 1.25},
+		Line:  0.75,
+		Ticks: TicksBottomRow, PeakDot: true,
+		Marks: true, Proofs: 100,
+	}
+}
+
+var outputName = regexp.MustCompile(`^[A-Za-z0-9][A-Za-z0-9_-]{0,63}$`)
+
+func (d *decoder) outputs(n *yaml.Node, path string, s *Spec) {
+	n = d.resolve(n)
+	if n.Kind != yaml.MappingNode {
+		d.errorf(n, "outputs must be a mapping of output names to settings, like\n  outputs:\n    print: {kind: print, trim: A4}")
+		return
+	}
+	for i := 0; i+1 < len(n.Content); i += 2 {
+		k, v := n.Content[i], n.Content[i+1]
+		name := k.Value
+		p := joinPath(path, name)
+		d.pos[p] = d.at(k)
+		if !outputName.MatchString(name) {
+			d.errorf(k, "output name %q: use letters, digits, - and _ (it names a folder)", name)
+			continue
+		}
+		if s.Output(name) != nil {
+			d.errorf(k, "output %q is given twice", name)
+			continue
+		}
+		s.Outputs = append(s.Outputs, d.output(v, p, name))
+	}
+}
+
+func (d *decoder) output(n *yaml.Node, path, name string) Output {
+	n = d.resolve(n)
+	kind := Print
+	if n.Kind == yaml.MappingNode {
+		for i := 0; i+1 < len(n.Content); i += 2 {
+			if n.Content[i].Value == "kind" {
+				if v := d.resolve(n.Content[i+1]); v.Kind == yaml.ScalarNode && v.Value == string(Screen) {
+					kind = Screen
+				}
+			}
+		}
+	}
+	o := DefaultOutput(name, kind)
+	var kindText, firstPage, slack, ticks, flow string
+	trimSet := false
+	d.mapping(n, path, []field{
+		{"kind", d.choice(&kindText, string(Print), string(Screen))},
+		{"trim", func(n *yaml.Node, path string) {
+			n, ok := d.scalar(n, path)
+			if !ok {
+				return
+			}
+			sz, err := ParseSize(n.Value, kind == Screen)
+			if err != nil {
+				d.errorf(n, "%s: %v", path, err)
+				return
+			}
+			if sz.W <= 0 || sz.H < 0 || sz.H == 0 && kind == Print {
+				d.errorf(n, "%s: width and height must be greater than zero", path)
+				return
+			}
+			o.Trim, trimSet = sz, true
+		}},
+		{"bleed", d.length(&o.Bleed, true)},
+		{"slug", d.length(&o.Slug, true)},
+		{"margins", func(n *yaml.Node, path string) {
+			n = d.resolve(n)
+			if n.Kind == yaml.ScalarNode {
+				var l Length
+				d.length(&l, true)(n, path)
+				o.Margins = Margins{l, l, l, l}
+				return
+			}
+			d.mapping(n, path, []field{
+				{"top", d.length(&o.Margins.Top, true)},
+				{"bottom", d.length(&o.Margins.Bottom, true)},
+				{"inside", d.length(&o.Margins.Inside, true)},
+				{"outside", d.length(&o.Margins.Outside, true)},
+			})
+		}},
+		{"facing", d.boolean(&o.Facing)},
+		{"first-page", d.choice(&firstPage, "right", "left")},
+		{"columns", d.integer(&o.Columns, 1, 100)},
+		{"min-panel-width", d.length(&o.MinPanelWidth, false)},
+		{"gutter", d.length(&o.Gutter, true)},
+		{"row-gap", d.length(&o.RowGap, true)},
+		{"panel", func(n *yaml.Node, path string) {
+			aspect := math.NaN()
+			var h Length
+			d.mapping(n, path, []field{
+				{"aspect", d.number(&aspect, 0, 100, true)},
+				{"height", d.length(&h, false)},
+			})
+			if !math.IsNaN(aspect) && h > 0 {
+				d.errorf(n, "%s: give aspect or height, not both", path)
+			}
+			if !math.IsNaN(aspect) {
+				o.PanelAspect, o.PanelHeight = aspect, 0
+			}
+			if h > 0 {
+				o.PanelHeight = h
+			}
+		}},
+		{"slack", d.choice(&slack, string(SlackSpread), string(SlackGrow))},
+		{"balance", d.boolean(&o.Balance)},
+		{"floor", func(n *yaml.Node, path string) {
+			d.mapping(n, path, []field{
+				{"width", d.length(&o.FloorWidth, false)},
+				{"height", d.length(&o.FloorHeight, false)},
+			})
+		}},
+		{"fonts", func(n *yaml.Node, path string) {
+			d.mapping(n, path, []field{
+				{"regular", d.str(&o.Fonts.Regular)},
+				{"bold", d.str(&o.Fonts.Bold)},
+				{"family", d.str(&o.Fonts.Family)},
+				{"embed", d.boolean(&o.Fonts.Embed)},
+			})
+		}},
+		{"type", func(n *yaml.Node, path string) {
+			t := &o.Type
+			d.mapping(n, path, []field{
+				{"title", d.length(&t.Title, false)},
+				{"dek", d.length(&t.Dek, false)},
+				{"label", d.length(&t.Label, false)},
+				{"ticks", d.length(&t.Ticks, false)},
+				{"key", d.length(&t.Key, false)},
+				{"notes", d.length(&t.Notes, false)},
+				{"folio", d.length(&t.Folio, false)},
+				{"heading", d.length(&t.Heading, false)},
+				{"leading", d.number(&t.Leading, 0.8, 3, false)},
+			})
+		}},
+		{"line", d.length(&o.Line, false)},
+		{"ticks", d.choice(&ticks, string(TicksBottomRow), string(TicksEveryPanel))},
+		{"peak-dot", d.boolean(&o.PeakDot)},
+		{"running-head", d.str(&o.Running)},
+		{"marks", d.boolean(&o.Marks)},
+		{"slug-line", d.boolean(&o.SlugLine)},
+		{"proofs", d.number(&o.Proofs, 10, 1200, false)},
+		{"flow", d.choice(&flow, string(FlowPages), string(FlowScroll))},
+		{"panel-files", d.boolean(&o.PanelFiles)},
+		{"spreads", d.boolean(&o.Spreads)},
+	}, "kind")
+	at := func(key string) *yaml.Node {
+		if p, ok := d.pos[path+"."+key]; ok {
+			return &yaml.Node{Line: p.Line, Column: p.Col}
+		}
+		return n
+	}
+	o.FirstPageLeft = firstPage == "left"
+	if slack != "" {
+		o.Slack = Slack(slack)
+	}
+	if ticks != "" {
+		o.Ticks = TickPlacement(ticks)
+	}
+	if flow != "" {
+		o.Flow = Flow(flow)
+	}
+	if kind == Screen && trimSet && o.Trim.H > 0 && flow == "" {
+		o.Flow = FlowPages
+	}
+	if kind == Screen && o.Flow == FlowPages && o.Trim.H == 0 {
+		d.errorf(n, "%s: flow pages needs a page height, like trim: 1200px x 1600px", path)
+	}
+	if kind == Screen && (o.Bleed > 0 || o.Marks || o.SlugLine) {
+		d.errorf(n, "%s: bleed, marks and slug-line are for print outputs", path)
+	}
+	if kind == Print && (o.Spreads || o.PanelFiles || flow != "") {
+		d.errorf(n, "%s: flow, spreads and panel-files are for screen outputs", path)
+	}
+	if o.Marks && kind == Print && o.Slug < mmPt(7)-0.001 {
+		d.errorf(at("slug"), "%s: crop marks need a slug area of at least %.1f mm outside the bleed (1 mm gap + 6 mm mark); slug is %.1f mm",
+			path, (mmPt(7)).Mm(), o.Slug.Mm())
+	}
+	if w := o.Margins.Inside + o.Margins.Outside; w >= o.Trim.W {
+		d.errorf(at("margins"), "%s: the inside and outside margins (%.1f mm together) leave no room on a %.1f mm wide page", path, w.Mm(), o.Trim.W.Mm())
+	}
+	if h := o.Margins.Top + o.Margins.Bottom; o.Trim.H > 0 && h >= o.Trim.H {
+		d.errorf(at("margins"), "%s: the top and bottom margins (%.1f mm together) leave no room on a %.1f mm tall page", path, h.Mm(), o.Trim.H.Mm())
+	}
+	return o
+}
+
+func mmPt(v float64) Length { return Length(v * PtPerMm) }
+
+func (d *decoder) inserts(n *yaml.Node, path string, s *Spec) {
+	n = d.resolve(n)
+	if n.Kind != yaml.MappingNode {
+		d.errorf(n, "inserts must be a mapping of insert names to settings")
+		return
+	}
+	for i := 0; i+1 < len(n.Content); i += 2 {
+		k, v := n.Content[i], n.Content[i+1]
+		p := joinPath(path, k.Value)
+		d.pos[p] = d.at(k)
+		if !outputName.MatchString(k.Value) {
+			d.errorf(k, "insert name %q: use letters, digits, - and _ (it names a file)", k.Value)
+			continue
+		}
+		in := Insert{Name: k.Value}
+		var size string
+		d.mapping(v, p, []field{
+			{"output", d.str(&in.Output)},
+			{"size", d.str(&size)},
+			{"terms", d.strings(&in.Terms)},
+			{"title", d.str(&in.Title)},
+		}, "output", "size", "terms")
+		if size != "" {
+			sz, err := ParseSize(size, false)
+			if err != nil {
+				d.errs.Add(s.Where(p+".size"), "%s.size: %v", p, err)
+			} else {
+				in.Size = sz
+			}
+		}
+		if len(in.Terms) > 4 {
+			d.errs.Add(s.Where(p+".terms"), "%s.terms: an insert shows 1 to 4 terms, not %d", p, len(in.Terms))
+		}
+		s.Inserts = append(s.Inserts, in)
+	}
+}
+
+func (d *decoder) checkInserts(s *Spec) {
+	for _, in := range s.Inserts {
+		if in.Output != "" && s.Output(in.Output) == nil {
+			var names []string
+			for _, o := range s.Outputs {
+				names = append(names, o.Name)
+			}
+			d.errs.Add(s.Where("inserts."+in.Name+".output"), "inserts.%s.output: no output named %q%s", in.Name, in.Output, didYouMean(in.Output, names))
+		}
+	}
+}
+
+// String describes a length in the unit its medium uses.
+func (o *Output) Describe(l Length) string {
+	if o.Kind == Screen {
+		return fmt.Sprintf("%.0f px", l.Px())
+	}
+	return fmt.Sprintf("%.1f mm", l.Mm())
+}
