@@ -1,0 +1,136 @@
+package main
+
+import (
+	"encoding/json"
+	"fmt"
+	"io"
+	"strings"
+
+	"sheaf/specs"
+	"sheaf/specs/series"
+)
+
+// checkReport is what `sheaf check --json` prints. README documents it.
+type checkReport struct {
+	Spec    string         `json:"spec"`
+	Title   string         `json:"title"`
+	Terms   termsReport    `json:"terms"`
+	Years   yearsReport    `json:"years"`
+	Scale   scaleReport    `json:"scale"`
+	Outputs []outputReport `json:"outputs"`
+}
+
+type termsReport struct {
+	InData   int      `json:"in_data"`
+	Rows     int      `json:"rows"`
+	Selected int      `json:"selected"`
+	Order    string   `json:"order"`
+	Groups   []string `json:"groups,omitempty"`
+	List     []string `json:"list"`
+}
+
+type yearsReport struct {
+	From int   `json:"from"`
+	To   int   `json:"to"`
+	Gaps []int `json:"gaps"`
+}
+
+type scaleReport struct {
+	Values string  `json:"values"`
+	Unit   string  `json:"unit"`
+	YRange string  `json:"y_range"`
+	YMax   float64 `json:"y_max"`
+}
+
+type outputReport struct {
+	Name   string     `json:"name"`
+	Kind   string     `json:"kind"`
+	TrimPt [2]float64 `json:"trim_pt"`
+	Bleed  float64    `json:"bleed_pt"`
+}
+
+func runCheck(args []string, stdout, stderr io.Writer) int {
+	fs := newFlags("check", "SPEC [--json]", "Validate the spec and its data and print a summary.", stderr)
+	asJSON := fs.Bool("json", false, "print the summary as a JSON object on stdout")
+	path, code, ok := startCommand(fs, args, stderr)
+	if !ok {
+		return code
+	}
+	job, err := loadJob(path)
+	if err != nil {
+		fmt.Fprintln(stderr, err)
+		return exitBadInput
+	}
+	rep := summarize(job)
+	if *asJSON {
+		enc := json.NewEncoder(stdout)
+		enc.SetIndent("", "  ")
+		if err := enc.Encode(rep); err != nil {
+			fmt.Fprintln(stderr, err)
+			return exitFindings
+		}
+		return exitOK
+	}
+	writeSummary(stdout, rep)
+	return exitOK
+}
+
+// job is a loaded spec with its data.
+type job struct {
+	spec *specs.Spec
+	data *series.Set
+}
+
+func loadJob(path string) (*job, error) {
+	s, err := specs.Load(path)
+	if err != nil {
+		return nil, err
+	}
+	d, err := series.Load(s)
+	if err != nil {
+		return nil, err
+	}
+	return &job{spec: s, data: d}, nil
+}
+
+func summarize(j *job) checkReport {
+	s, d := j.spec, j.data
+	r := checkReport{Spec: s.File, Title: s.Title}
+	r.Terms = termsReport{InData: d.Terms, Rows: d.Rows, Selected: len(d.Series), Order: string(s.Order)}
+	for _, g := range d.Groups {
+		if g.Heading != "" {
+			r.Terms.Groups = append(r.Terms.Groups, fmt.Sprintf("%s (%d)", g.Heading, g.Count))
+		}
+	}
+	for _, sr := range d.Series {
+		r.Terms.List = append(r.Terms.List, sr.Term)
+	}
+	r.Years = yearsReport{From: d.Span.From, To: d.Span.To, Gaps: append([]int{}, d.Gaps...)}
+	r.Scale = scaleReport{Values: string(s.Scale.Mode), Unit: d.Unit, YRange: string(s.Scale.YRange), YMax: d.YMax}
+	for _, o := range s.Outputs {
+		r.Outputs = append(r.Outputs, outputReport{Name: o.Name, Kind: string(o.Kind),
+			TrimPt: [2]float64{o.Trim.W.Pt(), o.Trim.H.Pt()}, Bleed: o.Bleed.Pt()})
+	}
+	return r
+}
+
+func writeSummary(w io.Writer, r checkReport) {
+	fmt.Fprintf(w, "%s: %q\n", r.Spec, r.Title)
+	fmt.Fprintf(w, "  terms:   %d selected of %d in the data (%d rows), order %s\n", r.Terms.Selected, r.Terms.InData, r.Terms.Rows, r.Terms.Order)
+	if len(r.Terms.Groups) > 0 {
+		fmt.Fprintf(w, "  groups:  %s\n", strings.Join(r.Terms.Groups, ", "))
+	}
+	gaps := "none"
+	if len(r.Years.Gaps) > 0 {
+		gaps = strings.Trim(fmt.Sprint(r.Years.Gaps), "[]")
+	}
+	fmt.Fprintf(w, "  years:   %d–%d (%d years; gaps: %s)\n", r.Years.From, r.Years.To, r.Years.To-r.Years.From+1, gaps)
+	fmt.Fprintf(w, "  values:  %s (%s), %s y-range\n", r.Scale.Values, r.Scale.Unit, r.Scale.YRange)
+	for _, o := range r.Outputs {
+		fmt.Fprintf(w, "  output %s (%s): %.1f × %.1f mm", o.Name, o.Kind, o.TrimPt[0]*25.4/72, o.TrimPt[1]*25.4/72)
+		if o.Bleed > 0 {
+			fmt.Fprintf(w, " + %.1f mm bleed", o.Bleed*25.4/72)
+		}
+		fmt.Fprintln(w)
+	}
+}

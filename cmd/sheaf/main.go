@@ -1,0 +1,161 @@
+// Command sheaf turns a YAML page spec and tables of yearly counts into
+// print-ready pages of small-multiple line charts and the same charts for
+// the web.
+//
+// Usage:
+//
+//	sheaf check SPEC [--json]
+//	sheaf palette SPEC [--out DIR]
+//	sheaf build SPEC [--out DIR] [--only OUTPUT]
+//	sheaf help [COMMAND]
+//
+// Exit status: 0 when all is well, 1 when checks find problems or a build
+// fails, 2 for bad input or usage.
+package main
+
+import (
+	"errors"
+	"flag"
+	"fmt"
+	"io"
+	"os"
+	"strings"
+)
+
+// version is the program's version, written into file metadata.
+const version = "0.1.0"
+
+const (
+	exitOK       = 0
+	exitFindings = 1
+	exitBadInput = 2
+)
+
+type command struct {
+	name, args, summary string
+	run                 func(args []string, stdout, stderr io.Writer) int
+}
+
+func commands() []command {
+	return []command{
+		{"check", "SPEC [--json]", "validate the spec and data; print a summary, pages and preflight findings", runCheck},
+
+		{"help", "[COMMAND]", "show help for sheaf or one command", nil},
+	}
+}
+
+func main() {
+	os.Exit(run(os.Args[1:], os.Stdout, os.Stderr))
+}
+
+// run is main without the process: tests call it.
+func run(args []string, stdout, stderr io.Writer) (code int) {
+	defer func() {
+		if r := recover(); r != nil {
+			fmt.Fprintf(stderr, "sheaf: internal error: %v (please report this with the spec that caused it)\n", r)
+			code = exitBadInput
+		}
+	}()
+	if len(args) == 0 {
+		usage(stderr)
+		return exitBadInput
+	}
+	name := args[0]
+	if name == "help" || name == "-h" || name == "--help" || name == "-help" {
+		if len(args) > 1 && name == "help" {
+			for _, c := range commands() {
+				if c.name == args[1] && c.run != nil {
+					return c.run([]string{"-h"}, stdout, stdout)
+				}
+			}
+			fmt.Fprintf(stderr, "sheaf: no command %q\n", args[1])
+			return exitBadInput
+		}
+		usage(stdout)
+		return exitOK
+	}
+	if name == "version" || name == "--version" {
+		fmt.Fprintln(stdout, "sheaf", version)
+		return exitOK
+	}
+	for _, c := range commands() {
+		if c.name == name && c.run != nil {
+			return c.run(args[1:], stdout, stderr)
+		}
+	}
+	fmt.Fprintf(stderr, "sheaf: unknown command %q\n\n", name)
+	usage(stderr)
+	return exitBadInput
+}
+
+func usage(w io.Writer) {
+	fmt.Fprintln(w, "sheaf turns a page spec and yearly counts into pages of small-multiple line charts.")
+	fmt.Fprintln(w, "\nUsage:")
+	for _, c := range commands() {
+		fmt.Fprintf(w, "  sheaf %-8s %-34s %s\n", c.name, c.args, c.summary)
+	}
+	fmt.Fprintln(w, "\nRun 'sheaf COMMAND -h' for a command's flags. Exit status: 0 ok, 1 findings or failed build, 2 bad input or usage.")
+}
+
+// parseFlags parses flags that may stand before or after the positional
+// arguments ("sheaf check spec.yaml --json") and returns the positionals.
+// A -h ends with help printed and errHelp.
+func parseFlags(fs *flag.FlagSet, args []string) ([]string, error) {
+	var pos []string
+	for {
+		if err := fs.Parse(args); err != nil {
+			return nil, err
+		}
+		args = fs.Args()
+		if len(args) == 0 {
+			return pos, nil
+		}
+		pos = append(pos, args[0])
+		args = args[1:]
+	}
+}
+
+// newFlags makes a command's flag set that prints its usage to w.
+func newFlags(name, argsHelp, summary string, w io.Writer) *flag.FlagSet {
+	fs := flag.NewFlagSet(name, flag.ContinueOnError)
+	fs.SetOutput(w)
+	fs.Usage = func() {
+		fmt.Fprintf(w, "Usage: sheaf %s %s\n\n%s\n", name, argsHelp, summary)
+		var any bool
+		fs.VisitAll(func(*flag.Flag) { any = true })
+		if any {
+			fmt.Fprintln(w, "\nFlags:")
+			fs.PrintDefaults()
+		}
+	}
+	return fs
+}
+
+// startCommand parses args for a command taking exactly one SPEC. It
+// returns the spec path, or an exit code when the command is done.
+func startCommand(fs *flag.FlagSet, args []string, stderr io.Writer) (string, int, bool) {
+	pos, err := parseFlags(fs, args)
+	if errors.Is(err, flag.ErrHelp) {
+		return "", exitOK, false
+	}
+	if err != nil {
+		return "", exitBadInput, false
+	}
+	if len(pos) != 1 {
+		fmt.Fprintf(stderr, "sheaf %s: give exactly one spec file (got %d: %s)\n", fs.Name(), len(pos), strings.Join(pos, " "))
+		fs.Usage()
+		return "", exitBadInput, false
+	}
+	return pos[0], 0, true
+}
+
+// report prints an error for the user and returns its exit code: bad input
+// is 2, anything else 1.
+func report(stderr io.Writer, err error) int {
+	fmt.Fprintln(stderr, err)
+	var bad interface{ BadInput() bool }
+	if errors.As(err, &bad) && bad.BadInput() {
+		return exitBadInput
+	}
+	return exitFindings
+}

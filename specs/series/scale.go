@@ -1,0 +1,111 @@
+package series
+
+import (
+	"fmt"
+	"math"
+	"sort"
+	"strings"
+
+	"sheaf/specs"
+)
+
+// Units of the plotted values, for the key and the check summary.
+var units = map[specs.ScaleMode]string{
+	specs.ScaleShare:   "per million words",
+	specs.ScaleOwnPeak: "share of the term's own peak",
+	specs.ScaleRaw:     "occurrences a year",
+}
+
+func scale(s *specs.Spec, totals map[int]float64, aggs map[string]*agg, selected []string, set *Set) []Series {
+	span := s.Years.Len()
+	out := make([]Series, len(selected))
+	set.Unit = units[s.Scale.Mode]
+	for i, k := range selected {
+		a := aggs[k]
+		sr := Series{Term: a.term, Total: a.total, Share: a.share,
+			Counts: make([]float64, span), Values: make([]float64, span), PeakYear: s.Years.From}
+		copy(sr.Counts, set.rawCounts(i, span))
+		for j, c := range sr.Counts {
+			y := s.Years.From + j
+			switch {
+			case math.IsNaN(c):
+				sr.Values[j] = math.NaN()
+			case s.Scale.Mode == specs.ScaleRaw:
+				sr.Values[j] = c
+			default:
+				sr.Values[j] = c / totals[y] * 1e6
+			}
+		}
+		sr.Peak, sr.PeakYear = peak(sr.Values, s.Years.From)
+		if s.Scale.Mode == specs.ScaleOwnPeak && sr.Peak > 0 {
+			for j := range sr.Values {
+				sr.Values[j] /= sr.Peak
+			}
+			sr.Peak = 1
+		}
+		sr.YMax = sr.Peak
+		if sr.YMax <= 0 {
+			sr.YMax = 1
+		}
+		set.YMax = math.Max(set.YMax, sr.YMax)
+		out[i] = sr
+	}
+	if s.Scale.YRange == specs.YShared {
+		for i := range out {
+			out[i].YMax = set.YMax
+		}
+	}
+	return out
+}
+
+// rawCounts is filled by Load from the reader before scale runs.
+func (set *Set) rawCounts(i, span int) []float64 { return set.counts[i*span : (i+1)*span] }
+
+func peak(v []float64, from int) (float64, int) {
+	best, year := math.Inf(-1), from
+	for j, x := range v {
+		if !math.IsNaN(x) && x > best {
+			best, year = x, from+j
+		}
+	}
+	if math.IsInf(best, -1) {
+		return 0, from
+	}
+	return best, year
+}
+
+// arrange orders the series and cuts them into groups.
+func arrange(s *specs.Spec, set *Set) {
+	ser := set.Series
+	switch s.Order {
+	case specs.OrderAlpha:
+		sort.SliceStable(ser, func(i, j int) bool {
+			a, b := strings.ToLower(ser[i].Term), strings.ToLower(ser[j].Term)
+			if a != b {
+				return a < b
+			}
+			return ser[i].Term < ser[j].Term
+		})
+	case specs.OrderPeakYear:
+		sort.SliceStable(ser, func(i, j int) bool {
+			if ser[i].PeakYear != ser[j].PeakYear {
+				return ser[i].PeakYear < ser[j].PeakYear
+			}
+			return ser[i].Term < ser[j].Term
+		})
+	}
+	if s.Group != specs.GroupPeakDecade {
+		set.Groups = []Group{{Start: 0, Count: len(ser)}}
+		return
+	}
+	sort.SliceStable(ser, func(i, j int) bool { return ser[i].PeakYear/10 < ser[j].PeakYear/10 })
+	for i := 0; i < len(ser); {
+		dec := ser[i].PeakYear / 10 * 10
+		j := i
+		for j < len(ser) && ser[j].PeakYear/10*10 == dec {
+			j++
+		}
+		set.Groups = append(set.Groups, Group{Heading: fmt.Sprintf("Peak in the %ds", dec), Start: i, Count: j - i})
+		i = j
+	}
+}

@@ -1,0 +1,491 @@
+// Package series reads a feature's two tables (yearly counts per term and
+// yearly total words), picks the terms the spec asks for, and turns their
+// counts into the values a panel plots: per-million shares, shares scaled
+// to each term's own peak, or raw counts.
+//
+// The counts table is read twice, as a stream: once to total every term
+// (memory grows with the number of distinct terms, not with the file) and
+// once to collect the yearly values of the selected terms only.
+package series
+
+import (
+	"bufio"
+	"bytes"
+	"encoding/csv"
+	"errors"
+	"fmt"
+	"io"
+	"io/fs"
+	"math"
+	"os"
+	"path/filepath"
+	"sort"
+	"strconv"
+	"strings"
+
+	"golang.org/x/text/cases"
+	"golang.org/x/text/unicode/norm"
+
+	"sheaf/specs"
+)
+
+// Series is one term's line.
+type Series struct {
+	Term     string    // as first written in the data, NFC
+	Values   []float64 // one per year of the span; NaN where the year is a gap
+	Counts   []float64 // raw counts; NaN where the year is a gap
+	Total    float64   // occurrences over the span
+	Share    float64   // Total / all words over the span
+	Peak     float64   // highest value
+	PeakYear int       // first year reaching Peak
+	YMax     float64   // top of this panel's y-range (shared or own)
+}
+
+// Group is a run of consecutive series under one heading.
+type Group struct {
+	Heading      string
+	Start, Count int
+}
+
+// Set is the data of a feature, ready to plot.
+type Set struct {
+	Span   specs.Span
+	Years  []float64 // x values, one per year of the span
+	Gaps   []int     // years of the span the totals table lacks
+	Series []Series  // selected terms, in panel order
+	Groups []Group   // one group with an empty heading when not grouping
+	Unit   string    // what a value means, for the key
+	YMax   float64   // the shared y-range top (largest YMax)
+	Terms  int       // distinct terms in the counts table
+	Rows   int       // data rows read from the counts table
+	counts []float64 // raw counts of the selected terms, selection order
+}
+
+// Load reads and scales the data a spec names. Problems come back as
+// specs.Errors with file and line.
+func Load(s *specs.Spec) (*Set, error) {
+	var errs specs.Errors
+	totals, ok := readTotals(s, &errs)
+	if !ok {
+		return nil, errs
+	}
+	r := &reader{spec: s, totals: totals, errs: &errs, fold: s.Data.FoldCase}
+	if s.Data.FoldCase {
+		r.folder = cases.Fold()
+	}
+	aggs, order := r.pass1()
+	if len(errs) > 0 {
+		return nil, errs
+	}
+	selected := r.selectTerms(aggs, order)
+	if len(errs) > 0 {
+		return nil, errs
+	}
+	set := &Set{Span: s.Years, Terms: len(order), Rows: r.rows}
+	for y := s.Years.From; y <= s.Years.To; y++ {
+		set.Years = append(set.Years, float64(y))
+		if _, ok := totals[y]; !ok {
+			set.Gaps = append(set.Gaps, y)
+		}
+	}
+	if len(selected) == 0 {
+		errs.Add(s.Where("terms"), "no terms are selected: the data has %d terms and none pass the spec's selection", len(order))
+		return nil, errs
+	}
+	r.pass2(aggs, selected)
+	if len(errs) > 0 {
+		return nil, errs
+	}
+	set.counts = r.counts
+	set.Series = scale(s, totals, aggs, selected, set)
+	set.counts = nil
+	arrange(s, set)
+	return set, nil
+}
+
+type agg struct {
+	term  string // first spelling seen
+	total float64
+	share float64
+	years []uint64 // bitset over the span: duplicate rows
+	line  int
+	idx   int // position in the selection, or -1
+}
+
+type reader struct {
+	spec   *specs.Spec
+	totals map[int]float64
+	errs   *specs.Errors
+	fold   bool
+	folder cases.Caser
+	rows   int
+	counts []float64 // selected terms × span, filled by pass2
+}
+
+func (r *reader) key(term string) string {
+	t := norm.NFC.String(term)
+	if r.fold {
+		return r.folder.String(t)
+	}
+	return t
+}
+
+// table opens a CSV or TSV file (by extension) and maps its header.
+type table struct {
+	name  string // as written in the spec
+	f     *os.File
+	csv   *csv.Reader
+	cols  map[string]int
+	width int
+}
+
+func openTable(s *specs.Spec, key, name string, want []string, errs *specs.Errors) *table {
+	path := s.Resolve(name)
+	f, err := os.Open(path)
+	if err != nil {
+		what := err.Error()
+		if errors.Is(err, fs.ErrNotExist) {
+			what = "does not exist"
+		}
+		errs.Add(s.Where("data."+key), "data.%s: %q (resolved to %s) %s", key, name, path, what)
+		return nil
+	}
+	if st, err := f.Stat(); err == nil && st.IsDir() {
+		f.Close()
+		errs.Add(s.Where("data."+key), "data.%s: %q (resolved to %s) is a directory, not a table", key, name, path)
+		return nil
+	}
+	br := bufio.NewReaderSize(f, 1<<16)
+	if b, _ := br.Peek(3); bytes.Equal(b, []byte("\xef\xbb\xbf")) {
+		br.Discard(3)
+	}
+	c := csv.NewReader(br)
+	c.ReuseRecord = true
+	c.FieldsPerRecord = -1
+	switch strings.ToLower(filepath.Ext(name)) {
+	case ".tsv", ".tab":
+		c.Comma = '\t'
+		c.LazyQuotes = true
+	case ".csv", ".txt":
+	default:
+		f.Close()
+		errs.Add(s.Where("data."+key), "data.%s: %q must end in .csv or .tsv (that decides the separator)", key, name)
+		return nil
+	}
+	t := &table{name: name, f: f, csv: c, cols: map[string]int{}}
+	head, err := c.Read()
+	if err == io.EOF {
+		errs.Add(specs.Pos{File: name, Line: 1}, "the table is empty; it needs a header row with %s", strings.Join(want, ", "))
+		f.Close()
+		return nil
+	}
+	if err != nil {
+		errs.Add(csvPos(name, err), "%v", csvMsg(err))
+		f.Close()
+		return nil
+	}
+	for i, h := range head {
+		t.cols[strings.ToLower(strings.TrimSpace(h))] = i
+	}
+	var missing []string
+	for _, w := range want {
+		if _, ok := t.cols[w]; !ok {
+			missing = append(missing, w)
+		}
+		t.width = max(t.width, t.cols[w]+1)
+	}
+	if len(missing) > 0 {
+		errs.Add(specs.Pos{File: name, Line: 1}, "the header needs columns named %s; it has %s",
+			strings.Join(want, ", "), quoteList(head))
+		f.Close()
+		return nil
+	}
+	return t
+}
+
+func quoteList(xs []string) string {
+	q := make([]string, len(xs))
+	for i, x := range xs {
+		q[i] = strconv.Quote(x)
+	}
+	return strings.Join(q, ", ")
+}
+
+func csvPos(name string, err error) specs.Pos {
+	var pe *csv.ParseError
+	if errors.As(err, &pe) {
+		return specs.Pos{File: name, Line: pe.Line, Col: pe.Column}
+	}
+	return specs.Pos{File: name}
+}
+
+func csvMsg(err error) string {
+	var pe *csv.ParseError
+	if errors.As(err, &pe) {
+		return pe.Err.Error()
+	}
+	return err.Error()
+}
+
+// next returns the next record and its line, or nil at the end.
+func (t *table) next(errs *specs.Errors) ([]string, int, bool) {
+	for {
+		rec, err := t.csv.Read()
+		if err == io.EOF {
+			return nil, 0, false
+		}
+		if err != nil {
+			if !errs.Add(csvPos(t.name, err), "%s", csvMsg(err)) {
+				return nil, 0, false
+			}
+			continue
+		}
+		line, _ := t.csv.FieldPos(0)
+		if len(rec) == 1 && strings.TrimSpace(rec[0]) == "" {
+			continue
+		}
+		if len(rec) < t.width {
+			if !errs.Add(specs.Pos{File: t.name, Line: line}, "the row has %d fields; the header asks for at least %d", len(rec), t.width) {
+				return nil, 0, false
+			}
+			continue
+		}
+		return rec, line, true
+	}
+}
+
+func parseNumber(s string) (float64, string) {
+	v, err := strconv.ParseFloat(strings.TrimSpace(s), 64)
+	switch {
+	case err != nil:
+		return 0, fmt.Sprintf("%q is not a number", s)
+	case math.IsNaN(v) || math.IsInf(v, 0):
+		return 0, fmt.Sprintf("%q is not a finite number", s)
+	case v < 0:
+		return 0, fmt.Sprintf("%s is negative", s)
+	}
+	return v, ""
+}
+
+func parseYear(s string) (int, string) {
+	y, err := strconv.Atoi(strings.TrimSpace(s))
+	if err != nil {
+		return 0, fmt.Sprintf("year %q is not a whole number", s)
+	}
+	return y, ""
+}
+
+func readTotals(s *specs.Spec, errs *specs.Errors) (map[int]float64, bool) {
+	t := openTable(s, "totals", s.Data.Totals, []string{"year", "total"}, errs)
+	if t == nil {
+		return nil, false
+	}
+	defer t.f.Close()
+	totals := map[int]float64{}
+	lines := map[int]int{}
+	yc, tc := t.cols["year"], t.cols["total"]
+	for {
+		rec, line, ok := t.next(errs)
+		if !ok {
+			break
+		}
+		pos := specs.Pos{File: t.name, Line: line}
+		y, msg := parseYear(rec[yc])
+		if msg != "" {
+			errs.Add(pos, "%s", msg)
+			continue
+		}
+		v, msg := parseNumber(rec[tc])
+		if msg != "" {
+			errs.Add(pos, "total for %d: %s", y, msg)
+			continue
+		}
+		if v == 0 {
+			errs.Add(pos, "total for %d is 0; leave the year out if nothing was published", y)
+			continue
+		}
+		if l, dup := lines[y]; dup {
+			errs.Add(pos, "year %d is given twice (first on line %d)", y, l)
+			continue
+		}
+		lines[y] = line
+		if y >= s.Years.From && y <= s.Years.To {
+			totals[y] = v
+		}
+	}
+	if len(*errs) == 0 && len(totals) == 0 {
+		errs.Add(specs.Pos{File: t.name}, "no totals fall inside the span %d–%d", s.Years.From, s.Years.To)
+	}
+	return totals, len(*errs) == 0
+}
+
+// pass1 totals every term and checks every row.
+func (r *reader) pass1() (map[string]*agg, []string) {
+	s := r.spec
+	t := openTable(s, "counts", s.Data.Counts, []string{"term", "year", "count"}, r.errs)
+	if t == nil {
+		return nil, nil
+	}
+	defer t.f.Close()
+	span := s.Years.Len()
+	aggs := map[string]*agg{}
+	var order []string
+	tc, yc, cc := t.cols["term"], t.cols["year"], t.cols["count"]
+	needTotals := s.Scale.Mode != specs.ScaleRaw
+	var words float64
+	for _, v := range r.totals {
+		words += v
+	}
+	for {
+		rec, line, ok := t.next(r.errs)
+		if !ok {
+			break
+		}
+		r.rows++
+		pos := specs.Pos{File: t.name, Line: line}
+		term := strings.TrimSpace(rec[tc])
+		if term == "" {
+			if !r.errs.Add(pos, "the term is empty") {
+				break
+			}
+			continue
+		}
+		y, msg := parseYear(rec[yc])
+		if msg == "" && (y < s.Years.From || y > s.Years.To) {
+			msg = fmt.Sprintf("year %d is outside the span %d–%d set at %s", y, s.Years.From, s.Years.To, s.Where("years"))
+		}
+		var v float64
+		if msg == "" {
+			if v, msg = parseNumber(rec[cc]); msg != "" {
+				msg = fmt.Sprintf("count for %q in %d: %s", term, y, msg)
+			}
+		}
+		if msg == "" {
+			tot, has := r.totals[y]
+			switch {
+			case !has && needTotals:
+				msg = fmt.Sprintf("%q has a count in %d but the totals table has no total for %d; %s scaling needs it", term, y, y, s.Scale.Mode)
+			case has && v > tot:
+				msg = fmt.Sprintf("count %g for %q in %d is more than that year's total %g", v, term, y, tot)
+			}
+		}
+		if msg != "" {
+			if !r.errs.Add(pos, "%s", msg) {
+				break
+			}
+			continue
+		}
+		k := r.key(term)
+		a := aggs[k]
+		if a == nil {
+			a = &agg{term: norm.NFC.String(term), years: make([]uint64, (span+63)/64), line: line, idx: -1}
+			aggs[k] = a
+			order = append(order, k)
+		}
+		i := y - s.Years.From
+		if a.years[i/64]&(1<<(i%64)) != 0 {
+			if !r.errs.Add(pos, "%q has a second row for %d", term, y) {
+				break
+			}
+			continue
+		}
+		a.years[i/64] |= 1 << (i % 64)
+		a.total += v
+	}
+	for _, a := range aggs {
+		a.share = a.total / words
+	}
+	return aggs, order
+}
+
+// selectTerms applies the list, the rule and the exclusions, and returns
+// the keys of the selected terms in list-then-share order.
+func (r *reader) selectTerms(aggs map[string]*agg, order []string) []string {
+	s := r.spec
+	excluded := map[string]bool{}
+	for _, e := range s.Terms.Exclude {
+		excluded[r.key(e)] = true
+	}
+	var sel []string
+	picked := map[string]bool{}
+	var names []string
+	for i, term := range s.Terms.List {
+		k := r.key(term)
+		a := aggs[k]
+		if a == nil {
+			if names == nil {
+				for _, k := range order {
+					names = append(names, aggs[k].term)
+				}
+			}
+			hint := ""
+			if c := specs.Closest(term, names, 3); len(c) > 0 {
+				hint = "; closest: " + quoteList(c)
+			}
+			r.errs.Add(s.Where(fmt.Sprintf("terms.list.%d", i)), "term %q is not in %s%s", term, s.Data.Counts, hint)
+			continue
+		}
+		if picked[k] || excluded[k] {
+			continue
+		}
+		picked[k] = true
+		sel = append(sel, k)
+	}
+	if s.Terms.Top > 0 || len(s.Terms.List) == 0 {
+		var cand []string
+		for _, k := range order {
+			if !picked[k] && !excluded[k] && aggs[k].total >= s.Terms.MinTotal {
+				cand = append(cand, k)
+			}
+		}
+		sort.SliceStable(cand, func(i, j int) bool {
+			a, b := aggs[cand[i]], aggs[cand[j]]
+			if a.share != b.share {
+				return a.share > b.share
+			}
+			return a.term < b.term
+		})
+		if s.Terms.Top > 0 && len(cand) > s.Terms.Top {
+			cand = cand[:s.Terms.Top]
+		}
+		sel = append(sel, cand...)
+	}
+	for i, k := range sel {
+		aggs[k].idx = i
+	}
+	return sel
+}
+
+// pass2 collects the counts of the selected terms.
+func (r *reader) pass2(aggs map[string]*agg, selected []string) {
+	s := r.spec
+	t := openTable(s, "counts", s.Data.Counts, []string{"term", "year", "count"}, r.errs)
+	if t == nil {
+		return
+	}
+	defer t.f.Close()
+	span := s.Years.Len()
+	counts := make([]float64, len(selected)*span)
+	for i := range selected {
+		for y := s.Years.From; y <= s.Years.To; y++ {
+			if _, ok := r.totals[y]; !ok {
+				counts[i*span+y-s.Years.From] = math.NaN()
+			}
+		}
+	}
+	tc, yc, cc := t.cols["term"], t.cols["year"], t.cols["count"]
+	for {
+		rec, _, ok := t.next(r.errs)
+		if !ok {
+			break
+		}
+		a := aggs[r.key(strings.TrimSpace(rec[tc]))]
+		if a == nil || a.idx < 0 {
+			continue
+		}
+		y, _ := parseYear(rec[yc])
+		v, _ := parseNumber(rec[cc])
+		counts[a.idx*span+y-s.Years.From] = v
+	}
+	r.counts = counts
+}
