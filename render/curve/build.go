@@ -108,6 +108,9 @@ func (b *Builder) Build(xs, ys []float64, m Map, dst []Run) ([]Run, error) {
 func (b *Builder) run(xs, ys []float64, first int, m Map, sy float64) (Run, error) {
 	p0 := m.Apply(xs[0], ys[0])
 	r := Run{First: first, Start: p0}
+	if !finite(p0.X) || !finite(p0.Y) {
+		return r, outside(first, xs[0], ys[0])
+	}
 	if len(xs) == 1 {
 		return r, nil
 	}
@@ -116,6 +119,9 @@ func (b *Builder) run(xs, ys []float64, first int, m Map, sy float64) (Run, erro
 	start := len(b.bez)
 	for k := 0; k+1 < len(xs); k++ {
 		p3 := m.Apply(xs[k+1], ys[k+1])
+		if !finite(p3.X) || !finite(p3.Y) {
+			return r, outside(first+k+1, xs[k+1], ys[k+1])
+		}
 		h := xs[k+1] - xs[k]
 		third := (p3.X - p0.X) / 3
 		y1 := p0.Y + sy*(d[k]*h)/3
@@ -162,12 +168,10 @@ func check(xs, ys []float64, m Map) error {
 		if math.IsInf(y, 0) {
 			return fmt.Errorf("curve: y[%d] = %v is infinite (use NaN for a missing value)", i, y)
 		}
-		if math.IsNaN(y) {
-			continue
-		}
-		if p := m.Apply(x, y); !finite(p.X) || !finite(p.Y) {
-			return fmt.Errorf("curve: point %d (%v, %v) maps outside the floating-point range", i, x, y)
-		}
 	}
 	return nil
+}
+
+func outside(i int, x, y float64) error {
+	return fmt.Errorf("curve: point %d (%v, %v) maps outside the floating-point range", i, x, y)
 }

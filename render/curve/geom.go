@@ -12,19 +12,14 @@ type Point struct{ X, Y float64 }
 // Bezier is a cubic Bézier segment from P0 to P3 with control points P1 and P2.
 type Bezier struct{ P0, P1, P2, P3 Point }
 
-// At returns the point at parameter t in [0, 1]. At(0) is P0 and At(1) is
-// P3, exactly.
+// At returns the point at parameter t in [0, 1], by de Casteljau's
+// construction. At(0) is P0 and At(1) is P3 exactly, and a flat segment
+// stays exactly flat.
 func (b Bezier) At(t float64) Point {
-	s := 1 - t
-	// Bernstein weights; at t = 0 or 1 all but one weight is exactly zero.
-	w0 := s * s * s
-	w1 := 3 * s * s * t
-	w2 := 3 * s * t * t
-	w3 := t * t * t
-	return Point{
-		X: w0*b.P0.X + w1*b.P1.X + w2*b.P2.X + w3*b.P3.X,
-		Y: w0*b.P0.Y + w1*b.P1.Y + w2*b.P2.Y + w3*b.P3.Y,
-	}
+	p01 := lerp(b.P0, b.P1, t)
+	p12 := lerp(b.P1, b.P2, t)
+	p23 := lerp(b.P2, b.P3, t)
+	return lerp(lerp(p01, p12, t), lerp(p12, p23, t), t)
 }
 
 // Split cuts b at parameter t (de Casteljau) into the parts before and
@@ -72,8 +67,15 @@ func (b Bezier) YAt(x float64) float64 {
 	return b.At((x - b.P0.X) / (b.P3.X - b.P0.X)).Y
 }
 
-func lerp(a, b Point, t float64) Point {
-	return Point{a.X + t*(b.X-a.X), a.Y + t*(b.Y-a.Y)}
+func lerp(a, b Point, t float64) Point { return Point{lerp1(a.X, b.X, t), lerp1(a.Y, b.Y, t)} }
+
+// lerp1 is exact at t = 0 and t = 1 and returns a when a == b, so end
+// points and flat runs survive evaluation and splitting unchanged.
+func lerp1(a, b, t float64) float64 {
+	if t < 0.5 {
+		return a + t*(b-a)
+	}
+	return b - (1-t)*(b-a)
 }
 
 // Map is the affine map from data space (years, values) to a panel's plot

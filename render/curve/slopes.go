@@ -89,7 +89,8 @@ func endSlope(xe, xm, xi, ye, ym, yi float64) float64 {
 // Unlike a*b > 0 it cannot underflow for tiny slopes.
 func sameSign(a, b float64) bool { return (a > 0 && b > 0) || (a < 0 && b < 0) }
 
-func finite(v float64) bool { return !math.IsNaN(v) && !math.IsInf(v, 0) }
+// finite reports whether v is neither NaN nor infinite (both make v−v NaN).
+func finite(v float64) bool { return v-v == 0 }
 
 // grow returns s[:n], reallocating only when its capacity is short.
 func grow[T any](s []T, n int) []T {
