@@ -1,0 +1,252 @@
+// Package fonts loads the typefaces of an output and measures text with
+// them. Layout sizes every text band from these measurements and the render
+// stage draws with the very same parsed fonts, so text measured here is text
+// drawn there.
+//
+// All sizes and lengths are in PostScript points; canvas works in
+// millimetres, and the conversion stays inside this package.
+package fonts
+
+import (
+	"fmt"
+	"os"
+	"strings"
+	"sync"
+
+	"github.com/tdewolff/canvas"
+	"golang.org/x/image/font/gofont/gobold"
+	"golang.org/x/image/font/gofont/goitalic"
+	"golang.org/x/image/font/gofont/goregular"
+
+	"sheaf/specs"
+)
+
+// mmPerPt converts points (1/72 in, ISO 32000-1 §8.3.2.3) to millimetres
+// (1 in = 25.4 mm exactly).
+const mmPerPt = 25.4 / 72
+
+// Style is the role of a face within a Set.
+type Style int
+
+const (
+	Regular Style = iota
+	Bold
+	Italic
+	numStyles
+)
+
+func (s Style) String() string {
+	switch s {
+	case Regular:
+		return "regular"
+	case Bold:
+		return "bold"
+	case Italic:
+		return "italic"
+	}
+	return fmt.Sprintf("Style(%d)", int(s))
+}
+
+// Set is the fonts of one output, parsed once. A Set is safe for concurrent
+// use by its own methods; the *canvas.FontFace values it hands out share the
+// parsed fonts.
+type Set struct {
+	raw   [numStyles][]byte
+	path  [numStyles]string // resolved path; "" for a built-in Go font
+	fonts [numStyles]*canvas.Font
+
+	// The shaper behind canvas.FontFace.TextWidth is not documented as safe
+	// for concurrent use, so measuring goes through one lock per Set.
+	// Shaping costs about 10 µs a string; layout measures the same folios,
+	// headings and lines again for every output and page, hence the cache.
+	mu     sync.Mutex
+	widths map[widthKey]float64
+}
+
+type widthKey struct {
+	st   Style
+	size float64
+	text string
+}
+
+// maxCached bounds the width cache; past it, widths are measured afresh.
+const maxCached = 1 << 14
+
+// Load returns the fonts of out: the TTF/OTF files named in out.Fonts,
+// resolved against the spec's folder, or the Go fonts embedded in the binary
+// where a path is empty. The italic face is Go Italic when the regular face
+// is built in; with a custom regular face it is that face (the spec names
+// no italic file).
+func Load(spec *specs.Spec, out *specs.Output) (*Set, error) {
+	if spec == nil || out == nil {
+		return nil, fmt.Errorf("fonts: Load needs a spec and an output")
+	}
+	s := &Set{}
+	load := func(st Style, written, key string, builtin []byte) error {
+		if written == "" {
+			return s.set(st, builtin, "")
+		}
+		resolved := spec.Resolve(written)
+		where := fmt.Sprintf("%s: output %q: fonts.%s", spec.Where("outputs."+out.Name+".fonts."+key), out.Name, key)
+		b, err := os.ReadFile(resolved)
+		if err != nil {
+			return fmt.Errorf("%s: cannot read font %q (resolved to %q): %w", where, written, resolved, err)
+		}
+		if err := s.set(st, b, resolved); err != nil {
+			return fmt.Errorf("%s: %q (resolved to %q) is not a usable TrueType/OpenType font: %w", where, written, resolved, err)
+		}
+		return nil
+	}
+	if err := load(Regular, out.Fonts.Regular, "regular", goregular.TTF); err != nil {
+		return nil, err
+	}
+	if err := load(Bold, out.Fonts.Bold, "bold", gobold.TTF); err != nil {
+		return nil, err
+	}
+	if out.Fonts.Regular == "" {
+		if err := s.set(Italic, goitalic.TTF, ""); err != nil {
+			return nil, err
+		}
+	} else {
+		s.raw[Italic], s.path[Italic], s.fonts[Italic] = s.raw[Regular], s.path[Regular], s.fonts[Regular]
+	}
+	return s, nil
+}
+
+// Default returns a Set of the built-in Go fonts.
+func Default() (*Set, error) {
+	return Load(&specs.Spec{}, &specs.Output{})
+}
+
+// set parses b. Font files come from users, so a panic inside the parser is
+// turned into an error rather than taking the program down.
+func (s *Set) set(st Style, b []byte, path string) (err error) {
+	defer func() {
+		if r := recover(); r != nil {
+			err = fmt.Errorf("font parser failed: %v", r)
+		}
+	}()
+	f, err := canvas.LoadFont(b, 0, canvas.FontRegular)
+	if err != nil {
+		return err
+	}
+	if f.Head == nil || f.Head.UnitsPerEm == 0 {
+		return fmt.Errorf("font has no units per em")
+	}
+	s.raw[st], s.path[st], s.fonts[st] = b, path, f
+	return nil
+}
+
+// Regular returns the raw bytes of the regular font file, for embedding.
+func (s *Set) Regular() []byte { return s.raw[Regular] }
+
+// Bold returns the raw bytes of the bold font file, for embedding.
+func (s *Set) Bold() []byte { return s.raw[Bold] }
+
+// Italic returns the raw bytes of the italic font file, for embedding.
+func (s *Set) Italic() []byte { return s.raw[Italic] }
+
+// Bytes returns the raw bytes of the font for st.
+func (s *Set) Bytes(st Style) []byte { return s.raw[s.valid(st)] }
+
+// Path returns the resolved file path of the font for st, or "" for a
+// built-in Go font.
+func (s *Set) Path(st Style) string { return s.path[s.valid(st)] }
+
+// Font returns the parsed canvas font for st.
+func (s *Set) Font(st Style) *canvas.Font { return s.fonts[s.valid(st)] }
+
+// Name returns the font's name from its name table.
+func (s *Set) Name(st Style) string { return s.fonts[s.valid(st)].Name() }
+
+func (s *Set) valid(st Style) Style {
+	if st < 0 || st >= numStyles {
+		return Regular
+	}
+	return st
+}
+
+// Face returns a black canvas face of st at size points. Callers may change
+// its Fill.
+func (s *Set) Face(st Style, size float64) *canvas.FontFace {
+	return s.Font(st).Face(size, canvas.Black)
+}
+
+// Metrics are the vertical metrics of a face, in points. Ascent and Descent
+// are both positive distances from the baseline.
+type Metrics struct {
+	Ascent, Descent, LineGap, CapHeight, XHeight float64
+}
+
+// Metrics returns the vertical metrics of st at size points.
+func (s *Set) Metrics(st Style, size float64) Metrics {
+	m := s.Face(st, size).Metrics()
+	return Metrics{
+		Ascent:    m.Ascent / mmPerPt,
+		Descent:   m.Descent / mmPerPt,
+		LineGap:   m.LineGap / mmPerPt,
+		CapHeight: m.CapHeight / mmPerPt,
+		XHeight:   m.XHeight / mmPerPt,
+	}
+}
+
+// Baseline returns the baseline of a line of type set in a line box whose
+// top is at top (y grows up) and whose height is size × leading: the
+// leading is split evenly above and below the glyphs' ascent + descent, as
+// CSS does for line boxes (CSS 2.1 §10.8.1).
+func (s *Set) Baseline(st Style, size, leading, top float64) float64 {
+	m := s.Metrics(st, size)
+	half := (size*leading - (m.Ascent + m.Descent)) / 2
+	return top - half - m.Ascent
+}
+
+// Width returns the advance width of text set in st at size points, with
+// the font's kerning and shaping applied.
+func (s *Set) Width(st Style, size float64, text string) float64 {
+	if text == "" {
+		return 0
+	}
+	k := widthKey{s.valid(st), size, text}
+	s.mu.Lock()
+	defer s.mu.Unlock()
+	if w, ok := s.widths[k]; ok {
+		return w
+	}
+	w := s.Face(st, size).TextWidth(text) / mmPerPt
+	if s.widths == nil {
+		s.widths = make(map[widthKey]float64)
+	}
+	if len(s.widths) < maxCached {
+		s.widths[k] = w
+	}
+	return w
+}
+
+// Wrap breaks text into lines no wider than width points, greedily at
+// spaces; a newline in text forces a break. A single word wider than width
+// stays whole on its own line (breaking inside words would garble terms);
+// callers can detect it with Width. Runs of spaces collapse to one. Empty
+// text gives no lines.
+func (s *Set) Wrap(st Style, size float64, text string, width float64) []string {
+	var lines []string
+	for _, para := range strings.Split(text, "\n") {
+		words := strings.Fields(para)
+		if len(words) == 0 {
+			continue
+		}
+		cur := words[0]
+		for _, w := range words[1:] {
+			try := cur + " " + w
+			// Measure the whole candidate line, not word sums: kerning
+			// across the space counts.
+			if s.Width(st, size, try) <= width {
+				cur = try
+				continue
+			}
+			lines = append(lines, cur)
+			cur = w
+		}
+		lines = append(lines, cur)
+	}
+	return lines
+}
