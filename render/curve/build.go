@@ -83,6 +83,7 @@ func (b *Builder) Build(xs, ys []float64, m Map, dst []Run) ([]Run, error) {
 		b.bez = make([]Bezier, 0, max(need, 2*cap(b.bez)))
 	}
 	_, sy := m.Scale()
+	sy3 := sy / 3 // plot rise per data rise, over the third of an interval
 	orig, mark := len(dst), len(b.bez)
 	for i := 0; i < n; {
 		if math.IsNaN(ys[i]) {
@@ -93,7 +94,7 @@ func (b *Builder) Build(xs, ys []float64, m Map, dst []Run) ([]Run, error) {
 		for j < n && !math.IsNaN(ys[j]) {
 			j++
 		}
-		r, err := b.run(xs[i:j], ys[i:j], i, m, sy)
+		r, err := b.run(xs[i:j], ys[i:j], i, m, sy3)
 		if err != nil {
 			b.bez = b.bez[:mark]
 			return dst[:orig], err
@@ -105,7 +106,7 @@ func (b *Builder) Build(xs, ys []float64, m Map, dst []Run) ([]Run, error) {
 }
 
 // run builds the run of points xs, ys (no gaps), which start at index first.
-func (b *Builder) run(xs, ys []float64, first int, m Map, sy float64) (Run, error) {
+func (b *Builder) run(xs, ys []float64, first int, m Map, sy3 float64) (Run, error) {
 	p0 := m.Apply(xs[0], ys[0])
 	r := Run{First: first, Start: p0}
 	if !finite(p0.X) || !finite(p0.Y) {
@@ -124,8 +125,8 @@ func (b *Builder) run(xs, ys []float64, first int, m Map, sy float64) (Run, erro
 		}
 		h := xs[k+1] - xs[k]
 		third := (p3.X - p0.X) / 3
-		y1 := p0.Y + sy*(d[k]*h)/3
-		y2 := p3.Y - sy*(d[k+1]*h)/3
+		y1 := p0.Y + sy3*(d[k]*h)
+		y2 := p3.Y - sy3*(d[k+1]*h)
 		// Fritsch–Butland slopes keep the control points between the end
 		// points' heights (slope ≤ 3·secant); clamping only removes
 		// rounding, so the segment provably stays in range.

@@ -43,10 +43,11 @@ func slopes(xs, ys, dst []float64) []float64 {
 		return dst
 	}
 	// Interior: weighted harmonic mean of the neighbouring secants
-	// (Fritsch & Butland 1984, eq. for G with weights 2h_k+h_k−1 and
-	// h_k+2h_k−1), zero at a turn or next to a flat interval. Written in the
-	// same operation order as gonum's FritschButland so the two agree to
-	// rounding.
+	// (Fritsch & Butland 1984; weights 2h_k+h_k−1 and h_k+2h_k−1), zero at
+	// a turn or next to a flat interval. Written in the same operation
+	// order as gonum's FritschButland so the two agree to rounding; the
+	// sign test differs from gonum's product test only where that product
+	// would underflow to zero.
 	sPrev := (ys[1] - ys[0]) / (xs[1] - xs[0])
 	for i := 1; i < n-1; i++ {
 		s := (ys[i+1] - ys[i]) / (xs[i+1] - xs[i])
