@@ -53,12 +53,19 @@ func Parse(file string, data []byte) (*Spec, error) {
 	if err := yaml.Unmarshal(data, &root); err != nil {
 		return nil, Errors{yamlError(file, data, err)}
 	}
-	d := &decoder{file: file, pos: map[string]Pos{}}
-	s := &Spec{File: file, Dir: filepath.Dir(file), positions: d.pos}
 	doc := &root
 	if doc.Kind == yaml.DocumentNode && len(doc.Content) == 1 {
 		doc = doc.Content[0]
 	}
+	if doc.Kind == 0 || doc.Kind == yaml.DocumentNode {
+		// Only comments or document markers: nothing was said.
+		return nil, Errors{{Pos: Pos{File: file, Line: 1, Col: 1}, Msg: "the spec is empty; it needs at least data, years and outputs"}}
+	}
+	if e := checkAliases(file, doc); e != nil {
+		return nil, Errors{e}
+	}
+	d := &decoder{file: file, pos: map[string]Pos{}}
+	s := &Spec{File: file, Dir: filepath.Dir(file), positions: d.pos}
 	d.spec(doc, s)
 	if len(d.errs) > 0 {
 		sort.SliceStable(d.errs, func(i, j int) bool {
@@ -70,8 +77,52 @@ func Parse(file string, data []byte) (*Spec, error) {
 	return s, nil
 }
 
-// yamlError turns a yaml.v3 syntax error into one with a column. yaml.v3
-// reports only the line; the column is the line's first non-blank
+// checkAliases rejects documents whose aliases expand to more than
+// maxNodes nodes (the "billion laughs" shape) or refer to themselves. It
+// sizes every node once, so the check is linear in the text, not in the
+// expansion. The error points at the first node whose expansion is too big.
+func checkAliases(file string, root *yaml.Node) *Error {
+	size := map[*yaml.Node]int{}
+	const busy = -1
+	var bad *Error
+	var walk func(n *yaml.Node) int
+	walk = func(n *yaml.Node) int {
+		if bad != nil {
+			return 0
+		}
+		if s, ok := size[n]; ok {
+			if s == busy {
+				bad = &Error{Pos: Pos{File: file, Line: n.Line, Col: n.Column}, Msg: "a YAML alias refers to a value that contains it; write it out plainly"}
+				return 0
+			}
+			return s
+		}
+		size[n] = busy
+		total := 1
+		if n.Kind == yaml.AliasNode && n.Alias != nil {
+			total = walk(n.Alias)
+		}
+		for _, c := range n.Content {
+			total += walk(c)
+			if total > maxNodes {
+				break
+			}
+		}
+		if total > maxNodes && bad == nil {
+			bad = &Error{Pos: Pos{File: file, Line: n.Line, Col: n.Column}, Msg: aliasMsg}
+		}
+		size[n] = total
+		return total
+	}
+	walk(root)
+	return bad
+}
+
+// yamlError turns a yaml.v3 syntax error into one with a line and column.
+// yaml.v3 reports the line where the enclosing construct began (for some
+// errors 0-based, for some not at all), so the line is found again by
+// parsing ever longer prefixes of the text, line by line, until one fails
+// with the same message. The column is the line's first non-blank
 // character, or the first tab when tabs are the trouble.
 func yamlError(file string, data []byte, err error) *Error {
 	msg := err.Error()
@@ -83,6 +134,23 @@ func yamlError(file string, data []byte, err error) *Error {
 		msg = strings.TrimPrefix(msg, "yaml: ")
 	}
 	lines := strings.Split(string(data), "\n")
+	if len(lines) <= maxScanLines {
+		for k := 1; k <= len(lines); k++ {
+			var n yaml.Node
+			perr := yaml.Unmarshal([]byte(strings.Join(lines[:k], "\n")+"\n"), &n)
+			if perr == nil {
+				continue
+			}
+			pm := strings.TrimPrefix(perr.Error(), "yaml: ")
+			if m := yamlLine.FindStringSubmatch(perr.Error()); m != nil {
+				pm = m[2]
+			}
+			if pm == msg {
+				line = k
+				break
+			}
+		}
+	}
 	col := 1
 	if line >= 1 && line <= len(lines) {
 		text := lines[line-1]
@@ -129,6 +197,10 @@ func (d *decoder) overBudget(n *yaml.Node) bool {
 	}
 	return false
 }
+
+// maxScanLines bounds the prefix search for a syntax error's line; it is
+// quadratic, and specs are far shorter.
+const maxScanLines = 2000
 
 const aliasMsg = "the spec expands to too many values (YAML aliases that multiply); write it out plainly"
 
@@ -358,7 +430,12 @@ func (d *decoder) spec(n *yaml.Node, s *Spec) {
 	var order, group string
 	outputsSeen := false
 	d.mapping(n, "", []field{
-		{"title", d.str(&s.Title)},
+		{"title", func(n *yaml.Node, path string) {
+			d.str(&s.Title)(n, path)
+			if n.Kind == yaml.ScalarNode && n.Tag == "!!str" && strings.TrimSpace(s.Title) == "" {
+				d.errorf(n, "title is empty; every page shows it")
+			}
+		}},
 		{"dek", d.str(&s.Dek)},
 		{"source", d.str(&s.Source)},
 		{"notes", d.strings(&s.Notes)},
@@ -425,7 +502,7 @@ func (d *decoder) spec(n *yaml.Node, s *Spec) {
 			s.Scale.YRange = YShared
 		}
 	}
-	if s.Title == "" {
+	if _, given := d.pos["title"]; !given && n.Kind == yaml.MappingNode {
 		d.errs.Add(Pos{File: d.file, Line: 1, Col: 1}, "title is missing; every page shows it")
 	}
 	if outputsSeen && len(s.Outputs) == 0 && len(d.errs) == 0 {

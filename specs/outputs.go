@@ -221,10 +221,10 @@ func (d *decoder) output(n *yaml.Node, path, name string) Output {
 			path, (mmPt(7)).Mm(), o.Slug.Mm())
 	}
 	if w := o.Margins.Inside + o.Margins.Outside; w >= o.Trim.W {
-		d.errorf(at("margins"), "%s: the inside and outside margins (%.1f mm together) leave no room on a %.1f mm wide page", path, w.Mm(), o.Trim.W.Mm())
+		d.errorf(at("margins"), "%s: the inside and outside margins (%s together) leave no room on a %s wide page", path, o.Describe(w), o.Describe(o.Trim.W))
 	}
 	if h := o.Margins.Top + o.Margins.Bottom; o.Trim.H > 0 && h >= o.Trim.H {
-		d.errorf(at("margins"), "%s: the top and bottom margins (%.1f mm together) leave no room on a %.1f mm tall page", path, h.Mm(), o.Trim.H.Mm())
+		d.errorf(at("margins"), "%s: the top and bottom margins (%s together) leave no room on a %s tall page", path, o.Describe(h), o.Describe(o.Trim.H))
 	}
 	return o
 }

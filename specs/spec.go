@@ -10,15 +10,19 @@ import (
 	"path/filepath"
 )
 
-// Pos is a place in a spec file. Line and Col are 1-based.
+// Pos is a place in a spec or data file. Line and Col are 1-based; 0
+// means unknown, and String leaves it out.
 type Pos struct {
 	File      string
 	Line, Col int
 }
 
 func (p Pos) String() string {
-	if p.Line == 0 {
+	switch {
+	case p.Line == 0:
 		return p.File
+	case p.Col == 0:
+		return fmt.Sprintf("%s:%d", p.File, p.Line)
 	}
 	return fmt.Sprintf("%s:%d:%d", p.File, p.Line, p.Col)
 }

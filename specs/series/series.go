@@ -132,7 +132,7 @@ func (r *reader) key(term string) string {
 
 // table opens a CSV or TSV file (by extension) and maps its header.
 type table struct {
-	name  string // as written in the spec
+	name  string // resolved path, for positions in messages
 	f     *os.File
 	csv   *csv.Reader
 	cols  map[string]int
@@ -172,15 +172,17 @@ func openTable(s *specs.Spec, key, name string, want []string, errs *specs.Error
 		errs.Add(s.Where("data."+key), "data.%s: %q must end in .csv or .tsv (that decides the separator)", key, name)
 		return nil
 	}
-	t := &table{name: name, f: f, csv: c, cols: map[string]int{}}
+	// Positions name the file as resolved, so that they can be opened
+	// from where sheaf was run.
+	t := &table{name: path, f: f, csv: c, cols: map[string]int{}}
 	head, err := c.Read()
 	if err == io.EOF {
-		errs.Add(specs.Pos{File: name, Line: 1}, "the table is empty; it needs a header row with %s", strings.Join(want, ", "))
+		errs.Add(specs.Pos{File: path, Line: 1, Col: 1}, "the table is empty; it needs a header row with %s", strings.Join(want, ", "))
 		f.Close()
 		return nil
 	}
 	if err != nil {
-		errs.Add(csvPos(name, err), "%v", csvMsg(err))
+		errs.Add(csvPos(path, err), "%v", csvMsg(err))
 		f.Close()
 		return nil
 	}
@@ -195,7 +197,7 @@ func openTable(s *specs.Spec, key, name string, want []string, errs *specs.Error
 		t.width = max(t.width, t.cols[w]+1)
 	}
 	if len(missing) > 0 {
-		errs.Add(specs.Pos{File: name, Line: 1}, "the header needs columns named %s; it has %s",
+		errs.Add(specs.Pos{File: path, Line: 1, Col: 1}, "the header needs columns named %s; it has %s",
 			strings.Join(want, ", "), quoteList(head))
 		f.Close()
 		return nil
@@ -227,6 +229,12 @@ func csvMsg(err error) string {
 	return err.Error()
 }
 
+// at is the place of field i of the record last read.
+func (t *table) at(i int) specs.Pos {
+	line, col := t.csv.FieldPos(i)
+	return specs.Pos{File: t.name, Line: line, Col: col}
+}
+
 // next returns the next record and its line, or nil at the end.
 func (t *table) next(errs *specs.Errors) ([]string, int, bool) {
 	for {
@@ -245,7 +253,7 @@ func (t *table) next(errs *specs.Errors) ([]string, int, bool) {
 			continue
 		}
 		if len(rec) < t.width {
-			if !errs.Add(specs.Pos{File: t.name, Line: line}, "the row has %d fields; the header asks for at least %d", len(rec), t.width) {
+			if !errs.Add(specs.Pos{File: t.name, Line: line, Col: 1}, "the row has %d fields; the header asks for at least %d", len(rec), t.width) {
 				return nil, 0, false
 			}
 			continue
@@ -289,23 +297,22 @@ func readTotals(s *specs.Spec, errs *specs.Errors) (map[int]float64, bool) {
 		if !ok {
 			break
 		}
-		pos := specs.Pos{File: t.name, Line: line}
 		y, msg := parseYear(rec[yc])
 		if msg != "" {
-			errs.Add(pos, "%s", msg)
+			errs.Add(t.at(yc), "%s", msg)
 			continue
 		}
 		v, msg := parseNumber(rec[tc])
 		if msg != "" {
-			errs.Add(pos, "total for %d: %s", y, msg)
+			errs.Add(t.at(tc), "total for %d: %s", y, msg)
 			continue
 		}
 		if v == 0 {
-			errs.Add(pos, "total for %d is 0; leave the year out if nothing was published", y)
+			errs.Add(t.at(tc), "total for %d is 0; leave the year out if nothing was published", y)
 			continue
 		}
 		if l, dup := lines[y]; dup {
-			errs.Add(pos, "year %d is given twice (first on line %d)", y, l)
+			errs.Add(t.at(yc), "year %d is given twice (first on line %d)", y, l)
 			continue
 		}
 		lines[y] = line
@@ -332,6 +339,7 @@ func (r *reader) pass1() (map[string]*agg, []string) {
 	var order []string
 	tc, yc, cc := t.cols["term"], t.cols["year"], t.cols["count"]
 	needTotals := s.Scale.Mode != specs.ScaleRaw
+	spellings := map[string][]uint64{} // fold-case only: rows seen per spelling
 	var words float64
 	for _, v := range r.totals {
 		words += v
@@ -342,20 +350,21 @@ func (r *reader) pass1() (map[string]*agg, []string) {
 			break
 		}
 		r.rows++
-		pos := specs.Pos{File: t.name, Line: line}
 		term := strings.TrimSpace(rec[tc])
 		if term == "" {
-			if !r.errs.Add(pos, "the term is empty") {
+			if !r.errs.Add(t.at(tc), "the term is empty") {
 				break
 			}
 			continue
 		}
+		field := yc // the field a problem is in
 		y, msg := parseYear(rec[yc])
 		if msg == "" && (y < s.Years.From || y > s.Years.To) {
 			msg = fmt.Sprintf("year %d is outside the span %d–%d set at %s", y, s.Years.From, s.Years.To, s.Where("years"))
 		}
 		var v float64
 		if msg == "" {
+			field = cc
 			if v, msg = parseNumber(rec[cc]); msg != "" {
 				msg = fmt.Sprintf("count for %q in %d: %s", term, y, msg)
 			}
@@ -370,7 +379,7 @@ func (r *reader) pass1() (map[string]*agg, []string) {
 			}
 		}
 		if msg != "" {
-			if !r.errs.Add(pos, "%s", msg) {
+			if !r.errs.Add(t.at(field), "%s", msg) {
 				break
 			}
 			continue
@@ -382,14 +391,24 @@ func (r *reader) pass1() (map[string]*agg, []string) {
 			aggs[k] = a
 			order = append(order, k)
 		}
+		// A second row for the same spelling and year is a mistake; with
+		// fold-case, spellings that differ in case are added together.
+		years := a.years
+		if r.fold {
+			sp := norm.NFC.String(term)
+			if years = spellings[sp]; years == nil {
+				years = make([]uint64, (span+63)/64)
+				spellings[sp] = years
+			}
+		}
 		i := y - s.Years.From
-		if a.years[i/64]&(1<<(i%64)) != 0 {
-			if !r.errs.Add(pos, "%q has a second row for %d", term, y) {
+		if years[i/64]&(1<<(i%64)) != 0 {
+			if !r.errs.Add(t.at(yc), "%q has a second row for %d", term, y) {
 				break
 			}
 			continue
 		}
-		a.years[i/64] |= 1 << (i % 64)
+		years[i/64] |= 1 << (i % 64)
 		a.total += v
 	}
 	for _, a := range aggs {
@@ -485,7 +504,14 @@ func (r *reader) pass2(aggs map[string]*agg, selected []string) {
 		}
 		y, _ := parseYear(rec[yc])
 		v, _ := parseNumber(rec[cc])
-		counts[a.idx*span+y-s.Years.From] = v
+		// Add, not set: with fold-case several spellings share a term. A
+		// gap year (NaN) takes the count as it is; only raw scaling
+		// lets counts into such years.
+		if c := &counts[a.idx*span+y-s.Years.From]; math.IsNaN(*c) {
+			*c = v
+		} else {
+			*c += v
+		}
 	}
 	r.counts = counts
 }
