@@ -1,0 +1,85 @@
+package palette
+
+import (
+	"math"
+	"testing"
+)
+
+// Reference: testdata/oklab_reference.csv — B. Ottosson, "A perceptual
+// color space for image processing" (2020, matrices updated 2021-01-25):
+// matrices, and the post's table of example XYZ/OKLab pairs (3 decimals);
+// sRGB colours from color.js test/conversions.js (6 significant digits).
+
+func TestOKLabMatrices(t *testing.T) {
+	ours := map[string][3][3]float64{
+		"sRGBlin_to_LMS": oklabFromLinear,
+		"M2_LMSp_to_Lab": oklabM2,
+		"Lab_to_LMSp":    oklabM2Inv,
+		"LMS_to_sRGBlin": oklabToLinear,
+	}
+	n := 0
+	for _, r := range refRows(t, "oklab_reference.csv", ",") {
+		m, ok := ours[r["name"]]
+		if r["kind"] != "matrix" || !ok {
+			continue
+		}
+		i, j := int(num(t, r["i"])), int(num(t, r["j"]))
+		if want := num(t, r["value"]); m[i][j] != want {
+			t.Errorf("%s[%d][%d] = %v, Ottosson (2020) gives %v", r["name"], i, j, m[i][j], want)
+		}
+		n++
+	}
+	if n != 36 {
+		t.Fatalf("checked %d entries, want 36", n)
+	}
+}
+
+func TestOKLabAgainstReference(t *testing.T) {
+	n := 0
+	for _, r := range refRows(t, "oklab_reference.csv", ",") {
+		var c Color
+		switch r["kind"] {
+		case "xyz_pair":
+			c = FromXYZ(XYZ{num(t, r["X"]), num(t, r["Y"]), num(t, r["Z"])})
+		case "srgb_colour":
+			c = mustHex(t, r["hex"])
+		default:
+			continue
+		}
+		tol := num(t, r["tol"])
+		if r["kind"] == "xyz_pair" {
+			tol = 1e-3 // table rounded to 3 decimals; the file advises ~1e-3
+		}
+		got := c.OKLab()
+		want := OKLab{num(t, r["L"]), num(t, r["a"]), num(t, r["b"])}
+		if math.Abs(got.L-want.L) > tol || math.Abs(got.A-want.A) > tol || math.Abs(got.B-want.B) > tol {
+			t.Errorf("%s %s (%s): got %+v want %+v ±%g", r["kind"], r["name"], r["source_key"], got, want, tol)
+		}
+		n++
+	}
+	if n != 12 {
+		t.Fatalf("checked %d colours, want 12", n)
+	}
+}
+
+func TestOKLChPolar(t *testing.T) {
+	// Hue is atan2(b, a) in degrees, [0, 360) (Ottosson 2020, "OKLCh").
+	for _, tc := range []struct {
+		lab OKLab
+		lch OKLCh
+	}{
+		{OKLab{0.5, 0.1, 0}, OKLCh{0.5, 0.1, 0}},
+		{OKLab{0.5, 0, 0.1}, OKLCh{0.5, 0.1, 90}},
+		{OKLab{0.5, -0.1, 0}, OKLCh{0.5, 0.1, 180}},
+		{OKLab{0.5, 0, -0.1}, OKLCh{0.5, 0.1, 270}},
+	} {
+		got := tc.lab.OKLCh()
+		if math.Abs(got.C-tc.lch.C) > 1e-12 || math.Abs(got.H-tc.lch.H) > 1e-9 {
+			t.Errorf("%+v → %+v, want %+v", tc.lab, got, tc.lch)
+		}
+		back := got.OKLab()
+		if math.Abs(back.A-tc.lab.A) > 1e-12 || math.Abs(back.B-tc.lab.B) > 1e-12 {
+			t.Errorf("%+v → %+v → %+v", tc.lab, got, back)
+		}
+	}
+}
