@@ -1,0 +1,134 @@
+package pdf
+
+import (
+	"fmt"
+	"sync"
+
+	"github.com/tdewolff/font"
+	"golang.org/x/image/font/gofont/goregular"
+)
+
+// MarkOptions are the printer's marks of a page. No standard fixes crop
+// mark geometry; the defaults are common practice (see print-facts.md:
+// weight 0.25–0.5 pt, start at least the bleed outside the trim, about
+// 6 mm long). Zero fields take the defaults.
+type MarkOptions struct {
+	Weight float64 // line weight in pt; default 0.25
+	Offset float64 // gap between the BleedBox edge and a mark, pt; default 1 mm
+	Length float64 // mark length in pt; default 6 mm
+	// SlugSize is the slug's font size in pt; default 6.
+	SlugSize float64
+	// SlugBlack prints the slug in black instead of registration colour
+	// (registration puts the text on every plate).
+	SlugBlack bool
+}
+
+// Defaults of MarkOptions, in points.
+const (
+	DefaultMarkWeight = 0.25
+	DefaultMarkOffset = 1 * 72 / 25.4
+	DefaultMarkLength = 6 * 72 / 25.4
+	DefaultSlugSize   = 6.0
+)
+
+func (o MarkOptions) withDefaults() MarkOptions {
+	if o.Weight == 0 {
+		o.Weight = DefaultMarkWeight
+	}
+	if o.Offset == 0 {
+		o.Offset = DefaultMarkOffset
+	}
+	if o.Length == 0 {
+		o.Length = DefaultMarkLength
+	}
+	if o.SlugSize == 0 {
+		o.SlugSize = DefaultSlugSize
+	}
+	return o
+}
+
+// validate checks that the marks fit between the BleedBox and the media
+// edge, so they never print into the bleed (print-facts.md, "Crop marks").
+func (o MarkOptions) validate(b PageBoxes, slug string) error {
+	o = o.withDefaults()
+	if !finite(o.Weight, o.Offset, o.Length, o.SlugSize) || o.Weight < 0 || o.Offset < 0 || o.Length < 0 || o.SlugSize < 0 {
+		return fmt.Errorf("mark options %+v must be finite and not negative", o)
+	}
+	need := o.Offset + o.Length
+	sides := []struct {
+		name  string
+		space float64
+	}{
+		{"left", b.Bleed.X0 - b.Media.X0},
+		{"bottom", b.Bleed.Y0 - b.Media.Y0},
+		{"right", b.Media.X1 - b.Bleed.X1},
+		{"top", b.Media.Y1 - b.Bleed.Y1},
+	}
+	for _, s := range sides {
+		if s.space < need {
+			return fmt.Errorf("crop marks need %.3f pt between BleedBox and MediaBox on the %s, there are %.3f pt", need, s.name, s.space)
+		}
+	}
+	if slug != "" {
+		f := slugFont()
+		// descender room: a quarter of the size is enough for Go Regular
+		if b.Bleed.Y0-o.Offset-o.SlugSize*1.25 < b.Media.Y0 {
+			return fmt.Errorf("slug of %g pt does not fit below the BleedBox (%.3f pt there)", o.SlugSize, b.Bleed.Y0-b.Media.Y0)
+		}
+		// The slug sits between the vertical crop marks at the trim edges.
+		room := b.Trim.W() - 2*o.Offset - 2*o.Weight
+		if w := runWidth(f, slug, o.SlugSize); w > room {
+			return fmt.Errorf("slug %q is %.1f pt wide; only %.1f pt fit between the crop marks", slug, w, room)
+		}
+	}
+	return nil
+}
+
+// slugFont is Go Regular (golang.org/x/image/font/gofont), parsed once;
+// it is immutable afterwards.
+var slugFont = sync.OnceValue(func() *fontData {
+	s, err := font.ParseFont(goregular.TTF, 0)
+	if err != nil {
+		panic("pdf: the built-in Go Regular font does not parse: " + err.Error())
+	}
+	d, err := newFontData(s)
+	if err != nil || !d.embeddable {
+		panic("pdf: the built-in Go Regular font is not embeddable")
+	}
+	return d
+})
+
+// drawMarks draws crop marks at the four trim corners in registration
+// colour and the slug below the bleed.
+func (e *encoder) drawMarks(b PageBoxes, o MarkOptions, slug string) error {
+	o = o.withDefaults()
+	e.save()
+	e.setAlpha(Alpha{1, 1})
+	e.setRegistration()
+	e.buf = appendNum(e.buf, o.Weight)
+	e.buf = append(e.buf, " w 0 J 0 j [] 0 d\n"...)
+	line := func(x0, y0, x1, y1 float64) {
+		e.buf = appendNums(e.buf, x0, y0)
+		e.buf = append(e.buf, " m "...)
+		e.buf = appendNums(e.buf, x1, y1)
+		e.buf = append(e.buf, " l S\n"...)
+	}
+	t, bl := b.Trim, b.Bleed
+	near, far := o.Offset, o.Offset+o.Length
+	for _, x := range []float64{t.X0, t.X1} {
+		line(x, bl.Y0-near, x, bl.Y0-far) // below
+		line(x, bl.Y1+near, x, bl.Y1+far) // above
+	}
+	for _, y := range []float64{t.Y0, t.Y1} {
+		line(bl.X0-near, y, bl.X0-far, y) // left
+		line(bl.X1+near, y, bl.X1+far, y) // right
+	}
+	if slug != "" {
+		if o.SlugBlack {
+			e.setColor([3]float64{0, 0, 0}, false)
+		}
+		e.showRun(slugFont(), slug, o.SlugSize, t.X0+o.Offset+o.Weight, bl.Y0-o.Offset-o.SlugSize)
+	}
+	e.restore()
+	return nil
+}
