@@ -90,16 +90,16 @@ func checkAliases(file string, root *yaml.Node) *Error {
 		if bad != nil {
 			return 0
 		}
-		if s, ok := size[n]; ok {
-			if s == busy {
-				bad = &Error{Pos: Pos{File: file, Line: n.Line, Col: n.Column}, Msg: "a YAML alias refers to a value that contains it; write it out plainly"}
-				return 0
-			}
+		if s, ok := size[n]; ok && s != busy {
 			return s
 		}
 		size[n] = busy
 		total := 1
 		if n.Kind == yaml.AliasNode && n.Alias != nil {
+			if size[n.Alias] == busy {
+				bad = &Error{Pos: Pos{File: file, Line: n.Line, Col: n.Column}, Msg: "a YAML alias refers to a value that contains it; write it out plainly"}
+				return 0
+			}
 			total = walk(n.Alias)
 		}
 		for _, c := range n.Content {
@@ -506,7 +506,7 @@ func (d *decoder) spec(n *yaml.Node, s *Spec) {
 		d.errs.Add(Pos{File: d.file, Line: 1, Col: 1}, "title is missing; every page shows it")
 	}
 	if outputsSeen && len(s.Outputs) == 0 && len(d.errs) == 0 {
-		d.errorf(n, "outputs: give at least one output")
+		d.errs.Add(s.Where("outputs"), "outputs: give at least one output")
 	}
 	d.checkInserts(s)
 	d.palettePaper(&s.Palette)

@@ -220,10 +220,13 @@ func (d *decoder) output(n *yaml.Node, path, name string) Output {
 		d.errorf(at("slug"), "%s: crop marks need a slug area of at least %.1f mm outside the bleed (1 mm gap + 6 mm mark); slug is %.1f mm",
 			path, (mmPt(7)).Mm(), o.Slug.Mm())
 	}
-	if w := o.Margins.Inside + o.Margins.Outside; w >= o.Trim.W {
+	// Compare with a little slack: margins that use up the page exactly
+	// should not slip through on rounding (110 mm + 100 mm vs 210 mm).
+	const eps = 1e-6
+	if w := o.Margins.Inside + o.Margins.Outside; w >= o.Trim.W-eps {
 		d.errorf(at("margins"), "%s: the inside and outside margins (%s together) leave no room on a %s wide page", path, o.Describe(w), o.Describe(o.Trim.W))
 	}
-	if h := o.Margins.Top + o.Margins.Bottom; o.Trim.H > 0 && h >= o.Trim.H {
+	if h := o.Margins.Top + o.Margins.Bottom; o.Trim.H > 0 && h >= o.Trim.H-eps {
 		d.errorf(at("margins"), "%s: the top and bottom margins (%s together) leave no room on a %s tall page", path, o.Describe(h), o.Describe(o.Trim.H))
 	}
 	return o

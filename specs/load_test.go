@@ -1,0 +1,336 @@
+package specs
+
+import (
+	"fmt"
+	"math"
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+)
+
+// head is the smallest valid spec; cases append to it or replace it.
+const head = `title: T
+data: {counts: c.csv, totals: t.csv}
+years: {from: 1900, to: 1950}
+`
+
+// printOut is a valid print output that a case can add keys to (line 5 on).
+const printOut = head + `outputs:
+  print:
+    kind: print
+`
+
+// TestParseErrors checks that each problem is found at its place with a
+// clear message. Positions are counted by hand from the inline text
+// (line:col, 1-based, as YAML 1.2 §5 numbers them and editors show them).
+// Messages are this project's own wording.
+func TestParseErrors(t *testing.T) {
+	tests := []struct {
+		name string
+		text string
+		at   string // "line:col"
+		want string // substring of the message
+	}{
+		{"empty", "", "1:1", "the spec is empty"},
+		{"blank lines", "\n  \n\n", "1:1", "the spec is empty"},
+		{"comments only", "# nothing yet\n", "1:1", "the spec is empty"},
+		{"BOM only", "\ufeff", "1:1", "the spec is empty"},
+		{"unclosed flow list", "title: T\ndata: [a, b\nyears: 1\n", "2:1", "YAML syntax: did not find expected ',' or ']'"},
+		{"bad indentation", "title: T\ndata:\n  counts: a\n totals: b\n", "4:2", "YAML syntax: did not find expected key"},
+		{"mapping in plain scalar", "title: T\ndek: a: b\n", "2:1", "YAML syntax: mapping values are not allowed in this context"},
+		{"unclosed quote", "title: 'T\n", "1:1", "YAML syntax: found unexpected end of stream"},
+		{"tab indentation", "title: T\ndata:\n\tcounts: a.csv\n", "3:1", "a tab is used for indentation; YAML needs spaces"},
+		{"tab after key", "title: T\n\tdek: x\n", "2:1", "a tab is used for indentation"},
+		{"undefined alias", "title: T\ndek: *nothing\n", "2:1", "YAML syntax: unknown anchor 'nothing' referenced"},
+		{"top is a list", "- a\n- b\n", "1:1", "the spec must be a mapping of keys to values, not a list"},
+		{"top is text", "just words\n", "1:1", `the spec must be a mapping of keys to values, not "just words"`},
+		{"unknown top key", head + "outputs: {print: {kind: print}}\ntitel: x\n", "5:1", `unknown key "titel" in the spec; did you mean "title"?`},
+		{"unknown output key", printOut + "    colums: 3\n", "7:5", `unknown key "colums" in outputs.print; did you mean "columns"?`},
+		{"unknown key no hint", printOut + "    zzzzzz: 3\n", "7:5", `unknown key "zzzzzz" in outputs.print`},
+		{"key twice", printOut + "    columns: 3\n    columns: 4\n", "8:5", "outputs.print.columns is given twice"},
+		{"missing required", "title: T\n", "1:1", "data is missing"},
+		{"missing data key", "title: T\ndata: {counts: c.csv}\nyears: {from: 1900, to: 1950}\noutputs: {print: {kind: print}}\n", "2:7", "data.totals is missing"},
+		{"title a list", strings.Replace(printOut, "title: T", "title: [a, b]", 1), "1:8", "title must be a single value, not a list"},
+		{"title empty", strings.Replace(printOut, "title: T", `title: ""`, 1), "1:8", "title is empty"},
+		{"title null", strings.Replace(printOut, "title: T", "title:", 1), "1:7", "title must be a single value, not empty"},
+		{"data not a mapping", "title: T\ndata: 5\nyears: {from: 1900, to: 1950}\noutputs: {print: {kind: print}}\n", "2:7", `data must be a mapping of keys to values, not "5"`},
+		{"year not a number", "title: T\ndata: {counts: c.csv, totals: t.csv}\nyears: {from: abc, to: 1950}\noutputs: {print: {kind: print}}\n", "3:15", `years.from must be a whole number, not "abc"`},
+		{"years backwards", "title: T\ndata: {counts: c.csv, totals: t.csv}\nyears: {from: 1950, to: 1900}\noutputs: {print: {kind: print}}\n", "3:8", "years: to (1900) must come after from (1950)"},
+		{"fold-case not bool", "title: T\ndata: {counts: c.csv, totals: t.csv, fold-case: maybe}\nyears: {from: 1900, to: 1950}\noutputs: {print: {kind: print}}\n", "2:49", `data.fold-case must be true or false, not "maybe"`},
+		{"columns not a number", printOut + "    columns: x\n", "7:14", `outputs.print.columns must be a whole number, not "x"`},
+		{"zero columns", printOut + "    columns: 0\n", "7:14", "outputs.print.columns must be between 1 and 100, not 0"},
+		{"negative columns", printOut + "    columns: -2\n", "7:14", "outputs.print.columns must be between 1 and 100, not -2"},
+		{"bare number length", printOut + "    gutter: 4\n", "7:13", `outputs.print.gutter: "4" has no unit; write it with one, like 4mm or 4pt`},
+		{"unknown unit", printOut + "    bleed: 3furlongs\n", "7:12", `outputs.print.bleed: unknown unit "furlongs" in "3furlongs"; use mm, cm, in, pt, pc or px`},
+		{"negative bleed", printOut + "    bleed: -3mm\n", "7:12", "outputs.print.bleed must not be negative, not -3mm"},
+		{"zero line", printOut + "    line: 0pt\n", "7:11", "outputs.print.line must be greater than zero, not 0pt"},
+		{"negative type size", printOut + "    type: {label: -7pt}\n", "7:19", "outputs.print.type.label must be greater than zero, not -7pt"},
+		{"zero trim", printOut + "    trim: 0mm x 10mm\n", "7:11", "outputs.print.trim: width and height must be greater than zero"},
+		{"unknown trim name", printOut + "    trim: A6\n", "7:11", `outputs.print.trim: "A6" is not a size`},
+		{"side margins too wide", printOut + "    trim: A5\n    margins: 80mm\n", "8:5", "outputs.print: the inside and outside margins (160.0 mm together) leave no room on a 148.0 mm wide page"},
+		{"top margins too tall", printOut + "    trim: A5\n    margins: {top: 110mm, bottom: 100mm}\n", "8:5", "the top and bottom margins (210.0 mm together) leave no room on a 210.0 mm tall page"},
+		{"screen margins in px", head + "outputs:\n  web:\n    kind: screen\n    trim: 60px\n    margins: 32px\n", "8:5", "(64 px together) leave no room on a 60 px wide page"},
+		{"marks need slug", printOut + "    slug: 5mm\n", "7:5", "crop marks need a slug area of at least 7.0 mm outside the bleed"},
+		{"bleed on screen", head + "outputs:\n  web: {kind: screen, bleed: 3mm}\n", "5:8", "outputs.web: bleed, marks and slug-line are for print outputs"},
+		{"kind unknown", head + "outputs:\n  web: {kind: scren}\n", "5:15", `outputs.web.kind must be one of print, screen, not "scren"; did you mean "screen"?`},
+		{"kind missing", head + "outputs:\n  web: {trim: A4}\n", "5:8", "outputs.web.kind is missing"},
+		{"output name", head + "outputs:\n  my output: {kind: print}\n", "5:3", `output name "my output": use letters, digits, - and _`},
+		{"no outputs", head + "outputs: {}\n", "4:1", "outputs: give at least one output"},
+		{"order choice", printOut + "order: alphabetic\n", "7:8", `order must be one of listed, alphabetical, peak-year, not "alphabetic"; did you mean "alphabetical"?`},
+		{"scale choice", printOut + "scale: {values: per-mille}\n", "7:17", `scale.values must be one of per-million, own-peak, raw, not "per-mille"; did you mean "per-million"?`},
+		{"bad colour", printOut + "palette: {paper: '#ffff'}\n", "7:18", `palette.paper: "#ffff" is not a colour; write #rrggbb, lab(L a b) or oklch(L C h)`},
+		{"lab out of range", printOut + "palette: {paper: 'lab(120 0 0)'}\n", "7:18", "L* must be between 0 and 100"},
+		{"one anchor", printOut + "palette:\n  anchors:\n    - {year: 1900, color: '#000000'}\n", "9:5", "give at least two anchors"},
+		{"date format", printOut + "date: 1.2.2024\n", "7:7", `date must be written YYYY-MM-DD, not "1.2.2024"`},
+		{"insert output", printOut + "inserts:\n  fig1: {output: prnt, size: 80mm x 50mm, terms: [a]}\n", "8:10", `inserts.fig1.output: no output named "prnt"; did you mean "print"?`},
+		{"insert too many terms", printOut + "inserts:\n  fig1: {output: print, size: 80mm x 50mm, terms: [a, b, c, d, e]}\n", "8:44", "inserts.fig1.terms: an insert shows 1 to 4 terms, not 5"},
+		{"self alias", "title: T\nnotes: &n [a, *n]\n", "2:15", "a YAML alias refers to a value that contains it"},
+	}
+	for _, tt := range tests {
+		t.Run(tt.name, func(t *testing.T) {
+			_, err := Parse("bad.yaml", []byte(tt.text))
+			if err == nil {
+				t.Fatalf("no error for\n%s", tt.text)
+			}
+			es, ok := err.(Errors)
+			if !ok {
+				t.Fatalf("error is %T, want specs.Errors: %v", err, err)
+			}
+			want := "bad.yaml:" + tt.at + ": "
+			for _, e := range es {
+				if strings.HasPrefix(e.Error(), want) && strings.Contains(e.Msg, tt.want) {
+					return
+				}
+			}
+			t.Errorf("want an error %q…%q; got\n%v", want, tt.want, err)
+		})
+	}
+}
+
+// TestParseReportsAll checks that one run lists every problem, in file
+// order, and stops at MaxErrors.
+func TestParseReportsAll(t *testing.T) {
+	text := printOut + "    colums: 3\n    gutter: 4\n    bleed: -1mm\norder: alphabetic\n"
+	_, err := Parse("bad.yaml", []byte(text))
+	es, _ := err.(Errors)
+	var got []string
+	for _, e := range es {
+		got = append(got, fmt.Sprintf("%d:%d", e.Pos.Line, e.Pos.Col))
+	}
+	want := []string{"7:5", "8:13", "9:12", "10:8"}
+	if strings.Join(got, " ") != strings.Join(want, " ") {
+		t.Errorf("positions %v, want %v; errors:\n%v", got, want, err)
+	}
+
+	var b strings.Builder
+	b.WriteString(printOut)
+	for i := range 80 {
+		fmt.Fprintf(&b, "    bad-key-%d: 1\n", i)
+	}
+	_, err = Parse("many.yaml", []byte(b.String()))
+	es, _ = err.(Errors)
+	if len(es) != MaxErrors {
+		t.Errorf("got %d errors, want the cap %d", len(es), MaxErrors)
+	}
+	if !strings.HasSuffix(err.Error(), fmt.Sprintf("(stopped after %d problems)", MaxErrors)) {
+		t.Errorf("capped error list does not say it stopped:\n…%s", err.Error()[len(err.Error())-80:])
+	}
+}
+
+// billionLaughs builds the "billion laughs" shape (Klein, 2002; see also
+// OWASP's XML entity expansion notes; the YAML form is common practice):
+// levels of lists, each holding width aliases of the level below.
+func billionLaughs(levels, width int) string {
+	var b strings.Builder
+	b.WriteString("title: T\n")
+	b.WriteString(`l0: &l0 ["lol"`)
+	for range width - 1 {
+		b.WriteString(`, "lol"`)
+	}
+	b.WriteString("]\n")
+	for i := 1; i < levels; i++ {
+		fmt.Fprintf(&b, "l%d: &l%d [*l%d", i, i, i-1)
+		for range width - 1 {
+			fmt.Fprintf(&b, ", *l%d", i-1)
+		}
+		b.WriteString("]\n")
+	}
+	fmt.Fprintf(&b, "notes: *l%d\n", levels-1)
+	return b.String()
+}
+
+func TestAliasBomb(t *testing.T) {
+	// 9 levels of 9: 9^9 ≈ 387 million leaves if expanded. With 200 000
+	// nodes allowed, the first list over budget is l5 (9^6 leaves), on
+	// line 7, column 5 (its anchor).
+	_, err := Parse("bomb.yaml", []byte(billionLaughs(9, 9)))
+	es, _ := err.(Errors)
+	if len(es) != 1 || es[0].Pos.String() != "bomb.yaml:7:5" || !strings.Contains(es[0].Msg, "expands to too many values") {
+		t.Errorf("got %v, want one error at bomb.yaml:7:5 about aliases that multiply", err)
+	}
+	// Modest, honest reuse of anchors stays allowed.
+	ok := printOut + "palette:\n  paper: &p '#fffff0'\ndek: *p\n"
+	if _, err := Parse("ok.yaml", []byte(ok)); err != nil {
+		t.Errorf("plain alias rejected: %v", err)
+	}
+}
+
+func BenchmarkAliasBomb(b *testing.B) {
+	text := []byte(billionLaughs(9, 9))
+	for b.Loop() {
+		if _, err := Parse("bomb.yaml", text); err == nil {
+			b.Fatal("alias bomb accepted")
+		}
+	}
+}
+
+func TestParseValid(t *testing.T) {
+	text := "\ufeff" + head + `terms:
+  list: [telegraph, boiler]
+  exclude: steam
+outputs:
+  print:
+    kind: print
+    trim: Letter landscape
+    bleed: 0.125in
+    margins: {top: 1in, bottom: 0.75in, inside: 1in, outside: 0.5in}
+    columns: 4
+  web:
+    kind: screen
+    trim: 1200px x 1600px
+`
+	s, err := Parse("dir/ok.yaml", []byte(text))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if s.Title != "T" || s.Years != (Span{1900, 1950}) || s.Years.Len() != 51 {
+		t.Errorf("title %q years %v", s.Title, s.Years)
+	}
+	if got := strings.Join(s.Terms.List, ","); got != "telegraph,boiler" || len(s.Terms.Exclude) != 1 {
+		t.Errorf("terms %v exclude %v", s.Terms.List, s.Terms.Exclude)
+	}
+	p := s.Output("print")
+	// Letter landscape is 792 × 612 pt (ANSI 8.5 × 11 in, print-facts.md);
+	// 1/8 in bleed is 9 pt (ISO 32000-1 §8.3.2.3: 72 pt per inch).
+	if p == nil || p.Trim != (Size{792, 612}) || p.Bleed != 9 || p.Columns != 4 {
+		t.Fatalf("print output %+v", p)
+	}
+	if p.Margins != (Margins{72, 54, 72, 36}) {
+		t.Errorf("margins %+v, want 72 54 72 36 pt", p.Margins)
+	}
+	w := s.Output("web")
+	// 1200 × 1600 px = 900 × 1200 pt (CSS Values L3: 96 px per inch).
+	if w == nil || w.Trim != (Size{900, 1200}) || w.Flow != FlowPages || w.Bleed != 0 || w.Marks {
+		t.Errorf("web output %+v", w)
+	}
+	if s.Order != OrderListed || s.Scale.Mode != ScaleShare || s.Scale.YRange != YOwn {
+		t.Errorf("defaults: order %q scale %+v", s.Order, s.Scale)
+	}
+	if got := s.Where("outputs.print.bleed").String(); got != "dir/ok.yaml:11:5" {
+		t.Errorf("Where(bleed) = %s, want dir/ok.yaml:12:5", got)
+	}
+	if got := s.Where("terms.list.1").String(); got != "dir/ok.yaml:5:21" {
+		t.Errorf("Where(terms.list.1) = %s, want dir/ok.yaml:5:20", got)
+	}
+	if got := s.Where("outputs.print.no-such").String(); got != "dir/ok.yaml:8:3" {
+		t.Errorf("Where falls back to the parent: got %s, want dir/ok.yaml:9:3", got)
+	}
+	if got := s.Resolve("c.csv"); got != filepath.Join("dir", "c.csv") {
+		t.Errorf("Resolve = %s", got)
+	}
+}
+
+func TestParseColor(t *testing.T) {
+	tests := []struct {
+		in     string
+		space  ColorSpace
+		v      [3]float64
+		source string
+	}{
+		{"#ff8000", SpaceSRGB, [3]float64{1, 128.0 / 255, 0}, "CSS Color 4 §5.2 hex notation"},
+		{"#f80", SpaceSRGB, [3]float64{1, 136.0 / 255, 0}, "CSS Color 4 §5.2: #rgb doubles each digit"},
+		{"lab(50 20 -30)", SpaceLab, [3]float64{50, 20, -30}, "CSS Color 4 §9.3 lab()"},
+		{"oklch(70% 0.1 120deg)", SpaceOKLCh, [3]float64{0.7, 0.1, 120}, "CSS Color 4 §9.4 oklch(), L as a percentage"},
+		{"oklch(0.7, 0.1, 120)", SpaceOKLCh, [3]float64{0.7, 0.1, 120}, "commas allowed (this project's leniency)"},
+	}
+	for _, tt := range tests {
+		c, err := ParseColor(tt.in)
+		if err != nil {
+			t.Errorf("ParseColor(%q): %v", tt.in, err)
+			continue
+		}
+		if c.Space != tt.space {
+			t.Errorf("ParseColor(%q) space %s, want %s", tt.in, c.Space, tt.space)
+		}
+		for i := range 3 {
+			if math.Abs(c.V[i]-tt.v[i]) > 1e-12 {
+				t.Errorf("ParseColor(%q) = %v, want %v [%s]", tt.in, c.V, tt.v, tt.source)
+				break
+			}
+		}
+	}
+	for _, bad := range []string{"#ggg", "red", "lab(-1 0 0)", "oklch(1.2 0.1 0)", "oklch(0.5 -0.1 0)", "rgb(1 2 3)"} {
+		if _, err := ParseColor(bad); err == nil {
+			t.Errorf("ParseColor(%q) accepted", bad)
+		}
+	}
+}
+
+func TestLoadFileErrors(t *testing.T) {
+	dir := t.TempDir()
+	spec := filepath.Join(dir, "s.yaml")
+	if err := os.WriteFile(spec, []byte("title: [\n"), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	tests := []struct {
+		path, want string
+	}{
+		{dir, dir + ": is a directory; give the spec's YAML file"},
+		{filepath.Join(dir, "none.yaml"), filepath.Join(dir, "none.yaml") + ": spec file does not exist"},
+		{spec, spec + ":1:1: YAML syntax:"},
+	}
+	for _, tt := range tests {
+		_, err := Load(tt.path)
+		if err == nil || !strings.HasPrefix(err.Error(), tt.want) {
+			t.Errorf("Load(%s) = %v, want %q…", tt.path, err, tt.want)
+		}
+	}
+}
+
+func TestClosest(t *testing.T) {
+	names := []string{"telegraph", "telephone", "boiler", "Maßstab", "steam"}
+	tests := []struct {
+		word string
+		want string
+	}{
+		{"telegraf", "telegraph"},  // two edits (f→p, +h)
+		{"Telegraph", "telegraph"}, // case does not count
+		{"boyler", "boiler"},
+		{"xyzzy", ""}, // too far from everything
+	}
+	for _, tt := range tests {
+		got := strings.Join(Closest(tt.word, names, 1), ",")
+		if got != tt.want {
+			t.Errorf("Closest(%q) = %q, want %q", tt.word, got, tt.want)
+		}
+	}
+	if got := Closest("tele", names, 3); len(got) > 3 {
+		t.Errorf("Closest returned %d names, want at most 3", len(got))
+	}
+}
+
+func TestPosString(t *testing.T) {
+	for _, tt := range []struct {
+		p    Pos
+		want string
+	}{
+		{Pos{File: "a.yaml", Line: 3, Col: 7}, "a.yaml:3:7"},
+		{Pos{File: "a.csv", Line: 3}, "a.csv:3"},
+		{Pos{File: "a.yaml"}, "a.yaml"},
+	} {
+		if got := tt.p.String(); got != tt.want {
+			t.Errorf("%#v.String() = %q, want %q", tt.p, got, tt.want)
+		}
+	}
+}
