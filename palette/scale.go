@@ -187,8 +187,9 @@ func (s Scale) Stops(from, to, maxErr float64) []Stop {
 const maxStopDepth = 12
 
 // refine appends b and, before it, the stops needed between a and b. The
-// sRGB-interpolation error is smooth and single-humped between knots, so
-// three probes per interval find it; tests confirm with dense sampling.
+// sRGB-interpolation error is smooth between anchors, except where
+// clipping to the gamut puts kinks in it, so seven probes per interval
+// find it; tests confirm with dense sampling.
 func (s Scale) refine(stops []Stop, a, b Stop, maxErr float64, depth int) []Stop {
 	if depth < maxStopDepth && s.stopError(a, b) > maxErr {
 		mid := (a.Year + b.Year) / 2
@@ -199,11 +200,12 @@ func (s Scale) refine(stops []Stop, a, b Stop, maxErr float64, depth int) []Stop
 	return append(stops, b)
 }
 
-// stopError is the largest ΔE00 at three probes between the scale and the
+// stopError is the largest ΔE00 at seven probes between the scale and the
 // straight sRGB line from a to b.
 func (s Scale) stopError(a, b Stop) float64 {
 	worst := 0.0
-	for _, t := range [...]float64{0.25, 0.5, 0.75} {
+	for k := 1; k < 8; k++ {
+		t := float64(k) / 8
 		y := a.Year + t*(b.Year-a.Year)
 		want := s.At(y).RGB().Clip()
 		got := RGB{a.Color.R + t*(b.Color.R-a.Color.R), a.Color.G + t*(b.Color.G-a.Color.G), a.Color.B + t*(b.Color.B-a.Color.B)}

@@ -1,0 +1,276 @@
+package palette
+
+import (
+	"bytes"
+	"math"
+	"strings"
+	"testing"
+)
+
+func TestDefaultPassesEveryCheck(t *testing.T) {
+	white := mustHex(t, "#ffffff")
+	for _, tc := range []struct {
+		from, to float64
+		eras     []float64
+		width    float64
+		m        Medium
+	}{
+		{1868, 2025, nil, 0.75, Print},
+		{1900, 2000, nil, 0.75, Print},
+		{1868, 2025, nil, 1, Screen},
+		{1900, 2000, nil, 0.5, Screen},
+		{1868, 2025, []float64{1868, 1900, 1930, 1960, 1990, 2025}, 0.75, Print},
+		{1900, 2000, []float64{1900, 1914, 1939, 1945, 1970, 1989, 2000}, 1, Print},
+	} {
+		s, err := NewScale(DefaultName, DefaultAnchors(tc.from, tc.to), tc.eras)
+		if err != nil {
+			t.Fatal(err)
+		}
+		r, err := Check(s, white, tc.width, tc.m, DefaultThresholds())
+		if err != nil {
+			t.Fatal(err)
+		}
+		for _, f := range r.Findings {
+			if f.Severity == Fail {
+				t.Errorf("%v–%v eras %v: %v", tc.from, tc.to, tc.eras, f)
+			}
+		}
+		if r.Failed() {
+			t.Errorf("%v–%v: report failed", tc.from, tc.to)
+		}
+	}
+}
+
+// Each bad palette breaks one check; the finding must name the year or
+// era and carry the numbers.
+func TestBadPalettesFail(t *testing.T) {
+	white := mustHex(t, "#ffffff")
+	lab := func(l, a, b float64) Color { return FromLab(Lab{l, a, b}) }
+	th := DefaultThresholds()
+	for _, tc := range []struct {
+		name     string
+		anchors  []Anchor
+		eras     []float64
+		th       func(*Thresholds)
+		check    string
+		severity Severity
+		label    string
+		want     []string // substrings of the message
+	}{
+		{
+			name:    "lightness turns back",
+			anchors: []Anchor{{1900, lab(55, 50, 20)}, {1950, lab(30, 20, -50)}, {2000, lab(50, -40, 30)}},
+			eras:    []float64{1900, 1925, 1950, 1975, 2000},
+			check:   CheckLightness, severity: Fail, label: "1975–2000",
+			want: []string{"L* runs decreasing", "1950–1975 to 1975–2000", "35.4 → 45.3"},
+		},
+		{
+			name:    "declared direction",
+			anchors: []Anchor{{1900, lab(30, 40, -40)}, {2000, lab(58, 50, 30)}},
+			th:      func(th *Thresholds) { th.Lightness = LightnessDecreasing },
+			check:   CheckLightness, severity: Fail, label: "1910",
+			want: []string{"L* runs decreasing", "1900 to 1910"},
+		},
+		{
+			name:    "steps too close",
+			anchors: []Anchor{{1900, lab(50, 40, -30)}, {1950, lab(49, 41, -30)}, {2000, lab(30, -30, 20)}},
+			eras:    []float64{1900, 1930, 1960, 2000},
+			check:   CheckStep, severity: Fail, label: "1930–1960",
+			want: []string{"adjacent eras 1900–1930 and 1930–1960", "< 5.00", "heuristic"},
+		},
+		{
+			name:    "span too short",
+			anchors: []Anchor{{1900, lab(40, 30, -40)}, {2000, lab(35, 30, -50)}},
+			check:   CheckSpan, severity: Fail, label: "",
+			want: []string{"first (1900", "last (2000", "< 30.00"},
+		},
+		{
+			name:    "yellow vanishes on white",
+			anchors: []Anchor{{1900, mustHex(t, "#2a3f9d")}, {1950, mustHex(t, "#3f8f4f")}, {2000, mustHex(t, "#ffe14d")}},
+			check:   CheckContrast, severity: Fail, label: "2000",
+			want: []string{"#ffe14d", ":1 against paper #ffffff < 3.00:1", "WCAG 2.1 SC 1.4.11"},
+		},
+		{
+			name:    "outside sRGB",
+			anchors: []Anchor{{1900, FromOKLCh(OKLCh{0.62, 0.3, 150})}, {2000, lab(25, 10, -40)}},
+			check:   CheckGamut, severity: Warn, label: "1900",
+			want: []string{"outside sRGB", "clipped", "ΔE00"},
+		},
+		{
+			name: "red and green at one lightness",
+			anchors: deuteranConfusion(t, []float64{0.16, 0.20, 0.195, 0.21, 0.24}),
+			eras:    []float64{1890, 1910, 1930, 1950, 1970, 1990},
+			th:    func(th *Thresholds) { th.Lightness = LightnessAny },
+			check: CheckCVD + "/deuteranopia", severity: Fail, label: "",
+			want: []string{"order unreadable under simulated deuteranopia", "< 2.00", "simulated L* turns back"},
+		},
+	} {
+		t.Run(tc.name, func(t *testing.T) {
+			s, err := NewScale(tc.name, tc.anchors, tc.eras)
+			if err != nil {
+				t.Fatal(err)
+			}
+			th := th
+			if tc.th != nil {
+				tc.th(&th)
+			}
+			r, err := Check(s, white, 0.75, Print, th)
+			if err != nil {
+				t.Fatal(err)
+			}
+			var found *Finding
+			for i, f := range r.Findings {
+				if f.Check == tc.check && f.Severity == tc.severity && (tc.label == "" || f.Label == tc.label) {
+					found = &r.Findings[i]
+					break
+				}
+			}
+			if found == nil {
+				var buf bytes.Buffer
+				r.WriteTable(&buf)
+				t.Fatalf("no %v %s finding at %q:\n%s", tc.severity, tc.check, tc.label, buf.String())
+			}
+			for _, w := range tc.want {
+				if !strings.Contains(found.Message, w) {
+					t.Errorf("message %q lacks %q", found.Message, w)
+				}
+			}
+			if !strings.ContainsAny(found.Message, "0123456789") {
+				t.Errorf("message %q has no numbers", found.Message)
+			}
+			if tc.severity == Fail && !r.Failed() {
+				t.Error("report not failed")
+			}
+		})
+	}
+}
+
+// deuteranConfusion makes one colour per grey level, pushed alternately
+// either way along the null direction of the deuteranopia matrix (Machado
+// et al. 2009): normal vision sees reds against greens, the simulation
+// sees only the greys, which here zig-zag in lightness.
+func deuteranConfusion(t *testing.T, greys []float64) []Anchor {
+	m := machado[Deuteranopia]
+	r0, r1 := m[0], m[1]
+	n := [3]float64{r0[1]*r1[2] - r0[2]*r1[1], r0[2]*r1[0] - r0[0]*r1[2], r0[0]*r1[1] - r0[1]*r1[0]}
+	if math.Abs(m[2][0]*n[0]+m[2][1]*n[1]+m[2][2]*n[2]) > 1e-3*math.Hypot(n[0], math.Hypot(n[1], n[2])) {
+		t.Fatal("deuteranopia matrix is not of rank 2")
+	}
+	k := 0.12 / math.Max(math.Abs(n[0]), math.Max(math.Abs(n[1]), math.Abs(n[2])))
+	var out []Anchor
+	for i, g := range greys {
+		sign := float64(1 - 2*(i%2))
+		c := FromRGB(LinearRGB{g + sign*k*n[0], g + sign*k*n[1], g + sign*k*n[2]}.RGB())
+		if !c.InGamut() {
+			t.Fatalf("confusion colour %d outside sRGB", i)
+		}
+		out = append(out, Anchor{1900 + 20*float64(i), c})
+	}
+	return out
+}
+
+func TestSizeGuidance(t *testing.T) {
+	white := mustHex(t, "#ffffff")
+	// Two colours 3 L* apart: noticeable for nobody at any line width.
+	s, _ := NewScale("faint", []Anchor{{1900, FromLab(Lab{40, 0, -30})}, {2000, FromLab(Lab{37, 0, -30})}}, nil)
+	th := DefaultThresholds()
+	th.MinSpan, th.MinStep = 1, 0.1
+	for _, tc := range []struct {
+		width float64
+		sev   Severity
+	}{
+		{0.75, Info}, // 0.043°: outside the fitted range, guidance only
+		{20, Warn},   // 1.16°: inside 1/3°–6°, ND50 L* ≈ 5.7 > 3
+	} {
+		r, err := Check(s, white, tc.width, Print, th)
+		if err != nil {
+			t.Fatal(err)
+		}
+		var got []Finding
+		for _, f := range r.Findings {
+			if f.Check == CheckSize {
+				got = append(got, f)
+			}
+		}
+		if len(got) != 1 || got[0].Severity != tc.sev || !strings.Contains(got[0].Message, "does not") {
+			t.Errorf("%v pt: size findings %v, want one %v", tc.width, got, tc.sev)
+		}
+	}
+}
+
+func TestCheckErrors(t *testing.T) {
+	white := mustHex(t, "#ffffff")
+	s, _ := Default(1900, 2000)
+	bad := DefaultThresholds()
+	bad.MinStep = -1
+	nanTh := DefaultThresholds()
+	nanTh.MinSpan = math.NaN()
+	for _, tc := range []struct {
+		name  string
+		s     Scale
+		paper Color
+		width float64
+		m     Medium
+		th    Thresholds
+		want  string
+	}{
+		{"empty scale", Scale{}, white, 1, Print, DefaultThresholds(), "no anchors"},
+		{"zero width", s, white, 0, Print, DefaultThresholds(), "line width 0 pt"},
+		{"NaN width", s, white, math.NaN(), Print, DefaultThresholds(), "line width NaN pt"},
+		{"medium", s, white, 1, Medium(7), DefaultThresholds(), "unknown medium"},
+		{"negative threshold", s, white, 1, Print, bad, "MinStep = -1"},
+		{"NaN threshold", s, white, 1, Print, nanTh, "MinSpan = NaN"},
+		{"zero thresholds", s, white, 1, Print, Thresholds{}, "SampleYears = 0"},
+		{"paper", s, FromOKLCh(OKLCh{0.9, 0.4, 120}), 1, Print, DefaultThresholds(), "paper colour"},
+	} {
+		if _, err := Check(tc.s, tc.paper, tc.width, tc.m, tc.th); err == nil || !strings.Contains(err.Error(), tc.want) {
+			t.Errorf("%s: error %v, want %q", tc.name, err, tc.want)
+		}
+	}
+}
+
+func TestWriteTable(t *testing.T) {
+	white := mustHex(t, "#ffffff")
+	s, _ := Default(1868, 2025)
+	r, err := Check(s, white, 0.75, Print, DefaultThresholds())
+	if err != nil {
+		t.Fatal(err)
+	}
+	var a, b bytes.Buffer
+	if err := r.WriteTable(&a); err != nil {
+		t.Fatal(err)
+	}
+	r2, _ := Check(s, white, 0.75, Print, DefaultThresholds())
+	r2.WriteTable(&b)
+	if !bytes.Equal(a.Bytes(), b.Bytes()) {
+		t.Error("table not deterministic")
+	}
+	out := a.String()
+	for _, w := range []string{"palette Tidewater, 1868–2025, paper #ffffff, print, line 0.75 pt", "ΔE00", "contrast", "1868", "#e96163", "2025", "#073b0f", "INFO size", "\nPASS\n"} {
+		if !strings.Contains(out, w) {
+			t.Errorf("table lacks %q:\n%s", w, out)
+		}
+	}
+	if n := len(r.Rows); n != 17 { // 157 years → 16 steps of 9.8 years
+		t.Errorf("%d rows", n)
+	}
+}
+
+func TestParseDirection(t *testing.T) {
+	for s, want := range map[string]Direction{"": LightnessAuto, "auto": LightnessAuto, "increasing": LightnessIncreasing, "decreasing": LightnessDecreasing, "any": LightnessAny} {
+		if got, err := ParseDirection(s); err != nil || got != want {
+			t.Errorf("ParseDirection(%q) = %v, %v", s, got, err)
+		}
+	}
+	if _, err := ParseDirection("up"); err == nil || !strings.Contains(err.Error(), `"up"`) {
+		t.Errorf("ParseDirection(up): %v", err)
+	}
+}
+
+func BenchmarkCheck(b *testing.B) {
+	s, _ := Default(1868, 2025)
+	white := FromRGB(RGB{1, 1, 1})
+	for b.Loop() {
+		Check(s, white, 0.75, Print, DefaultThresholds())
+	}
+}
