@@ -620,7 +620,7 @@ func (w *Writer) Close() error {
 	if w.opts.Version != "" {
 		producer += " " + w.opts.Version
 	}
-	pdfDate := date.Format("D:20060102150405Z")
+	pdfDate := date.Format("D:20060102150405Z00'00'")
 	w.obj(objInfo, []byte("<< /Title "+pdfText(w.opts.Title)+" /Producer "+pdfText(producer)+" /Creator "+pdfText(producer)+
 		" /CreationDate ("+pdfDate+") /ModDate ("+pdfDate+") /Trapped /False >>"))
 	w.stream(objMetadata, " /Type /Metadata /Subtype /XML", xmp(w.opts.Title, producer, date))
