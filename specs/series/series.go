@@ -373,6 +373,7 @@ func (r *reader) pass1() (map[string]*agg, []string) {
 			tot, has := r.totals[y]
 			switch {
 			case !has && needTotals:
+				field = yc
 				msg = fmt.Sprintf("%q has a count in %d but the totals table has no total for %d; %s scaling needs it", term, y, y, s.Scale.Mode)
 			case has && v > tot:
 				msg = fmt.Sprintf("count %g for %q in %d is more than that year's total %g", v, term, y, tot)

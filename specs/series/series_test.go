@@ -1,0 +1,586 @@
+package series
+
+import (
+	"bufio"
+	"fmt"
+	"math"
+	"os"
+	"path/filepath"
+	"runtime"
+	"strconv"
+	"strings"
+	"sync"
+	"testing"
+	"time"
+
+	"sheaf/specs"
+)
+
+// The tiny example feature shared by the repo: three invented terms over
+// 1900–1905, totals lacking 1903.
+const small = "../../testdata/small/spec.yaml"
+
+func loadSmall(t *testing.T, mode specs.ScaleMode, yr specs.YRange) *Set {
+	t.Helper()
+	s, err := specs.Load(small)
+	if err != nil {
+		t.Fatal(err)
+	}
+	s.Scale = specs.Scale{Mode: mode, YRange: yr}
+	set, err := Load(s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return set
+}
+
+const gap = -1 // marks an expected NaN in the tables below
+
+func sameValues(t *testing.T, what string, got, want []float64) {
+	t.Helper()
+	if len(got) != len(want) {
+		t.Errorf("%s: %d values, want %d", what, len(got), len(want))
+		return
+	}
+	for i := range want {
+		if want[i] == gap {
+			if !math.IsNaN(got[i]) {
+				t.Errorf("%s[%d] = %g, want a gap (NaN)", what, i, got[i])
+			}
+			continue
+		}
+		if math.IsNaN(got[i]) || math.Abs(got[i]-want[i]) > 1e-9*math.Max(1, math.Abs(want[i])) {
+			t.Errorf("%s[%d] = %.12g, want %.12g", what, i, got[i], want[i])
+		}
+	}
+}
+
+// TestScaleSmall checks the scaling arithmetic on testdata/small, every
+// value computed by hand from counts.csv and totals.csv (share = count /
+// total × 10^6; the definition of "per million"):
+//
+//	boiler 1900: 50/100000×1e6 = 500; 1901: 40/120000×1e6 = 333.333…;
+//	1902: 20/110000×1e6 = 181.818…; 1904, 1905: no row, totals has the
+//	year, so 0. telegraph 1902 = 0 (totals has 1902, counts lack it);
+//	1904: 30/130000×1e6 = 230.769…; 1905: 60/150000×1e6 = 400.
+//	Maßstab 1900: 3/100000×1e6 = 30; 1905: 9/150000×1e6 = 60.
+//	1903 is a gap (NaN) for every term: totals.csv has no 1903.
+func TestScaleSmall(t *testing.T) {
+	set := loadSmall(t, specs.ScaleShare, specs.YOwn)
+	if got := fmt.Sprint(set.Gaps); got != "[1903]" {
+		t.Errorf("gaps %s, want [1903]", got)
+	}
+	sameValues(t, "years", set.Years, []float64{1900, 1901, 1902, 1903, 1904, 1905})
+	if set.Terms != 3 || set.Rows != 8 || set.Unit != "per million words" {
+		t.Errorf("terms %d rows %d unit %q", set.Terms, set.Rows, set.Unit)
+	}
+	want := []struct {
+		term     string
+		values   []float64
+		counts   []float64
+		total    float64
+		peak     float64
+		peakYear int
+	}{
+		{"telegraph", []float64{0, 5e6 / 120000, 0, gap, 30e6 / 130000, 400}, []float64{0, 5, 0, gap, 30, 60}, 95, 400, 1905},
+		{"boiler", []float64{500, 40e6 / 120000, 20e6 / 110000, gap, 0, 0}, []float64{50, 40, 20, gap, 0, 0}, 110, 500, 1900},
+		{"Maßstab", []float64{30, 0, 0, gap, 0, 60}, []float64{3, 0, 0, gap, 0, 9}, 12, 60, 1905},
+	}
+	if len(set.Series) != len(want) {
+		t.Fatalf("%d series, want %d", len(set.Series), len(want))
+	}
+	for i, w := range want {
+		sr := set.Series[i]
+		if sr.Term != w.term {
+			t.Errorf("series %d is %q, want %q (order: listed)", i, sr.Term, w.term)
+			continue
+		}
+		sameValues(t, w.term+" values", sr.Values, w.values)
+		sameValues(t, w.term+" counts", sr.Counts, w.counts)
+		if sr.Total != w.total || sr.Peak != w.peak || sr.PeakYear != w.peakYear {
+			t.Errorf("%s: total %g peak %g in %d, want %g, %g in %d", w.term, sr.Total, sr.Peak, sr.PeakYear, w.total, w.peak, w.peakYear)
+		}
+		// Share over the span: the term's total over all words in the
+		// span's totals, 100000+120000+110000+130000+150000 = 610000.
+		if math.Abs(sr.Share-w.total/610000) > 1e-15 {
+			t.Errorf("%s: share %g, want %g", w.term, sr.Share, w.total/610000)
+		}
+		// Own y-range: the panel's top is its own peak.
+		if sr.YMax != w.peak {
+			t.Errorf("%s: own y-range top %g, want %g", w.term, sr.YMax, w.peak)
+		}
+	}
+	// The shared top is the largest peak, boiler's 500.
+	if set.YMax != 500 {
+		t.Errorf("set.YMax = %g, want 500", set.YMax)
+	}
+}
+
+func TestScaleModes(t *testing.T) {
+	t.Run("own-peak", func(t *testing.T) {
+		// Each share divided by the term's highest share (hand-computed):
+		// boiler: 500/500, 333.33/500 = 2/3, 181.82/500 = 4/11.
+		set := loadSmall(t, specs.ScaleOwnPeak, specs.YShared)
+		sameValues(t, "boiler", set.Series[1].Values, []float64{1, 2.0 / 3, 4.0 / 11, gap, 0, 0})
+		// telegraph: 41.667/400 = 5/48, 230.77/400 = 15/26, 400/400.
+		sameValues(t, "telegraph", set.Series[0].Values, []float64{0, 5.0 / 48, 0, gap, 15.0 / 26, 1})
+		sameValues(t, "Maßstab", set.Series[2].Values, []float64{0.5, 0, 0, gap, 0, 1})
+		for _, sr := range set.Series {
+			if sr.Peak != 1 || sr.YMax != 1 {
+				t.Errorf("%s: peak %g ymax %g, want 1 and 1", sr.Term, sr.Peak, sr.YMax)
+			}
+		}
+		if set.Unit != "share of the term's own peak" {
+			t.Errorf("unit %q", set.Unit)
+		}
+	})
+	t.Run("raw shared", func(t *testing.T) {
+		// Raw keeps the counts; the shared top is the largest count, 60.
+		set := loadSmall(t, specs.ScaleRaw, specs.YShared)
+		sameValues(t, "boiler", set.Series[1].Values, []float64{50, 40, 20, gap, 0, 0})
+		sameValues(t, "telegraph", set.Series[0].Values, []float64{0, 5, 0, gap, 30, 60})
+		for _, sr := range set.Series {
+			if sr.YMax != 60 {
+				t.Errorf("%s: shared ymax %g, want 60", sr.Term, sr.YMax)
+			}
+		}
+	})
+	t.Run("per-million shared", func(t *testing.T) {
+		set := loadSmall(t, specs.ScaleShare, specs.YShared)
+		for _, sr := range set.Series {
+			if sr.YMax != 500 {
+				t.Errorf("%s: shared ymax %g, want 500 (boiler 1900)", sr.Term, sr.YMax)
+			}
+		}
+	})
+}
+
+// feature writes a spec and its tables into a fresh folder and returns
+// the spec's path. extra is added to the spec (terms, scale, …).
+func feature(t testing.TB, countsName, counts, totals, extra string) string {
+	t.Helper()
+	dir := t.TempDir()
+	if totals == "" {
+		totals = "year,total\n1900,100000\n1901,120000\n1902,110000\n1904,130000\n1905,150000\n"
+	}
+	write(t, filepath.Join(dir, countsName), counts)
+	write(t, filepath.Join(dir, "totals.csv"), totals)
+	spec := fmt.Sprintf("title: T\ndata:\n  counts: %s\n  totals: totals.csv\nyears: {from: 1900, to: 1905}\noutputs: {print: {kind: print}}\n%s", countsName, extra)
+	path := filepath.Join(dir, "spec.yaml")
+	write(t, path, spec)
+	return path
+}
+
+func write(t testing.TB, path, text string) {
+	t.Helper()
+	if err := os.WriteFile(path, []byte(text), 0o644); err != nil {
+		t.Fatal(err)
+	}
+}
+
+func load(t testing.TB, spec string) (*Set, error) {
+	t.Helper()
+	s, err := specs.Load(spec)
+	if err != nil {
+		t.Fatalf("spec: %v", err)
+	}
+	return Load(s)
+}
+
+// TestVariants reads the small counts table written six ways: the format
+// rules are RFC 4180 (CSV, CRLF line ends), the IANA text/tab-separated-
+// values registration (TSV), and Unicode §23.8 / RFC 3629 §6 (a UTF-8 BOM
+// is allowed and is not part of the text). All must read identically.
+func TestVariants(t *testing.T) {
+	raw, err := os.ReadFile("../../testdata/small/counts.csv")
+	if err != nil {
+		t.Fatal(err)
+	}
+	csvText := strings.TrimPrefix(string(raw), "\ufeff")
+	tsvText := strings.ReplaceAll(csvText, ",", "\t")
+	crlf := func(s string) string { return strings.ReplaceAll(s, "\n", "\r\n") }
+	reordered := "count,term,year\n" // columns are found by name
+	for _, line := range strings.Split(strings.TrimSpace(csvText), "\n")[1:] {
+		f := strings.Split(line, ",")
+		reordered += f[2] + "," + f[0] + "," + f[1] + "\n"
+	}
+	variants := []struct{ name, file, text string }{
+		{"plain CSV", "counts.csv", csvText},
+		{"CSV with BOM", "counts.csv", "\ufeff" + csvText},
+		{"CSV, CRLF, BOM", "counts.csv", "\ufeff" + crlf(csvText)},
+		{"TSV", "counts.tsv", tsvText},
+		{"TSV, CRLF, BOM", "counts.tsv", "\ufeff" + crlf(tsvText)},
+		{"columns reordered, header in capitals", "counts.csv", strings.Replace(reordered, "count,term,year", "Count,TERM,Year", 1)},
+	}
+	extra := "terms: {list: [telegraph, boiler, Maßstab]}\n"
+	var first *Set
+	for _, v := range variants {
+		set, err := load(t, feature(t, v.file, v.text, "", extra))
+		if err != nil {
+			t.Errorf("%s: %v", v.name, err)
+			continue
+		}
+		if first == nil {
+			first = set
+			continue
+		}
+		if got, want := describe(set), describe(first); got != want {
+			t.Errorf("%s reads differently:\n%s\nwant\n%s", v.name, got, want)
+		}
+	}
+}
+
+func describe(set *Set) string {
+	var b strings.Builder
+	fmt.Fprintf(&b, "terms %d rows %d gaps %v ymax %g\n", set.Terms, set.Rows, set.Gaps, set.YMax)
+	for _, sr := range set.Series {
+		fmt.Fprintf(&b, "%q %v %v %g %g %d\n", sr.Term, sr.Values, sr.Counts, sr.Total, sr.Peak, sr.PeakYear)
+	}
+	return b.String()
+}
+
+// TestTermsAsWritten checks Unicode normalisation and case: terms are
+// compared in NFC (Unicode Standard Annex #15: "e" + U+0301 COMBINING
+// ACUTE ACCENT is canonically equivalent to U+00E9), and case matters
+// unless fold-case is on (then Unicode default case folding, §3.13).
+func TestTermsAsWritten(t *testing.T) {
+	const decomposed, composed = "cafe\u0301", "caf\u00e9"
+	t.Run("NFC", func(t *testing.T) {
+		counts := "term,year,count\n" + decomposed + ",1900,7\n"
+		set, err := load(t, feature(t, "counts.csv", counts, "", "terms: {list: ["+composed+"]}\n"))
+		if err != nil {
+			t.Fatal(err)
+		}
+		if sr := set.Series[0]; sr.Term != composed || sr.Counts[0] != 7 {
+			t.Errorf("term %q (% x) count %g, want the composed spelling and 7", sr.Term, sr.Term, sr.Counts[0])
+		}
+		// The two spellings are one term, so two rows for 1900 clash.
+		counts += composed + ",1900,3\n"
+		_, err = load(t, feature(t, "counts.csv", counts, "", "terms: {list: ["+composed+"]}\n"))
+		if err == nil || !strings.Contains(err.Error(), "counts.csv:3:7: \""+composed+"\" has a second row for 1900") {
+			t.Errorf("composed and decomposed rows for one year: got %v", err)
+		}
+	})
+	counts := "term,year,count\nboiler,1900,50\nBoiler,1900,10\nBoiler,1901,12\n"
+	t.Run("case kept", func(t *testing.T) {
+		set, err := load(t, feature(t, "counts.csv", counts, "", "terms: {list: [boiler, Boiler]}\n"))
+		if err != nil {
+			t.Fatal(err)
+		}
+		if set.Terms != 2 || set.Series[0].Counts[0] != 50 || set.Series[1].Counts[0] != 10 {
+			t.Errorf("case-sensitive: %s", describe(set))
+		}
+		_, err = load(t, feature(t, "counts.csv", counts, "", "terms: {list: [BOILER]}\n"))
+		if err == nil || !strings.Contains(err.Error(), `term "BOILER" is not in counts.csv; closest: "Boiler", "boiler"`) {
+			t.Errorf("BOILER without fold-case: %v", err)
+		}
+	})
+	t.Run("fold-case", func(t *testing.T) {
+		spec := feature(t, "counts.csv", counts, "", "terms: {list: [BOILER]}\n")
+		s, err := specs.Load(spec)
+		if err != nil {
+			t.Fatal(err)
+		}
+		s.Data.FoldCase = true
+		set, err := Load(s)
+		if err != nil {
+			t.Fatal(err)
+		}
+		// boiler + Boiler in 1900: 50 + 10 = 60; 1901: 12 (hand-added).
+		sr := set.Series[0]
+		if set.Terms != 1 || sr.Term != "boiler" || sr.Counts[0] != 60 || sr.Counts[1] != 12 || sr.Total != 72 {
+			t.Errorf("fold-case: %s", describe(set))
+		}
+		// 60/100000×1e6 = 600 per million.
+		if sr.Values[0] != 600 {
+			t.Errorf("fold-case 1900 value %g, want 600", sr.Values[0])
+		}
+	})
+}
+
+// TestDataErrors checks every data problem is reported at its file, line
+// and column (the field's first byte, RFC 4180 rows; line 1 is the
+// header) with this project's wording.
+func TestDataErrors(t *testing.T) {
+	const hdr = "term,year,count\n"
+	tests := []struct {
+		name   string
+		file   string // counts file name
+		counts string
+		totals string // "" for the small totals
+		extra  string // added to the spec
+		at     string // "file:line:col"; spec.yaml positions are in the generated spec
+		want   string
+	}{
+		{"duplicate row", "counts.csv", hdr + "boiler,1900,50\nboiler,1901,5\nboiler,1900,5\n", "", "", "counts.csv:4:8", `"boiler" has a second row for 1900`},
+		{"negative count", "counts.csv", hdr + "boiler,1900,-5\n", "", "", "counts.csv:2:13", `count for "boiler" in 1900: -5 is negative`},
+		{"count not a number", "counts.csv", hdr + "boiler,1900,many\n", "", "", "counts.csv:2:13", `count for "boiler" in 1900: "many" is not a number`},
+		{"count NaN", "counts.csv", hdr + "boiler,1900,NaN\n", "", "", "counts.csv:2:13", `"NaN" is not a finite number`},
+		{"count Inf", "counts.csv", hdr + "boiler,1900,+Inf\n", "", "", "counts.csv:2:13", `"+Inf" is not a finite number`},
+		{"year outside span", "counts.csv", hdr + "boiler,1890,5\n", "", "", "counts.csv:2:8", "year 1890 is outside the span 1900–1905 set at "},
+		{"year not whole", "counts.csv", hdr + "boiler,19x0,5\n", "", "", "counts.csv:2:8", `year "19x0" is not a whole number`},
+		{"count over total", "counts.csv", hdr + "boiler,1900,100001\n", "", "", "counts.csv:2:13", `count 100001 for "boiler" in 1900 is more than that year's total 100000`},
+		{"totals lack the year", "counts.csv", hdr + "boiler,1903,5\n", "", "", "counts.csv:2:8", `"boiler" has a count in 1903 but the totals table has no total for 1903; per-million scaling needs it`},
+		{"empty term", "counts.csv", hdr + " ,1900,5\n", "", "", "counts.csv:2:1", "the term is empty"},
+		{"short row", "counts.csv", hdr + "boiler,1900\n", "", "", "counts.csv:2:1", "the row has 2 fields; the header asks for at least 3"},
+		{"bare quote", "counts.csv", hdr + "bo\"iler,1900,5\n", "", "", "counts.csv:2:3", `bare " in non-quoted-field`},
+		{"one column", "counts.csv", "term\nboiler\n", "", "", "counts.csv:1:1", `the header needs columns named term, year, count; it has "term"`},
+		{"no header", "counts.csv", "boiler,1900,5\n", "", "", "counts.csv:1:1", `the header needs columns named term, year, count; it has "boiler", "1900", "5"`},
+		{"empty counts", "counts.csv", "", "", "", "counts.csv:1:1", "the table is empty; it needs a header row with term, year, count"},
+		{"wrong extension", "counts.xls", hdr, "", "", "spec.yaml:3:3", `data.counts: "counts.xls" must end in .csv or .tsv`},
+		{"listed terms missing", "counts.csv", hdr + "telegraph,1900,5\nboiler,1900,5\n", "", "terms:\n  list: [telegraf, boiler, steem]\n", "spec.yaml:8:10", `term "telegraf" is not in counts.csv; closest: "telegraph"`},
+		{"second missing term", "counts.csv", hdr + "telegraph,1900,5\nsteam,1900,5\n", "", "terms:\n  list: [telegraf, boiler, steem]\n", "spec.yaml:8:28", `term "steem" is not in counts.csv; closest: "steam"`},
+		{"nothing selected", "counts.csv", hdr + "boiler,1900,5\n", "", "terms: {min-total: 10}\n", "spec.yaml:7:1", "no terms are selected: the data has 1 terms"},
+		{"total duplicate", "counts.csv", hdr, "year,total\n1900,5\n1900,6\n", "", "totals.csv:3:1", "year 1900 is given twice (first on line 2)"},
+		{"total zero", "counts.csv", hdr, "year,total\n1900,0\n", "", "totals.csv:2:6", "total for 1900 is 0"},
+		{"total negative", "counts.csv", hdr, "year,total\n1900,-1\n", "", "totals.csv:2:6", "total for 1900: -1 is negative"},
+		{"totals outside span", "counts.csv", hdr, "year,total\n1800,5\n", "", "totals.csv", "no totals fall inside the span 1900–1905"},
+	}
+	for _, tt := range tests {
+		t.Run(tt.name, func(t *testing.T) {
+			spec := feature(t, tt.file, tt.counts, tt.totals, tt.extra)
+			_, err := load(t, spec)
+			if err == nil {
+				t.Fatal("no error")
+			}
+			want := filepath.Join(filepath.Dir(spec), tt.at)
+			for _, line := range strings.Split(err.Error(), "\n") {
+				rest, ok := strings.CutPrefix(line, want)
+				if ok && (strings.HasPrefix(rest, ": ")) && strings.Contains(rest, tt.want) {
+					return
+				}
+			}
+			t.Errorf("want %s: …%s…; got\n%v", tt.at, tt.want, err)
+		})
+	}
+}
+
+func TestRawNeedsNoTotal(t *testing.T) {
+	// Raw counts need no total, so a count in a year the totals lack is
+	// kept (the share check above does not apply).
+	spec := feature(t, "counts.csv", "term,year,count\nboiler,1903,5\n", "", "scale: {values: raw}\n")
+	set, err := load(t, spec)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if got := set.Series[0].Values[3]; got != 5 {
+		t.Errorf("raw 1903 = %g, want 5", got)
+	}
+}
+
+func TestMissingFiles(t *testing.T) {
+	dir := t.TempDir()
+	write(t, filepath.Join(dir, "totals.csv"), "year,total\n1900,5\n")
+	if err := os.Mkdir(filepath.Join(dir, "folder.csv"), 0o755); err != nil {
+		t.Fatal(err)
+	}
+	for _, tt := range []struct{ counts, want string }{
+		{"../elsewhere/counts.csv", `data.counts: "../elsewhere/counts.csv" (resolved to ` + filepath.Join(dir, "../elsewhere/counts.csv") + ") does not exist"},
+		{"folder.csv", `data.counts: "folder.csv" (resolved to ` + filepath.Join(dir, "folder.csv") + ") is a directory, not a table"},
+	} {
+		spec := filepath.Join(dir, "spec.yaml")
+		write(t, spec, "title: T\ndata:\n  counts: "+tt.counts+"\n  totals: totals.csv\nyears: {from: 1900, to: 1905}\noutputs: {print: {kind: print}}\n")
+		_, err := load(t, spec)
+		if err == nil || err.Error() != spec+":3:3: "+tt.want {
+			t.Errorf("got %v\nwant %s:3:3: %s", err, spec, tt.want)
+		}
+	}
+}
+
+func TestOrderAndGroups(t *testing.T) {
+	s, err := specs.Load(small)
+	if err != nil {
+		t.Fatal(err)
+	}
+	names := func(set *Set) string {
+		var n []string
+		for _, sr := range set.Series {
+			n = append(n, sr.Term)
+		}
+		return strings.Join(n, " ")
+	}
+	for _, tt := range []struct {
+		order specs.Order
+		want  string
+	}{
+		{specs.OrderListed, "telegraph boiler Maßstab"},
+		// Case-folded code-point order: boiler < maßstab < telegraph.
+		{specs.OrderAlpha, "boiler Maßstab telegraph"},
+		// Peak years 1900, 1905, 1905; ties by code point (M < t).
+		{specs.OrderPeakYear, "boiler Maßstab telegraph"},
+	} {
+		s.Order = tt.order
+		set, err := Load(s)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if got := names(set); got != tt.want {
+			t.Errorf("order %s: %s, want %s", tt.order, got, tt.want)
+		}
+	}
+	s.Order, s.Group = specs.OrderListed, specs.GroupPeakDecade
+	set, err := Load(s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(set.Groups) != 1 || set.Groups[0].Heading != "Peak in the 1900s" || set.Groups[0].Count != 3 {
+		t.Errorf("groups %+v", set.Groups)
+	}
+}
+
+func TestTopAndExclude(t *testing.T) {
+	// Overall shares (hand-computed): boiler 110, telegraph 95, Maßstab 12
+	// occurrences over the same 610000 words, so top 2 is boiler, telegraph.
+	s, err := specs.Load(small)
+	if err != nil {
+		t.Fatal(err)
+	}
+	s.Terms = specs.Terms{Top: 2}
+	set, err := Load(s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(set.Series) != 2 || set.Series[0].Term != "boiler" || set.Series[1].Term != "telegraph" {
+		t.Errorf("top 2: %s", describe(set))
+	}
+	s.Terms = specs.Terms{Top: 2, Exclude: []string{"boiler"}}
+	set, err = Load(s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(set.Series) != 2 || set.Series[0].Term != "telegraph" || set.Series[1].Term != "Maßstab" {
+		t.Errorf("top 2 without boiler: %s", describe(set))
+	}
+}
+
+// bigFeature writes a counts table of terms × years rows (deterministic
+// invented words and counts) and returns the spec path and the file size.
+func bigFeature(t testing.TB, terms, years int) (string, int64) {
+	t.Helper()
+	dir := t.TempDir()
+	f, err := os.Create(filepath.Join(dir, "counts.csv"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	w := bufio.NewWriterSize(f, 1<<20)
+	w.WriteString("term,year,count\n")
+	var buf []byte
+	x := uint64(88172645463325252) // xorshift64 state: fixed, so the file is the same every run
+	for i := range terms {
+		for y := range years {
+			x ^= x << 13
+			x ^= x >> 7
+			x ^= x << 17
+			buf = append(buf[:0], "word"...)
+			buf = strconv.AppendInt(buf, int64(i), 36)
+			buf = append(buf, ',')
+			buf = strconv.AppendInt(buf, int64(1700+y), 10)
+			buf = append(buf, ',')
+			buf = strconv.AppendUint(buf, x%100000, 10)
+			buf = append(buf, '\n')
+			w.Write(buf)
+		}
+	}
+	if err := w.Flush(); err != nil {
+		t.Fatal(err)
+	}
+	st, _ := f.Stat()
+	f.Close()
+	var tot strings.Builder
+	tot.WriteString("year,total\n")
+	for y := range years {
+		fmt.Fprintf(&tot, "%d,1000000000\n", 1700+y)
+	}
+	write(t, filepath.Join(dir, "totals.csv"), tot.String())
+	spec := filepath.Join(dir, "spec.yaml")
+	write(t, spec, fmt.Sprintf("title: T\ndata: {counts: counts.csv, totals: totals.csv}\nyears: {from: 1700, to: %d}\nterms: {top: 24}\noutputs: {print: {kind: print}}\n", 1700+years-1))
+	return spec, st.Size()
+}
+
+// peakHeap runs f while sampling the heap in use, and returns the highest
+// sample above the heap in use before f started.
+func peakHeap(f func()) uint64 {
+	runtime.GC()
+	var ms runtime.MemStats
+	runtime.ReadMemStats(&ms)
+	base := ms.HeapInuse
+	peak := base
+	done := make(chan struct{})
+	var wg sync.WaitGroup
+	wg.Add(1)
+	go func() {
+		defer wg.Done()
+		tick := time.NewTicker(2 * time.Millisecond)
+		defer tick.Stop()
+		for {
+			var m runtime.MemStats
+			runtime.ReadMemStats(&m)
+			peak = max(peak, m.HeapInuse)
+			select {
+			case <-done:
+				return
+			case <-tick.C:
+			}
+		}
+	}()
+	f()
+	close(done)
+	wg.Wait()
+	runtime.ReadMemStats(&ms)
+	return max(peak, ms.HeapInuse) - base
+}
+
+// TestLargeTableStreams reads a 2.4-million-row counts table (~45 MB) and
+// checks the heap never grows by more than a quarter of the file: the
+// tables are streamed, and memory follows the distinct and the selected
+// terms, not the rows. Holding the rows, even packed into 32 bytes each,
+// would take 77 MB. The bound is not tighter because the Go collector
+// lets garbage reach its minimum heap goal of 4 MB before it runs
+// (runtime/mgcpacer.go, heapMinimum), so a few MB measure the collector,
+// not the reader. No timing is asserted.
+func TestLargeTableStreams(t *testing.T) {
+	if testing.Short() {
+		t.Skip("writes a ~45 MB file")
+	}
+	spec, size := bigFeature(t, 6000, 400)
+	var set *Set
+	var err error
+	peak := peakHeap(func() { set, err = load(t, spec) })
+	if err != nil {
+		t.Fatal(err)
+	}
+	if set.Rows != 2_400_000 || set.Terms != 6000 || len(set.Series) != 24 {
+		t.Fatalf("rows %d terms %d selected %d", set.Rows, set.Terms, len(set.Series))
+	}
+	t.Logf("file %.1f MB, peak heap growth %.1f MB", float64(size)/1e6, float64(peak)/1e6)
+	if peak > uint64(size)/4 {
+		t.Errorf("heap grew by %.1f MB reading a %.1f MB file; want under a quarter of the file", float64(peak)/1e6, float64(size)/1e6)
+	}
+}
+
+func BenchmarkLoadLarge(b *testing.B) {
+	spec, size := bigFeature(b, 6000, 400)
+	b.SetBytes(size)
+	var peak uint64
+	for b.Loop() {
+		peak = max(peak, peakHeap(func() {
+			if _, err := load(b, spec); err != nil {
+				b.Fatal(err)
+			}
+		}))
+	}
+	b.ReportMetric(float64(peak)/1e6, "peak-heap-MB")
+	b.ReportMetric(float64(size)/1e6, "file-MB")
+}
+
+func BenchmarkLoadSmall(b *testing.B) {
+	s, err := specs.Load(small)
+	if err != nil {
+		b.Fatal(err)
+	}
+	for b.Loop() {
+		if _, err := Load(s); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
