@@ -1,0 +1,153 @@
+package main
+
+import (
+	"bytes"
+	"encoding/json"
+	"path/filepath"
+	"strings"
+	"testing"
+)
+
+const bad = "../../testdata/bad/"
+
+// TestCheckBadInput runs `sheaf check` on each file in testdata/bad and
+// expects exit status 2, nothing on stdout, and on stderr exactly the
+// listed problems, each at its file:line:col (counted by hand in the
+// fixture; YAML 1.2 §5 and RFC 4180 lines, 1-based columns) with a
+// message of this project's wording. No panic, no stack trace.
+func TestCheckBadInput(t *testing.T) {
+	tests := []struct {
+		spec string
+		want []string // "place: substring of the message", in order
+	}{
+		{"empty.yaml", []string{"empty.yaml:1:1: the spec is empty; it needs at least data, years and outputs"}},
+		{"syntax.yaml", []string{"syntax.yaml:6:3: YAML syntax: did not find expected ',' or ']'"}},
+		{"tab.yaml", []string{"tab.yaml:4:1: a tab is used for indentation; YAML needs spaces"}},
+		{"types.yaml", []string{
+			`types.yaml:3:77: data.fold-case must be true or false, not "sometimes"`,
+			`types.yaml:4:15: years.from must be a whole number, not "nineteen hundred"`,
+			`types.yaml:6:9: terms.list must be a list, not a mapping`,
+			`types.yaml:10:14: outputs.print.columns must be a whole number, not "six"`,
+			`types.yaml:11:13: outputs.print.facing must be a single value, not a list`,
+		}},
+		{"lengths.yaml", []string{
+			"lengths.yaml:8:12: outputs.print.bleed must not be negative, not -3mm",
+			"lengths.yaml:9:11: outputs.print.line must be greater than zero, not 0pt",
+			"lengths.yaml:10:22: outputs.print.min-panel-width must be greater than zero, not 0mm",
+			"lengths.yaml:11:19: outputs.print.type.label must be greater than zero, not -7pt",
+		}},
+		// A5 is 148 × 210 mm (ISO 216); 100 + 120 mm of margins is 220 mm.
+		{"margins.yaml", []string{"margins.yaml:9:5: outputs.print: the top and bottom margins (220.0 mm together) leave no room on a 210.0 mm tall page"}},
+		{"columns.yaml", []string{"columns.yaml:8:14: outputs.print.columns must be between 1 and 100, not 0"}},
+		{"unit.yaml", []string{
+			`unit.yaml:8:13: outputs.print.gutter: unknown unit "ems" in "2ems"; use mm, cm, in, pt, pc or px`,
+			`unit.yaml:9:14: outputs.print.row-gap: "3" has no unit; write it with one, like 3mm or 3pt`,
+		}},
+		// The first list whose expansion passes the budget is l5 (9^6
+		// leaves), on line 11, its anchor at column 5.
+		{"alias-bomb.yaml", []string{"alias-bomb.yaml:11:5: the spec expands to too many values (YAML aliases that multiply)"}},
+		{"unknown-key.yaml", []string{
+			`unknown-key.yaml:8:5: unknown key "colums" in outputs.print; did you mean "columns"?`,
+			`unknown-key.yaml:9:5: unknown key "trimm" in outputs.print; did you mean "trim"?`,
+		}},
+		{"one-column.yaml", []string{`one-column.csv:1:1: the header needs columns named term, year, count; it has "term"`}},
+		{"no-data.yaml", []string{`no-data.yaml:4:3: data.counts: "missing/counts.csv" (resolved to ` + filepath.Join(bad, "missing/counts.csv") + ") does not exist"}},
+		{"missing-term.yaml", []string{
+			`missing-term.yaml:6:10: term "telegraf" is not in ../small/counts.csv; closest: "telegraph"`,
+			`missing-term.yaml:6:28: term "Masstab" is not in ../small/counts.csv; closest: "Maßstab"`,
+		}},
+		{"bad-rows.yaml", []string{
+			`bad-rows.csv:3:8: "boiler" has a second row for 1900`,
+			`bad-rows.csv:4:16: count for "telegraph" in 1901: -5 is negative`,
+			`bad-rows.csv:5:16: count for "telegraph" in 1902: "NaN" is not a finite number`,
+			`bad-rows.csv:6:7: year 1899 is outside the span 1900–1905 set at ` + bad + `bad-rows.yaml:4:1`,
+		}},
+		{"", []string{": is a directory; give the spec's YAML file"}},
+		{"no-such-spec.yaml", []string{"no-such-spec.yaml: spec file does not exist"}},
+	}
+	for _, tt := range tests {
+		name := tt.spec
+		if name == "" {
+			name = "a directory"
+		}
+		t.Run(name, func(t *testing.T) {
+			path := bad + tt.spec
+			if tt.spec == "" {
+				path = strings.TrimSuffix(bad, "/")
+			}
+			var out, errb bytes.Buffer
+			code := run([]string{"check", path}, &out, &errb)
+			if code != exitBadInput {
+				t.Errorf("exit %d, want %d", code, exitBadInput)
+			}
+			if out.Len() != 0 {
+				t.Errorf("stdout not empty:\n%s", out.String())
+			}
+			stderr := errb.String()
+			for _, trace := range []string{"panic", "goroutine ", "internal error", ".go:"} {
+				if strings.Contains(stderr, trace) {
+					t.Errorf("stderr looks like a crash (%q):\n%s", trace, stderr)
+				}
+			}
+			lines := strings.Split(strings.TrimRight(stderr, "\n"), "\n")
+			if len(lines) != len(tt.want) {
+				t.Errorf("%d problems, want %d:\n%s", len(lines), len(tt.want), stderr)
+			}
+			for i, w := range tt.want {
+				if i >= len(lines) {
+					break
+				}
+				// Every problem starts with the file as the user can open
+				// it: the spec path as given, or a data path resolved
+				// against the spec's folder.
+				if !strings.HasPrefix(lines[i], strings.TrimSuffix(bad, "/")) || !strings.Contains(lines[i], w) {
+					t.Errorf("problem %d:\n got %s\nwant %s…%s", i+1, lines[i], bad, w)
+				}
+			}
+		})
+	}
+}
+
+func TestCheckSmall(t *testing.T) {
+	var out, errb bytes.Buffer
+	if code := run([]string{"check", "../../testdata/small/spec.yaml"}, &out, &errb); code != exitOK {
+		t.Fatalf("exit %d: %s", code, errb.String())
+	}
+	// A5 is 148 × 210 mm (ISO 216); default bleed 3 mm (common practice).
+	for _, w := range []string{
+		`"A small test feature"`,
+		"3 selected of 3 in the data (8 rows), order listed",
+		"1900–1905 (6 years; gaps: 1903)",
+		"output print (print): 148.0 × 210.0 mm + 3.0 mm bleed",
+	} {
+		if !strings.Contains(out.String(), w) {
+			t.Errorf("summary lacks %q:\n%s", w, out.String())
+		}
+	}
+
+	out.Reset()
+	if code := run([]string{"check", "../../testdata/small/spec.yaml", "--json"}, &out, &errb); code != exitOK {
+		t.Fatalf("--json exit %d: %s", code, errb.String())
+	}
+	var rep checkReport
+	if err := json.Unmarshal(out.Bytes(), &rep); err != nil {
+		t.Fatalf("--json output is not JSON: %v\n%s", err, out.String())
+	}
+	// A5 in points, 419.528 × 595.276 (print-facts.md, ISO 216); the
+	// shared top is not asked for, so y_max is the largest own peak,
+	// boiler's 500 per million (50/100000×1e6, hand-computed).
+	if rep.Terms.Selected != 3 || len(rep.Years.Gaps) != 1 || rep.Years.Gaps[0] != 1903 ||
+		rep.Scale.YMax != 500 || len(rep.Outputs) != 1 ||
+		int(rep.Outputs[0].TrimPt[0]*1000+0.5) != 419528 || int(rep.Outputs[0].TrimPt[1]*1000+0.5) != 595276 {
+		t.Errorf("JSON report %+v", rep)
+	}
+}
+
+func TestCheckUsage(t *testing.T) {
+	for _, args := range [][]string{{"check"}, {"check", "a.yaml", "b.yaml"}, {"check", "--no-such-flag", "a.yaml"}} {
+		var out, errb bytes.Buffer
+		if code := run(args, &out, &errb); code != exitBadInput {
+			t.Errorf("%v: exit %d, want %d", args, code, exitBadInput)
+		}
+	}
+}
