@@ -1,0 +1,126 @@
+package pdf
+
+import (
+	"bytes"
+	"image"
+	"image/png"
+	"math"
+	"os"
+	"os/exec"
+	"path/filepath"
+	"testing"
+
+	"github.com/tdewolff/canvas"
+	"github.com/tdewolff/canvas/renderers/rasterizer"
+	"golang.org/x/image/font/gofont/gobold"
+	"golang.org/x/image/font/gofont/goregular"
+
+	"sheaf/render/tooltest"
+)
+
+// TestPixelsMatchCanvasRasterizer renders the test drawing (paths,
+// strokes, dashes, a gradient fill, a gradient stroke, text, opacity)
+// through this package's PDF and poppler's pdftoppm, and through canvas's
+// own rasterizer (a reference renderer of the same drawing library), and
+// compares the pixels.
+//
+// Tolerance (set here, not from a standard): the two rasterizers
+// anti-alias edges differently and canvas's snaps text to the pixel
+// grid, so edge pixels differ; the mean absolute difference per channel
+// must stay under 1/255 and fewer than 1 % of pixels may differ by
+// more than 48/255 in any channel. A wrong colour, a missing shape or a
+// misplaced gradient breaks both limits by far.
+func TestPixelsMatchCanvasRasterizer(t *testing.T) {
+	tooltest.Require(t, "pdftoppm", "poppler-utils")
+	reg, bold := loadFont(t, goregular.TTF), loadFont(t, gobold.TTF)
+	const dpi = 100
+	res := canvas.DPI(dpi)
+
+	var buf bytes.Buffer
+	w := NewWriter(&buf, Options{Title: "pixels", Date: testDate})
+	if err := w.AddPage(PageSetup{Boxes: a5Boxes()}, testDrawing(reg, bold)); err != nil {
+		t.Fatal(err)
+	}
+	if err := w.Close(); err != nil {
+		t.Fatal(err)
+	}
+	dir := t.TempDir()
+	pdfPath := filepath.Join(dir, "p.pdf")
+	os.WriteFile(pdfPath, buf.Bytes(), 0o644)
+	if out, err := exec.Command("pdftoppm", "-r", "100", "-png", "-singlefile", pdfPath, filepath.Join(dir, "p")).CombinedOutput(); err != nil {
+		t.Fatalf("pdftoppm: %v\n%s", err, out)
+	}
+	f, err := os.Open(filepath.Join(dir, "p.png"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	got, err := png.Decode(f)
+	f.Close()
+	if err != nil {
+		t.Fatal(err)
+	}
+
+	b := a5Boxes()
+	c := canvas.New(b.Media.W()*MMPerPt, b.Media.H()*MMPerPt)
+	toPixels := func(c *canvas.Canvas, p canvas.Point) canvas.Point {
+		return canvas.Point{X: p.X * res.DPMM(), Y: (c.H - p.Y) * res.DPMM()}
+	}
+	if err := testDrawingWith(reg, bold, toPixels)(c); err != nil {
+		t.Fatal(err)
+	}
+	want := rasterizer.Draw(c, res, canvas.LinearColorSpace{})
+
+	// ISO 32000-1 §8.5.3.3.3: under the even-odd rule the inner circle
+	// of two same-direction circles is a hole; the ring is centred at
+	// (70, 30) mm on a #f4efe4 background.
+	hole := got.At(int(70*res.DPMM()), int((c.H-30)*res.DPMM()))
+	if r, g, bl, _ := hole.RGBA(); r>>8 != 0xf4 || g>>8 != 0xef || bl>>8 != 0xe4 {
+		t.Errorf("even-odd ring centre is %v, want the background #f4efe4", hole)
+	}
+	if got.Bounds().Size() != want.Bounds().Size() {
+		t.Fatalf("sizes differ: pdftoppm %v, canvas %v", got.Bounds().Size(), want.Bounds().Size())
+	}
+	mean, share := compareImages(got, want, 48)
+	t.Logf("mean abs diff %.3f/255, pixels off by > 48: %.3f %%", mean, 100*share)
+	if mean > 1 || share > 0.01 || os.Getenv("SHEAF_KEEP_PIXELS") == "always" {
+		t.Errorf("PDF rendering differs from canvas: mean %.3f/255 (max 1), %.3f %% pixels off (max 1 %%)", mean, 100*share)
+		if os.Getenv("SHEAF_KEEP_PIXELS") != "" {
+			png.Encode(mustCreate(t, "/tmp/pixels_pdf.png"), got)
+			png.Encode(mustCreate(t, "/tmp/pixels_canvas.png"), want)
+		}
+	}
+}
+
+func mustCreate(t *testing.T, p string) *os.File {
+	f, err := os.Create(p)
+	if err != nil {
+		t.Fatal(err)
+	}
+	t.Cleanup(func() { f.Close() })
+	return f
+}
+
+// compareImages returns the mean absolute channel difference (0–255) and
+// the share of pixels with some channel off by more than limit.
+func compareImages(a, b image.Image, limit float64) (mean, share float64) {
+	r := a.Bounds()
+	var sum float64
+	var off int
+	for y := r.Min.Y; y < r.Max.Y; y++ {
+		for x := r.Min.X; x < r.Max.X; x++ {
+			r1, g1, b1, _ := a.At(x, y).RGBA()
+			r2, g2, b2, _ := b.At(x-r.Min.X+b.Bounds().Min.X, y-r.Min.Y+b.Bounds().Min.Y).RGBA()
+			d := [3]float64{
+				math.Abs(float64(r1>>8) - float64(r2>>8)),
+				math.Abs(float64(g1>>8) - float64(g2>>8)),
+				math.Abs(float64(b1>>8) - float64(b2>>8)),
+			}
+			sum += d[0] + d[1] + d[2]
+			if math.Max(d[0], math.Max(d[1], d[2])) > limit {
+				off++
+			}
+		}
+	}
+	n := float64(r.Dx() * r.Dy())
+	return sum / (3 * n), float64(off) / n
+}
