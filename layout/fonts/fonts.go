@@ -47,6 +47,9 @@ func (s Style) String() string {
 	return fmt.Sprintf("Style(%d)", int(s))
 }
 
+// MarshalText writes the style's name, for JSON plans.
+func (s Style) MarshalText() ([]byte, error) { return []byte(s.String()), nil }
+
 // Set is the fonts of one output, parsed once. A Set is safe for concurrent
 // use by its own methods; the *canvas.FontFace values it hands out share the
 // parsed fonts.

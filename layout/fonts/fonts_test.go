@@ -236,9 +236,20 @@ func TestConcurrentMeasuring(t *testing.T) {
 	wg.Wait()
 }
 
-func BenchmarkWidth(b *testing.B) {
+// BenchmarkWidthCached is a repeated measurement, answered by the Set's cache.
+func BenchmarkWidthCached(b *testing.B) {
 	s := mustDefault(b)
 	for b.Loop() {
 		s.Width(Regular, 7, "dictionary")
+	}
+}
+
+// BenchmarkWidthShaping measures shaping a string not seen before.
+func BenchmarkWidthShaping(b *testing.B) {
+	s := mustDefault(b)
+	i := 0.0
+	for b.Loop() {
+		i++
+		s.Width(Regular, 7+i/1e6, "dictionary") // a new size defeats the cache
 	}
 }

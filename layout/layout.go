@@ -1,0 +1,197 @@
+// Package layout places every panel of a feature on every page of an
+// output, as pure geometry in points: page boxes, text bands, the panel
+// grid and the pagination of groups. Nothing here draws.
+//
+// Coordinates follow PDF and canvas: points (1/72 in), y up, origin at the
+// bottom-left corner of the page's MediaBox. A request that cannot fit
+// returns an *InfeasibleError naming the constraint, the numbers and a
+// change that works.
+package layout
+
+import (
+	"fmt"
+
+	"sheaf/layout/fonts"
+	"sheaf/specs"
+)
+
+// Group is a run of consecutive panels under one heading. A feature that is
+// not grouped is a single Group with an empty heading.
+type Group struct {
+	Heading string
+	Count   int
+}
+
+// Plan is the layout of one output.
+type Plan struct {
+	Output string     `json:"output"`
+	Kind   specs.Kind `json:"kind"`
+	Flow   specs.Flow `json:"flow,omitempty"`
+
+	Columns       int `json:"columns"`
+	RowsPerPage   int `json:"rows_per_page"`   // rows a page after the first holds, no headings
+	RowsFirstPage int `json:"rows_first_page"` // rows the first page holds, no headings
+
+	// Panel sizes, the same for every panel of the output. A panel is its
+	// label area over its plot; the tick-label area is below the plot.
+	PanelW float64 `json:"panel_w"`
+	PanelH float64 `json:"panel_h"`
+	LabelH float64 `json:"label_h"`
+	PlotH  float64 `json:"plot_h"`
+	TicksH float64 `json:"ticks_h"`
+	Gutter float64 `json:"gutter"`
+	RowGap float64 `json:"row_gap"`
+
+	// Crop marks (print with marks on): each mark runs along a trim edge's
+	// line, from MarkOffset to MarkOffset+MarkLength outside the trim.
+	MarkOffset float64 `json:"mark_offset,omitempty"`
+	MarkLength float64 `json:"mark_length,omitempty"`
+
+	Pages    []Page    `json:"pages"`
+	Warnings []Warning `json:"warnings,omitempty"`
+}
+
+// Page is one page (or, for a scrolling screen output, the whole sheet).
+type Page struct {
+	Number int  `json:"number"` // folio, from 1
+	Right  bool `json:"right"`  // a right-hand (recto) page
+
+	// Boxes per ISO 32000-1 §14.11.2: Trim ⊆ Bleed ⊆ Media. Live is the
+	// trim less the margins, mirrored on facing pages.
+	Media Rect `json:"media"`
+	Bleed Rect `json:"bleed"`
+	Trim  Rect `json:"trim"`
+	Live  Rect `json:"live"`
+
+	Header   Rect `json:"header,omitzero"` // title and dek, or the running head
+	Key      Rect `json:"key"`             // colour-key band
+	KeyStrip Rect `json:"key_strip"`       // the colour strip itself
+	KeyTicks Rect `json:"key_ticks"`       // year labels under the strip
+	Grid     Rect `json:"grid"`            // the room the panels and group headings share
+	Footer   Rect `json:"footer,omitzero"` // source, notes, folio
+	Slug     Rect `json:"slug,omitzero"`   // slug line, outside the bleed
+
+	Text     []TextLine `json:"text,omitempty"`
+	Headings []Heading  `json:"headings,omitempty"`
+	Panels   []Panel    `json:"panels"`
+}
+
+// TextRole says what a line of text is.
+type TextRole string
+
+const (
+	RoleTitle   TextRole = "title"
+	RoleDek     TextRole = "dek"
+	RoleRunning TextRole = "running-head"
+	RoleSource  TextRole = "source"
+	RoleNote    TextRole = "note"
+	RoleFolio   TextRole = "folio"
+)
+
+// TextLine is one measured line of text, ready to draw: start it at (X,
+// Baseline) in Style at Size points.
+type TextLine struct {
+	Role     TextRole    `json:"role"`
+	Text     string      `json:"text"`
+	Style    fonts.Style `json:"style"`
+	Size     float64     `json:"size"`
+	X        float64     `json:"x"`
+	Baseline float64     `json:"baseline"`
+	Width    float64     `json:"width"`
+	Box      Rect        `json:"box"` // the line box, Size × leading tall
+}
+
+// Heading is a group heading above the first row of a group's block.
+type Heading struct {
+	Group     int     `json:"group"`
+	Text      string  `json:"text"` // ends in " (continued)" when Continued
+	Continued bool    `json:"continued,omitempty"`
+	Box       Rect    `json:"box"`
+	Baseline  float64 `json:"baseline"`
+}
+
+// Panel is one small-multiple chart.
+type Panel struct {
+	Item          int     `json:"item"`  // index into the flattened items, in order
+	Group         int     `json:"group"` // index into the groups given to Solve
+	Row           int     `json:"row"`   // row on its page, from the top, from 0
+	Col           int     `json:"col"`
+	Label         Rect    `json:"label"`
+	LabelBaseline float64 `json:"label_baseline"`
+	Plot          Rect    `json:"plot"`
+	Ticks         Rect    `json:"ticks,omitzero"` // set when ShowTicks
+	ShowTicks     bool    `json:"show_ticks"`
+}
+
+// Box is the panel's label and plot together.
+func (p Panel) Box() Rect { return Rect{p.Plot.X0, p.Plot.Y0, p.Label.X1, p.Label.Y1} }
+
+// Summary is a one-line description of the plan, such as
+// "print: 8 pages, 6 × 8 panels a page, panel 25 × 21.4 mm".
+func (p *Plan) Summary() string {
+	u := units{screen: p.Kind == specs.Screen}
+	pages := "1 page"
+	if len(p.Pages) != 1 {
+		pages = fmt.Sprintf("%d pages", len(p.Pages))
+	}
+	if p.Flow == specs.FlowScroll && len(p.Pages) == 1 {
+		t := p.Pages[0].Trim
+		return fmt.Sprintf("%s: 1 scrolling page %s × %s, %d × %d panels, panel %s × %s",
+			p.Output, trimUnit(u, t.W()), u.len(t.H()), p.Columns, p.RowsPerPage,
+			trimUnit(u, p.PanelW), u.len(p.PanelH))
+	}
+	return fmt.Sprintf("%s: %s, %d × %d panels a page, panel %s × %s",
+		p.Output, pages, p.Columns, p.RowsPerPage, trimUnit(u, p.PanelW), u.len(p.PanelH))
+}
+
+// trimUnit formats a length without its unit, for "25 × 21.4 mm".
+func trimUnit(u units, pt float64) string {
+	s := u.len(pt)
+	return s[:len(s)-3]
+}
+
+// Panels returns the number of panels placed on all pages.
+func (p *Plan) Panels() int {
+	n := 0
+	for i := range p.Pages {
+		n += len(p.Pages[i].Panels)
+	}
+	return n
+}
+
+// Spread is one sheet of a screen output shown as spreads: a left and a
+// right page side by side, or a page alone (the first page when it is a
+// right-hand page, the last when it is a left-hand one).
+type Spread struct {
+	Sheet Rect         `json:"sheet"` // from (0, 0)
+	Pages []SpreadPage `json:"pages"`
+}
+
+// SpreadPage places a page on a spread's sheet.
+type SpreadPage struct {
+	Page   int   `json:"page"` // index into Plan.Pages
+	Offset Point `json:"offset"`
+}
+
+// Spreads pairs the plan's pages into spreads: each left-hand page with the
+// right-hand page after it. Pages keep their own media size; a pair's sheet
+// is both side by side.
+func (p *Plan) Spreads() []Spread {
+	var out []Spread
+	for i := 0; i < len(p.Pages); {
+		a := p.Pages[i]
+		if !a.Right && i+1 < len(p.Pages) && p.Pages[i+1].Right {
+			b := p.Pages[i+1]
+			w, h := a.Media.W(), max(a.Media.H(), b.Media.H())
+			out = append(out, Spread{
+				Sheet: Rect{0, 0, w + b.Media.W(), h},
+				Pages: []SpreadPage{{Page: i}, {Page: i + 1, Offset: Point{X: w}}},
+			})
+			i += 2
+			continue
+		}
+		out = append(out, Spread{Sheet: Rect{0, 0, a.Media.W(), a.Media.H()}, Pages: []SpreadPage{{Page: i}}})
+		i++
+	}
+	return out
+}

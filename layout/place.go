@@ -1,0 +1,221 @@
+package layout
+
+import (
+	"math"
+	"strconv"
+
+	"sheaf/layout/fonts"
+	"sheaf/specs"
+)
+
+// place turns filled pages into geometry.
+func (s *solver) place(groups []Group, fills []pageFill, balanced bool) *Plan {
+	o := s.out
+	// Grow: every panel grows by the same amount, the most the tightest
+	// page allows, so all panels stay one size.
+	if o.Slack == specs.SlackGrow && !s.scroll {
+		grow := math.Inf(1)
+		for i, f := range fills {
+			if f.rows > 0 {
+				grow = min(grow, (s.capacity(i)-s.need(f.rows, f.heads, len(f.blocks)))/float64(f.rows))
+			}
+		}
+		if grow > 0 && !math.IsInf(grow, 1) {
+			s.plotH += grow
+			s.setRowH()
+		}
+	}
+
+	// Spread what is left evenly between the rows of each page. A last
+	// page that ends because the panels ran out (not balanced) keeps the
+	// pitch of the page before it so its rows line up with that page's.
+	extra := make([]float64, len(fills))
+	for i, f := range fills {
+		if s.scroll || f.rows < 2 {
+			continue
+		}
+		extra[i] = max(0, (s.capacity(i)-s.need(f.rows, f.heads, len(f.blocks)))/float64(f.rows-1))
+	}
+	if last := len(fills) - 1; last > 0 && !balanced {
+		extra[last] = min(extra[last], extra[last-1])
+	}
+
+	// The scrolling sheet is as tall as its content.
+	if s.scroll {
+		f := fills[0]
+		s.liveH = s.bandsH(true) + s.need(f.rows, f.heads, len(f.blocks))
+		s.trimH = s.liveH + s.top + s.bottom
+		s.gridH1 = s.liveH - s.bandsH(true)
+	}
+
+	start := make([]int, len(groups)+1) // first item of each group
+	for i, g := range groups {
+		start[i+1] = start[i] + g.Count
+	}
+
+	plan := &Plan{
+		Output: o.Name, Kind: o.Kind, Columns: s.n,
+		PanelW: s.colW, PanelH: s.la + s.plotH, LabelH: s.la, PlotH: s.plotH, TicksH: s.ta,
+		Gutter: s.gutter, RowGap: s.rowGap,
+		MarkOffset: s.markOff, MarkLength: s.markLen,
+		Pages:    make([]Page, len(fills)),
+		Warnings: s.warnings,
+	}
+	if s.screen {
+		plan.Flow = o.Flow
+	}
+	plan.RowsFirstPage = s.room(&pageFill{}, 0, false, noLimit)
+	plan.RowsPerPage = s.room(&pageFill{}, 1, false, noLimit)
+	if s.scroll {
+		plan.RowsFirstPage, plan.RowsPerPage = fills[0].rows, fills[0].rows
+	}
+
+	for i, f := range fills {
+		s.placePage(&plan.Pages[i], i, f, extra[i], groups, start)
+	}
+	return plan
+}
+
+// placePage fills in page i. Every coordinate is computed from indices
+// (page, row slot, column, counts of headings and blocks above) rather than
+// by adding heights in a loop, so nothing drifts.
+func (s *solver) placePage(pg *Page, i int, f pageFill, extra float64, groups []Group, start []int) {
+	o := s.out
+	pg.Number = i + 1
+	pg.Right = (i%2 == 0) != o.FirstPageLeft
+
+	ms := s.slug + s.bleed
+	pg.Media = Rect{0, 0, s.trimW + 2*ms, s.trimH + 2*ms}
+	pg.Bleed = pg.Media.Inset(s.slug)
+	pg.Trim = pg.Media.Inset(ms)
+	left, right := s.inner, s.outer
+	if o.Facing && !pg.Right {
+		left, right = s.outer, s.inner
+	}
+	t := pg.Trim
+	pg.Live = Rect{t.X0 + left, t.Y0 + s.bottom, t.X1 - right, t.Y1 - s.top}
+	live := pg.Live
+	x0, x1 := live.X0, live.X1
+
+	// Bands from the top: header, key; footer from the bottom.
+	y := live.Y1
+	first := i == 0
+	if first && s.headerH1 > 0 {
+		pg.Header = Rect{x0, y - s.headerH1, x1, y}
+		y = s.lines(pg, RoleTitle, fonts.Bold, s.title, s.titleLines, y, false)
+		y = s.lines(pg, RoleDek, fonts.Regular, s.dek, s.dekLines, y, false)
+		y -= s.gap
+	} else if !first && s.headerHn > 0 {
+		pg.Header = Rect{x0, y - s.headerHn, x1, y}
+		y = s.lines(pg, RoleRunning, fonts.Regular, s.heading, s.runLines, y, o.Facing && pg.Right) // on the outside
+		y -= s.gap
+	}
+	pg.Key = Rect{x0, y - s.keyH, x1, y}
+	half := (s.n+1)/2 - 1 // the strip spans the first half of the columns
+	sx0, sx1 := s.colX(live, 0), s.colX(live, half)+s.colW
+	strip := keyStripFactor * s.key
+	pg.KeyStrip = Rect{sx0, y - strip, sx1, y}
+	pg.KeyTicks = Rect{sx0, y - s.keyH, sx1, y - strip}
+	gridTop := y - s.keyH - s.gap
+
+	fh := s.footerHn
+	if first {
+		fh = s.footerH1
+	}
+	gridBottom := live.Y0
+	if fh > 0 {
+		pg.Footer = Rect{x0, live.Y0, x1, live.Y0 + fh}
+		gridBottom = pg.Footer.Y1 + s.gap
+		fy := pg.Footer.Y1
+		if first {
+			fy = s.lines(pg, RoleSource, fonts.Regular, s.notes, s.sourceLines, fy, false)
+			for _, nl := range s.noteLines {
+				fy = s.lines(pg, RoleNote, fonts.Regular, s.notes, nl, fy, false)
+			}
+		}
+		if !s.scroll {
+			// The folio sits on the outside edge of the page.
+			s.lines(pg, RoleFolio, fonts.Regular, s.folio, []string{strconv.Itoa(pg.Number)}, fy, !o.Facing || pg.Right)
+		}
+	}
+	pg.Grid = Rect{x0, gridBottom, x1, gridTop}
+
+	if !s.screen && o.SlugLine {
+		pg.Slug = Rect{pg.Trim.X0 + slugGap, pg.Bleed.Y0 - slugGap - s.folio*s.lead, pg.Trim.X1 - slugGap, pg.Bleed.Y0 - slugGap}
+	}
+
+	pg.Panels = make([]Panel, 0, f.rows*s.n)
+	pitch := s.rowH + s.rowGap + extra
+	// Below a panel whose column is empty in the next row, the tick labels
+	// go into that empty cell; that needs the tick area to fit there.
+	ticksBelowFit := s.ta <= s.rowGap+extra+s.rowH+eps
+	k, heads, ended := 0, 0, 0
+	for _, b := range f.blocks {
+		if b.heading {
+			heads++
+		}
+		gStart, gEnd := start[b.group], start[b.group+1]
+		bEnd := min(gEnd, gStart+(b.row0+b.rows)*s.n)
+		if b.heading {
+			top := gridTop - (float64(k)*pitch + float64(heads)*s.hh + float64(ended)*s.tb)
+			text := groups[b.group].Heading
+			if b.continued {
+				text += " (continued)"
+			}
+			pg.Headings = append(pg.Headings, Heading{
+				Group: b.group, Text: text, Continued: b.continued,
+				Box:      Rect{x0, top, x1, top + s.hh},
+				Baseline: s.fs.Baseline(fonts.Bold, s.heading, s.lead, top+s.hh),
+			})
+		}
+		for r := 0; r < b.rows; r++ {
+			top := gridTop - (float64(k)*pitch + float64(heads)*s.hh + float64(ended)*s.tb)
+			labelBase := s.fs.Baseline(fonts.Regular, s.label, s.lead, top)
+			item0 := gStart + (b.row0+r)*s.n
+			for c := 0; c < s.n && item0+c < bEnd; c++ {
+				item := item0 + c
+				px0 := s.colX(live, c)
+				p := Panel{
+					Item: item, Group: b.group, Row: k, Col: c,
+					Label:         Rect{px0, top - s.la, px0 + s.colW, top},
+					LabelBaseline: labelBase,
+					Plot:          Rect{px0, top - s.la - s.plotH, px0 + s.colW, top - s.la},
+				}
+				lastInCol := item+s.n >= bEnd
+				p.ShowTicks = s.every || (lastInCol && (r == b.rows-1 || ticksBelowFit))
+				if p.ShowTicks {
+					p.Ticks = Rect{px0, p.Plot.Y0 - s.ta, px0 + s.colW, p.Plot.Y0}
+				}
+				pg.Panels = append(pg.Panels, p)
+			}
+			k++
+		}
+		ended++
+	}
+}
+
+// colX is the left edge of column c, from its index so that every gutter
+// is the spec's to rounding error.
+func (s *solver) colX(live Rect, c int) float64 {
+	return live.X0 + float64(c)*(s.colW+s.gutter)
+}
+
+// lines sets text lines in line boxes from top down and returns the bottom
+// of the last. alignRight sets them flush right in the live area.
+func (s *solver) lines(pg *Page, role TextRole, st fonts.Style, size float64, text []string, top float64, alignRight bool) float64 {
+	lh := size * s.lead
+	for j, l := range text {
+		t := top - float64(j)*lh
+		w := s.fs.Width(st, size, l)
+		x := pg.Live.X0
+		if alignRight {
+			x = pg.Live.X1 - w
+		}
+		pg.Text = append(pg.Text, TextLine{
+			Role: role, Text: l, Style: st, Size: size, X: x,
+			Baseline: s.fs.Baseline(st, size, s.lead, t), Width: w,
+			Box: Rect{pg.Live.X0, t - lh, pg.Live.X1, t},
+		})
+	}
+	return top - float64(len(text))*lh
+}
