@@ -4,6 +4,7 @@ import (
 	"bytes"
 	"errors"
 	"fmt"
+	"io"
 	"io/fs"
 	"math"
 	"os"
@@ -50,14 +51,18 @@ func Parse(file string, data []byte) (*Spec, error) {
 		return nil, Errors{{Pos: Pos{File: file, Line: 1, Col: 1}, Msg: "the spec is empty; it needs at least data, years and outputs"}}
 	}
 	var root yaml.Node
-	if err := yaml.Unmarshal(data, &root); err != nil {
+	if err := decodeAll(data, &root); err != nil {
+		var more *extraDocError
+		if errors.As(err, &more) {
+			return nil, Errors{{Pos: Pos{File: file, Line: more.line, Col: 1}, Msg: "a second YAML document (after ---); a spec is one document"}}
+		}
 		return nil, Errors{yamlError(file, data, err)}
 	}
 	doc := &root
 	if doc.Kind == yaml.DocumentNode && len(doc.Content) == 1 {
 		doc = doc.Content[0]
 	}
-	if doc.Kind == 0 || doc.Kind == yaml.DocumentNode {
+	if doc.Kind == 0 || doc.Kind == yaml.DocumentNode || doc.Kind == yaml.ScalarNode && doc.Tag == "!!null" {
 		// Only comments or document markers: nothing was said.
 		return nil, Errors{{Pos: Pos{File: file, Line: 1, Col: 1}, Msg: "the spec is empty; it needs at least data, years and outputs"}}
 	}
@@ -75,6 +80,32 @@ func Parse(file string, data []byte) (*Spec, error) {
 		return nil, d.errs
 	}
 	return s, nil
+}
+
+// extraDocError reports a document after the first.
+type extraDocError struct{ line int }
+
+func (e *extraDocError) Error() string { return fmt.Sprintf("line %d: a second YAML document", e.line) }
+
+// decodeAll parses the first YAML document into root and makes sure no
+// other follows: yaml.Unmarshal would silently drop the rest.
+func decodeAll(data []byte, root *yaml.Node) error {
+	dec := yaml.NewDecoder(bytes.NewReader(data))
+	if err := dec.Decode(root); err != nil && err != io.EOF {
+		return err
+	}
+	var next yaml.Node
+	switch err := dec.Decode(&next); {
+	case err == io.EOF:
+		return nil
+	case err != nil:
+		return err
+	}
+	line := next.Line
+	if len(next.Content) > 0 {
+		line = next.Content[0].Line
+	}
+	return &extraDocError{line}
 }
 
 // checkAliases rejects documents whose aliases expand to more than
@@ -137,8 +168,8 @@ func yamlError(file string, data []byte, err error) *Error {
 	if len(lines) <= maxScanLines {
 		for k := 1; k <= len(lines); k++ {
 			var n yaml.Node
-			perr := yaml.Unmarshal([]byte(strings.Join(lines[:k], "\n")+"\n"), &n)
-			if perr == nil {
+			perr := decodeAll([]byte(strings.Join(lines[:k], "\n")+"\n"), &n)
+			if perr == nil || errors.As(perr, new(*extraDocError)) {
 				continue
 			}
 			pm := strings.TrimPrefix(perr.Error(), "yaml: ")
