@@ -1,0 +1,262 @@
+package pdf
+
+import (
+	"bytes"
+	"encoding/gob"
+	"errors"
+	"math"
+	"regexp"
+	"strings"
+	"testing"
+	"time"
+
+	"github.com/tdewolff/canvas"
+	"golang.org/x/image/font/gofont/gobold"
+)
+
+func TestAppendNum(t *testing.T) {
+	// PDF numbers (ISO 32000-1 §7.3.3): no exponent; here 0.001 precision,
+	// no trailing zeros (brief, common practice for compact content).
+	cases := []struct {
+		in   float64
+		want string
+	}{
+		{0, "0"}, {-0.0, "0"}, {1, "1"}, {-1, "-1"}, {0.5, "0.5"}, {0.1 + 0.2, "0.3"},
+		{1.23456, "1.235"}, {-1.23449, "-1.234"}, {0.0004, "0"}, {-0.0004, "0"}, {0.0005, "0.001"},
+		{595.2756, "595.276"}, {841.8898, "841.89"}, {1e-9, "0"}, {123456.7891, "123456.789"}, {10.01, "10.01"},
+	}
+	for _, c := range cases {
+		if got := string(appendNum(nil, c.in)); got != c.want {
+			t.Errorf("appendNum(%v) = %q, want %q", c.in, got, c.want)
+		}
+	}
+	if n := testing.AllocsPerRun(100, func() { _ = appendNum(make([]byte, 0, 32), 123.456) }); n > 1 {
+		t.Errorf("appendNum allocates %v times", n)
+	}
+}
+
+func TestDeterministic(t *testing.T) {
+	opts := Options{Title: "Same", Version: "1.0", Date: testDate}
+	a := writeDoc(t, opts, 3)
+	b := writeDoc(t, opts, 3)
+	if !bytes.Equal(a, b) {
+		t.Fatal("two writes of the same drawing differ")
+	}
+	// A different date changes only the dates and the /ID (and the XMP
+	// document ID derived from the date).
+	opts.Date = testDate.Add(36*time.Hour + 17*time.Minute)
+	c := writeDoc(t, opts, 3)
+	if bytes.Equal(a, c) {
+		t.Fatal("the date does not reach the file")
+	}
+	mask := regexp.MustCompile(`D:\d{14}Z00'00'|\d{4}-\d\d-\d\dT\d\d:\d\d:\d\dZ|uuid:[0-9a-f-]+|/ID \[<[0-9A-F]+> <[0-9A-F]+>\]`)
+	ma, mc := mask.ReplaceAll(a, []byte("X")), mask.ReplaceAll(c, []byte("X"))
+	if !bytes.Equal(ma, mc) {
+		t.Error("a different date changed more than dates and /ID")
+	}
+	ida := regexp.MustCompile(`/ID \[<([0-9A-F]+)>`).FindSubmatch(a)
+	idc := regexp.MustCompile(`/ID \[<([0-9A-F]+)>`).FindSubmatch(c)
+	if ida == nil || idc == nil || bytes.Equal(ida[1], idc[1]) {
+		t.Error("/ID does not depend on the content")
+	}
+}
+
+func TestDateFromEnv(t *testing.T) {
+	fallback := time.Date(2001, 2, 3, 4, 5, 6, 0, time.UTC)
+	// SOURCE_DATE_EPOCH spec (reproducible-builds.org): decimal seconds
+	// since 1970-01-01T00:00:00Z.
+	cases := []struct {
+		env     string
+		want    time.Time
+		wantErr bool
+	}{
+		{"", fallback, false},
+		{"0", time.Unix(0, 0).UTC(), false},
+		{"1715938200", time.Date(2024, 5, 17, 9, 30, 0, 0, time.UTC), false},
+		{"yesterday", time.Time{}, true},
+		{"1.5", time.Time{}, true},
+	}
+	for _, c := range cases {
+		t.Setenv("SOURCE_DATE_EPOCH", c.env)
+		got, err := DateFromEnv(fallback)
+		if (err != nil) != c.wantErr || !c.wantErr && !got.Equal(c.want) {
+			t.Errorf("SOURCE_DATE_EPOCH=%q: %v, %v; want %v (error %v)", c.env, got, err, c.want, c.wantErr)
+		}
+	}
+}
+
+func TestBadInput(t *testing.T) {
+	good := a5Boxes()
+	swap := good
+	swap.Trim, swap.Bleed = good.Bleed, good.Trim
+	zero := good
+	zero.Media = canvas.Rect{}
+	nan := good
+	nan.Trim.X1 = math.NaN()
+	outside := good
+	outside.Bleed.X1 = good.Media.X1 + 1
+
+	nanPath := func(c *canvas.Canvas) error {
+		ctx := canvas.NewContext(c)
+		p := &canvas.Path{}
+		p.MoveTo(0, 0)
+		p.LineTo(math.NaN(), 3)
+		ctx.DrawPath(0, 0, p)
+		return nil
+	}
+	infMatrix := func(c *canvas.Canvas) error {
+		ctx := canvas.NewContext(c)
+		ctx.SetView(canvas.Identity.Scale(math.Inf(1), 1))
+		ctx.DrawPath(0, 0, canvas.Rectangle(2, 2))
+		return nil
+	}
+	failing := func(c *canvas.Canvas) error { return errors.New("no data for this page") }
+	panicking := func(c *canvas.Canvas) error { panic("boom") }
+
+	cases := []struct {
+		name  string
+		setup PageSetup
+		draw  func(*canvas.Canvas) error
+		want  string
+	}{
+		{"boxes out of order (§14.11.2)", PageSetup{Boxes: swap}, nil, "TrimBox"},
+		{"zero-size page", PageSetup{Boxes: zero}, nil, "MediaBox"},
+		{"NaN box", PageSetup{Boxes: nan}, nil, "not finite"},
+		{"bleed outside media", PageSetup{Boxes: outside}, nil, "BleedBox"},
+		{"NaN coordinate", PageSetup{Boxes: good}, nanPath, "NaN"},
+		{"infinite transform", PageSetup{Boxes: good}, infMatrix, "not finite"},
+		{"draw error", PageSetup{Boxes: good}, failing, "no data for this page"},
+		{"draw panic", PageSetup{Boxes: good}, panicking, "boom"},
+		{"marks do not fit", PageSetup{Boxes: PageBoxes{Media: canvas.Rect{X1: 110, Y1: 110}, Bleed: canvas.Rect{X0: 5, Y0: 5, X1: 105, Y1: 105}, Trim: canvas.Rect{X0: 10, Y0: 10, X1: 100, Y1: 100}}, Marks: &MarkOptions{}}, nil, "crop marks need"},
+		{"slug too long", PageSetup{Boxes: good, Marks: &MarkOptions{}, Slug: strings.Repeat("long slug ", 40)}, nil, "slug"},
+	}
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) {
+			_, err := EncodePage(c.setup, c.draw)
+			if err == nil || !strings.Contains(err.Error(), c.want) {
+				t.Errorf("EncodePage error %v, want one containing %q", err, c.want)
+			}
+			// through the Writer: the error surfaces and no trailer is
+			// written, so the output is visibly not a finished PDF.
+			var buf bytes.Buffer
+			w := NewWriter(&buf, Options{Date: testDate})
+			err = w.AddPage(c.setup, c.draw)
+			if cerr := w.Close(); err == nil {
+				err = cerr
+			}
+			if err == nil || !strings.Contains(err.Error(), c.want) || !strings.Contains(err.Error(), "page 1") {
+				t.Errorf("Writer error %v, want one naming page 1 and containing %q", err, c.want)
+			}
+			if bytes.Contains(buf.Bytes(), []byte("%%EOF")) {
+				t.Error("a failed document was finished anyway")
+			}
+		})
+	}
+}
+
+func TestNotAFont(t *testing.T) {
+	if _, err := canvas.LoadFont([]byte("this is not a font file"), 0, canvas.FontRegular); err == nil {
+		t.Fatal("canvas accepted a non-font")
+	}
+	var buf bytes.Buffer
+	w := NewWriter(&buf, Options{})
+	if _, err := w.RegisterFont(nil); err == nil {
+		t.Error("RegisterFont(nil) succeeded")
+	}
+}
+
+func TestEmptyDocument(t *testing.T) {
+	var buf bytes.Buffer
+	if err := NewWriter(&buf, Options{}).Close(); err == nil {
+		t.Error("a document without pages closed without error")
+	}
+}
+
+// TestEncodedPageRoundTrip: a page encoded once, stored with
+// encoding/gob and added to a later document gives the same bytes as
+// drawing it there, once its fonts are registered.
+func TestEncodedPageRoundTrip(t *testing.T) {
+	// Go Bold: Go Regular is the slug font, which every writer knows.
+	reg := loadFont(t, gobold.TTF)
+	draw := func(c *canvas.Canvas) error {
+		ctx := canvas.NewContext(c)
+		g := canvas.NewLinearGradient(canvas.Point{X: 10, Y: 0}, canvas.Point{X: 100, Y: 0})
+		g.Add(0, canvas.Hex("#3b0f70"))
+		g.Add(1, canvas.Hex("#fcfdbf"))
+		ctx.SetStrokeGradient(g)
+		ctx.SetFillColor(canvas.Transparent)
+		ctx.SetStrokeWidth(0.6)
+		p := &canvas.Path{}
+		p.MoveTo(10, 50)
+		p.CubeTo(40, 90, 70, 10, 100, 50)
+		ctx.DrawPath(0, 0, p)
+		ctx.DrawText(10, 120, canvas.NewTextLine(reg.Face(9, canvas.Black), "cached page", canvas.Left))
+		return nil
+	}
+	setup := PageSetup{Boxes: a5Boxes(), Marks: &MarkOptions{}, Slug: "cache test"}
+	opts := Options{Title: "cache", Date: testDate}
+
+	var direct bytes.Buffer
+	w := NewWriter(&direct, opts)
+	if err := w.AddPage(setup, draw); err != nil {
+		t.Fatal(err)
+	}
+	if err := w.Close(); err != nil {
+		t.Fatal(err)
+	}
+
+	page, err := EncodePage(setup, draw)
+	if err != nil {
+		t.Fatal(err)
+	}
+	var store bytes.Buffer
+	if err := gob.NewEncoder(&store).Encode(page); err != nil {
+		t.Fatal(err)
+	}
+	var back EncodedPage
+	if err := gob.NewDecoder(&store).Decode(&back); err != nil {
+		t.Fatal(err)
+	}
+
+	var cached bytes.Buffer
+	w = NewWriter(&cached, opts)
+	if err := w.AddEncoded(&back); err == nil || !strings.Contains(err.Error(), "not registered") {
+		t.Fatalf("AddEncoded without the font: %v, want a 'not registered' error", err)
+	}
+	if _, err := w.RegisterFont(reg); err != nil {
+		t.Fatal(err)
+	}
+	if err := w.AddEncoded(&back); err != nil {
+		t.Fatal(err)
+	}
+	if err := w.Close(); err != nil {
+		t.Fatal(err)
+	}
+	if !bytes.Equal(direct.Bytes(), cached.Bytes()) {
+		t.Error("a cached page gives other bytes than drawing it")
+	}
+	readStrict(t, cached.Bytes())
+}
+
+func TestStitchingFunction(t *testing.T) {
+	// ISO 32000-1 §7.10.4: k functions, k-1 increasing Bounds, 2k Encode
+	// values; constant pieces outside the first/last stop.
+	cases := []struct {
+		stops []Stop
+		want  string
+	}{
+		{[]Stop{{0, 0, 0, 0}, {1, 1, 1, 1}}, "/Functions [ << /FunctionType 2 /Domain [0 1] /C0 [0 0 0] /C1 [1 1 1] /N 1 >> ] /Bounds [] /Encode [0 1]"},
+		{[]Stop{{0.25, 1, 0, 0}, {0.75, 0, 0, 1}}, "/Bounds [0.25 0.75] /Encode [0 1 0 1 0 1]"},
+		{[]Stop{{0, 1, 0, 0}, {0.5, 0, 1, 0}, {0.5, 0, 0, 1}, {1, 1, 1, 1}}, "/Bounds [0.5] /Encode [0 1 0 1]"},
+		{[]Stop{{0.4, 0.2, 0.2, 0.2}}, "/Bounds [0.4] /Encode [0 1 0 1]"},
+	}
+	for _, c := range cases {
+		b, err := stitching(c.stops)
+		if err != nil || !strings.Contains(string(b), c.want) {
+			t.Errorf("stitching(%v) = %s (%v), want it to contain %q", c.stops, b, err, c.want)
+		}
+	}
+	if _, err := stitching([]Stop{{0.5, 0, 0, 0}, {0.2, 0, 0, 0}}); err == nil {
+		t.Error("stops out of order accepted")
+	}
+}
