@@ -123,15 +123,16 @@ func solve(spec *specs.Spec, out *specs.Output, fs *fonts.Set, groups []Group) (
 		return nil, errors.New("layout: Solve needs a spec, an output and a font set")
 	}
 	s := &solver{spec: spec, out: out, fs: fs}
+	for i, g := range groups {
+		if g.Count < 0 {
+			return nil, fmt.Errorf("layout: group %d (%q) has %d panels", i, g.Heading, g.Count)
+		}
+		s.headings = s.headings || (g.Heading != "" && g.Count > 0)
+	}
 	steps := []func() error{s.readOutput, s.pageBoxes, s.bands, s.columns, s.rows}
 	for _, step := range steps {
 		if err := step(); err != nil {
 			return nil, err
-		}
-	}
-	for i, g := range groups {
-		if g.Count < 0 {
-			return nil, fmt.Errorf("layout: group %d (%q) has %d panels", i, g.Heading, g.Count)
 		}
 	}
 	pages, balanced, err := s.paginate(groups)
@@ -273,7 +274,7 @@ func (s *solver) pageBoxes() error {
 		return s.infeasible("margins", "live area", s.inner+s.outer, s.trimW,
 			fmt.Sprintf("inside and outside margins of %s leave no live area on a trim %s wide",
 				s.u.len(s.inner+s.outer), s.u.len(s.trimW)),
-			s.sideMargins(s.inner+s.outer-s.trimW+s.floorW))
+			s.sideMargins(s.inner+s.outer-s.trimW+s.minLiveW()))
 	}
 	if !s.scroll {
 		s.liveH = s.trimH - s.top - s.bottom
@@ -285,6 +286,13 @@ func (s *solver) pageBoxes() error {
 		}
 	}
 	return nil
+}
+
+// minLiveW is the narrowest live area the output's columns can use.
+func (s *solver) minLiveW() float64 {
+	n := max(s.out.Columns, 1)
+	w := max(s.floorW, s.out.MinPanelWidth.Pt())
+	return float64(n)*w + float64(n-1)*s.out.Gutter.Pt()
 }
 
 // sideMargins narrows the inside and outside margins by deficit in all.
@@ -482,10 +490,13 @@ func (s *solver) rows() error {
 		return nil
 	}
 
-	// One row (with a group heading, when there are headings at all: the
-	// caller's groups are not known yet, so assume the worst) must fit on
+	// One row, with a group heading when there are headings, must fit on
 	// the first page and on later pages.
-	need := s.rowH + s.tb + s.hh
+	need, with := s.rowH+s.tb, ""
+	if s.headings {
+		need += s.hh
+		with = ", with a group heading"
+	}
 	page, have := "first", s.gridH1
 	if s.gridHn < have {
 		page, have = "later", s.gridHn
@@ -527,8 +538,8 @@ func (s *solver) rows() error {
 	}
 	r = append(r, s.headFootMargins(d))
 	return s.infeasible(s.heightKey(), "page height", need, have,
-		fmt.Sprintf("a row of panels needs %s (label, plot and tick labels, with a group heading); the %s page has %s left under its header, key band and footer",
-			u.len(need), page, u.len(have)), r...)
+		fmt.Sprintf("a row of panels needs %s (label, plot and tick labels%s); the %s page has %s left under its header, key band and footer",
+			u.len(need), with, page, u.len(have)), r...)
 }
 
 func (s *solver) heightKey() string {
