@@ -97,6 +97,7 @@ type solver struct {
 	every                bool
 	floorW, floorH       float64
 	markOff, markLen     float64
+	headings             bool // some group has a heading
 	warnings             []Warning
 }
 
