@@ -8,6 +8,7 @@ import (
 	"math"
 	"sort"
 	"strconv"
+	"sync"
 
 	"github.com/tdewolff/canvas"
 )
@@ -127,15 +128,38 @@ func contains(outer, inner canvas.Rect) bool {
 	return inner.X0 >= outer.X0 && inner.Y0 >= outer.Y0 && inner.X1 <= outer.X1 && inner.Y1 <= outer.Y1
 }
 
-// EncodePage draws one page and encodes it, compressed at zlib's default
-// level. It is pure: the result depends only on the arguments. The draw
+// EncodePage draws one page and encodes it, compressed at
+// DefaultCompression. It is pure: the result depends only on the arguments. The draw
 // function gets a canvas in millimetres (as all canvas renderers use) the
 // size of the MediaBox; MMPerPt converts layout points.
 func EncodePage(setup PageSetup, draw func(c *canvas.Canvas) error) (*EncodedPage, error) {
-	return encodePage(setup, draw, 0, nil)
+	return encodePage(setup, draw, 0, nil, nil)
 }
 
-func encodePage(setup PageSetup, draw func(c *canvas.Canvas) error, level int, keys *fontKeys) (page *EncodedPage, err error) {
+// pools recycles a writer's content buffers and zlib compressors between
+// pages: both are large (hundreds of KB) and every page needs them.
+type pools struct {
+	level int
+	bufs  sync.Pool // *[]byte
+	zlibs sync.Pool // *zlib.Writer at level
+}
+
+func (p *pools) buf() []byte {
+	if p != nil {
+		if b, ok := p.bufs.Get().(*[]byte); ok {
+			return (*b)[:0]
+		}
+	}
+	return make([]byte, 0, 64<<10)
+}
+
+func (p *pools) putBuf(b []byte) {
+	if p != nil && cap(b) > 0 {
+		p.bufs.Put(&b)
+	}
+}
+
+func encodePage(setup PageSetup, draw func(c *canvas.Canvas) error, level int, keys *fontKeys, pl *pools) (page *EncodedPage, err error) {
 	if err := setup.Boxes.validate(); err != nil {
 		return nil, err
 	}
@@ -158,6 +182,8 @@ func encodePage(setup PageSetup, draw func(c *canvas.Canvas) error, level int, k
 		}
 	}
 	e := newEncoder(setup.Boxes.Media, keys)
+	e.buf = pl.buf()
+	defer func() { pl.putBuf(e.buf) }()
 	c.RenderTo(e)
 	if e.err != nil {
 		return nil, e.err
@@ -167,7 +193,7 @@ func encodePage(setup PageSetup, draw func(c *canvas.Canvas) error, level int, k
 			return nil, err
 		}
 	}
-	return e.finish(setup.Boxes, level)
+	return e.finish(setup.Boxes, level, pl)
 }
 
 // encoder is a canvas.Renderer that writes a PDF content stream.
@@ -216,7 +242,6 @@ func newEncoder(media canvas.Rect, keys *fontKeys) *encoder {
 		keys = newFontKeys()
 	}
 	return &encoder{
-		buf:          make([]byte, 0, 64<<10),
 		w:            media.W() * MMPerPt,
 		h:            media.H() * MMPerPt,
 		st:           initialState(),
@@ -786,7 +811,7 @@ func (e *encoder) setStrokeParams(s canvas.Style, width float64, inCM bool) {
 }
 
 // finish compresses the content and collects the resources.
-func (e *encoder) finish(boxes PageBoxes, level int) (*EncodedPage, error) {
+func (e *encoder) finish(boxes PageBoxes, level int, pl *pools) (*EncodedPage, error) {
 	p := &EncodedPage{
 		Boxes:       boxes,
 		Patterns:    e.patterns,
@@ -797,21 +822,32 @@ func (e *encoder) finish(boxes PageBoxes, level int) (*EncodedPage, error) {
 		p.Fonts = append(p.Fonts, f.pageFont())
 	}
 	if level == Uncompressed {
-		p.Content = e.buf
+		p.Content = append([]byte(nil), e.buf...)
 		return p, nil
 	}
 	if level == 0 {
-		level = zlib.DefaultCompression
+		level = DefaultCompression
 	}
 	var out bytes.Buffer
-	out.Grow(len(e.buf) / 3)
-	zw, err := zlib.NewWriterLevel(&out, level)
-	if err != nil {
-		return nil, fmt.Errorf("compression level %d: %w", level, err)
+	out.Grow(len(e.buf)/2 + 64)
+	var zw *zlib.Writer
+	if pl != nil {
+		zw, _ = pl.zlibs.Get().(*zlib.Writer)
+	}
+	if zw != nil {
+		zw.Reset(&out)
+	} else {
+		var err error
+		if zw, err = zlib.NewWriterLevel(&out, level); err != nil {
+			return nil, fmt.Errorf("compression level %d: %w", level, err)
+		}
 	}
 	zw.Write(e.buf)
 	if err := zw.Close(); err != nil {
 		return nil, err
+	}
+	if pl != nil {
+		pl.zlibs.Put(zw)
 	}
 	p.Content = out.Bytes()
 	p.Compressed = true
