@@ -74,11 +74,16 @@ func (s *solver) fill(rows []int, heads []bool, limit func(int) int) ([]pageFill
 				p.add(block{g, row0, r, heads[g], cont})
 				break
 			}
+			// Whether a group fits is a matter of room, not of the
+			// balancing limit: the group rule comes first.
 			if p.rows > 0 {
-				if k == 0 || s.room(&pageFill{}, i+1, heads[g], limit(i+1)) >= r {
+				if k == 0 || s.room(&pageFill{}, i+1, heads[g], noLimit) >= r {
 					pages = append(pages, pageFill{})
 					continue
 				}
+			} else if s.room(p, i, heads[g], noLimit) >= r {
+				p.add(block{g, row0, r, heads[g], cont})
+				break
 			} else if k == 0 {
 				return nil, errNoRoom
 			}

@@ -70,8 +70,11 @@ func (s *solver) place(groups []Group, fills []pageFill, balanced bool) *Plan {
 		plan.RowsFirstPage, plan.RowsPerPage = fills[0].rows, fills[0].rows
 	}
 
+	// One backing array for all panels: pages take consecutive slices.
+	all := make([]Panel, 0, start[len(groups)])
 	for i, f := range fills {
-		s.placePage(&plan.Pages[i], i, f, extra[i], groups, start)
+		s.placePage(&plan.Pages[i], i, f, extra[i], groups, start, all[len(all):len(all):cap(all)])
+		all = all[:len(all)+len(plan.Pages[i].Panels)]
 	}
 	return plan
 }
@@ -79,7 +82,7 @@ func (s *solver) place(groups []Group, fills []pageFill, balanced bool) *Plan {
 // placePage fills in page i. Every coordinate is computed from indices
 // (page, row slot, column, counts of headings and blocks above) rather than
 // by adding heights in a loop, so nothing drifts.
-func (s *solver) placePage(pg *Page, i int, f pageFill, extra float64, groups []Group, start []int) {
+func (s *solver) placePage(pg *Page, i int, f pageFill, extra float64, groups []Group, start []int, panels []Panel) {
 	o := s.out
 	pg.Number = i + 1
 	pg.Right = (i%2 == 0) != o.FirstPageLeft
@@ -144,11 +147,14 @@ func (s *solver) placePage(pg *Page, i int, f pageFill, extra float64, groups []
 		pg.Slug = Rect{pg.Trim.X0 + slugGap, pg.Bleed.Y0 - slugGap - s.folio*s.lead, pg.Trim.X1 - slugGap, pg.Bleed.Y0 - slugGap}
 	}
 
-	pg.Panels = make([]Panel, 0, f.rows*s.n)
+	pg.Panels = panels
 	pitch := s.rowH + s.rowGap + extra
 	// Below a panel whose column is empty in the next row, the tick labels
 	// go into that empty cell; that needs the tick area to fit there.
 	ticksBelowFit := s.ta <= s.rowGap+extra+s.rowH+eps
+	// Baselines sit a fixed distance below their line box's top.
+	labelBase := s.fs.Baseline(fonts.Regular, s.label, s.lead, 0)
+	headBase := s.fs.Baseline(fonts.Bold, s.heading, s.lead, 0)
 	k, heads, ended := 0, 0, 0
 	for _, b := range f.blocks {
 		if b.heading {
@@ -165,12 +171,11 @@ func (s *solver) placePage(pg *Page, i int, f pageFill, extra float64, groups []
 			pg.Headings = append(pg.Headings, Heading{
 				Group: b.group, Text: text, Continued: b.continued,
 				Box:      Rect{x0, top, x1, top + s.hh},
-				Baseline: s.fs.Baseline(fonts.Bold, s.heading, s.lead, top+s.hh),
+				Baseline: top + s.hh + headBase,
 			})
 		}
 		for r := 0; r < b.rows; r++ {
 			top := gridTop - (float64(k)*pitch + float64(heads)*s.hh + float64(ended)*s.tb)
-			labelBase := s.fs.Baseline(fonts.Regular, s.label, s.lead, top)
 			item0 := gStart + (b.row0+r)*s.n
 			for c := 0; c < s.n && item0+c < bEnd; c++ {
 				item := item0 + c
@@ -178,7 +183,7 @@ func (s *solver) placePage(pg *Page, i int, f pageFill, extra float64, groups []
 				p := Panel{
 					Item: item, Group: b.group, Row: k, Col: c,
 					Label:         Rect{px0, top - s.la, px0 + s.colW, top},
-					LabelBaseline: labelBase,
+					LabelBaseline: top + labelBase,
 					Plot:          Rect{px0, top - s.la - s.plotH, px0 + s.colW, top - s.la},
 				}
 				lastInCol := item+s.n >= bEnd
@@ -192,6 +197,9 @@ func (s *solver) placePage(pg *Page, i int, f pageFill, extra float64, groups []
 		}
 		ended++
 	}
+	// Full slice expression: an append to one page's panels must not
+	// write over the next page's in the shared array.
+	pg.Panels = pg.Panels[:len(pg.Panels):len(pg.Panels)]
 }
 
 // colX is the left edge of column c, from its index so that every gutter
@@ -204,6 +212,7 @@ func (s *solver) colX(live Rect, c int) float64 {
 // of the last. alignRight sets them flush right in the live area.
 func (s *solver) lines(pg *Page, role TextRole, st fonts.Style, size float64, text []string, top float64, alignRight bool) float64 {
 	lh := size * s.lead
+	base := s.fs.Baseline(st, size, s.lead, 0)
 	for j, l := range text {
 		t := top - float64(j)*lh
 		w := s.fs.Width(st, size, l)
@@ -213,7 +222,7 @@ func (s *solver) lines(pg *Page, role TextRole, st fonts.Style, size float64, te
 		}
 		pg.Text = append(pg.Text, TextLine{
 			Role: role, Text: l, Style: st, Size: size, X: x,
-			Baseline: s.fs.Baseline(st, size, s.lead, t), Width: w,
+			Baseline: t + base, Width: w,
 			Box: Rect{pg.Live.X0, t - lh, pg.Live.X1, t},
 		})
 	}

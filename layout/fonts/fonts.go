@@ -62,8 +62,9 @@ type Set struct {
 	// for concurrent use, so measuring goes through one lock per Set.
 	// Shaping costs about 10 µs a string; layout measures the same folios,
 	// headings and lines again for every output and page, hence the cache.
-	mu     sync.Mutex
-	widths map[widthKey]float64
+	mu      sync.Mutex
+	widths  map[widthKey]float64
+	metrics map[widthKey]Metrics // text is always ""
 }
 
 type widthKey struct {
@@ -183,6 +184,23 @@ type Metrics struct {
 
 // Metrics returns the vertical metrics of st at size points.
 func (s *Set) Metrics(st Style, size float64) Metrics {
+	k := widthKey{st: s.valid(st), size: size}
+	s.mu.Lock()
+	defer s.mu.Unlock()
+	if m, ok := s.metrics[k]; ok {
+		return m
+	}
+	m := s.metricsOf(st, size)
+	if s.metrics == nil {
+		s.metrics = make(map[widthKey]Metrics)
+	}
+	if len(s.metrics) < maxCached {
+		s.metrics[k] = m
+	}
+	return m
+}
+
+func (s *Set) metricsOf(st Style, size float64) Metrics {
 	m := s.Face(st, size).Metrics()
 	return Metrics{
 		Ascent:    m.Ascent / mmPerPt,

@@ -1,0 +1,362 @@
+package layout
+
+import (
+	"errors"
+	"fmt"
+	"math"
+	"math/rand/v2"
+	"testing"
+
+	"sheaf/specs"
+)
+
+// randomOutput draws an output from the ranges a graphics editor would try.
+func randomOutput(r *rand.Rand) specs.Output {
+	uni := func(lo, hi float64) float64 { return lo + r.Float64()*(hi-lo) }
+	var o specs.Output
+	if r.IntN(3) < 2 {
+		o = a4Print()
+		sizes := [][2]float64{{210, 297}, {297, 420}, {148, 210}, {215.9, 279.4}, {279.4, 431.8}}
+		sz := sizes[r.IntN(len(sizes))]
+		o.Trim = specs.Size{W: mmL(sz[0]), H: mmL(sz[1])}
+		o.Bleed = mmL([]float64{0, 3, 3.175, 5}[r.IntN(4)])
+		o.Slug = mmL(uni(10, 15))
+		o.Margins = specs.Margins{Top: mmL(uni(8, 25)), Bottom: mmL(uni(8, 25)), Inside: mmL(uni(8, 30)), Outside: mmL(uni(8, 30))}
+		o.Gutter, o.RowGap = mmL(uni(0, 6)), mmL(uni(0, 6))
+	} else {
+		o = webScroll()
+		if r.IntN(2) == 0 {
+			o.Flow = specs.FlowPages
+			o.Trim.H = pxL(uni(700, 1400))
+		}
+		o.Trim.W = pxL(uni(360, 1600))
+		o.Gutter, o.RowGap = pxL(uni(0, 24)), pxL(uni(0, 24))
+		o.MinPanelWidth = pxL(uni(80, 300))
+	}
+	o.Facing = r.IntN(2) == 0
+	o.FirstPageLeft = r.IntN(4) == 0
+	o.Balance = r.IntN(2) == 0
+	o.Columns = 0
+	if o.Kind == specs.Print || r.IntN(2) == 0 {
+		o.Columns = 1 + r.IntN(9)
+	}
+	if r.IntN(4) == 0 {
+		o.PanelAspect, o.PanelHeight = 0, o.Type.Label*specs.Length(uni(5, 14))
+	} else {
+		o.PanelAspect = uni(0.6, 3)
+	}
+	o.Slack = []specs.Slack{specs.SlackSpread, specs.SlackGrow}[r.IntN(2)]
+	o.Ticks = []specs.TickPlacement{specs.TicksBottomRow, specs.TicksEveryPanel}[r.IntN(2)]
+	return o
+}
+
+func randomGroups(r *rand.Rand) []Group {
+	if r.IntN(3) == 0 {
+		return []Group{{Count: r.IntN(400)}}
+	}
+	g := make([]Group, 1+r.IntN(8))
+	for i := range g {
+		g[i] = Group{Heading: fmt.Sprintf("%d0s", 180+i), Count: r.IntN(120)}
+		if r.IntN(8) == 0 {
+			g[i].Heading = ""
+		}
+	}
+	return g
+}
+
+func TestPropertiesRandomSpecs(t *testing.T) {
+	r := rand.New(rand.NewPCG(20240611, 7))
+	fs := fontSet(t)
+	spec := testSpec()
+	feasible, noRemedy := 0, 0
+	for trial := range 600 {
+		out := randomOutput(r)
+		groups := randomGroups(r)
+		p, err := Solve(spec, &out, fs, groups)
+		var inf *InfeasibleError
+		if errors.As(err, &inf) {
+			for _, rem := range inf.Remedies {
+				fixed := out
+				if err := rem.Apply(&fixed); err != nil {
+					t.Fatal(err)
+				}
+				if _, err := Solve(spec, &fixed, fs, groups); err != nil {
+					t.Fatalf("trial %d: %v: remedy %q fails: %v", trial, inf, rem.Text, err)
+				}
+			}
+			if len(inf.Remedies) == 0 {
+				noRemedy++
+			}
+			continue
+		}
+		if err != nil {
+			t.Fatalf("trial %d: %v", trial, err)
+		}
+		feasible++
+		if msg := checkPlan(p, &out, groups); msg != "" {
+			t.Fatalf("trial %d (%s, %d columns, groups %v): %s", trial, out.Kind, p.Columns, groups, msg)
+		}
+	}
+	t.Logf("%d of 600 feasible; %d infeasible without a remedy", feasible, noRemedy)
+	if feasible < 300 {
+		t.Errorf("only %d of 600 random outputs were feasible: the generator tests too little", feasible)
+	}
+}
+
+// checkPlan tests the invariants every plan must keep. It recomputes what
+// it can from the output rather than reading the solver's state.
+func checkPlan(p *Plan, out *specs.Output, groups []Group) string {
+	const tol = 0.01 // gutters equal to the spec within 0.01 pt (the brief)
+	lead := out.Type.Leading
+	hh := out.Type.Heading.Pt() * lead
+
+	// Items: each exactly once, in order; their groups as given.
+	next := 0
+	groupOf := []int{}
+	for g, gr := range groups {
+		for range gr.Count {
+			groupOf = append(groupOf, g)
+		}
+	}
+	w, lh, ph := p.PanelW, p.LabelH, p.PlotH
+	pagesOf := make([]map[int]bool, len(groups))
+	for i := range pagesOf {
+		pagesOf[i] = map[int]bool{}
+	}
+	for pi, pg := range p.Pages {
+		if !pg.Media.Contains(pg.Bleed) || !pg.Bleed.Contains(pg.Trim) || !pg.Trim.Contains(pg.Live) {
+			return fmt.Sprintf("page %d boxes do not nest", pg.Number)
+		}
+		if pg.Right != ((pi%2 == 0) != out.FirstPageLeft) {
+			return fmt.Sprintf("page %d: right %v", pg.Number, pg.Right)
+		}
+		bands := []Rect{pg.Header, pg.Key, pg.Grid, pg.Footer}
+		for i, a := range bands {
+			if !a.IsZero() && !pg.Live.Contains(a) {
+				return fmt.Sprintf("page %d band %d %v outside live %v", pg.Number, i, a, pg.Live)
+			}
+			for _, b := range bands[i+1:] {
+				if a.Overlaps(b) {
+					return fmt.Sprintf("page %d: bands %v and %v overlap", pg.Number, a, b)
+				}
+			}
+		}
+		// Facing pages mirror: the live area of every page is the
+		// reflection of the first right-hand page's, when they differ.
+		ref := p.Pages[0]
+		if out.Facing && pg.Right != ref.Right {
+			if math.Abs((pg.Live.X0-pg.Trim.X0)-(ref.Trim.X1-ref.Live.X1)) > 1e-9 {
+				return fmt.Sprintf("page %d live %v does not mirror page 1 live %v", pg.Number, pg.Live, ref.Live)
+			}
+		}
+		var boxes []Rect
+		for _, h := range pg.Headings {
+			if !pg.Grid.Contains(h.Box) {
+				return fmt.Sprintf("page %d heading %q outside grid", pg.Number, h.Text)
+			}
+			boxes = append(boxes, h.Box)
+		}
+		rowGroup := map[int]int{}
+		rowsOnPage := map[int]bool{}
+		for i, pn := range pg.Panels {
+			if pn.Item != next {
+				return fmt.Sprintf("page %d: item %d where %d was due", pg.Number, pn.Item, next)
+			}
+			next++
+			if pn.Item >= len(groupOf) || pn.Group != groupOf[pn.Item] {
+				return fmt.Sprintf("item %d in group %d", pn.Item, pn.Group)
+			}
+			pagesOf[pn.Group][pi] = true
+			if math.Abs(pn.Plot.W()-w) > 1e-9 || math.Abs(pn.Label.H()-lh) > 1e-9 || math.Abs(pn.Plot.H()-ph) > 1e-9 {
+				return fmt.Sprintf("item %d: panel %v / %v not the plan's size", pn.Item, pn.Label, pn.Plot)
+			}
+			if pn.Label.Y0 != pn.Plot.Y1 || pn.Label.X0 != pn.Plot.X0 {
+				return fmt.Sprintf("item %d: label not on its plot", pn.Item)
+			}
+			box := pn.Box()
+			if pn.ShowTicks {
+				if pn.Ticks.Y1 != pn.Plot.Y0 {
+					return fmt.Sprintf("item %d: ticks not under the plot", pn.Item)
+				}
+				box.Y0 = pn.Ticks.Y0
+			}
+			if !pg.Grid.Contains(box) || !pg.Live.Contains(box) {
+				return fmt.Sprintf("page %d item %d: %v outside grid %v", pg.Number, pn.Item, box, pg.Grid)
+			}
+			boxes = append(boxes, box)
+			// A group starts a new row: rows hold one group.
+			if g, ok := rowGroup[pn.Row]; ok && g != pn.Group {
+				return fmt.Sprintf("page %d row %d holds groups %d and %d", pg.Number, pn.Row, g, pn.Group)
+			}
+			rowGroup[pn.Row] = pn.Group
+			rowsOnPage[pn.Row] = true
+			// Gutters: equal to the spec within tol.
+			if i > 0 && pg.Panels[i-1].Row == pn.Row {
+				if gut := pn.Plot.X0 - pg.Panels[i-1].Plot.X1; math.Abs(gut-out.Gutter.Pt()) > tol {
+					return fmt.Sprintf("gutter %.6f pt, spec %.6f", gut, out.Gutter.Pt())
+				}
+			}
+			// Column positions from the live area and the index.
+			if x := pg.Live.X0 + float64(pn.Col)*(w+out.Gutter.Pt()); math.Abs(x-pn.Plot.X0) > 1e-9 {
+				return fmt.Sprintf("item %d col %d at %.6f, want %.6f", pn.Item, pn.Col, pn.Plot.X0, x)
+			}
+			if out.Ticks == specs.TicksEveryPanel && !pn.ShowTicks {
+				return fmt.Sprintf("item %d: no ticks with every-panel", pn.Item)
+			}
+		}
+		for i, a := range boxes {
+			for _, b := range boxes[i+1:] {
+				if a.Overlaps(b) {
+					return fmt.Sprintf("page %d: %v and %v overlap", pg.Number, a, b)
+				}
+			}
+		}
+		// Each column's lowest panel in a block shows ticks (bottom-row).
+		if out.Ticks != specs.TicksEveryPanel {
+			for i, pn := range pg.Panels {
+				below := false
+				for _, q := range pg.Panels[i+1:] {
+					if q.Group == pn.Group && q.Col == pn.Col {
+						below = true
+						break
+					}
+				}
+				if !below && !pn.ShowTicks {
+					return fmt.Sprintf("page %d item %d: bottom of its column without ticks", pg.Number, pn.Item)
+				}
+			}
+		}
+		// Headings: a group with a heading has one above its first row on
+		// every page it appears on, "(continued)" after its first page.
+		for g := range groups {
+			if groups[g].Heading == "" || !pagesOf[g][pi] {
+				continue
+			}
+			var first *Panel
+			for i := range pg.Panels {
+				if pg.Panels[i].Group == g {
+					first = &pg.Panels[i]
+					break
+				}
+			}
+			found := false
+			for _, h := range pg.Headings {
+				if h.Group == g {
+					found = true
+					cont := pi > 0 && pagesOf[g][pi-1]
+					if h.Continued != cont || h.Box.Y0 < first.Label.Y1-1e-9 || first.Col != 0 {
+						return fmt.Sprintf("page %d: heading %+v for first panel %+v", pg.Number, h, *first)
+					}
+				}
+			}
+			if !found {
+				return fmt.Sprintf("page %d: group %d without heading", pg.Number, g)
+			}
+		}
+		// Slack is not left at the bottom of a page that ends early
+		// because the next block did not fit (not the last page).
+		if pi < len(p.Pages)-1 && len(rowsOnPage) >= 2 && !p.isScroll() {
+			low := math.Inf(1)
+			for _, pn := range pg.Panels {
+				y := pn.Plot.Y0
+				if pn.ShowTicks {
+					y = pn.Ticks.Y0
+				}
+				low = min(low, y)
+			}
+			if out.Ticks != specs.TicksEveryPanel {
+				low = min(low, lowestRowBottom(pg)-p.TicksH)
+			}
+			if low-pg.Grid.Y0 > 1e-6 {
+				return fmt.Sprintf("page %d: %.4f pt of slack left at the bottom", pg.Number, low-pg.Grid.Y0)
+			}
+		}
+	}
+	if next != len(groupOf) {
+		return fmt.Sprintf("%d of %d items placed", next, len(groupOf))
+	}
+	// A group spans pages only when it is larger than a page, or starts at
+	// the top of the (shorter) first page, which would otherwise be empty.
+	for g, gr := range groups {
+		if len(pagesOf[g]) < 2 || p.Pages[0].Panels[0].Group == g {
+			continue
+		}
+		rows := (gr.Count + p.Columns - 1) / p.Columns
+		h := 0.0
+		if gr.Heading != "" {
+			h = hh
+		}
+		rowH := p.LabelH + p.PlotH
+		tb := p.TicksH
+		if out.Ticks == specs.TicksEveryPanel {
+			rowH, tb = rowH+p.TicksH, 0
+		}
+		need := float64(rows)*rowH + float64(rows-1)*p.RowGap + h + tb
+		if need <= p.Pages[len(p.Pages)-1].Grid.H()+1e-6 && len(p.Pages) > 1 {
+			return fmt.Sprintf("group %d (%d rows, %.1f pt) split although a page holds %.1f pt", g, rows, need, p.Pages[len(p.Pages)-1].Grid.H())
+		}
+	}
+	// Balanced, ungrouped: later pages differ by at most one row, and the
+	// last is no lonelier than the rest.
+	if out.Balance && len(groups) == 1 && len(p.Pages) > 1 && !p.isScroll() {
+		lo, hi := math.MaxInt, 0
+		for _, pg := range p.Pages[1:] {
+			n := pg.Panels[len(pg.Panels)-1].Row + 1
+			lo, hi = min(lo, n), max(hi, n)
+		}
+		first := p.Pages[0].Panels[len(p.Pages[0].Panels)-1].Row + 1
+		if hi-lo > 1 || (first < lo-1 || first > hi+1) && first != p.RowsFirstPage {
+			return fmt.Sprintf("balanced pages: first %d rows, later %d–%d", first, lo, hi)
+		}
+	}
+	return ""
+}
+
+func (p *Plan) isScroll() bool { return p.Flow == specs.FlowScroll }
+
+// lowestRowBottom is the bottom of the lowest plot on the page.
+func lowestRowBottom(pg Page) float64 {
+	low := math.Inf(1)
+	for _, pn := range pg.Panels {
+		low = min(low, pn.Plot.Y0)
+	}
+	return low
+}
+
+// BenchmarkSolve10k solves 10,000 panels for three outputs: A4 print,
+// Letter print and a 1200 px scrolling screen.
+func BenchmarkSolve10k(b *testing.B) {
+	fs := fontSet(b)
+	spec := testSpec()
+	outs := []specs.Output{a4Print(), letterPrint(), webScroll()}
+	groups := []Group{{Count: 10000}}
+	for b.Loop() {
+		for i := range outs {
+			if _, err := Solve(spec, &outs[i], fs, groups); err != nil {
+				b.Fatal(err)
+			}
+		}
+	}
+}
+
+// BenchmarkSolve10kGrouped is the same with 50 headed groups of 200, and
+// balanced pages.
+func BenchmarkSolve10kGrouped(b *testing.B) {
+	fs := fontSet(b)
+	spec := testSpec()
+	outs := []specs.Output{a4Print(), letterPrint(), webScroll()}
+	for i := range outs {
+		outs[i].Balance = true
+	}
+	groups := make([]Group, 50)
+	for i := range groups {
+		groups[i] = Group{Heading: fmt.Sprintf("Group %d", i+1), Count: 200}
+	}
+	for b.Loop() {
+		for i := range outs {
+			if _, err := Solve(spec, &outs[i], fs, groups); err != nil {
+				b.Fatal(err)
+			}
+		}
+	}
+}
