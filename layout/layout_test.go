@@ -532,3 +532,12 @@ func TestInfeasible(t *testing.T) {
 		}
 	}
 }
+
+func TestNoPanels(t *testing.T) {
+	for _, groups := range [][]Group{nil, {{"empty", 0}}} {
+		p := solveT(t, testSpec(), a4Print(), groups)
+		if len(p.Pages) != 1 || len(p.Pages[0].Panels) != 0 || len(p.Pages[0].Headings) != 0 {
+			t.Errorf("groups %v: %d pages", groups, len(p.Pages))
+		}
+	}
+}
