@@ -375,8 +375,9 @@ func (r *Report) checkGamut(s Scale) {
 func fmtRGB(c RGB) string { return fmt.Sprintf("rgb %.3f %.3f %.3f", c.R, c.G, c.B) }
 
 // checkCVD passes a deficiency when every simulated adjacent step stays at
-// least MinCVDStep apart, or else when the simulated lightness keeps the
-// order (a reader can still rank the years by darkness).
+// least MinCVDStep apart, or else when simulated L* runs strictly in the
+// palette's direction at every step (a reader can still rank the years by
+// darkness).
 func (r *Report) checkCVD() {
 	dir := r.direction()
 	if dir == 0 {
@@ -386,14 +387,14 @@ func (r *Report) checkCVD() {
 		}
 	}
 	for _, d := range Deficiencies() {
-		worst, reversed := -1, -1
+		worst, broken := -1, -1
 		for i := 1; i < len(r.Rows); i++ {
 			if r.Rows[i].SimStep[d] < r.Thresholds.MinCVDStep && (worst < 0 || r.Rows[i].SimStep[d] < r.Rows[worst].SimStep[d]) {
 				worst = i
 			}
 			pl, ql := r.Rows[i-1].Simulated[d].Lab().L, r.Rows[i].Simulated[d].Lab().L
-			if reversed < 0 && float64(dir)*(ql-pl) < -lightnessSlack {
-				reversed = i
+			if broken < 0 && float64(dir)*(ql-pl) <= lightnessSlack {
+				broken = i
 			}
 		}
 		if worst < 0 {
@@ -401,15 +402,15 @@ func (r *Report) checkCVD() {
 		}
 		p, q := r.Rows[worst-1], &r.Rows[worst]
 		check := CheckCVD + "/" + d.String()
-		if reversed < 0 {
+		if broken < 0 {
 			r.add(check, q, Info, "%s and %s look alike under simulated %s (ΔE00 %.2f < %.2f) but lightness keeps the order",
 				p.Label, q.Label, d, q.SimStep[d], r.Thresholds.MinCVDStep)
 			continue
 		}
-		rp, rq := r.Rows[reversed-1], r.Rows[reversed]
-		r.add(check, q, Fail, "order unreadable under simulated %s: %s and %s differ by ΔE00 %.2f < %.2f, and simulated L* turns back from %s to %s (%.1f → %.1f)",
-			d, p.Label, q.Label, q.SimStep[d], r.Thresholds.MinCVDStep,
-			rp.Label, rq.Label, rp.Simulated[d].Lab().L, rq.Simulated[d].Lab().L)
+		bp, bq := r.Rows[broken-1], r.Rows[broken]
+		r.add(check, q, Fail, "order unreadable under simulated %s: %s and %s differ by ΔE00 %.2f < %.2f, and simulated L* stops running %s from %s to %s (%.1f → %.1f)",
+			d, p.Label, q.Label, q.SimStep[d], r.Thresholds.MinCVDStep, dirWord(dir),
+			bp.Label, bq.Label, bp.Simulated[d].Lab().L, bq.Simulated[d].Lab().L)
 	}
 }
 

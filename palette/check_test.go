@@ -102,7 +102,7 @@ func TestBadPalettesFail(t *testing.T) {
 			eras:    []float64{1890, 1910, 1930, 1950, 1970, 1990},
 			th:    func(th *Thresholds) { th.Lightness = LightnessAny },
 			check: CheckCVD + "/deuteranopia", severity: Fail, label: "",
-			want: []string{"order unreadable under simulated deuteranopia", "< 2.00", "simulated L* turns back"},
+			want: []string{"order unreadable under simulated deuteranopia", "< 2.00", "simulated L* stops running"},
 		},
 	} {
 		t.Run(tc.name, func(t *testing.T) {
