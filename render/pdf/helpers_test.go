@@ -116,6 +116,31 @@ func testDrawingWith(regular, bold *canvas.Font, gradPt func(c *canvas.Canvas, p
 		ctx.SetStrokeJoiner(canvas.RoundJoin)
 		ctx.DrawPath(20, 110, curve)
 
+		// arcs (ellipse), a quadratic Bézier, a miter-clip join (drawn
+		// as an outline) and a stroke under a non-uniform view (cm)
+		ctx.SetStrokeColor(canvas.Hex("#553c9a"))
+		ctx.SetStrokeWidth(1.2)
+		ctx.SetDashes(0)
+		ctx.SetStrokeJoiner(canvas.RoundJoin)
+		ctx.DrawPath(160, 160, canvas.Ellipse(8, 5))
+		quad := &canvas.Path{}
+		quad.MoveTo(0, 0)
+		quad.QuadTo(10, 25, 20, 0)
+		ctx.DrawPath(145, 120, quad)
+		ctx.SetStrokeJoiner(canvas.MiterClipJoin)
+		ctx.SetStrokeWidth(2)
+		sharp := &canvas.Path{}
+		sharp.MoveTo(0, 0)
+		sharp.LineTo(6, 20)
+		sharp.LineTo(12, 0)
+		ctx.DrawPath(150, 60, sharp)
+		ctx.Push()
+		ctx.SetView(canvas.Identity.Translate(130, 195).Scale(3, 1))
+		ctx.SetStrokeJoiner(canvas.BevelJoin)
+		ctx.SetStrokeWidth(1)
+		ctx.DrawPath(0, 0, canvas.Rectangle(8, 8))
+		ctx.Pop()
+
 		// translucent fill
 		ctx.SetStrokeColor(canvas.Transparent)
 		ctx.SetFillColor(color.RGBA{R: 0x80, G: 0, B: 0, A: 0x80})

@@ -314,9 +314,7 @@ func (e *encoder) RenderPath(path *canvas.Path, style canvas.Style, m canvas.Mat
 	}
 	path = path.ReplaceArcs() // copies only when there are arcs
 
-	native := strokeIsNative(style)
-	similar := m.IsSimilarity()
-	if hasStroke && (!native || !similar && style.IsDashed() && false) {
+	if hasStroke && !strokeIsNative(style) {
 		// PDF cannot express this join (miter-clip, arcs) or cap: draw
 		// the stroke's outline as a fill, as canvas itself would.
 		if hasFill {
@@ -367,14 +365,12 @@ func (e *encoder) paint(path *canvas.Path, m canvas.Matrix, style canvas.Style, 
 	}
 
 	if useCM {
+		// The stroke width stays in the path's own units: PDF applies
+		// the cm to the pen as well (§8.4.3.2).
 		e.save()
 		cm := pdfMatrix(m, ptPerMM)
 		e.buf = appendNums(e.buf, cm[0]*ptPerMM, cm[1]*ptPerMM, cm[2]*ptPerMM, cm[3]*ptPerMM, cm[4], cm[5])
 		e.op1(" cm")
-		if stroke {
-			// width is in the path's own units here; keep the pen in
-			// those units through the cm above.
-		}
 	}
 	okFill, okStroke := true, true
 	if fill {

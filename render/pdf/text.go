@@ -1,7 +1,6 @@
 package pdf
 
 import (
-	"math"
 	"sort"
 
 	"github.com/tdewolff/canvas"
@@ -271,5 +270,3 @@ func runWidth(d *fontData, s string, size float64) float64 {
 	}
 	return w * size / float64(d.unitsPerEm)
 }
-
-var _ = math.Abs
