@@ -65,9 +65,9 @@ func (r Remedy) Apply(out *specs.Output) error {
 			out.Columns = int(s.Value)
 		case "gutter":
 			out.Gutter = l
-		case "panel-height":
+		case "panel.height":
 			out.PanelHeight = l
-		case "panel-aspect":
+		case "panel.aspect":
 			out.PanelAspect = s.Value
 		case "min-panel-width":
 			out.MinPanelWidth = l

@@ -424,9 +424,9 @@ func TestBadInputIsAnError(t *testing.T) {
 		{"unknown kind", mod(func(o *specs.Output) { o.Kind = "poster" }), nil, "kind \"poster\""},
 		{"no label size", mod(func(o *specs.Output) { o.Type.Label = 0 }), nil, "type size label"},
 		{"negative gutter", mod(func(o *specs.Output) { o.Gutter = -1 }), nil, "gutter must be"},
-		{"NaN aspect", mod(func(o *specs.Output) { o.PanelAspect = math.NaN() }), nil, "panel-aspect must be"},
+		{"NaN aspect", mod(func(o *specs.Output) { o.PanelAspect = math.NaN() }), nil, "panel.aspect must be"},
 		{"no columns", mod(func(o *specs.Output) { o.Columns = 0 }), nil, "set columns or min-panel-width"},
-		{"no height", mod(func(o *specs.Output) { o.PanelAspect = 0 }), nil, "set panel-aspect or panel-height"},
+		{"no height", mod(func(o *specs.Output) { o.PanelAspect = 0 }), nil, "set panel.aspect or panel.height"},
 		{"negative count", a4Print2(), []Group{{"x", -3}}, "has -3 panels"},
 	}
 	for _, tc := range cases {
@@ -538,6 +538,36 @@ func TestNoPanels(t *testing.T) {
 		p := solveT(t, testSpec(), a4Print(), groups)
 		if len(p.Pages) != 1 || len(p.Pages[0].Panels) != 0 || len(p.Pages[0].Headings) != 0 {
 			t.Errorf("groups %v: %d pages", groups, len(p.Pages))
+		}
+	}
+}
+
+func TestErrorPositionFromParsedSpec(t *testing.T) {
+	// The spec's own parser supplies positions: the error points at the
+	// line of the key that asked for too much.
+	text := `title: T
+data: {counts: c.csv, totals: t.csv}
+years: {from: 1900, to: 1950}
+outputs:
+  print:
+    kind: print
+    columns: 14
+`
+	spec, err := specs.Parse("dir/feature.yaml", []byte(text))
+	if err != nil {
+		t.Fatal(err)
+	}
+	_, err = Solve(spec, spec.Output("print"), fontSet(t), []Group{{Count: 30}})
+	var inf *InfeasibleError
+	if !errors.As(err, &inf) || inf.Pos.String() != "dir/feature.yaml:7:5" ||
+		!strings.HasPrefix(err.Error(), `dir/feature.yaml:7:5: output "print": 14 columns`) {
+		t.Fatalf("error %v at %v", err, inf)
+	}
+	// The parser's default outputs lay out as they are.
+	for _, k := range []specs.Kind{specs.Print, specs.Screen} {
+		out := specs.DefaultOutput("x", k)
+		if _, err := Solve(spec, &out, fontSet(t), []Group{{Count: 100}}); err != nil {
+			t.Errorf("default %s output: %v", k, err)
 		}
 	}
 }

@@ -170,8 +170,8 @@ func (s *solver) readOutput() error {
 		v   float64
 	}{{"bleed", s.bleed}, {"slug", s.slug}, {"margins", s.top}, {"margins", s.bottom},
 		{"margins", s.inner}, {"margins", s.outer}, {"gutter", o.Gutter.Pt()}, {"row-gap", o.RowGap.Pt()},
-		{"panel-height", o.PanelHeight.Pt()}, {"min-panel-width", o.MinPanelWidth.Pt()},
-		{"panel-aspect", o.PanelAspect}} {
+		{"panel.height", o.PanelHeight.Pt()}, {"min-panel-width", o.MinPanelWidth.Pt()},
+		{"panel.aspect", o.PanelAspect}} {
 		if l.v < 0 || math.IsNaN(l.v) || math.IsInf(l.v, 0) {
 			return s.errorf(l.key, "%s must be a finite length of 0 or more", l.key)
 		}
@@ -444,7 +444,7 @@ func (s *solver) columnsKey() string {
 // floorText says where the plot-height floor comes from.
 func (s *solver) floorText() string {
 	if s.out.FloorHeight > 0 {
-		return "the floor-height of " + s.u.len(s.floorH)
+		return "floor.height " + s.u.len(s.floorH)
 	}
 	return fmt.Sprintf("%d × the %g pt label size", floorHeightLabel, s.label)
 }
@@ -459,10 +459,10 @@ func (s *solver) rows() error {
 		s.plotH = o.PanelHeight.Pt() - s.la
 		if s.plotH < s.floorH-eps {
 			v := u.up(s.la + s.floorH)
-			return s.infeasible("panel-height", "plot height", s.floorH, s.plotH,
+			return s.infeasible("panel.height", "plot height", s.floorH, s.plotH,
 				fmt.Sprintf("panels %s tall leave %s for the plot under a %s label; the legibility floor is %s (%s)",
 					u.len(o.PanelHeight.Pt()), u.len(s.plotH), u.len(s.la), u.len(s.floorH), s.floorText()),
-				Remedy{Text: "a panel height of " + u.len(v), Set: []Setting{{"panel-height", v}}})
+				Remedy{Text: "a panel height of " + u.len(v), Set: []Setting{{"panel.height", v}}})
 		}
 	case o.PanelAspect > 0:
 		a := o.PanelAspect
@@ -470,7 +470,7 @@ func (s *solver) rows() error {
 		if s.plotH < s.floorH-eps {
 			var r []Remedy
 			if v := math.Floor(s.colW/s.floorH*100) / 100; v > 0 {
-				r = append(r, Remedy{Text: "a panel aspect of " + trimNum(v, 2), Set: []Setting{{"panel-aspect", v}}})
+				r = append(r, Remedy{Text: "a panel aspect of " + trimNum(v, 2), Set: []Setting{{"panel.aspect", v}}})
 			}
 			if o.Columns > 0 {
 				if m := int(math.Floor((s.liveW + g) / (s.floorH*a + g))); m >= 1 && m < s.n {
@@ -479,12 +479,12 @@ func (s *solver) rows() error {
 			} else if v := u.up(s.floorH * a); v > o.MinPanelWidth.Pt() {
 				r = append(r, Remedy{Text: "a minimum panel width of " + u.len(v), Set: []Setting{{"min-panel-width", v}}})
 			}
-			return s.infeasible("panel-aspect", "plot height", s.floorH, s.plotH,
+			return s.infeasible("panel.aspect", "plot height", s.floorH, s.plotH,
 				fmt.Sprintf("panels %s wide at aspect %g have plots %s tall; the legibility floor is %s (%s)",
 					u.len(s.colW), a, u.len(s.plotH), u.len(s.floorH), s.floorText()), r...)
 		}
 	default:
-		return s.errorf("panel-aspect", "set panel-aspect or panel-height")
+		return s.errorf("panel", "set panel.aspect or panel.height")
 	}
 	s.setRowH()
 	if s.scroll {
@@ -516,13 +516,13 @@ func (s *solver) rows() error {
 	switch {
 	case o.PanelHeight > 0:
 		if v := u.down(o.PanelHeight.Pt() - d); v-s.la >= s.floorH-eps {
-			r = append(r, Remedy{Text: "a panel height of " + u.len(v), Set: []Setting{{"panel-height", v}}})
+			r = append(r, Remedy{Text: "a panel height of " + u.len(v), Set: []Setting{{"panel.height", v}}})
 		}
 	default:
 		a := o.PanelAspect
 		if ph := s.plotH - d; ph >= s.floorH-eps && ph > 0 {
 			v := math.Ceil(s.colW/ph*100) / 100
-			r = append(r, Remedy{Text: "a panel aspect of " + trimNum(v, 2), Set: []Setting{{"panel-aspect", v}}})
+			r = append(r, Remedy{Text: "a panel aspect of " + trimNum(v, 2), Set: []Setting{{"panel.aspect", v}}})
 			if o.Columns > 0 {
 				for m := s.n + 1; m <= s.n+64; m++ {
 					w := s.colWidth(m)
@@ -545,9 +545,9 @@ func (s *solver) rows() error {
 
 func (s *solver) heightKey() string {
 	if s.out.PanelHeight > 0 {
-		return "panel-height"
+		return "panel.height"
 	}
-	return "panel-aspect"
+	return "panel.aspect"
 }
 
 // setRowH derives the row heights from the plot height. With ticks on
