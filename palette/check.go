@@ -214,6 +214,10 @@ func Check(s Scale, paper Color, lineWidthPt float64, m Medium, th Thresholds) (
 		return Report{}, fmt.Errorf("palette %q: check: paper colour %s is outside sRGB", s.name, paper.Hex())
 	}
 	from, to := s.Span()
+	if n := (to - from) / th.SampleYears; !s.Discrete() && n > maxSamples {
+		return Report{}, fmt.Errorf("palette %q: check: %s–%s every %v years is %.0f samples, over %d; raise SampleYears",
+			s.name, yearLabel(from), yearLabel(to), th.SampleYears, n, maxSamples)
+	}
 	r := Report{
 		Scale: s.name, From: from, To: to, Discrete: s.Discrete(), Paper: paper, Medium: m,
 		LineWidthPt: lineWidthPt, AngleDeg: VisualAngle(lineWidthPt, m), Thresholds: th,
@@ -248,6 +252,9 @@ func Check(s Scale, paper Color, lineWidthPt float64, m Medium, th Thresholds) (
 	r.checkSize()
 	return r, nil
 }
+
+// maxSamples bounds the rows of a continuous check.
+const maxSamples = 10000
 
 // rows samples the scale: one row per era, or evenly spaced years about
 // step apart from the first year to the last.

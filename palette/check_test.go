@@ -97,11 +97,11 @@ func TestBadPalettesFail(t *testing.T) {
 			want: []string{"outside sRGB", "clipped", "ΔE00"},
 		},
 		{
-			name: "red and green at one lightness",
+			name:    "red and green at one lightness",
 			anchors: deuteranConfusion(t, []float64{0.16, 0.20, 0.195, 0.21, 0.24}),
 			eras:    []float64{1890, 1910, 1930, 1950, 1970, 1990},
-			th:    func(th *Thresholds) { th.Lightness = LightnessAny },
-			check: CheckCVD + "/deuteranopia", severity: Fail, label: "",
+			th:      func(th *Thresholds) { th.Lightness = LightnessAny },
+			check:   CheckCVD + "/deuteranopia", severity: Fail, label: "",
 			want: []string{"order unreadable under simulated deuteranopia", "< 2.00", "simulated L* stops running"},
 		},
 	} {
@@ -221,6 +221,7 @@ func TestCheckErrors(t *testing.T) {
 		{"negative threshold", s, white, 1, Print, bad, "MinStep = -1"},
 		{"NaN threshold", s, white, 1, Print, nanTh, "MinSpan = NaN"},
 		{"zero thresholds", s, white, 1, Print, Thresholds{}, "SampleYears = 0"},
+		{"too many samples", s, white, 1, Print, func() Thresholds { th := DefaultThresholds(); th.SampleYears = 1e-3; return th }(), "raise SampleYears"},
 		{"paper", s, FromOKLCh(OKLCh{0.9, 0.4, 120}), 1, Print, DefaultThresholds(), "paper colour"},
 	} {
 		if _, err := Check(tc.s, tc.paper, tc.width, tc.m, tc.th); err == nil || !strings.Contains(err.Error(), tc.want) {

@@ -166,7 +166,15 @@ func (s Scale) Stops(from, to, maxErr float64) []Stop {
 				stops = append(stops, Stop{b, s.eras[i].Color.RGB().Clip()}, Stop{b, s.eras[i+1].Color.RGB().Clip()})
 			}
 		}
-		return append(stops, stop(to))
+		// The last stop takes the era the range ends in, even when to is
+		// itself a boundary (At(to) would give the next era).
+		last := s.eras[0]
+		for _, e := range s.eras {
+			if e.From < to {
+				last = e
+			}
+		}
+		return append(stops, Stop{to, last.Color.RGB().Clip()})
 	}
 	knots := []float64{from}
 	for _, a := range s.anchors {

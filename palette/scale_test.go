@@ -194,6 +194,10 @@ func TestStopsDiscrete(t *testing.T) {
 		{1960, eras[1].Color.RGB().Clip()}, {1960, eras[2].Color.RGB().Clip()},
 		{2000, eras[2].Color.RGB().Clip()},
 	}
+	// Ending on a boundary keeps the colour of the era before it.
+	if end := s.Stops(1900, 1960, 0); end[len(end)-1] != (Stop{1960, eras[1].Color.RGB().Clip()}) {
+		t.Errorf("stops ending at a boundary: %v", end)
+	}
 	if len(stops) != len(want) {
 		t.Fatalf("stops %v, want %v", stops, want)
 	}
