@@ -17,6 +17,25 @@
 // and written in the order added, with a bounded window of pages in
 // flight. Encoding a page (EncodePage) is a separate, pure step whose
 // result can be cached and added later with AddEncoded.
+//
+// Units: page boxes and mark options are in points; a draw function works
+// in canvas millimetres like every canvas renderer (MMPerPt converts), and
+// gradient points are page coordinates in millimetres, as in canvas's own
+// PDF and SVG writers.
+//
+// Fonts: glyph codes are the font's own glyph IDs (Identity-H, CIDToGIDMap
+// Identity) and the subset keeps IDs, blanking unused outlines, so a page
+// can be encoded before the document knows all glyphs. An EncodedPage names
+// fonts by FontKey (SHA-256 of the font tables); pages made by EncodePage
+// carry the font, pages restored from a cache need Writer.RegisterFont.
+// The slug font, Go Regular, is always registered.
+//
+// Limits, each reported or handled rather than written wrong: raster
+// images and hatch patterns are errors; CFF-outline fonts, vertical text,
+// rotated glyphs and glyph offsets are drawn as outlines (not searchable);
+// miter-clip and arcs joins are stroked into outlines by canvas; a
+// gradient's opacity is its first stop's (PDF shadings have no alpha
+// without soft masks).
 package pdf
 
 import (

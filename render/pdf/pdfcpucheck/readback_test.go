@@ -1,0 +1,228 @@
+// Package pdfcpucheck reads documents of sheaf/render/pdf back with
+// pdfcpu v0.15.0, a general-purpose PDF library, in strict validation
+// mode. It is a package of its own so that pdfcpu's dependencies are
+// needed only here.
+package pdfcpucheck
+
+import (
+	"bytes"
+	"math"
+	"testing"
+	"time"
+
+	"github.com/pdfcpu/pdfcpu/pkg/api"
+	"github.com/pdfcpu/pdfcpu/pkg/pdfcpu/model"
+	"github.com/pdfcpu/pdfcpu/pkg/pdfcpu/types"
+	"github.com/tdewolff/canvas"
+	"golang.org/x/image/font/gofont/gobold"
+	"golang.org/x/image/font/gofont/goregular"
+
+	"sheaf/render/pdf"
+)
+
+var testDate = time.Date(2024, 5, 17, 9, 30, 0, 0, time.UTC)
+
+// boxes: A5 trim (ISO 216: 419.528 × 595.276 pt), 3 mm bleed, 12 mm of
+// mark area (print-facts.md).
+func boxes() pdf.PageBoxes {
+	const mm = 72 / 25.4
+	bleed, marks := 3*mm, 12*mm
+	tw, th := 419.528, 595.276
+	return pdf.PageBoxes{
+		Media: canvas.Rect{X1: tw + 2*(bleed+marks), Y1: th + 2*(bleed+marks)},
+		Bleed: canvas.Rect{X0: marks, Y0: marks, X1: marks + tw + 2*bleed, Y1: marks + th + 2*bleed},
+		Trim:  canvas.Rect{X0: marks + bleed, Y0: marks + bleed, X1: marks + bleed + tw, Y1: marks + bleed + th},
+	}
+}
+
+func font(t *testing.T, b []byte) *canvas.Font {
+	f, err := canvas.LoadFont(b, 0, canvas.FontRegular)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return f
+}
+
+// drawing is an invented test picture: a gradient-stroked curve, a
+// translucent fill, a dashed line and text in two fonts.
+func drawing(reg, bold *canvas.Font) func(c *canvas.Canvas) error {
+	return func(c *canvas.Canvas) error {
+		ctx := canvas.NewContext(c)
+		g := canvas.NewLinearGradient(canvas.Point{X: 20, Y: 0}, canvas.Point{X: 130, Y: 0})
+		g.Add(0, canvas.Hex("#1a365d"))
+		g.Add(0.5, canvas.Hex("#38a169"))
+		g.Add(1, canvas.Hex("#ecc94b"))
+		p := &canvas.Path{}
+		p.MoveTo(20, 100)
+		p.CubeTo(40, 140, 60, 80, 130, 110)
+		ctx.SetFillColor(canvas.Transparent)
+		ctx.SetStrokeGradient(g)
+		ctx.SetStrokeWidth(1.5)
+		ctx.DrawPath(0, 0, p)
+		ctx.SetStrokeColor(canvas.Hex("#22543d"))
+		ctx.SetDashes(0, 2, 1)
+		ctx.DrawPath(0, -30, p)
+		ctx.SetStrokeColor(canvas.Transparent)
+		ctx.SetFillColor(canvas.RGBA(200, 30, 30, 0.5))
+		ctx.DrawPath(100, 20, canvas.Rectangle(20, 40))
+		ctx.DrawText(20, 180, canvas.NewTextLine(reg.Face(14, canvas.Black), "Sheaf of words", canvas.Left))
+		ctx.DrawText(20, 165, canvas.NewTextLine(bold.Face(10, canvas.Black), "office affine", canvas.Left))
+		return nil
+	}
+}
+
+func document(t *testing.T, pages int) []byte {
+	reg, bold := font(t, goregular.TTF), font(t, gobold.TTF)
+	var buf bytes.Buffer
+	w := pdf.NewWriter(&buf, pdf.Options{Title: "Read back", Version: "0.0.1", Date: testDate})
+	for i := 0; i < pages; i++ {
+		if err := w.AddPage(pdf.PageSetup{Boxes: boxes(), Marks: &pdf.MarkOptions{}, Slug: "read-back test"}, drawing(reg, bold)); err != nil {
+			t.Fatal(err)
+		}
+	}
+	if err := w.Close(); err != nil {
+		t.Fatal(err)
+	}
+	return buf.Bytes()
+}
+
+// readStrict reads and validates a document with pdfcpu v0.15.0 (a
+// general-purpose PDF library) in strict mode.
+func readStrict(t *testing.T, b []byte) *model.Context {
+	t.Helper()
+	conf := model.NewDefaultConfiguration()
+	conf.ValidationMode = model.ValidationStrict
+	ctx, err := api.ReadContext(bytes.NewReader(b), conf)
+	if err != nil {
+		t.Fatalf("pdfcpu read: %v", err)
+	}
+	if err := api.ValidateContext(ctx); err != nil {
+		t.Fatalf("pdfcpu strict validation: %v", err)
+	}
+	return ctx
+}
+
+func dict(t *testing.T, ctx *model.Context, o types.Object) types.Dict {
+	t.Helper()
+	d, err := ctx.DereferenceDict(o)
+	if err != nil || d == nil {
+		t.Fatalf("dereference %v: %v", o, err)
+	}
+	return d
+}
+
+func TestPDFCPUReadBack(t *testing.T) {
+	const pages = 3
+	doc := document(t, pages)
+	ctx := readStrict(t, doc)
+
+	if ctx.PageCount != pages {
+		t.Errorf("page count %d, want %d", ctx.PageCount, pages)
+	}
+	want := boxes()
+	pbs, err := ctx.PageBoundaries(nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	near := func(r *types.Rectangle, w canvas.Rect) bool {
+		return r != nil && math.Abs(r.LL.X-w.X0) < 0.01 && math.Abs(r.LL.Y-w.Y0) < 0.01 &&
+			math.Abs(r.UR.X-w.X1) < 0.01 && math.Abs(r.UR.Y-w.Y1) < 0.01
+	}
+	for i, pb := range pbs {
+		// ISO 32000-1 §14.11.2: boxes as asked, CropBox = MediaBox here.
+		for _, c := range []struct {
+			name string
+			box  *model.Box
+			want canvas.Rect
+		}{{"MediaBox", pb.Media, want.Media}, {"CropBox", pb.Crop, want.Media}, {"BleedBox", pb.Bleed, want.Bleed}, {"TrimBox", pb.Trim, want.Trim}} {
+			if c.box == nil || !near(c.box.Rect, c.want) {
+				t.Errorf("page %d %s = %v, want %v (±0.01 pt)", i+1, c.name, c.box, c.want)
+			}
+		}
+		// PDF/X: TrimBox or ArtBox, not both (print-facts.md, PDF/X-4).
+		d, _, _, err := ctx.PageDict(i+1, false)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if _, ok := d.Find("ArtBox"); ok {
+			t.Errorf("page %d has an ArtBox besides its TrimBox", i+1)
+		}
+		// every font embedded (PDF/X-4, print-facts.md)
+		res := dict(t, ctx, d["Resources"])
+		fonts := dict(t, ctx, res["Font"])
+		if len(fonts) < 2 {
+			t.Errorf("page %d has %d fonts, want the two test fonts", i+1, len(fonts))
+		}
+		for name, f := range fonts {
+			fd := dict(t, ctx, f)
+			if st := fd.NameEntry("Subtype"); st == nil || *st != "Type0" {
+				t.Errorf("font %s subtype %v, want Type0", name, st)
+			}
+			if _, ok := fd.Find("ToUnicode"); !ok {
+				t.Errorf("font %s has no ToUnicode", name)
+			}
+			arr, err := ctx.DereferenceArray(fd["DescendantFonts"])
+			if err != nil || len(arr) != 1 {
+				t.Fatalf("font %s descendants: %v", name, err)
+			}
+			cid := dict(t, ctx, arr[0])
+			if st := cid.NameEntry("Subtype"); st == nil || *st != "CIDFontType2" {
+				t.Errorf("font %s descendant %v, want CIDFontType2", name, st)
+			}
+			desc := dict(t, ctx, cid["FontDescriptor"])
+			if _, ok := desc.Find("FontFile2"); !ok {
+				t.Errorf("font %s is not embedded (no FontFile2)", name)
+			}
+		}
+	}
+
+	root, err := ctx.Catalog()
+	if err != nil {
+		t.Fatal(err)
+	}
+	ois, err := ctx.DereferenceArray(root["OutputIntents"])
+	if err != nil || len(ois) != 1 {
+		t.Fatalf("OutputIntents %v (%v); PDF/X-4 wants exactly one", ois, err)
+	}
+	oi := dict(t, ctx, ois[0])
+	if s := oi.NameEntry("S"); s == nil || *s != "GTS_PDFX" {
+		t.Errorf("output intent S = %v, want GTS_PDFX", s)
+	}
+	if _, ok := oi.Find("DestOutputProfile"); !ok {
+		t.Error("output intent has no DestOutputProfile")
+	}
+	if _, ok := root.Find("Metadata"); !ok {
+		t.Error("catalog has no Metadata (XMP)")
+	}
+	info := dict(t, ctx, *ctx.Info)
+	if tr := info.NameEntry("Trapped"); tr == nil || *tr != "False" {
+		t.Errorf("Info /Trapped = %v, want /False (PDF/X-4 wants True or False)", tr)
+	}
+	for _, k := range []string{"Title", "CreationDate", "ModDate", "Producer"} {
+		if _, ok := info.Find(k); !ok {
+			t.Errorf("Info has no %s", k)
+		}
+	}
+	if len(ctx.ID) != 2 {
+		t.Errorf("trailer /ID = %v, want two strings (required by PDF/X)", ctx.ID)
+	}
+}
+
+// TestCachedPageValidates: a page that went through encoding/gob and
+// AddEncoded still makes a strictly valid document.
+func TestCachedPageValidates(t *testing.T) {
+	bold := font(t, gobold.TTF)
+	page, err := pdf.EncodePage(pdf.PageSetup{Boxes: boxes()}, drawing(font(t, goregular.TTF), bold))
+	if err != nil {
+		t.Fatal(err)
+	}
+	var buf bytes.Buffer
+	w := pdf.NewWriter(&buf, pdf.Options{Date: testDate})
+	if err := w.AddEncoded(page); err != nil {
+		t.Fatal(err)
+	}
+	if err := w.Close(); err != nil {
+		t.Fatal(err)
+	}
+	readStrict(t, buf.Bytes())
+}
