@@ -558,7 +558,7 @@ func (d *decoder) palettePaper(p *Palette) {
 		c.MinContrast = 3
 	}
 	if c.MinCVDStep == 0 {
-		c.MinCVDStep = 3
+		c.MinCVDStep = 2
 	}
 	if c.Lightness == "" {
 		c.Lightness = "monotone"

@@ -39,6 +39,8 @@ type command struct {
 func commands() []command {
 	return []command{
 		{"check", "SPEC [--json]", "validate the spec and data; print a summary, pages and preflight findings", runCheck},
+		{"palette", "SPEC [--out DIR]", "print the era palette's table and checks; write a swatch sheet", runPalette},
+		{"build", "SPEC [--out DIR] [--only OUTPUT]", "render every output: PDF pages, proofs, contact sheet", runBuild},
 
 		{"help", "[COMMAND]", "show help for sheaf or one command", nil},
 	}

@@ -1,8 +1,11 @@
 // Package raster draws pages to images for proofs and web PNGs, with
-// canvas's rasterizer and one workaround: canvas sometimes fills a long
+// canvas's rasterizer and two workarounds: canvas sometimes fills a long
 // stroked Bézier path as a solid blob (seen on about 2 % of random-walk
-// curves), so every stroked path is flattened to line segments first.
-// The drawing units are points (1/72 in), the same as in the PDF.
+// curves), so every stroked path is flattened to line segments first; and
+// it evaluates gradients in device pixels, so gradients are mapped there
+// before drawing.
+// The drawing units are canvas's millimetres, as for every canvas
+// renderer; page sizes are given in points.
 package raster
 
 import (
@@ -42,11 +45,11 @@ func New(w, h, dpi float64, background color.Color) (*Renderer, error) {
 	}
 	img := image.NewRGBA(image.Rect(0, 0, px, py))
 	draw.Draw(img, img.Bounds(), image.NewUniform(background), image.Point{}, draw.Src)
-	ras := rasterizer.FromImage(img, canvas.Resolution(dpi/72), canvas.DefaultColorSpace)
-	return &Renderer{ras: ras, img: img, tol: flatTolerancePx * 72 / dpi}, nil
+	ras := rasterizer.FromImage(img, canvas.DPI(dpi), canvas.DefaultColorSpace)
+	return &Renderer{ras: ras, img: img, tol: flatTolerancePx * 25.4 / dpi}, nil
 }
 
-// Size returns the page size in points.
+// Size returns the page size in millimetres.
 func (r *Renderer) Size() (float64, float64) { return r.ras.Size() }
 
 // RenderPath draws a path; strokes are flattened first (see the package doc).
@@ -57,6 +60,19 @@ func (r *Renderer) RenderPath(p *canvas.Path, style canvas.Style, m canvas.Matri
 			return
 		}
 		p = p.Flatten(r.tol / scale)
+	}
+	// canvas's rasterizer evaluates gradients at pixel coordinates (y down)
+	// without mapping them from the drawing's units, so map them here.
+	if style.Fill.IsGradient() || style.Stroke.IsGradient() {
+		_, hmm := r.ras.Size()
+		dpmm := float64(r.img.Bounds().Dy()) / hmm
+		toPixels := canvas.Identity.Translate(0, float64(r.img.Bounds().Dy())).Scale(dpmm, -dpmm).Mul(m)
+		if style.Fill.IsGradient() {
+			style.Fill.Gradient = style.Fill.Gradient.SetView(toPixels)
+		}
+		if style.Stroke.IsGradient() {
+			style.Stroke.Gradient = style.Stroke.Gradient.SetView(toPixels)
+		}
 	}
 	r.ras.RenderPath(p, style, m)
 }
@@ -73,8 +89,8 @@ func (r *Renderer) Image() *image.RGBA {
 	return r.img
 }
 
-// Draw renders one page: draw gets a context whose units are points with
-// the origin at the lower-left corner.
+// Draw renders one page of w × h points: draw gets a context in
+// millimetres with the origin at the lower-left corner.
 func Draw(w, h, dpi float64, background color.Color, draw func(ctx *canvas.Context) error) (*image.RGBA, error) {
 	r, err := New(w, h, dpi, background)
 	if err != nil {
@@ -90,4 +106,13 @@ func Draw(w, h, dpi float64, background color.Color, draw func(ctx *canvas.Conte
 func WritePNG(w io.Writer, img image.Image) error {
 	enc := png.Encoder{CompressionLevel: png.DefaultCompression}
 	return enc.Encode(w, img)
+}
+
+// Crop returns the part of a page image inside the rectangle (x0, y0)–(x1,
+// y1), given in points with y up, for a page pageH points tall drawn at
+// dpi. Edges round to the nearest pixel.
+func Crop(img *image.RGBA, pageH, dpi, x0, y0, x1, y1 float64) *image.RGBA {
+	px := func(v float64) int { return int(math.Round(v * dpi / 72)) }
+	r := image.Rect(px(x0), px(pageH-y1), px(x1), px(pageH-y0)).Intersect(img.Bounds())
+	return img.SubImage(r).(*image.RGBA)
 }

@@ -130,7 +130,7 @@ func Generate(cfg Config) (Corpus, error) {
 		}
 		// Year-to-year editorial noise (AR(1) on the log scale) and then
 		// Poisson sampling of the words actually printed.
-		rho, sigma := 0.3+0.5*rng.Float64(), 0.06+0.19*rng.Float64()
+		rho, sigma := 0.3+0.5*rng.Float64(), 0.04+0.10*rng.Float64()
 		e := sigma * rng.NormFloat64()
 		counts := make([]int, len(c.Years))
 		for j := range c.Years {

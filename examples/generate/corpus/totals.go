@@ -5,12 +5,14 @@ import (
 	"math/rand/v2"
 )
 
-// Words printed per year: about 180,000 in 1868 growing to about 2.5 million
-// by 2025, as the journal added pages and issues, with dips for wars, slumps
-// and paper shortages. Invented for the demo.
+// Words printed per year: about 1.1 million in 1868 (a weekly of some
+// 20,000 words an issue) growing to about 15 million by 2025, as the journal
+// added pages and issues, with dips for wars, slumps and paper shortages.
+// Invented for the demo; a large archive keeps the counts of mid-ranked
+// terms in the tens, so their lines show shape rather than sampling noise.
 const (
-	wordsFirst, yearFirst = 180_000.0, 1868.0
-	wordsLast, yearLast   = 2_500_000.0, 2025.0
+	wordsFirst, yearFirst = 1_100_000.0, 1868.0
+	wordsLast, yearLast   = 15_000_000.0, 2025.0
 )
 
 // dips scales the volume in hard years (years not listed are 1).
