@@ -6,6 +6,8 @@ import (
 	"io"
 	"strings"
 
+	"sheaf/layout"
+	"sheaf/render/page"
 	"sheaf/specs"
 	"sheaf/specs/series"
 )
@@ -43,10 +45,22 @@ type scaleReport struct {
 }
 
 type outputReport struct {
-	Name   string     `json:"name"`
-	Kind   string     `json:"kind"`
-	TrimPt [2]float64 `json:"trim_pt"`
-	Bleed  float64    `json:"bleed_pt"`
+	Name     string       `json:"name"`
+	Kind     string       `json:"kind"`
+	TrimPt   [2]float64   `json:"trim_pt"`
+	Bleed    float64      `json:"bleed_pt"`
+	Summary  string       `json:"summary"`
+	Pages    int          `json:"pages"`
+	Labels   []page.Label `json:"labels_shortened,omitempty"`
+	Warnings []string     `json:"warnings,omitempty"`
+	Palette  paletteSum   `json:"palette"`
+	Layout   *layout.Plan `json:"layout"`
+}
+
+type paletteSum struct {
+	Name     string   `json:"name"`
+	Failed   bool     `json:"failed"`
+	Findings []string `json:"findings"`
 }
 
 func runCheck(args []string, stdout, stderr io.Writer) int {
@@ -61,7 +75,11 @@ func runCheck(args []string, stdout, stderr io.Writer) int {
 		fmt.Fprintln(stderr, err)
 		return exitBadInput
 	}
-	rep := summarize(job)
+	rep, err := summarize(job)
+	if err != nil {
+		fmt.Fprintln(stderr, err)
+		return exitBadInput
+	}
 	if *asJSON {
 		enc := json.NewEncoder(stdout)
 		enc.SetIndent("", "  ")
@@ -93,7 +111,7 @@ func loadJob(path string) (*job, error) {
 	return &job{spec: s, data: d}, nil
 }
 
-func summarize(j *job) checkReport {
+func summarize(j *job) (checkReport, error) {
 	s, d := j.spec, j.data
 	r := checkReport{Spec: s.File, Title: s.Title}
 	r.Terms = termsReport{InData: d.Terms, Rows: d.Rows, Selected: len(d.Series), Order: string(s.Order)}
@@ -107,11 +125,35 @@ func summarize(j *job) checkReport {
 	}
 	r.Years = yearsReport{From: d.Span.From, To: d.Span.To, Gaps: append([]int{}, d.Gaps...)}
 	r.Scale = scaleReport{Values: string(s.Scale.Mode), Unit: d.Unit, YRange: string(s.Scale.YRange), YMax: d.YMax}
-	for _, o := range s.Outputs {
-		r.Outputs = append(r.Outputs, outputReport{Name: o.Name, Kind: string(o.Kind),
-			TrimPt: [2]float64{o.Trim.W.Pt(), o.Trim.H.Pt()}, Bleed: o.Bleed.Pt()})
+	pal, err := checkPalette(j)
+	if err != nil {
+		return r, err
 	}
-	return r
+	for i := range s.Outputs {
+		o := &s.Outputs[i]
+		p, err := prepare(j, o)
+		if err != nil {
+			return r, err
+		}
+		or := outputReport{Name: o.Name, Kind: string(o.Kind),
+			TrimPt: [2]float64{o.Trim.W.Pt(), o.Trim.H.Pt()}, Bleed: o.Bleed.Pt(),
+			Summary: p.plan.Summary(), Pages: len(p.plan.Pages), Layout: p.plan}
+		for _, l := range p.feat.Labels() {
+			if l.Shrunk || l.Truncated {
+				or.Labels = append(or.Labels, l)
+			}
+		}
+		for _, w := range p.plan.Warnings {
+			or.Warnings = append(or.Warnings, w.String())
+		}
+		pc := pal[i].report
+		or.Palette = paletteSum{Name: pal[i].scale.Name(), Failed: pc.Failed(), Findings: []string{}}
+		for _, f := range pc.Findings {
+			or.Palette.Findings = append(or.Palette.Findings, f.String())
+		}
+		r.Outputs = append(r.Outputs, or)
+	}
+	return r, nil
 }
 
 func writeSummary(w io.Writer, r checkReport) {
@@ -132,5 +174,26 @@ func writeSummary(w io.Writer, r checkReport) {
 			fmt.Fprintf(w, " + %.1f mm bleed", o.Bleed*25.4/72)
 		}
 		fmt.Fprintln(w)
+		fmt.Fprintf(w, "    %s\n", o.Summary)
+		for _, l := range o.Labels {
+			what := fmt.Sprintf("set at %.2g pt", l.Size)
+			if l.Truncated {
+				what += fmt.Sprintf(", cut to %q", l.Text)
+			}
+			fmt.Fprintf(w, "    label %q does not fit its panel: %s\n", l.Term, what)
+		}
+		for _, warn := range o.Warnings {
+			fmt.Fprintf(w, "    warning: %s\n", warn)
+		}
+		verdict := "passes its checks"
+		if o.Palette.Failed {
+			verdict = "FAILS a check (run sheaf palette for the table)"
+		}
+		fmt.Fprintf(w, "    palette %s %s\n", o.Palette.Name, verdict)
+		for _, f := range o.Palette.Findings {
+			if !strings.HasPrefix(f, "INFO") {
+				fmt.Fprintf(w, "    %s\n", f)
+			}
+		}
 	}
 }

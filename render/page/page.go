@@ -11,6 +11,7 @@ import (
 	"image/color"
 	"math"
 	"strconv"
+	"strings"
 
 	"github.com/tdewolff/canvas"
 
@@ -32,12 +33,32 @@ type Feature struct {
 	Palette palette.Scale
 	Fonts   *fonts.Set
 	Stops   []palette.Stop // the palette as gradient stops over the span
+
+	labels []Label
 }
 
 // NewFeature computes what all pages share.
 func NewFeature(s *specs.Spec, out *specs.Output, plan *layout.Plan, data *series.Set, pal palette.Scale, fs *fonts.Set) *Feature {
-	return &Feature{Spec: s, Output: out, Plan: plan, Data: data, Palette: pal, Fonts: fs,
+	f := &Feature{Spec: s, Output: out, Plan: plan, Data: data, Palette: pal, Fonts: fs,
 		Stops: pal.Stops(float64(data.Span.From), float64(data.Span.To), 0)}
+	f.fitLabels()
+	return f
+}
+
+// Grouper is implemented by renderers that keep structure, such as SVG:
+// the page calls BeginGroup before a panel's drawing and EndGroup after,
+// with a short title and a description for assistive technology.
+type Grouper interface {
+	BeginGroup(id, title, desc string)
+	EndGroup()
+}
+
+// Describe returns a panel's title and description: the term, the span
+// and the peak.
+func (f *Feature) Describe(item int) (title, desc string) {
+	sr := &f.Data.Series[item]
+	return sr.Term, fmt.Sprintf("How often %q was used each year, %d–%d (%s); highest in %d.",
+		sr.Term, f.Data.Span.From, f.Data.Span.To, f.Data.Unit, sr.PeakYear)
 }
 
 // Ink colours of the furniture. Text and rules are one ink (black or a
@@ -67,8 +88,17 @@ func (f *Feature) Draw(ctx *canvas.Context, i int) error {
 		f.heading(p, h)
 	}
 	var b curve.Builder
+	g, grouping := ctx.Renderer.(Grouper)
 	for _, pn := range pg.Panels {
-		if err := f.panel(p, &b, pn); err != nil {
+		if grouping {
+			title, desc := f.Describe(pn.Item)
+			g.BeginGroup(fmt.Sprintf("panel-%d", pn.Item+1), title, desc)
+		}
+		err := f.panel(p, &b, pn)
+		if grouping {
+			g.EndGroup()
+		}
+		if err != nil {
 			return err
 		}
 	}
@@ -171,17 +201,11 @@ func (f *Feature) panel(p pen, b *curve.Builder, pn layout.Panel) error {
 	t := f.Output.Type
 	out := f.Output
 	// Label: the term on the left, the peak year on the right.
-	lsize := t.Label.Pt()
 	base := pn.LabelBaseline
-	peak := strconv.Itoa(sr.PeakYear)
-	if f.Spec.Scale.YRange == specs.YOwn && f.Spec.Scale.Mode != specs.ScaleOwnPeak {
-		peak += " · " + formatValue(sr.Peak)
-	}
+	peak := f.peakText(sr)
 	tsize := t.Ticks.Pt()
-	peakW := f.Fonts.Width(fonts.Regular, tsize, peak)
-	room := pn.Label.W() - peakW - tsize*0.8
-	term := f.fit(sr.Term, lsize, room)
-	p.text(fonts.Bold, lsize, ink, pn.Label.X0, base, canvas.Left, term)
+	lab := f.labels[pn.Item]
+	p.text(fonts.Bold, lab.Size, ink, pn.Label.X0, base, canvas.Left, lab.Text)
 	p.text(fonts.Regular, tsize, inkSoft, pn.Label.X1, base, canvas.Right, peak)
 
 	pr := pn.Plot
@@ -255,22 +279,76 @@ func (f *Feature) ticks(p pen, pn layout.Panel) {
 	}
 }
 
-// fit shortens a label to width: first by shrinking the type down to 80 %
-// of its size (not done here: layout keeps one size per output so panels
-// read alike), then with an ellipsis. It returns the text to draw.
-func (f *Feature) fit(s string, size, width float64) string {
-	if f.Fonts.Width(fonts.Bold, size, s) <= width {
-		return s
-	}
-	r := []rune(s)
-	for n := len(r) - 1; n > 0; n-- {
-		t := string(r[:n]) + "…"
-		if f.Fonts.Width(fonts.Bold, size, t) <= width {
-			return t
-		}
-	}
-	return "…"
+// Label is how a panel's term is set: at its size, or shrunk, or cut
+// with an ellipsis when even the smallest allowed size is too wide.
+type Label struct {
+	Item      int     // index into the data's series
+	Term      string  // the term as written
+	Text      string  // what is drawn
+	Size      float64 // type size in points
+	Shrunk    bool    // set smaller than the output's label size
+	Truncated bool    // cut with an ellipsis
 }
+
+// labelFloor is the smallest a label may shrink to: 85 % of its size, but
+// never under the preflight type floor (5 pt print, 10 px = 7.5 pt
+// screen, common practice for figure text).
+func (f *Feature) labelFloor() float64 {
+	size := f.Output.Type.Label.Pt()
+	floor := 5.0
+	if f.Output.Kind == specs.Screen {
+		floor = 7.5
+	}
+	return min(size, max(size*0.85, floor))
+}
+
+// peakText is what stands right of the term: the peak year, and with
+// each panel on its own y-range, the peak value.
+func (f *Feature) peakText(sr *series.Series) string {
+	peak := strconv.Itoa(sr.PeakYear)
+	if f.Spec.Scale.YRange == specs.YOwn && f.Spec.Scale.Mode != specs.ScaleOwnPeak {
+		peak += " · " + formatValue(sr.Peak)
+	}
+	return peak
+}
+
+// fitLabels sets every term to the room its panel's label row leaves
+// beside the peak text: shrinking first, then cutting.
+func (f *Feature) fitLabels() {
+	if len(f.Plan.Pages) == 0 {
+		return
+	}
+	width := f.Plan.PanelW
+	size, floor := f.Output.Type.Label.Pt(), f.labelFloor()
+	tsize := f.Output.Type.Ticks.Pt()
+	f.labels = make([]Label, len(f.Data.Series))
+	for i := range f.Data.Series {
+		sr := &f.Data.Series[i]
+		room := width - f.Fonts.Width(fonts.Regular, tsize, f.peakText(sr)) - tsize*0.8
+		l := Label{Item: i, Term: sr.Term, Text: sr.Term, Size: size}
+		for l.Size > floor && f.Fonts.Width(fonts.Bold, l.Size, l.Text) > room {
+			l.Size = max(floor, l.Size-0.25)
+			l.Shrunk = true
+		}
+		if f.Fonts.Width(fonts.Bold, l.Size, l.Text) > room {
+			l.Truncated = true
+			r := []rune(sr.Term)
+			l.Text = "…"
+			for n := len(r) - 1; n > 0; n-- {
+				t := strings.TrimRight(string(r[:n]), " -") + "…"
+				if f.Fonts.Width(fonts.Bold, l.Size, t) <= room {
+					l.Text = t
+					break
+				}
+			}
+		}
+		f.labels[i] = l
+	}
+}
+
+// Labels returns how every term's label is set; the ones shrunk or cut
+// are reported to the editor.
+func (f *Feature) Labels() []Label { return f.labels }
 
 // formatValue prints a value with three significant digits.
 func formatValue(v float64) string {
