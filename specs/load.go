@@ -513,6 +513,16 @@ func (d *decoder) spec(n *yaml.Node, s *Spec) {
 		{"palette", func(n *yaml.Node, path string) { d.palette(n, path, &s.Palette) }},
 		{"outputs", func(n *yaml.Node, path string) { outputsSeen = true; d.outputs(n, path, s) }},
 		{"inserts", func(n *yaml.Node, path string) { d.inserts(n, path, s) }},
+		{"preflight", func(n *yaml.Node, path string) {
+			p := &s.Preflight
+			d.mapping(n, path, []field{
+				{"spike-ratio", d.number(&p.SpikeRatio, 1, 1e6, true)},
+				{"min-type", d.length(&p.MinType, true)},
+				{"min-screen-type", d.length(&p.MinScreenType, true)},
+				{"min-line", d.length(&p.MinLine, true)},
+				{"strict", d.boolean(&p.Strict)},
+			})
+		}},
 	}, "data", "years", "outputs")
 	s.Order, s.Group = Order(order), Grouping(group)
 	if s.Order == "" {
@@ -541,6 +551,27 @@ func (d *decoder) spec(n *yaml.Node, s *Spec) {
 	}
 	d.checkInserts(s)
 	d.palettePaper(&s.Palette)
+	preflightDefaults(&s.Preflight, d.pos)
+}
+
+// preflightDefaults fills the thresholds the spec leaves out: spikes at 4×
+// the next-highest year, type at 5 pt in print and 10 px on screen, rules
+// at 0.25 pt (common practice for figure text and hairlines on press).
+// A key given as 0 turns its check off.
+func preflightDefaults(p *Preflight, given map[string]Pos) {
+	set := func(key string) bool { _, ok := given["preflight."+key]; return ok }
+	if !set("spike-ratio") {
+		p.SpikeRatio = 4
+	}
+	if !set("min-type") {
+		p.MinType = 5
+	}
+	if !set("min-screen-type") {
+		p.MinScreenType = 7.5 // 10 px
+	}
+	if !set("min-line") {
+		p.MinLine = 0.25
+	}
 }
 
 func (d *decoder) palettePaper(p *Palette) {

@@ -337,3 +337,50 @@ func TestPosString(t *testing.T) {
 		}
 	}
 }
+
+// TestPreflightKeys checks the preflight thresholds: defaults, each key,
+// and bad values at their place. The defaults are common practice (5 pt
+// type and 0.25 pt rules in print; 10 px type on screen, 1 px = 0.75 pt
+// by CSS Values L3); the spike ratio 4 is this project's choice.
+// Positions: printOut is six lines, "preflight:" the seventh, keys from 8.
+func TestPreflightKeys(t *testing.T) {
+	tests := []struct {
+		name string
+		keys string // lines under "preflight:" (empty: no mapping)
+		want Preflight
+		err  string // "line:col: message substring"
+	}{
+		{"defaults", "", Preflight{SpikeRatio: 4, MinType: 5, MinScreenType: 7.5, MinLine: 0.25}, ""},
+		{"all keys", "  spike-ratio: 6\n  min-type: 2mm\n  min-screen-type: 12px\n  min-line: 0.5pt\n  strict: true\n",
+			// 2 mm = 2 × 72 / 25.4 pt; 12 px = 9 pt.
+			Preflight{SpikeRatio: 6, MinType: Length(2 * 72 / 25.4), MinScreenType: 9, MinLine: 0.5, Strict: true}, ""},
+		{"zero turns a check off", "  min-line: 0pt\n", Preflight{SpikeRatio: 4, MinType: 5, MinScreenType: 7.5}, ""},
+		{"ratio at most 1", "  spike-ratio: 1\n", Preflight{}, "8:16: preflight.spike-ratio must be greater than 1"},
+		{"type without unit", "  min-type: 5\n", Preflight{}, `8:13: preflight.min-type: "5" has no unit`},
+		{"unknown key", "  min-lines: 1pt\n", Preflight{}, `8:3: unknown key "min-lines" in preflight; did you mean "min-line"?`},
+		{"strict not bool", "  strict: maybe\n", Preflight{}, `8:11: preflight.strict must be true or false`},
+	}
+	for _, tt := range tests {
+		t.Run(tt.name, func(t *testing.T) {
+			text := printOut
+			if tt.keys != "" {
+				text += "preflight:\n" + tt.keys
+			}
+			s, err := Parse("p.yaml", []byte(text))
+			if tt.err != "" {
+				if err == nil || !strings.Contains(err.Error(), "p.yaml:"+tt.err) {
+					t.Fatalf("error %v, want p.yaml:%s", err, tt.err)
+				}
+				return
+			}
+			if err != nil {
+				t.Fatal(err)
+			}
+			g := s.Preflight
+			if math.Abs(float64(g.MinType-tt.want.MinType)) > 1e-9 || g.SpikeRatio != tt.want.SpikeRatio ||
+				g.MinScreenType != tt.want.MinScreenType || g.MinLine != tt.want.MinLine || g.Strict != tt.want.Strict {
+				t.Errorf("preflight %+v, want %+v", g, tt.want)
+			}
+		})
+	}
+}

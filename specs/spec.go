@@ -64,6 +64,8 @@ type Spec struct {
 	Outputs []Output
 	Inserts []Insert
 
+	Preflight Preflight
+
 	positions map[string]Pos
 }
 
@@ -208,6 +210,15 @@ type PaletteChecks struct {
 	MinContrast float64 // WCAG contrast ratio against the paper
 	MinCVDStep  float64 // ΔE00 between adjacent steps under simulated deficiencies
 	Lightness   string  // "increasing", "decreasing" or "any"
+}
+
+// Preflight holds the thresholds of the checks run before every build.
+type Preflight struct {
+	SpikeRatio    float64 // a year above this many times the term's next-highest year is a spike
+	MinType       Length  // smallest type size in print
+	MinScreenType Length  // smallest type size on screen
+	MinLine       Length  // thinnest rule or line in print
+	Strict        bool    // findings stop the build
 }
 
 // Kind is the medium of an output.
