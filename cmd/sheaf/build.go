@@ -152,14 +152,14 @@ func writeProofs(p *prepared, odir string) ([]string, error) {
 		go func(i int) {
 			defer func() { <-sem; wg.Done() }()
 			pg := &p.plan.Pages[i]
-			img, err := raster.Draw(pg.Media.W(), pg.Media.H(), dpi, p.feat.PaperColor(), func(ctx *canvas.Context) error {
+			region := raster.RegionOf(pg.Media.H(), dpi, pg.Trim.X0, pg.Trim.Y0, pg.Trim.X1, pg.Trim.Y1)
+			trim, err := raster.DrawRegion(pg.Media.H(), dpi, region, p.feat.PaperColor(), func(ctx *canvas.Context) error {
 				return p.feat.Draw(ctx, i)
 			})
 			if err != nil {
 				errs[i] = err
 				return
 			}
-			trim := raster.Crop(img, pg.Media.H(), dpi, pg.Trim.X0, pg.Trim.Y0, pg.Trim.X1, pg.Trim.Y1)
 			path := filepath.Join(odir, "proofs", fmt.Sprintf("page-%03d.png", i+1))
 			if err := writeAtomic(path, func(w io.Writer) error { return raster.WritePNG(w, trim) }); err != nil {
 				errs[i] = err

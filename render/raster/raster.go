@@ -28,9 +28,10 @@ const flatTolerancePx = 0.05
 
 // Renderer is a canvas.Renderer that rasterizes with flattened strokes.
 type Renderer struct {
-	ras *rasterizer.Rasterizer
-	img *image.RGBA
-	tol float64 // flattening tolerance in points
+	ras   *rasterizer.Rasterizer
+	img   *image.RGBA
+	tol   float64       // flattening tolerance in millimetres
+	shift canvas.Matrix // page millimetres to the image's region
 }
 
 // New returns a renderer for a page of w × h points at dpi dots per inch,
@@ -46,7 +47,39 @@ func New(w, h, dpi float64, background color.Color) (*Renderer, error) {
 	img := image.NewRGBA(image.Rect(0, 0, px, py))
 	draw.Draw(img, img.Bounds(), image.NewUniform(background), image.Point{}, draw.Src)
 	ras := rasterizer.FromImage(img, canvas.DPI(dpi), canvas.DefaultColorSpace)
-	return &Renderer{ras: ras, img: img, tol: flatTolerancePx * 25.4 / dpi}, nil
+	return &Renderer{ras: ras, img: img, tol: flatTolerancePx * 25.4 / dpi, shift: canvas.Identity}, nil
+}
+
+// Region is the part of a page an image shows, in whole device pixels
+// counted from the page's top-left corner, as a PDF rasterizer such as
+// poppler's pdftoppm crops with -x -y -W -H.
+type Region struct {
+	X, Y, W, H int
+}
+
+// RegionOf returns the pixels covering the rectangle (x0, y0)–(x1, y1)
+// (points, y up) of a page pageH points tall at dpi, edges rounded to the
+// nearest pixel.
+func RegionOf(pageH, dpi, x0, y0, x1, y1 float64) Region {
+	px := func(v float64) int { return int(math.Round(v * dpi / 72)) }
+	x, y := px(x0), px(pageH-y1)
+	return Region{X: x, Y: y, W: px(x1) - x, H: px(pageH-y0) - y}
+}
+
+// NewRegion returns a renderer for region r of a page pageH points tall,
+// so a proof of the trim box lands on exactly the pixels a full-page
+// rendering would give them.
+func NewRegion(pageH, dpi float64, r Region, background color.Color) (*Renderer, error) {
+	w, h := float64(r.W)*72/dpi, float64(r.H)*72/dpi
+	rr, err := New(w, h, dpi, background)
+	if err != nil {
+		return nil, err
+	}
+	// Page point (X, Y) must land at pixel (X·dpi/72 − r.X, (pageH − Y)·dpi/72 − r.Y).
+	mmPerPx := 25.4 / dpi
+	top := pageH*25.4/72 - float64(r.Y)*mmPerPx // page y (mm) of the region's top edge
+	rr.shift = canvas.Identity.Translate(-float64(r.X)*mmPerPx, h*25.4/72-top)
+	return rr, nil
 }
 
 // Size returns the page size in millimetres.
@@ -54,6 +87,7 @@ func (r *Renderer) Size() (float64, float64) { return r.ras.Size() }
 
 // RenderPath draws a path; strokes are flattened first (see the package doc).
 func (r *Renderer) RenderPath(p *canvas.Path, style canvas.Style, m canvas.Matrix) {
+	m = r.shift.Mul(m)
 	if style.HasStroke() {
 		scale := math.Sqrt(math.Abs(m.Det()))
 		if scale == 0 {
@@ -78,10 +112,10 @@ func (r *Renderer) RenderPath(p *canvas.Path, style canvas.Style, m canvas.Matri
 }
 
 // RenderText draws text.
-func (r *Renderer) RenderText(t *canvas.Text, m canvas.Matrix) { r.ras.RenderText(t, m) }
+func (r *Renderer) RenderText(t *canvas.Text, m canvas.Matrix) { r.ras.RenderText(t, r.shift.Mul(m)) }
 
 // RenderImage draws an image.
-func (r *Renderer) RenderImage(img image.Image, m canvas.Matrix) { r.ras.RenderImage(img, m) }
+func (r *Renderer) RenderImage(img image.Image, m canvas.Matrix) { r.ras.RenderImage(img, r.shift.Mul(m)) }
 
 // Image finishes drawing and returns the picture.
 func (r *Renderer) Image() *image.RGBA {
@@ -108,11 +142,15 @@ func WritePNG(w io.Writer, img image.Image) error {
 	return enc.Encode(w, img)
 }
 
-// Crop returns the part of a page image inside the rectangle (x0, y0)–(x1,
-// y1), given in points with y up, for a page pageH points tall drawn at
-// dpi. Edges round to the nearest pixel.
-func Crop(img *image.RGBA, pageH, dpi, x0, y0, x1, y1 float64) *image.RGBA {
-	px := func(v float64) int { return int(math.Round(v * dpi / 72)) }
-	r := image.Rect(px(x0), px(pageH-y1), px(x1), px(pageH-y0)).Intersect(img.Bounds())
-	return img.SubImage(r).(*image.RGBA)
+// DrawRegion renders region r of a page pageH points tall; draw gets a
+// context in page millimetres, as for Draw.
+func DrawRegion(pageH, dpi float64, r Region, background color.Color, draw func(ctx *canvas.Context) error) (*image.RGBA, error) {
+	rr, err := NewRegion(pageH, dpi, r, background)
+	if err != nil {
+		return nil, err
+	}
+	if err := draw(canvas.NewContext(rr)); err != nil {
+		return nil, err
+	}
+	return rr.Image(), nil
 }
