@@ -115,7 +115,9 @@ func (r *Renderer) RenderPath(p *canvas.Path, style canvas.Style, m canvas.Matri
 func (r *Renderer) RenderText(t *canvas.Text, m canvas.Matrix) { r.ras.RenderText(t, r.shift.Mul(m)) }
 
 // RenderImage draws an image.
-func (r *Renderer) RenderImage(img image.Image, m canvas.Matrix) { r.ras.RenderImage(img, r.shift.Mul(m)) }
+func (r *Renderer) RenderImage(img image.Image, m canvas.Matrix) {
+	r.ras.RenderImage(img, r.shift.Mul(m))
+}
 
 // Image finishes drawing and returns the picture.
 func (r *Renderer) Image() *image.RGBA {
