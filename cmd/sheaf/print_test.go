@@ -223,12 +223,10 @@ func TestCurvesPassThroughData(t *testing.T) {
 		return best
 	}
 	data := p.feat.Data
-	lw := p.out.Line.Pt()
 	checked := 0
 	for _, pn := range p.plan.Pages[0].Panels {
 		sr := data.Series[pn.Item]
-		m, err := curve.NewMap(data.Years[0], data.Years[len(data.Years)-1], 0, sr.YMax,
-			pn.Plot.X0, pn.Plot.X1, pn.Plot.Y0+lw/2, pn.Plot.Y1-lw/2)
+		m, err := p.feat.PlotMap(pn)
 		if err != nil {
 			t.Fatal(err)
 		}

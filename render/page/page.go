@@ -215,14 +215,11 @@ func (f *Feature) panel(p pen, b *curve.Builder, pn layout.Panel) error {
 	if pn.ShowTicks {
 		f.ticks(p, pn)
 	}
-	// The curve: monotone cubic through every year, inset by half the line
-	// width so the stroke stays inside the plot rectangle.
+	// The curve: monotone cubic through every year.
 	lw := out.Line.Pt()
-	inset := lw / 2
-	m, err := curve.NewMap(f.Data.Years[0], f.Data.Years[len(f.Data.Years)-1], 0, sr.YMax,
-		pr.X0, pr.X1, pr.Y0+inset, pr.Y1-inset)
+	m, err := f.PlotMap(pn)
 	if err != nil {
-		return fmt.Errorf("panel %q: %w", sr.Term, err)
+		return err
 	}
 	b.Reset()
 	runs, err := b.Build(f.Data.Years, sr.Values, m, nil)
@@ -249,9 +246,32 @@ func (f *Feature) panel(p pen, b *curve.Builder, pn layout.Panel) error {
 	}
 	if out.PeakDot && sr.Peak > 0 {
 		pk := m.Apply(float64(sr.PeakYear), sr.Peak)
-		p.dot(pk.X, pk.Y, math.Max(lw*1.1, 1.0), f.colorAt(m, pk.X), f.PaperColor(), Hairline)
+		p.dot(pk.X, pk.Y, f.peakRadius(), f.colorAt(m, pk.X), f.PaperColor(), Hairline)
 	}
 	return nil
+}
+
+// peakRadius is the radius of the dot that marks a line's peak.
+func (f *Feature) peakRadius() float64 { return math.Max(f.Output.Line.Pt()*1.1, 1.0) }
+
+// PlotMap is the map from a panel's data (years, 0 to its y-range top) to
+// its plot rectangle. The rectangle is inset by half the line width, and
+// at the top by the peak dot's radius, so neither stroke nor dot leaves
+// the plot and touches the label above it.
+func (f *Feature) PlotMap(pn layout.Panel) (curve.Map, error) {
+	sr := &f.Data.Series[pn.Item]
+	pr := pn.Plot
+	lw := f.Output.Line.Pt()
+	top := lw / 2
+	if f.Output.PeakDot {
+		top = math.Max(top, f.peakRadius()+Hairline)
+	}
+	m, err := curve.NewMap(f.Data.Years[0], f.Data.Years[len(f.Data.Years)-1], 0, sr.YMax,
+		pr.X0, pr.X1, pr.Y0+lw/2, pr.Y1-top)
+	if err != nil {
+		return m, fmt.Errorf("panel %q: %w", sr.Term, err)
+	}
+	return m, nil
 }
 
 // colorAt is the palette's colour at plot x.
