@@ -88,21 +88,38 @@ func (f *Feature) Draw(ctx *canvas.Context, i int) error {
 		f.heading(p, h)
 	}
 	var b curve.Builder
-	g, grouping := ctx.Renderer.(Grouper)
 	for _, pn := range pg.Panels {
-		if grouping {
-			title, desc := f.Describe(pn.Item)
-			g.BeginGroup(fmt.Sprintf("panel-%d", pn.Item+1), title, desc)
-		}
-		err := f.panel(p, &b, pn)
-		if grouping {
-			g.EndGroup()
-		}
-		if err != nil {
+		if err := f.groupedPanel(p, &b, pn); err != nil {
 			return err
 		}
 	}
 	return nil
+}
+
+// DrawPanel draws one panel alone, as placed on its page, for a file of
+// its own; set pn.ShowTicks and pn.Ticks to give it year ticks.
+// The context's units are canvas's millimetres.
+func (f *Feature) DrawPanel(ctx *canvas.Context, pn layout.Panel) error {
+	if pn.Item < 0 || pn.Item >= len(f.Data.Series) {
+		return fmt.Errorf("panel for item %d does not exist (the output has %d terms)", pn.Item, len(f.Data.Series))
+	}
+	var b curve.Builder
+	return f.groupedPanel(pen{ctx: ctx, fonts: f.Fonts}, &b, pn)
+}
+
+// groupedPanel draws a panel inside a group with its title and
+// description when the renderer keeps structure (Grouper).
+func (f *Feature) groupedPanel(p pen, b *curve.Builder, pn layout.Panel) error {
+	g, grouping := p.ctx.Renderer.(Grouper)
+	if grouping {
+		title, desc := f.Describe(pn.Item)
+		g.BeginGroup(fmt.Sprintf("panel-%d", pn.Item+1), title, desc)
+	}
+	err := f.panel(p, b, pn)
+	if grouping {
+		g.EndGroup()
+	}
+	return err
 }
 
 // paper fills the bleed box when the paper is not white, so a colour
