@@ -1,0 +1,403 @@
+// Package preflight checks an output before it is built: what would
+// print badly or read wrongly but is not, strictly, bad input. It finds
+// text that does not fit, type below a floor, rules and lines below a
+// floor in print, colours out of gamut and failed palette checks, glyphs
+// the chosen fonts lack, panels without data, and one-year spikes worth
+// an editor's look.
+//
+// Check is pure: it reads the prepared job (spec, plan, data, fonts,
+// palette report, the page's label fitting) and returns findings; it
+// touches no files.
+package preflight
+
+import (
+	"fmt"
+	"math"
+	"sort"
+	"strconv"
+	"strings"
+	"unicode"
+
+	"sheaf/layout"
+	"sheaf/layout/fonts"
+	"sheaf/palette"
+	"sheaf/render/page"
+	"sheaf/specs"
+	"sheaf/specs/series"
+)
+
+// Severity grades a finding. Strict builds stop at Warning and above.
+type Severity int
+
+const (
+	Info    Severity = iota // for the record
+	Review                  // worth an editor's look; not a fault
+	Warning                 // may print badly or read wrongly
+	Error                   // will print wrongly
+)
+
+func (s Severity) String() string {
+	switch s {
+	case Info:
+		return "info"
+	case Review:
+		return "review"
+	case Warning:
+		return "warning"
+	case Error:
+		return "error"
+	}
+	return fmt.Sprintf("Severity(%d)", int(s))
+}
+
+// MarshalText writes the severity's name, for JSON.
+func (s Severity) MarshalText() ([]byte, error) { return []byte(s.String()), nil }
+
+// Ids of the findings. They are stable: scripts may filter on them.
+const (
+	IDGlyph       = "glyph-missing"  // a character the font cannot draw
+	IDTypeFloor   = "type-floor"     // a type size below the floor
+	IDLineFloor   = "line-floor"     // the chart line below the floor (print)
+	IDHairline    = "hairline-floor" // the page's hairlines below the floor (print)
+	IDLabelCut    = "label-cut"      // a term cut with an ellipsis
+	IDLabelShrunk = "label-shrunk"   // a term set smaller than the label size
+	IDLayout      = "layout"         // a layout warning
+	IDNoData      = "no-data"        // a panel whose values are all zero or gaps
+	IDSpike       = "spike"          // one year far above the term's others
+	IDGamut       = "palette-gamut"  // palette colours outside sRGB
+	IDPalette     = "palette"        // the palette check's verdict and findings
+)
+
+// Finding is one result.
+type Finding struct {
+	ID       string   `json:"id"`
+	Severity Severity `json:"severity"`
+	Output   string   `json:"output"`
+	Page     int      `json:"page,omitempty"` // 1-based; 0 when not about a page
+	Term     string   `json:"term,omitempty"`
+	Year     int      `json:"year,omitempty"`
+	At       string   `json:"at,omitempty"` // spec position that set the value, file:line:col
+	Message  string   `json:"message"`
+}
+
+// Where says where the finding is, for a table.
+func (f Finding) Where() string {
+	var parts []string
+	parts = append(parts, f.Output)
+	if f.Page > 0 {
+		parts = append(parts, "p. "+strconv.Itoa(f.Page))
+	}
+	if f.Term != "" {
+		parts = append(parts, strconv.Quote(f.Term))
+	}
+	if f.Year > 0 {
+		parts = append(parts, strconv.Itoa(f.Year))
+	}
+	return strings.Join(parts, " ")
+}
+
+func (f Finding) String() string {
+	s := fmt.Sprintf("%s %s %s: %s", f.Severity, f.ID, f.Where(), f.Message)
+	if f.At != "" {
+		s += " (" + f.At + ")"
+	}
+	return s
+}
+
+// Input is one prepared output. Palette may be nil when the palette was
+// not checked.
+type Input struct {
+	Spec    *specs.Spec
+	Output  *specs.Output
+	Plan    *layout.Plan
+	Data    *series.Set
+	Fonts   *fonts.Set
+	Labels  []page.Label // as page.Feature.Labels returns them
+	Palette *palette.Report
+}
+
+// Check runs every check on in with the spec's thresholds
+// (specs.Preflight) and returns the findings sorted by severity (worst
+// first), then page, term and id.
+func Check(in Input) ([]Finding, error) {
+	if in.Spec == nil || in.Output == nil || in.Plan == nil || in.Data == nil || in.Fonts == nil {
+		return nil, fmt.Errorf("preflight: Check needs a spec, an output, a plan, data and fonts")
+	}
+	c := checker{in: in, th: in.Spec.Preflight, out: in.Output.Name, pageOf: pagesOf(in.Plan)}
+	c.typeSizes()
+	c.lines()
+	c.labels()
+	c.layout()
+	c.glyphs()
+	c.panels()
+	c.palette()
+	sort.SliceStable(c.found, func(i, j int) bool {
+		a, b := c.found[i], c.found[j]
+		if a.Severity != b.Severity {
+			return a.Severity > b.Severity
+		}
+		if a.Page != b.Page {
+			return a.Page < b.Page
+		}
+		if a.Term != b.Term {
+			return a.Term < b.Term
+		}
+		return a.ID < b.ID
+	})
+	return c.found, nil
+}
+
+// Stops reports whether findings stop a strict build: any at Warning or
+// above.
+func Stops(fs []Finding) bool {
+	for _, f := range fs {
+		if f.Severity >= Warning {
+			return true
+		}
+	}
+	return false
+}
+
+type checker struct {
+	in     Input
+	th     specs.Preflight
+	out    string
+	pageOf map[int]int // series index → 1-based page
+	found  []Finding
+}
+
+func (c *checker) add(f Finding) {
+	f.Output = c.out
+	c.found = append(c.found, f)
+}
+
+// pagesOf maps every panel's item to its page.
+func pagesOf(p *layout.Plan) map[int]int {
+	m := map[int]int{}
+	for i, pg := range p.Pages {
+		for _, pn := range pg.Panels {
+			m[pn.Item] = i + 1
+		}
+	}
+	return m
+}
+
+// units prints a length in the output's own unit.
+func (c *checker) units(l float64) string {
+	if c.in.Output.Kind == specs.Screen {
+		return strconv.FormatFloat(l*96/72, 'g', 4, 64) + " px"
+	}
+	return strconv.FormatFloat(l, 'g', 4, 64) + " pt"
+}
+
+// typeSizes compares every type size of the output with the floor: 5 pt
+// in print, 10 px on screen by default (common practice for figure text).
+func (c *checker) typeSizes() {
+	floor := c.th.MinType.Pt()
+	if c.in.Output.Kind == specs.Screen {
+		floor = c.th.MinScreenType.Pt()
+	}
+	if floor <= 0 {
+		return
+	}
+	t := c.in.Output.Type
+	for _, r := range []struct {
+		key  string
+		size specs.Length
+	}{{"title", t.Title}, {"dek", t.Dek}, {"label", t.Label}, {"ticks", t.Ticks}, {"key", t.Key},
+		{"notes", t.Notes}, {"folio", t.Folio}, {"heading", t.Heading}} {
+		if r.size > 0 && r.size.Pt() < floor-1e-9 {
+			c.add(Finding{ID: IDTypeFloor, Severity: Warning, At: c.in.Spec.Where(c.path("type." + r.key)).String(),
+				Message: fmt.Sprintf("type.%s is %s, below the %s floor; it may not be legible", r.key, c.units(r.size.Pt()), c.units(floor))})
+		}
+	}
+	// Labels may shrink below their size to fit (never under the floor
+	// page uses); report any that still ended below this floor.
+	for _, l := range c.in.Labels {
+		if l.Shrunk && l.Size < floor-1e-9 {
+			c.add(Finding{ID: IDTypeFloor, Severity: Warning, Page: c.pageOf[l.Item], Term: l.Term,
+				Message: fmt.Sprintf("label shrunk to %s, below the %s floor", c.units(l.Size), c.units(floor))})
+		}
+	}
+}
+
+func (c *checker) path(key string) string { return "outputs." + c.out + "." + key }
+
+// lines checks the chart line and the page's hairlines against the rule
+// floor in print: 0.25 pt by default (common practice; thinner rules may
+// break up on press). Screens have no such floor.
+func (c *checker) lines() {
+	floor := c.th.MinLine.Pt()
+	if c.in.Output.Kind != specs.Print || floor <= 0 {
+		return
+	}
+	if lw := c.in.Output.Line.Pt(); lw < floor-1e-9 {
+		c.add(Finding{ID: IDLineFloor, Severity: Warning, At: c.in.Spec.Where(c.path("line")).String(),
+			Message: fmt.Sprintf("chart lines are %s, below the %s floor for print; they may break up on press", c.units(lw), c.units(floor))})
+	}
+	if page.Hairline < floor-1e-9 {
+		c.add(Finding{ID: IDHairline, Severity: Warning, At: c.in.Spec.Where("preflight.min-line").String(),
+			Message: fmt.Sprintf("baselines, ticks and rules are %s hairlines, below the %s floor", c.units(page.Hairline), c.units(floor))})
+	}
+}
+
+// labels reports terms shrunk or cut to fit their panel.
+func (c *checker) labels() {
+	for _, l := range c.in.Labels {
+		switch {
+		case l.Truncated:
+			c.add(Finding{ID: IDLabelCut, Severity: Warning, Page: c.pageOf[l.Item], Term: l.Term,
+				Message: fmt.Sprintf("does not fit its panel: cut to %q at %s", l.Text, c.units(l.Size))})
+		case l.Shrunk:
+			c.add(Finding{ID: IDLabelShrunk, Severity: Info, Page: c.pageOf[l.Item], Term: l.Term,
+				Message: fmt.Sprintf("set at %s instead of %s to fit its panel", c.units(l.Size), c.units(c.in.Output.Type.Label.Pt()))})
+		}
+	}
+}
+
+func (c *checker) layout() {
+	for _, w := range c.in.Plan.Warnings {
+		at := ""
+		if w.Pos.File != "" {
+			at = w.Pos.String()
+		}
+		c.add(Finding{ID: IDLayout, Severity: Warning, At: at, Message: w.Message})
+	}
+}
+
+// glyphs checks every character the pages draw against the cmap of the
+// face that draws it: placed text in its style, headings, labels and the
+// key caption in bold, peak values and the unit in regular.
+func (c *checker) glyphs() {
+	type miss struct {
+		st fonts.Style
+		r  rune
+	}
+	seen := map[miss]bool{}
+	check := func(st fonts.Style, text, term string, pg int) {
+		f := c.in.Fonts.Font(st)
+		if f == nil || f.SFNT == nil {
+			return
+		}
+		for _, r := range text {
+			if unicode.IsControl(r) || seen[miss{st, r}] && term == "" {
+				continue
+			}
+			if f.SFNT.GlyphIndex(r) != 0 {
+				continue
+			}
+			msg := fmt.Sprintf("%s (%U) is not in %s (%s); it would print as an empty box", strconv.QuoteRune(r), r, c.in.Fonts.Name(st), st)
+			if term == "" {
+				seen[miss{st, r}] = true
+				msg += fmt.Sprintf(", in %q", clip(text, 40))
+			}
+			c.add(Finding{ID: IDGlyph, Severity: Error, Page: pg, Term: term, Message: msg})
+			if term != "" {
+				return // one finding per term is enough to fix it
+			}
+		}
+	}
+	for i, pg := range c.in.Plan.Pages {
+		for _, t := range pg.Text {
+			check(t.Style, t.Text, "", i+1)
+		}
+		for _, h := range pg.Headings {
+			check(fonts.Bold, h.Text, "", i+1)
+		}
+	}
+	check(fonts.Bold, "Colour shows the year", "", 0)
+	check(fonts.Regular, c.in.Data.Unit+" · 0123456789.", "", 0)
+	for i := range c.in.Data.Series {
+		sr := &c.in.Data.Series[i]
+		text := sr.Term
+		if i < len(c.in.Labels) && c.in.Labels[i].Truncated {
+			text += "…"
+		}
+		check(fonts.Bold, text, sr.Term, c.pageOf[i])
+	}
+}
+
+func clip(s string, n int) string {
+	r := []rune(s)
+	if len(r) <= n {
+		return s
+	}
+	return string(r[:n-1]) + "…"
+}
+
+// panels reports panels with nothing to draw and one-year spikes: a year
+// whose value is more than spike-ratio times the term's next-highest
+// year, because one long article can make a word look like a trend. It
+// compares the plotted values (the same ratio as counts when the values
+// are shares of one year's total only if totals are flat, so the plotted
+// value is what the reader sees).
+func (c *checker) panels() {
+	k := c.th.SpikeRatio
+	for i := range c.in.Data.Series {
+		sr := &c.in.Data.Series[i]
+		top, second, year := Spike(sr.Values)
+		if top <= 0 {
+			c.add(Finding{ID: IDNoData, Severity: Warning, Page: c.pageOf[i], Term: sr.Term,
+				Message: fmt.Sprintf("no data in %d–%d: every year is zero or a gap; the panel is empty", c.in.Data.Span.From, c.in.Data.Span.To)})
+			continue
+		}
+		if k <= 0 || top <= k*second {
+			continue
+		}
+		y := c.in.Data.Span.From + year
+		ratio := "no other year has any"
+		if second > 0 {
+			ratio = fmt.Sprintf("%.1f× its next-highest year", top/second)
+		}
+		c.add(Finding{ID: IDSpike, Severity: Review, Page: c.pageOf[i], Term: sr.Term, Year: y,
+			Message: fmt.Sprintf("%d stands alone: %s (over %g×); check it is not one long article", y, ratio, k)})
+	}
+}
+
+// Spike returns the highest of values, the highest of the other years,
+// and the index of the highest (the first, on ties). NaN values (gaps)
+// are skipped. With no positive value top is 0 and index -1.
+func Spike(values []float64) (top, second float64, index int) {
+	index = -1
+	for i, v := range values {
+		if math.IsNaN(v) || v <= 0 {
+			continue
+		}
+		switch {
+		case index < 0 || v > top:
+			second, top, index = top, v, i
+		case v > second:
+			second = v
+		}
+	}
+	return top, second, index
+}
+
+// palette turns the palette report into findings: its verdict, colours
+// out of gamut, and the other checks' warnings and failures.
+func (c *checker) palette() {
+	r := c.in.Palette
+	if r == nil {
+		return
+	}
+	verdict := "passes its checks"
+	if r.Failed() {
+		verdict = "fails a check (run sheaf palette for the table)"
+	}
+	c.add(Finding{ID: IDPalette, Severity: Info, Message: fmt.Sprintf("palette %s %s", r.Scale, verdict)})
+	for _, f := range r.Findings {
+		if f.Severity == palette.Info {
+			continue
+		}
+		id := IDPalette
+		if f.Check == palette.CheckGamut {
+			id = IDGamut
+		}
+		year := 0
+		if !math.IsNaN(f.Year) && f.Label != "" {
+			year = int(math.Round(f.Year))
+		}
+		c.add(Finding{ID: id, Severity: Warning, Year: year, At: c.in.Spec.Where("palette").String(),
+			Message: f.Check + ": " + f.Message})
+	}
+}

@@ -1,0 +1,317 @@
+package preflight
+
+import (
+	"math"
+	"os"
+	"os/exec"
+	"path/filepath"
+	"strconv"
+	"strings"
+	"testing"
+
+	"github.com/tdewolff/font"
+	"golang.org/x/image/font/gofont/goregular"
+
+	"sheaf/layout"
+	"sheaf/layout/fonts"
+	"sheaf/palette"
+	"sheaf/render/page"
+	"sheaf/render/tooltest"
+	"sheaf/specs"
+	"sheaf/specs/series"
+)
+
+// specText is a small print spec over testdata (see testdata/README.md).
+// extra is appended to the print output's keys; top to the top level.
+func specText(extra, top string) string {
+	return `title: Preflight test
+data: {counts: counts.csv, totals: totals.csv}
+years: {from: 1900, to: 1905}
+terms: {list: [boiler, Maßstab, flash, silent]}
+scale: {values: raw}
+outputs:
+  print:
+    kind: print
+    trim: A5
+    columns: 2
+` + extra + top
+}
+
+// prepare loads the spec with the test data and runs Check.
+func prepare(t *testing.T, text string) []Finding {
+	t.Helper()
+	dir := t.TempDir()
+	for _, f := range []string{"counts.csv", "totals.csv"} {
+		b, err := os.ReadFile(filepath.Join("testdata", f))
+		if err != nil {
+			t.Fatal(err)
+		}
+		if err := os.WriteFile(filepath.Join(dir, f), b, 0o644); err != nil {
+			t.Fatal(err)
+		}
+	}
+	return checkSpec(t, dir, text)
+}
+
+func checkSpec(t *testing.T, dir, text string) []Finding {
+	t.Helper()
+	path := filepath.Join(dir, "spec.yaml")
+	if err := os.WriteFile(path, []byte(text), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	s, err := specs.Load(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	data, err := series.Load(s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	out := &s.Outputs[0]
+	fs, err := fonts.Load(s, out)
+	if err != nil {
+		t.Fatal(err)
+	}
+	var groups []layout.Group
+	for _, g := range data.Groups {
+		groups = append(groups, layout.Group{Heading: g.Heading, Count: g.Count})
+	}
+	plan, err := layout.Solve(s, out, fs, groups)
+	if err != nil {
+		t.Fatal(err)
+	}
+	sc, err := palette.NewScale("default", palette.DefaultAnchors(1900, 1905), nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	rep, err := palette.Check(sc, palette.FromRGB(palette.RGB{R: 1, G: 1, B: 1}), out.Line.Pt(), palette.Print, palette.DefaultThresholds())
+	if err != nil {
+		t.Fatal(err)
+	}
+	feat := page.NewFeature(s, out, plan, data, sc, fs)
+	got, err := Check(Input{Spec: s, Output: out, Plan: plan, Data: data, Fonts: fs, Labels: feat.Labels(), Palette: &rep})
+	if err != nil {
+		t.Fatal(err)
+	}
+	return got
+}
+
+// has reports whether a finding with id (and, if given, term and year)
+// is in fs, and returns it.
+func has(fs []Finding, id, term string, year int) (Finding, bool) {
+	for _, f := range fs {
+		if f.ID == id && (term == "" || f.Term == term) && (year == 0 || f.Year == year) {
+			return f, true
+		}
+	}
+	return Finding{}, false
+}
+
+// TestFindings runs Check over small specs, each made to trip (or not)
+// one check. Floors: 5 pt type and 0.25 pt rules in print are common
+// practice (print-facts.md in testdata of layout; no standard sets them);
+// the spike ratios are hand-computed in testdata/README.md.
+func TestFindings(t *testing.T) {
+	tests := []struct {
+		name     string
+		extra    string // output keys
+		top      string // top-level keys
+		want     []string
+		wantNot  []string
+		severity map[string]Severity
+	}{
+		{name: "defaults: spike and empty panel only",
+			want:     []string{"spike flash 1902", "no-data silent", "palette"},
+			wantNot:  []string{"spike boiler", "spike Maßstab", "type-floor", "line-floor", "hairline-floor", "glyph-missing"},
+			severity: map[string]Severity{"spike": Review, "no-data": Warning, "palette": Info}},
+		{name: "4 pt label and 0.1 pt line",
+			extra:    "    type: {label: 4pt}\n    line: 0.1pt\n",
+			want:     []string{"type-floor", "line-floor"},
+			severity: map[string]Severity{"type-floor": Warning, "line-floor": Warning}},
+		{name: "exactly at the floors is fine",
+			extra:   "    type: {label: 5pt, ticks: 5pt, key: 5pt, notes: 5pt, folio: 5pt}\n    line: 0.25pt\n",
+			wantNot: []string{"type-floor", "line-floor", "hairline-floor"}},
+		{name: "a higher rule floor catches the page's 0.25 pt hairlines",
+			top:  "preflight: {min-line: 0.3pt}\n",
+			want: []string{"hairline-floor"}, wantNot: []string{"line-floor"}},
+		{name: "spike ratio 2.5 catches Maßstab (9 vs 3)",
+			top:  "preflight: {spike-ratio: 2.5}\n",
+			want: []string{"spike Maßstab 1905", "spike flash 1902"}},
+		{name: "spike ratio 10 is not exceeded by flash (exactly 10×)",
+			top:     "preflight: {spike-ratio: 10}\n",
+			wantNot: []string{"spike flash"}},
+	}
+	for _, tt := range tests {
+		t.Run(tt.name, func(t *testing.T) {
+			got := prepare(t, specText(tt.extra, tt.top))
+			for _, w := range tt.want {
+				id, term, year := split(w)
+				f, ok := has(got, id, term, year)
+				if !ok {
+					t.Errorf("missing %q in\n%s", w, list(got))
+					continue
+				}
+				if sev, ok := tt.severity[id]; ok && f.Severity != sev {
+					t.Errorf("%s: severity %v, want %v", w, f.Severity, sev)
+				}
+				if f.Output != "print" || f.Message == "" {
+					t.Errorf("%s: output %q message %q", w, f.Output, f.Message)
+				}
+			}
+			for _, w := range tt.wantNot {
+				id, term, year := split(w)
+				if f, ok := has(got, id, term, year); ok {
+					t.Errorf("unexpected %v", f)
+				}
+			}
+		})
+	}
+}
+
+func split(w string) (id, term string, year int) {
+	parts := strings.Fields(w)
+	id = parts[0]
+	if len(parts) > 1 {
+		term = parts[1]
+	}
+	if len(parts) > 2 {
+		for _, c := range parts[2] {
+			year = year*10 + int(c-'0')
+		}
+	}
+	return
+}
+
+func list(fs []Finding) string {
+	var b strings.Builder
+	for _, f := range fs {
+		b.WriteString("  " + f.String() + "\n")
+	}
+	return b.String()
+}
+
+// TestFloorMessages checks the 4 pt label finding points at the spec line
+// that set it and names both sizes.
+func TestFloorMessages(t *testing.T) {
+	got := prepare(t, specText("    type: {label: 4pt}\n    line: 0.1pt\n", ""))
+	f, _ := has(got, IDTypeFloor, "", 0)
+	// "label" is on line 11 of specText, column 12, "line" on 12:5.
+	if !strings.HasSuffix(f.At, "spec.yaml:11:12") || !strings.Contains(f.Message, "type.label is 4 pt, below the 5 pt floor") {
+		t.Errorf("type finding %v", f)
+	}
+	l, _ := has(got, IDLineFloor, "", 0)
+	if !strings.HasSuffix(l.At, "spec.yaml:12:5") || !strings.Contains(l.Message, "0.1 pt, below the 0.25 pt floor") {
+		t.Errorf("line finding %v", l)
+	}
+	if !Stops(got) {
+		t.Error("Stops = false with warnings")
+	}
+}
+
+// TestMissingGlyph builds a font without "ß": Go Regular subset to
+// printable ASCII with github.com/tdewolff/font, written to a TTF.
+// fontconfig's fc-query confirms independently that U+00DF is in Go
+// Regular's charset and not in the subset's. The term "Maßstab" must then
+// be reported, and no ASCII term.
+func TestMissingGlyph(t *testing.T) {
+	sf, err := font.ParseSFNT(goregular.TTF, 0)
+	if err != nil {
+		t.Fatal(err)
+	}
+	ids := []uint16{0}
+	for r := rune(0x20); r < 0x7f; r++ {
+		if id := sf.GlyphIndex(r); id != 0 {
+			ids = append(ids, id)
+		}
+	}
+	sub, err := sf.Subset(ids, font.SubsetOptions{Tables: font.KeepMinTables})
+	if err != nil {
+		t.Fatal(err)
+	}
+	dir := t.TempDir()
+	ttf := filepath.Join(dir, "ascii.ttf")
+	if err := os.WriteFile(ttf, sub.Write(), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	full := filepath.Join(dir, "goregular.ttf")
+	if err := os.WriteFile(full, goregular.TTF, 0o644); err != nil {
+		t.Fatal(err)
+	}
+	for _, f := range []string{"counts.csv", "totals.csv"} {
+		b, _ := os.ReadFile(filepath.Join("testdata", f))
+		os.WriteFile(filepath.Join(dir, f), b, 0o644)
+	}
+	got := checkSpec(t, dir, specText("    fonts: {regular: goregular.ttf, bold: ascii.ttf}\n", ""))
+	f, ok := has(got, IDGlyph, "Maßstab", 0)
+	if !ok {
+		t.Fatalf("no glyph finding for Maßstab in\n%s", list(got))
+	}
+	if f.Severity != Error || !strings.Contains(f.Message, "U+00DF") || f.Page != 1 {
+		t.Errorf("finding %v", f)
+	}
+	for _, term := range []string{"boiler", "flash", "silent"} {
+		if g, ok := has(got, IDGlyph, term, 0); ok {
+			t.Errorf("ASCII term reported: %v", g)
+		}
+	}
+	// The regular face is the full Go font: the title, in bold, is ASCII
+	// and the unit line in regular has "·", which Go Regular has.
+	for _, g := range got {
+		if g.ID == IDGlyph && g.Term == "" {
+			t.Errorf("unexpected %v", g)
+		}
+	}
+
+	fcq := tooltest.Require(t, "fc-query", "fontconfig")
+	charset := func(path string) string {
+		out, err := exec.Command(fcq, "--format=%{charset}", path).Output()
+		if err != nil {
+			t.Fatalf("fc-query %s: %v", path, err)
+		}
+		return string(out)
+	}
+	// fc-query prints ranges of hex code points, like "20-7e a0-17f".
+	if covers(charset(ttf), 0xdf) || !covers(charset(full), 0xdf) {
+		t.Errorf("fc-query disagrees: subset %q, full %q", charset(ttf), charset(full))
+	}
+}
+
+// covers reads fontconfig's charset text ("20-7e a0-ff …") and reports
+// whether r is in it.
+func covers(charset string, r rune) bool {
+	for _, f := range strings.Fields(charset) {
+		lo, hi, _ := strings.Cut(f, "-")
+		if hi == "" {
+			hi = lo
+		}
+		a, err1 := strconv.ParseInt(lo, 16, 32)
+		b, err2 := strconv.ParseInt(hi, 16, 32)
+		if err1 == nil && err2 == nil && int64(r) >= a && int64(r) <= b {
+			return true
+		}
+	}
+	return false
+}
+
+// TestSpike checks Spike on hand-computed cases.
+func TestSpike(t *testing.T) {
+	nan := math.NaN()
+	tests := []struct {
+		values      []float64
+		top, second float64
+		index       int
+	}{
+		{[]float64{2, 3, 40, 3, 2, 4}, 40, 4, 2},
+		{[]float64{3, 0, 0, 0, 0, 9}, 9, 3, 5},
+		{[]float64{nan, 5, nan, 5}, 5, 5, 1}, // ties: the first, and the other counts as next
+		{[]float64{0, nan, 0}, 0, 0, -1},
+		{[]float64{0, 7, 0}, 7, 0, 1},
+		{nil, 0, 0, -1},
+	}
+	for _, tt := range tests {
+		top, second, i := Spike(tt.values)
+		if top != tt.top || second != tt.second || i != tt.index {
+			t.Errorf("Spike(%v) = %v, %v, %d; want %v, %v, %d", tt.values, top, second, i, tt.top, tt.second, tt.index)
+		}
+	}
+}
