@@ -50,6 +50,17 @@ func (s Style) String() string {
 // MarshalText writes the style's name, for JSON plans.
 func (s Style) MarshalText() ([]byte, error) { return []byte(s.String()), nil }
 
+// UnmarshalText reads what MarshalText writes.
+func (s *Style) UnmarshalText(b []byte) error {
+	for st := Style(0); st < numStyles; st++ {
+		if st.String() == string(b) {
+			*s = st
+			return nil
+		}
+	}
+	return fmt.Errorf("fonts: unknown style %q", b)
+}
+
 // Set is the fonts of one output, parsed once. A Set is safe for concurrent
 // use by its own methods; the *canvas.FontFace values it hands out share the
 // parsed fonts.
