@@ -71,11 +71,11 @@ func runBuild(args []string, stdout, stderr io.Writer) int {
 		preps = append(preps, p)
 	}
 	for _, p := range preps {
-		if p.out.Kind != specs.Print {
-			fmt.Fprintf(stderr, "sheaf build: output %q is a screen output; screen rendering is not in this build\n", p.out.Name)
-			continue
+		build := buildPrint
+		if p.out.Kind == specs.Screen {
+			build = buildScreen
 		}
-		files, err := buildPrint(j, p, dir, date)
+		files, err := build(j, p, dir, date)
 		if err != nil {
 			fmt.Fprintf(stderr, "sheaf build: output %q: %v\n", p.out.Name, err)
 			return exitFindings
