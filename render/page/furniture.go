@@ -42,7 +42,7 @@ func (f *Feature) key(p pen, pg *layout.Page) {
 	years := f.tickYears(x1-x0, tsize)
 	for _, y := range years {
 		x := x0 + (float64(y)-from)/(to-from)*(x1-x0)
-		p.line(x, strip.Y0, x, strip.Y0-tick, Hairline, ruleGrey)
+		p.line(x, strip.Y0, x, strip.Y0-tick, f.Rule(), ruleGrey)
 		p.text(fonts.Regular, tsize, inkSoft, x, base, canvas.Center, strconv.Itoa(y))
 	}
 	// What the height means, right-aligned in the band, level with the strip.

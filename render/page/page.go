@@ -73,6 +73,20 @@ var (
 // print rules (common practice; thinner lines may break up on press).
 const Hairline = 0.25
 
+// ScreenRule is the thinnest rule on screen: one CSS px (0.75 pt), the
+// finest line a display draws crisply at 1× (CSS Values and Units Level 3
+// §5.2 defines 1 px = 0.75 pt).
+const ScreenRule = 0.75
+
+// Rule is the width of baselines, ticks and rules in points: Hairline in
+// print, ScreenRule on screen.
+func (f *Feature) Rule() float64 {
+	if f.Output.Kind == specs.Screen {
+		return ScreenRule
+	}
+	return Hairline
+}
+
 // Draw draws page index i of the plan.
 // The context's units are canvas's millimetres.
 func (f *Feature) Draw(ctx *canvas.Context, i int) error {
@@ -176,7 +190,7 @@ func (f *Feature) placed(p pen, pg *layout.Page) {
 func (f *Feature) heading(p pen, h layout.Heading) {
 	size := f.Output.Type.Heading.Pt()
 	p.text(fonts.Bold, size, ink, h.Box.X0, h.Baseline, canvas.Left, h.Text)
-	p.line(h.Box.X0, h.Box.Y0, h.Box.X1, h.Box.Y0, Hairline, ruleGrey)
+	p.line(h.Box.X0, h.Box.Y0, h.Box.X1, h.Box.Y0, f.Rule(), ruleGrey)
 }
 
 // gradient returns the era palette as a horizontal gradient from x0 to x1.
@@ -227,7 +241,7 @@ func (f *Feature) panel(p pen, b *curve.Builder, pn layout.Panel) error {
 
 	pr := pn.Plot
 	// Baseline: the zero line, a hairline.
-	p.line(pr.X0, pr.Y0, pr.X1, pr.Y0, Hairline, ruleGrey)
+	p.line(pr.X0, pr.Y0, pr.X1, pr.Y0, f.Rule(), ruleGrey)
 
 	if pn.ShowTicks {
 		f.ticks(p, pn)
@@ -263,7 +277,7 @@ func (f *Feature) panel(p pen, b *curve.Builder, pn layout.Panel) error {
 	}
 	if out.PeakDot && sr.Peak > 0 {
 		pk := m.Apply(float64(sr.PeakYear), sr.Peak)
-		p.dot(pk.X, pk.Y, f.peakRadius(), f.colorAt(m, pk.X), f.PaperColor(), Hairline)
+		p.dot(pk.X, pk.Y, f.peakRadius(), f.colorAt(m, pk.X), f.PaperColor(), f.Rule())
 	}
 	return nil
 }
@@ -281,7 +295,7 @@ func (f *Feature) PlotMap(pn layout.Panel) (curve.Map, error) {
 	lw := f.Output.Line.Pt()
 	top := lw / 2
 	if f.Output.PeakDot {
-		top = math.Max(top, f.peakRadius()+Hairline)
+		top = math.Max(top, f.peakRadius()+f.Rule())
 	}
 	m, err := curve.NewMap(f.Data.Years[0], f.Data.Years[len(f.Data.Years)-1], 0, sr.YMax,
 		pr.X0, pr.X1, pr.Y0+lw/2, pr.Y1-top)
@@ -308,7 +322,7 @@ func (f *Feature) ticks(p pen, pn layout.Panel) {
 	base := pn.Ticks.Y1 - tick - f.Fonts.Metrics(fonts.Regular, size).Ascent - size*0.15
 	for _, y := range years {
 		x := pr.X0 + (float64(y)-from)/(to-from)*pr.W()
-		p.line(x, pr.Y0, x, pr.Y0-tick, Hairline, ruleGrey)
+		p.line(x, pr.Y0, x, pr.Y0-tick, f.Rule(), ruleGrey)
 	}
 	for _, y := range years {
 		x := pr.X0 + (float64(y)-from)/(to-from)*pr.W()
