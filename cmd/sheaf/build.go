@@ -1,28 +1,49 @@
 package main
 
 import (
+	"bytes"
+	"context"
+	"encoding/gob"
+	"errors"
 	"fmt"
 	"image"
+	"image/png"
 	"io"
+	"os"
+	"os/signal"
 	"path/filepath"
 	"runtime"
+	"sort"
+	"strings"
 	"sync"
+	"sync/atomic"
+	"syscall"
 	"time"
 
 	"github.com/tdewolff/canvas"
 
 	"sheaf/layout"
+	"sheaf/layout/fonts"
 	"sheaf/render/contact"
 	"sheaf/render/pdf"
+	"sheaf/render/preflight"
 	"sheaf/render/raster"
 	"sheaf/specs"
 )
 
 func runBuild(args []string, stdout, stderr io.Writer) int {
-	fs := newFlags("build", "SPEC [--out DIR] [--only OUTPUT]",
-		"Render every output of the spec: for print, one PDF with bleed and crop marks, a PNG proof per page\nand a contact sheet.", stderr)
+	fs := newFlags("build", "SPEC [--out DIR] [--only OUTPUT] [--strict] [--no-proofs] [--full] [--quiet]",
+		"Render every output of the spec: for print, one PDF with bleed and crop marks, a PNG proof per page\n"+
+			"and a contact sheet. Preflight runs first. Pages whose inputs did not change since the last build\n"+
+			"are reused from DIR/.cache; DIR/manifest.json records what went in and came out, and\n"+
+			"DIR/changes.txt and changes.json say what changed since the last build. The outputs are written\n"+
+			"beside DIR and swapped in only when all is done: an interrupted build leaves DIR as it was.", stderr)
 	outDir := fs.String("out", "", "folder for the outputs (default: out/ beside the spec)")
-	only := fs.String("only", "", "build only the output with this name")
+	only := fs.String("only", "", "build only the output with this name; the others' files are kept")
+	strict := fs.Bool("strict", false, "stop without writing anything when preflight finds warnings or errors")
+	noProofs := fs.Bool("no-proofs", false, "write no PNG proofs or contact sheet for print outputs")
+	full := fs.Bool("full", false, "encode every page afresh instead of reusing unchanged ones")
+	quiet := fs.Bool("quiet", false, "no progress line")
 	path, code, ok := startCommand(fs, args, stderr)
 	if !ok {
 		return code
@@ -65,26 +86,168 @@ func runBuild(args []string, stdout, stderr io.Writer) int {
 			fmt.Fprintln(stderr, err)
 			return exitBadInput
 		}
-		for _, w := range p.plan.Warnings {
-			fmt.Fprintln(stderr, "warning:", w)
-		}
 		preps = append(preps, p)
 	}
-	for _, p := range preps {
-		build := buildPrint
-		if p.out.Kind == specs.Screen {
-			build = buildScreen
-		}
-		files, err := build(j, p, dir, date)
-		if err != nil {
-			fmt.Fprintf(stderr, "sheaf build: output %q: %v\n", p.out.Name, err)
+	findings, err := runPreflight(j, preps)
+	if err != nil {
+		fmt.Fprintln(stderr, err)
+		return exitBadInput
+	}
+	writeFindings(stderr, findings, maxFindingsShown)
+	if (*strict || j.spec.Preflight.Strict) && preflight.Stops(findings) {
+		fmt.Fprintln(stderr, "sheaf build: strict preflight: stopped before writing anything (fix the warnings and errors above, or build without --strict)")
+		return exitFindings
+	}
+
+	ctx, stop := signal.NotifyContext(context.Background(), os.Interrupt, syscall.SIGTERM)
+	defer stop()
+	b := &build{ctx: ctx, j: j, final: dir, date: date, only: *only, noProofs: *noProofs, full: *full,
+		progress: newProgress(stderr, *quiet)}
+	files, err := b.run(preps)
+	b.progress.done()
+	if err != nil {
+		if ctx.Err() != nil {
+			fmt.Fprintf(stderr, "sheaf build: interrupted; %s is as it was before the build\n", dir)
 			return exitFindings
 		}
-		for _, f := range files {
-			fmt.Fprintln(stdout, f)
+		fmt.Fprintf(stderr, "sheaf build: %v\n", err)
+		fmt.Fprintf(stderr, "sheaf build: nothing was changed in %s\n", dir)
+		return exitFindings
+	}
+	for _, f := range files {
+		fmt.Fprintln(stdout, f)
+	}
+	b.changes.writeSummary(stderr)
+	return exitOK
+}
+
+// build is one run of `sheaf build`: everything is written into a stage
+// folder beside the final one, then swapped in.
+type build struct {
+	ctx      context.Context
+	j        *job
+	final    string // DIR
+	stage    *stage
+	date     time.Time
+	only     string
+	noProofs bool
+	full     bool
+	progress *progress
+
+	prev    *manifest
+	specSum string
+	outputs []outputEntry
+	pages   map[string][]pageEntry // by file path relative to DIR: PDFs and proofs
+	stats   []outputStats
+	fonts   []fontHash
+	changes *changeReport
+}
+
+// outputStats counts what a build did for one output.
+type outputStats struct {
+	Output       string `json:"output"`
+	Pages        int    `json:"pages"`
+	Encoded      int    `json:"encoded"`       // pages drawn and encoded
+	Reused       int    `json:"reused"`        // pages taken from the cache
+	ProofsDrawn  int    `json:"proofs_drawn"`  // proofs rasterized
+	ProofsReused int    `json:"proofs_reused"` // proofs kept from the last build
+}
+
+// Test hooks: encodeHook runs before a page is drawn for the PDF (not
+// for a page reused from the cache); an error from it fails the build.
+// commitHook runs just before the stage is swapped in.
+var (
+	encodeHook func(output string, page int) error
+	commitHook func(stage string) error
+)
+
+// run builds every prepared output into the stage and swaps it in. It
+// returns the files written, with their final paths.
+func (b *build) run(preps []*prepared) (files []string, err error) {
+	spec, err := os.ReadFile(b.j.spec.File)
+	if err != nil {
+		return nil, err
+	}
+	b.specSum = sumBytes(spec)
+	b.prev, err = readManifest(b.final)
+	if err != nil {
+		// A damaged manifest costs the change report and the cache, not the build.
+		fmt.Fprintf(b.progress.w, "sheaf build: warning: ignoring the previous manifest: %v\n", err)
+		b.prev = nil
+	}
+	b.stage, err = newStage(b.final)
+	if err != nil {
+		return nil, err
+	}
+	defer func() {
+		if err != nil {
+			b.stage.abort()
+		}
+	}()
+	b.pages = map[string][]pageEntry{}
+	for _, p := range preps {
+		if err := b.ctx.Err(); err != nil {
+			return nil, err
+		}
+		var written []string
+		if p.out.Kind == specs.Screen {
+			b.outputs = append(b.outputs, b.outputEntry(p, 0))
+			written, err = buildScreen(b.j, p, b.stage.dir, b.date)
+		} else {
+			written, err = b.buildPrint(p)
+		}
+		if err != nil {
+			return nil, fmt.Errorf("output %q: %w", p.out.Name, err)
+		}
+		b.fonts = append(b.fonts, fontHashes(p.out.Name, p.fonts)...)
+		files = append(files, written...)
+	}
+	// Inserts are built here, into b.stage.dir, when the spec has them.
+	if err := b.carry(); err != nil {
+		return nil, err
+	}
+	m, err := b.manifest()
+	if err != nil {
+		return nil, err
+	}
+	b.changes = compareManifests(b.prev, m, b.stats)
+	if err := writeJSONFile(filepath.Join(b.stage.dir, manifestFile), m); err != nil {
+		return nil, err
+	}
+	if err := writeJSONFile(filepath.Join(b.stage.dir, changesJSON), b.changes); err != nil {
+		return nil, err
+	}
+	if err := writeAtomic(filepath.Join(b.stage.dir, changesText), b.changes.writeText); err != nil {
+		return nil, err
+	}
+	if err := b.ctx.Err(); err != nil {
+		return nil, err
+	}
+	if commitHook != nil {
+		if err := commitHook(b.stage.dir); err != nil {
+			return nil, err
 		}
 	}
-	return exitOK
+	if err := b.stage.commit(); err != nil {
+		return nil, err
+	}
+	for i, f := range files {
+		if rel, err := filepath.Rel(b.stage.dir, f); err == nil && !strings.HasPrefix(rel, "..") {
+			files[i] = filepath.Join(b.final, rel)
+		}
+	}
+	return files, nil
+}
+
+// outputEntry lists an output's pages with their terms and input hashes.
+func (b *build) outputEntry(p *prepared, dpi float64) outputEntry {
+	e := outputEntry{Name: p.out.Name, Kind: string(p.out.Kind), Proofs: dpi}
+	fontSum := fontsSum(p.fonts)
+	for i := range p.plan.Pages {
+		e.Pages = append(e.Pages, pageEntry{Page: i + 1, Terms: pageTerms(b.j, p, i),
+			Inputs: pageInputs(b.j, p, i, b.setup(p, i), b.specSum, fontSum)})
+	}
+	return e
 }
 
 // boxes converts a layout page's boxes for the PDF writer.
@@ -93,30 +256,55 @@ func boxes(pg *layout.Page) pdf.PageBoxes {
 	return pdf.PageBoxes{Media: r(pg.Media), Bleed: r(pg.Bleed), Trim: r(pg.Trim)}
 }
 
-// buildPrint writes the PDF, the proofs and the contact sheet of a print
-// output and returns the files written.
-func buildPrint(j *job, p *prepared, dir string, date time.Time) ([]string, error) {
-	day := date.Format("2006-01-02")
+// setup is page i's boxes, marks and slug line. Screen pages have none.
+func (b *build) setup(p *prepared, i int) pdf.PageSetup {
+	if p.out.Kind != specs.Print {
+		return pdf.PageSetup{}
+	}
 	out := p.out
-	odir := filepath.Join(dir, out.Name)
+	pg := &p.plan.Pages[i]
+	setup := pdf.PageSetup{Boxes: boxes(pg)}
+	if out.Marks {
+		setup.Marks = &pdf.MarkOptions{}
+	}
+	if out.SlugLine {
+		if setup.Marks == nil {
+			setup.Marks = &pdf.MarkOptions{Length: 0.001}
+		}
+		setup.Slug = fmt.Sprintf("%s · %s · page %d of %d · %s", b.j.spec.Title, out.Name, i+1, len(p.plan.Pages), b.date.Format("2006-01-02"))
+	}
+	return setup
+}
+
+// buildPrint writes the PDF, the proofs and the contact sheet of a print
+// output into the stage and returns the files written.
+func (b *build) buildPrint(p *prepared) ([]string, error) {
+	out := p.out
+	dpi := 0.0
+	if !b.noProofs {
+		dpi = p.out.Proofs
+		if dpi <= 0 {
+			dpi = 100
+		}
+	}
+	entry := b.outputEntry(p, dpi)
+	st := outputStats{Output: out.Name, Pages: len(entry.Pages)}
+	odir := filepath.Join(b.stage.dir, out.Name)
 	pdfPath := filepath.Join(odir, out.Name+".pdf")
-	n := len(p.plan.Pages)
-	err := writeAtomic(pdfPath, func(w io.Writer) error {
-		pw := pdf.NewWriter(w, pdf.Options{Title: j.spec.Title, Version: version, Date: date})
-		for i := range p.plan.Pages {
-			pg := &p.plan.Pages[i]
-			setup := pdf.PageSetup{Boxes: boxes(pg)}
-			if out.Marks {
-				setup.Marks = &pdf.MarkOptions{}
+	encoded, err := b.encodePages(p, entry.Pages, &st)
+	if err != nil {
+		return nil, err
+	}
+	err = writeAtomic(pdfPath, func(w io.Writer) error {
+		pw := pdf.NewWriter(w, pdf.Options{Title: b.j.spec.Title, Version: version, Date: b.date})
+		// Pages from the cache name their fonts by hash only.
+		for _, st := range []fonts.Style{fonts.Regular, fonts.Bold, fonts.Italic} {
+			if _, err := pw.RegisterFont(p.fonts.Font(st)); err != nil {
+				return err
 			}
-			if out.SlugLine {
-				if setup.Marks == nil {
-					setup.Marks = &pdf.MarkOptions{Length: 0.001}
-				}
-				setup.Slug = fmt.Sprintf("%s · %s · page %d of %d · %s", j.spec.Title, out.Name, i+1, n, day)
-			}
-			i := i
-			if err := pw.AddPage(setup, func(c *canvas.Canvas) error { return p.feat.Draw(canvas.NewContext(c), i) }); err != nil {
+		}
+		for _, e := range encoded {
+			if err := pw.AddEncoded(e); err != nil {
 				return err
 			}
 		}
@@ -125,32 +313,155 @@ func buildPrint(j *job, p *prepared, dir string, date time.Time) ([]string, erro
 	if err != nil {
 		return nil, err
 	}
+	b.pages[rel(b.stage.dir, pdfPath)] = entry.Pages
 	files := []string{pdfPath}
-	proofs, err := writeProofs(p, odir)
-	if err != nil {
-		return nil, err
+	if dpi > 0 {
+		proofs, err := b.writeProofs(p, entry.Pages, dpi, odir, &st)
+		if err != nil {
+			return nil, err
+		}
+		files = append(files, proofs...)
 	}
-	return append(files, proofs...), nil
+	b.outputs = append(b.outputs, entry)
+	b.stats = append(b.stats, st)
+	return files, nil
 }
 
-// writeProofs renders a PNG of every page's trim area, pages in parallel,
-// and the contact sheet of all pages.
-func writeProofs(p *prepared, odir string) ([]string, error) {
-	dpi := p.out.Proofs
-	if dpi <= 0 {
-		dpi = 100
+func rel(root, path string) string {
+	r, err := filepath.Rel(root, path)
+	if err != nil {
+		return filepath.ToSlash(path)
 	}
-	n := len(p.plan.Pages)
-	files := make([]string, n)
-	thumbs := make([]image.Image, n)
+	return filepath.ToSlash(r)
+}
+
+// encodePages returns every page encoded for the PDF, in parallel: a
+// page whose inputs hash is in the previous build's cache is read from
+// it, the others are drawn and encoded and go into the new cache.
+func (b *build) encodePages(p *prepared, pages []pageEntry, st *outputStats) ([]*pdf.EncodedPage, error) {
+	out := p.out.Name
+	oldCache := filepath.Join(b.final, cacheDir, out)
+	newCache := filepath.Join(b.stage.dir, cacheDir, out)
+	if err := os.MkdirAll(newCache, 0o755); err != nil {
+		return nil, err
+	}
+	n := len(pages)
+	res := make([]*pdf.EncodedPage, n)
 	errs := make([]error, n)
+	var encodedN, reusedN atomic.Int64
+	b.progress.begin(out+": PDF pages", n)
+	work := make(chan int)
+	var wg sync.WaitGroup
+	for range runtime.GOMAXPROCS(0) {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			for i := range work {
+				if err := b.ctx.Err(); err != nil {
+					errs[i] = err
+					continue
+				}
+				name := pages[i].Inputs + ".page"
+				if !b.full {
+					if e, ok := reuse(filepath.Join(oldCache, name), filepath.Join(newCache, name)); ok {
+						res[i] = e
+						reusedN.Add(1)
+						b.progress.step()
+						continue
+					}
+				}
+				e, err := b.encode(p, i)
+				if err == nil {
+					err = writeAtomic(filepath.Join(newCache, name), func(w io.Writer) error { return gob.NewEncoder(w).Encode(e) })
+				}
+				res[i], errs[i] = e, err
+				encodedN.Add(1)
+				b.progress.step()
+			}
+		}()
+	}
+	for i := range n {
+		work <- i
+	}
+	close(work)
+	wg.Wait()
+	if err := b.ctx.Err(); err != nil {
+		return nil, err
+	}
+	for i, err := range errs {
+		if err != nil {
+			return nil, fmt.Errorf("page %d: %w", i+1, err)
+		}
+	}
+	st.Encoded, st.Reused = int(encodedN.Load()), int(reusedN.Load())
+	return res, nil
+}
+
+// encode draws and encodes page i.
+func (b *build) encode(p *prepared, i int) (*pdf.EncodedPage, error) {
+	if encodeHook != nil {
+		if err := encodeHook(p.out.Name, i+1); err != nil {
+			return nil, err
+		}
+	}
+	return pdf.EncodePage(b.setup(p, i), func(c *canvas.Canvas) error { return p.feat.Draw(canvas.NewContext(c), i) })
+}
+
+// reuse reads a cached page and links it into the new cache. Any problem
+// (missing, unreadable, damaged) means: encode it again.
+func reuse(old, new string) (*pdf.EncodedPage, bool) {
+	data, err := os.ReadFile(old)
+	if err != nil {
+		return nil, false
+	}
+	var e pdf.EncodedPage
+	if err := gob.NewDecoder(bytes.NewReader(data)).Decode(&e); err != nil || len(e.Content) == 0 {
+		return nil, false
+	}
+	if err := linkOrCopy(old, new); err != nil {
+		return nil, false
+	}
+	return &e, true
+}
+
+// writeProofs writes a PNG of every page's trim area, pages in parallel,
+// and the contact sheet. A proof whose page inputs and resolution match
+// the previous build's, and whose file is intact, is kept instead of
+// drawn again.
+func (b *build) writeProofs(p *prepared, pages []pageEntry, dpi float64, odir string, st *outputStats) ([]string, error) {
+	n := len(pages)
+	prevOut := b.prev.output(p.out.Name)
+	files := make([]string, n)
+	fresh := make([]image.Image, n) // drawn this build; nil when kept
+	errs := make([]error, n)
+	kept := make([]bool, n)
+	b.progress.begin(p.out.Name+": proofs", n)
 	sem := make(chan struct{}, runtime.GOMAXPROCS(0))
 	var wg sync.WaitGroup
-	for i := range p.plan.Pages {
+	for i := range n {
+		if b.ctx.Err() != nil {
+			break
+		}
+		path := filepath.Join(odir, "proofs", fmt.Sprintf("page-%03d.png", i+1))
+		files[i] = path
+		relp := rel(b.stage.dir, path)
+		b.pages[relp] = pages[i : i+1]
+		if !b.full && prevOut != nil && prevOut.Proofs == dpi {
+			if old := b.prev.file(relp); old != nil && len(old.Pages) == 1 && old.Pages[0].Inputs == pages[i].Inputs {
+				if keep(filepath.Join(b.final, relp), path, old.SHA256) {
+					kept[i] = true
+					st.ProofsReused++
+					b.progress.step()
+					continue
+				}
+			}
+		}
+		st.ProofsDrawn++
 		wg.Add(1)
 		sem <- struct{}{}
 		go func(i int) {
 			defer func() { <-sem; wg.Done() }()
+			defer b.progress.step()
 			pg := &p.plan.Pages[i]
 			region := raster.RegionOf(pg.Media.H(), dpi, pg.Trim.X0, pg.Trim.Y0, pg.Trim.X1, pg.Trim.Y1)
 			trim, err := raster.DrawRegion(pg.Media.H(), dpi, region, p.feat.PaperColor(), func(ctx *canvas.Context) error {
@@ -160,25 +471,143 @@ func writeProofs(p *prepared, odir string) ([]string, error) {
 				errs[i] = err
 				return
 			}
-			path := filepath.Join(odir, "proofs", fmt.Sprintf("page-%03d.png", i+1))
-			if err := writeAtomic(path, func(w io.Writer) error { return raster.WritePNG(w, trim) }); err != nil {
+			if err := writeAtomic(files[i], func(w io.Writer) error { return raster.WritePNG(w, trim) }); err != nil {
 				errs[i] = err
 				return
 			}
-			files[i] = path
-			thumbs[i] = contact.Thumbnail(trim, 240)
+			fresh[i] = trim
 		}(i)
 	}
 	wg.Wait()
-	for _, err := range errs {
-		if err != nil {
-			return nil, err
+	if err := b.ctx.Err(); err != nil {
+		return nil, err
+	}
+	if err := errors.Join(errs...); err != nil {
+		return nil, err
+	}
+	cpath := filepath.Join(odir, "contact.png")
+	files = append(files, cpath)
+	crel := rel(b.stage.dir, cpath)
+	b.pages[crel] = pages
+	if st.ProofsDrawn == 0 && prevOut != nil && samePages(prevOut.Pages, pages) {
+		if old := b.prev.file(crel); old != nil && keep(filepath.Join(b.final, crel), cpath, old.SHA256) {
+			return files, nil
 		}
 	}
+	thumbs := make([]image.Image, n)
+	for i := range n {
+		img := fresh[i]
+		if img == nil { // kept: the PNG holds the same pixels
+			f, err := os.Open(files[i])
+			if err != nil {
+				return nil, err
+			}
+			img, err = png.Decode(f)
+			f.Close()
+			if err != nil {
+				return nil, fmt.Errorf("reading proof %s: %w", files[i], err)
+			}
+		}
+		thumbs[i] = contact.Thumbnail(img, 240)
+	}
 	sheet := contact.Sheet(thumbs, 4)
-	cpath := filepath.Join(odir, "contact.png")
 	if err := writeAtomic(cpath, func(w io.Writer) error { return raster.WritePNG(w, sheet) }); err != nil {
 		return nil, err
 	}
-	return append(files, cpath), nil
+	return files, nil
+}
+
+func samePages(a, b []pageEntry) bool {
+	if len(a) != len(b) {
+		return false
+	}
+	for i := range a {
+		if a[i].Inputs != b[i].Inputs {
+			return false
+		}
+	}
+	return true
+}
+
+// keep links the previous build's file into the stage when its content
+// is still what the previous manifest recorded.
+func keep(old, new, sum string) bool {
+	got, _, err := sumFile(old)
+	if err != nil || got != sum {
+		return false
+	}
+	if err := os.MkdirAll(filepath.Dir(new), 0o755); err != nil {
+		return false
+	}
+	return linkOrCopy(old, new) == nil
+}
+
+// manifest describes the stage as it will be swapped in.
+func (b *build) manifest() (*manifest, error) {
+	s := b.j.spec
+	m := &manifest{Sheaf: version, Spec: fileHash{Path: filepath.Base(s.File), SHA256: b.specSum}}
+	for _, d := range []string{s.Data.Counts, s.Data.Totals} {
+		sum, _, err := sumFile(s.Resolve(d))
+		if err != nil {
+			return nil, err
+		}
+		m.Data = append(m.Data, fileHash{Path: d, SHA256: sum})
+	}
+	m.Terms = termHashes(b.j.data)
+	m.Fonts = b.fonts
+	m.Outputs = b.outputs
+	built := map[string]bool{}
+	for _, o := range b.outputs {
+		built[o.Name] = true
+	}
+	// Outputs kept from the last build (--only) keep their entries.
+	if b.prev != nil {
+		for _, o := range b.prev.Outputs {
+			if !built[o.Name] && b.stage.carried[o.Name] {
+				m.Outputs = append(m.Outputs, o)
+			}
+		}
+		for _, f := range b.prev.Fonts {
+			if !built[f.Output] && b.stage.carried[f.Output] {
+				m.Fonts = append(m.Fonts, f)
+			}
+		}
+	}
+	order := map[string]int{}
+	for i, o := range s.Outputs {
+		order[o.Name] = i
+	}
+	sort.SliceStable(m.Outputs, func(i, j int) bool { return order[m.Outputs[i].Name] < order[m.Outputs[j].Name] })
+	sort.SliceStable(m.Fonts, func(i, j int) bool { return order[m.Fonts[i].Output] < order[m.Fonts[j].Output] })
+
+	entries, err := os.ReadDir(b.stage.dir)
+	if err != nil {
+		return nil, err
+	}
+	for _, e := range entries {
+		name := e.Name()
+		if strings.HasPrefix(name, ".") || name == manifestFile || name == changesJSON || name == changesText || b.stage.foreign[name] {
+			continue
+		}
+		output := ""
+		if s.Output(name) != nil {
+			output = name
+		}
+		fs, err := hashFiles(b.stage.dir, name, output)
+		if err != nil {
+			return nil, err
+		}
+		for i := range fs {
+			if pg, ok := b.pages[fs[i].Path]; ok {
+				fs[i].Pages = pg
+			} else if !built[output] {
+				if old := b.prev.file(fs[i].Path); old != nil {
+					fs[i].Pages = old.Pages
+				}
+			}
+		}
+		m.Files = append(m.Files, fs...)
+	}
+	sort.Slice(m.Files, func(i, j int) bool { return m.Files[i].Path < m.Files[j].Path })
+	return m, nil
 }

@@ -1,0 +1,259 @@
+package main
+
+import (
+	"fmt"
+	"io"
+	"sort"
+	"strconv"
+	"strings"
+)
+
+// changeReport is what changed between the previous build's manifest and
+// this one: DIR/changes.json, DIR/changes.txt and the summary on stderr.
+// README documents it.
+type changeReport struct {
+	FirstBuild   bool           `json:"first_build"`
+	SheafChanged bool           `json:"sheaf_changed"` // another sheaf version
+	SpecChanged  bool           `json:"spec_changed"`
+	DataChanged  []string       `json:"data_changed"`  // data files whose bytes changed
+	FontsChanged []string       `json:"fonts_changed"` // "OUTPUT STYLE (NAME)"
+	Files        fileChanges    `json:"files"`
+	Pages        []pagesChanged `json:"pages"` // per changed PDF
+	Terms        []termChange   `json:"terms"` // terms whose data changed, came or went
+	Work         []outputStats  `json:"work"`  // pages encoded and reused, per output built
+}
+
+type fileChanges struct {
+	Added     []string `json:"added"`
+	Removed   []string `json:"removed"`
+	Changed   []string `json:"changed"`
+	Unchanged []string `json:"unchanged"`
+}
+
+// pagesChanged lists the pages of one PDF that differ from the last
+// build (pages past the shorter of the two count as changed).
+type pagesChanged struct {
+	File  string `json:"file"`
+	Pages []int  `json:"pages"`
+	Of    int    `json:"of"` // pages in the new PDF
+}
+
+// termChange is one term whose data changed ("changed"), is new
+// ("added") or left the selection ("removed"), and where it sits:
+// "OUTPUT p. N" in this build (last build for removed terms).
+type termChange struct {
+	Term   string   `json:"term"`
+	Change string   `json:"change"`
+	Pages  []string `json:"pages"`
+}
+
+// compareManifests builds the report. prev is nil on a first build.
+func compareManifests(prev, cur *manifest, work []outputStats) *changeReport {
+	r := &changeReport{Work: work, DataChanged: []string{}, FontsChanged: []string{}, Pages: []pagesChanged{}, Terms: []termChange{}}
+	r.Files = fileChanges{Added: []string{}, Removed: []string{}, Changed: []string{}, Unchanged: []string{}}
+	if prev == nil {
+		r.FirstBuild = true
+		for _, f := range cur.Files {
+			r.Files.Added = append(r.Files.Added, f.Path)
+		}
+		return r
+	}
+	r.SheafChanged = prev.Sheaf != cur.Sheaf
+	r.SpecChanged = prev.Spec.SHA256 != cur.Spec.SHA256
+	for i, d := range cur.Data {
+		if i >= len(prev.Data) || prev.Data[i].SHA256 != d.SHA256 || prev.Data[i].Path != d.Path {
+			r.DataChanged = append(r.DataChanged, d.Path)
+		}
+	}
+	oldFonts := map[string]string{}
+	for _, f := range prev.Fonts {
+		oldFonts[f.Output+" "+f.Style] = f.SHA256
+	}
+	for _, f := range cur.Fonts {
+		if sum, ok := oldFonts[f.Output+" "+f.Style]; ok && sum != f.SHA256 {
+			r.FontsChanged = append(r.FontsChanged, fmt.Sprintf("%s %s (%s)", f.Output, f.Style, f.Name))
+		}
+	}
+
+	seen := map[string]bool{}
+	for _, f := range cur.Files {
+		seen[f.Path] = true
+		old := prev.file(f.Path)
+		switch {
+		case old == nil:
+			r.Files.Added = append(r.Files.Added, f.Path)
+		case old.SHA256 != f.SHA256:
+			r.Files.Changed = append(r.Files.Changed, f.Path)
+			if strings.HasSuffix(f.Path, ".pdf") {
+				r.Pages = append(r.Pages, pagesChanged{File: f.Path, Pages: changedPages(old.Pages, f.Pages), Of: len(f.Pages)})
+			}
+		default:
+			r.Files.Unchanged = append(r.Files.Unchanged, f.Path)
+		}
+	}
+	for _, f := range prev.Files {
+		if !seen[f.Path] {
+			r.Files.Removed = append(r.Files.Removed, f.Path)
+		}
+	}
+
+	oldTerms := map[string]string{}
+	for _, t := range prev.Terms {
+		oldTerms[t.Term] = t.SHA256
+	}
+	newPlaces, oldPlaces := places(cur), places(prev)
+	for _, t := range cur.Terms {
+		sum, ok := oldTerms[t.Term]
+		switch {
+		case !ok:
+			r.Terms = append(r.Terms, termChange{Term: t.Term, Change: "added", Pages: newPlaces[t.Term]})
+		case sum != t.SHA256:
+			r.Terms = append(r.Terms, termChange{Term: t.Term, Change: "changed", Pages: newPlaces[t.Term]})
+		}
+		delete(oldTerms, t.Term)
+	}
+	var gone []string
+	for t := range oldTerms {
+		gone = append(gone, t)
+	}
+	sort.Strings(gone)
+	for _, t := range gone {
+		r.Terms = append(r.Terms, termChange{Term: t, Change: "removed", Pages: oldPlaces[t]})
+	}
+	for i := range r.Terms {
+		if r.Terms[i].Pages == nil {
+			r.Terms[i].Pages = []string{}
+		}
+	}
+	return r
+}
+
+// changedPages compares two PDFs' page lists by their inputs hashes.
+func changedPages(old, cur []pageEntry) []int {
+	out := []int{}
+	for i, p := range cur {
+		if i >= len(old) || old[i].Inputs != p.Inputs {
+			out = append(out, p.Page)
+		}
+	}
+	return out
+}
+
+// places maps every term to "OUTPUT p. N" for each page it is on.
+func places(m *manifest) map[string][]string {
+	out := map[string][]string{}
+	for _, o := range m.Outputs {
+		for _, p := range o.Pages {
+			for _, t := range p.Terms {
+				out[t] = append(out[t], o.Name+" p. "+strconv.Itoa(p.Page))
+			}
+		}
+	}
+	return out
+}
+
+// nothing reports whether the build changed no file.
+func (r *changeReport) nothing() bool {
+	return !r.FirstBuild && len(r.Files.Added)+len(r.Files.Removed)+len(r.Files.Changed) == 0
+}
+
+// writeText writes the report for people: changes.txt.
+func (r *changeReport) writeText(w io.Writer) error {
+	var b strings.Builder
+	r.text(&b, false)
+	_, err := io.WriteString(w, b.String())
+	return err
+}
+
+// writeSummary prints the report on stderr: the same, with long lists of
+// unchanged files left out.
+func (r *changeReport) writeSummary(w io.Writer) {
+	var b strings.Builder
+	r.text(&b, true)
+	io.WriteString(w, b.String())
+}
+
+func (r *changeReport) text(b *strings.Builder, short bool) {
+	list := func(title string, xs []string) {
+		if len(xs) == 0 {
+			return
+		}
+		fmt.Fprintf(b, "%s (%d):\n", title, len(xs))
+		for k, x := range xs {
+			if short && k == 20 {
+				fmt.Fprintf(b, "  … and %d more (see changes.txt)\n", len(xs)-k)
+				break
+			}
+			fmt.Fprintf(b, "  %s\n", x)
+		}
+	}
+	work := func() {
+		for _, s := range r.Work {
+			fmt.Fprintf(b, "%s: %d pages, %d encoded, %d reused", s.Output, s.Pages, s.Encoded, s.Reused)
+			if s.ProofsDrawn+s.ProofsReused > 0 {
+				fmt.Fprintf(b, "; proofs %d drawn, %d kept", s.ProofsDrawn, s.ProofsReused)
+			}
+			b.WriteString("\n")
+		}
+	}
+	switch {
+	case r.FirstBuild:
+		fmt.Fprintf(b, "first build: no earlier manifest to compare with; %d files written\n", len(r.Files.Added))
+		if !short {
+			list("added", r.Files.Added)
+		}
+		work()
+		return
+	case r.nothing():
+		fmt.Fprintf(b, "nothing changed since the last build (%d files unchanged)\n", len(r.Files.Unchanged))
+		work()
+		return
+	}
+	var why []string
+	if r.SheafChanged {
+		why = append(why, "sheaf version")
+	}
+	if r.SpecChanged {
+		why = append(why, "spec")
+	}
+	for _, d := range r.DataChanged {
+		why = append(why, "data "+d)
+	}
+	for _, f := range r.FontsChanged {
+		why = append(why, "font "+f)
+	}
+	if len(why) > 0 {
+		fmt.Fprintf(b, "changed inputs: %s\n", strings.Join(why, ", "))
+	}
+	var terms []string
+	for _, t := range r.Terms {
+		where := "not on any page"
+		if len(t.Pages) > 0 {
+			where = strings.Join(t.Pages, ", ")
+		}
+		terms = append(terms, fmt.Sprintf("%s %q: %s", t.Change, t.Term, where))
+	}
+	list("terms", terms)
+	var pages []string
+	for _, p := range r.Pages {
+		ps := make([]string, len(p.Pages))
+		for i, n := range p.Pages {
+			ps[i] = strconv.Itoa(n)
+		}
+		what := "pages " + strings.Join(ps, ", ")
+		if len(ps) == 0 {
+			what = "no page content (document-level change)"
+		}
+		pages = append(pages, fmt.Sprintf("%s: %s of %d", p.File, what, p.Of))
+	}
+	list("changed pages", pages)
+	list("changed files", r.Files.Changed)
+	list("added files", r.Files.Added)
+	list("removed files", r.Files.Removed)
+	if short {
+		fmt.Fprintf(b, "unchanged files: %d\n", len(r.Files.Unchanged))
+	} else {
+		list("unchanged files", r.Files.Unchanged)
+	}
+	work()
+}

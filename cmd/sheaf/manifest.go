@@ -1,0 +1,268 @@
+package main
+
+import (
+	"bytes"
+	"crypto/sha256"
+	"encoding/binary"
+	"encoding/hex"
+	"encoding/json"
+	"errors"
+	"fmt"
+	"hash"
+	"io"
+	"io/fs"
+	"math"
+	"os"
+	"path/filepath"
+	"sort"
+	"strings"
+
+	"sheaf/layout/fonts"
+	"sheaf/specs/series"
+)
+
+// Names of the files every build writes into its folder, beside the
+// outputs' folders.
+const (
+	manifestFile = "manifest.json"
+	changesJSON  = "changes.json"
+	changesText  = "changes.txt"
+	cacheDir     = ".cache" // encoded pages: .cache/OUTPUT/HASH.page
+)
+
+// manifest is DIR/manifest.json: what went into a build and what came
+// out, with enough hashes to tell the next build what changed. README
+// documents it.
+type manifest struct {
+	Sheaf   string        `json:"sheaf"` // sheaf version
+	Spec    fileHash      `json:"spec"`
+	Data    []fileHash    `json:"data"`
+	Fonts   []fontHash    `json:"fonts"`
+	Terms   []termHash    `json:"terms"` // every selected term, sorted by term
+	Outputs []outputEntry `json:"outputs"`
+	Files   []fileEntry   `json:"files"` // every file of every output, sorted by path
+}
+
+type fileHash struct {
+	Path   string `json:"path"`
+	SHA256 string `json:"sha256"`
+}
+
+type fontHash struct {
+	Output string `json:"output"`
+	Style  string `json:"style"`
+	Name   string `json:"name"`
+	Path   string `json:"path"` // "" for the Go fonts built into sheaf
+	SHA256 string `json:"sha256"`
+}
+
+// termHash is a term's data: its yearly counts and plotted values.
+type termHash struct {
+	Term   string `json:"term"`
+	SHA256 string `json:"sha256"`
+}
+
+type outputEntry struct {
+	Name   string      `json:"name"`
+	Kind   string      `json:"kind"`
+	Proofs float64     `json:"proof_dpi,omitempty"` // 0: no proofs were made
+	Pages  []pageEntry `json:"pages"`
+}
+
+// pageEntry is one page: the terms on it and the hash of everything that
+// decides its drawing (see pageInputs).
+type pageEntry struct {
+	Page   int      `json:"page"` // from 1
+	Terms  []string `json:"terms"`
+	Inputs string   `json:"inputs"`
+}
+
+type fileEntry struct {
+	Path   string      `json:"path"` // relative to DIR, with forward slashes
+	Output string      `json:"output,omitempty"`
+	SHA256 string      `json:"sha256"`
+	Size   int64       `json:"size"`
+	Pages  []pageEntry `json:"pages,omitempty"` // the PDF's pages, or the page a proof shows
+}
+
+// readManifest reads DIR/manifest.json. No file is not an error: it
+// returns nil, nil.
+func readManifest(dir string) (*manifest, error) {
+	b, err := os.ReadFile(filepath.Join(dir, manifestFile))
+	if errors.Is(err, fs.ErrNotExist) {
+		return nil, nil
+	}
+	if err != nil {
+		return nil, err
+	}
+	var m manifest
+	if err := json.Unmarshal(b, &m); err != nil {
+		return nil, fmt.Errorf("%s: %v", filepath.Join(dir, manifestFile), err)
+	}
+	return &m, nil
+}
+
+// encodeJSON is json with two-space indent, HTML characters left alone.
+func encodeJSON(w io.Writer, v any) error {
+	enc := json.NewEncoder(w)
+	enc.SetIndent("", "  ")
+	enc.SetEscapeHTML(false)
+	return enc.Encode(v)
+}
+
+func (m *manifest) output(name string) *outputEntry {
+	if m == nil {
+		return nil
+	}
+	for i := range m.Outputs {
+		if m.Outputs[i].Name == name {
+			return &m.Outputs[i]
+		}
+	}
+	return nil
+}
+
+func (m *manifest) file(path string) *fileEntry {
+	if m == nil {
+		return nil
+	}
+	i := sort.Search(len(m.Files), func(i int) bool { return m.Files[i].Path >= path })
+	if i < len(m.Files) && m.Files[i].Path == path {
+		return &m.Files[i]
+	}
+	for i := range m.Files { // a hand-edited manifest may be unsorted
+		if m.Files[i].Path == path {
+			return &m.Files[i]
+		}
+	}
+	return nil
+}
+
+func hexSum(h hash.Hash) string { return hex.EncodeToString(h.Sum(nil)) }
+
+func sumBytes(b []byte) string {
+	s := sha256.Sum256(b)
+	return hex.EncodeToString(s[:])
+}
+
+// sumFile returns the SHA-256 and size of a file.
+func sumFile(path string) (string, int64, error) {
+	f, err := os.Open(path)
+	if err != nil {
+		return "", 0, err
+	}
+	defer f.Close()
+	h := sha256.New()
+	n, err := io.Copy(h, f)
+	if err != nil {
+		return "", 0, fmt.Errorf("reading %s: %w", path, err)
+	}
+	return hexSum(h), n, nil
+}
+
+// hasher writes values into a SHA-256 unambiguously: strings with their
+// length, floats by their bits.
+type hasher struct{ h hash.Hash }
+
+func newHasher(kind string) *hasher {
+	h := &hasher{sha256.New()}
+	h.str(kind)
+	return h
+}
+
+func (h *hasher) str(s string) {
+	h.int(len(s))
+	io.WriteString(h.h, s)
+}
+
+func (h *hasher) int(n int) {
+	var b [8]byte
+	binary.LittleEndian.PutUint64(b[:], uint64(n))
+	h.h.Write(b[:])
+}
+
+func (h *hasher) float(v float64) {
+	var b [8]byte
+	binary.LittleEndian.PutUint64(b[:], math.Float64bits(v))
+	h.h.Write(b[:])
+}
+
+func (h *hasher) floats(vs []float64) {
+	h.int(len(vs))
+	for _, v := range vs {
+		h.float(v)
+	}
+}
+
+func (h *hasher) sum() string { return hexSum(h.h) }
+
+// termSum is the hash of a term's data as drawn: counts and plotted
+// values, year by year.
+func termSum(sr *series.Series) string {
+	h := newHasher("sheaf term v1")
+	h.str(sr.Term)
+	h.floats(sr.Counts)
+	h.floats(sr.Values)
+	return h.sum()
+}
+
+func termHashes(d *series.Set) []termHash {
+	ts := make([]termHash, len(d.Series))
+	for i := range d.Series {
+		ts[i] = termHash{Term: d.Series[i].Term, SHA256: termSum(&d.Series[i])}
+	}
+	sort.Slice(ts, func(i, j int) bool { return ts[i].Term < ts[j].Term })
+	return ts
+}
+
+// fontHashes lists the fonts of an output with the hash of their raw
+// bytes; the built-in Go fonts too, so a sheaf upgrade that changes them
+// shows.
+func fontHashes(output string, fs *fonts.Set) []fontHash {
+	var out []fontHash
+	for _, st := range []fonts.Style{fonts.Regular, fonts.Bold, fonts.Italic} {
+		out = append(out, fontHash{Output: output, Style: st.String(), Name: fs.Name(st), Path: fs.Path(st), SHA256: sumBytes(fs.Bytes(st))})
+	}
+	return out
+}
+
+// hashFiles hashes every regular file under root/sub (a path relative to
+// root) and returns entries with slash paths relative to root.
+func hashFiles(root, sub, output string) ([]fileEntry, error) {
+	var out []fileEntry
+	base := filepath.Join(root, sub)
+	err := filepath.WalkDir(base, func(p string, d fs.DirEntry, err error) error {
+		if err != nil {
+			if errors.Is(err, fs.ErrNotExist) && p == base {
+				return filepath.SkipDir
+			}
+			return err
+		}
+		if !d.Type().IsRegular() || strings.HasPrefix(d.Name(), ".") {
+			return nil
+		}
+		sum, size, err := sumFile(p)
+		if err != nil {
+			return err
+		}
+		rel, err := filepath.Rel(root, p)
+		if err != nil {
+			return err
+		}
+		out = append(out, fileEntry{Path: filepath.ToSlash(rel), Output: output, SHA256: sum, Size: size})
+		return nil
+	})
+	return out, err
+}
+
+// writeJSONFile writes v as indented JSON to path, atomically.
+func writeJSONFile(path string, v any) error {
+	return writeAtomic(path, func(w io.Writer) error { return encodeJSON(w, v) })
+}
+
+// equalJSON compares two values by their JSON, for tests and sanity.
+func equalJSON(a, b any) bool {
+	x, _ := json.Marshal(a)
+	y, _ := json.Marshal(b)
+	return bytes.Equal(x, y)
+}

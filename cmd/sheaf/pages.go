@@ -1,0 +1,86 @@
+package main
+
+import (
+	"encoding/json"
+
+	"sheaf/layout/fonts"
+	"sheaf/render/pdf"
+)
+
+// pageInputs is the hash of everything that decides how page i of an
+// output is drawn. Equal hashes mean equal pages, so the build reuses the
+// page encoded last time. What goes in, and why it is enough:
+//
+//   - the sheaf version (the drawing code);
+//   - the SHA-256 of the spec file (every setting: type, margins, palette,
+//     title, date — any edit, even a comment, redraws every page, the
+//     simple and honest choice);
+//   - the output name, the page index and the page count;
+//   - the page setup (boxes, marks, slug line, which carries the date);
+//   - the page's layout as computed (text lines, headings, panel boxes),
+//     which also covers group sizes decided by the data;
+//   - for every panel on it: the term, its plotted values, peak, peak
+//     year, y-range top and how its label is set;
+//   - the span, the years, the unit and the shared y-range top (the key
+//     prints it);
+//   - the palette as gradient stops;
+//   - the SHA-256 of each font's bytes.
+func pageInputs(j *job, p *prepared, i int, setup pdf.PageSetup, specSum, fontSum string) string {
+	h := newHasher("sheaf page v1")
+	h.str(version)
+	h.str(specSum)
+	h.str(p.out.Name)
+	h.int(i)
+	h.int(len(p.plan.Pages))
+	if s, err := json.Marshal(setup); err == nil {
+		h.str(string(s))
+	}
+	pg := &p.plan.Pages[i]
+	if s, err := json.Marshal(pg); err == nil {
+		h.str(string(s))
+	}
+	d := j.data
+	labels := p.feat.Labels()
+	for _, pn := range pg.Panels {
+		sr := &d.Series[pn.Item]
+		h.str(sr.Term)
+		h.floats(sr.Values)
+		h.float(sr.Peak)
+		h.int(sr.PeakYear)
+		h.float(sr.YMax)
+		if pn.Item < len(labels) {
+			l := labels[pn.Item]
+			h.str(l.Text)
+			h.float(l.Size)
+		}
+	}
+	h.int(d.Span.From)
+	h.int(d.Span.To)
+	h.floats(d.Years)
+	h.str(d.Unit)
+	h.float(d.YMax)
+	for _, s := range p.feat.Stops {
+		r := s.Color
+		h.floats([]float64{s.Year, r.R, r.G, r.B})
+	}
+	h.str(fontSum)
+	return h.sum()
+}
+
+// fontsSum is one hash over the SHA-256 of each of an output's fonts.
+func fontsSum(fs *fonts.Set) string {
+	h := newHasher("sheaf fonts v1")
+	for _, st := range []fonts.Style{fonts.Regular, fonts.Bold, fonts.Italic} {
+		h.str(sumBytes(fs.Bytes(st)))
+	}
+	return h.sum()
+}
+
+// pageTerms lists the terms on page i, in panel order.
+func pageTerms(j *job, p *prepared, i int) []string {
+	terms := []string{}
+	for _, pn := range p.plan.Pages[i].Panels {
+		terms = append(terms, j.data.Series[pn.Item].Term)
+	}
+	return terms
+}

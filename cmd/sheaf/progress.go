@@ -1,0 +1,88 @@
+package main
+
+import (
+	"fmt"
+	"io"
+	"os"
+	"sync"
+	"time"
+)
+
+// progress shows "OUTPUT: STAGE done/total" on one line of a terminal
+// while a build runs longer than progressDelay. It is silent when stderr
+// is not a terminal (piped, redirected, in tests) or with --quiet. The
+// clock it reads decides only when to draw the line, never any output.
+type progress struct {
+	w     io.Writer
+	on    bool
+	start time.Time
+	now   func() time.Time
+
+	mu          sync.Mutex
+	label       string
+	done_, all  int
+	shown, last time.Time
+	width       int
+}
+
+// Delays of the progress line: shown after a second, redrawn at most
+// ten times a second.
+const (
+	progressDelay = time.Second
+	progressEvery = 100 * time.Millisecond
+)
+
+func newProgress(w io.Writer, quiet bool) *progress {
+	return &progress{w: w, on: !quiet && isTerminal(w), start: time.Now(), now: time.Now}
+}
+
+// isTerminal reports whether w is a character device: a terminal.
+func isTerminal(w io.Writer) bool {
+	f, ok := w.(*os.File)
+	if !ok {
+		return false
+	}
+	fi, err := f.Stat()
+	return err == nil && fi.Mode()&os.ModeCharDevice != 0
+}
+
+// begin starts counting a stage of total steps.
+func (p *progress) begin(label string, total int) {
+	p.mu.Lock()
+	defer p.mu.Unlock()
+	p.label, p.done_, p.all = label, 0, total
+	p.draw(true)
+}
+
+// step counts one step done. Safe for concurrent use.
+func (p *progress) step() {
+	p.mu.Lock()
+	defer p.mu.Unlock()
+	p.done_++
+	p.draw(p.done_ == p.all)
+}
+
+func (p *progress) draw(force bool) {
+	if !p.on {
+		return
+	}
+	now := p.now()
+	if now.Sub(p.start) < progressDelay || !force && now.Sub(p.last) < progressEvery {
+		return
+	}
+	p.last = now
+	line := fmt.Sprintf("%s %d/%d", p.label, p.done_, p.all)
+	pad := max(0, p.width-len(line))
+	fmt.Fprintf(p.w, "\r%s%*s", line, pad, "")
+	p.width = len(line)
+	p.shown = now
+}
+
+// done clears the line, if one was drawn.
+func (p *progress) done() {
+	p.mu.Lock()
+	defer p.mu.Unlock()
+	if p.on && !p.shown.IsZero() {
+		fmt.Fprintf(p.w, "\r%*s\r", p.width, "")
+	}
+}

@@ -1,0 +1,228 @@
+package main
+
+import (
+	"errors"
+	"fmt"
+	"io"
+	"io/fs"
+	"os"
+	"path/filepath"
+	"strconv"
+	"strings"
+)
+
+// stage is the folder a build writes into: a sibling of the final folder
+// DIR named .DIR.stage-PID-RANDOM, so both are on one file system and the
+// finished stage can be swapped in with one rename. Until then DIR is
+// untouched: an error, Ctrl-C or kill leaves the previous outputs and
+// manifest as they were.
+type stage struct {
+	dir   string
+	final string
+	// carried are the top-level names linked in from DIR because this
+	// build did not make them: outputs not built (--only) and, in
+	// foreign, files sheaf did not write (a palette swatch folder, notes).
+	carried map[string]bool
+	foreign map[string]bool
+}
+
+const stageMark = ".stage-"
+
+// newStage makes a stage beside final, after removing stages left by
+// builds that were killed outright (their process is gone).
+func newStage(final string) (*stage, error) {
+	abs, err := filepath.Abs(final)
+	if err != nil {
+		return nil, err
+	}
+	if fi, err := os.Stat(abs); err == nil && !fi.IsDir() {
+		return nil, fmt.Errorf("%s is a file, not a folder", final)
+	}
+	parent, base := filepath.Dir(abs), filepath.Base(abs)
+	if err := os.MkdirAll(parent, 0o755); err != nil {
+		return nil, err
+	}
+	removeStaleStages(parent, base)
+	dir, err := os.MkdirTemp(parent, "."+base+stageMark+strconv.Itoa(os.Getpid())+"-")
+	if err != nil {
+		return nil, err
+	}
+	if err := os.Chmod(dir, 0o755); err != nil {
+		os.RemoveAll(dir)
+		return nil, err
+	}
+	return &stage{dir: dir, final: abs, carried: map[string]bool{}, foreign: map[string]bool{}}, nil
+}
+
+// removeStaleStages removes .BASE.stage-PID-* folders whose process no
+// longer runs. A stage of a running build (another sheaf into the same
+// DIR) is left alone.
+func removeStaleStages(parent, base string) {
+	entries, err := os.ReadDir(parent)
+	if err != nil {
+		return
+	}
+	prefix := "." + base + stageMark
+	for _, e := range entries {
+		name := e.Name()
+		if !e.IsDir() || !strings.HasPrefix(name, prefix) {
+			continue
+		}
+		pidText, _, _ := strings.Cut(strings.TrimPrefix(name, prefix), "-")
+		pid, err := strconv.Atoi(pidText)
+		if err != nil || pid <= 0 || processAlive(pid) {
+			continue
+		}
+		os.RemoveAll(filepath.Join(parent, name))
+	}
+}
+
+// abort removes the stage.
+func (s *stage) abort() { os.RemoveAll(s.dir) }
+
+// commit puts the stage in place of the final folder: an atomic exchange
+// where the system has one, else the old folder is renamed aside first.
+// The old folder is removed afterwards.
+func (s *stage) commit() error {
+	if _, err := os.Lstat(s.final); errors.Is(err, fs.ErrNotExist) {
+		return os.Rename(s.dir, s.final)
+	}
+	if err := exchange(s.dir, s.final); err == nil {
+		// s.dir now holds the previous build.
+		return os.RemoveAll(s.dir)
+	}
+	aside := s.dir + "-old"
+	if err := os.Rename(s.final, aside); err != nil {
+		return fmt.Errorf("moving the previous %s aside: %w", s.final, err)
+	}
+	if err := os.Rename(s.dir, s.final); err != nil {
+		// Put the old one back: DIR must never be left missing.
+		if rerr := os.Rename(aside, s.final); rerr != nil {
+			return fmt.Errorf("moving the new build in: %v; the previous build is at %s", err, aside)
+		}
+		return fmt.Errorf("moving the new build in: %w", err)
+	}
+	return os.RemoveAll(aside)
+}
+
+// carry links into the stage what the final folder has and this build
+// did not make: with --only, the other outputs' folders and cached
+// pages; always, folders and files sheaf did not write (those the last
+// manifest does not list). Outputs the spec no longer has are dropped.
+func (b *build) carry() error {
+	s := b.stage
+	entries, err := os.ReadDir(s.final)
+	if errors.Is(err, fs.ErrNotExist) {
+		return nil
+	}
+	if err != nil {
+		return err
+	}
+	claimed := map[string]string{} // top-level name → output ("" for none)
+	if b.prev != nil {
+		for _, f := range b.prev.Files {
+			top, _, _ := strings.Cut(f.Path, "/")
+			claimed[top] = f.Output
+		}
+	}
+	for _, e := range entries {
+		name := e.Name()
+		switch name {
+		case manifestFile, changesJSON, changesText:
+			continue
+		case cacheDir:
+			if err := b.carryCache(); err != nil {
+				return err
+			}
+			continue
+		}
+		if strings.Contains(name, stageMark) {
+			continue
+		}
+		if _, err := os.Lstat(filepath.Join(s.dir, name)); err == nil {
+			continue // this build wrote it
+		}
+		out, ours := claimed[name]
+		switch {
+		case !ours:
+			s.foreign[name] = true
+		case b.only == "":
+			continue // a whole build: what it did not make is gone
+		case out != "" && b.j.spec.Output(out) == nil:
+			continue // the output left the spec
+		default:
+			s.carried[out] = true
+		}
+		if err := linkTree(filepath.Join(s.final, name), filepath.Join(s.dir, name)); err != nil {
+			return err
+		}
+	}
+	return nil
+}
+
+// carryCache links the cached pages of outputs this build did not make
+// (--only) and still in the spec.
+func (b *build) carryCache() error {
+	if b.only == "" {
+		return nil
+	}
+	for _, o := range b.j.spec.Outputs {
+		if o.Name == b.only {
+			continue
+		}
+		src := filepath.Join(b.final, cacheDir, o.Name)
+		if _, err := os.Stat(src); err != nil {
+			continue
+		}
+		if err := linkTree(src, filepath.Join(b.stage.dir, cacheDir, o.Name)); err != nil {
+			return err
+		}
+	}
+	return nil
+}
+
+// linkTree recreates the tree at src under dst with hard links (copies
+// where links fail). Symbolic links are recreated as they are.
+func linkTree(src, dst string) error {
+	return filepath.WalkDir(src, func(p string, d fs.DirEntry, err error) error {
+		if err != nil {
+			return err
+		}
+		r, err := filepath.Rel(src, p)
+		if err != nil {
+			return err
+		}
+		target := filepath.Join(dst, r)
+		switch {
+		case d.IsDir():
+			return os.MkdirAll(target, 0o755)
+		case d.Type()&fs.ModeSymlink != 0:
+			to, err := os.Readlink(p)
+			if err != nil {
+				return err
+			}
+			return os.Symlink(to, target)
+		case d.Type().IsRegular():
+			return linkOrCopy(p, target)
+		}
+		return nil // sockets, devices: not ours to carry
+	})
+}
+
+// linkOrCopy makes dst the same file as src: a hard link, or a copy
+// where the file system has none. Files are only ever replaced by
+// rename, never written in place, so sharing them is safe.
+func linkOrCopy(src, dst string) error {
+	if err := os.Link(src, dst); err == nil {
+		return nil
+	}
+	in, err := os.Open(src)
+	if err != nil {
+		return err
+	}
+	defer in.Close()
+	return writeAtomic(dst, func(w io.Writer) error {
+		_, err := io.Copy(w, in)
+		return err
+	})
+}
