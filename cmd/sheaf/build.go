@@ -203,6 +203,13 @@ func (b *build) run(preps []*prepared) (files []string, err error) {
 		files = append(files, written...)
 	}
 	// Inserts are built here, into b.stage.dir, when the spec has them.
+	if len(b.j.spec.Inserts) > 0 && (b.only == "" || insertsBorrow(b.j.spec, b.only)) {
+		written, err := buildInserts(b.j, b.stage.dir, b.date)
+		if err != nil {
+			return nil, fmt.Errorf("inserts: %w", err)
+		}
+		files = append(files, written...)
+	}
 	if err := b.carry(); err != nil {
 		return nil, err
 	}

@@ -1,0 +1,519 @@
+// Package insert draws an insert: a single graphic of one to four terms,
+// at its own size, for an article page. With two or more terms it is a
+// comparison panel: the terms share both axes (one y-range over all of
+// them), each line keeps the era palette along its length — colour still
+// means time — and the lines are told apart by their stroke (solid,
+// dashed, dotted, dash-dot) and by a label at each line's end. Labels that
+// would collide are moved apart along the y axis by Spread.
+//
+// Like the page composer it draws in points with y up, converting to
+// canvas's millimetres at the last moment, so the same drawing goes to
+// the PDF writer, the rasterizer and SVG.
+package insert
+
+import (
+	"fmt"
+	"image/color"
+	"math"
+	"strconv"
+	"strings"
+
+	"github.com/tdewolff/canvas"
+
+	"sheaf/layout/fonts"
+	"sheaf/palette"
+	"sheaf/render/curve"
+	"sheaf/render/page"
+	"sheaf/specs"
+	"sheaf/specs/series"
+)
+
+// mm is millimetres per point.
+const mm = 25.4 / 72
+
+// LineStyle is how one term's line is stroked in a comparison.
+type LineStyle struct {
+	Name string
+	// Dashes alternate dash and gap lengths in units of the line width
+	// (canvas's convention, canvas.ScaleDash); empty is solid. With round
+	// caps every dash grows by one line width, so a dash of 0.01 draws as
+	// a round dot and gaps must be over 1 to show.
+	Dashes []float64
+}
+
+// Styles are the line styles in the order terms get them: four patterns
+// that stay apart at any length because their periods differ in kind,
+// not only in scale.
+var Styles = [4]LineStyle{
+	{Name: "solid"},
+	{Name: "dashed", Dashes: []float64{5, 3.2}},
+	{Name: "dotted", Dashes: []float64{0.01, 2.6}},
+	{Name: "dash-dot", Dashes: []float64{5, 2.8, 0.01, 2.8}},
+}
+
+// Ink colours, as on the pages.
+var (
+	ink      = color.RGBA{0x1a, 0x1a, 0x1a, 0xff}
+	inkSoft  = color.RGBA{0x5c, 0x5c, 0x5c, 0xff}
+	ruleGrey = color.RGBA{0xc8, 0xc8, 0xc8, 0xff}
+	axisGrey = color.RGBA{0x9a, 0x9a, 0x9a, 0xff}
+)
+
+// Graphic is one insert, laid out and ready to draw.
+type Graphic struct {
+	Spec    *specs.Spec
+	Insert  *specs.Insert
+	Output  *specs.Output // the output whose type, fonts and line width it borrows
+	Data    *series.Set   // the insert's terms, in the insert's order
+	Palette palette.Scale
+	Fonts   *fonts.Set
+
+	w, h   float64 // size in points
+	rule   float64
+	pad    float64
+	title  []string
+	titleS float64
+	keyY   float64 // baseline of the key caption
+	plot   rectPt
+	yMax   float64
+	yTicks []float64
+	labels []Label
+	m      curve.Map
+	stops  []palette.Stop
+}
+
+type rectPt struct{ X0, Y0, X1, Y1 float64 }
+
+func (r rectPt) W() float64 { return r.X1 - r.X0 }
+func (r rectPt) H() float64 { return r.Y1 - r.Y0 }
+
+// Label is a term's label at its line's end.
+type Label struct {
+	Term     string
+	Style    LineStyle
+	EndX     float64 // where the line ends (points)
+	EndY     float64
+	Y        float64 // the label's placed centre
+	Baseline float64
+	X        float64 // left edge of the style sample
+	Width    float64 // sample + gap + text
+	Height   float64 // the line box the spacing keeps apart
+}
+
+// New lays out an insert of data's series (one to four, in order).
+func New(s *specs.Spec, in *specs.Insert, out *specs.Output, data *series.Set, pal palette.Scale, fs *fonts.Set) (*Graphic, error) {
+	where := func() string { return fmt.Sprintf("%s: insert %q", s.Where("inserts."+in.Name), in.Name) }
+	if n := len(data.Series); n < 1 || n > len(Styles) {
+		return nil, fmt.Errorf("%s: an insert shows 1 to %d terms, not %d", where(), len(Styles), n)
+	}
+	if len(data.Years) < 2 {
+		return nil, fmt.Errorf("%s: the span has %d year(s); a line needs two", where(), len(data.Years))
+	}
+	g := &Graphic{Spec: s, Insert: in, Output: out, Data: data, Palette: pal, Fonts: fs,
+		w: in.Size.W.Pt(), h: in.Size.H.Pt()}
+	if !(g.w > 0 && g.h > 0) {
+		return nil, fmt.Errorf("%s: size %s × %s has no area", where(), out.Describe(in.Size.W), out.Describe(in.Size.H))
+	}
+	from, to := float64(data.Span.From), float64(data.Span.To)
+	g.stops = pal.Stops(from, to, 0)
+	if err := g.layout(); err != nil {
+		return nil, fmt.Errorf("%s: %v", where(), err)
+	}
+	return g, nil
+}
+
+// Size is the insert's size in points.
+func (g *Graphic) Size() (w, h float64) { return g.w, g.h }
+
+// Labels returns the line-end labels as placed.
+func (g *Graphic) Labels() []Label { return g.labels }
+
+// YMax is the top of the shared y-range.
+func (g *Graphic) YMax() float64 { return g.yMax }
+
+func (g *Graphic) leading() float64 {
+	if l := g.Output.Type.Leading; l > 0 {
+		return l
+	}
+	return 1.2
+}
+
+// Title is the insert's title: as given, or the terms listed.
+func (g *Graphic) Title() string {
+	if g.Insert.Title != "" {
+		return g.Insert.Title
+	}
+	var terms []string
+	for _, sr := range g.Data.Series {
+		terms = append(terms, sr.Term)
+	}
+	return listing(terms)
+}
+
+func listing(xs []string) string {
+	switch len(xs) {
+	case 0:
+		return ""
+	case 1:
+		return xs[0]
+	}
+	return strings.Join(xs[:len(xs)-1], ", ") + " and " + xs[len(xs)-1]
+}
+
+// Describe returns the insert's title and a description for assistive
+// technology: the terms, their line styles, the span, the scale and the
+// peaks.
+func (g *Graphic) Describe() (title, desc string) {
+	d := g.Data
+	var b strings.Builder
+	if len(d.Series) == 1 {
+		sr := d.Series[0]
+		fmt.Fprintf(&b, "How often %q was used each year, %d–%d (%s); highest in %d.", sr.Term, d.Span.From, d.Span.To, d.Unit, sr.PeakYear)
+		return g.Title(), b.String()
+	}
+	var parts, peaks []string
+	for i, sr := range d.Series {
+		parts = append(parts, fmt.Sprintf("%q (%s line)", sr.Term, Styles[i].Name))
+		peaks = append(peaks, fmt.Sprintf("%q in %d", sr.Term, sr.PeakYear))
+	}
+	fmt.Fprintf(&b, "How often %s were used each year, %d–%d, on one scale (%s, 0 to %s). Highest: %s.",
+		listing(parts), d.Span.From, d.Span.To, d.Unit, formatValue(g.yMax), listing(peaks))
+	return g.Title(), b.String()
+}
+
+// layout places the title, the key, the plot and the labels.
+func (g *Graphic) layout() error {
+	t := g.Output.Type
+	fs := g.Fonts
+	g.rule = page.Hairline
+	if g.Output.Kind == specs.Screen {
+		g.rule = page.ScreenRule
+	}
+	lead := g.leading()
+	g.pad = math.Max(t.Label.Pt()*1.1, math.Min(g.w, g.h)*0.035)
+	inner := g.w - 2*g.pad
+	top := g.h - g.pad
+
+	// Title, wrapped to the width.
+	g.titleS = math.Max(t.Heading.Pt(), t.Dek.Pt()) * 1.1
+	g.title = fs.Wrap(fonts.Bold, g.titleS, g.Title(), inner)
+	top -= float64(len(g.title)) * g.titleS * lead
+
+	// Key: caption and strip on one line.
+	ks := t.Key.Pt()
+	top -= ks * 0.6
+	g.keyY = top - fs.Metrics(fonts.Bold, ks).Ascent
+	top -= ks*lead + t.Ticks.Pt()*lead + ks*0.6
+
+	// Bottom: the source line, then the year ticks.
+	bottom := g.pad
+	if g.Spec.Source != "" {
+		bottom += t.Notes.Pt() * lead * float64(len(fs.Wrap(fonts.Regular, t.Notes.Pt(), g.Spec.Source, inner)))
+		bottom += t.Notes.Pt() * 0.6
+	}
+	ts := t.Ticks.Pt()
+	bottom += ts*lead + ts*0.5
+
+	// Shared y-range: the largest value of any term, up to a round tick.
+	peak := 0.0
+	for _, sr := range g.Data.Series {
+		peak = math.Max(peak, sr.Peak)
+	}
+	if !(peak > 0) {
+		peak = 1
+	}
+	g.yTicks, g.yMax = niceTicks(peak, 4)
+
+	// Left: the y labels; right: the line-end labels.
+	left := 0.0
+	for _, v := range g.yTicks {
+		left = math.Max(left, fs.Width(fonts.Regular, ts, formatValue(v)))
+	}
+	ls := t.Label.Pt()
+	right := 0.0
+	for _, sr := range g.Data.Series {
+		right = math.Max(right, fs.Width(fonts.Bold, ls, sr.Term))
+	}
+	sample := g.sampleLen()
+	right += sample + ls*0.4 + ls*0.5
+	g.plot = rectPt{X0: g.pad + left + ts*0.6, Y0: bottom, X1: g.w - g.pad - right, Y1: top - ts*lead*0.5}
+	floorW, floorH := 6*ls, 4*ls
+	if g.plot.W() < floorW || g.plot.H() < floorH {
+		return fmt.Errorf("the plot would be %s × %s; make the insert larger (at least about %s × %s more) or its title shorter",
+			g.Output.Describe(specs.Length(math.Max(g.plot.W(), 0))), g.Output.Describe(specs.Length(math.Max(g.plot.H(), 0))),
+			g.Output.Describe(specs.Length(math.Max(0, floorW-g.plot.W()))), g.Output.Describe(specs.Length(math.Max(0, floorH-g.plot.H()))))
+	}
+
+	lw := g.Output.Line.Pt()
+	years := g.Data.Years
+	m, err := curve.NewMap(years[0], years[len(years)-1], 0, g.yMax, g.plot.X0, g.plot.X1, g.plot.Y0+lw/2, g.plot.Y1)
+	if err != nil {
+		return err
+	}
+	g.m = m
+
+	// Line ends and their labels.
+	lineH := ls * 1.15
+	var want []float64
+	g.labels = nil
+	for i := range g.Data.Series {
+		sr := &g.Data.Series[i]
+		k := len(sr.Values) - 1
+		for k >= 0 && math.IsNaN(sr.Values[k]) {
+			k--
+		}
+		if k < 0 {
+			return fmt.Errorf("term %q has no values in the span", sr.Term)
+		}
+		end := m.Apply(years[k], sr.Values[k])
+		want = append(want, end.Y)
+		g.labels = append(g.labels, Label{Term: sr.Term, Style: Styles[i], EndX: end.X, EndY: end.Y,
+			Width: sample + ls*0.4 + fs.Width(fonts.Bold, ls, sr.Term), Height: lineH})
+	}
+	placed, err := Spread(want, lineH, g.plot.Y0+lineH*0.4, g.plot.Y1)
+	if err != nil {
+		return fmt.Errorf("line-end labels: %v; make the insert taller", err)
+	}
+	capH := fs.Metrics(fonts.Bold, ls).CapHeight
+	for i := range g.labels {
+		l := &g.labels[i]
+		l.Y = placed[i]
+		l.Baseline = l.Y - capH/2
+		l.X = g.plot.X1 + ls*0.5
+	}
+	return nil
+}
+
+// sampleLen is the length of the line-style sample before a label: long
+// enough to show a whole dash-dot period.
+func (g *Graphic) sampleLen() float64 {
+	return math.Max(g.Output.Line.Pt()*15, g.Output.Type.Label.Pt()*1.6)
+}
+
+// niceTicks returns about n round tick values from 0 covering peak, and
+// the top tick: steps of 1, 2, 2.5 or 5 times a power of ten.
+func niceTicks(peak float64, n int) ([]float64, float64) {
+	raw := peak / float64(n)
+	p := math.Pow(10, math.Floor(math.Log10(raw)))
+	step := 10 * p
+	for _, f := range []float64{1, 2, 2.5, 5, 10} {
+		if f*p >= raw {
+			step = f * p
+			break
+		}
+	}
+	top := math.Ceil(peak/step-1e-9) * step
+	var ticks []float64
+	for k := 0; float64(k)*step <= top+step*1e-9; k++ {
+		ticks = append(ticks, float64(k)*step)
+	}
+	return ticks, top
+}
+
+// formatValue writes a tick value with no more digits than it needs.
+func formatValue(v float64) string {
+	if v == 0 {
+		return "0"
+	}
+	return strconv.FormatFloat(v, 'g', 4, 64)
+}
+
+// Paper is the background colour.
+func (g *Graphic) Paper() color.RGBA { return rgba(page.ColorOf(g.Spec.Palette.Paper).RGB()) }
+
+// Draw draws the insert; the context's units are canvas's millimetres
+// with the origin at the insert's lower-left corner.
+func (g *Graphic) Draw(ctx *canvas.Context) error {
+	t := g.Output.Type
+	fs := g.Fonts
+	lead := g.leading()
+	paper := g.Paper()
+	if paper != (color.RGBA{0xff, 0xff, 0xff, 0xff}) {
+		fillRect(ctx, 0, 0, g.w, g.h, paper, nil)
+	}
+	// Title.
+	y := g.h - g.pad
+	for _, line := range g.title {
+		base := fs.Baseline(fonts.Bold, g.titleS, lead, y)
+		text(ctx, fs, fonts.Bold, g.titleS, ink, g.pad, base, canvas.Left, line)
+		y -= g.titleS * lead
+	}
+	g.key(ctx)
+
+	// Grid: a rule at every y tick, labelled on the left.
+	ts := t.Ticks.Pt()
+	pr := g.plot
+	for i, v := range g.yTicks {
+		yy := g.m.Y(v)
+		col := ruleGrey
+		if i == 0 {
+			col = axisGrey
+		}
+		line(ctx, pr.X0, yy, pr.X1, yy, g.rule, col, nil)
+		mt := fs.Metrics(fonts.Regular, ts)
+		text(ctx, fs, fonts.Regular, ts, inkSoft, pr.X0-ts*0.6, yy-mt.CapHeight/2, canvas.Right, formatValue(v))
+	}
+	// What the values are, above the y labels.
+	text(ctx, fs, fonts.Regular, ts, inkSoft, g.pad, pr.Y1+ts*0.5, canvas.Left, g.Data.Unit)
+
+	// Year ticks.
+	tick := ts * 0.35
+	base := pr.Y0 - tick - fs.Metrics(fonts.Regular, ts).Ascent - ts*0.15
+	for _, yr := range tickYears(fs, g.Data.Span, pr.W(), ts) {
+		x := g.m.X(float64(yr))
+		line(ctx, x, pr.Y0, x, pr.Y0-tick, g.rule, axisGrey, nil)
+		text(ctx, fs, fonts.Regular, ts, inkSoft, x, base, canvas.Center, strconv.Itoa(yr))
+	}
+
+	// The lines, first term on top: drawn last.
+	lw := g.Output.Line.Pt()
+	var b curve.Builder
+	for i := len(g.Data.Series) - 1; i >= 0; i-- {
+		sr := &g.Data.Series[i]
+		b.Reset()
+		runs, err := b.Build(g.Data.Years, sr.Values, g.m, nil)
+		if err != nil {
+			return fmt.Errorf("insert %q, term %q: %w", g.Insert.Name, sr.Term, err)
+		}
+		path := &canvas.Path{}
+		for _, r := range runs {
+			if r.IsDot() {
+				c := g.colorAt(r.Start.X)
+				circle(ctx, r.Start.X, r.Start.Y, lw/2, c)
+				continue
+			}
+			path.MoveTo(r.Start.X*mm, r.Start.Y*mm)
+			for _, z := range r.Beziers {
+				path.CubeTo(z.P1.X*mm, z.P1.Y*mm, z.P2.X*mm, z.P2.Y*mm, z.P3.X*mm, z.P3.Y*mm)
+			}
+		}
+		if !path.Empty() {
+			ctx.ResetStyle()
+			ctx.SetFillColor(canvas.Transparent)
+			ctx.SetStrokeGradient(g.gradient(pr.X0, pr.X1, pr.Y0))
+			ctx.SetStrokeWidth(lw * mm)
+			ctx.SetStrokeCapper(canvas.RoundCap)
+			ctx.SetStrokeJoiner(canvas.RoundJoin)
+			ctx.SetDashes(0, Styles[i].Dashes...)
+			ctx.DrawPath(0, 0, path)
+		}
+	}
+
+	// Labels at the line ends, with a leader where a label had to move.
+	ls := t.Label.Pt()
+	sample := g.sampleLen()
+	for _, l := range g.labels {
+		if math.Abs(l.Y-l.EndY) > ls*0.25 {
+			line(ctx, l.EndX+lw, l.EndY, l.X-ls*0.15, l.Y, g.rule, axisGrey, nil)
+		}
+		line(ctx, l.X, l.Y, l.X+sample, l.Y, lw, inkSoft, &l.Style)
+		text(ctx, fs, fonts.Bold, ls, ink, l.X+sample+ls*0.4, l.Baseline, canvas.Left, l.Term)
+	}
+
+	// Source.
+	if g.Spec.Source != "" {
+		ns := t.Notes.Pt()
+		lines := fs.Wrap(fonts.Regular, ns, g.Spec.Source, g.w-2*g.pad)
+		for i, s := range lines {
+			by := g.pad + float64(len(lines)-1-i)*ns*lead + fs.Metrics(fonts.Regular, ns).Descent
+			text(ctx, fs, fonts.Regular, ns, inkSoft, g.pad, by, canvas.Left, s)
+		}
+	}
+	return nil
+}
+
+// key draws "Colour shows the year" and the era strip with its first and
+// last years, so the insert reads on its own.
+func (g *Graphic) key(ctx *canvas.Context) {
+	fs := g.Fonts
+	ks := g.Output.Type.Key.Pt()
+	ts := g.Output.Type.Ticks.Pt()
+	caption := "Colour shows the year"
+	capW := fs.Width(fonts.Bold, ks, caption)
+	text(ctx, fs, fonts.Bold, ks, ink, g.pad, g.keyY, canvas.Left, caption)
+	x0 := g.pad + capW + ks*0.8
+	x1 := math.Min(g.w-g.pad, x0+math.Max(capW*2.2, (g.w-2*g.pad)*0.45))
+	mt := fs.Metrics(fonts.Bold, ks)
+	sy0, sy1 := g.keyY, g.keyY+mt.CapHeight
+	fillRect(ctx, x0, sy0, x1, sy1, nil, g.gradient(x0, x1, sy0))
+	base := sy0 - ts*0.3 - fs.Metrics(fonts.Regular, ts).Ascent
+	text(ctx, fs, fonts.Regular, ts, inkSoft, x0, base, canvas.Left, strconv.Itoa(g.Data.Span.From))
+	text(ctx, fs, fonts.Regular, ts, inkSoft, x1, base, canvas.Right, strconv.Itoa(g.Data.Span.To))
+}
+
+// gradient is the era palette from x0 to x1.
+func (g *Graphic) gradient(x0, x1, y float64) *canvas.LinearGradient {
+	gr := canvas.NewLinearGradient(canvas.Point{X: x0 * mm, Y: y * mm}, canvas.Point{X: x1 * mm, Y: y * mm})
+	from, to := float64(g.Data.Span.From), float64(g.Data.Span.To)
+	for _, s := range g.stops {
+		gr.Add((s.Year-from)/(to-from), rgba(s.Color))
+	}
+	return gr
+}
+
+// colorAt is the palette's colour at plot x.
+func (g *Graphic) colorAt(x float64) color.RGBA {
+	from, to := float64(g.Data.Span.From), float64(g.Data.Span.To)
+	year := from + (x-g.m.X(from))/(g.m.X(to)-g.m.X(from))*(to-from)
+	return rgba(g.Palette.At(year).RGB())
+}
+
+// tickYears picks round years whose labels leave an em between them.
+func tickYears(fs *fonts.Set, span specs.Span, width, size float64) []int {
+	label := fs.Width(fonts.Regular, size, "0000") + size
+	perYear := width / float64(span.To-span.From)
+	for _, s := range []int{5, 10, 20, 25, 50, 100, 200, 250, 500, 1000} {
+		if float64(s)*perYear >= label {
+			var ys []int
+			for y := (span.From + s - 1) / s * s; y <= span.To; y += s {
+				ys = append(ys, y)
+			}
+			return ys
+		}
+	}
+	return nil
+}
+
+func rgba(c palette.RGB) color.RGBA {
+	r, g, b := c.Clip().RGB8()
+	return color.RGBA{r, g, b, 0xff}
+}
+
+func text(ctx *canvas.Context, fs *fonts.Set, st fonts.Style, size float64, col color.Color, x, y float64, align canvas.TextAlign, s string) {
+	if s == "" {
+		return
+	}
+	ctx.DrawText(x*mm, y*mm, canvas.NewTextLine(fs.Font(st).Face(size, col), s, align))
+}
+
+// line strokes a straight line; with a style, dashed and round-capped.
+func line(ctx *canvas.Context, x0, y0, x1, y1, width float64, col color.Color, st *LineStyle) {
+	ctx.ResetStyle()
+	ctx.SetFillColor(canvas.Transparent)
+	ctx.SetStrokeColor(col)
+	ctx.SetStrokeWidth(width * mm)
+	ctx.SetStrokeCapper(canvas.ButtCap)
+	if st != nil {
+		ctx.SetStrokeCapper(canvas.RoundCap)
+		ctx.SetDashes(0, st.Dashes...)
+	}
+	ctx.DrawPath(0, 0, canvas.Line((x1-x0)*mm, (y1-y0)*mm).Translate(x0*mm, y0*mm))
+}
+
+func fillRect(ctx *canvas.Context, x0, y0, x1, y1 float64, col color.Color, g *canvas.LinearGradient) {
+	ctx.ResetStyle()
+	ctx.SetStrokeColor(canvas.Transparent)
+	if g != nil {
+		ctx.SetFillGradient(g)
+	} else {
+		ctx.SetFillColor(col)
+	}
+	ctx.DrawPath(0, 0, canvas.Rectangle((x1-x0)*mm, (y1-y0)*mm).Translate(x0*mm, y0*mm))
+}
+
+func circle(ctx *canvas.Context, x, y, r float64, col color.Color) {
+	ctx.ResetStyle()
+	ctx.SetStrokeColor(canvas.Transparent)
+	ctx.SetFillColor(col)
+	ctx.DrawPath(x*mm, y*mm, canvas.Circle(r*mm))
+}
