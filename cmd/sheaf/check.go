@@ -8,6 +8,7 @@ import (
 
 	"sheaf/layout"
 	"sheaf/render/page"
+	"sheaf/render/preflight"
 	"sheaf/specs"
 	"sheaf/specs/series"
 )
@@ -20,6 +21,9 @@ type checkReport struct {
 	Years   yearsReport    `json:"years"`
 	Scale   scaleReport    `json:"scale"`
 	Outputs []outputReport `json:"outputs"`
+	// Preflight lists what the preflight checks found, worst first
+	// (see package preflight).
+	Preflight []preflight.Finding `json:"preflight"`
 }
 
 type termsReport struct {
@@ -64,8 +68,9 @@ type paletteSum struct {
 }
 
 func runCheck(args []string, stdout, stderr io.Writer) int {
-	fs := newFlags("check", "SPEC [--json]", "Validate the spec and its data and print a summary.", stderr)
-	asJSON := fs.Bool("json", false, "print the summary as a JSON object on stdout")
+	fs := newFlags("check", "SPEC [--json] [--strict]", "Validate the spec and its data, print a summary, and run the preflight checks\n(the findings table goes to stderr). Exit status 1 with --strict when preflight finds\nwarnings or errors.", stderr)
+	asJSON := fs.Bool("json", false, "print the summary and the findings as a JSON object on stdout")
+	strict := fs.Bool("strict", false, "exit with status 1 when preflight finds warnings or errors")
 	path, code, ok := startCommand(fs, args, stderr)
 	if !ok {
 		return code
@@ -80,6 +85,10 @@ func runCheck(args []string, stdout, stderr io.Writer) int {
 		fmt.Fprintln(stderr, err)
 		return exitBadInput
 	}
+	code = exitOK
+	if (*strict || job.spec.Preflight.Strict) && preflight.Stops(rep.Preflight) {
+		code = exitFindings
+	}
 	if *asJSON {
 		enc := json.NewEncoder(stdout)
 		enc.SetIndent("", "  ")
@@ -87,10 +96,11 @@ func runCheck(args []string, stdout, stderr io.Writer) int {
 			fmt.Fprintln(stderr, err)
 			return exitFindings
 		}
-		return exitOK
+		return code
 	}
 	writeSummary(stdout, rep)
-	return exitOK
+	writeFindings(stderr, rep.Preflight, 0)
+	return code
 }
 
 // job is a loaded spec with its data.
@@ -129,12 +139,14 @@ func summarize(j *job) (checkReport, error) {
 	if err != nil {
 		return r, err
 	}
+	var preps []*prepared
 	for i := range s.Outputs {
 		o := &s.Outputs[i]
 		p, err := prepare(j, o)
 		if err != nil {
 			return r, err
 		}
+		preps = append(preps, p)
 		or := outputReport{Name: o.Name, Kind: string(o.Kind),
 			TrimPt: [2]float64{o.Trim.W.Pt(), o.Trim.H.Pt()}, Bleed: o.Bleed.Pt(),
 			Summary: p.plan.Summary(), Pages: len(p.plan.Pages), Layout: p.plan}
@@ -153,7 +165,11 @@ func summarize(j *job) (checkReport, error) {
 		}
 		r.Outputs = append(r.Outputs, or)
 	}
-	return r, nil
+	r.Preflight, err = runPreflight(j, preps)
+	if r.Preflight == nil {
+		r.Preflight = []preflight.Finding{}
+	}
+	return r, err
 }
 
 func writeSummary(w io.Writer, r checkReport) {

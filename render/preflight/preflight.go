@@ -53,6 +53,17 @@ func (s Severity) String() string {
 // MarshalText writes the severity's name, for JSON.
 func (s Severity) MarshalText() ([]byte, error) { return []byte(s.String()), nil }
 
+// UnmarshalText reads a severity's name.
+func (s *Severity) UnmarshalText(b []byte) error {
+	for _, v := range []Severity{Info, Review, Warning, Error} {
+		if string(b) == v.String() {
+			*s = v
+			return nil
+		}
+	}
+	return fmt.Errorf("preflight: unknown severity %q", b)
+}
+
 // Ids of the findings. They are stable: scripts may filter on them.
 const (
 	IDGlyph       = "glyph-missing"  // a character the font cannot draw
@@ -328,9 +339,7 @@ func clip(s string, n int) string {
 // panels reports panels with nothing to draw and one-year spikes: a year
 // whose value is more than spike-ratio times the term's next-highest
 // year, because one long article can make a word look like a trend. It
-// compares the plotted values (the same ratio as counts when the values
-// are shares of one year's total only if totals are flat, so the plotted
-// value is what the reader sees).
+// compares the plotted values, since that is the line the reader sees.
 func (c *checker) panels() {
 	k := c.th.SpikeRatio
 	for i := range c.in.Data.Series {
