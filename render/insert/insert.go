@@ -236,7 +236,11 @@ func (g *Graphic) layout() error {
 	}
 	sample := g.sampleLen()
 	right += sample + ls*0.4 + ls*0.5
-	g.plot = rectPt{X0: g.pad + left + ts*0.6, Y0: bottom, X1: g.w - g.pad - right, Y1: top - ts*lead*0.5}
+	single := len(g.Data.Series) == 1
+	if single { // the title names the term; no label column
+		right = ts * 0.5
+	}
+	g.plot = rectPt{X0: g.pad + left + ts*0.6, Y0: bottom, X1: g.w - g.pad - right, Y1: top - ts*lead - ts*0.7}
 	floorW, floorH := 6*ls, 4*ls
 	if g.plot.W() < floorW || g.plot.H() < floorH {
 		return fmt.Errorf("the plot would be %s × %s; make the insert larger (at least about %s × %s more) or its title shorter",
@@ -253,9 +257,12 @@ func (g *Graphic) layout() error {
 	g.m = m
 
 	// Line ends and their labels.
+	g.labels = nil
+	if single {
+		return nil
+	}
 	lineH := ls * 1.15
 	var want []float64
-	g.labels = nil
 	for i := range g.Data.Series {
 		sr := &g.Data.Series[i]
 		k := len(sr.Values) - 1
@@ -354,7 +361,7 @@ func (g *Graphic) Draw(ctx *canvas.Context) error {
 		text(ctx, fs, fonts.Regular, ts, inkSoft, pr.X0-ts*0.6, yy-mt.CapHeight/2, canvas.Right, formatValue(v))
 	}
 	// What the values are, above the y labels.
-	text(ctx, fs, fonts.Regular, ts, inkSoft, g.pad, pr.Y1+ts*0.5, canvas.Left, g.Data.Unit)
+	text(ctx, fs, fonts.Regular, ts, inkSoft, g.pad, pr.Y1+ts*1.1, canvas.Left, g.Data.Unit)
 
 	// Year ticks.
 	tick := ts * 0.35
