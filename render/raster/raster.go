@@ -47,7 +47,12 @@ func New(w, h, dpi float64, background color.Color) (*Renderer, error) {
 	img := image.NewRGBA(image.Rect(0, 0, px, py))
 	draw.Draw(img, img.Bounds(), image.NewUniform(background), image.Point{}, draw.Src)
 	ras := rasterizer.FromImage(img, canvas.DPI(dpi), canvas.DefaultColorSpace)
-	return &Renderer{ras: ras, img: img, tol: flatTolerancePx * 25.4 / dpi, shift: canvas.Identity}, nil
+	// canvas puts y = 0 on the image's bottom edge, but the pixel count
+	// was rounded: move the page's top edge onto the image's, where PDF
+	// rasterizers put it (row = (h − y)·dpi/72), so a page whose height is
+	// not a whole number of pixels is not shifted by the rounding.
+	lift := float64(py)*25.4/dpi - h*25.4/72
+	return &Renderer{ras: ras, img: img, tol: flatTolerancePx * 25.4 / dpi, shift: canvas.Identity.Translate(0, lift)}, nil
 }
 
 // Region is the part of a page an image shows, in whole device pixels

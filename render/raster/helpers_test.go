@@ -1,0 +1,148 @@
+package raster_test
+
+import (
+	"bytes"
+	"image"
+	"image/png"
+	"math"
+	"os"
+	"os/exec"
+	"path/filepath"
+	"sort"
+	"strconv"
+	"testing"
+	"time"
+
+	"github.com/tdewolff/canvas"
+
+	"sheaf/render/pdf"
+	"sheaf/render/tooltest"
+)
+
+// page is one test page: its size in points and its drawing.
+type page struct {
+	w, h float64
+	draw func(ctx *canvas.Context) error
+}
+
+// writePDF writes the pages to a PDF file with sheaf/render/pdf, every
+// box the whole page, and returns its path.
+func writePDF(t *testing.T, pages ...page) string {
+	t.Helper()
+	var buf bytes.Buffer
+	w := pdf.NewWriter(&buf, pdf.Options{Title: "raster test", Date: time.Date(2000, 1, 1, 0, 0, 0, 0, time.UTC)})
+	for _, p := range pages {
+		r := canvas.Rect{X0: 0, Y0: 0, X1: p.w, Y1: p.h}
+		draw := p.draw
+		if err := w.AddPage(pdf.PageSetup{Boxes: pdf.PageBoxes{Media: r, Bleed: r, Trim: r}},
+			func(c *canvas.Canvas) error { return draw(canvas.NewContext(c)) }); err != nil {
+			t.Fatal(err)
+		}
+	}
+	if err := w.Close(); err != nil {
+		t.Fatal(err)
+	}
+	path := filepath.Join(t.TempDir(), "in.pdf")
+	if err := os.WriteFile(path, buf.Bytes(), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	return path
+}
+
+// poppler renders every page of a PDF with poppler's pdftoppm at dpi,
+// full page. Poppler is an independent PDF renderer, so it is the
+// reference for where things land and how much they ink.
+func poppler(t *testing.T, pdfPath string, dpi float64) []image.Image {
+	t.Helper()
+	pdftoppm := tooltest.Require(t, "pdftoppm", "poppler-utils")
+	dir := t.TempDir()
+	cmd := exec.Command(pdftoppm, "-r", strconv.FormatFloat(dpi, 'f', -1, 64), "-png", pdfPath, filepath.Join(dir, "p"))
+	if out, err := cmd.CombinedOutput(); err != nil {
+		t.Fatalf("pdftoppm: %v\n%s", err, out)
+	}
+	files, err := filepath.Glob(filepath.Join(dir, "p-*.png"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	sort.Strings(files) // pdftoppm pads page numbers to one width
+	imgs := make([]image.Image, len(files))
+	for i, f := range files {
+		imgs[i] = readPNG(t, f)
+	}
+	return imgs
+}
+
+// popplerCrop renders page 1 of a PDF with pdftoppm's own crop
+// (-x -y -W -H).
+func popplerCrop(t *testing.T, pdfPath string, dpi float64, r image.Rectangle) image.Image {
+	t.Helper()
+	pdftoppm := tooltest.Require(t, "pdftoppm", "poppler-utils")
+	dir := t.TempDir()
+	itoa := strconv.Itoa
+	cmd := exec.Command(pdftoppm, "-r", strconv.FormatFloat(dpi, 'f', -1, 64), "-f", "1", "-l", "1", "-singlefile",
+		"-x", itoa(r.Min.X), "-y", itoa(r.Min.Y), "-W", itoa(r.Dx()), "-H", itoa(r.Dy()),
+		"-png", pdfPath, filepath.Join(dir, "crop"))
+	if out, err := cmd.CombinedOutput(); err != nil {
+		t.Fatalf("pdftoppm: %v\n%s", err, out)
+	}
+	return readPNG(t, filepath.Join(dir, "crop.png"))
+}
+
+func readPNG(t *testing.T, path string) image.Image {
+	t.Helper()
+	f, err := os.Open(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer f.Close()
+	img, err := png.Decode(f)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return img
+}
+
+// sub returns the part r of img, r counted from img's top-left corner.
+func sub(img image.Image, r image.Rectangle) image.Image {
+	return img.(interface {
+		SubImage(image.Rectangle) image.Image
+	}).SubImage(r.Add(img.Bounds().Min))
+}
+
+// compare returns the mean absolute channel difference (0–255) of two
+// images of one size, and the share of pixels with some channel off by
+// more than limit.
+func compare(a, b image.Image, limit float64) (mean, share float64) {
+	ab, bb := a.Bounds(), b.Bounds()
+	var sum float64
+	var off int
+	for y := 0; y < ab.Dy(); y++ {
+		for x := 0; x < ab.Dx(); x++ {
+			p, q := rgba(a, ab.Min.X+x, ab.Min.Y+y), rgba(b, bb.Min.X+x, bb.Min.Y+y)
+			d := max(absd(p.R, q.R), absd(p.G, q.G), absd(p.B, q.B))
+			sum += absd(p.R, q.R) + absd(p.G, q.G) + absd(p.B, q.B)
+			if d > limit {
+				off++
+			}
+		}
+	}
+	n := float64(ab.Dx() * ab.Dy())
+	return sum / (3 * n), float64(off) / n
+}
+
+func absd(a, b uint8) float64 { return math.Abs(float64(a) - float64(b)) }
+
+// ink is the sum over all pixels of how dark each is (0 white, 1 black),
+// in pixels: for black on white it is the inked area, since both
+// rasterizers blend coverage straight into the sRGB values.
+func ink(img image.Image) float64 {
+	b := img.Bounds()
+	var s float64
+	for y := b.Min.Y; y < b.Max.Y; y++ {
+		for x := b.Min.X; x < b.Max.X; x++ {
+			c := rgba(img, x, y)
+			s += 1 - (float64(c.R)+float64(c.G)+float64(c.B))/(3*255)
+		}
+	}
+	return s
+}
