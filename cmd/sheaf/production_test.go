@@ -1,0 +1,571 @@
+package main
+
+// Production (issue 9): manifest, change report, incremental rebuilds,
+// staged builds that survive failures and signals, preflight in builds.
+
+import (
+	"bytes"
+	"encoding/json"
+	"errors"
+	"fmt"
+	"os"
+	"os/exec"
+	"path/filepath"
+	"regexp"
+	"strings"
+	"sync"
+	"syscall"
+	"testing"
+	"time"
+
+	"sheaf/render/tooltest"
+)
+
+// jobSpec is a print spec over the demo's data, small enough to build in
+// about a second: the 60 most used terms on A5 pages, 4 columns. extra is added at the top level.
+func jobSpec(extra string) string {
+	return `title: Production test
+date: 2026-01-15
+data: {counts: data/counts.csv, totals: data/totals.csv}
+years: {from: 1868, to: 2025}
+terms: {top: 60}
+scale: {values: own-peak}
+outputs:
+  print:
+    kind: print
+    trim: A5
+    columns: 4
+    slug-line: true
+    proofs: 40
+` + extra
+}
+
+// demoData reads the demo's counts and totals once.
+var demoData = sync.OnceValues(func() (map[string][]byte, error) {
+	out := map[string][]byte{}
+	for _, f := range []string{"counts.csv", "totals.csv"} {
+		b, err := os.ReadFile(filepath.Join("../../examples/quillmere/data", f))
+		if err != nil {
+			return nil, err
+		}
+		out[f] = b
+	}
+	return out, nil
+})
+
+// newJob writes a spec and the demo data into a fresh folder and returns
+// the spec's path.
+func newJob(t testing.TB, spec string) string {
+	t.Helper()
+	data, err := demoData()
+	if err != nil {
+		t.Fatal(err)
+	}
+	dir := t.TempDir()
+	if err := os.MkdirAll(filepath.Join(dir, "data"), 0o755); err != nil {
+		t.Fatal(err)
+	}
+	for name, b := range data {
+		if err := os.WriteFile(filepath.Join(dir, "data", name), b, 0o644); err != nil {
+			t.Fatal(err)
+		}
+	}
+	path := filepath.Join(dir, "spec.yaml")
+	if err := os.WriteFile(path, []byte(spec), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	return path
+}
+
+// buildInto runs `sheaf build` and fails the test on a non-zero exit.
+func buildInto(t testing.TB, spec, out string, flags ...string) (stdout, stderr string) {
+	t.Helper()
+	var o, e bytes.Buffer
+	args := append([]string{"build", spec, "--out", out}, flags...)
+	if code := run(args, &o, &e); code != exitOK {
+		t.Fatalf("sheaf %s: exit %d\n%s", strings.Join(args, " "), code, e.String())
+	}
+	return o.String(), e.String()
+}
+
+func loadManifest(t testing.TB, dir string) *manifest {
+	t.Helper()
+	m, err := readManifest(dir)
+	if err != nil || m == nil {
+		t.Fatalf("manifest in %s: %v", dir, err)
+	}
+	return m
+}
+
+func loadChanges(t testing.TB, dir string) changeReport {
+	t.Helper()
+	b, err := os.ReadFile(filepath.Join(dir, changesJSON))
+	if err != nil {
+		t.Fatal(err)
+	}
+	var r changeReport
+	if err := json.Unmarshal(b, &r); err != nil {
+		t.Fatal(err)
+	}
+	return r
+}
+
+// nudgeCount adds one to a count of term in a counts CSV: in a year well
+// below the term's peak, so the peak year, and with it the panel order,
+// stays. It returns the year.
+func nudgeCount(t testing.TB, spec, term string) int {
+	t.Helper()
+	path := filepath.Join(filepath.Dir(spec), "data", "counts.csv")
+	b, err := os.ReadFile(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	re := regexp.MustCompile(fmt.Sprintf(`(?m)^%s,(\d+),(\d+)\r?$`, regexp.QuoteMeta(term)))
+	rows := re.FindAllSubmatchIndex(b, -1)
+	top := 0
+	for _, r := range rows {
+		top = max(top, atoi(b[r[4]:r[5]]))
+	}
+	for _, r := range rows {
+		if n := atoi(b[r[4]:r[5]]); n > 0 && n < top/2 {
+			out := append(append(append([]byte{}, b[:r[4]]...), fmt.Sprint(n+1)...), b[r[5]:]...)
+			if err := os.WriteFile(path, out, 0o644); err != nil {
+				t.Fatal(err)
+			}
+			return atoi(b[r[2]:r[3]])
+		}
+	}
+	t.Fatalf("no row of %s below half its peak in %s", term, path)
+	return 0
+}
+
+func atoi(b []byte) int {
+	n := 0
+	for _, c := range b {
+		n = n*10 + int(c-'0')
+	}
+	return n
+}
+
+// countEncodes installs encodeHook to count pages drawn for PDFs.
+func countEncodes(t *testing.T) *[]string {
+	var mu sync.Mutex
+	var got []string
+	encodeHook = func(output string, page int) error {
+		mu.Lock()
+		defer mu.Unlock()
+		got = append(got, fmt.Sprintf("%s p. %d", output, page))
+		return nil
+	}
+	t.Cleanup(func() { encodeHook = nil })
+	return &got
+}
+
+// snapshot reads every file under dir (relative path → bytes).
+func snapshot(t testing.TB, dir string) map[string][]byte {
+	t.Helper()
+	out := map[string][]byte{}
+	err := filepath.WalkDir(dir, func(p string, d os.DirEntry, err error) error {
+		if err != nil || d.IsDir() {
+			return err
+		}
+		b, err := os.ReadFile(p)
+		if err != nil {
+			return err
+		}
+		r, _ := filepath.Rel(dir, p)
+		out[r] = b
+		return nil
+	})
+	if err != nil {
+		t.Fatal(err)
+	}
+	return out
+}
+
+func sameTree(t testing.TB, a, b map[string][]byte, skip func(string) bool) {
+	t.Helper()
+	for p, x := range a {
+		if skip != nil && skip(p) {
+			continue
+		}
+		y, ok := b[p]
+		if !ok {
+			t.Errorf("%s: missing in the second tree", p)
+		} else if !bytes.Equal(x, y) {
+			t.Errorf("%s: bytes differ", p)
+		}
+	}
+	for p := range b {
+		if _, ok := a[p]; !ok && (skip == nil || !skip(p)) {
+			t.Errorf("%s: only in the second tree", p)
+		}
+	}
+}
+
+// noStages fails when a stage folder is left beside dir.
+func noStages(t testing.TB, dir string) {
+	t.Helper()
+	entries, _ := os.ReadDir(filepath.Dir(dir))
+	for _, e := range entries {
+		if strings.Contains(e.Name(), stageMark) {
+			t.Errorf("stage left behind: %s", e.Name())
+		}
+	}
+}
+
+// TestManifestHashes checks every SHA-256 in the manifest against
+// coreutils' sha256sum (FIPS 180-4 SHA-256, an independent
+// implementation) and every size against the file system.
+func TestManifestHashes(t *testing.T) {
+	sum := tooltest.Require(t, "sha256sum", "coreutils")
+	spec := newJob(t, jobSpec(""))
+	out := filepath.Join(filepath.Dir(spec), "out")
+	buildInto(t, spec, out, "--quiet")
+	m := loadManifest(t, out)
+	check := func(path, want string) {
+		t.Helper()
+		b, err := exec.Command(sum, path).Output()
+		if err != nil {
+			t.Fatalf("sha256sum %s: %v", path, err)
+		}
+		if got, _, _ := strings.Cut(string(b), " "); got != want {
+			t.Errorf("%s: manifest %s, sha256sum %s", path, want, got)
+		}
+	}
+	pages := len(m.Outputs[0].Pages)
+	if m.Sheaf != version || pages < 2 || len(m.Files) != 1+pages+1 { // PDF, proofs, contact sheet
+		t.Fatalf("manifest: sheaf %q, %d files, %d pages", m.Sheaf, len(m.Files), pages)
+	}
+	for _, f := range m.Files {
+		p := filepath.Join(out, filepath.FromSlash(f.Path))
+		check(p, f.SHA256)
+		fi, err := os.Stat(p)
+		if err != nil || fi.Size() != f.Size {
+			t.Errorf("%s: size %d in the manifest, stat %v %v", f.Path, f.Size, fi.Size(), err)
+		}
+	}
+	check(spec, m.Spec.SHA256)
+	for _, d := range m.Data {
+		check(filepath.Join(filepath.Dir(spec), d.Path), d.SHA256)
+	}
+	pdf := m.file("print/print.pdf")
+	if pdf == nil || len(pdf.Pages) != pages || pdf.Output != "print" {
+		t.Fatalf("PDF entry %+v", pdf)
+	}
+	n := 0
+	for _, p := range pdf.Pages {
+		n += len(p.Terms)
+		if len(p.Inputs) != 64 {
+			t.Errorf("page %d inputs %q", p.Page, p.Inputs)
+		}
+	}
+	if n != 60 || len(m.Terms) != 60 {
+		t.Errorf("%d terms on pages, %d in the manifest; want 60", n, len(m.Terms))
+	}
+	// The Go fonts are listed, by hash, with no path.
+	if len(m.Fonts) != 3 || m.Fonts[0].Path != "" || m.Fonts[0].Name == "" {
+		t.Errorf("fonts %+v", m.Fonts)
+	}
+	r := loadChanges(t, out)
+	if !r.FirstBuild || len(r.Files.Added) != len(m.Files) {
+		t.Errorf("first build report %+v", r)
+	}
+	noStages(t, out)
+}
+
+// TestIncremental changes one count of one term and rebuilds: the report
+// names exactly that term and its page, only that page is encoded and
+// proofed again, and every file equals a clean full build's, byte for
+// byte. A rebuild with no change encodes nothing and reports nothing.
+func TestIncremental(t *testing.T) {
+	spec := newJob(t, jobSpec(""))
+	out := filepath.Join(filepath.Dir(spec), "out")
+	buildInto(t, spec, out, "--quiet")
+	first := loadManifest(t, out)
+	pages := len(first.Outputs[0].Pages)
+
+	// Unchanged rebuild.
+	encodes := countEncodes(t)
+	before := snapshot(t, out)
+	_, stderr := buildInto(t, spec, out, "--quiet")
+	if len(*encodes) != 0 {
+		t.Errorf("unchanged rebuild encoded %v", *encodes)
+	}
+	if !strings.Contains(stderr, "nothing changed since the last build") {
+		t.Errorf("stderr:\n%s", stderr)
+	}
+	r := loadChanges(t, out)
+	if r.FirstBuild || len(r.Files.Changed)+len(r.Files.Added)+len(r.Files.Removed)+len(r.Terms)+len(r.Pages) != 0 || r.Work[0].Reused != pages || r.Work[0].ProofsReused != pages {
+		t.Errorf("unchanged rebuild report %+v", r)
+	}
+	sameTree(t, before, snapshot(t, out), func(p string) bool { return p == changesJSON || p == changesText })
+
+	// Pick a term on page 2 and change one year.
+	p2 := first.Outputs[0].Pages[1]
+	term := p2.Terms[len(p2.Terms)/2]
+	nudgeCount(t, spec, term)
+	*encodes = nil
+	_, stderr = buildInto(t, spec, out, "--quiet")
+	if want := []string{"print p. 2"}; fmt.Sprint(*encodes) != fmt.Sprint(want) {
+		t.Errorf("encoded %v, want %v", *encodes, want)
+	}
+	r = loadChanges(t, out)
+	if len(r.Terms) != 1 || r.Terms[0].Term != term || r.Terms[0].Change != "changed" || fmt.Sprint(r.Terms[0].Pages) != "[print p. 2]" {
+		t.Errorf("terms %+v, want %q changed on print p. 2", r.Terms, term)
+	}
+	if len(r.Pages) != 1 || r.Pages[0].File != "print/print.pdf" || fmt.Sprint(r.Pages[0].Pages) != "[2]" {
+		t.Errorf("pages %+v", r.Pages)
+	}
+	wantChanged := "[print/contact.png print/print.pdf print/proofs/page-002.png]"
+	if fmt.Sprint(r.Files.Changed) != wantChanged || len(r.Files.Unchanged) != pages-1 || r.SpecChanged || fmt.Sprint(r.DataChanged) != "[data/counts.csv]" {
+		t.Errorf("files %+v data %v spec %v", r.Files, r.DataChanged, r.SpecChanged)
+	}
+	if w := r.Work[0]; w.Encoded != 1 || w.Reused != pages-1 || w.ProofsDrawn != 1 || w.ProofsReused != pages-1 {
+		t.Errorf("work %+v", w)
+	}
+	for _, s := range []string{fmt.Sprintf("changed %q: print p. 2", term), fmt.Sprintf("print/print.pdf: pages 2 of %d", pages)} {
+		if !strings.Contains(stderr, s) {
+			t.Errorf("stderr lacks %q:\n%s", s, stderr)
+		}
+	}
+	text, _ := os.ReadFile(filepath.Join(out, changesText))
+	if !strings.Contains(string(text), fmt.Sprintf("changed %q: print p. 2", term)) {
+		t.Errorf("changes.txt:\n%s", text)
+	}
+
+	// A clean full build of the same inputs elsewhere.
+	clean := filepath.Join(t.TempDir(), "clean")
+	buildInto(t, spec, clean, "--quiet", "--full")
+	sameTree(t, snapshot(t, clean), snapshot(t, out), func(p string) bool {
+		return p == changesJSON || p == changesText
+	})
+	noStages(t, out)
+}
+
+// TestFailedBuildKeepsPrevious makes page 2's drawing fail in a rebuild:
+// the build exits 1 and the folder holds the previous build, byte for
+// byte, with no stage left.
+func TestFailedBuildKeepsPrevious(t *testing.T) {
+	spec := newJob(t, jobSpec(""))
+	out := filepath.Join(filepath.Dir(spec), "out")
+	buildInto(t, spec, out, "--quiet")
+	before := snapshot(t, out)
+	encodeHook = func(output string, page int) error {
+		if page == 2 {
+			return errors.New("injected failure")
+		}
+		return nil
+	}
+	defer func() { encodeHook = nil }()
+	var o, e bytes.Buffer
+	code := run([]string{"build", spec, "--out", out, "--full", "--quiet"}, &o, &e)
+	if code != exitFindings || !strings.Contains(e.String(), "page 2: injected failure") || !strings.Contains(e.String(), "nothing was changed in") {
+		t.Errorf("exit %d, stderr:\n%s", code, e.String())
+	}
+	if o.Len() != 0 {
+		t.Errorf("stdout: %s", o.String())
+	}
+	sameTree(t, before, snapshot(t, out), nil)
+	noStages(t, out)
+
+	// A failure at the very end, after everything is written to the stage.
+	encodeHook = nil
+	commitHook = func(string) error { return errors.New("injected failure before the swap") }
+	defer func() { commitHook = nil }()
+	nudgeCount(t, spec, loadManifest(t, out).Terms[0].Term)
+	if code := run([]string{"build", spec, "--out", out, "--quiet"}, &o, &e); code != exitFindings {
+		t.Errorf("exit %d", code)
+	}
+	sameTree(t, before, snapshot(t, out), nil)
+	noStages(t, out)
+}
+
+// TestOnlyKeepsOtherOutputs builds two outputs, then only one after a
+// data change: the other's files stay, byte for byte, and stay in the
+// manifest; files sheaf never wrote in the folder stay too.
+func TestOnlyKeepsOtherOutputs(t *testing.T) {
+	spec := newJob(t, jobSpec("") + `  second:
+    kind: print
+    trim: A4
+    columns: 6
+    proofs: 30
+`)
+	out := filepath.Join(filepath.Dir(spec), "out")
+	buildInto(t, spec, out, "--quiet")
+	// A folder sheaf did not write (as `sheaf palette` would).
+	os.MkdirAll(filepath.Join(out, "palette"), 0o755)
+	os.WriteFile(filepath.Join(out, "palette", "swatch.png"), []byte("not ours"), 0o644)
+	before := snapshot(t, out)
+	m0 := loadManifest(t, out)
+
+	nudgeCount(t, spec, m0.Terms[0].Term)
+	buildInto(t, spec, out, "--quiet", "--only", "print")
+	after := snapshot(t, out)
+	for p, b := range before {
+		if strings.HasPrefix(p, "second/") || strings.HasPrefix(p, "palette/") || strings.HasPrefix(p, ".cache/second/") {
+			if !bytes.Equal(b, after[p]) {
+				t.Errorf("%s changed or went missing", p)
+			}
+		}
+	}
+	m := loadManifest(t, out)
+	if len(m.Outputs) != 2 || m.Outputs[1].Name != "second" || m.file("second/second.pdf") == nil || m.file("palette/swatch.png") != nil {
+		t.Errorf("manifest outputs %d, files %d", len(m.Outputs), len(m.Files))
+	}
+	if !equalJSON(m.Outputs[1], m0.Outputs[1]) || len(m.file("second/second.pdf").Pages) == 0 {
+		t.Errorf("second's entry changed")
+	}
+	// A whole build again: the palette folder still stays.
+	buildInto(t, spec, out, "--quiet")
+	if b, err := os.ReadFile(filepath.Join(out, "palette", "swatch.png")); err != nil || string(b) != "not ours" {
+		t.Errorf("foreign file: %q %v", b, err)
+	}
+}
+
+// TestStrictPreflight: a 4 pt label and a 0.1 pt line are found by
+// check and build; strict stops the build before anything is written.
+func TestStrictPreflight(t *testing.T) {
+	spec := newJob(t, strings.Replace(jobSpec(""), "    proofs: 40\n", "    proofs: 40\n    type: {label: 4pt}\n    line: 0.1pt\n", 1))
+	out := filepath.Join(filepath.Dir(spec), "out")
+	var o, e bytes.Buffer
+	if code := run([]string{"build", spec, "--out", out, "--strict"}, &o, &e); code != exitFindings {
+		t.Fatalf("strict build exit %d\n%s", code, e.String())
+	}
+	for _, s := range []string{"warning  type-floor", "warning  line-floor", "strict preflight: stopped"} {
+		if !strings.Contains(e.String(), s) {
+			t.Errorf("stderr lacks %q:\n%s", s, e.String())
+		}
+	}
+	if _, err := os.Stat(out); !errors.Is(err, os.ErrNotExist) {
+		t.Errorf("strict build wrote %s", out)
+	}
+	noStages(t, out)
+
+	o.Reset()
+	e.Reset()
+	if code := run([]string{"check", spec, "--json", "--strict"}, &o, &e); code != exitFindings {
+		t.Errorf("check --strict exit %d", code)
+	}
+	var rep checkReport
+	if err := json.Unmarshal(o.Bytes(), &rep); err != nil {
+		t.Fatal(err)
+	}
+	ids := map[string]bool{}
+	for _, f := range rep.Preflight {
+		ids[f.ID] = true
+	}
+	if !ids["type-floor"] || !ids["line-floor"] {
+		t.Errorf("check --json preflight ids %v", ids)
+	}
+	// Without strict the build goes ahead, warning.
+	_, stderr := buildInto(t, spec, out, "--quiet")
+	if !strings.Contains(stderr, "type-floor") {
+		t.Errorf("build stderr lacks the finding:\n%s", stderr)
+	}
+}
+
+// TestInterrupt sends a real SIGINT to a sheaf process in the middle of a
+// build: it exits non-zero, removes its stage, and the previous build is
+// intact.
+func TestInterrupt(t *testing.T) {
+	if testing.Short() {
+		t.Skip("builds the binary; skipped with -short")
+	}
+	bin := filepath.Join(t.TempDir(), "sheaf")
+	if out, err := exec.Command("go", "build", "-o", bin, ".").CombinedOutput(); err != nil {
+		t.Fatalf("go build: %v\n%s", err, out)
+	}
+	// The demo's 384 terms on A4, with proofs: several seconds of work.
+	spec := newJob(t, strings.Replace(jobSpec(""), "top: 60", "top: 384", 1))
+	out := filepath.Join(filepath.Dir(spec), "out")
+	buildInto(t, spec, out, "--quiet", "--no-proofs")
+	before := snapshot(t, out)
+
+	cmd := exec.Command(bin, "build", spec, "--out", out, "--full")
+	var stderr bytes.Buffer
+	cmd.Stderr = &stderr
+	if err := cmd.Start(); err != nil {
+		t.Fatal(err)
+	}
+	// Wait until the stage holds a cached page: the build is under way.
+	deadline := time.Now().Add(20 * time.Second)
+	for {
+		m, _ := filepath.Glob(filepath.Join(filepath.Dir(out), ".out"+stageMark+"*", cacheDir, "print", "*.page"))
+		if len(m) > 0 {
+			break
+		}
+		if time.Now().After(deadline) {
+			cmd.Process.Kill()
+			t.Fatalf("no stage appeared; stderr:\n%s", stderr.String())
+		}
+		time.Sleep(5 * time.Millisecond)
+	}
+	if err := cmd.Process.Signal(syscall.SIGINT); err != nil {
+		t.Fatal(err)
+	}
+	err := cmd.Wait()
+	var exit *exec.ExitError
+	if !errors.As(err, &exit) || exit.ExitCode() != exitFindings {
+		t.Errorf("exit %v, want status %d; stderr:\n%s", err, exitFindings, stderr.String())
+	}
+	if !strings.Contains(stderr.String(), "interrupted") {
+		t.Errorf("stderr:\n%s", stderr.String())
+	}
+	sameTree(t, before, snapshot(t, out), nil)
+	noStages(t, out)
+}
+
+// TestStaleStageRemoved: a stage left by a process that no longer exists
+// (killed with SIGKILL) is removed by the next build; one of a live
+// process is not.
+func TestStaleStageRemoved(t *testing.T) {
+	parent := t.TempDir()
+	out := filepath.Join(parent, "out")
+	dead := exec.Command("true")
+	if err := dead.Run(); err != nil {
+		t.Skip("cannot run true:", err)
+	}
+	stale := filepath.Join(parent, ".out"+stageMark+fmt.Sprint(dead.Process.Pid)+"-1")
+	live := filepath.Join(parent, ".out"+stageMark+fmt.Sprint(os.Getpid())+"-2")
+	os.MkdirAll(stale, 0o755)
+	os.MkdirAll(live, 0o755)
+	s, err := newStage(out)
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer s.abort()
+	if _, err := os.Stat(stale); !errors.Is(err, os.ErrNotExist) {
+		t.Errorf("stale stage kept")
+	}
+	if _, err := os.Stat(live); err != nil {
+		t.Errorf("live stage removed: %v", err)
+	}
+}
+
+// TestProgress: silent when not a terminal; on a terminal, a line after
+// the delay, redrawn no faster than progressEvery, cleared at the end.
+func TestProgress(t *testing.T) {
+	var buf bytes.Buffer
+	p := newProgress(&buf, false)
+	p.begin("print: PDF pages", 3)
+	p.step()
+	p.done()
+	if buf.Len() != 0 {
+		t.Errorf("not a terminal, yet %q", buf.String())
+	}
+
+	now := time.Unix(0, 0)
+	p = &progress{w: &buf, on: true, start: now, now: func() time.Time { return now }}
+	p.begin("print: PDF pages", 3)
+	p.step() // before the delay: nothing
+	now = now.Add(progressDelay)
+	p.step() // drawn
+	now = now.Add(progressEvery / 2)
+	p.step() // last step: always drawn
+	p.done()
+	want := "\rprint: PDF pages 2/3\rprint: PDF pages 3/3\r                    \r"
+	if buf.String() != want {
+		t.Errorf("progress wrote %q, want %q", buf.String(), want)
+	}
+}
