@@ -385,7 +385,7 @@ func TestFailedBuildKeepsPrevious(t *testing.T) {
 // data change: the other's files stay, byte for byte, and stay in the
 // manifest; files sheaf never wrote in the folder stay too.
 func TestOnlyKeepsOtherOutputs(t *testing.T) {
-	spec := newJob(t, jobSpec("") + `  second:
+	spec := newJob(t, jobSpec("")+`  second:
     kind: print
     trim: A4
     columns: 6
