@@ -18,6 +18,7 @@ package svg
 import (
 	"bytes"
 	"encoding/base64"
+	"encoding/binary"
 	"encoding/xml"
 	"fmt"
 	"image"
@@ -528,7 +529,11 @@ func (d *Document) writeFonts(h *bytes.Buffer) error {
 			}
 		}
 		fmt.Fprintf(h, "@font-face{font-family:%q;font-weight:%s;font-style:%s;src:url(data:font/ttf;base64,", EmbeddedFamily, weight, style)
-		h.WriteString(base64.StdEncoding.EncodeToString(sub.Write()))
+		prog, err := stableWrite(sub)
+		if err != nil {
+			return fmt.Errorf("svg: writing the subset of font %q: %w", u.font.Name(), err)
+		}
+		h.WriteString(base64.StdEncoding.EncodeToString(prog))
 		h.WriteString(") format(\"truetype\")}\n")
 	}
 	h.WriteString("</style>\n")
@@ -560,4 +565,48 @@ func appendTenths(b []byte, n int64, compact bool) []byte {
 		b = append(b, '.', byte('0'+f))
 	}
 	return b
+}
+
+// stableWrite writes a font with its head table's modified date as the
+// font had it. tdewolff/font's SFNT.Write stamps the clock there, which
+// would make two builds differ; the date is put back and the checksums
+// the OpenType spec asks for ("head" table: checksumAdjustment =
+// 0xB1B0AFBA − sum of the file; table record checksums) recomputed.
+func stableWrite(sfnt *font.SFNT) ([]byte, error) {
+	buf := sfnt.Write()
+	head := sfnt.Tables["head"]
+	if len(buf) < 12 || len(head) < 54 {
+		return nil, fmt.Errorf("font has no usable head table")
+	}
+	n := int(binary.BigEndian.Uint16(buf[4:]))
+	for i := range n {
+		rec := 12 + 16*i
+		if rec+16 > len(buf) || string(buf[rec:rec+4]) != "head" {
+			continue
+		}
+		off := int(binary.BigEndian.Uint32(buf[rec+8:]))
+		length := int(binary.BigEndian.Uint32(buf[rec+12:]))
+		if off+length > len(buf) || length < 54 {
+			return nil, fmt.Errorf("font head table out of range")
+		}
+		copy(buf[off+28:off+36], head[28:36]) // modified
+		binary.BigEndian.PutUint32(buf[off+8:], 0)
+		end := min(len(buf), off+(length+3)&^3)
+		binary.BigEndian.PutUint32(buf[rec+4:], checksum(buf[off:end]))
+		binary.BigEndian.PutUint32(buf[off+8:], 0xB1B0AFBA-checksum(buf))
+		return buf, nil
+	}
+	return nil, fmt.Errorf("font has no head table")
+}
+
+// checksum is the OpenType table checksum: the sum of big-endian uint32s,
+// the last one padded with zeros.
+func checksum(b []byte) uint32 {
+	var sum uint32
+	for i := 0; i < len(b); i += 4 {
+		var w [4]byte
+		copy(w[:], b[i:min(i+4, len(b))])
+		sum += binary.BigEndian.Uint32(w[:])
+	}
+	return sum
 }

@@ -346,6 +346,20 @@ func TestEmbeddedSubset(t *testing.T) {
 				t.Errorf("%s subset lacks %q", mm[1], r)
 			}
 		}
+		// OpenType "head" table: the whole file sums to 0xB1B0AFBA once
+		// checksumAdjustment is in, and the modified date is the font's
+		// own (not the clock: builds must not differ).
+		if sum := checksum(raw); sum != 0xB1B0AFBA {
+			t.Errorf("%s subset: file checksum %#x, want 0xB1B0AFBA", mm[1], sum)
+		}
+		orig := goregular.TTF
+		if mm[1] == "bold" {
+			orig = gobold.TTF
+		}
+		of, _ := font.ParseSFNT(orig, 0)
+		if of.Head.Modified != f.Head.Modified {
+			t.Errorf("%s subset: modified %v, the font says %v", mm[1], f.Head.Modified, of.Head.Modified)
+		}
 		if n := f.NumGlyphs(); n > 20 {
 			t.Errorf("%s subset has %d glyphs; want only those drawn", mm[1], n)
 		}

@@ -1,0 +1,348 @@
+package main
+
+// Checks of the screen build (issue 8): file names, reflow, SVG read back
+// with encoding/xml and librsvg, determinism, and a real browser's
+// rendering of the HTML proof page compared with our PNG.
+
+import (
+	"bytes"
+	"encoding/xml"
+	"fmt"
+	"image"
+	"io"
+	"math"
+	"os"
+	"os/exec"
+	"path/filepath"
+	"regexp"
+	"sort"
+	"strings"
+	"testing"
+
+	"sheaf/render/tooltest"
+)
+
+// TestSlug names panel files safely. The folding follows Unicode NFKD
+// (UAX #15: "é" = "e" + U+0301, "ﬁ" → "fi"); the spelled-out letters are
+// common practice for ASCII file names.
+func TestSlug(t *testing.T) {
+	for _, c := range []struct{ term, want string }{
+		{"boiler", "boiler"},
+		{"Café au lait", "cafe-au-lait"},        // NFKD drops the accent
+		{"Maßstab", "massstab"},                 // ß has no decomposition: spelled ss
+		{"Ærø", "aero"},                         // Æ, ø spelled out
+		{"ﬁre-engine", "fire-engine"},           // compatibility ligature (NFKD)
+		{"3D printing", "3d-printing"},          // digits kept
+		{"gas–lit bridge", "gas-lit-bridge"},    // en dash separates
+		{"../../etc/passwd", "etc-passwd"},      // no path characters survive
+		{`a\b:c*d?"e<f>g|h`, "a-b-c-d-e-f-g-h"}, // Windows' forbidden characters
+		{"  spaced   out  ", "spaced-out"},      // no leading, trailing or double hyphens
+		{"R&D", "randd"},                        // & spelled out
+		{"αβ", "u3b1-u3b2"},                     // no Latin letter: code points, no percent sign
+		{"電報", "u96fb-u5831"},                   // CJK likewise
+		{"   ", "term"},                         // nothing at all
+		{strings.Repeat("word ", 30), strings.TrimRight(strings.Repeat("word-", 13), "-")}, // 64-byte cap
+	} {
+		got := slug(c.term)
+		if got != c.want {
+			t.Errorf("slug(%q) = %q, want %q", c.term, got, c.want)
+		}
+		if !regexp.MustCompile(`^[a-z0-9]+(-[a-z0-9]+)*$`).MatchString(got) || len(got) > maxSlug {
+			t.Errorf("slug(%q) = %q is not a safe file name stem", c.term, got)
+		}
+	}
+	used := map[string]bool{}
+	var got []string
+	for _, s := range []string{"cafe", "cafe", "cafe-2", "cafe"} {
+		got = append(got, uniqueSlug(s, used))
+	}
+	if want := []string{"cafe", "cafe-2", "cafe-2-2", "cafe-3"}; fmt.Sprint(got) != fmt.Sprint(want) {
+		t.Errorf("collisions named %v, want %v", got, want)
+	}
+}
+
+// screenSpec writes a spec over the demo's data with the given outputs
+// (and inserts) YAML and returns its path.
+func screenSpec(t testing.TB, terms int, outputs, inserts string) string {
+	t.Helper()
+	data, err := filepath.Abs("../../examples/quillmere/data")
+	if err != nil {
+		t.Fatal(err)
+	}
+	spec := fmt.Sprintf(`title: Screen test
+dek: Invented terms from the demo data, for the screen tests.
+source: "Source: invented demonstration data."
+date: 2026-11-30
+data:
+  counts: %s
+  totals: %s
+years: {from: 1868, to: 2025}
+terms: {top: %d}
+order: peak-year
+scale: {values: own-peak, y-range: shared}
+outputs:
+%s
+%s`, filepath.Join(data, "counts.csv"), filepath.Join(data, "totals.csv"), terms, outputs, inserts)
+	path := filepath.Join(t.TempDir(), "spec.yaml")
+	if err := os.WriteFile(path, []byte(spec), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	return path
+}
+
+// TestReflowColumns: with no columns given, a screen output takes as many
+// columns as fit at the minimum panel width: n = ⌊(W − margins + gutter)
+// ÷ (min + gutter)⌋ (worked by hand below); type sizes are the output's.
+func TestReflowColumns(t *testing.T) {
+	path := screenSpec(t, 24, `  phone:
+    kind: screen
+    trim: 360px
+    margins: 16px
+    min-panel-width: 140px
+    type: {label: 13px}
+  desk:
+    kind: screen
+    trim: 1200px
+`, "")
+	j, err := loadJob(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, c := range []struct {
+		name    string
+		columns int
+		label   float64 // px
+	}{
+		// (360 − 2·16 + 20) ÷ (140 + 20) = 348 ÷ 160 = 2.17 → 2
+		{"phone", 2, 13},
+		// defaults: (1200 − 2·32 + 20) ÷ (170 + 20) = 1156 ÷ 190 = 6.08 → 6
+		{"desk", 6, 14},
+	} {
+		p, err := prepare(j, j.spec.Output(c.name))
+		if err != nil {
+			t.Fatal(err)
+		}
+		if p.plan.Columns != c.columns {
+			t.Errorf("%s: %d columns, want %d", c.name, p.plan.Columns, c.columns)
+		}
+		if got := p.out.Type.Label.Px(); math.Abs(got-c.label) > 1e-9 {
+			t.Errorf("%s: label size %v px, want %v", c.name, got, c.label)
+		}
+		if p.plan.Flow != "scroll" || len(p.plan.Pages) != 1 {
+			t.Errorf("%s: flow %q with %d pages; a width alone scrolls on one page", c.name, p.plan.Flow, len(p.plan.Pages))
+		}
+	}
+}
+
+const screenOutputs = `  web:
+    kind: screen
+    trim: 1200px
+    panel-files: true
+  tall:
+    kind: screen
+    trim: 900px x 700px
+    fonts: {embed: true}
+`
+
+const screenInserts = `inserts:
+  one:
+    output: web
+    size: 480px x 300px
+    terms: [telegraph]
+  four:
+    output: web
+    size: 720px x 440px
+    terms: [telegraph, telephone, wireless, email]
+    title: Sending word
+  column:
+    output: print
+    size: 60mm x 45mm
+    terms: [telegraph]
+`
+
+func buildTo(t testing.TB, spec, dir string) []string {
+	t.Helper()
+	var out, errb bytes.Buffer
+	if code := run([]string{"build", spec, "--out", dir, "--quiet"}, &out, &errb); code != exitOK {
+		t.Fatalf("build exit %d:\n%s", code, errb.String())
+	}
+	return strings.Fields(out.String())
+}
+
+// TestScreenBuild builds two screen outputs (scroll with panel files,
+// pages with embedded fonts) and three inserts, and checks what the web
+// team gets.
+func TestScreenBuild(t *testing.T) {
+	if testing.Short() {
+		t.Skip("builds screen outputs; skipped with -short")
+	}
+	printOut := `  print:
+    kind: print
+    trim: A4
+`
+	spec := screenSpec(t, 30, screenOutputs+printOut, screenInserts)
+	dir := t.TempDir()
+	files := buildTo(t, spec, dir)
+	has := map[string]bool{}
+	for _, f := range files {
+		rel, _ := filepath.Rel(dir, f)
+		has[filepath.ToSlash(rel)] = true
+	}
+	for _, want := range []string{
+		"web/page-001.svg", "web/page-001.png", "web/page-001@2x.png", "web/index.html",
+		"tall/page-001.svg", "tall/page-002.svg", "tall/page-002@2x.png", "tall/index.html",
+		"inserts/one.svg", "inserts/four.svg", "inserts/four.png", "inserts/four@2x.png", "inserts/column.pdf",
+	} {
+		if !has[want] {
+			t.Errorf("%s not written; wrote %d files", want, len(files))
+		}
+	}
+	panels, _ := filepath.Glob(filepath.Join(dir, "web", "panels", "*.svg"))
+	if len(panels) != 30 {
+		t.Errorf("%d panel files, want 30 (one per term)", len(panels))
+	}
+
+	// Every SVG parses as XML (encoding/xml), has px sizes matching its
+	// viewBox, one titled group per panel it shows.
+	svgs, _ := filepath.Glob(filepath.Join(dir, "*", "*.svg"))
+	svgs = append(svgs, panels...)
+	for _, f := range svgs {
+		b, err := os.ReadFile(f)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if err := wellFormed(b); err != nil {
+			t.Errorf("%s: %v", f, err)
+		}
+		m := regexp.MustCompile(`^<svg [^>]*width="([\d.]+)" height="([\d.]+)" viewBox="0 0 ([\d.]+) ([\d.]+)"`).FindSubmatch(b)
+		if m == nil || string(m[1]) != string(m[3]) || string(m[2]) != string(m[4]) {
+			t.Errorf("%s: width/height and viewBox disagree", f)
+		}
+	}
+	web, _ := os.ReadFile(filepath.Join(dir, "web", "page-001.svg"))
+	if n := bytes.Count(web, []byte(`role="img"><title>`)); n != 30 {
+		t.Errorf("scroll page has %d titled panel groups, want 30", n)
+	}
+	if !bytes.Contains(web, []byte(`<title id="doc-title">Screen test</title>`)) {
+		t.Error("scroll page lacks the document title")
+	}
+	// 1200 px wide (CSS Values and Units L3: 1 px = 0.75 pt, 900 pt).
+	if !bytes.HasPrefix(web, []byte(`<svg xmlns="http://www.w3.org/2000/svg" width="1200" `)) {
+		t.Errorf("scroll page is not 1200 px wide: %.120s", web)
+	}
+	png1 := readPNG(t, filepath.Join(dir, "tall", "page-001.png"))
+	png2 := readPNG(t, filepath.Join(dir, "tall", "page-001@2x.png"))
+	if png1.Bounds().Size() != image.Pt(900, 700) || png2.Bounds().Size() != image.Pt(1800, 1400) {
+		t.Errorf("PNG sizes %v and %v, want 900×700 at 1× (96 dpi) and 1800×1400 at 2×", png1.Bounds().Size(), png2.Bounds().Size())
+	}
+	tall, _ := os.ReadFile(filepath.Join(dir, "tall", "page-001.svg"))
+	if !bytes.Contains(tall, []byte("@font-face{font-family:\"sheaf-subset\"")) {
+		t.Error("fonts.embed: true should embed the font subset")
+	}
+
+	// Determinism: a second build into another folder is byte-identical.
+	dir2 := t.TempDir()
+	buildTo(t, spec, dir2)
+	for _, f := range append(svgs, filepath.Join(dir, "web", "index.html"), filepath.Join(dir, "inserts", "four.png")) {
+		rel, _ := filepath.Rel(dir, f)
+		a, _ := os.ReadFile(f)
+		b, err := os.ReadFile(filepath.Join(dir2, rel))
+		if err != nil || !bytes.Equal(a, b) {
+			t.Errorf("%s differs between two builds", rel)
+		}
+	}
+
+	// librsvg (rsvg-convert, Debian librsvg2-bin) renders every SVG.
+	rsvg := tooltest.Require(t, "rsvg-convert", "librsvg2-bin")
+	sort.Strings(svgs)
+	for i, f := range svgs {
+		if i > 12 && strings.Contains(f, "panels") {
+			break // a dozen panel files are enough
+		}
+		out, err := exec.Command(rsvg, "-o", filepath.Join(t.TempDir(), "x.png"), f).CombinedOutput()
+		if err != nil || len(out) > 0 {
+			t.Errorf("rsvg-convert %s: %v\n%s", f, err, out)
+		}
+	}
+}
+
+// wellFormed reads b to the end with encoding/xml.
+func wellFormed(b []byte) error {
+	d := xml.NewDecoder(bytes.NewReader(b))
+	for {
+		_, err := d.Token()
+		if err == io.EOF {
+			return nil
+		}
+		if err != nil {
+			return err
+		}
+	}
+}
+
+// TestChromiumMatchesPNG opens the HTML proof page of a paged screen
+// output in headless Chromium, a real browser, takes a screenshot of
+// page 1 and compares it with our 1× PNG of the same page. Fonts are
+// embedded so both draw the same glyphs. Two anti-aliasing rasterizers
+// never agree on every edge pixel, so the check bounds (a) the mean
+// channel difference and (b) the share of strongly different pixels
+// (any channel off by more than 64 of 255); the thresholds are ours,
+// set about twice what a correct page measures here, and far below what a
+// shifted panel, a missing line or a wrong colour gives.
+func TestChromiumMatchesPNG(t *testing.T) {
+	if testing.Short() {
+		t.Skip("runs a browser; skipped with -short")
+	}
+	chromium := tooltest.Require(t, "chromium", "chromium")
+	spec := screenSpec(t, 12, `  web:
+    kind: screen
+    trim: 900px x 700px
+    fonts: {embed: true}
+`, "")
+	dir := t.TempDir()
+	buildTo(t, spec, dir)
+	shot := filepath.Join(t.TempDir(), "shot.png")
+	index, _ := filepath.Abs(filepath.Join(dir, "web", "index.html"))
+	cmd := exec.Command(chromium, "--headless", "--no-sandbox", "--disable-gpu", "--disable-background-networking",
+		"--disable-component-update", "--disable-sync", "--no-first-run", "--user-data-dir="+t.TempDir(),
+		"--hide-scrollbars", "--force-device-scale-factor=1", "--window-size=900,700",
+		"--screenshot="+shot, "file://"+index)
+	if out, err := cmd.CombinedOutput(); err != nil {
+		t.Fatalf("chromium: %v\n%s", err, out)
+	}
+	theirs := readPNG(t, shot)
+	ours := readPNG(t, filepath.Join(dir, "web", "page-001.png"))
+	if theirs.Bounds().Size() != ours.Bounds().Size() {
+		t.Fatalf("screenshot %v, our PNG %v", theirs.Bounds().Size(), ours.Bounds().Size())
+	}
+	mean, strong := compare(ours, theirs)
+	t.Logf("Chromium vs our PNG: mean channel difference %.2f, strongly different pixels %.2f%%", mean, strong*100)
+	if mean > chromeMeanLimit || strong > chromeStrongLimit {
+		t.Errorf("Chromium's rendering differs from our PNG: mean %.2f (limit %.1f), strong %.2f%% (limit %.1f%%)",
+			mean, chromeMeanLimit, strong*100, chromeStrongLimit*100)
+	}
+	// Per panel: a panel drawn in the wrong place or with a wrong curve
+	// stands out even when the page mean is small.
+	j, _ := loadJob(spec)
+	p, _ := prepare(j, j.spec.Output("web"))
+	pg := &p.plan.Pages[0]
+	px := func(v float64) int { return int(math.Round(v * 96 / 72)) }
+	worst := 0.0
+	for _, pn := range pg.Panels {
+		r := image.Rect(px(pn.Plot.X0), px(pg.Media.H()-pn.Plot.Y1), px(pn.Plot.X1), px(pg.Media.H()-pn.Plot.Y0))
+		_, s := compare(subImage(ours, r), subImage(theirs, r))
+		worst = max(worst, s)
+		if s > chromePanelLimit {
+			t.Errorf("panel %q: %.1f%% of its plot's pixels differ strongly from Chromium's (limit %.1f%%)",
+				p.feat.Data.Series[pn.Item].Term, s*100, chromePanelLimit*100)
+		}
+	}
+	t.Logf("worst panel: %.2f%% strongly different pixels", worst*100)
+}
+
+// Limits of TestChromiumMatchesPNG; see there.
+const (
+	chromeMeanLimit   = 2.0
+	chromeStrongLimit = 0.01
+	chromePanelLimit  = 0.01
+)
