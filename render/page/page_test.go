@@ -1,0 +1,524 @@
+package page
+
+import (
+	"bytes"
+	"image"
+	"image/color"
+	"math"
+	"math/rand/v2"
+	"slices"
+	"strconv"
+	"strings"
+	"testing"
+	"time"
+	"unicode/utf8"
+
+	"github.com/tdewolff/canvas"
+
+	"sheaf/layout"
+	"sheaf/layout/fonts"
+	"sheaf/palette"
+	"sheaf/render/curve"
+	"sheaf/render/pdf"
+	"sheaf/render/raster"
+	"sheaf/specs"
+	"sheaf/specs/series"
+)
+
+const smallSpec = "../../testdata/small/spec.yaml"
+
+// smallFeature prepares testdata/small's print output as the build does
+// (cmd/sheaf prepare): spec, data, fonts, layout, palette. edit, when not
+// nil, changes the spec before anything is computed from it.
+func smallFeature(t testing.TB, edit func(s *specs.Spec, out *specs.Output)) *Feature {
+	t.Helper()
+	s, err := specs.Load(smallSpec)
+	if err != nil {
+		t.Fatal(err)
+	}
+	d, err := series.Load(s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	out := s.Output("print")
+	if out == nil {
+		t.Fatal("testdata/small has no print output")
+	}
+	if edit != nil {
+		edit(s, out)
+	}
+	fs, err := fonts.Load(s, out)
+	if err != nil {
+		t.Fatal(err)
+	}
+	var groups []layout.Group
+	for _, g := range d.Groups {
+		groups = append(groups, layout.Group{Heading: g.Heading, Count: g.Count})
+	}
+	plan, err := layout.Solve(s, out, fs, groups)
+	if err != nil {
+		t.Fatal(err)
+	}
+	pal, err := palette.Default(float64(d.Span.From), float64(d.Span.To))
+	if err != nil {
+		t.Fatal(err)
+	}
+	return NewFeature(s, out, plan, d, pal, fs)
+}
+
+// proof rasterizes page i of f whole (media box) at dpi on white.
+func proof(t testing.TB, f *Feature, i int, dpi float64) *image.RGBA {
+	t.Helper()
+	m := f.Plan.Pages[i].Media
+	img, err := raster.Draw(m.W(), m.H(), dpi, color.White, func(ctx *canvas.Context) error { return f.Draw(ctx, i) })
+	if err != nil {
+		t.Fatal(err)
+	}
+	return img
+}
+
+// at returns the pixel under page point (x, y) (points, y up) of a
+// whole-page proof.
+func at(img *image.RGBA, pageH, dpi, x, y float64) palette.Color {
+	k := dpi / 72
+	c := img.RGBAAt(int(x*k), int((pageH-y)*k))
+	return palette.FromRGB(palette.RGB{R: float64(c.R) / 255, G: float64(c.G) / 255, B: float64(c.B) / 255})
+}
+
+// TestTickYearsNeverCollide is a property test over plot widths from 20
+// to 1000 pt, spans from 20 to 300 years and tick sizes from 5 to 9 pt:
+// adjacent year labels, centred on their ticks, are at least one em apart
+// (the em as the space between labels: common practice for axis labels),
+// ticks are round years (multiples of a step from 5, 10, 20, 25, 50, 100,
+// …) inside the span, evenly spaced, and the step is the smallest round
+// one that leaves that room.
+func TestTickYearsNeverCollide(t *testing.T) {
+	fs, err := fonts.Default()
+	if err != nil {
+		t.Fatal(err)
+	}
+	round := []int{5, 10, 20, 25, 50, 100, 200, 250, 500, 1000}
+	r := rand.New(rand.NewPCG(7, 11))
+	checked := 0
+	for _, size := range []float64{5, 5.5, 6.5, 9} {
+		four := fs.Width(fonts.Regular, size, "0000")
+		for span := 20; span <= 300; span += 7 + r.IntN(5) {
+			from := 1500 + r.IntN(400)
+			f := &Feature{Data: &series.Set{Span: specs.Span{From: from, To: from + span}}, Fonts: fs}
+			for width := 20.0; width <= 1000; width += 3 + 10*r.Float64() {
+				ys := f.tickYears(width, size)
+				x := func(y int) float64 { return (float64(y-from) / float64(span)) * width }
+				step := 0
+				for i, y := range ys {
+					if y < from || y > from+span {
+						t.Fatalf("size %g, span %d–%d, width %.1f: tick %d outside the span", size, from, from+span, width, y)
+					}
+					if i == 0 {
+						continue
+					}
+					d := y - ys[i-1]
+					if step == 0 {
+						step = d
+					} else if d != step {
+						t.Fatalf("size %g, span %d–%d, width %.1f: uneven ticks %v", size, from, from+span, width, ys)
+					}
+					wa := fs.Width(fonts.Regular, size, strconv.Itoa(ys[i-1]))
+					wb := fs.Width(fonts.Regular, size, strconv.Itoa(y))
+					if gap := x(y) - x(ys[i-1]) - (wa+wb)/2; gap < size-1e-9 {
+						t.Fatalf("size %g, span %d–%d, width %.1f: labels %d and %d are %.2f pt apart, want ≥ %g (one em)",
+							size, from, from+span, width, ys[i-1], y, gap, size)
+					}
+				}
+				// Round years: multiples of a round step (one tick alone:
+				// of 5 at least).
+				if len(ys) >= 2 && !slices.Contains(round, step) {
+					t.Fatalf("size %g, span %d–%d, width %.1f: step %d is not round", size, from, from+span, width, step)
+				}
+				for _, y := range ys {
+					if y%max(step, 5) != 0 {
+						t.Fatalf("size %g, span %d–%d, width %.1f: tick %d is not a multiple of %d", size, from, from+span, width, y, max(step, 5))
+					}
+				}
+				// Minimal: the round step below the chosen one would not
+				// leave a four-digit label and an em.
+				if len(ys) >= 2 {
+					for i, s := range round {
+						if s == step && i > 0 {
+							if prev := float64(round[i-1]) * width / float64(span); prev >= four+size {
+								t.Fatalf("size %g, span %d, width %.1f: step %d chosen, but %d leaves %.1f pt ≥ %.1f", size, span, width, step, round[i-1], prev, four+size)
+							}
+						}
+					}
+				}
+				checked++
+			}
+		}
+	}
+	if checked < 5000 {
+		t.Errorf("only %d cases checked", checked)
+	}
+}
+
+// TestLabelsFit checks how terms are set beside the peak year
+// (project rule, issue 7 quality: shrink to 85 % of the label size, never
+// under the type floor of 5 pt print or 7.5 pt screen — common practice
+// for figure text — then cut with an ellipsis), and that Labels reports
+// it. Terms and widths are invented for the test.
+func TestLabelsFit(t *testing.T) {
+	tests := []struct {
+		name          string
+		kind          specs.Kind
+		label         float64 // output's label size, pt
+		term          string
+		panelW        float64 // 0: the room roomFor takes at the floor size, less 0.01 pt
+		roomFor       string
+		wantShrunk    bool
+		wantTruncated bool
+		wantText      string // "": the term, or any cut of it when truncated
+	}{
+		{"fits", specs.Print, 7, "boiler", 80, "", false, false, ""},
+		{"a little long shrinks", specs.Print, 7, "steamboatmanship", 0, "", true, false, ""}, // room: 92 % of its size, set below
+		{"far too long is cut", specs.Print, 7, "electrophotographically", 55, "", true, true, ""},
+		{"cut drops a trailing hyphen", specs.Print, 7, "semi-conductor", 0, "semi-c…", true, true, "semi…"},
+		{"runes cut whole", specs.Print, 7, "Maßstabsänderungen", 0, "Maßstabsä…", true, true, "Maßstabs…"},
+		{"no room at all", specs.Print, 7, "boiler", 0, "b…", true, true, "…"},
+		{"type at the floor has no room to shrink", specs.Print, 5, "electrophotographically", 50, "", false, true, ""},
+		{"screen floor is 7.5 pt", specs.Screen, 8, "electrophotographically", 60, "", true, true, ""},
+	}
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			f := smallFeature(t, func(s *specs.Spec, out *specs.Output) {
+				out.Type.Label = specs.Length(tc.label)
+			})
+			f.Output.Kind = tc.kind
+			f.Data.Series[0].Term = tc.term
+			tsize := f.Output.Type.Ticks.Pt()
+			peakW := f.Fonts.Width(fonts.Regular, tsize, f.peakText(&f.Data.Series[0])) + tsize*0.8
+			floor := 5.0
+			if tc.kind == specs.Screen {
+				floor = 7.5
+			}
+			floor = min(tc.label, max(0.85*tc.label, floor))
+			f.Plan.PanelW = tc.panelW
+			switch {
+			case tc.roomFor != "":
+				f.Plan.PanelW = peakW + f.Fonts.Width(fonts.Bold, floor, tc.roomFor) - 0.01
+			case tc.panelW == 0: // room for the term at 92 % of its size
+				f.Plan.PanelW = peakW + f.Fonts.Width(fonts.Bold, 0.92*tc.label, tc.term)
+			}
+			room := f.Plan.PanelW - peakW
+			f.fitLabels()
+			ls := f.Labels()
+			if len(ls) != len(f.Data.Series) {
+				t.Fatalf("Labels() has %d entries, want %d", len(ls), len(f.Data.Series))
+			}
+			l := ls[0]
+			t.Logf("%q in %.1f pt: %q at %.2f pt", tc.term, room, l.Text, l.Size)
+			if l.Item != 0 || l.Term != tc.term {
+				t.Errorf("label is item %d %q, want 0 %q", l.Item, l.Term, tc.term)
+			}
+			if l.Shrunk != tc.wantShrunk || l.Truncated != tc.wantTruncated {
+				t.Errorf("shrunk %v, truncated %v; want %v, %v", l.Shrunk, l.Truncated, tc.wantShrunk, tc.wantTruncated)
+			}
+			if l.Size < floor-1e-9 || l.Size > tc.label {
+				t.Errorf("size %.3f outside floor %.3f – label size %g", l.Size, floor, tc.label)
+			}
+			if l.Shrunk != (l.Size < tc.label) {
+				t.Errorf("Shrunk is %v at size %.3f of %g", l.Shrunk, l.Size, tc.label)
+			}
+			if w := f.Fonts.Width(fonts.Bold, l.Size, l.Text); w > room+1e-9 {
+				t.Errorf("%q at %.2f pt is %.2f pt wide; the room is %.2f", l.Text, l.Size, w, room)
+			}
+			if tc.wantText != "" && l.Text != tc.wantText {
+				t.Errorf("text %q, want %q", l.Text, tc.wantText)
+			}
+			if !l.Truncated {
+				if l.Text != tc.term {
+					t.Errorf("text %q, want the term %q", l.Text, tc.term)
+				}
+				return
+			}
+			if l.Size != floor {
+				t.Errorf("cut at %.3f pt before shrinking to the floor %.3f", l.Size, floor)
+			}
+			head, ok := strings.CutSuffix(l.Text, "…")
+			if !ok || !strings.HasPrefix(tc.term, head) || !utf8.ValidString(head) {
+				t.Fatalf("cut text %q is not a prefix of %q and an ellipsis", l.Text, tc.term)
+			}
+			if strings.HasSuffix(head, "-") || strings.HasSuffix(head, " ") {
+				t.Errorf("cut text %q ends in a hyphen or space before the ellipsis", l.Text)
+			}
+			// As long as fits: one more rune would not.
+			n := utf8.RuneCountInString(head)
+			longer := strings.TrimRight(string([]rune(tc.term)[:n+1]), " -") + "…"
+			if f.Fonts.Width(fonts.Bold, l.Size, longer) <= room && longer != l.Text {
+				t.Errorf("cut to %q, but %q fits too", l.Text, longer)
+			}
+		})
+	}
+}
+
+// TestPlotMapKeepsInkInside builds every panel's curve through PlotMap,
+// for the small feature's data and for random walks, at several line
+// widths, and checks that the stroke (centre ± half the width) and the
+// peak dot (radius plus half its hairline ring) stay within the plot
+// rectangle's height, and the centre line within its width, so nothing
+// touches the label row above or the baseline's neighbours (the layout
+// contract in PlotMap's doc). Line widths are common practice for small
+// multiples (0.25 pt hairline to 2 pt).
+func TestPlotMapKeepsInkInside(t *testing.T) {
+	r := rand.New(rand.NewPCG(3, 9))
+	for _, lw := range []float64{0.25, 0.75, 1.2, 2} {
+		for _, dot := range []bool{true, false} {
+			for _, random := range []bool{false, true} {
+				f := smallFeature(t, func(_ *specs.Spec, out *specs.Output) {
+					out.Line = specs.Length(lw)
+					out.PeakDot = dot
+				})
+				if random {
+					for i := range f.Data.Series {
+						sr := &f.Data.Series[i]
+						v := 10 * r.Float64()
+						sr.Peak = 0
+						for j := range sr.Values {
+							v = math.Abs(v + 4*r.NormFloat64())
+							sr.Values[j] = v
+							if v > sr.Peak {
+								sr.Peak, sr.PeakYear = v, f.Data.Span.From+j
+							}
+						}
+						sr.YMax = sr.Peak
+					}
+				}
+				for _, pg := range f.Plan.Pages {
+					for _, pn := range pg.Panels {
+						checkInside(t, f, pn, lw, dot)
+					}
+				}
+			}
+		}
+	}
+}
+
+func checkInside(t *testing.T, f *Feature, pn layout.Panel, lw float64, dot bool) {
+	t.Helper()
+	sr := &f.Data.Series[pn.Item]
+	m, err := f.PlotMap(pn)
+	if err != nil {
+		t.Fatal(err)
+	}
+	runs, err := curve.Build(f.Data.Years, sr.Values, m, nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	pr := pn.Plot
+	const eps = 1e-9
+	for _, run := range runs {
+		pts := []curve.Point{run.Start}
+		for _, z := range run.Beziers {
+			for k := 1; k <= 32; k++ {
+				pts = append(pts, z.At(float64(k)/32))
+			}
+		}
+		for _, p := range pts {
+			if p.Y-lw/2 < pr.Y0-eps || p.Y+lw/2 > pr.Y1+eps || p.X < pr.X0-eps || p.X > pr.X1+eps {
+				t.Fatalf("%q, line %g pt: curve point %.3f,%.3f (± %.3f) leaves the plot %v", sr.Term, lw, p.X, p.Y, lw/2, pr)
+			}
+		}
+	}
+	if dot && sr.Peak > 0 {
+		pk := m.Apply(float64(sr.PeakYear), sr.Peak)
+		reach := f.peakRadius() + Hairline/2
+		if pk.Y+reach > pr.Y1+eps || pk.Y-reach < pr.Y0-eps {
+			t.Fatalf("%q, line %g pt: peak dot at y %.3f reaches %.3f–%.3f, the plot is %.3f–%.3f", sr.Term, lw, pk.Y, pk.Y-reach, pk.Y+reach, pr.Y0, pr.Y1)
+		}
+	}
+}
+
+// TestDrawSmall draws every page of the small feature into canvas's
+// rasterizer (through sheaf/render/raster) and into sheaf/render/pdf,
+// without error.
+func TestDrawSmall(t *testing.T) {
+	f := smallFeature(t, nil)
+	if len(f.Plan.Pages) == 0 {
+		t.Fatal("no pages")
+	}
+	var buf bytes.Buffer
+	w := pdf.NewWriter(&buf, pdf.Options{Title: f.Spec.Title, Date: time.Date(2000, 1, 1, 0, 0, 0, 0, time.UTC)})
+	for i, pg := range f.Plan.Pages {
+		img := proof(t, f, i, 100)
+		// Something was drawn: the page is not blank white.
+		if blank(img) {
+			t.Errorf("page %d: the proof is blank", i+1)
+		}
+		r := func(r layout.Rect) canvas.Rect { return canvas.Rect{X0: r.X0, Y0: r.Y0, X1: r.X1, Y1: r.Y1} }
+		setup := pdf.PageSetup{Boxes: pdf.PageBoxes{Media: r(pg.Media), Bleed: r(pg.Bleed), Trim: r(pg.Trim)}, Marks: &pdf.MarkOptions{}}
+		if err := w.AddPage(setup, func(c *canvas.Canvas) error { return f.Draw(canvas.NewContext(c), i) }); err != nil {
+			t.Fatalf("page %d to PDF: %v", i+1, err)
+		}
+	}
+	if err := w.Close(); err != nil {
+		t.Fatal(err)
+	}
+	if !bytes.HasPrefix(buf.Bytes(), []byte("%PDF-")) {
+		t.Error("the PDF writer wrote no PDF header")
+	}
+}
+
+func blank(img *image.RGBA) bool {
+	for _, v := range img.Pix {
+		if v != 0xff {
+			return false
+		}
+	}
+	return true
+}
+
+// TestBadPageIndex checks that a page or panel that does not exist is an
+// error (project rule: bad input returns an error, never a panic).
+func TestBadPageIndex(t *testing.T) {
+	f := smallFeature(t, nil)
+	n := len(f.Plan.Pages)
+	draw := func(fn func(ctx *canvas.Context) error) error {
+		_, err := raster.Draw(100, 100, 72, color.White, fn)
+		return err
+	}
+	for _, i := range []int{-1, n, n + 5} {
+		err := draw(func(ctx *canvas.Context) error { return f.Draw(ctx, i) })
+		if err == nil || !strings.Contains(err.Error(), "page "+strconv.Itoa(i+1)) {
+			t.Errorf("Draw(page index %d) = %v, want an error naming page %d", i, err, i+1)
+		}
+	}
+	pn := f.Plan.Pages[0].Panels[0]
+	for _, item := range []int{-1, len(f.Data.Series)} {
+		pn.Item = item
+		if err := draw(func(ctx *canvas.Context) error { return f.DrawPanel(ctx, pn) }); err == nil {
+			t.Errorf("DrawPanel(item %d) gave no error", item)
+		}
+	}
+}
+
+// TestKeyStripCoversPalette samples the colour key on a proof at 200 dpi:
+// the strip's left end has the palette's first colour and its right end
+// the last, within ΔE00 2 (CIEDE2000, Sharma, Wu & Dalal 2005; 2 is about
+// one just-noticeable difference, CSS Color 4 §"color-difference"), colours
+// read as sRGB (IEC 61966-2-1) and converted to CIELAB.
+func TestKeyStripCoversPalette(t *testing.T) {
+	const dpi = 200
+	f := smallFeature(t, nil)
+	pg := f.Plan.Pages[0]
+	strip := pg.KeyStrip
+	if strip.W() <= 0 {
+		t.Fatal("the small feature has no key strip")
+	}
+	img := proof(t, f, 0, dpi)
+	k := dpi / 72.0
+	row := int((pg.Media.H() - (strip.Y0+strip.Y1)/2) * k)
+	right := int(strip.X1*k) - 3 // three pixels in from the strip's right end
+	// Walk left along the strip to the paper between it and its caption.
+	left := right
+	for left > 0 && img.RGBAAt(left-1, row) != (color.RGBA{0xff, 0xff, 0xff, 0xff}) {
+		left--
+	}
+	if float64(right-left) < strip.W()*k/3 {
+		t.Fatalf("strip found from pixel %d to %d, under a third of the key band %.0f px", left, right, strip.W()*k)
+	}
+	left += 3
+	from, to := float64(f.Data.Span.From), float64(f.Data.Span.To)
+	pxAt := func(x int) palette.Color {
+		c := img.RGBAAt(x, row)
+		return palette.FromRGB(palette.RGB{R: float64(c.R) / 255, G: float64(c.G) / 255, B: float64(c.B) / 255})
+	}
+	for _, c := range []struct {
+		name string
+		x    int
+		want palette.Color
+	}{
+		{"left end, first year", left, f.Palette.At(from).Clip()},
+		{"right end, last year", right, f.Palette.At(to).Clip()},
+	} {
+		got := pxAt(c.x)
+		if d := palette.DeltaE00(got.Lab(), c.want.Lab()); d > 2 {
+			t.Errorf("%s: pixel %d is %s, palette %s: ΔE00 %.2f > 2", c.name, c.x, got.Hex(), c.want.Hex(), d)
+		}
+	}
+	// And the two ends differ as the palette's ends do: the strip is not
+	// one colour.
+	if d := palette.DeltaE00(pxAt(left).Lab(), pxAt(right).Lab()); d < 20 {
+		t.Errorf("the strip's ends differ by ΔE00 %.1f only", d)
+	}
+}
+
+// TestDescribe checks the accessible title and description of a panel.
+func TestDescribe(t *testing.T) {
+	f := smallFeature(t, nil)
+	for i, sr := range f.Data.Series {
+		title, desc := f.Describe(i)
+		if title != sr.Term {
+			t.Errorf("item %d: title %q, want %q", i, title, sr.Term)
+		}
+		for _, want := range []string{strconv.Quote(sr.Term), "1900–1905", "highest in " + strconv.Itoa(sr.PeakYear)} {
+			if !strings.Contains(desc, want) {
+				t.Errorf("item %d: description %q lacks %q", i, desc, want)
+			}
+		}
+	}
+}
+
+// TestPaperFillsBleed checks that a paper colour other than white fills
+// the bleed box, so the colour runs past the trim (print-facts: bleed is
+// the area beyond the trim that printed colour must reach, ISO 32000-1
+// §14.11.2 BleedBox), and not the slug beyond it; white paper is left
+// unprinted.
+func TestPaperFillsBleed(t *testing.T) {
+	const dpi = 100
+	tests := []struct {
+		name  string
+		paper specs.Color
+		want  color.RGBA // in the bleed
+	}{
+		{"cream sRGB", specs.Color{Space: specs.SpaceSRGB, V: [3]float64{0.96, 0.93, 0.86}},
+			color.RGBA{245, 237, 219, 255}}, // 0.96·255 = 244.8 → 245 …
+		// CIELAB L 95, a 0, b 10 (D65): #f8f1e0 by the palette package's
+		// conversion (checked against LittleCMS in its tests).
+		{"warm Lab", specs.Color{Space: specs.SpaceLab, V: [3]float64{95, 0, 10}},
+			rgba(palette.FromLab(palette.Lab{L: 95, A: 0, B: 10}).RGB())},
+		{"white is not printed", specs.Color{Space: specs.SpaceSRGB, V: [3]float64{1, 1, 1}},
+			color.RGBA{255, 255, 255, 255}},
+	}
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			f := smallFeature(t, func(s *specs.Spec, _ *specs.Output) { s.Palette.Paper = tc.paper })
+			pg := f.Plan.Pages[0]
+			if pg.Bleed.X0 >= pg.Trim.X0 || pg.Media.X0 >= pg.Bleed.X0 {
+				t.Fatalf("the small feature needs bleed and slug: media %v bleed %v trim %v", pg.Media, pg.Bleed, pg.Trim)
+			}
+			// Our background is a colour no page draws, to tell unprinted
+			// from printed white.
+			bg := color.RGBA{0, 0xff, 0, 0xff}
+			m := pg.Media
+			img, err := raster.Draw(m.W(), m.H(), dpi, bg, func(ctx *canvas.Context) error { return f.Draw(ctx, 0) })
+			if err != nil {
+				t.Fatal(err)
+			}
+			k := dpi / 72.0
+			px := func(x, y float64) color.RGBA { return img.RGBAAt(int(x*k), int((m.H()-y)*k)) }
+			midY := (pg.Trim.Y0 + pg.Trim.Y1) / 2
+			bleed := px((pg.Bleed.X0+pg.Trim.X0)/2, midY)
+			slug := px((m.X0+pg.Bleed.X0)/2, midY)
+			wantBleed := tc.want
+			if tc.paper.V == [3]float64{1, 1, 1} {
+				wantBleed = bg // white paper: nothing printed
+			}
+			if bleed != wantBleed {
+				t.Errorf("bleed pixel %v, want %v", bleed, wantBleed)
+			}
+			if slug != bg {
+				t.Errorf("slug pixel %v: the paper colour ran past the bleed box", slug)
+			}
+			if got := f.PaperColor(); got != tc.want {
+				t.Errorf("PaperColor() = %v, want %v", got, tc.want)
+			}
+		})
+	}
+}
