@@ -15,8 +15,10 @@ import (
 	"golang.org/x/image/math/fixed"
 )
 
-// Thumbnail scales img to width pixels wide, keeping its proportions.
+// Thumbnail scales img to width pixels wide (at least one), keeping its
+// proportions.
 func Thumbnail(img image.Image, width int) *image.RGBA {
+	width = max(1, width)
 	b := img.Bounds()
 	if b.Dx() == 0 {
 		return image.NewRGBA(image.Rect(0, 0, width, width))
