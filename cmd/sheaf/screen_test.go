@@ -19,7 +19,10 @@ import (
 	"strings"
 	"testing"
 
+	"github.com/tdewolff/canvas"
+
 	"sheaf/render/tooltest"
+	"sheaf/specs"
 )
 
 // TestSlug names panel files safely. The folding follows Unicode NFKD
@@ -346,3 +349,104 @@ const (
 	chromeStrongLimit = 0.01
 	chromePanelLimit  = 0.01
 )
+
+// catalogJob loads the 4,000-term catalog once per benchmark.
+func catalogJob(b *testing.B) *job {
+	b.Helper()
+	spec, err := catalog()
+	if err != nil {
+		b.Fatal(err)
+	}
+	j, err := loadJob(spec)
+	if err != nil {
+		b.Fatal(err)
+	}
+	return j
+}
+
+// screenBench prepares the catalog's web output (the demo's, 1200 px
+// wide, minimum panel width 150 px: six columns) without embedded fonts,
+// scrolling or, with pageH > 0, in pages of that height.
+func screenBench(b *testing.B, j *job, pageH float64) *prepared {
+	b.Helper()
+	out := *j.spec.Output("web")
+	out.Fonts.Embed = false
+	out.MinPanelWidth = specs.Length(150 * 0.75)
+	if pageH > 0 {
+		out.Trim.H = specs.Length(pageH * 0.75)
+		out.Flow = specs.FlowPages
+	}
+	p, err := prepare(j, &out)
+	if err != nil {
+		b.Fatal(err)
+	}
+	return p
+}
+
+// BenchmarkCatalogScrollSVG: the catalog as one 1200 px scrolling SVG
+// (layout done once, outside the loop). Reports its size and the size a
+// 48-panel share of it takes.
+func BenchmarkCatalogScrollSVG(b *testing.B) {
+	j := catalogJob(b)
+	p := screenBench(b, j, 0)
+	var cw countingWriter
+	for b.Loop() {
+		cw = countingWriter{}
+		pg := p.plan.Pages[0].Trim
+		if err := drawSVG(&cw, pg, screenSVGOptions(j, p), func(ctx *canvas.Context) error { return p.feat.Draw(ctx, 0) }); err != nil {
+			b.Fatal(err)
+		}
+	}
+	n := p.plan.Panels()
+	b.ReportMetric(float64(n), "panels")
+	b.ReportMetric(float64(cw.n)/(1<<20), "MB")
+	b.ReportMetric(float64(cw.n)/float64(n)*48/1024, "KB/48-panels")
+}
+
+// BenchmarkCatalogPanelFiles: one SVG per term for the whole catalog,
+// written to memory. Reports the total and the mean file size.
+func BenchmarkCatalogPanelFiles(b *testing.B) {
+	j := catalogJob(b)
+	p := screenBench(b, j, 0)
+	var total int64
+	n := 0
+	for b.Loop() {
+		total, n = 0, 0
+		for _, pn := range p.plan.Pages[0].Panels {
+			pn, win := panelWindow(p.plan, pn)
+			var cw countingWriter
+			if err := drawSVG(&cw, win, screenSVGOptions(j, p), func(ctx *canvas.Context) error { return p.feat.DrawPanel(ctx, pn) }); err != nil {
+				b.Fatal(err)
+			}
+			total += cw.n
+			n++
+		}
+	}
+	b.ReportMetric(float64(n), "files")
+	b.ReportMetric(float64(total)/(1<<20), "MB-total")
+	b.ReportMetric(float64(total)/float64(n)/1024, "KB/file")
+}
+
+// BenchmarkCatalogPageSVG: the catalog in 1200 px wide pages of 6 × 8 =
+// 48 panels (after the first page; minimum panel width 150 px, the
+// shortest page height that holds eight rows); reports a full page's size.
+func BenchmarkCatalogPageSVG(b *testing.B) {
+	j := catalogJob(b)
+	var p *prepared
+	for h := 1200.0; ; h += 10 {
+		p = screenBench(b, j, h)
+		if p.plan.RowsPerPage >= 8 && p.plan.Columns == 6 || h > 3000 {
+			break
+		}
+	}
+	i := 1 // a page after the first: no title, all panels
+	var cw countingWriter
+	for b.Loop() {
+		cw = countingWriter{}
+		if err := drawSVG(&cw, p.plan.Pages[i].Trim, screenSVGOptions(j, p), func(ctx *canvas.Context) error { return p.feat.Draw(ctx, i) }); err != nil {
+			b.Fatal(err)
+		}
+	}
+	b.ReportMetric(float64(len(p.plan.Pages[i].Panels)), "panels/page")
+	b.ReportMetric(float64(cw.n)/1024, "KB/page")
+}
