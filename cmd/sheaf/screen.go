@@ -21,6 +21,7 @@ import (
 	"sheaf/layout"
 	"sheaf/render/raster"
 	"sheaf/render/svg"
+	"sheaf/specs"
 )
 
 // screenScales are the PNG resolutions of every screen page: 1× is 96 dpi
@@ -45,11 +46,12 @@ func buildScreen(j *job, p *prepared, dir string, date time.Time) ([]string, err
 	odir := filepath.Join(dir, out.Name)
 	n := len(p.plan.Pages)
 	var files []string
-	names := make([]string, n)
+	var shown []proofItem // what the proof page shows
 	for i := range p.plan.Pages {
 		pg := &p.plan.Pages[i]
-		names[i] = fmt.Sprintf("page-%03d.svg", i+1)
-		path := filepath.Join(odir, names[i])
+		name := fmt.Sprintf("page-%03d.svg", i+1)
+		shown = append(shown, proofItem{name, pg.Trim.W(), pg.Trim.H()})
+		path := filepath.Join(odir, name)
 		opts := screenSVGOptions(j, p)
 		if n > 1 {
 			opts.Title = fmt.Sprintf("%s (page %d of %d)", opts.Title, i+1, n)
@@ -61,6 +63,17 @@ func buildScreen(j *job, p *prepared, dir string, date time.Time) ([]string, err
 			return nil, err
 		}
 		files = append(files, path)
+	}
+	if out.Spreads && out.Flow == specs.FlowPages {
+		spreads, err := writeSpreads(j, p, odir)
+		if err != nil {
+			return nil, err
+		}
+		files = append(files, spreads...)
+		shown = shown[:0]
+		for k, sp := range p.plan.Spreads() {
+			shown = append(shown, proofItem{filepath.Base(spreads[k]), sp.Sheet.W(), sp.Sheet.H()})
+		}
 	}
 	pngs, skipped, err := writeScreenPNGs(p, odir)
 	if err != nil {
@@ -80,11 +93,40 @@ func buildScreen(j *job, p *prepared, dir string, date time.Time) ([]string, err
 	}
 	index := filepath.Join(odir, "index.html")
 	if err := writeAtomic(index, func(w io.Writer) error {
-		return writeProofPage(w, j, p, names, len(panels))
+		return writeProofPage(w, j, p, shown, len(panels))
 	}); err != nil {
 		return nil, err
 	}
 	return append(files, index), nil
+}
+
+// writeSpreads writes one SVG per spread (dir/spread-NNN.svg): a
+// left-hand page and the right-hand page after it side by side, as a
+// reader of a magazine app sees them.
+func writeSpreads(j *job, p *prepared, odir string) ([]string, error) {
+	var files []string
+	spreads := p.plan.Spreads()
+	for k, sp := range spreads {
+		opts := screenSVGOptions(j, p)
+		opts.Title = fmt.Sprintf("%s (spread %d of %d)", opts.Title, k+1, len(spreads))
+		path := filepath.Join(odir, fmt.Sprintf("spread-%03d.svg", k+1))
+		err := writeAtomic(path, func(w io.Writer) error {
+			return drawSVG(w, sp.Sheet, opts, func(ctx *canvas.Context) error {
+				for _, sg := range sp.Pages {
+					ctx.SetView(canvas.Identity.Translate(sg.Offset.X*25.4/72, sg.Offset.Y*25.4/72))
+					if err := p.feat.Draw(ctx, sg.Page); err != nil {
+						return err
+					}
+				}
+				return nil
+			})
+		})
+		if err != nil {
+			return nil, err
+		}
+		files = append(files, path)
+	}
+	return files, nil
 }
 
 // screenSVGOptions are the document options every SVG of an output shares.
@@ -276,11 +318,17 @@ func uniqueSlug(s string, used map[string]bool) string {
 	return name
 }
 
+// proofItem is one SVG the proof page shows, with its size in points.
+type proofItem struct {
+	name string
+	w, h float64
+}
+
 // writeProofPage writes the HTML proof page of a screen output: every
 // page's SVG in order, at its own size, each captioned with its name and
 // size, the first at the page's top-left corner, so a screenshot of the
 // window shows page 1 exactly as a browser draws it.
-func writeProofPage(w io.Writer, j *job, p *prepared, names []string, panels int) error {
+func writeProofPage(w io.Writer, j *job, p *prepared, items []proofItem, panels int) error {
 	var b bytes.Buffer
 	esc := html.EscapeString
 	title := fmt.Sprintf("%s — %s (screen proof)", j.spec.Title, p.out.Name)
@@ -298,12 +346,11 @@ figcaption{padding:6px 12px}
 </head>
 <body>
 `, esc(title))
-	for i, name := range names {
-		pg := &p.plan.Pages[i]
-		wpx, hpx := pg.Trim.W()*96/72, pg.Trim.H()*96/72
+	for i, it := range items {
+		wpx, hpx := it.w*96/72, it.h*96/72
 		ws, hs := strconv.FormatFloat(roundTo(wpx, 1), 'f', -1, 64), strconv.FormatFloat(roundTo(hpx, 1), 'f', -1, 64)
-		fmt.Fprintf(&b, "<figure>\n<img src=\"%s\" width=\"%s\" height=\"%s\" alt=\"%s\">\n<figcaption>%s · %s × %s px · page %d of %d</figcaption>\n</figure>\n",
-			esc(name), ws, hs, esc(fmt.Sprintf("%s, page %d of %d", j.spec.Title, i+1, len(names))), esc(name), ws, hs, i+1, len(names))
+		fmt.Fprintf(&b, "<figure>\n<img src=\"%s\" width=\"%s\" height=\"%s\" alt=\"%s\">\n<figcaption>%s · %s × %s px · %d of %d</figcaption>\n</figure>\n",
+			esc(it.name), ws, hs, esc(fmt.Sprintf("%s, %d of %d", j.spec.Title, i+1, len(items))), esc(it.name), ws, hs, i+1, len(items))
 	}
 	fmt.Fprintf(&b, "<p style=\"padding:0 12px\">%s: %s", esc(p.out.Name), esc(p.plan.Summary()))
 	if panels > 0 {

@@ -145,6 +145,7 @@ const screenOutputs = `  web:
     kind: screen
     trim: 900px x 700px
     fonts: {embed: true}
+    spreads: true
 `
 
 const screenInserts = `inserts:
@@ -194,6 +195,7 @@ func TestScreenBuild(t *testing.T) {
 	for _, want := range []string{
 		"web/page-001.svg", "web/page-001.png", "web/page-001@2x.png", "web/index.html",
 		"tall/page-001.svg", "tall/page-002.svg", "tall/page-002@2x.png", "tall/index.html",
+		"tall/spread-001.svg", "tall/spread-002.svg",
 		"inserts/one.svg", "inserts/four.svg", "inserts/four.png", "inserts/four@2x.png", "inserts/column.pdf",
 	} {
 		if !has[want] {
@@ -237,6 +239,16 @@ func TestScreenBuild(t *testing.T) {
 	png2 := readPNG(t, filepath.Join(dir, "tall", "page-001@2x.png"))
 	if png1.Bounds().Size() != image.Pt(900, 700) || png2.Bounds().Size() != image.Pt(1800, 1400) {
 		t.Errorf("PNG sizes %v and %v, want 900×700 at 1× (96 dpi) and 1800×1400 at 2×", png1.Bounds().Size(), png2.Bounds().Size())
+	}
+	// Page 1 is a right-hand page alone; pages 2 and 3 face each other on
+	// one 1800 px sheet, both pages' panels in it.
+	spread, _ := os.ReadFile(filepath.Join(dir, "tall", "spread-002.svg"))
+	if !bytes.Contains(spread, []byte(`width="1800" height="700"`)) {
+		t.Errorf("spread 2 is not two 900 × 700 px pages side by side: %.160s", spread)
+	}
+	index, _ := os.ReadFile(filepath.Join(dir, "tall", "index.html"))
+	if !bytes.Contains(index, []byte(`<img src="spread-002.svg" width="1800" height="700"`)) {
+		t.Error("the proof page of a spreads output should show the spreads")
 	}
 	tall, _ := os.ReadFile(filepath.Join(dir, "tall", "page-001.svg"))
 	if !bytes.Contains(tall, []byte("@font-face{font-family:\"sheaf-subset\"")) {
