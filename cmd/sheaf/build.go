@@ -498,30 +498,69 @@ func (b *build) writeProofs(p *prepared, pages []pageEntry, dpi float64, odir st
 	b.pages[crel] = pages
 	if st.ProofsDrawn == 0 && prevOut != nil && samePages(prevOut.Pages, pages) {
 		if old := b.prev.file(crel); old != nil && keep(filepath.Join(b.final, crel), cpath, old.SHA256) {
+			for _, pg := range pages { // keep the thumbnails for the next build
+				name := fmt.Sprintf("%s-%g.thumb.png", pg.Inputs, dpi)
+				linkOrCopy(filepath.Join(b.final, cacheDir, p.out.Name, name), filepath.Join(b.stage.dir, cacheDir, p.out.Name, name))
+			}
 			return files, nil
 		}
 	}
+	// Thumbnails are cached beside the pages: scaling 84 proofs down costs
+	// more than the one page that changed.
 	thumbs := make([]image.Image, n)
+	errs = make([]error, n)
 	for i := range n {
-		img := fresh[i]
-		if img == nil { // kept: the PNG holds the same pixels
-			f, err := os.Open(files[i])
-			if err != nil {
-				return nil, err
-			}
-			img, err = png.Decode(f)
-			f.Close()
-			if err != nil {
-				return nil, fmt.Errorf("reading proof %s: %w", files[i], err)
-			}
-		}
-		thumbs[i] = contact.Thumbnail(img, 240)
+		wg.Add(1)
+		sem <- struct{}{}
+		go func(i int) {
+			defer func() { <-sem; wg.Done() }()
+			thumbs[i], errs[i] = b.thumbnail(p.out.Name, pages[i].Inputs, dpi, fresh[i], files[i])
+		}(i)
+	}
+	wg.Wait()
+	if err := errors.Join(errs...); err != nil {
+		return nil, err
 	}
 	sheet := contact.Sheet(thumbs, 4)
 	if err := writeAtomic(cpath, func(w io.Writer) error { return raster.WritePNG(w, sheet) }); err != nil {
 		return nil, err
 	}
 	return files, nil
+}
+
+// thumbnail returns a page's contact-sheet thumbnail: from the previous
+// build's cache when the page and resolution are the same, else scaled
+// from the proof (drawn now, or read back from its PNG, which holds the
+// same pixels) and cached.
+func (b *build) thumbnail(output, inputs string, dpi float64, img image.Image, proof string) (image.Image, error) {
+	name := fmt.Sprintf("%s-%g.thumb.png", inputs, dpi)
+	old := filepath.Join(b.final, cacheDir, output, name)
+	cur := filepath.Join(b.stage.dir, cacheDir, output, name)
+	if img == nil && !b.full {
+		if f, err := os.Open(old); err == nil {
+			t, err := png.Decode(f)
+			f.Close()
+			if err == nil && linkOrCopy(old, cur) == nil {
+				return t, nil
+			}
+		}
+	}
+	if img == nil {
+		f, err := os.Open(proof)
+		if err != nil {
+			return nil, err
+		}
+		img, err = png.Decode(f)
+		f.Close()
+		if err != nil {
+			return nil, fmt.Errorf("reading proof %s: %w", proof, err)
+		}
+	}
+	t := contact.Thumbnail(img, 240)
+	if err := writeAtomic(cur, func(w io.Writer) error { return raster.WritePNG(w, t) }); err != nil {
+		return nil, err
+	}
+	return t, nil
 }
 
 func samePages(a, b []pageEntry) bool {
