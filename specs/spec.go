@@ -8,6 +8,7 @@ package specs
 import (
 	"fmt"
 	"path/filepath"
+	"strings"
 )
 
 // Pos is a place in a spec or data file. Line and Col are 1-based; 0
@@ -318,4 +319,27 @@ type Insert struct {
 	Size   Size
 	Terms  []string
 	Title  string
+}
+
+// ForInsert returns a copy of the spec that selects exactly the insert's
+// terms, in its order and ungrouped, scaled as the feature is; errors
+// about those terms point at the insert's list (inserts.NAME.terms.N).
+func (s *Spec) ForInsert(in *Insert) *Spec {
+	c := *s
+	c.Terms = Terms{List: append([]string(nil), in.Terms...)}
+	c.Order = OrderListed
+	c.Group = GroupNone
+	c.positions = make(map[string]Pos, len(s.positions)+len(in.Terms)+1)
+	for k, v := range s.positions {
+		if k != "terms" && !strings.HasPrefix(k, "terms.") {
+			c.positions[k] = v
+		}
+	}
+	c.positions["terms"] = s.Where("inserts." + in.Name + ".terms")
+	c.positions["terms.list"] = c.positions["terms"]
+	for i := range in.Terms {
+		key := fmt.Sprintf("inserts.%s.terms.%d", in.Name, i)
+		c.positions[fmt.Sprintf("terms.list.%d", i)] = s.Where(key)
+	}
+	return &c
 }

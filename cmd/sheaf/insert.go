@@ -33,13 +33,9 @@ func prepareInsert(j *job, in *specs.Insert) (*preparedInsert, error) {
 		return nil, fmt.Errorf("%s: inserts.%s.output: no output named %q", j.spec.Where("inserts."+in.Name+".output"), in.Name, in.Output)
 	}
 	// The insert's own terms, in its order, scaled as the feature is.
-	sub := *j.spec
-	sub.Terms = specs.Terms{List: in.Terms}
-	sub.Order = specs.OrderListed
-	sub.Group = specs.GroupNone
-	data, err := series.Load(&sub)
+	data, err := series.Load(j.spec.ForInsert(in))
 	if err != nil {
-		return nil, fmt.Errorf("insert %q: %w", in.Name, err)
+		return nil, err
 	}
 	fs, err := fonts.Load(j.spec, out)
 	if err != nil {
@@ -56,12 +52,10 @@ func prepareInsert(j *job, in *specs.Insert) (*preparedInsert, error) {
 	return &preparedInsert{in: in, out: out, g: g}, nil
 }
 
-// buildInserts writes every insert of the spec to dir/inserts/: a PDF for an insert that borrows a print output, an
-// SVG and PNGs at 1× and 2× for a screen one. It returns the files
-// written.
-// All are laid out before any file is written, so bad input writes
-// nothing.
-func buildInserts(j *job, dir string, date time.Time) ([]string, error) {
+// prepareInserts lays out every insert of the spec; its errors are bad
+// input (a term missing from the data, a graphic too small), with the
+// spec's file:line:col.
+func prepareInserts(j *job) ([]*preparedInsert, error) {
 	var preps []*preparedInsert
 	for i := range j.spec.Inserts {
 		p, err := prepareInsert(j, &j.spec.Inserts[i])
@@ -69,6 +63,19 @@ func buildInserts(j *job, dir string, date time.Time) ([]string, error) {
 			return nil, err
 		}
 		preps = append(preps, p)
+	}
+	return preps, nil
+}
+
+// buildInserts writes every insert of the spec to dir/inserts/: a PDF for an insert that borrows a print output, an
+// SVG and PNGs at 1× and 2× for a screen one. It returns the files
+// written.
+// All are laid out before any file is written, so bad input writes
+// nothing.
+func buildInserts(j *job, dir string, date time.Time) ([]string, error) {
+	preps, err := prepareInserts(j)
+	if err != nil {
+		return nil, err
 	}
 	var files []string
 	idir := filepath.Join(dir, "inserts")

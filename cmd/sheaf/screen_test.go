@@ -462,3 +462,24 @@ func BenchmarkCatalogPageSVG(b *testing.B) {
 	b.ReportMetric(float64(len(p.plan.Pages[i].Panels)), "panels/page")
 	b.ReportMetric(float64(cw.n)/1024, "KB/page")
 }
+
+// TestInsertBadInput: an insert's term missing from the data, or a
+// graphic too small for its plot, stops the build with the place in the
+// spec.
+func TestInsertBadInput(t *testing.T) {
+	for _, c := range []struct{ inserts, want string }{
+		{"inserts:\n  x: {output: web, size: 600px x 400px, terms: [telegraph, telegraf]}\n",
+			`spec.yaml:%d:60: term "telegraf" is not in`}, // the column of "telegraf"
+		{"inserts:\n  x: {output: web, size: 90px x 60px, terms: [telegraph, radio]}\n",
+			`spec.yaml:%d:3: insert "x": the plot would be`},
+	} {
+		spec := screenSpec(t, 6, "  web: {kind: screen}\n", c.inserts)
+		b, _ := os.ReadFile(spec)
+		line := strings.Count(string(b[:bytes.Index(b, []byte("  x:"))]), "\n") + 1
+		var out, errb bytes.Buffer
+		code := run([]string{"build", spec, "--out", t.TempDir(), "--quiet"}, &out, &errb)
+		if code == exitOK || !strings.Contains(errb.String(), fmt.Sprintf(c.want, line)) {
+			t.Errorf("exit %d, stderr:\n%s\nwant it to contain %q", code, errb.String(), fmt.Sprintf(c.want, line))
+		}
+	}
+}
