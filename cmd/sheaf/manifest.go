@@ -189,9 +189,11 @@ func (h *hasher) float(v float64) {
 
 func (h *hasher) floats(vs []float64) {
 	h.int(len(vs))
-	for _, v := range vs {
-		h.float(v)
+	b := make([]byte, 8*len(vs))
+	for i, v := range vs {
+		binary.LittleEndian.PutUint64(b[8*i:], math.Float64bits(v))
 	}
+	h.h.Write(b)
 }
 
 func (h *hasher) sum() string { return hexSum(h.h) }
