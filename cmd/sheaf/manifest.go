@@ -1,7 +1,6 @@
 package main
 
 import (
-	"bytes"
 	"crypto/sha256"
 	"encoding/binary"
 	"encoding/hex"
@@ -260,11 +259,4 @@ func hashFiles(root, sub, output string) ([]fileEntry, error) {
 // writeJSONFile writes v as indented JSON to path, atomically.
 func writeJSONFile(path string, v any) error {
 	return writeAtomic(path, func(w io.Writer) error { return encodeJSON(w, v) })
-}
-
-// equalJSON compares two values by their JSON, for tests and sanity.
-func equalJSON(a, b any) bool {
-	x, _ := json.Marshal(a)
-	y, _ := json.Marshal(b)
-	return bytes.Equal(x, y)
 }

@@ -569,3 +569,10 @@ func TestProgress(t *testing.T) {
 		t.Errorf("progress wrote %q, want %q", buf.String(), want)
 	}
 }
+
+// equalJSON compares two values by their JSON.
+func equalJSON(a, b any) bool {
+	x, _ := json.Marshal(a)
+	y, _ := json.Marshal(b)
+	return bytes.Equal(x, y)
+}
