@@ -88,6 +88,11 @@ func runBuild(args []string, stdout, stderr io.Writer) int {
 		}
 		preps = append(preps, p)
 	}
+	// Inserts too: a missing term or a graphic too small is bad input.
+	if _, err := prepareInserts(j); err != nil {
+		fmt.Fprintln(stderr, err)
+		return exitBadInput
+	}
 	findings, err := runPreflight(j, preps)
 	if err != nil {
 		fmt.Fprintln(stderr, err)

@@ -185,31 +185,20 @@ func writeSummary(w io.Writer, r checkReport) {
 	fmt.Fprintf(w, "  years:   %d–%d (%d years; gaps: %s)\n", r.Years.From, r.Years.To, r.Years.To-r.Years.From+1, gaps)
 	fmt.Fprintf(w, "  values:  %s (%s), %s y-range\n", r.Scale.Values, r.Scale.Unit, r.Scale.YRange)
 	for _, o := range r.Outputs {
-		fmt.Fprintf(w, "  output %s (%s): %.1f × %.1f mm", o.Name, o.Kind, o.TrimPt[0]*25.4/72, o.TrimPt[1]*25.4/72)
+		switch {
+		case o.Kind == string(specs.Screen) && o.TrimPt[1] == 0:
+			fmt.Fprintf(w, "  output %s (%s): %.0f px wide, scrolling", o.Name, o.Kind, o.TrimPt[0]*96/72)
+		case o.Kind == string(specs.Screen):
+			fmt.Fprintf(w, "  output %s (%s): %.0f × %.0f px pages", o.Name, o.Kind, o.TrimPt[0]*96/72, o.TrimPt[1]*96/72)
+		default:
+			fmt.Fprintf(w, "  output %s (%s): %.1f × %.1f mm", o.Name, o.Kind, o.TrimPt[0]*25.4/72, o.TrimPt[1]*25.4/72)
+		}
 		if o.Bleed > 0 {
 			fmt.Fprintf(w, " + %.1f mm bleed", o.Bleed*25.4/72)
 		}
 		fmt.Fprintln(w)
+		// Labels, layout warnings and the palette's findings come in the
+		// preflight table below.
 		fmt.Fprintf(w, "    %s\n", o.Summary)
-		for _, l := range o.Labels {
-			what := fmt.Sprintf("set at %.2g pt", l.Size)
-			if l.Truncated {
-				what += fmt.Sprintf(", cut to %q", l.Text)
-			}
-			fmt.Fprintf(w, "    label %q does not fit its panel: %s\n", l.Term, what)
-		}
-		for _, warn := range o.Warnings {
-			fmt.Fprintf(w, "    warning: %s\n", warn)
-		}
-		verdict := "passes its checks"
-		if o.Palette.Failed {
-			verdict = "FAILS a check (run sheaf palette for the table)"
-		}
-		fmt.Fprintf(w, "    palette %s %s\n", o.Palette.Name, verdict)
-		for _, f := range o.Palette.Findings {
-			if !strings.HasPrefix(f, "INFO") {
-				fmt.Fprintf(w, "    %s\n", f)
-			}
-		}
 	}
 }

@@ -4,9 +4,9 @@
 //
 // Usage:
 //
-//	sheaf check SPEC [--json]
+//	sheaf check SPEC [--json] [--strict]
 //	sheaf palette SPEC [--out DIR]
-//	sheaf build SPEC [--out DIR] [--only OUTPUT]
+//	sheaf build SPEC [--out DIR] [--only OUTPUT] [--strict] [--no-proofs] [--full] [--quiet]
 //	sheaf help [COMMAND]
 //
 // Exit status: 0 when all is well, 1 when checks find problems or a build
@@ -38,9 +38,9 @@ type command struct {
 
 func commands() []command {
 	return []command{
-		{"check", "SPEC [--json]", "validate the spec and data; print a summary, pages and preflight findings", runCheck},
+		{"check", "SPEC [--json] [--strict]", "validate the spec and data; print a summary, pages and preflight findings", runCheck},
 		{"palette", "SPEC [--out DIR]", "print the era palette's table and checks; write a swatch sheet", runPalette},
-		{"build", "SPEC [--out DIR] [--only OUTPUT]", "render every output: PDF pages, proofs, contact sheet", runBuild},
+		{"build", "SPEC [--out DIR] [--only OUTPUT] [--strict] [--no-proofs] [--full] [--quiet]", "render every output: PDF, proofs, SVG, PNG; manifest and change report", runBuild},
 
 		{"help", "[COMMAND]", "show help for sheaf or one command", nil},
 	}
@@ -94,7 +94,7 @@ func usage(w io.Writer) {
 	fmt.Fprintln(w, "sheaf turns a page spec and yearly counts into pages of small-multiple line charts.")
 	fmt.Fprintln(w, "\nUsage:")
 	for _, c := range commands() {
-		fmt.Fprintf(w, "  sheaf %-8s %-34s %s\n", c.name, c.args, c.summary)
+		fmt.Fprintf(w, "  sheaf %s %s\n      %s\n", c.name, c.args, c.summary)
 	}
 	fmt.Fprintln(w, "\nRun 'sheaf COMMAND -h' for a command's flags. Exit status: 0 ok, 1 findings or failed build, 2 bad input or usage.")
 }
