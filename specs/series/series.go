@@ -120,9 +120,21 @@ type reader struct {
 	folder cases.Caser
 	rows   int
 	counts []float64 // selected terms × span, filled by pass2
+
+	lastRaw, lastKey string // key's one-entry cache
 }
 
 func (r *reader) key(term string) string {
+	// Tables are usually sorted by term, so a row's term is most often the
+	// row before's: reuse its key rather than normalise again.
+	if term == r.lastRaw && r.lastKey != "" {
+		return r.lastKey
+	}
+	r.lastRaw, r.lastKey = strings.Clone(term), r.normKey(term)
+	return r.lastKey
+}
+
+func (r *reader) normKey(term string) string {
 	t := norm.NFC.String(term)
 	if r.fold {
 		return r.folder.String(t)
