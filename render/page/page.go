@@ -333,12 +333,12 @@ func (f *Feature) ticks(p pen, pn layout.Panel) {
 // Label is how a panel's term is set: at its size, or shrunk, or cut
 // with an ellipsis when even the smallest allowed size is too wide.
 type Label struct {
-	Item      int     // index into the data's series
-	Term      string  // the term as written
-	Text      string  // what is drawn
-	Size      float64 // type size in points
-	Shrunk    bool    // set smaller than the output's label size
-	Truncated bool    // cut with an ellipsis
+	Item      int     `json:"item"`      // index into the data's series
+	Term      string  `json:"term"`      // the term as written
+	Text      string  `json:"text"`      // what is drawn
+	Size      float64 `json:"size"`      // type size in points
+	Shrunk    bool    `json:"shrunk"`    // set smaller than the output's label size
+	Truncated bool    `json:"truncated"` // cut with an ellipsis
 }
 
 // labelFloor is the smallest a label may shrink to: 85 % of its size, but
