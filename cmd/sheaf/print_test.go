@@ -7,7 +7,6 @@ package main
 import (
 	"bytes"
 	"image"
-	"image/png"
 	"math"
 	"os"
 	"os/exec"
@@ -284,12 +283,12 @@ func TestProofMatchesPoppler(t *testing.T) {
 	if out, err := cmd.CombinedOutput(); err != nil {
 		t.Fatalf("pdftoppm: %v\n%s", err, out)
 	}
-	theirs := readPNG(t, prefix+".png")
-	ours := readPNG(t, filepath.Join(dir, "print", "proofs", "page-001.png"))
+	theirs := tooltest.ReadPNG(t, prefix+".png")
+	ours := tooltest.ReadPNG(t, filepath.Join(dir, "print", "proofs", "page-001.png"))
 	if theirs.Bounds().Size() != ours.Bounds().Size() {
 		t.Fatalf("poppler %v, proof %v", theirs.Bounds().Size(), ours.Bounds().Size())
 	}
-	mean, strong := compare(ours, theirs)
+	mean, strong := tooltest.CompareImages(ours, theirs, 64)
 	t.Logf("proof vs pdftoppm: mean |Δ| %.3f/255, %.3f%% of pixels differ by more than 64", mean, strong*100)
 	if mean > 3 || strong > 0.015 {
 		t.Errorf("proof differs from poppler's rendering: mean |Δ| %.2f/255 (limit 3), %.2f%% strongly different pixels (limit 1.5%%)", mean, strong*100)
@@ -299,7 +298,7 @@ func TestProofMatchesPoppler(t *testing.T) {
 	worst, where := 0.0, ""
 	for _, pn := range pg.Panels {
 		r := image.Rect(px(pn.Plot.X0)-x, px(pg.Media.H()-pn.Plot.Y1)-y, px(pn.Plot.X1)-x, px(pg.Media.H()-pn.Plot.Y0)-y)
-		_, s := compare(subImage(ours, r), subImage(theirs, r))
+		_, s := tooltest.CompareImages(tooltest.SubImage(ours, r), tooltest.SubImage(theirs, r), 64)
 		if s > worst {
 			worst, where = s, p.feat.Data.Series[pn.Item].Term
 		}
@@ -309,46 +308,3 @@ func TestProofMatchesPoppler(t *testing.T) {
 		t.Errorf("panel %q differs from poppler's rendering in %.1f%% of its plot's pixels (limit 6%%): a curve drawn wrongly?", where, worst*100)
 	}
 }
-
-func subImage(img image.Image, r image.Rectangle) image.Image {
-	return img.(interface {
-		SubImage(image.Rectangle) image.Image
-	}).SubImage(r.Add(img.Bounds().Min))
-}
-
-func readPNG(t *testing.T, path string) image.Image {
-	t.Helper()
-	f, err := os.Open(path)
-	if err != nil {
-		t.Fatal(err)
-	}
-	defer f.Close()
-	img, err := png.Decode(f)
-	if err != nil {
-		t.Fatal(err)
-	}
-	return img
-}
-
-// compare returns the mean absolute channel difference (0–255) and the
-// share of pixels whose largest channel difference exceeds 64.
-func compare(a, b image.Image) (mean, strong float64) {
-	ab, bb := a.Bounds(), b.Bounds()
-	var sum float64
-	var n, bad int
-	for y := 0; y < ab.Dy(); y++ {
-		for x := 0; x < ab.Dx(); x++ {
-			r1, g1, b1, _ := a.At(ab.Min.X+x, ab.Min.Y+y).RGBA()
-			r2, g2, b2, _ := b.At(bb.Min.X+x, bb.Min.Y+y).RGBA()
-			d := [3]float64{absDiff(r1, r2), absDiff(g1, g2), absDiff(b1, b2)}
-			sum += d[0] + d[1] + d[2]
-			if max(d[0], d[1], d[2]) > 64 {
-				bad++
-			}
-			n++
-		}
-	}
-	return sum / float64(3*n), float64(bad) / float64(n)
-}
-
-func absDiff(a, b uint32) float64 { return math.Abs(float64(a>>8) - float64(b>>8)) }

@@ -235,8 +235,8 @@ func TestScreenBuild(t *testing.T) {
 	if !bytes.HasPrefix(web, []byte(`<svg xmlns="http://www.w3.org/2000/svg" width="1200" `)) {
 		t.Errorf("scroll page is not 1200 px wide: %.120s", web)
 	}
-	png1 := readPNG(t, filepath.Join(dir, "tall", "page-001.png"))
-	png2 := readPNG(t, filepath.Join(dir, "tall", "page-001@2x.png"))
+	png1 := tooltest.ReadPNG(t, filepath.Join(dir, "tall", "page-001.png"))
+	png2 := tooltest.ReadPNG(t, filepath.Join(dir, "tall", "page-001@2x.png"))
 	if png1.Bounds().Size() != image.Pt(900, 700) || png2.Bounds().Size() != image.Pt(1800, 1400) {
 		t.Errorf("PNG sizes %v and %v, want 900×700 at 1× (96 dpi) and 1800×1400 at 2×", png1.Bounds().Size(), png2.Bounds().Size())
 	}
@@ -325,12 +325,12 @@ func TestChromiumMatchesPNG(t *testing.T) {
 	if out, err := cmd.CombinedOutput(); err != nil {
 		t.Fatalf("chromium: %v\n%s", err, out)
 	}
-	theirs := readPNG(t, shot)
-	ours := readPNG(t, filepath.Join(dir, "web", "page-001.png"))
+	theirs := tooltest.ReadPNG(t, shot)
+	ours := tooltest.ReadPNG(t, filepath.Join(dir, "web", "page-001.png"))
 	if theirs.Bounds().Size() != ours.Bounds().Size() {
 		t.Fatalf("screenshot %v, our PNG %v", theirs.Bounds().Size(), ours.Bounds().Size())
 	}
-	mean, strong := compare(ours, theirs)
+	mean, strong := tooltest.CompareImages(ours, theirs, 64)
 	t.Logf("Chromium vs our PNG: mean channel difference %.2f, strongly different pixels %.2f%%", mean, strong*100)
 	if mean > chromeMeanLimit || strong > chromeStrongLimit {
 		t.Errorf("Chromium's rendering differs from our PNG: mean %.2f (limit %.1f), strong %.2f%% (limit %.1f%%)",
@@ -345,7 +345,7 @@ func TestChromiumMatchesPNG(t *testing.T) {
 	worst := 0.0
 	for _, pn := range pg.Panels {
 		r := image.Rect(px(pn.Plot.X0), px(pg.Media.H()-pn.Plot.Y1), px(pn.Plot.X1), px(pg.Media.H()-pn.Plot.Y0))
-		_, s := compare(subImage(ours, r), subImage(theirs, r))
+		_, s := tooltest.CompareImages(tooltest.SubImage(ours, r), tooltest.SubImage(theirs, r), 64)
 		worst = max(worst, s)
 		if s > chromePanelLimit {
 			t.Errorf("panel %q: %.1f%% of its plot's pixels differ strongly from Chromium's (limit %.1f%%)",

@@ -2,9 +2,7 @@ package pdf
 
 import (
 	"bytes"
-	"image"
 	"image/png"
-	"math"
 	"os"
 	"os/exec"
 	"path/filepath"
@@ -80,7 +78,7 @@ func TestPixelsMatchCanvasRasterizer(t *testing.T) {
 	if got.Bounds().Size() != want.Bounds().Size() {
 		t.Fatalf("sizes differ: pdftoppm %v, canvas %v", got.Bounds().Size(), want.Bounds().Size())
 	}
-	mean, share := compareImages(got, want, 48)
+	mean, share := tooltest.CompareImages(got, want, 48)
 	t.Logf("mean abs diff %.3f/255, pixels off by > 48: %.3f %%", mean, 100*share)
 	if mean > 1 || share > 0.01 || os.Getenv("SHEAF_KEEP_PIXELS") == "always" {
 		t.Errorf("PDF rendering differs from canvas: mean %.3f/255 (max 1), %.3f %% pixels off (max 1 %%)", mean, 100*share)
@@ -98,29 +96,4 @@ func mustCreate(t *testing.T, p string) *os.File {
 	}
 	t.Cleanup(func() { f.Close() })
 	return f
-}
-
-// compareImages returns the mean absolute channel difference (0–255) and
-// the share of pixels with some channel off by more than limit.
-func compareImages(a, b image.Image, limit float64) (mean, share float64) {
-	r := a.Bounds()
-	var sum float64
-	var off int
-	for y := r.Min.Y; y < r.Max.Y; y++ {
-		for x := r.Min.X; x < r.Max.X; x++ {
-			r1, g1, b1, _ := a.At(x, y).RGBA()
-			r2, g2, b2, _ := b.At(x-r.Min.X+b.Bounds().Min.X, y-r.Min.Y+b.Bounds().Min.Y).RGBA()
-			d := [3]float64{
-				math.Abs(float64(r1>>8) - float64(r2>>8)),
-				math.Abs(float64(g1>>8) - float64(g2>>8)),
-				math.Abs(float64(b1>>8) - float64(b2>>8)),
-			}
-			sum += d[0] + d[1] + d[2]
-			if math.Max(d[0], math.Max(d[1], d[2])) > limit {
-				off++
-			}
-		}
-	}
-	n := float64(r.Dx() * r.Dy())
-	return sum / (3 * n), float64(off) / n
 }

@@ -3,6 +3,7 @@ package raster_test
 import (
 	"math"
 	"math/rand/v2"
+	"sheaf/render/tooltest"
 	"testing"
 
 	"github.com/tdewolff/canvas"
@@ -141,9 +142,9 @@ func TestStrokesMatchPoppler(t *testing.T) {
 		if !ours.Bounds().In(theirs[i].Bounds()) {
 			t.Fatalf("walk %d: size %v, poppler %v", seed, ours.Bounds().Size(), theirs[i].Bounds().Size())
 		}
-		cut := sub(theirs[i], ours.Bounds())
+		cut := tooltest.SubImage(theirs[i], ours.Bounds())
 		ratio := ink(cut) / ink(ours)
-		_, share := compare(ours, cut, 96)
+		_, share := tooltest.CompareImages(ours, cut, 96)
 		t.Logf("walk %d: poppler inks %.3f × ours; %.2f%% pixels off by > 96", seed, ratio, share*100)
 		if ratio < 1.0 || ratio > 1.2 || share > 0.005 {
 			t.Errorf("walk %d: poppler inks %.2f × ours (want 1.0–1.2), %.2f%% pixels off (limit 0.5%%)", seed, ratio, share*100)

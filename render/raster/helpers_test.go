@@ -3,7 +3,6 @@ package raster_test
 import (
 	"bytes"
 	"image"
-	"image/png"
 	"math"
 	"os"
 	"os/exec"
@@ -67,7 +66,7 @@ func poppler(t *testing.T, pdfPath string, dpi float64) []image.Image {
 	sort.Strings(files) // pdftoppm pads page numbers to one width
 	imgs := make([]image.Image, len(files))
 	for i, f := range files {
-		imgs[i] = readPNG(t, f)
+		imgs[i] = tooltest.ReadPNG(t, f)
 	}
 	return imgs
 }
@@ -85,49 +84,7 @@ func popplerCrop(t *testing.T, pdfPath string, dpi float64, r image.Rectangle) i
 	if out, err := cmd.CombinedOutput(); err != nil {
 		t.Fatalf("pdftoppm: %v\n%s", err, out)
 	}
-	return readPNG(t, filepath.Join(dir, "crop.png"))
-}
-
-func readPNG(t *testing.T, path string) image.Image {
-	t.Helper()
-	f, err := os.Open(path)
-	if err != nil {
-		t.Fatal(err)
-	}
-	defer f.Close()
-	img, err := png.Decode(f)
-	if err != nil {
-		t.Fatal(err)
-	}
-	return img
-}
-
-// sub returns the part r of img, r counted from img's top-left corner.
-func sub(img image.Image, r image.Rectangle) image.Image {
-	return img.(interface {
-		SubImage(image.Rectangle) image.Image
-	}).SubImage(r.Add(img.Bounds().Min))
-}
-
-// compare returns the mean absolute channel difference (0–255) of two
-// images of one size, and the share of pixels with some channel off by
-// more than limit.
-func compare(a, b image.Image, limit float64) (mean, share float64) {
-	ab, bb := a.Bounds(), b.Bounds()
-	var sum float64
-	var off int
-	for y := 0; y < ab.Dy(); y++ {
-		for x := 0; x < ab.Dx(); x++ {
-			p, q := rgba(a, ab.Min.X+x, ab.Min.Y+y), rgba(b, bb.Min.X+x, bb.Min.Y+y)
-			d := max(absd(p.R, q.R), absd(p.G, q.G), absd(p.B, q.B))
-			sum += absd(p.R, q.R) + absd(p.G, q.G) + absd(p.B, q.B)
-			if d > limit {
-				off++
-			}
-		}
-	}
-	n := float64(ab.Dx() * ab.Dy())
-	return sum / (3 * n), float64(off) / n
+	return tooltest.ReadPNG(t, filepath.Join(dir, "crop.png"))
 }
 
 func absd(a, b uint8) float64 { return math.Abs(float64(a) - float64(b)) }

@@ -4,6 +4,7 @@ import (
 	"image"
 	"image/color"
 	"math"
+	"sheaf/render/tooltest"
 	"testing"
 
 	"github.com/tdewolff/canvas"
@@ -130,10 +131,10 @@ func TestRegionMatchesPoppler(t *testing.T) {
 			if !pix.In(full.Bounds()) {
 				t.Fatalf("region %v is not inside poppler's page %v", pix, full.Bounds())
 			}
-			theirs := sub(full, pix)
+			theirs := tooltest.SubImage(full, pix)
 			// pdftoppm's own crop gives the same pixels as cutting its
 			// full page: the crop rule we copy is poppler's.
-			if m, s := compare(popplerCrop(t, path, tc.dpi, pix), theirs, 8); m > 0.05 || s > 0.001 {
+			if m, s := tooltest.CompareImages(popplerCrop(t, path, tc.dpi, pix), theirs, 8); m > 0.05 || s > 0.001 {
 				t.Errorf("pdftoppm -x -y crop differs from its full page cut at %v: mean %.3f, %.3f%% pixels", pix, m, s*100)
 			}
 			ours, err := raster.DrawRegion(mixedPage.h, tc.dpi, r, white, mixedPage.draw)
@@ -147,9 +148,9 @@ func TestRegionMatchesPoppler(t *testing.T) {
 			if err != nil {
 				t.Fatal(err)
 			}
-			tx, ty := centroid(sub(pages[1], pix))
+			tx, ty := centroid(tooltest.SubImage(pages[1], pix))
 			ox, oy := centroid(fills)
-			mean, share := compare(ours, theirs, 48)
+			mean, share := tooltest.CompareImages(ours, theirs, 48)
 			t.Logf("region %+v: centroid off by (%.3f, %.3f) px; mean |Δ| %.3f/255, %.3f%% pixels off by > 48", r, ox-tx, oy-ty, mean, share*100)
 			if math.Abs(ox-tx) > 0.1 || math.Abs(oy-ty) > 0.1 {
 				t.Errorf("DrawRegion's drawing sits (%.3f, %.3f) px from poppler's (limit 0.1)", ox-tx, oy-ty)
@@ -211,8 +212,8 @@ func TestRegionEqualsFullPage(t *testing.T) {
 		if err != nil {
 			t.Fatal(err)
 		}
-		cut := sub(full, image.Rect(r.X, r.Y, r.X+r.W, r.Y+r.H))
-		if mean, _ := compare(part, cut, 8); mean > 0.1 {
+		cut := tooltest.SubImage(full, image.Rect(r.X, r.Y, r.X+r.W, r.Y+r.H))
+		if mean, _ := tooltest.CompareImages(part, cut, 8); mean > 0.1 {
 			t.Errorf("region %+v: differs from the full page cut: mean %.3f/255 (limit 0.1)", r, mean)
 		}
 		// canvas's rasterizer clamps what lies left of the image onto its
@@ -220,7 +221,7 @@ func TestRegionEqualsFullPage(t *testing.T) {
 		// differ there by a few tens of levels (observed); inside, no pixel
 		// may differ by more than 8.
 		in := image.Rect(1, 1, r.W-1, r.H-1)
-		if _, share := compare(sub(part, in), sub(cut, in), 8); share > 0 {
+		if _, share := tooltest.CompareImages(tooltest.SubImage(part, in), tooltest.SubImage(cut, in), 8); share > 0 {
 			t.Errorf("region %+v: %.3f%% of the pixels inside differ from the full page cut by more than 8/255", r, share*100)
 		}
 	}
