@@ -16,7 +16,9 @@ var units = map[specs.ScaleMode]string{
 	specs.ScaleRaw:     "occurrences a year",
 }
 
-func scale(s *specs.Spec, totals map[int]float64, aggs map[string]*agg, selected []string, set *Set) []Series {
+// scale turns the raw counts into plotted values; totals are by year of
+// the span from its first (see reader.spanTotals).
+func scale(s *specs.Spec, totals []float64, aggs map[string]*agg, selected []string, set *Set) []Series {
 	span := s.Years.Len()
 	out := make([]Series, len(selected))
 	set.Unit = units[s.Scale.Mode]
@@ -26,14 +28,13 @@ func scale(s *specs.Spec, totals map[int]float64, aggs map[string]*agg, selected
 			Counts: make([]float64, span), Values: make([]float64, span), PeakYear: s.Years.From}
 		copy(sr.Counts, set.rawCounts(i, span))
 		for j, c := range sr.Counts {
-			y := s.Years.From + j
 			switch {
 			case math.IsNaN(c):
 				sr.Values[j] = math.NaN()
 			case s.Scale.Mode == specs.ScaleRaw:
 				sr.Values[j] = c
 			default:
-				sr.Values[j] = c / totals[y] * 1e6
+				sr.Values[j] = c / totals[j] * 1e6
 			}
 		}
 		sr.Peak, sr.PeakYear = peak(sr.Values, s.Years.From)

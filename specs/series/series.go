@@ -97,7 +97,7 @@ func Load(s *specs.Spec) (*Set, error) {
 		return nil, errs
 	}
 	set.counts = r.counts
-	set.Series = scale(s, totals, aggs, selected, set)
+	set.Series = scale(s, r.spanTotals(), aggs, selected, set)
 	set.counts = nil
 	arrange(s, set)
 	return set, nil
@@ -134,6 +134,15 @@ func (r *reader) key(term string) string {
 	return r.lastKey
 }
 
+// keyOf is key for a field as read; it copies the field only when the
+// term differs from the row before's.
+func (r *reader) keyOf(term []byte) string {
+	if string(term) == r.lastRaw && r.lastKey != "" {
+		return r.lastKey
+	}
+	return r.key(string(term))
+}
+
 func (r *reader) normKey(term string) string {
 	t := norm.NFC.String(term)
 	if r.fold {
@@ -146,7 +155,7 @@ func (r *reader) normKey(term string) string {
 type table struct {
 	name  string // resolved path, for positions in messages
 	f     *os.File
-	csv   *csv.Reader
+	csv   *records
 	cols  map[string]int
 	width int
 }
@@ -171,14 +180,12 @@ func openTable(s *specs.Spec, key, name string, want []string, errs *specs.Error
 	if b, _ := br.Peek(3); bytes.Equal(b, []byte("\xef\xbb\xbf")) {
 		br.Discard(3)
 	}
-	c := csv.NewReader(br)
-	c.ReuseRecord = true
-	c.FieldsPerRecord = -1
+	var c *records
 	switch strings.ToLower(filepath.Ext(name)) {
 	case ".tsv", ".tab":
-		c.Comma = '\t'
-		c.LazyQuotes = true
+		c = newRecords(br, '\t', true)
 	case ".csv", ".txt":
+		c = newRecords(br, ',', false)
 	default:
 		f.Close()
 		errs.Add(s.Where("data."+key), "data.%s: %q must end in .csv or .tsv (that decides the separator)", key, name)
@@ -198,8 +205,10 @@ func openTable(s *specs.Spec, key, name string, want []string, errs *specs.Error
 		f.Close()
 		return nil
 	}
+	names := make([]string, len(head))
 	for i, h := range head {
-		t.cols[strings.ToLower(strings.TrimSpace(h))] = i
+		names[i] = string(h)
+		t.cols[strings.ToLower(strings.TrimSpace(names[i]))] = i
 	}
 	var missing []string
 	for _, w := range want {
@@ -210,7 +219,7 @@ func openTable(s *specs.Spec, key, name string, want []string, errs *specs.Error
 	}
 	if len(missing) > 0 {
 		errs.Add(specs.Pos{File: path, Line: 1, Col: 1}, "the header needs columns named %s; it has %s",
-			strings.Join(want, ", "), quoteList(head))
+			strings.Join(want, ", "), quoteList(names))
 		f.Close()
 		return nil
 	}
@@ -247,8 +256,9 @@ func (t *table) at(i int) specs.Pos {
 	return specs.Pos{File: t.name, Line: line, Col: col}
 }
 
-// next returns the next record and its line, or nil at the end.
-func (t *table) next(errs *specs.Errors) ([]string, int, bool) {
+// next returns the next record and its line, or nil at the end. The
+// fields are valid until the next call.
+func (t *table) next(errs *specs.Errors) ([][]byte, int, bool) {
 	for {
 		rec, err := t.csv.Read()
 		if err == io.EOF {
@@ -261,7 +271,7 @@ func (t *table) next(errs *specs.Errors) ([]string, int, bool) {
 			continue
 		}
 		line, _ := t.csv.FieldPos(0)
-		if len(rec) == 1 && strings.TrimSpace(rec[0]) == "" {
+		if len(rec) == 1 && len(bytes.TrimSpace(rec[0])) == 0 {
 			continue
 		}
 		if len(rec) < t.width {
@@ -274,7 +284,14 @@ func (t *table) next(errs *specs.Errors) ([]string, int, bool) {
 	}
 }
 
-func parseNumber(s string) (float64, string) {
+// parseNumber reads a count or total. Plain digits, the usual case, are
+// read here: up to 15 of them are below 2^53, so the integer is the exact
+// value strconv.ParseFloat would return.
+func parseNumber(b []byte) (float64, string) {
+	if n, ok := digits(b, 15); ok {
+		return float64(n), ""
+	}
+	s := string(b)
 	v, err := strconv.ParseFloat(strings.TrimSpace(s), 64)
 	switch {
 	case err != nil:
@@ -287,12 +304,34 @@ func parseNumber(s string) (float64, string) {
 	return v, ""
 }
 
-func parseYear(s string) (int, string) {
+// parseYear reads a year: plain digits here, anything else as
+// strconv.Atoi reads it.
+func parseYear(b []byte) (int, string) {
+	if n, ok := digits(b, 9); ok {
+		return int(n), ""
+	}
+	s := string(b)
 	y, err := strconv.Atoi(strings.TrimSpace(s))
 	if err != nil {
 		return 0, fmt.Sprintf("year %q is not a whole number", s)
 	}
 	return y, ""
+}
+
+// digits reads b as a decimal number when it is 1 to max ASCII digits
+// and nothing else.
+func digits(b []byte, max int) (uint64, bool) {
+	if len(b) == 0 || len(b) > max {
+		return 0, false
+	}
+	var n uint64
+	for _, c := range b {
+		if c < '0' || c > '9' {
+			return 0, false
+		}
+		n = n*10 + uint64(c-'0')
+	}
+	return n, true
 }
 
 func readTotals(s *specs.Spec, errs *specs.Errors) (map[int]float64, bool) {
@@ -356,14 +395,17 @@ func (r *reader) pass1() (map[string]*agg, []string) {
 	for _, v := range r.totals {
 		words += v
 	}
+	totals := r.spanTotals()
+	var last *agg // the row before's term: tables are usually sorted
+	lastKey := ""
 	for {
 		rec, line, ok := t.next(r.errs)
 		if !ok {
 			break
 		}
 		r.rows++
-		term := strings.TrimSpace(rec[tc])
-		if term == "" {
+		term := bytes.TrimSpace(rec[tc])
+		if len(term) == 0 {
 			if !r.errs.Add(t.at(tc), "the term is empty") {
 				break
 			}
@@ -382,7 +424,8 @@ func (r *reader) pass1() (map[string]*agg, []string) {
 			}
 		}
 		if msg == "" {
-			tot, has := r.totals[y]
+			tot := totals[y-s.Years.From]
+			has := !math.IsNaN(tot)
 			switch {
 			case !has && needTotals:
 				field = yc
@@ -397,18 +440,21 @@ func (r *reader) pass1() (map[string]*agg, []string) {
 			}
 			continue
 		}
-		k := r.key(term)
-		a := aggs[k]
-		if a == nil {
-			a = &agg{term: norm.NFC.String(term), years: make([]uint64, (span+63)/64), line: line, idx: -1}
-			aggs[k] = a
-			order = append(order, k)
+		k := r.keyOf(term)
+		a := last
+		if k != lastKey {
+			if a = aggs[k]; a == nil {
+				a = &agg{term: norm.NFC.String(string(term)), years: make([]uint64, (span+63)/64), line: line, idx: -1}
+				aggs[k] = a
+				order = append(order, k)
+			}
+			last, lastKey = a, k
 		}
 		// A second row for the same spelling and year is a mistake; with
 		// fold-case, spellings that differ in case are added together.
 		years := a.years
 		if r.fold {
-			sp := norm.NFC.String(term)
+			sp := norm.NFC.String(string(term))
 			if years = spellings[sp]; years == nil {
 				years = make([]uint64, (span+63)/64)
 				spellings[sp] = years
@@ -488,6 +534,20 @@ func (r *reader) selectTerms(aggs map[string]*agg, order []string) []string {
 	return sel
 }
 
+// spanTotals is the totals by year of the span from its first year; NaN
+// where the table has none (a total is never NaN: parseNumber refuses it).
+func (r *reader) spanTotals() []float64 {
+	s := r.spec
+	out := make([]float64, s.Years.Len())
+	for i := range out {
+		out[i] = math.NaN()
+		if v, ok := r.totals[s.Years.From+i]; ok {
+			out[i] = v
+		}
+	}
+	return out
+}
+
 // pass2 collects the counts of the selected terms.
 func (r *reader) pass2(aggs map[string]*agg, selected []string) {
 	s := r.spec
@@ -498,20 +558,25 @@ func (r *reader) pass2(aggs map[string]*agg, selected []string) {
 	defer t.f.Close()
 	span := s.Years.Len()
 	counts := make([]float64, len(selected)*span)
+	totals := r.spanTotals()
 	for i := range selected {
-		for y := s.Years.From; y <= s.Years.To; y++ {
-			if _, ok := r.totals[y]; !ok {
-				counts[i*span+y-s.Years.From] = math.NaN()
+		for j, t := range totals {
+			if math.IsNaN(t) {
+				counts[i*span+j] = math.NaN()
 			}
 		}
 	}
 	tc, yc, cc := t.cols["term"], t.cols["year"], t.cols["count"]
+	var a *agg
+	lastKey := ""
 	for {
 		rec, _, ok := t.next(r.errs)
 		if !ok {
 			break
 		}
-		a := aggs[r.key(strings.TrimSpace(rec[tc]))]
+		if k := r.keyOf(bytes.TrimSpace(rec[tc])); k != lastKey || a == nil {
+			a, lastKey = aggs[k], k
+		}
 		if a == nil || a.idx < 0 {
 			continue
 		}
