@@ -76,6 +76,9 @@ type Set struct {
 	mu      sync.Mutex
 	widths  map[widthKey]float64
 	metrics map[widthKey]Metrics // text is always ""
+	// saved is what LoadWidths read: a width found there counts as
+	// measured, so SaveWidths keeps only the widths a run used.
+	saved map[widthKey]float64
 }
 
 type widthKey struct {
@@ -244,7 +247,10 @@ func (s *Set) Width(st Style, size float64, text string) float64 {
 	if w, ok := s.widths[k]; ok {
 		return w
 	}
-	w := s.Face(st, size).TextWidth(text) / mmPerPt
+	w, ok := s.saved[k]
+	if !ok {
+		w = s.Face(st, size).TextWidth(text) / mmPerPt
+	}
 	if s.widths == nil {
 		s.widths = make(map[widthKey]float64)
 	}

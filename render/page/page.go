@@ -12,6 +12,7 @@ import (
 	"math"
 	"strconv"
 	"strings"
+	"sync"
 
 	"github.com/tdewolff/canvas"
 
@@ -34,15 +35,15 @@ type Feature struct {
 	Fonts   *fonts.Set
 	Stops   []palette.Stop // the palette as gradient stops over the span
 
-	labels []Label
+	labelsOnce sync.Once
+	labels     []Label
 }
 
-// NewFeature computes what all pages share.
+// NewFeature computes what all pages share. Labels are fitted when first
+// asked for, so that a caller can fill the fonts' width cache first.
 func NewFeature(s *specs.Spec, out *specs.Output, plan *layout.Plan, data *series.Set, pal palette.Scale, fs *fonts.Set) *Feature {
-	f := &Feature{Spec: s, Output: out, Plan: plan, Data: data, Palette: pal, Fonts: fs,
+	return &Feature{Spec: s, Output: out, Plan: plan, Data: data, Palette: pal, Fonts: fs,
 		Stops: pal.Stops(float64(data.Span.From), float64(data.Span.To), 0)}
-	f.fitLabels()
-	return f
 }
 
 // Grouper is implemented by renderers that keep structure, such as SVG:
@@ -235,7 +236,7 @@ func (f *Feature) panel(p pen, b *curve.Builder, pn layout.Panel) error {
 	base := pn.LabelBaseline
 	peak := f.peakText(sr)
 	tsize := t.Ticks.Pt()
-	lab := f.labels[pn.Item]
+	lab := f.Labels()[pn.Item]
 	p.text(fonts.Bold, lab.Size, ink, pn.Label.X0, base, canvas.Left, lab.Text)
 	p.text(fonts.Regular, tsize, inkSoft, pn.Label.X1, base, canvas.Right, peak)
 
@@ -366,7 +367,7 @@ func (f *Feature) peakText(sr *series.Series) string {
 // fitLabels sets every term to the room its panel's label row leaves
 // beside the peak text: shrinking first, then cutting.
 func (f *Feature) fitLabels() {
-	if len(f.Plan.Pages) == 0 {
+	if f.Plan == nil || len(f.Plan.Pages) == 0 {
 		return
 	}
 	width := f.Plan.PanelW
@@ -398,8 +399,11 @@ func (f *Feature) fitLabels() {
 }
 
 // Labels returns how every term's label is set; the ones shrunk or cut
-// are reported to the editor.
-func (f *Feature) Labels() []Label { return f.labels }
+// are reported to the editor. The first call fits them all.
+func (f *Feature) Labels() []Label {
+	f.labelsOnce.Do(f.fitLabels)
+	return f.labels
+}
 
 // formatValue prints a value with three significant digits.
 func formatValue(v float64) string {

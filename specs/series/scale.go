@@ -25,8 +25,7 @@ func scale(s *specs.Spec, totals []float64, aggs map[string]*agg, selected []str
 	for i, k := range selected {
 		a := aggs[k]
 		sr := Series{Term: a.term, Total: a.total, Share: a.share,
-			Counts: make([]float64, span), Values: make([]float64, span), PeakYear: s.Years.From}
-		copy(sr.Counts, set.rawCounts(i, span))
+			Counts: set.counts[i], Values: make([]float64, span), PeakYear: s.Years.From}
 		for j, c := range sr.Counts {
 			switch {
 			case math.IsNaN(c):
@@ -58,9 +57,6 @@ func scale(s *specs.Spec, totals []float64, aggs map[string]*agg, selected []str
 	}
 	return out
 }
-
-// rawCounts is filled by Load from the reader before scale runs.
-func (set *Set) rawCounts(i, span int) []float64 { return set.counts[i*span : (i+1)*span] }
 
 func peak(v []float64, from int) (float64, int) {
 	best, year := math.Inf(-1), from

@@ -3,9 +3,12 @@
 // counts into the values a panel plots: per-million shares, shares scaled
 // to each term's own peak, or raw counts.
 //
-// The counts table is read twice, as a stream: once to total every term
-// (memory grows with the number of distinct terms, not with the file) and
-// once to collect the yearly values of the selected terms only.
+// The counts table is read as a stream: once to total every term (memory
+// grows with the number of distinct terms, not with the file), and again
+// to collect the yearly values of the selected terms only. The first
+// read keeps every term's yearly counts as long as they take at most
+// twice what the selected terms' will; when the spec can select all or
+// most of the terms, that is all of them, and the second read is skipped.
 package series
 
 import (
@@ -50,15 +53,15 @@ type Group struct {
 // Set is the data of a feature, ready to plot.
 type Set struct {
 	Span   specs.Span
-	Years  []float64 // x values, one per year of the span
-	Gaps   []int     // years of the span the totals table lacks
-	Series []Series  // selected terms, in panel order
-	Groups []Group   // one group with an empty heading when not grouping
-	Unit   string    // what a value means, for the key
-	YMax   float64   // the shared y-range top (largest YMax)
-	Terms  int       // distinct terms in the counts table
-	Rows   int       // data rows read from the counts table
-	counts []float64 // raw counts of the selected terms, selection order
+	Years  []float64   // x values, one per year of the span
+	Gaps   []int       // years of the span the totals table lacks
+	Series []Series    // selected terms, in panel order
+	Groups []Group     // one group with an empty heading when not grouping
+	Unit   string      // what a value means, for the key
+	YMax   float64     // the shared y-range top (largest YMax)
+	Terms  int         // distinct terms in the counts table
+	Rows   int         // data rows read from the counts table
+	counts [][]float64 // raw counts of the selected terms, selection order
 }
 
 // Load reads and scales the data a spec names. Problems come back as
@@ -92,7 +95,13 @@ func Load(s *specs.Spec) (*Set, error) {
 		errs.Add(s.Where("terms"), "no terms are selected: the data has %d terms and none pass the spec's selection", len(order))
 		return nil, errs
 	}
-	r.pass2(aggs, selected)
+	if r.keep {
+		for _, k := range selected {
+			r.counts = append(r.counts, aggs[k].counts)
+		}
+	} else {
+		r.pass2(aggs, selected)
+	}
 	if len(errs) > 0 {
 		return nil, errs
 	}
@@ -110,6 +119,9 @@ type agg struct {
 	years []uint64 // bitset over the span: duplicate rows
 	line  int
 	idx   int // position in the selection, or -1
+	// counts are the yearly counts as the first read adds them up (NaN in
+	// gap years without a row), while reader.keep.
+	counts []float64
 }
 
 type reader struct {
@@ -119,7 +131,8 @@ type reader struct {
 	fold   bool
 	folder cases.Caser
 	rows   int
-	counts []float64 // selected terms × span, filled by pass2
+	counts [][]float64 // of the selected terms, by pass2 or from pass1
+	keep   bool        // pass1 keeps every term's counts (see keepLimit)
 
 	lastRaw, lastKey string // key's one-entry cache
 }
@@ -398,6 +411,8 @@ func (r *reader) pass1() (map[string]*agg, []string) {
 	totals := r.spanTotals()
 	var last *agg // the row before's term: tables are usually sorted
 	lastKey := ""
+	limit := r.keepLimit()
+	r.keep = true
 	for {
 		rec, line, ok := t.next(r.errs)
 		if !ok {
@@ -447,6 +462,20 @@ func (r *reader) pass1() (map[string]*agg, []string) {
 				a = &agg{term: norm.NFC.String(string(term)), years: make([]uint64, (span+63)/64), line: line, idx: -1}
 				aggs[k] = a
 				order = append(order, k)
+				if r.keep && limit >= 0 && len(order) > limit {
+					r.keep = false // read again for the selected terms
+					for _, a := range aggs {
+						a.counts = nil
+					}
+				}
+				if r.keep {
+					a.counts = make([]float64, span)
+					for j, t := range totals {
+						if math.IsNaN(t) {
+							a.counts[j] = math.NaN()
+						}
+					}
+				}
 			}
 			last, lastKey = a, k
 		}
@@ -469,6 +498,14 @@ func (r *reader) pass1() (map[string]*agg, []string) {
 		}
 		years[i/64] |= 1 << (i % 64)
 		a.total += v
+		if r.keep {
+			// As pass2 adds: see there.
+			if c := &a.counts[i]; math.IsNaN(*c) {
+				*c = v
+			} else {
+				*c += v
+			}
+		}
 	}
 	for _, a := range aggs {
 		a.share = a.total / words
@@ -534,6 +571,19 @@ func (r *reader) selectTerms(aggs map[string]*agg, order []string) []string {
 	return sel
 }
 
+// keepLimit is how many terms pass1 keeps the counts of: twice the most
+// the spec can select, or -1 for all when it can select them all.
+func (r *reader) keepLimit() int {
+	t := r.spec.Terms
+	switch {
+	case t.Top > 0:
+		return 2 * (t.Top + len(t.List))
+	case len(t.List) > 0:
+		return 2 * len(t.List)
+	}
+	return -1
+}
+
 // spanTotals is the totals by year of the span from its first year; NaN
 // where the table has none (a total is never NaN: parseNumber refuses it).
 func (r *reader) spanTotals() []float64 {
@@ -558,6 +608,9 @@ func (r *reader) pass2(aggs map[string]*agg, selected []string) {
 	defer t.f.Close()
 	span := s.Years.Len()
 	counts := make([]float64, len(selected)*span)
+	for i := range selected {
+		r.counts = append(r.counts, counts[i*span:(i+1)*span:(i+1)*span])
+	}
 	totals := r.spanTotals()
 	for i := range selected {
 		for j, t := range totals {
@@ -591,5 +644,4 @@ func (r *reader) pass2(aggs map[string]*agg, selected []string) {
 			*c += v
 		}
 	}
-	r.counts = counts
 }

@@ -1,0 +1,122 @@
+package fonts
+
+import (
+	"bytes"
+	"math"
+	"os"
+	"path/filepath"
+	"testing"
+
+	"golang.org/x/image/font/gofont/gobold"
+
+	"sheaf/specs"
+)
+
+// widthTexts are measured, saved and read back. The reference for every
+// width read back is the same Set's own measurement by shaping (the cache
+// must change nothing, to the bit); TestWidthAgainstSfnt checks those
+// measurements against golang.org/x/image/font/sfnt.
+var widthTexts = []struct {
+	st   Style
+	size float64
+	text string
+}{
+	{Regular, 7, "dictionary"},
+	{Bold, 6.5, "steam engine"},
+	{Bold, 5.525, "agricultural compre…"},
+	{Italic, 8, "Maßstab"},
+	{Regular, 7, "AVAT Wa"}, // kerned pairs
+	{Regular, 0.1, "x"},
+	{Bold, 12, "café – ½"},
+}
+
+func measured(t *testing.T, reverse bool) (*Set, []float64) {
+	t.Helper()
+	s := mustDefault(t)
+	ws := make([]float64, len(widthTexts))
+	for k := range widthTexts {
+		i := k
+		if reverse {
+			i = len(widthTexts) - 1 - k
+		}
+		w := widthTexts[i]
+		ws[i] = s.Width(w.st, w.size, w.text)
+	}
+	return s, ws
+}
+
+func saved(t *testing.T, s *Set) []byte {
+	t.Helper()
+	var b bytes.Buffer
+	if err := s.SaveWidths(&b); err != nil {
+		t.Fatal(err)
+	}
+	return b.Bytes()
+}
+
+func TestWidthsRoundTrip(t *testing.T) {
+	a, want := measured(t, false)
+	data := saved(t, a)
+	b := mustDefault(t)
+	if err := b.LoadWidths(bytes.NewReader(data)); err != nil {
+		t.Fatal(err)
+	}
+	if len(b.saved) != len(widthTexts) {
+		t.Fatalf("%d widths read back, want %d", len(b.saved), len(widthTexts))
+	}
+	if len(saved(t, b)) >= len(data) {
+		t.Error("widths loaded but not used are saved again")
+	}
+	for i, w := range widthTexts {
+		got, ok := b.saved[widthKey{w.st, w.size, w.text}]
+		if !ok || math.Float64bits(got) != math.Float64bits(want[i]) {
+			t.Errorf("%v %g %q: read back %v (present %v), measured %v", w.st, w.size, w.text, got, ok, want[i])
+		}
+		if got := b.Width(w.st, w.size, w.text); got != want[i] {
+			t.Errorf("%v %g %q: Width %v after loading, want %v", w.st, w.size, w.text, got, want[i])
+		}
+	}
+	if !bytes.Equal(saved(t, b), data) {
+		t.Error("widths used from a loaded file do not save to the same bytes")
+	}
+	// Sorted entries: the order of measuring does not show in the bytes.
+	c, _ := measured(t, true)
+	if !bytes.Equal(saved(t, c), data) {
+		t.Error("the same widths measured in another order save to other bytes")
+	}
+}
+
+func TestWidthsRefused(t *testing.T) {
+	a, _ := measured(t, false)
+	data := saved(t, a)
+
+	dir := t.TempDir()
+	if err := os.WriteFile(filepath.Join(dir, "Other.ttf"), gobold.TTF, 0o644); err != nil {
+		t.Fatal(err)
+	}
+	other, err := Load(&specs.Spec{File: filepath.Join(dir, "f.yaml"), Dir: dir},
+		&specs.Output{Name: "print", Fonts: specs.Fonts{Regular: "Other.ttf"}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	flipped := bytes.Clone(data)
+	flipped[len(flipped)/2] ^= 1
+	for _, tc := range []struct {
+		name string
+		set  *Set
+		data []byte
+	}{
+		{"other fonts", other, data},
+		{"a flipped bit", mustDefault(t), flipped},
+		{"cut short", mustDefault(t), data[:len(data)-40]},
+		{"empty", mustDefault(t), nil},
+		{"not a widths file", mustDefault(t), []byte("term,year,count\nboiler,1900,5\n")},
+	} {
+		if err := tc.set.LoadWidths(bytes.NewReader(tc.data)); err == nil {
+			t.Errorf("%s: no error", tc.name)
+		}
+		if len(tc.set.saved) != 0 {
+			t.Errorf("%s: %d widths added", tc.name, len(tc.set.saved))
+		}
+	}
+}
