@@ -54,7 +54,7 @@ func TestKeptCountsMatchSecondRead(t *testing.T) {
 			}
 			return set
 		}
-		all := loadWith("")                   // can select every term: kept
+		all := loadWith("")                  // can select every term: kept
 		few := loadWith("terms: {top: 3}\n") // keeps at most 6 of 30: read again
 		if all.Terms != 30 || len(all.Series) != 30 || len(few.Series) != 3 {
 			t.Fatalf("%s: terms %d, selected %d and %d", mode, all.Terms, len(all.Series), len(few.Series))
