@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"io"
 	"math"
+	"sort"
 	"strings"
 	"text/tabwriter"
 )
@@ -250,7 +251,97 @@ func Check(s Scale, paper Color, lineWidthPt float64, m Medium, th Thresholds) (
 	r.checkGamut(s)
 	r.checkCVD()
 	r.checkSize()
+	if !r.Discrete {
+		r.checkSweep(s)
+	}
 	return r, nil
+}
+
+// checkSweep looks between the table's samples: a continuous scale is
+// drawn at every year, so a colour that fades on the paper, leaves sRGB or
+// turns lightness back between two samples (say a bright anchor three
+// years wide) must be found too. Every whole year of the span and every
+// anchor year is checked; a run of failing years the rows did not already
+// report becomes one finding at its worst year.
+func (r *Report) checkSweep(s Scale) {
+	from, to := s.Span()
+	years := []float64{from}
+	for y := math.Floor(from) + 1; y < to; y++ {
+		years = append(years, y)
+	}
+	for _, a := range s.anchors {
+		if a.Year > from && a.Year < to {
+			years = append(years, a.Year)
+		}
+	}
+	years = append(years, to)
+	sort.Float64s(years)
+	reported := func(check string, y0, y1 float64) bool {
+		for _, f := range r.Findings {
+			if f.Check == check && f.Year >= y0-r.Thresholds.SampleYears && f.Year <= y1+r.Thresholds.SampleYears {
+				return true
+			}
+		}
+		return false
+	}
+	// runs calls bad for each year and reports each maximal run of failing
+	// years once, at the year where score is worst (lowest).
+	runs := func(check string, sev Severity, bad func(y float64, c Color) (bool, float64), msg func(y0, y1, worst float64, c Color) string) {
+		fail := make([]bool, len(years))
+		score := make([]float64, len(years))
+		for i, y := range years {
+			fail[i], score[i] = bad(y, s.At(y))
+		}
+		for i := 0; i < len(years); {
+			if !fail[i] {
+				i++
+				continue
+			}
+			j, worst := i, i
+			for ; j < len(years) && fail[j]; j++ {
+				if score[j] < score[worst] {
+					worst = j
+				}
+			}
+			if y0, y1 := years[i], years[j-1]; !reported(check, y0, y1) {
+				row := &Row{Label: yearLabel(years[worst]), Year: years[worst]}
+				r.add(check, row, sev, "%s", msg(y0, y1, score[worst], s.At(years[worst])))
+			}
+			i = j
+		}
+	}
+	span := func(y0, y1 float64) string {
+		if y0 == y1 {
+			return yearLabel(y0)
+		}
+		return yearLabel(y0) + "–" + yearLabel(y1)
+	}
+	runs(CheckContrast, Fail, func(y float64, c Color) (bool, float64) {
+		k := ContrastRatio(c.Clip(), r.Paper)
+		return k < r.Thresholds.MinContrast, k
+	}, func(y0, y1, worst float64, c Color) string {
+		return fmt.Sprintf("between the table's samples, %s fall to contrast %.2f:1 against paper %s (%s) < %.2f:1 (WCAG 2.1 SC 1.4.11); a thin line will fade",
+			span(y0, y1), worst, r.Paper.Hex(), c.Clip().Hex(), r.Thresholds.MinContrast)
+	})
+	runs(CheckGamut, Warn, func(y float64, c Color) (bool, float64) {
+		return !c.InGamut(), -c.DeltaE00(c.Clip())
+	}, func(y0, y1, worst float64, c Color) string {
+		return fmt.Sprintf("between the table's samples, %s are outside sRGB; drawn clipped, up to ΔE00 %.2f away", span(y0, y1), -worst)
+	})
+	dir := r.direction()
+	if dir == 0 {
+		return
+	}
+	prevL := math.NaN()
+	runs(CheckLightness, Fail, func(y float64, c Color) (bool, float64) {
+		l := c.Clip().LCh().L
+		back := !math.IsNaN(prevL) && float64(dir)*(l-prevL) < -lightnessSlack
+		d := float64(dir) * (l - prevL)
+		prevL = l
+		return back, d
+	}, func(y0, y1, worst float64, c Color) string {
+		return fmt.Sprintf("between the table's samples, L* runs %s but turns back in %s (by %.1f)", dirWord(dir), span(y0, y1), -worst)
+	})
 }
 
 // maxSamples bounds the rows of a continuous check.

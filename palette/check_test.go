@@ -275,3 +275,40 @@ func BenchmarkCheck(b *testing.B) {
 		Check(s, white, 0.75, Print, DefaultThresholds())
 	}
 }
+
+// TestSweepFindsColoursBetweenSamples: a yellow anchor three years wide
+// sits between the table's decade samples (1898 and 1908 for 1868–2025).
+// It is drawn on every line, so the check must find it. Yellow #ffff00 on
+// white has contrast 1.07:1, computed from the WCAG 2.1 definition of
+// relative luminance (Y = 0.2126 R + 0.7152 G + 0.0722 B for linear sRGB).
+func TestSweepFindsColoursBetweenSamples(t *testing.T) {
+	white := mustHex(t, "#ffffff")
+	mid := mustHex(t, "#b04ca6")
+	s, err := NewScale("bright insert", []Anchor{
+		{1868, mustHex(t, "#b84ca2")}, {1899, mid}, {1901, mustHex(t, "#ffff00")}, {1903, mid}, {2025, mustHex(t, "#105564")},
+	}, nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	r, err := Check(s, white, 0.75, Print, DefaultThresholds())
+	if err != nil {
+		t.Fatal(err)
+	}
+	var found *Finding
+	for i, f := range r.Findings {
+		if f.Check == CheckContrast {
+			found = &r.Findings[i]
+		}
+	}
+	if found == nil {
+		t.Fatalf("no contrast finding; findings: %v", r.Findings)
+	}
+	if found.Severity != Fail || found.Year != 1901 || !strings.Contains(found.Message, "1.07:1") {
+		t.Errorf("contrast finding %v, want a failure at 1901 naming 1.07:1", found)
+	}
+	for _, row := range r.Rows {
+		if row.Year > 1899 && row.Year < 1903 {
+			t.Fatalf("a table row at %v: the test must put the anchor between samples", row.Year)
+		}
+	}
+}

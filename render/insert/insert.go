@@ -451,10 +451,7 @@ func (g *Graphic) key(ctx *canvas.Context) {
 // gradient is the era palette from x0 to x1.
 func (g *Graphic) gradient(x0, x1, y float64) *canvas.LinearGradient {
 	gr := canvas.NewLinearGradient(canvas.Point{X: x0 * mm, Y: y * mm}, canvas.Point{X: x1 * mm, Y: y * mm})
-	from, to := float64(g.Data.Span.From), float64(g.Data.Span.To)
-	for _, s := range g.stops {
-		gr.Add((s.Year-from)/(to-from), rgba(s.Color))
-	}
+	page.AddStops(gr, g.stops, float64(g.Data.Span.From), float64(g.Data.Span.To))
 	return gr
 }
 

@@ -197,11 +197,19 @@ func (f *Feature) heading(p pen, h layout.Heading) {
 // gradient returns the era palette as a horizontal gradient from x0 to x1.
 func (f *Feature) gradient(p pen, x0, x1, y float64) *canvas.LinearGradient {
 	g := p.gradient(x0, x1, y)
-	from, to := float64(f.Data.Span.From), float64(f.Data.Span.To)
-	for _, s := range f.Stops {
-		g.Add((s.Year-from)/(to-from), rgba(s.Color))
-	}
+	AddStops(g, f.Stops, float64(f.Data.Span.From), float64(f.Data.Span.To))
 	return g
+}
+
+// AddStops puts the palette's stops for the years from–to on a gradient.
+// A stepped palette has two stops at each era boundary (the colour before
+// and after); canvas's Stops.Add would keep only one of a pair and blend
+// the eras, so the stops are appended as they are, in year order.
+func AddStops(g *canvas.LinearGradient, stops []palette.Stop, from, to float64) {
+	for _, s := range stops {
+		t := math.Min(math.Max((s.Year-from)/(to-from), 0), 1)
+		g.Stops = append(g.Stops, canvas.Stop{Offset: t, Color: rgba(s.Color)})
+	}
 }
 
 // tickYears chooses year ticks whose labels never collide: the smallest
