@@ -246,9 +246,12 @@ func TestGroupsAndContinuedHeadings(t *testing.T) {
 			heads = append(heads, strconv.Itoa(pg.Number)+":"+h.Text)
 		}
 	}
-	// 200 panels in 6 columns is 34 rows, more than a page holds: it
-	// continues with a "(continued)" heading on every later page.
-	want := []string{"1:1800s", "2:1850s", "2:1900s"}
+	// 1850s (7 rows) does not fit under 1800s (3 rows) on page 1, but
+	// moving it would leave page 1 more than half empty: it starts there
+	// and continues on page 2. 200 panels in 6 columns is 34 rows, more
+	// than a page holds: it continues with a "(continued)" heading on
+	// every later page.
+	want := []string{"1:1800s", "1:1850s", "2:1850s (continued)", "2:1900s"}
 	for i := 3; i <= len(p.Pages); i++ {
 		want = append(want, strconv.Itoa(i)+":1900s (continued)")
 	}
@@ -568,6 +571,47 @@ outputs:
 		out := specs.DefaultOutput("x", k)
 		if _, err := Solve(spec, &out, fontSet(t), []Group{{Count: 100}}); err != nil {
 			t.Errorf("default %s output: %v", k, err)
+		}
+	}
+}
+
+// TestShortPageKeepsFullPitch: a page that ends early (a group break, or
+// the last page) sets its rows at the pitch of a full page instead of
+// pushing them to the top and bottom of the page (common practice: rows
+// that line up from page to page read as one grid).
+func TestShortPageKeepsFullPitch(t *testing.T) {
+	out := a4Print()
+	full := solveT(t, testSpec(), out, []Group{{Count: 150}})
+	cols := full.Columns
+	rowsPerPage := full.RowsPerPage
+	pitch := func(pg Page) float64 { // distance between the tops of rows 0 and 1
+		var y0, y1 float64
+		for _, pn := range pg.Panels {
+			switch pn.Row {
+			case 0:
+				y0 = pn.Label.Y1
+			case 1:
+				y1 = pn.Label.Y1
+			}
+		}
+		return y0 - y1
+	}
+	// A first page has its own height (the header), so its own pitch.
+	want := []float64{pitch(full.Pages[0]), pitch(full.Pages[1])}
+	// Page 2 gets two rows of a group; the next group starts on page 3.
+	first := full.RowsFirstPage * cols
+	plan := solveT(t, testSpec(), out, []Group{{Heading: "A", Count: first - cols}, {Heading: "B", Count: 2 * cols}, {Heading: "C", Count: rowsPerPage * cols}})
+	for _, pg := range plan.Pages {
+		rows := map[int]bool{}
+		for _, pn := range pg.Panels {
+			rows[pn.Row] = true
+		}
+		if len(rows) < 2 {
+			continue
+		}
+		w := want[min(pg.Number-1, 1)]
+		if got := pitch(pg); got > w+1e-6 {
+			t.Errorf("page %d (%d rows): row pitch %.3f pt, a full page's is %.3f pt", pg.Number, len(rows), got, w)
 		}
 	}
 }

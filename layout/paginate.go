@@ -61,7 +61,9 @@ var errNoRoom = errors.New("layout: a row does not fit on an empty page")
 
 // fill pages greedily: each group starts a new block; a group that does
 // not fit in what is left of a page starts a new page, unless it is larger
-// than a whole page, in which case it fills this one and continues.
+// than a whole page or the page would be left more than half empty, in
+// which case it fills this one and continues under a "(continued)"
+// heading.
 func (s *solver) fill(rows []int, heads []bool, limit func(int) int) ([]pageFill, error) {
 	pages := []pageFill{{}}
 	for g, r := range rows {
@@ -77,7 +79,11 @@ func (s *solver) fill(rows []int, heads []bool, limit func(int) int) ([]pageFill
 			// Whether a group fits is a matter of room, not of the
 			// balancing limit: the group rule comes first.
 			if p.rows > 0 {
-				if k == 0 || s.room(&pageFill{}, i+1, heads[g], noLimit) >= r {
+				// Move the group to a fresh page when it fits there — unless
+				// that would leave this page more than half empty: then it
+				// starts here and continues, as an editor would set it.
+				halfEmpty := k >= 2 && 2*p.rows < s.room(&pageFill{}, i, false, noLimit)
+				if k == 0 || !halfEmpty && s.room(&pageFill{}, i+1, heads[g], noLimit) >= r {
 					pages = append(pages, pageFill{})
 					continue
 				}

@@ -39,6 +39,22 @@ func (s *solver) place(groups []Group, fills []pageFill, balanced bool) *Plan {
 	if last := len(fills) - 1; last > 0 && !balanced {
 		extra[last] = min(extra[last], extra[last-1])
 	}
+	// A page that ends early — the panels ran out, or the next group
+	// starts on a new page — never spreads wider than a full page of the
+	// same kind would: two rows pushed to the top and bottom of an empty
+	// page read as unrelated. Its rows keep a full page's pitch and the
+	// room left stays below them.
+	for i, f := range fills {
+		if s.scroll || f.rows < 2 {
+			continue
+		}
+		full := s.room(&pageFill{}, i, false, noLimit)
+		if full < 2 {
+			continue
+		}
+		pitch := max(0, (s.capacity(i)-s.need(full, 0, 1))/float64(full-1))
+		extra[i] = min(extra[i], pitch)
+	}
 
 	// The scrolling sheet is as tall as its content.
 	if s.scroll {

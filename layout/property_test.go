@@ -253,9 +253,14 @@ func checkPlan(p *Plan, out *specs.Output, groups []Group) string {
 				return fmt.Sprintf("page %d: group %d without heading", pg.Number, g)
 			}
 		}
-		// Slack is not left at the bottom of a page that ends early
-		// because the next block did not fit (not the last page).
-		if pi < len(p.Pages)-1 && len(rowsOnPage) >= 2 && !p.isScroll() {
+		// Slack is not left at the bottom of a full page (as many rows as
+		// a page holds, no headings); a page that ends early keeps a full
+		// page's pitch instead and may leave room below its rows.
+		capRows := p.RowsPerPage
+		if pi == 0 {
+			capRows = p.RowsFirstPage
+		}
+		if pi < len(p.Pages)-1 && len(rowsOnPage) >= 2 && len(rowsOnPage) == capRows && len(pg.Headings) == 0 && !p.isScroll() {
 			low := math.Inf(1)
 			for _, pn := range pg.Panels {
 				y := pn.Plot.Y0
@@ -276,9 +281,34 @@ func checkPlan(p *Plan, out *specs.Output, groups []Group) string {
 		return fmt.Sprintf("%d of %d items placed", next, len(groupOf))
 	}
 	// A group spans pages only when it is larger than a page, or starts at
-	// the top of the (shorter) first page, which would otherwise be empty.
+	// the top of the (shorter) first page, which would otherwise be empty,
+	// or starts on a page less than half full, which moving it would leave
+	// more than half empty.
 	for g, gr := range groups {
 		if len(pagesOf[g]) < 2 || p.Pages[0].Panels[0].Group == g {
+			continue
+		}
+		start := -1
+		for pi := range p.Pages {
+			if pagesOf[g][pi] {
+				start = pi
+				break
+			}
+		}
+		before := map[int]bool{}
+		for _, pn := range p.Pages[start].Panels {
+			if pn.Group != g {
+				before[pn.Row] = true
+			}
+		}
+		capRows := p.RowsPerPage
+		if start == 0 {
+			capRows = p.RowsFirstPage
+		}
+		// The solver decides before slack: grow makes rows taller, so a
+		// page less than half full then may hold fewer rows in the end;
+		// the bound allows for that.
+		if 2*len(before) < capRows+capRows/2 {
 			continue
 		}
 		rows := (gr.Count + p.Columns - 1) / p.Columns

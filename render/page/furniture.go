@@ -40,24 +40,80 @@ func (f *Feature) key(p pen, pg *layout.Page) {
 	tick := tsize * 0.3
 	base := ticks.Y1 - tick - f.Fonts.Metrics(fonts.Regular, tsize).Ascent - tsize*0.1
 	years := f.tickYears(x1-x0, tsize)
+	if len(f.Spec.Palette.Eras) > 0 {
+		years = f.eraTicks(x1-x0, tsize)
+	}
 	for _, y := range years {
 		x := x0 + (float64(y)-from)/(to-from)*(x1-x0)
 		p.line(x, strip.Y0, x, strip.Y0-tick, f.Rule(), ruleGrey)
 		p.text(fonts.Regular, tsize, inkSoft, x, base, canvas.Center, strconv.Itoa(y))
 	}
-	// What the height means, right-aligned in the band, level with the strip.
-	p.text(fonts.Regular, size, inkSoft, r.X1, mid-m.CapHeight/2, canvas.Right, f.scaleNote())
+	// What the height means, right-aligned in the band beside the strip:
+	// on one line level with the strip, or on two (strip and tick row),
+	// in the longest wording that fits, never over the strip.
+	room := r.X1 - (x1 + size*1.5)
+	lines := f.noteLines(size, room)
+	for i, l := range lines {
+		y := mid - m.CapHeight/2
+		if i == 1 {
+			y = base
+		}
+		p.text(fonts.Regular, size, inkSoft, r.X1, y, canvas.Right, l)
+	}
 }
 
-// scaleNote says what a panel's height means.
-func (f *Feature) scaleNote() string {
+// eraTicks labels a stepped palette's era boundaries (and its ends), left
+// out where a label would collide with the one before.
+func (f *Feature) eraTicks(width, size float64) []int {
+	from, to := f.Data.Span.From, f.Data.Span.To
+	gap := f.Fonts.Width(fonts.Regular, size, "0000") + size
+	perYear := width / float64(to-from)
+	years := []int{from}
+	for _, e := range f.Spec.Palette.Eras {
+		if float64(e-years[len(years)-1])*perYear >= gap {
+			years = append(years, e)
+		}
+	}
+	if float64(to-years[len(years)-1])*perYear < gap {
+		years = years[:len(years)-1]
+	}
+	return append(years, to)
+}
+
+// noteLines returns the scale note set in at most two lines of width,
+// trying the full wording first, then the short one; nil when neither
+// fits (preflight then reports nothing is lost: the note is a courtesy,
+// the label's peak year and the panels say the same).
+func (f *Feature) noteLines(size, width float64) []string {
+	if width <= 0 {
+		return nil
+	}
+	for _, note := range f.scaleNotes() {
+		if f.Fonts.Width(fonts.Regular, size, note) <= width {
+			return []string{note}
+		}
+		if lines := f.Fonts.Wrap(fonts.Regular, size, note, width); len(lines) == 2 &&
+			f.Fonts.Width(fonts.Regular, size, lines[0]) <= width && f.Fonts.Width(fonts.Regular, size, lines[1]) <= width {
+			return lines
+		}
+	}
+	return nil
+}
+
+// scaleNotes says what a panel's height means, in a full and a short
+// wording.
+func (f *Feature) scaleNotes() []string {
 	s := f.Spec.Scale
 	switch {
+	case s.Mode == specs.ScaleOwnPeak && f.Output.PeakDot:
+		return []string{"Each line rises to its own highest year, marked with a dot", "Each line to its own peak (dot)"}
 	case s.Mode == specs.ScaleOwnPeak:
-		return "Each line is scaled to its own peak year (dot)"
+		return []string{"Each line rises to its own highest year", "Each line to its own peak"}
 	case s.YRange == specs.YShared:
-		return "Panel height: 0 to " + formatValue(f.Data.YMax) + " " + f.Data.Unit + ", the same on every panel"
+		return []string{"Panel height: 0 to " + formatValue(f.Data.YMax) + " " + f.Data.Unit + ", the same on every panel",
+			"0 to " + formatValue(f.Data.YMax) + " " + f.Data.Unit}
 	default:
-		return "Each panel runs from 0 to its own peak (" + f.Data.Unit + ", value beside the peak year)"
+		return []string{"Each panel runs from 0 to its own peak (" + f.Data.Unit + "; the value stands beside the peak year)",
+			"0 to each panel's own peak (" + f.Data.Unit + ")"}
 	}
 }

@@ -191,7 +191,9 @@ func (f *Feature) placed(p pen, pg *layout.Page) {
 func (f *Feature) heading(p pen, h layout.Heading) {
 	size := f.Output.Type.Heading.Pt()
 	p.text(fonts.Bold, size, ink, h.Box.X0, h.Baseline, canvas.Left, h.Text)
-	p.line(h.Box.X0, h.Box.Y0, h.Box.X1, h.Box.Y0, f.Rule(), ruleGrey)
+	// The rule runs above the heading, where it separates the groups; below
+	// it, it would sit on the labels' ascenders.
+	p.line(h.Box.X0, h.Box.Y1, h.Box.X1, h.Box.Y1, f.Rule(), ruleGrey)
 }
 
 // gradient returns the era palette as a horizontal gradient from x0 to x1.
