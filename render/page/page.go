@@ -248,7 +248,9 @@ func (f *Feature) panel(p pen, b *curve.Builder, pn layout.Panel) error {
 	tsize := t.Ticks.Pt()
 	lab := f.Labels()[pn.Item]
 	p.text(fonts.Bold, lab.Size, ink, pn.Label.X0, base, canvas.Left, lab.Text)
-	p.text(fonts.Regular, tsize, inkSoft, pn.Label.X1, base, canvas.Right, peak)
+	if !lab.NoPeak {
+		p.text(fonts.Regular, tsize, inkSoft, pn.Label.X1, base, canvas.Right, peak)
+	}
 
 	pr := pn.Plot
 	// Baseline: the zero line, a hairline.
@@ -341,8 +343,10 @@ func (f *Feature) ticks(p pen, pn layout.Panel) {
 	}
 }
 
-// Label is how a panel's term is set: at its size, or shrunk, or cut
-// with an ellipsis when even the smallest allowed size is too wide.
+// Label is how a panel's term is set: at its size beside the peak text,
+// or shrunk; when even the smallest allowed size is too wide, the peak
+// text (which the peak dot and the curve also show) makes room; only then
+// is the term cut with an ellipsis.
 type Label struct {
 	Item      int     `json:"item"`      // index into the data's series
 	Term      string  `json:"term"`      // the term as written
@@ -350,6 +354,7 @@ type Label struct {
 	Size      float64 `json:"size"`      // type size in points
 	Shrunk    bool    `json:"shrunk"`    // set smaller than the output's label size
 	Truncated bool    `json:"truncated"` // cut with an ellipsis
+	NoPeak    bool    `json:"no_peak"`   // the peak year is left out to make room
 }
 
 // labelFloor is the smallest a label may shrink to: 85 % of its size, but
@@ -388,9 +393,16 @@ func (f *Feature) fitLabels() {
 		sr := &f.Data.Series[i]
 		room := width - f.Fonts.Width(fonts.Regular, tsize, f.peakText(sr)) - tsize*0.8
 		l := Label{Item: i, Term: sr.Term, Text: sr.Term, Size: size}
-		for l.Size > floor && f.Fonts.Width(fonts.Bold, l.Size, l.Text) > room {
-			l.Size = max(floor, l.Size-0.25)
-			l.Shrunk = true
+		shrink := func() {
+			for l.Size > floor && f.Fonts.Width(fonts.Bold, l.Size, l.Text) > room {
+				l.Size = max(floor, l.Size-0.25)
+				l.Shrunk = true
+			}
+		}
+		shrink()
+		if f.Fonts.Width(fonts.Bold, l.Size, l.Text) > room {
+			l.NoPeak, l.Size, l.Shrunk, room = true, size, false, width
+			shrink()
 		}
 		if f.Fonts.Width(fonts.Bold, l.Size, l.Text) > room {
 			l.Truncated = true

@@ -165,25 +165,33 @@ func TestTickYearsNeverCollide(t *testing.T) {
 // for figure text — then cut with an ellipsis), and that Labels reports
 // it. Terms and widths are invented for the test.
 func TestLabelsFit(t *testing.T) {
+	// Rooms are invented for the test. roomFor sets the panel so that
+	// text fits the whole label line at the floor size less 0.01 pt (no
+	// peak beside it); panelW 0 leaves room beside the peak for the term
+	// at 92 % of its size; noPeakFit leaves room for the term at full size
+	// on the whole line but not beside the peak even at the floor.
 	tests := []struct {
 		name          string
 		kind          specs.Kind
 		label         float64 // output's label size, pt
 		term          string
-		panelW        float64 // 0: the room roomFor takes at the floor size, less 0.01 pt
+		panelW        float64
 		roomFor       string
+		noPeakFit     bool
 		wantShrunk    bool
 		wantTruncated bool
+		wantNoPeak    bool
 		wantText      string // "": the term, or any cut of it when truncated
 	}{
-		{"fits", specs.Print, 7, "boiler", 80, "", false, false, ""},
-		{"a little long shrinks", specs.Print, 7, "steamboatmanship", 0, "", true, false, ""}, // room: 92 % of its size, set below
-		{"far too long is cut", specs.Print, 7, "electrophotographically", 55, "", true, true, ""},
-		{"cut drops a trailing hyphen", specs.Print, 7, "semi-conductor", 0, "semi-c…", true, true, "semi…"},
-		{"runes cut whole", specs.Print, 7, "Maßstabsänderungen", 0, "Maßstabsä…", true, true, "Maßstabs…"},
-		{"no room at all", specs.Print, 7, "boiler", 0, "b…", true, true, "…"},
-		{"type at the floor has no room to shrink", specs.Print, 5, "electrophotographically", 50, "", false, true, ""},
-		{"screen floor is 7.5 pt", specs.Screen, 8, "electrophotographically", 60, "", true, true, ""},
+		{"fits", specs.Print, 7, "boiler", 80, "", false, false, false, false, ""},
+		{"a little long shrinks", specs.Print, 7, "steamboatmanship", 0, "", false, true, false, false, ""},
+		{"the peak year makes room before a cut", specs.Print, 7, "steamboatmanship", 0, "", true, false, false, true, ""},
+		{"far too long is cut", specs.Print, 7, "electrophotographically", 55, "", false, true, true, true, ""},
+		{"cut drops a trailing hyphen", specs.Print, 7, "semi-conductor", 0, "semi-c…", false, true, true, true, "semi…"},
+		{"runes cut whole", specs.Print, 7, "Maßstabsänderungen", 0, "Maßstabsä…", false, true, true, true, "Maßstabs…"},
+		{"no room at all", specs.Print, 7, "boiler", 0, "b…", false, true, true, true, "…"},
+		{"type at the floor has no room to shrink", specs.Print, 5, "electrophotographically", 50, "", false, false, true, true, ""},
+		{"screen floor is 7.5 pt", specs.Screen, 8, "electrophotographically", 60, "", false, true, true, true, ""},
 	}
 	for _, tc := range tests {
 		t.Run(tc.name, func(t *testing.T) {
@@ -202,7 +210,12 @@ func TestLabelsFit(t *testing.T) {
 			f.Plan.PanelW = tc.panelW
 			switch {
 			case tc.roomFor != "":
-				f.Plan.PanelW = peakW + f.Fonts.Width(fonts.Bold, floor, tc.roomFor) - 0.01
+				f.Plan.PanelW = f.Fonts.Width(fonts.Bold, floor, tc.roomFor) - 0.01
+			case tc.noPeakFit:
+				f.Plan.PanelW = f.Fonts.Width(fonts.Bold, tc.label, tc.term) + 0.01
+				if f.Plan.PanelW-peakW >= f.Fonts.Width(fonts.Bold, floor, tc.term) {
+					t.Fatalf("test setup: the term fits beside the peak at the floor")
+				}
 			case tc.panelW == 0: // room for the term at 92 % of its size
 				f.Plan.PanelW = peakW + f.Fonts.Width(fonts.Bold, 0.92*tc.label, tc.term)
 			}
@@ -213,6 +226,12 @@ func TestLabelsFit(t *testing.T) {
 				t.Fatalf("Labels() has %d entries, want %d", len(ls), len(f.Data.Series))
 			}
 			l := ls[0]
+			if l.NoPeak != tc.wantNoPeak {
+				t.Errorf("peak left out %v, want %v", l.NoPeak, tc.wantNoPeak)
+			}
+			if l.NoPeak {
+				room = f.Plan.PanelW
+			}
 			t.Logf("%q in %.1f pt: %q at %.2f pt", tc.term, room, l.Text, l.Size)
 			if l.Item != 0 || l.Term != tc.term {
 				t.Errorf("label is item %d %q, want 0 %q", l.Item, l.Term, tc.term)

@@ -259,9 +259,15 @@ func (c *checker) labels() {
 		case l.Truncated:
 			c.add(Finding{ID: IDLabelCut, Severity: Warning, Page: c.pageOf[l.Item], Term: l.Term,
 				Message: fmt.Sprintf("does not fit its panel: cut to %q at %s", l.Text, c.units(l.Size))})
-		case l.Shrunk:
-			c.add(Finding{ID: IDLabelShrunk, Severity: Info, Page: c.pageOf[l.Item], Term: l.Term,
-				Message: fmt.Sprintf("set at %s instead of %s to fit its panel", c.units(l.Size), c.units(c.in.Output.Type.Label.Pt()))})
+		case l.Shrunk || l.NoPeak:
+			msg := fmt.Sprintf("set at %s instead of %s to fit its panel", c.units(l.Size), c.units(c.in.Output.Type.Label.Pt()))
+			switch {
+			case l.NoPeak && l.Shrunk:
+				msg += ", without its peak year (the dot marks the peak)"
+			case l.NoPeak:
+				msg = "fits its panel without its peak year beside it (the dot marks the peak)"
+			}
+			c.add(Finding{ID: IDLabelShrunk, Severity: Info, Page: c.pageOf[l.Item], Term: l.Term, Message: msg})
 		}
 	}
 }
