@@ -496,7 +496,7 @@ func (d *decoder) spec(n *yaml.Node, s *Spec) {
 			d.mapping(n, path, []field{
 				{"list", d.strings(&s.Terms.List)},
 				{"top", d.integer(&s.Terms.Top, 1, 1_000_000)},
-				{"min-total", d.number(&s.Terms.MinTotal, 0, math.MaxFloat64, false)},
+				{"min-total", d.number(&s.Terms.MinTotal, 0, 1e15, false)},
 				{"exclude", d.strings(&s.Terms.Exclude)},
 			})
 		}},

@@ -73,6 +73,8 @@ func TestParseErrors(t *testing.T) {
 		{"unknown trim name", printOut + "    trim: A6\n", "7:11", `outputs.print.trim: "A6" is not a size`},
 		{"side margins too wide", printOut + "    trim: A5\n    margins: 80mm\n", "8:5", "outputs.print: the inside and outside margins (160.0 mm together) leave no room on a 148.0 mm wide page"},
 		{"top margins too tall", printOut + "    trim: A5\n    margins: {top: 110mm, bottom: 100mm}\n", "8:5", "the top and bottom margins (210.0 mm together) leave no room on a 210.0 mm tall page"},
+		{"page past the PDF limit", printOut + "    trim: 6000mm x 300mm\n", "7:5", "PDF pages stop at 14400 pt (200 in, ISO 32000-1 Annex C.2)"},
+		{"proofs too large", printOut + "    trim: 2000mm x 300mm\n    proofs: 1200\n", "8:5", "proofs at 1200 dpi would be 95717 pixels across; the most is 40000"},
 		{"screen margins in px", head + "outputs:\n  web:\n    kind: screen\n    trim: 60px\n    margins: 32px\n", "8:5", "(64 px together) leave no room on a 60 px wide page"},
 		{"marks need slug", printOut + "    slug: 5mm\n", "7:5", "crop marks need a slug area of at least 7.0 mm outside the bleed"},
 		{"bleed on screen", head + "outputs:\n  web: {kind: screen, bleed: 3mm}\n", "5:8", "outputs.web: bleed, marks and slug-line are for print outputs"},

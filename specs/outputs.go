@@ -223,6 +223,16 @@ func (d *decoder) output(n *yaml.Node, path, name string) Output {
 	// Compare with a little slack: margins that use up the page exactly
 	// should not slip through on rounding (110 mm + 100 mm vs 210 mm).
 	const eps = 1e-6
+	if kind == Print {
+		// ISO 32000-1 Annex C.2: page sizes outside 3–14 400 units are not
+		// portable; the media box adds bleed and slug on each side.
+		media := func(l Length) Length { return l + 2*(o.Bleed+o.Slug) }
+		if mw, mh := media(o.Trim.W), media(o.Trim.H); mw > 14400 || mh > 14400 {
+			d.errorf(at("trim"), "%s: with bleed and slug the page is %.0f × %.0f pt; PDF pages stop at 14400 pt (200 in, ISO 32000-1 Annex C.2)", path, mw.Pt(), mh.Pt())
+		} else if px := max(mw, mh).Pt() * o.Proofs / 72; px > maxProofPixels {
+			d.errorf(at("proofs"), "%s: proofs at %g dpi would be %.0f pixels across; the most is %d — lower proofs", path, o.Proofs, px, maxProofPixels)
+		}
+	}
 	if w := o.Margins.Inside + o.Margins.Outside; w >= o.Trim.W-eps {
 		d.errorf(at("margins"), "%s: the inside and outside margins (%s together) leave no room on a %s wide page", path, o.Describe(w), o.Describe(o.Trim.W))
 	}
@@ -231,6 +241,9 @@ func (d *decoder) output(n *yaml.Node, path, name string) Output {
 	}
 	return o
 }
+
+// maxProofPixels bounds a proof image's side, as render/raster does.
+const maxProofPixels = 40000
 
 func mmPt(v float64) Length { return Length(v * PtPerMm) }
 

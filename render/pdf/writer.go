@@ -94,6 +94,10 @@ func DateFromEnv(fallback time.Time) (time.Time, error) {
 	if err != nil {
 		return time.Time{}, fmt.Errorf("SOURCE_DATE_EPOCH=%q is not an integer number of seconds", s)
 	}
+	// PDF dates have four-digit years (ISO 32000-1 §7.9.4): 0000–9999.
+	if n < 0 || n > 253402300799 {
+		return time.Time{}, fmt.Errorf("SOURCE_DATE_EPOCH=%q is outside 0 (1970-01-01) … 253402300799 (9999-12-31), the years a PDF date can hold", s)
+	}
 	return time.Unix(n, 0).UTC(), nil
 }
 

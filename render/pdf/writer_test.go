@@ -75,6 +75,10 @@ func TestDateFromEnv(t *testing.T) {
 		{"1715938200", time.Date(2024, 5, 17, 9, 30, 0, 0, time.UTC), false},
 		{"yesterday", time.Time{}, true},
 		{"1.5", time.Time{}, true},
+		// A PDF date has a four-digit year (ISO 32000-1 §7.9.4).
+		{"-1", time.Time{}, true},
+		{"253402300799", time.Date(9999, 12, 31, 23, 59, 59, 0, time.UTC), false},
+		{"253402300800", time.Time{}, true},
 	}
 	for _, c := range cases {
 		t.Setenv("SOURCE_DATE_EPOCH", c.env)
