@@ -277,6 +277,9 @@ func (d *decoder) inserts(n *yaml.Node, path string, s *Spec) {
 				in.Size = sz
 			}
 		}
+		if len(in.Terms) == 0 {
+			d.errs.Add(s.Where(p+".terms"), "%s.terms: an insert shows 1 to 4 terms; the list is empty", p)
+		}
 		if len(in.Terms) > 4 {
 			d.errs.Add(s.Where(p+".terms"), "%s.terms: an insert shows 1 to 4 terms, not %d", p, len(in.Terms))
 		}

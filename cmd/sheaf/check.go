@@ -165,6 +165,11 @@ func summarize(j *job) (checkReport, error) {
 		}
 		r.Outputs = append(r.Outputs, or)
 	}
+	// Inserts are laid out too: a missing term or a graphic too small for
+	// its plot is bad input here, as it is for build.
+	if _, err := prepareInserts(j); err != nil {
+		return r, err
+	}
 	r.Preflight, err = runPreflight(j, preps)
 	if r.Preflight == nil {
 		r.Preflight = []preflight.Finding{}

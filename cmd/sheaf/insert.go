@@ -1,9 +1,11 @@
 package main
 
 import (
+	"errors"
 	"fmt"
 	"io"
 	"path/filepath"
+	"strings"
 	"time"
 
 	"github.com/tdewolff/canvas"
@@ -57,12 +59,17 @@ func prepareInsert(j *job, in *specs.Insert) (*preparedInsert, error) {
 // spec's file:line:col.
 func prepareInserts(j *job) ([]*preparedInsert, error) {
 	var preps []*preparedInsert
+	var errs []string
 	for i := range j.spec.Inserts {
 		p, err := prepareInsert(j, &j.spec.Inserts[i])
 		if err != nil {
-			return nil, err
+			errs = append(errs, err.Error()) // every insert's problems at once
+			continue
 		}
 		preps = append(preps, p)
+	}
+	if len(errs) > 0 {
+		return nil, errors.New(strings.Join(errs, "\n"))
 	}
 	return preps, nil
 }
