@@ -68,9 +68,9 @@ type paletteSum struct {
 }
 
 func runCheck(args []string, stdout, stderr io.Writer) int {
-	fs := newFlags("check", "SPEC [--json] [--strict]", "Validate the spec and its data, print a summary, and run the preflight checks\n(the findings table goes to stderr). Exit status 1 with --strict when preflight finds\nwarnings or errors.", stderr)
+	fs := newFlags("check", "SPEC [--json] [--strict]", "Validate the spec and its data, print a summary, and run the preflight checks\n(the findings table goes to stderr). Exit status 1 when preflight finds errors, and with\n--strict when it finds warnings.", stderr)
 	asJSON := fs.Bool("json", false, "print the summary and the findings as a JSON object on stdout")
-	strict := fs.Bool("strict", false, "exit with status 1 when preflight finds warnings or errors")
+	strict := fs.Bool("strict", false, "exit with status 1 when preflight finds warnings too")
 	path, code, ok := startCommand(fs, args, stderr)
 	if !ok {
 		return code
@@ -86,7 +86,7 @@ func runCheck(args []string, stdout, stderr io.Writer) int {
 		return exitBadInput
 	}
 	code = exitOK
-	if (*strict || job.spec.Preflight.Strict) && preflight.Stops(rep.Preflight) {
+	if preflight.Errs(rep.Preflight) || (*strict || job.spec.Preflight.Strict) && preflight.Stops(rep.Preflight) {
 		code = exitFindings
 	}
 	if *asJSON {

@@ -160,6 +160,17 @@ func Check(in Input) ([]Finding, error) {
 
 // Stops reports whether findings stop a strict build: any at Warning or
 // above.
+// Errs reports whether any finding is an error: something that will print
+// wrongly (a missing glyph), not just a risk.
+func Errs(fs []Finding) bool {
+	for _, f := range fs {
+		if f.Severity >= Error {
+			return true
+		}
+	}
+	return false
+}
+
 func Stops(fs []Finding) bool {
 	for _, f := range fs {
 		if f.Severity >= Warning {

@@ -251,6 +251,9 @@ func TestMissingGlyph(t *testing.T) {
 	if f.Severity != Error || !strings.Contains(f.Message, "U+00DF") || f.Page != 1 {
 		t.Errorf("finding %v", f)
 	}
+	if !Errs(got) || !Stops(got) {
+		t.Errorf("a missing glyph must make check exit 1 (Errs %v, Stops %v)", Errs(got), Stops(got))
+	}
 	for _, term := range []string{"boiler", "flash", "silent"} {
 		if g, ok := has(got, IDGlyph, term, 0); ok {
 			t.Errorf("ASCII term reported: %v", g)
@@ -370,4 +373,18 @@ outputs:
 		t.Fatalf("corpus planted %d spikes, %d above 4×: nothing to check", planted, checked)
 	}
 	t.Logf("%d planted spikes, %d above 4× the next-highest year, all reported", planted, checked)
+}
+
+// TestErrsAndStops: errors always fail check; warnings only under strict;
+// review and info never (the severities' documented meaning).
+func TestErrsAndStops(t *testing.T) {
+	for _, c := range []struct {
+		sev         Severity
+		errs, stops bool
+	}{{Info, false, false}, {Review, false, false}, {Warning, false, true}, {Error, true, true}} {
+		fs := []Finding{{ID: "x", Severity: c.sev}}
+		if Errs(fs) != c.errs || Stops(fs) != c.stops {
+			t.Errorf("%v: Errs %v Stops %v, want %v %v", c.sev, Errs(fs), Stops(fs), c.errs, c.stops)
+		}
+	}
 }
