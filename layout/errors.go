@@ -133,6 +133,7 @@ func trimNum(v float64, prec int) string {
 // bleed or hairline rules.
 type Warning struct {
 	Pos     specs.Pos `json:"-"`
+	Key     string    `json:"key"` // the output's spec key it is about, e.g. "type.label", "line", "bleed"
 	Where   string    `json:"where"`
 	Output  string    `json:"output"`
 	Message string    `json:"message"`

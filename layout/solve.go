@@ -116,7 +116,7 @@ func (s *solver) infeasible(key, constraint string, need, have float64, msg stri
 
 func (s *solver) warn(key, format string, args ...any) {
 	pos := s.where(key)
-	s.warnings = append(s.warnings, Warning{Pos: pos, Where: pos.String(), Output: s.out.Name, Message: fmt.Sprintf(format, args...)})
+	s.warnings = append(s.warnings, Warning{Pos: pos, Key: key, Where: pos.String(), Output: s.out.Name, Message: fmt.Sprintf(format, args...)})
 }
 
 func solve(spec *specs.Spec, out *specs.Output, fs *fonts.Set, groups []Group) (*Plan, error) {

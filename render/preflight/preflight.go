@@ -285,6 +285,11 @@ func (c *checker) labels() {
 
 func (c *checker) layout() {
 	for _, w := range c.in.Plan.Warnings {
+		// Type sizes and line widths have their own findings here, with
+		// floors the spec can set; the layout's warning would say it twice.
+		if w.Key == "line" || strings.HasPrefix(w.Key, "type.") {
+			continue
+		}
 		at := ""
 		if w.Pos.File != "" {
 			at = w.Pos.String()

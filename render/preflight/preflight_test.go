@@ -208,6 +208,10 @@ func TestFloorMessages(t *testing.T) {
 	if !Stops(got) {
 		t.Error("Stops = false with warnings")
 	}
+	// Said once: the layout's own warnings about type and lines are left out.
+	if d, ok := has(got, IDLayout, "", 0); ok {
+		t.Errorf("the same problem reported twice: %v", d)
+	}
 }
 
 // TestMissingGlyph builds a font without "ß": Go Regular subset to
