@@ -33,7 +33,32 @@ func runPreflight(j *job, preps []*prepared) ([]preflight.Finding, error) {
 		}
 		all = append(all, fs...)
 	}
-	return all, nil
+	return dedupeData(all), nil
+}
+
+// dedupeData keeps one finding about the data itself (a spike, an empty
+// panel) however many outputs show the term, and says where else it sits.
+func dedupeData(fs []preflight.Finding) []preflight.Finding {
+	type key struct {
+		id, term string
+		year     int
+	}
+	first := map[key]int{}
+	var out []preflight.Finding
+	for _, f := range fs {
+		if f.ID != preflight.IDSpike && f.ID != preflight.IDNoData {
+			out = append(out, f)
+			continue
+		}
+		k := key{f.ID, f.Term, f.Year}
+		if i, ok := first[k]; ok {
+			out[i].Message += fmt.Sprintf("; also %s p. %d", f.Output, f.Page)
+			continue
+		}
+		first[k] = len(out)
+		out = append(out, f)
+	}
+	return out
 }
 
 // writeFindings prints findings as a table, worst first, at most limit
