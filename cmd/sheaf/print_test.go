@@ -74,9 +74,17 @@ func TestDemoPDFBoxes(t *testing.T) {
 	dir, p := demo(t)
 	conf := model.NewDefaultConfiguration()
 	conf.ValidationMode = model.ValidationStrict
-	ctx, err := api.ReadContextFile(filepath.Join(dir, "print", "print.pdf"))
+	f, err := os.Open(filepath.Join(dir, "print", "print.pdf"))
 	if err != nil {
 		t.Fatal(err)
+	}
+	defer f.Close()
+	ctx, err := api.ReadContext(f, conf)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if ctx.Conf.ValidationMode != model.ValidationStrict {
+		t.Fatal("not reading in strict mode")
 	}
 	if err := api.ValidateContext(ctx); err != nil {
 		t.Fatalf("pdfcpu strict validation: %v", err)
