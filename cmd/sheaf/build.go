@@ -3,7 +3,7 @@ package main
 import (
 	"bytes"
 	"context"
-	"encoding/gob"
+	"crypto/sha256"
 	"errors"
 	"fmt"
 	"image"
@@ -29,6 +29,7 @@ import (
 	"sheaf/render/preflight"
 	"sheaf/render/raster"
 	"sheaf/specs"
+	"sheaf/specs/series"
 )
 
 func runBuild(args []string, stdout, stderr io.Writer) int {
@@ -48,15 +49,25 @@ func runBuild(args []string, stdout, stderr io.Writer) int {
 	if !ok {
 		return code
 	}
-	j, err := loadJob(path)
+	// loadJob in two steps: the last build's manifest and cached pages
+	// are read beside the data (see prefetch).
+	spec, err := specs.Load(path)
 	if err != nil {
 		fmt.Fprintln(stderr, err)
 		return exitBadInput
 	}
 	dir := *outDir
 	if dir == "" {
-		dir = filepath.Join(j.spec.Dir, "out")
+		dir = filepath.Join(spec.Dir, "out")
 	}
+	pre := startPrefetch(dir, spec, !*full)
+	defer pre.stop() // no reading left running after the build
+	data, err := series.Load(spec)
+	if err != nil {
+		fmt.Fprintln(stderr, err)
+		return exitBadInput
+	}
+	j := &job{spec: spec, data: data}
 	var outs []*specs.Output
 	for i := range j.spec.Outputs {
 		o := &j.spec.Outputs[i]
@@ -88,6 +99,13 @@ func runBuild(args []string, stdout, stderr io.Writer) int {
 		}
 		preps = append(preps, p)
 	}
+	// Text widths from the last build: fitting thousands of labels is
+	// otherwise most of a small rebuild's layout time.
+	if !*full {
+		for _, p := range preps {
+			loadWidths(dir, p)
+		}
+	}
 	// Inserts too: a missing term or a graphic too small is bad input.
 	if _, err := prepareInserts(j); err != nil {
 		fmt.Fprintln(stderr, err)
@@ -98,6 +116,17 @@ func runBuild(args []string, stdout, stderr io.Writer) int {
 		fmt.Fprintln(stderr, err)
 		return exitBadInput
 	}
+	// The widths asked for up to here (layout, labels, preflight) are the
+	// same for the same inputs, however many pages a build draws: they are
+	// what the cache keeps, so an incremental and a full build leave the
+	// same file.
+	widths := map[string][]byte{}
+	for _, p := range preps {
+		var buf bytes.Buffer
+		if err := p.fonts.SaveWidths(&buf); err == nil {
+			widths[p.out.Name] = buf.Bytes()
+		}
+	}
 	writeFindings(stderr, findings, maxFindingsShown)
 	if (*strict || j.spec.Preflight.Strict) && preflight.Stops(findings) {
 		fmt.Fprintln(stderr, "sheaf build: strict preflight: stopped before writing anything (fix the warnings and errors above, or build without --strict)")
@@ -107,7 +136,7 @@ func runBuild(args []string, stdout, stderr io.Writer) int {
 	ctx, stop := signal.NotifyContext(context.Background(), os.Interrupt, syscall.SIGTERM)
 	defer stop()
 	b := &build{ctx: ctx, j: j, final: dir, date: date, only: *only, noProofs: *noProofs, full: *full,
-		progress: newProgress(stderr, *quiet)}
+		progress: newProgress(stderr, *quiet), widths: widths, pre: pre, sums: map[string]fileSum{}}
 	files, err := b.run(preps)
 	b.progress.done()
 	if err != nil {
@@ -146,6 +175,11 @@ type build struct {
 	stats   []outputStats
 	fonts   []fontHash
 	changes *changeReport
+	widths  map[string][]byte // by output: its fonts' saved widths
+	pre     *prefetch
+	terms   chan []termHash // termHashes of the data, when done
+	sumsMu  sync.Mutex
+	sums    map[string]fileSum // files this build wrote, by slash path relative to the stage
 }
 
 // outputStats counts what a build did for one output.
@@ -174,7 +208,8 @@ func (b *build) run(preps []*prepared) (files []string, err error) {
 		return nil, err
 	}
 	b.specSum = sumBytes(spec)
-	b.prev, err = readManifest(b.final)
+	b.pre.wait()
+	b.prev, err = b.pre.prev, b.pre.prevErr
 	if err != nil {
 		// A damaged manifest costs the change report and the cache, not the build.
 		fmt.Fprintf(b.progress.w, "sheaf build: warning: ignoring the previous manifest: %v\n", err)
@@ -189,6 +224,10 @@ func (b *build) run(preps []*prepared) (files []string, err error) {
 			b.stage.abort()
 		}
 	}()
+	// The terms' hashes are for the manifest at the end: they are taken
+	// while pages are drawn and written.
+	b.terms = make(chan []termHash, 1)
+	go func() { b.terms <- termHashes(b.j.data) }()
 	b.pages = map[string][]pageEntry{}
 	for _, p := range preps {
 		if err := b.ctx.Err(); err != nil {
@@ -203,6 +242,15 @@ func (b *build) run(preps []*prepared) (files []string, err error) {
 		}
 		if err != nil {
 			return nil, fmt.Errorf("output %q: %w", p.out.Name, err)
+		}
+		if w, ok := b.widths[p.out.Name]; ok {
+			err := writeAtomic(filepath.Join(b.stage.dir, cacheDir, p.out.Name, widthsFile), func(f io.Writer) error {
+				_, err := f.Write(w)
+				return err
+			})
+			if err != nil {
+				return nil, err
+			}
 		}
 		b.fonts = append(b.fonts, fontHashes(p.out.Name, p.fonts)...)
 		files = append(files, written...)
@@ -254,11 +302,17 @@ func (b *build) run(preps []*prepared) (files []string, err error) {
 // outputEntry lists an output's pages with their terms and input hashes.
 func (b *build) outputEntry(p *prepared, dpi float64) outputEntry {
 	e := outputEntry{Name: p.out.Name, Kind: string(p.out.Kind), Proofs: dpi}
-	fontSum := fontsSum(p.fonts)
-	for i := range p.plan.Pages {
-		e.Pages = append(e.Pages, pageEntry{Page: i + 1, Terms: pageTerms(b.j, p, i),
-			Inputs: pageInputs(b.j, p, i, b.setup(p, i), b.specSum, fontSum)})
+	if len(p.plan.Pages) == 0 {
+		return e
 	}
+	fontSum := fontsSum(p.fonts)
+	e.Pages = make([]pageEntry, len(p.plan.Pages))
+	parallel(len(e.Pages), func(lo, hi int) {
+		for i := lo; i < hi; i++ {
+			e.Pages[i] = pageEntry{Page: i + 1, Terms: pageTerms(b.j, p, i),
+				Inputs: pageInputs(b.j, p, i, b.setup(p, i), b.specSum, fontSum)}
+		}
+	})
 	return e
 }
 
@@ -303,11 +357,10 @@ func (b *build) buildPrint(p *prepared) ([]string, error) {
 	st := outputStats{Output: out.Name, Pages: len(entry.Pages)}
 	odir := filepath.Join(b.stage.dir, out.Name)
 	pdfPath := filepath.Join(odir, out.Name+".pdf")
-	encoded, err := b.encodePages(p, entry.Pages, &st)
-	if err != nil {
-		return nil, err
-	}
-	err = writeAtomic(pdfPath, func(w io.Writer) error {
+	// Pages go into the PDF as they are ready, in order, while later ones
+	// are still being drawn.
+	var encErr error
+	err := b.writeHashed(pdfPath, func(w io.Writer) error {
 		pw := pdf.NewWriter(w, pdf.Options{Title: b.j.spec.Title, Version: version, Date: b.date})
 		// Pages from the cache name their fonts by hash only.
 		for _, st := range []fonts.Style{fonts.Regular, fonts.Bold, fonts.Italic} {
@@ -315,13 +368,22 @@ func (b *build) buildPrint(p *prepared) ([]string, error) {
 				return err
 			}
 		}
-		for _, e := range encoded {
-			if err := pw.AddEncoded(e); err != nil {
-				return err
-			}
+		var addErr error
+		encErr = b.encodePages(p, entry.Pages, &st, func(e *pdf.EncodedPage) bool {
+			addErr = pw.AddEncoded(e)
+			return addErr == nil
+		})
+		switch {
+		case encErr != nil:
+			return encErr
+		case addErr != nil:
+			return addErr
 		}
 		return pw.Close()
 	})
+	if encErr != nil {
+		return nil, encErr
+	}
 	if err != nil {
 		return nil, err
 	}
@@ -347,66 +409,90 @@ func rel(root, path string) string {
 	return filepath.ToSlash(r)
 }
 
-// encodePages returns every page encoded for the PDF, in parallel: a
-// page whose inputs hash is in the previous build's cache is read from
-// it, the others are drawn and encoded and go into the new cache.
-func (b *build) encodePages(p *prepared, pages []pageEntry, st *outputStats) ([]*pdf.EncodedPage, error) {
+// encodePages hands every page, encoded for the PDF, to add in page order
+// as soon as it and the pages before it are ready; pages are drawn in
+// parallel. A page whose inputs hash is in the previous build's cache is
+// taken from it; the others are drawn and encoded and go into the new
+// cache. It stops when add reports false.
+func (b *build) encodePages(p *prepared, pages []pageEntry, st *outputStats, add func(*pdf.EncodedPage) bool) error {
 	out := p.out.Name
 	oldCache := filepath.Join(b.final, cacheDir, out)
 	newCache := filepath.Join(b.stage.dir, cacheDir, out)
 	if err := os.MkdirAll(newCache, 0o755); err != nil {
-		return nil, err
+		return err
 	}
 	n := len(pages)
 	res := make([]*pdf.EncodedPage, n)
 	errs := make([]error, n)
+	done := make([]chan struct{}, n)
+	for i := range done {
+		done[i] = make(chan struct{})
+	}
 	var encodedN, reusedN atomic.Int64
+	var stop atomic.Bool
 	b.progress.begin(out+": PDF pages", n)
-	work := make(chan int)
+	work := make(chan int, n)
+	for i := range n {
+		work <- i
+	}
+	close(work)
 	var wg sync.WaitGroup
 	for range runtime.GOMAXPROCS(0) {
 		wg.Add(1)
 		go func() {
 			defer wg.Done()
 			for i := range work {
-				if err := b.ctx.Err(); err != nil {
-					errs[i] = err
-					continue
-				}
-				name := pages[i].Inputs + ".page"
-				if !b.full {
-					if e, ok := reuse(filepath.Join(oldCache, name), filepath.Join(newCache, name)); ok {
-						res[i] = e
-						reusedN.Add(1)
-						b.progress.step()
-						continue
-					}
-				}
-				e, err := b.encode(p, i)
-				if err == nil {
-					err = writeAtomic(filepath.Join(newCache, name), func(w io.Writer) error { return gob.NewEncoder(w).Encode(e) })
-				}
-				res[i], errs[i] = e, err
-				encodedN.Add(1)
-				b.progress.step()
+				b.encodeOne(p, i, pages[i].Inputs+".page", oldCache, newCache, &stop, &encodedN, &reusedN, &res[i], &errs[i])
+				close(done[i])
 			}
 		}()
 	}
+	var first error // the first page in order that failed
 	for i := range n {
-		work <- i
+		<-done[i]
+		if errs[i] != nil {
+			first = fmt.Errorf("page %d: %w", i+1, errs[i])
+			break
+		}
+		if !add(res[i]) {
+			break
+		}
+		res[i] = nil // the writer has it
 	}
-	close(work)
+	stop.Store(true)
 	wg.Wait()
 	if err := b.ctx.Err(); err != nil {
-		return nil, err
-	}
-	for i, err := range errs {
-		if err != nil {
-			return nil, fmt.Errorf("page %d: %w", i+1, err)
-		}
+		return err
 	}
 	st.Encoded, st.Reused = int(encodedN.Load()), int(reusedN.Load())
-	return res, nil
+	return first
+}
+
+// encodeOne takes page i from the old cache or draws and encodes it.
+func (b *build) encodeOne(p *prepared, i int, name, oldCache, newCache string, stop *atomic.Bool, encodedN, reusedN *atomic.Int64, res **pdf.EncodedPage, errp *error) {
+	if stop.Load() {
+		*errp = errors.New("stopped")
+		return
+	}
+	if err := b.ctx.Err(); err != nil {
+		*errp = err
+		return
+	}
+	if !b.full {
+		if e, ok := b.reuse(filepath.Join(oldCache, name), filepath.Join(newCache, name)); ok {
+			*res = e
+			reusedN.Add(1)
+			b.progress.step()
+			return
+		}
+	}
+	e, err := b.encode(p, i)
+	if err == nil {
+		err = writeAtomic(filepath.Join(newCache, name), func(w io.Writer) error { return writeCachedPage(w, e) })
+	}
+	*res, *errp = e, err
+	encodedN.Add(1)
+	b.progress.step()
 }
 
 // encode draws and encodes page i.
@@ -419,21 +505,109 @@ func (b *build) encode(p *prepared, i int) (*pdf.EncodedPage, error) {
 	return pdf.EncodePage(b.setup(p, i), func(c *canvas.Canvas) error { return p.feat.Draw(canvas.NewContext(c), i) })
 }
 
-// reuse reads a cached page and links it into the new cache. Any problem
-// (missing, unreadable, damaged) means: encode it again.
-func reuse(old, new string) (*pdf.EncodedPage, bool) {
-	data, err := os.ReadFile(old)
+// widthsFile holds an output's text widths between builds (see
+// fonts.Set.SaveWidths), beside its cached pages.
+const widthsFile = "text-widths"
+
+// loadWidths gives p's fonts the widths the last build saved. A missing,
+// damaged or outdated file costs only the time to measure again.
+func loadWidths(dir string, p *prepared) {
+	f, err := os.Open(filepath.Join(dir, cacheDir, p.out.Name, widthsFile))
 	if err != nil {
-		return nil, false
+		return
 	}
-	var e pdf.EncodedPage
-	if err := gob.NewDecoder(bytes.NewReader(data)).Decode(&e); err != nil || len(e.Content) == 0 {
+	defer f.Close()
+	p.fonts.LoadWidths(f)
+}
+
+// reuse reads a cached page, or takes it as prefetched, and links it into
+// the new cache. Any problem (missing, unreadable, damaged) means: encode
+// it again.
+func (b *build) reuse(old, new string) (*pdf.EncodedPage, bool) {
+	e, ok := b.pre.pages[old]
+	if !ok {
+		e = readCachedPage(old)
+	}
+	if e == nil {
 		return nil, false
 	}
 	if err := linkOrCopy(old, new); err != nil {
 		return nil, false
 	}
-	return &e, true
+	return e, true
+}
+
+// readCachedPage decodes an encoded page from the cache; nil when it is
+// missing, unreadable or damaged.
+func readCachedPage(path string) *pdf.EncodedPage {
+	data, err := os.ReadFile(path)
+	if err != nil {
+		return nil
+	}
+	e, err := decodeCachedPage(data)
+	if err != nil || len(e.Content) == 0 {
+		return nil
+	}
+	return e
+}
+
+// prefetch reads, beside the data, what a build needs from the last one:
+// its manifest, the SHA-256 of the data files and, unless the build is
+// full, the cached pages the manifest lists, decoded. The data read is one
+// core's work; this is the other's.
+type prefetch struct {
+	done    chan struct{}
+	stopped atomic.Bool
+	prev    *manifest
+	prevErr error
+	data    map[string]fileSum          // by resolved path
+	pages   map[string]*pdf.EncodedPage // by cache file path; nil for a damaged one
+}
+
+type fileSum struct {
+	sum  string
+	size int64
+}
+
+func startPrefetch(dir string, s *specs.Spec, pages bool) *prefetch {
+	p := &prefetch{done: make(chan struct{}), data: map[string]fileSum{}, pages: map[string]*pdf.EncodedPage{}}
+	go func() {
+		defer close(p.done)
+		p.prev, p.prevErr = readManifest(dir)
+		if p.stopped.Load() {
+			return
+		}
+		for _, d := range []string{s.Data.Counts, s.Data.Totals} {
+			path := s.Resolve(d)
+			if sum, size, err := sumFile(path); err == nil {
+				p.data[path] = fileSum{sum, size}
+			}
+		}
+		if !pages || p.prev == nil {
+			return
+		}
+		for _, o := range p.prev.Outputs {
+			if o.Kind != string(specs.Print) {
+				continue
+			}
+			for _, pg := range o.Pages {
+				if p.stopped.Load() {
+					return
+				}
+				path := filepath.Join(dir, cacheDir, o.Name, pg.Inputs+".page")
+				p.pages[path] = readCachedPage(path)
+			}
+		}
+	}()
+	return p
+}
+
+func (p *prefetch) wait() { <-p.done }
+
+// stop ends the reading early and waits for it.
+func (p *prefetch) stop() {
+	p.stopped.Store(true)
+	<-p.done
 }
 
 // writeProofs writes a PNG of every page's trim area, pages in parallel,
@@ -460,7 +634,7 @@ func (b *build) writeProofs(p *prepared, pages []pageEntry, dpi float64, odir st
 		b.pages[relp] = pages[i : i+1]
 		if !b.full && prevOut != nil && prevOut.Proofs == dpi {
 			if old := b.prev.file(relp); old != nil && len(old.Pages) == 1 && old.Pages[0].Inputs == pages[i].Inputs {
-				if keep(filepath.Join(b.final, relp), path, old.SHA256) {
+				if b.keep(filepath.Join(b.final, relp), path, old.SHA256) {
 					kept[i] = true
 					st.ProofsReused++
 					b.progress.step()
@@ -483,7 +657,7 @@ func (b *build) writeProofs(p *prepared, pages []pageEntry, dpi float64, odir st
 				errs[i] = err
 				return
 			}
-			if err := writeAtomic(files[i], func(w io.Writer) error { return raster.WritePNG(w, trim) }); err != nil {
+			if err := b.writeHashed(files[i], func(w io.Writer) error { return raster.WritePNG(w, trim) }); err != nil {
 				errs[i] = err
 				return
 			}
@@ -502,7 +676,7 @@ func (b *build) writeProofs(p *prepared, pages []pageEntry, dpi float64, odir st
 	crel := rel(b.stage.dir, cpath)
 	b.pages[crel] = pages
 	if st.ProofsDrawn == 0 && prevOut != nil && samePages(prevOut.Pages, pages) {
-		if old := b.prev.file(crel); old != nil && keep(filepath.Join(b.final, crel), cpath, old.SHA256) {
+		if old := b.prev.file(crel); old != nil && b.keep(filepath.Join(b.final, crel), cpath, old.SHA256) {
 			for _, pg := range pages { // keep the thumbnails for the next build
 				name := fmt.Sprintf("%s-%g.thumb.png", pg.Inputs, dpi)
 				linkOrCopy(filepath.Join(b.final, cacheDir, p.out.Name, name), filepath.Join(b.stage.dir, cacheDir, p.out.Name, name))
@@ -527,7 +701,7 @@ func (b *build) writeProofs(p *prepared, pages []pageEntry, dpi float64, odir st
 		return nil, err
 	}
 	sheet := contact.Sheet(thumbs, 4)
-	if err := writeAtomic(cpath, func(w io.Writer) error { return raster.WritePNG(w, sheet) }); err != nil {
+	if err := b.writeHashed(cpath, func(w io.Writer) error { return raster.WritePNG(w, sheet) }); err != nil {
 		return nil, err
 	}
 	return files, nil
@@ -582,29 +756,67 @@ func samePages(a, b []pageEntry) bool {
 
 // keep links the previous build's file into the stage when its content
 // is still what the previous manifest recorded.
-func keep(old, new, sum string) bool {
-	got, _, err := sumFile(old)
+func (b *build) keep(old, new, sum string) bool {
+	got, size, err := sumFile(old)
 	if err != nil || got != sum {
 		return false
 	}
 	if err := os.MkdirAll(filepath.Dir(new), 0o755); err != nil {
 		return false
 	}
-	return linkOrCopy(old, new) == nil
+	if linkOrCopy(old, new) != nil {
+		return false
+	}
+	b.known(new, fileSum{got, size})
+	return true
 }
+
+// writeHashed is writeAtomic that also hashes what it writes, so that the
+// manifest need not read the file back.
+func (b *build) writeHashed(path string, fill func(w io.Writer) error) error {
+	h := sha256.New()
+	var n int64
+	err := writeAtomic(path, func(w io.Writer) error {
+		return fill(writerFunc(func(p []byte) (int, error) {
+			h.Write(p)
+			k, err := w.Write(p)
+			n += int64(k)
+			return k, err
+		}))
+	})
+	if err == nil {
+		b.known(path, fileSum{hexSum(h), n})
+	}
+	return err
+}
+
+// known records the hash of a file in the stage.
+func (b *build) known(path string, fs fileSum) {
+	b.sumsMu.Lock()
+	b.sums[rel(b.stage.dir, path)] = fs
+	b.sumsMu.Unlock()
+}
+
+type writerFunc func(p []byte) (int, error)
+
+func (f writerFunc) Write(p []byte) (int, error) { return f(p) }
 
 // manifest describes the stage as it will be swapped in.
 func (b *build) manifest() (*manifest, error) {
 	s := b.j.spec
 	m := &manifest{Sheaf: version, Spec: fileHash{Path: filepath.Base(s.File), SHA256: b.specSum}}
 	for _, d := range []string{s.Data.Counts, s.Data.Totals} {
-		sum, _, err := sumFile(s.Resolve(d))
-		if err != nil {
-			return nil, err
+		fs, ok := b.pre.data[s.Resolve(d)]
+		if !ok {
+			sum, size, err := sumFile(s.Resolve(d))
+			if err != nil {
+				return nil, err
+			}
+			fs = fileSum{sum, size}
 		}
-		m.Data = append(m.Data, fileHash{Path: d, SHA256: sum})
+		m.Data = append(m.Data, fileHash{Path: d, SHA256: fs.sum})
 	}
-	m.Terms = termHashes(b.j.data)
+	m.Terms = <-b.terms
 	m.Fonts = b.fonts
 	m.Outputs = b.outputs
 	built := map[string]bool{}
@@ -644,7 +856,7 @@ func (b *build) manifest() (*manifest, error) {
 		if s.Output(name) != nil {
 			output = name
 		}
-		fs, err := hashFiles(b.stage.dir, name, output)
+		fs, err := hashFiles(b.stage.dir, name, output, b.sums)
 		if err != nil {
 			return nil, err
 		}

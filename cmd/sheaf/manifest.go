@@ -13,8 +13,10 @@ import (
 	"math"
 	"os"
 	"path/filepath"
+	"runtime"
 	"sort"
 	"strings"
+	"sync"
 
 	"sheaf/layout/fonts"
 	"sheaf/specs/series"
@@ -161,12 +163,21 @@ func sumFile(path string) (string, int64, error) {
 
 // hasher writes values into a SHA-256 unambiguously: strings with their
 // length, floats by their bits.
-type hasher struct{ h hash.Hash }
+type hasher struct {
+	h   hash.Hash
+	buf []byte // floats' bytes, reused
+}
 
 func newHasher(kind string) *hasher {
-	h := &hasher{sha256.New()}
+	h := &hasher{h: sha256.New()}
 	h.str(kind)
 	return h
+}
+
+// reset starts a new hash of kind, keeping the buffers.
+func (h *hasher) reset(kind string) {
+	h.h.Reset()
+	h.str(kind)
 }
 
 func (h *hasher) str(s string) {
@@ -188,11 +199,12 @@ func (h *hasher) float(v float64) {
 
 func (h *hasher) floats(vs []float64) {
 	h.int(len(vs))
-	b := make([]byte, 8*len(vs))
-	for i, v := range vs {
-		binary.LittleEndian.PutUint64(b[8*i:], math.Float64bits(v))
+	b := h.buf[:0]
+	for _, v := range vs {
+		b = binary.LittleEndian.AppendUint64(b, math.Float64bits(v))
 	}
 	h.h.Write(b)
+	h.buf = b
 }
 
 func (h *hasher) sum() string { return hexSum(h.h) }
@@ -200,20 +212,49 @@ func (h *hasher) sum() string { return hexSum(h.h) }
 // termSum is the hash of a term's data as drawn: counts and plotted
 // values, year by year.
 func termSum(sr *series.Series) string {
-	h := newHasher("sheaf term v1")
+	return termSumWith(newHasher(termKind), sr)
+}
+
+const termKind = "sheaf term v1"
+
+func termSumWith(h *hasher, sr *series.Series) string {
+	h.reset(termKind)
 	h.str(sr.Term)
 	h.floats(sr.Counts)
 	h.floats(sr.Values)
 	return h.sum()
 }
 
+// termHashes hashes every term, on all cores: ten thousand terms of two
+// hundred years are megabytes of SHA-256.
 func termHashes(d *series.Set) []termHash {
 	ts := make([]termHash, len(d.Series))
-	for i := range d.Series {
-		ts[i] = termHash{Term: d.Series[i].Term, SHA256: termSum(&d.Series[i])}
-	}
+	parallel(len(ts), func(lo, hi int) {
+		h := newHasher(termKind)
+		for i := lo; i < hi; i++ {
+			ts[i] = termHash{Term: d.Series[i].Term, SHA256: termSumWith(h, &d.Series[i])}
+		}
+	})
 	sort.Slice(ts, func(i, j int) bool { return ts[i].Term < ts[j].Term })
 	return ts
+}
+
+// parallel runs f over [0, n) cut into one range per core, and waits.
+func parallel(n int, f func(lo, hi int)) {
+	k := min(runtime.GOMAXPROCS(0), n)
+	if k <= 1 {
+		f(0, n)
+		return
+	}
+	var wg sync.WaitGroup
+	for c := range k {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			f(c*n/k, (c+1)*n/k)
+		}()
+	}
+	wg.Wait()
 }
 
 // fontHashes lists the fonts of an output with the hash of their raw
@@ -228,8 +269,9 @@ func fontHashes(output string, fs *fonts.Set) []fontHash {
 }
 
 // hashFiles hashes every regular file under root/sub (a path relative to
-// root) and returns entries with slash paths relative to root.
-func hashFiles(root, sub, output string) ([]fileEntry, error) {
+// root) and returns entries with slash paths relative to root. Files in
+// known (by slash path) were hashed as they were written.
+func hashFiles(root, sub, output string, known map[string]fileSum) ([]fileEntry, error) {
 	var out []fileEntry
 	base := filepath.Join(root, sub)
 	err := filepath.WalkDir(base, func(p string, d fs.DirEntry, err error) error {
@@ -242,15 +284,18 @@ func hashFiles(root, sub, output string) ([]fileEntry, error) {
 		if !d.Type().IsRegular() || strings.HasPrefix(d.Name(), ".") {
 			return nil
 		}
-		sum, size, err := sumFile(p)
-		if err != nil {
-			return err
-		}
 		rel, err := filepath.Rel(root, p)
 		if err != nil {
 			return err
 		}
-		out = append(out, fileEntry{Path: filepath.ToSlash(rel), Output: output, SHA256: sum, Size: size})
+		rel = filepath.ToSlash(rel)
+		fs, ok := known[rel]
+		if !ok {
+			if fs.sum, fs.size, err = sumFile(p); err != nil {
+				return err
+			}
+		}
+		out = append(out, fileEntry{Path: rel, Output: output, SHA256: fs.sum, Size: fs.size})
 		return nil
 	})
 	return out, err

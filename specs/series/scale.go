@@ -1,9 +1,10 @@
 package series
 
 import (
+	"cmp"
 	"fmt"
 	"math"
-	"sort"
+	"slices"
 	"strings"
 
 	"sheaf/specs"
@@ -76,26 +77,25 @@ func arrange(s *specs.Spec, set *Set) {
 	ser := set.Series
 	switch s.Order {
 	case specs.OrderAlpha:
-		sort.SliceStable(ser, func(i, j int) bool {
-			a, b := strings.ToLower(ser[i].Term), strings.ToLower(ser[j].Term)
-			if a != b {
-				return a < b
+		slices.SortStableFunc(ser, func(x, y Series) int {
+			if c := strings.Compare(strings.ToLower(x.Term), strings.ToLower(y.Term)); c != 0 {
+				return c
 			}
-			return ser[i].Term < ser[j].Term
+			return strings.Compare(x.Term, y.Term)
 		})
 	case specs.OrderPeakYear:
-		sort.SliceStable(ser, func(i, j int) bool {
-			if ser[i].PeakYear != ser[j].PeakYear {
-				return ser[i].PeakYear < ser[j].PeakYear
+		slices.SortStableFunc(ser, func(x, y Series) int {
+			if c := cmp.Compare(x.PeakYear, y.PeakYear); c != 0 {
+				return c
 			}
-			return ser[i].Term < ser[j].Term
+			return strings.Compare(x.Term, y.Term)
 		})
 	}
 	if s.Group != specs.GroupPeakDecade {
 		set.Groups = []Group{{Start: 0, Count: len(ser)}}
 		return
 	}
-	sort.SliceStable(ser, func(i, j int) bool { return ser[i].PeakYear/10 < ser[j].PeakYear/10 })
+	slices.SortStableFunc(ser, func(x, y Series) int { return cmp.Compare(x.PeakYear/10, y.PeakYear/10) })
 	for i := 0; i < len(ser); {
 		dec := ser[i].PeakYear / 10 * 10
 		j := i

@@ -14,6 +14,7 @@ package series
 import (
 	"bufio"
 	"bytes"
+	"cmp"
 	"encoding/csv"
 	"errors"
 	"fmt"
@@ -22,7 +23,7 @@ import (
 	"math"
 	"os"
 	"path/filepath"
-	"sort"
+	"slices"
 	"strconv"
 	"strings"
 
@@ -413,6 +414,12 @@ func (r *reader) pass1() (map[string]*agg, []string) {
 	lastKey := ""
 	limit := r.keepLimit()
 	r.keep = true
+	empty := make([]float64, span) // a term's counts before its rows: NaN in gap years
+	for j, t := range totals {
+		if math.IsNaN(t) {
+			empty[j] = math.NaN()
+		}
+	}
 	for {
 		rec, line, ok := t.next(r.errs)
 		if !ok {
@@ -470,11 +477,7 @@ func (r *reader) pass1() (map[string]*agg, []string) {
 				}
 				if r.keep {
 					a.counts = make([]float64, span)
-					for j, t := range totals {
-						if math.IsNaN(t) {
-							a.counts[j] = math.NaN()
-						}
-					}
+					copy(a.counts, empty)
 				}
 			}
 			last, lastKey = a, k
@@ -547,23 +550,27 @@ func (r *reader) selectTerms(aggs map[string]*agg, order []string) []string {
 		sel = append(sel, k)
 	}
 	if s.Terms.Top > 0 || len(s.Terms.List) == 0 {
-		var cand []string
+		var cand []*agg
+		keys := map[*agg]string{}
 		for _, k := range order {
-			if !picked[k] && !excluded[k] && aggs[k].total >= s.Terms.MinTotal {
-				cand = append(cand, k)
+			if a := aggs[k]; !picked[k] && !excluded[k] && a.total >= s.Terms.MinTotal {
+				cand = append(cand, a)
+				keys[a] = k
 			}
 		}
-		sort.SliceStable(cand, func(i, j int) bool {
-			a, b := aggs[cand[i]], aggs[cand[j]]
-			if a.share != b.share {
-				return a.share > b.share
+		// Most used first; equal shares by term.
+		slices.SortStableFunc(cand, func(a, b *agg) int {
+			if c := cmp.Compare(b.share, a.share); c != 0 {
+				return c
 			}
-			return a.term < b.term
+			return strings.Compare(a.term, b.term)
 		})
 		if s.Terms.Top > 0 && len(cand) > s.Terms.Top {
 			cand = cand[:s.Terms.Top]
 		}
-		sel = append(sel, cand...)
+		for _, a := range cand {
+			sel = append(sel, keys[a])
+		}
 	}
 	for i, k := range sel {
 		aggs[k].idx = i

@@ -1,0 +1,162 @@
+package main
+
+import (
+	"bytes"
+	"encoding/gob"
+	"fmt"
+	"reflect"
+	"strings"
+	"testing"
+	"time"
+
+	"github.com/tdewolff/canvas"
+
+	"sheaf/layout/fonts"
+	"sheaf/render/pdf"
+)
+
+// TestPageCacheCoversEncodedPage pins the fields writeCachedPage carries.
+// A field added to pdf.EncodedPage (or a type inside it) fails here until
+// the cache layout carries it too; otherwise a reused page would lose it.
+// PageFont.font is left out on purpose: a cached page names its fonts by
+// key (see pdf.EncodedPage).
+func TestPageCacheCoversEncodedPage(t *testing.T) {
+	want := map[string]string{
+		"pdf.EncodedPage": "Boxes pdf.PageBoxes; Content []uint8; Compressed bool; Fonts []pdf.PageFont; Patterns []pdf.Shading; GStates []pdf.Alpha; Transparent bool",
+		"pdf.PageBoxes":   "Media canvas.Rect; Bleed canvas.Rect; Trim canvas.Rect",
+		"canvas.Rect":     "X0 float64; Y0 float64; X1 float64; Y1 float64",
+		"pdf.PageFont":    "Key pdf.FontKey; Glyphs []pdf.GlyphUse; font *pdf.fontData",
+		"pdf.FontKey":     "[32]uint8",
+		"pdf.GlyphUse":    "ID uint16; Text string",
+		"pdf.Shading":     "Radial bool; Coords []float64; Stops []pdf.Stop",
+		"pdf.Stop":        "Offset float64; R float64; G float64; B float64",
+		"pdf.Alpha":       "Fill float64; Stroke float64",
+	}
+	for _, v := range []any{pdf.EncodedPage{}, pdf.PageBoxes{}, canvas.Rect{}, pdf.PageFont{}, pdf.FontKey{}, pdf.GlyphUse{}, pdf.Shading{}, pdf.Stop{}, pdf.Alpha{}} {
+		typ := reflect.TypeOf(v)
+		var got []string
+		if typ.Kind() == reflect.Struct {
+			for i := range typ.NumField() {
+				f := typ.Field(i)
+				got = append(got, f.Name+" "+f.Type.String())
+			}
+		} else {
+			got = append(got, fmt.Sprintf("[%d]%s", typ.Len(), typ.Elem()))
+		}
+		if g := strings.Join(got, "; "); g != want[typ.String()] {
+			t.Errorf("%s has fields\n  %s\nthe page cache carries\n  %s\nupdate writeCachedPage and decodeCachedPage", typ, g, want[typ.String()])
+		}
+	}
+}
+
+// cachePages are a page of the demo as drawn, and a made-up page with
+// every field set (radial shading, opacity, glyph texts beyond ASCII and
+// empty) so that each part of the layout is exercised.
+func cachePages(t *testing.T) []*pdf.EncodedPage {
+	t.Helper()
+	j, err := loadJob(newJob(t, jobSpec("")))
+	if err != nil {
+		t.Fatal(err)
+	}
+	p, err := prepare(j, j.spec.Output("print"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	drawn, err := pdf.EncodePage(pdf.PageSetup{Boxes: boxes(&p.plan.Pages[0]), Marks: &pdf.MarkOptions{}},
+		func(c *canvas.Canvas) error { return p.feat.Draw(canvas.NewContext(c), 0) })
+	if err != nil {
+		t.Fatal(err)
+	}
+	full := &pdf.EncodedPage{
+		Boxes:      pdf.PageBoxes{Media: canvas.Rect{X1: 300, Y1: 400}, Bleed: canvas.Rect{X0: 10, Y0: 10, X1: 290, Y1: 390}, Trim: canvas.Rect{X0: 19.5, Y0: 19.25, X1: 280.125, Y1: 380}},
+		Content:    []byte("q 1 0 0 1 0 0 cm /P0 sh Q\n"),
+		Compressed: false,
+		Fonts: []pdf.PageFont{{Key: pdf.FontKey{1, 2, 3, 31: 9}, Glyphs: []pdf.GlyphUse{{ID: 0, Text: ""}, {ID: 3, Text: "ß"}, {ID: 65535, Text: "ﬁ"}}},
+			{Key: pdf.FontKey{7}}},
+		Patterns: []pdf.Shading{
+			{Radial: true, Coords: []float64{1, 2, 0, 3, 4, 5.5}, Stops: []pdf.Stop{{Offset: 0, R: 1}, {Offset: 1, G: 0.5, B: 1}}},
+			{Coords: []float64{0, 0, 100, -0.0}},
+		},
+		GStates:     []pdf.Alpha{{Fill: 0.5, Stroke: 1}, {}},
+		Transparent: true,
+	}
+	return []*pdf.EncodedPage{drawn, full}
+}
+
+// TestPageCacheRoundTrip: a page read back from the cache is the page gob
+// gives back (the encoding the cache used before), field for field, and
+// a PDF made of it is byte for byte the PDF made of the original.
+func TestPageCacheRoundTrip(t *testing.T) {
+	for i, e := range cachePages(t) {
+		var b bytes.Buffer
+		if err := writeCachedPage(&b, e); err != nil {
+			t.Fatal(err)
+		}
+		got, err := decodeCachedPage(bytes.Clone(b.Bytes()))
+		if err != nil {
+			t.Fatalf("page %d: %v", i, err)
+		}
+		var g bytes.Buffer
+		if err := gob.NewEncoder(&g).Encode(e); err != nil {
+			t.Fatal(err)
+		}
+		var viaGob pdf.EncodedPage
+		if err := gob.NewDecoder(&g).Decode(&viaGob); err != nil {
+			t.Fatal(err)
+		}
+		if !reflect.DeepEqual(got, &viaGob) {
+			t.Errorf("page %d: read back\n%+v\nwant (gob round trip)\n%+v", i, got, &viaGob)
+		}
+		if i == 0 {
+			a, b := pdfOf(t, e), pdfOf(t, got)
+			if !bytes.Equal(a, b) {
+				t.Errorf("page %d: the PDF of the page read back differs from the original's", i)
+			}
+		}
+	}
+}
+
+func pdfOf(t *testing.T, e *pdf.EncodedPage) []byte {
+	t.Helper()
+	fs, err := fonts.Default()
+	if err != nil {
+		t.Fatal(err)
+	}
+	var out bytes.Buffer
+	w := pdf.NewWriter(&out, pdf.Options{Title: "cache", Version: version, Date: time.Unix(0, 0).UTC()})
+	for _, st := range []fonts.Style{fonts.Regular, fonts.Bold, fonts.Italic} {
+		if _, err := w.RegisterFont(fs.Font(st)); err != nil {
+			t.Fatal(err)
+		}
+	}
+	if err := w.AddEncoded(e); err != nil {
+		t.Fatal(err)
+	}
+	if err := w.Close(); err != nil {
+		t.Fatal(err)
+	}
+	return out.Bytes()
+}
+
+// TestPageCacheDamage: a flipped bit or a file cut anywhere is refused
+// (and never panics), so the page is drawn again.
+func TestPageCacheDamage(t *testing.T) {
+	var b bytes.Buffer
+	if err := writeCachedPage(&b, cachePages(t)[1]); err != nil {
+		t.Fatal(err)
+	}
+	data := b.Bytes()
+	for i := range data {
+		d := bytes.Clone(data)
+		d[i] ^= 0x10
+		if _, err := decodeCachedPage(d); err == nil {
+			t.Errorf("byte %d flipped: read without error", i)
+		}
+		if _, err := decodeCachedPage(bytes.Clone(data[:i])); err == nil {
+			t.Errorf("cut after %d bytes: read without error", i)
+		}
+	}
+	if _, err := decodeCachedPage(append(bytes.Clone(data), 0)); err == nil {
+		t.Error("a byte appended: read without error")
+	}
+}
