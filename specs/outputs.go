@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"math"
 	"regexp"
+	"strconv"
 
 	"gopkg.in/yaml.v3"
 )
@@ -302,7 +303,7 @@ func (d *decoder) checkInserts(s *Spec) {
 // String describes a length in the unit its medium uses.
 func (o *Output) Describe(l Length) string {
 	if o.Kind == Screen {
-		return fmt.Sprintf("%.0f px", l.Px())
+		return strconv.FormatFloat(math.Round(l.Px()*100)/100, 'f', -1, 64) + " px"
 	}
 	return fmt.Sprintf("%.1f mm", l.Mm())
 }

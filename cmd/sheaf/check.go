@@ -179,7 +179,7 @@ func summarize(j *job) (checkReport, error) {
 
 func writeSummary(w io.Writer, r checkReport) {
 	fmt.Fprintf(w, "%s: %q\n", r.Spec, r.Title)
-	fmt.Fprintf(w, "  terms:   %d selected of %d in the data (%d rows), order %s\n", r.Terms.Selected, r.Terms.InData, r.Terms.Rows, r.Terms.Order)
+	fmt.Fprintf(w, "  terms:   %d selected of %d in the data (%s), order %s\n", r.Terms.Selected, r.Terms.InData, plural(r.Terms.Rows, "row"), r.Terms.Order)
 	if len(r.Terms.Groups) > 0 {
 		fmt.Fprintf(w, "  groups:  %s\n", strings.Join(r.Terms.Groups, ", "))
 	}
@@ -206,4 +206,12 @@ func writeSummary(w io.Writer, r checkReport) {
 		// preflight table below.
 		fmt.Fprintf(w, "    %s\n", o.Summary)
 	}
+}
+
+// plural writes a count with its noun, "1 row", "2 rows".
+func plural(n int, noun string) string {
+	if n == 1 {
+		return "1 " + noun
+	}
+	return fmt.Sprintf("%d %ss", n, noun)
 }

@@ -6,6 +6,7 @@ import (
 	"html"
 	"image"
 	"io"
+	"math"
 	"os"
 	"path/filepath"
 	"runtime"
@@ -348,11 +349,14 @@ figcaption{padding:6px 12px}
 `, esc(title))
 	for i, it := range items {
 		wpx, hpx := it.w*96/72, it.h*96/72
+		// HTML's width and height attributes take whole pixels; the
+		// caption keeps the SVG's exact size.
 		ws, hs := strconv.FormatFloat(roundTo(wpx, 1), 'f', -1, 64), strconv.FormatFloat(roundTo(hpx, 1), 'f', -1, 64)
+		wi, hi := strconv.Itoa(int(math.Ceil(wpx-0.05))), strconv.Itoa(int(math.Ceil(hpx-0.05)))
 		fmt.Fprintf(&b, "<figure>\n<img src=\"%s\" width=\"%s\" height=\"%s\" alt=\"%s\">\n<figcaption>%s · %s × %s px · %d of %d</figcaption>\n</figure>\n",
-			esc(it.name), ws, hs, esc(fmt.Sprintf("%s, %d of %d", j.spec.Title, i+1, len(items))), esc(it.name), ws, hs, i+1, len(items))
+			esc(it.name), wi, hi, esc(fmt.Sprintf("%s, %d of %d", j.spec.Title, i+1, len(items))), esc(it.name), ws, hs, i+1, len(items))
 	}
-	fmt.Fprintf(&b, "<p style=\"padding:0 12px\">%s: %s", esc(p.out.Name), esc(p.plan.Summary()))
+	fmt.Fprintf(&b, "<p style=\"padding:0 12px\">%s", esc(p.plan.Summary()))
 	if panels > 0 {
 		fmt.Fprintf(&b, "; %d panel files in <a href=\"panels/\">panels/</a>", panels)
 	}

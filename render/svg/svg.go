@@ -17,6 +17,7 @@ package svg
 
 import (
 	"bytes"
+	"crypto/sha256"
 	"encoding/base64"
 	"encoding/binary"
 	"encoding/xml"
@@ -444,7 +445,7 @@ func (d *Document) WriteTo(w io.Writer) (int64, error) {
 		family = "sans-serif"
 	}
 	if d.opts.EmbedFonts && len(d.fonts) > 0 {
-		family = EmbeddedFamily + ", " + family
+		family = d.embeddedFamily() + ", " + family
 	}
 	fmt.Fprintf(&h, `<svg xmlns="http://www.w3.org/2000/svg" width="%s" height="%s" viewBox="0 0 %s %s" role="img"`, ws, hs, ws, hs)
 	if d.opts.Title != "" || d.opts.Desc != "" {
@@ -503,6 +504,26 @@ func (d *Document) WriteTo(w io.Writer) (int64, error) {
 	return total + int64(n), err
 }
 
+// embeddedFamily names this document's subsets: EmbeddedFamily and a
+// hash of the fonts and glyphs they hold, so two SVGs pasted into one web
+// page never borrow each other's (different) subsets.
+func (d *Document) embeddedFamily() string {
+	h := sha256.New()
+	for _, u := range d.fonts {
+		io.WriteString(h, u.font.Name())
+		ids := make([]int, 0, len(u.glyphs))
+		for id := range u.glyphs {
+			ids = append(ids, int(id))
+		}
+		sort.Ints(ids)
+		for _, id := range ids {
+			fmt.Fprintf(h, ",%d", id)
+		}
+		h.Write([]byte{0})
+	}
+	return fmt.Sprintf("%s-%x", EmbeddedFamily, h.Sum(nil)[:4])
+}
+
 // writeFonts writes one @font-face per font used, each a subset holding
 // only the glyphs drawn (and .notdef, which a font must keep as glyph 0).
 func (d *Document) writeFonts(h *bytes.Buffer) error {
@@ -528,7 +549,7 @@ func (d *Document) writeFonts(h *bytes.Buffer) error {
 				style = "italic"
 			}
 		}
-		fmt.Fprintf(h, "@font-face{font-family:%q;font-weight:%s;font-style:%s;src:url(data:font/ttf;base64,", EmbeddedFamily, weight, style)
+		fmt.Fprintf(h, "@font-face{font-family:%q;font-weight:%s;font-style:%s;src:url(data:font/ttf;base64,", d.embeddedFamily(), weight, style)
 		prog, err := stableWrite(sub)
 		if err != nil {
 			return fmt.Errorf("svg: writing the subset of font %q: %w", u.font.Name(), err)

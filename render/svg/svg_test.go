@@ -364,8 +364,12 @@ func TestEmbeddedSubset(t *testing.T) {
 			t.Errorf("%s subset has %d glyphs; want only those drawn", mm[1], n)
 		}
 	}
-	if !strings.Contains(s, `font-family="`+EmbeddedFamily+`, sans-serif"`) {
-		t.Errorf("embedded family should lead the font-family list")
+	fam := regexp.MustCompile(`font-family="(` + EmbeddedFamily + `-[0-9a-f]{8}), sans-serif"`).FindStringSubmatch(s)
+	if fam == nil {
+		t.Fatalf("embedded family (%s-HASH) should lead the font-family list", EmbeddedFamily)
+	}
+	if strings.Count(s, `font-family:"`+fam[1]+`"`) != len(m) {
+		t.Errorf("every @font-face should be named %s", fam[1])
 	}
 }
 
