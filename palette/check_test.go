@@ -62,7 +62,7 @@ func TestBadPalettesFail(t *testing.T) {
 			anchors: []Anchor{{1900, lab(55, 50, 20)}, {1950, lab(30, 20, -50)}, {2000, lab(50, -40, 30)}},
 			eras:    []float64{1900, 1925, 1950, 1975, 2000},
 			check:   CheckLightness, severity: Fail, label: "1975–2000",
-			want: []string{"L* runs decreasing", "1950–1975 to 1975–2000", "35.4 → 45.3"},
+			want: []string{"L* runs decreasing", "1950–1974 to 1975–2000", "35.4 → 45.3"},
 		},
 		{
 			name:    "declared direction",
@@ -75,8 +75,8 @@ func TestBadPalettesFail(t *testing.T) {
 			name:    "steps too close",
 			anchors: []Anchor{{1900, lab(50, 40, -30)}, {1950, lab(49, 41, -30)}, {2000, lab(30, -30, 20)}},
 			eras:    []float64{1900, 1930, 1960, 2000},
-			check:   CheckStep, severity: Fail, label: "1930–1960",
-			want: []string{"adjacent eras 1900–1930 and 1930–1960", "< 5.00", "heuristic"},
+			check:   CheckStep, severity: Fail, label: "1930–1959",
+			want: []string{"adjacent eras 1900–1929 and 1930–1959", "< 5.00", "heuristic"},
 		},
 		{
 			name:    "span too short",

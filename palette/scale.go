@@ -18,10 +18,18 @@ type Anchor struct {
 type Era struct {
 	From, To float64
 	Color    Color
+	last     bool
 }
 
-// Label names the era by its years, e.g. "1868–1900".
-func (e Era) Label() string { return yearLabel(e.From) + "–" + yearLabel(e.To) }
+// Label names the era by the years it holds, e.g. "1868–1899" for an era
+// that ends where the next begins in 1900; the last era holds its end year.
+func (e Era) Label() string {
+	to := e.To
+	if !e.last && to == math.Trunc(to) && to-1 >= e.From {
+		to-- // whole years: the boundary year belongs to the next era
+	}
+	return yearLabel(e.From) + "–" + yearLabel(to)
+}
 
 // Stop is one gradient stop for a renderer: a year and the clipped sRGB
 // colour there.
@@ -85,7 +93,7 @@ func NewScale(name string, anchors []Anchor, eraBounds []float64) (Scale, error)
 	}
 	for i := 0; i+1 < len(eraBounds); i++ {
 		from, to := eraBounds[i], eraBounds[i+1]
-		s.eras = append(s.eras, Era{From: from, To: to, Color: s.continuous((from + to) / 2)})
+		s.eras = append(s.eras, Era{From: from, To: to, Color: s.continuous((from + to) / 2), last: i+2 == len(eraBounds)})
 	}
 	return s, nil
 }

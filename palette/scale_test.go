@@ -94,8 +94,12 @@ func TestEras(t *testing.T) {
 			t.Errorf("At(%v) is not era %d", y, era)
 		}
 	}
-	if got := eras[1].Label(); got != "1925–1960" {
+	// Whole years: 1960 belongs to the next era; the last era holds 2000.
+	if got := eras[1].Label(); got != "1925–1959" {
 		t.Errorf("label %q", got)
+	}
+	if got := eras[len(eras)-1].Label(); got != "1960–2000" {
+		t.Errorf("last label %q", got)
 	}
 	if from, to := s.Span(); from != 1900 || to != 2000 {
 		t.Errorf("Span = %v, %v", from, to)

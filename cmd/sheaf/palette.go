@@ -3,6 +3,7 @@ package main
 import (
 	"fmt"
 	"io"
+	"os"
 	"path/filepath"
 
 	"github.com/tdewolff/canvas"
@@ -83,6 +84,14 @@ func runPalette(args []string, stdout, stderr io.Writer) int {
 		fmt.Fprintln(stderr, err)
 		return exitBadInput
 	}
+	dir := *outDir
+	if dir == "" {
+		dir = filepath.Join(j.spec.Dir, "out", "palette")
+	}
+	if st, err := os.Stat(dir); err == nil && !st.IsDir() {
+		fmt.Fprintf(stderr, "sheaf palette: --out %s is a file; give a folder\n", dir)
+		return exitBadInput
+	}
 	if len(checks) == 0 {
 		fmt.Fprintln(stderr, "sheaf palette: the spec has no outputs")
 		return exitBadInput
@@ -97,14 +106,10 @@ func runPalette(args []string, stdout, stderr io.Writer) int {
 		fmt.Fprintln(stdout)
 		failed = failed || c.report.Failed()
 	}
-	dir := *outDir
-	if dir == "" {
-		dir = filepath.Join(j.spec.Dir, "out", "palette")
-	}
 	first := checks[0]
 	png := filepath.Join(dir, "swatch.png")
 	if err := writeAtomic(png, func(w io.Writer) error { return swatch.WritePNG(w, first.scale, first.report, 150) }); err != nil {
-		fmt.Fprintln(stderr, err)
+		fmt.Fprintln(stderr, "sheaf palette:", err)
 		return exitFindings
 	}
 	date, err := documentDate(j.spec)
