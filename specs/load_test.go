@@ -78,6 +78,10 @@ func TestParseErrors(t *testing.T) {
 		{"screen margins in px", head + "outputs:\n  web:\n    kind: screen\n    trim: 60px\n    margins: 32px\n", "8:5", "(64 px together) leave no room on a 60 px wide page"},
 		{"marks need slug", printOut + "    slug: 5mm\n", "7:5", "crop marks need a slug area of at least 7.0 mm outside the bleed"},
 		{"bleed on screen", head + "outputs:\n  web: {kind: screen, bleed: 3mm}\n", "5:8", "outputs.web: bleed, marks and slug-line are for print outputs"},
+		{"flow choice", head + "outputs:\n  web: {kind: screen, flow: scroll-group}\n", "5:29", `outputs.web.flow must be one of pages, scroll, scroll-groups, not "scroll-group"; did you mean "scroll-groups"?`},
+		{"spreads on a scroll", head + "outputs:\n  web:\n    kind: screen\n    trim: 1200px\n    spreads: true\n", "8:5", "outputs.web.spreads: spreads pair a left and a right page; flow scroll has no facing pages"},
+		{"spreads on scroll-groups", head + "outputs:\n  web:\n    kind: screen\n    trim: 1200px x 1600px\n    flow: scroll-groups\n    spreads: true\n", "9:5", "flow scroll-groups has no facing pages"},
+		{"flow on print", printOut + "    flow: scroll-groups\n", "6:5", "outputs.print: flow, spreads and panel-files are for screen outputs"},
 		{"kind unknown", head + "outputs:\n  web: {kind: scren}\n", "5:15", `outputs.web.kind must be one of print, screen, not "scren"; did you mean "screen"?`},
 		{"kind missing", head + "outputs:\n  web: {trim: A4}\n", "5:8", "outputs.web.kind is missing"},
 		{"output name", head + "outputs:\n  my output: {kind: print}\n", "5:3", `output name "my output": use letters, digits, - and _`},
@@ -243,6 +247,36 @@ outputs:
 	}
 	if got := s.Resolve("c.csv"); got != filepath.Join("dir", "c.csv") {
 		t.Errorf("Resolve = %s", got)
+	}
+}
+
+// TestFlow checks how a screen output's flow follows from flow and trim
+// (this project's own rules, README "Outputs").
+func TestFlow(t *testing.T) {
+	for _, c := range []struct {
+		name, keys string
+		want       Flow
+	}{
+		{"width alone scrolls", "trim: 1200px", FlowScroll},
+		{"a height makes pages", "trim: 1200px x 1600px", FlowPages},
+		{"scroll over a height", "trim: 1200px x 1600px\n    flow: scroll", FlowScroll},
+		{"a page per group", "trim: 1200px\n    flow: scroll-groups", FlowScrollGroups},
+		{"a page per group ignores a height", "trim: 1200px x 1600px\n    flow: scroll-groups", FlowScrollGroups},
+		{"spreads on pages", "trim: 900px x 700px\n    spreads: true", FlowPages},
+	} {
+		t.Run(c.name, func(t *testing.T) {
+			s, err := Parse("ok.yaml", []byte(head+"outputs:\n  web:\n    kind: screen\n    "+c.keys+"\n"))
+			if err != nil {
+				t.Fatal(err)
+			}
+			w := s.Output("web")
+			if w.Flow != c.want {
+				t.Errorf("flow %q, want %q", w.Flow, c.want)
+			}
+			if w.Flow.Scrolls() != (c.want != FlowPages) {
+				t.Errorf("Scrolls() = %v for %q", w.Flow.Scrolls(), w.Flow)
+			}
+		})
 	}
 }
 

@@ -185,7 +185,7 @@ func (d *decoder) output(n *yaml.Node, path, name string) Output {
 		{"marks", d.boolean(&o.Marks)},
 		{"slug-line", d.boolean(&o.SlugLine)},
 		{"proofs", d.number(&o.Proofs, 10, 1200, false)},
-		{"flow", d.choice(&flow, string(FlowPages), string(FlowScroll))},
+		{"flow", d.choice(&flow, string(FlowPages), string(FlowScroll), string(FlowScrollGroups))},
 		{"panel-files", d.boolean(&o.PanelFiles)},
 		{"spreads", d.boolean(&o.Spreads)},
 	}, "kind")
@@ -210,6 +210,9 @@ func (d *decoder) output(n *yaml.Node, path, name string) Output {
 	}
 	if kind == Screen && o.Flow == FlowPages && o.Trim.H == 0 {
 		d.errorf(n, "%s: flow pages needs a page height, like trim: 1200px x 1600px", path)
+	}
+	if kind == Screen && o.Spreads && o.Flow.Scrolls() {
+		d.errorf(at("spreads"), "%s.spreads: spreads pair a left and a right page; flow %s has no facing pages (use flow: pages with a trim height, like 900px x 1200px)", path, o.Flow)
 	}
 	if kind == Screen && (o.Bleed > 0 || o.Marks || o.SlugLine) {
 		d.errorf(n, "%s: bleed, marks and slug-line are for print outputs", path)

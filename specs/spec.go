@@ -263,7 +263,7 @@ type Output struct {
 	SlugLine bool    // one-line slug with job, output, page and date (print)
 	Proofs   float64 // proof resolution in dpi (print)
 
-	Flow       Flow // screen: pages or scroll
+	Flow       Flow // screen: pages, scroll or scroll-groups
 	PanelFiles bool // screen: one SVG per term as well
 	Spreads    bool // screen pages: two facing pages side by side
 }
@@ -307,9 +307,17 @@ const (
 type Flow string
 
 const (
-	FlowPages  Flow = "pages"
-	FlowScroll Flow = "scroll"
+	FlowPages  Flow = "pages"  // pages of the trim's height
+	FlowScroll Flow = "scroll" // one page as tall as every panel needs
+	// FlowScrollGroups is one page per group, each as tall as its group
+	// needs, so a group can be shown alone in an article. Ungrouped, it is
+	// FlowScroll.
+	FlowScrollGroups Flow = "scroll-groups"
 )
+
+// Scrolls reports whether pages take their height from their content
+// rather than from the trim.
+func (f Flow) Scrolls() bool { return f == FlowScroll || f == FlowScrollGroups }
 
 // Insert is a single graphic of 1–4 terms for an article page. With two or
 // more terms it is a comparison panel: shared axes, one line style per term.
