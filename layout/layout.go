@@ -10,6 +10,7 @@ package layout
 
 import (
 	"fmt"
+	"math"
 
 	"sheaf/layout/fonts"
 	"sheaf/specs"
@@ -51,7 +52,8 @@ type Plan struct {
 	Warnings []Warning `json:"warnings,omitempty"`
 }
 
-// Page is one page (or, for a scrolling screen output, the whole sheet).
+// Page is one page: for a scrolling screen output the whole sheet, or with
+// flow scroll-groups one group's sheet. Scrolling pages differ in height.
 type Page struct {
 	Number int  `json:"number"` // folio, from 1
 	Right  bool `json:"right"`  // a right-hand (recto) page
@@ -134,10 +136,24 @@ func (p *Plan) Summary() string {
 	if len(p.Pages) != 1 {
 		pages = fmt.Sprintf("%d pages", len(p.Pages))
 	}
-	if p.Flow == specs.FlowScroll && len(p.Pages) == 1 {
+	if p.Flow.Scrolls() && len(p.Pages) == 1 {
 		t := p.Pages[0].Trim
 		return fmt.Sprintf("%s: 1 scrolling page %s × %s, %d × %d panels, panel %s × %s",
 			p.Output, trimUnit(u, t.W()), u.len(t.H()), p.Columns, p.RowsPerPage,
+			trimUnit(u, p.PanelW), u.len(p.PanelH))
+	}
+	if p.Flow.Scrolls() {
+		lo, hi := math.Inf(1), 0.0
+		for i := range p.Pages {
+			h := p.Pages[i].Trim.H()
+			lo, hi = min(lo, h), max(hi, h)
+		}
+		hs := trimUnit(u, lo) + "–" + u.len(hi)
+		if u.len(lo) == u.len(hi) {
+			hs = u.len(hi)
+		}
+		return fmt.Sprintf("%s: %d scrolling pages, one a group, %s × %s, %d columns, panel %s × %s",
+			p.Output, len(p.Pages), trimUnit(u, p.Pages[0].Trim.W()), hs, p.Columns,
 			trimUnit(u, p.PanelW), u.len(p.PanelH))
 	}
 	return fmt.Sprintf("%s: %s, %d × %d panels a page, panel %s × %s",

@@ -615,3 +615,81 @@ func TestShortPageKeepsFullPitch(t *testing.T) {
 		}
 	}
 }
+
+// TestScrollGroups: with flow scroll-groups each group with panels gets a
+// page of its own, as tall as its content. The expected heights are summed
+// by hand from this project's rules (bands a blank label line apart, the
+// key strip 1.6 × the key size over a line of years, rows a row gap
+// apart, one heading and one tick area per group), using the line boxes
+// the plan reports for the text bands.
+func TestScrollGroups(t *testing.T) {
+	out := webScroll()
+	out.Flow = specs.FlowScrollGroups
+	out.Columns = 6
+	groups := []Group{{"1880s", 13}, {"1890s", 0}, {"1900s", 30}, {"1910s", 1}}
+	p := solveT(t, testSpec(), out, groups)
+
+	lead := out.Type.Leading
+	gap := out.Type.Label.Pt() * lead
+	key := 1.6*out.Type.Key.Pt() + out.Type.Key.Pt()*lead
+	rowH := p.LabelH + p.PlotH + p.TicksH // ticks on every panel: each row carries them
+	hh := out.Type.Heading.Pt() * lead
+	for _, c := range []struct {
+		page, group, rows int
+		header            []TextRole // bands above the key
+		footer            []TextRole // bands at the bottom
+	}{
+		{0, 0, 3, []TextRole{RoleTitle, RoleDek}, []TextRole{RoleSource, RoleNote}}, // 13 panels in 6 columns: 3 rows
+		{1, 2, 5, []TextRole{RoleRunning}, []TextRole{RoleSource}},                  // 30: 5 rows; 1890s has none, no page
+		{2, 3, 1, []TextRole{RoleRunning}, []TextRole{RoleSource}},
+	} {
+		if c.page >= len(p.Pages) {
+			t.Fatalf("%d pages, want 3 (one per group with panels)", len(p.Pages))
+		}
+		pg := p.Pages[c.page]
+		band := func(roles []TextRole) float64 {
+			h := 0.0
+			for _, tl := range pg.Text {
+				for _, r := range roles {
+					if tl.Role == r {
+						h += tl.Box.H()
+					}
+				}
+			}
+			return h
+		}
+		grid := float64(c.rows)*rowH + float64(c.rows-1)*p.RowGap + hh
+		want := out.Margins.Top.Pt() + band(c.header) + gap + key + gap + grid + gap + band(c.footer) + out.Margins.Bottom.Pt()
+		if got := pg.Trim.H(); math.Abs(got-want) > 1e-6 {
+			t.Errorf("page %d is %.4f pt tall, want %.4f", c.page+1, got, want)
+		}
+		if pg.Trim.W() != 900 {
+			t.Errorf("page %d is %.4f pt wide, want 900 (1200 px)", c.page+1, pg.Trim.W())
+		}
+		if len(pg.Headings) != 1 || pg.Headings[0].Group != c.group || pg.Headings[0].Continued {
+			t.Errorf("page %d headings %+v, want group %d's", c.page+1, pg.Headings, c.group)
+		}
+		for _, pn := range pg.Panels {
+			if pn.Group != c.group {
+				t.Fatalf("page %d holds item %d of group %d", c.page+1, pn.Item, pn.Group)
+			}
+		}
+	}
+	if len(p.Pages) != 3 {
+		t.Errorf("%d pages, want 3", len(p.Pages))
+	}
+	if got := p.Summary(); !strings.HasPrefix(got, "web: 3 scrolling pages, one a group, 1200 × ") {
+		t.Errorf("summary %q", got)
+	}
+
+	// Ungrouped, a page per group is one scrolling page: the same as scroll.
+	one := []Group{{Count: 40}}
+	a := solveT(t, testSpec(), out, one)
+	out.Flow = specs.FlowScroll
+	b := solveT(t, testSpec(), out, one)
+	ja, _ := json.Marshal(a.Pages)
+	jb, _ := json.Marshal(b.Pages)
+	if !bytes.Equal(ja, jb) {
+		t.Error("scroll-groups with one group differs from scroll")
+	}
+}

@@ -120,6 +120,9 @@ func (s *solver) paginate(groups []Group) ([]pageFill, bool, error) {
 		heads[i] = g.Heading != "" && g.Count > 0
 		total += rows[i]
 	}
+	if s.perGroup {
+		return s.pagePerGroup(rows, heads), false, nil
+	}
 	free := func(int) int { return noLimit }
 	pages, err := s.fill(rows, heads, free)
 	if err != nil || !s.out.Balance || s.scroll || len(pages) < 2 {
@@ -149,6 +152,24 @@ func (s *solver) paginate(groups []Group) ([]pageFill, bool, error) {
 		}
 	}
 	return pages, false, nil
+}
+
+// pagePerGroup gives each group with panels a page of its own, as tall as
+// it needs. With no panels at all there is still one page, for the header
+// and key.
+func (s *solver) pagePerGroup(rows []int, heads []bool) []pageFill {
+	var pages []pageFill
+	for g, r := range rows {
+		if r > 0 {
+			p := pageFill{}
+			p.add(block{group: g, rows: r, heading: heads[g]})
+			pages = append(pages, p)
+		}
+	}
+	if len(pages) == 0 {
+		pages = []pageFill{{}}
+	}
+	return pages
 }
 
 // evenRows spreads total rows over n pages as evenly as possible, earlier

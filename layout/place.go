@@ -56,12 +56,14 @@ func (s *solver) place(groups []Group, fills []pageFill, balanced bool) *Plan {
 		extra[i] = min(extra[i], pitch)
 	}
 
-	// The scrolling sheet is as tall as its content.
-	if s.scroll {
-		f := fills[0]
-		s.liveH = s.bandsH(true) + s.need(f.rows, f.heads, len(f.blocks))
-		s.trimH = s.liveH + s.top + s.bottom
-		s.gridH1 = s.liveH - s.bandsH(true)
+	// A scrolling page is as tall as its content; with a page per group
+	// the pages differ.
+	trimH := make([]float64, len(fills))
+	for i, f := range fills {
+		trimH[i] = s.trimH
+		if s.scroll {
+			trimH[i] = s.top + s.bandsH(i == 0) + s.need(f.rows, f.heads, len(f.blocks)) + s.bottom
+		}
 	}
 
 	start := make([]int, len(groups)+1) // first item of each group
@@ -83,13 +85,17 @@ func (s *solver) place(groups []Group, fills []pageFill, balanced bool) *Plan {
 	plan.RowsFirstPage = s.room(&pageFill{}, 0, false, noLimit)
 	plan.RowsPerPage = s.room(&pageFill{}, 1, false, noLimit)
 	if s.scroll {
-		plan.RowsFirstPage, plan.RowsPerPage = fills[0].rows, fills[0].rows
+		// Rows the first page and the tallest page hold.
+		plan.RowsFirstPage, plan.RowsPerPage = fills[0].rows, 0
+		for _, f := range fills {
+			plan.RowsPerPage = max(plan.RowsPerPage, f.rows)
+		}
 	}
 
 	// One backing array for all panels: pages take consecutive slices.
 	all := make([]Panel, 0, start[len(groups)])
 	for i, f := range fills {
-		s.placePage(&plan.Pages[i], i, f, extra[i], groups, start, all[len(all):len(all):cap(all)])
+		s.placePage(&plan.Pages[i], i, trimH[i], f, extra[i], groups, start, all[len(all):len(all):cap(all)])
 		all = all[:len(all)+len(plan.Pages[i].Panels)]
 	}
 	return plan
@@ -98,13 +104,13 @@ func (s *solver) place(groups []Group, fills []pageFill, balanced bool) *Plan {
 // placePage fills in page i. Every coordinate is computed from indices
 // (page, row slot, column, counts of headings and blocks above) rather than
 // by adding heights in a loop, so nothing drifts.
-func (s *solver) placePage(pg *Page, i int, f pageFill, extra float64, groups []Group, start []int, panels []Panel) {
+func (s *solver) placePage(pg *Page, i int, trimH float64, f pageFill, extra float64, groups []Group, start []int, panels []Panel) {
 	o := s.out
 	pg.Number = i + 1
 	pg.Right = (i%2 == 0) != o.FirstPageLeft
 
 	ms := s.slug + s.bleed
-	pg.Media = Rect{0, 0, s.trimW + 2*ms, s.trimH + 2*ms}
+	pg.Media = Rect{0, 0, s.trimW + 2*ms, trimH + 2*ms}
 	pg.Bleed = pg.Media.Inset(s.slug)
 	pg.Trim = pg.Media.Inset(ms)
 	left, right := s.inner, s.outer
@@ -146,8 +152,10 @@ func (s *solver) placePage(pg *Page, i int, f pageFill, extra float64, groups []
 		pg.Footer = Rect{x0, live.Y0, x1, live.Y0 + fh}
 		gridBottom = pg.Footer.Y1 + s.gap
 		fy := pg.Footer.Y1
-		if first {
+		if first || s.perGroup {
 			fy = s.lines(pg, RoleSource, fonts.Regular, s.notes, s.sourceLines, fy, false)
+		}
+		if first {
 			for _, nl := range s.noteLines {
 				fy = s.lines(pg, RoleNote, fonts.Regular, s.notes, nl, fy, false)
 			}

@@ -25,9 +25,12 @@ func randomOutput(r *rand.Rand) specs.Output {
 		o.Gutter, o.RowGap = mmL(uni(0, 6)), mmL(uni(0, 6))
 	} else {
 		o = webScroll()
-		if r.IntN(2) == 0 {
+		switch r.IntN(3) {
+		case 0:
 			o.Flow = specs.FlowPages
 			o.Trim.H = pxL(uni(700, 1400))
+		case 1:
+			o.Flow = specs.FlowScrollGroups
 		}
 		o.Trim.W = pxL(uni(360, 1600))
 		o.Gutter, o.RowGap = pxL(uni(0, 24)), pxL(uni(0, 24))
@@ -280,6 +283,11 @@ func checkPlan(p *Plan, out *specs.Output, groups []Group) string {
 	if next != len(groupOf) {
 		return fmt.Sprintf("%d of %d items placed", next, len(groupOf))
 	}
+	if p.isScroll() {
+		if msg := checkScroll(p, groups); msg != "" {
+			return msg
+		}
+	}
 	// A group spans pages only when it is larger than a page, or starts at
 	// the top of the (shorter) first page, which would otherwise be empty,
 	// or starts on a page less than half full, which moving it would leave
@@ -342,7 +350,81 @@ func checkPlan(p *Plan, out *specs.Output, groups []Group) string {
 	return ""
 }
 
-func (p *Plan) isScroll() bool { return p.Flow == specs.FlowScroll }
+func (p *Plan) isScroll() bool { return p.Flow.Scrolls() }
+
+// checkScroll tests what scrolling pages add: each is exactly as tall as
+// its content (no room left under the lowest tick labels); with
+// scroll-groups there is a page per group that has panels, holding only
+// that group, the first page with the full header and the rest with the
+// running head, every page with the colour key and the first page's
+// source line.
+func checkScroll(p *Plan, groups []Group) string {
+	for _, pg := range p.Pages {
+		if pg.Trim.W() != p.Pages[0].Trim.W() {
+			return fmt.Sprintf("page %d is %.3f pt wide, page 1 %.3f pt", pg.Number, pg.Trim.W(), p.Pages[0].Trim.W())
+		}
+		if pg.Key.IsZero() || pg.KeyStrip.IsZero() {
+			return fmt.Sprintf("page %d has no colour key", pg.Number)
+		}
+		if len(pg.Panels) == 0 {
+			continue
+		}
+		low := math.Inf(1)
+		for _, pn := range pg.Panels {
+			y := pn.Plot.Y0
+			if pn.ShowTicks {
+				y = pn.Ticks.Y0
+			}
+			low = min(low, y)
+		}
+		if math.Abs(low-pg.Grid.Y0) > 1e-6 {
+			return fmt.Sprintf("scrolling page %d: the grid ends %.4f pt below the lowest panel", pg.Number, low-pg.Grid.Y0)
+		}
+	}
+	if p.Flow != specs.FlowScrollGroups {
+		if len(p.Pages) != 1 {
+			return fmt.Sprintf("flow scroll gives %d pages", len(p.Pages))
+		}
+		return ""
+	}
+	var want []int // groups with panels
+	for g, gr := range groups {
+		if gr.Count > 0 {
+			want = append(want, g)
+		}
+	}
+	if len(p.Pages) != max(len(want), 1) {
+		return fmt.Sprintf("%d pages for %d groups with panels", len(p.Pages), len(want))
+	}
+	roles := func(pg Page) map[TextRole]bool {
+		m := map[TextRole]bool{}
+		for _, t := range pg.Text {
+			m[t.Role] = true
+		}
+		return m
+	}
+	r0 := roles(p.Pages[0])
+	for i, pg := range p.Pages {
+		if len(want) > 0 {
+			for _, pn := range pg.Panels {
+				if pn.Group != want[i] {
+					return fmt.Sprintf("page %d holds item %d of group %d; it is group %d's page", pg.Number, pn.Item, pn.Group, want[i])
+				}
+			}
+		}
+		r := roles(pg)
+		if i == 0 {
+			if !r[RoleTitle] || r[RoleRunning] {
+				return fmt.Sprintf("page 1 text roles %v: want the title, no running head", r)
+			}
+			continue
+		}
+		if !r[RoleRunning] || r[RoleTitle] || r[RoleDek] || r[RoleNote] || r[RoleFolio] || r[RoleSource] != r0[RoleSource] {
+			return fmt.Sprintf("page %d text roles %v: want the running head and, as page 1 has one, the source line", pg.Number, r)
+		}
+	}
+	return ""
+}
 
 // lowestRowBottom is the bottom of the lowest plot on the page.
 func lowestRowBottom(pg Page) float64 {

@@ -76,7 +76,10 @@ type solver struct {
 	fs     *fonts.Set
 	u      units
 	screen bool
-	scroll bool
+	scroll bool // pages as tall as their content
+	// perGroup cuts a scrolling output into one page per group, each of
+	// which may be shown alone: later pages repeat the source line.
+	perGroup bool
 
 	lead                       float64
 	trimW, trimH, bleed, slug  float64
@@ -151,7 +154,8 @@ func (s *solver) readOutput() error {
 	case specs.Print:
 	case specs.Screen:
 		s.screen = true
-		s.scroll = o.Flow == specs.FlowScroll
+		s.scroll = o.Flow.Scrolls()
+		s.perGroup = o.Flow == specs.FlowScrollGroups
 	default:
 		return s.errorf("kind", "kind %q is neither %q nor %q", o.Kind, specs.Print, specs.Screen)
 	}
@@ -352,10 +356,15 @@ func (s *solver) bands() error {
 	}
 	folioH := s.folio * s.lead
 	if s.scroll {
-		folioH = 0 // one sheet, no folio
+		folioH = 0 // a scrolling page is read alone: no folio
 	}
 	s.footerH1 = float64(nl)*s.notes*s.lead + folioH
 	s.footerHn = folioH
+	if s.perGroup {
+		// A group's page may be shown alone in an article, so it says
+		// where its data comes from; the notes stay with the first page.
+		s.footerHn += float64(len(s.sourceLines)) * s.notes * s.lead
+	}
 
 	s.gridH1 = s.liveH - s.bandsH(true)
 	s.gridHn = s.liveH - s.bandsH(false)
