@@ -1,6 +1,7 @@
 package main
 
 import (
+	"bufio"
 	"bytes"
 	"context"
 	"crypto/sha256"
@@ -270,8 +271,11 @@ func (b *build) run(preps []*prepared) (files []string, err error) {
 	if err != nil {
 		return nil, err
 	}
+	// The manifest is written while the change report is made from it.
+	wrote := make(chan error, 1)
+	go func() { wrote <- writeJSONFile(filepath.Join(b.stage.dir, manifestFile), m) }()
 	b.changes = compareManifests(b.prev, m, b.stats)
-	if err := writeJSONFile(filepath.Join(b.stage.dir, manifestFile), m); err != nil {
+	if err := <-wrote; err != nil {
 		return nil, err
 	}
 	if err := writeJSONFile(filepath.Join(b.stage.dir, changesJSON), b.changes); err != nil {
@@ -772,18 +776,43 @@ func (b *build) keep(old, new, sum string) bool {
 }
 
 // writeHashed is writeAtomic that also hashes what it writes, so that the
-// manifest need not read the file back.
+// manifest need not read the file back. The hashing runs beside the
+// writing, on 64 KiB blocks.
 func (b *build) writeHashed(path string, fill func(w io.Writer) error) error {
 	h := sha256.New()
 	var n int64
-	err := writeAtomic(path, func(w io.Writer) error {
-		return fill(writerFunc(func(p []byte) (int, error) {
+	blocks := make(chan []byte, 8)
+	free := make(chan []byte, 10)
+	hashed := make(chan struct{})
+	go func() {
+		for p := range blocks {
 			h.Write(p)
+			select {
+			case free <- p[:0]:
+			default:
+			}
+		}
+		close(hashed)
+	}()
+	err := writeAtomic(path, func(w io.Writer) error {
+		bw := bufio.NewWriterSize(writerFunc(func(p []byte) (int, error) {
+			var c []byte
+			select {
+			case c = <-free:
+			default:
+			}
+			blocks <- append(c, p...)
 			k, err := w.Write(p)
 			n += int64(k)
 			return k, err
-		}))
+		}), 64<<10)
+		if err := fill(bw); err != nil {
+			return err
+		}
+		return bw.Flush()
 	})
+	close(blocks)
+	<-hashed
 	if err == nil {
 		b.known(path, fileSum{hexSum(h), n})
 	}

@@ -76,9 +76,12 @@ type Set struct {
 	mu      sync.Mutex
 	widths  map[widthKey]float64
 	metrics map[widthKey]Metrics // text is always ""
-	// saved is what LoadWidths read: a width found there counts as
-	// measured, so SaveWidths keeps only the widths a run used.
-	saved map[widthKey]float64
+	// saved is what LoadWidths read (savedRaw its bytes): a width found
+	// there counts as measured, so SaveWidths keeps only the widths a run
+	// used. reused counts the widths taken from saved.
+	saved    map[widthKey]float64
+	savedRaw []byte
+	reused   int
 }
 
 type widthKey struct {
@@ -256,6 +259,9 @@ func (s *Set) Width(st Style, size float64, text string) float64 {
 	}
 	if len(s.widths) < maxCached {
 		s.widths[k] = w
+		if ok {
+			s.reused++
+		}
 	}
 	return w
 }

@@ -28,6 +28,14 @@ const maxWidthsFile = 64 << 20
 // measure. Entries are sorted: equal caches give equal bytes.
 func (s *Set) SaveWidths(w io.Writer) error {
 	s.mu.Lock()
+	if s.savedRaw != nil && s.reused == len(s.widths) && len(s.widths) == len(s.saved) {
+		// Every width came from the file loaded, and all of it was used:
+		// the same entries, so the same bytes.
+		raw := s.savedRaw
+		s.mu.Unlock()
+		_, err := w.Write(raw)
+		return err
+	}
 	keys := make([]widthKey, 0, len(s.widths))
 	for k := range s.widths {
 		keys = append(keys, k)
@@ -117,7 +125,12 @@ func (s *Set) LoadWidths(r io.Reader) error {
 		return errors.New("fonts: widths: data after the last entry")
 	}
 	s.mu.Lock()
-	s.saved = entries
+	s.saved, s.savedRaw, s.reused = entries, data, 0
+	for k := range s.widths {
+		if _, ok := entries[k]; ok {
+			s.reused++ // measured before the load, and in the file too
+		}
+	}
 	s.mu.Unlock()
 	return nil
 }

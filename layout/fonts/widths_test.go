@@ -79,6 +79,12 @@ func TestWidthsRoundTrip(t *testing.T) {
 	if !bytes.Equal(saved(t, b), data) {
 		t.Error("widths used from a loaded file do not save to the same bytes")
 	}
+	// One width more than the file had: saved with the rest.
+	b.Width(Regular, 9, "one more")
+	more := mustDefault(t)
+	if err := more.LoadWidths(bytes.NewReader(saved(t, b))); err != nil || len(more.saved) != len(widthTexts)+1 {
+		t.Errorf("after a new width: %d widths saved (%v), want %d", len(more.saved), err, len(widthTexts)+1)
+	}
 	// Sorted entries: the order of measuring does not show in the bytes.
 	c, _ := measured(t, true)
 	if !bytes.Equal(saved(t, c), data) {
