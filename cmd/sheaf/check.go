@@ -191,7 +191,9 @@ func writeSummary(w io.Writer, r checkReport) {
 	fmt.Fprintf(w, "  values:  %s (%s), %s y-range\n", r.Scale.Values, r.Scale.Unit, r.Scale.YRange)
 	for _, o := range r.Outputs {
 		switch {
-		case o.Kind == string(specs.Screen) && o.TrimPt[1] == 0:
+		case o.Kind == string(specs.Screen) && o.Layout != nil && o.Layout.Flow == specs.FlowScrollGroups:
+			fmt.Fprintf(w, "  output %s (%s): %.0f px wide, scrolling, a page per group", o.Name, o.Kind, o.TrimPt[0]*96/72)
+		case o.Kind == string(specs.Screen) && (o.TrimPt[1] == 0 || o.Layout != nil && o.Layout.Flow.Scrolls()):
 			fmt.Fprintf(w, "  output %s (%s): %.0f px wide, scrolling", o.Name, o.Kind, o.TrimPt[0]*96/72)
 		case o.Kind == string(specs.Screen):
 			fmt.Fprintf(w, "  output %s (%s): %.0f × %.0f px pages", o.Name, o.Kind, o.TrimPt[0]*96/72, o.TrimPt[1]*96/72)

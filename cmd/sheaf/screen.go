@@ -38,9 +38,10 @@ var screenScales = []struct {
 const maxRasterPx = 40000
 
 // buildScreen writes a screen output: one SVG per page (a scrolling
-// output is one tall page), a PNG of each at 1× and 2×, with panel-files
-// one small SVG per term, and an HTML proof page showing every page in
-// order. It returns the files written.
+// output is one tall page, or with scroll-groups one tall page per group,
+// the pages differing in height), a PNG of each at 1× and 2×, with
+// panel-files one small SVG per term, and an HTML proof page showing every
+// page in order at its own size. It returns the files written.
 func buildScreen(j *job, p *prepared, dir string, date time.Time) ([]string, error) {
 	_ = date // SVG and PNG carry no date; the argument keeps the build calls alike
 	out := p.out
@@ -54,7 +55,11 @@ func buildScreen(j *job, p *prepared, dir string, date time.Time) ([]string, err
 		shown = append(shown, proofItem{name, pg.Trim.W(), pg.Trim.H()})
 		path := filepath.Join(odir, name)
 		opts := screenSVGOptions(j, p)
-		if n > 1 {
+		switch {
+		case out.Flow == specs.FlowScrollGroups && len(pg.Headings) > 0:
+			// The page may be shown alone: its title names its group.
+			opts.Title = fmt.Sprintf("%s: %s", opts.Title, pg.Headings[0].Text)
+		case n > 1:
 			opts.Title = fmt.Sprintf("%s (page %d of %d)", opts.Title, i+1, n)
 		}
 		err := writeAtomic(path, func(w io.Writer) error {
