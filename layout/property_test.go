@@ -472,3 +472,21 @@ func BenchmarkSolve10kGrouped(b *testing.B) {
 		}
 	}
 }
+
+// BenchmarkSolve10kScrollGroups: 50 headed groups of 200 on a 1200 px
+// screen output with a page per group.
+func BenchmarkSolve10kScrollGroups(b *testing.B) {
+	fs := fontSet(b)
+	spec := testSpec()
+	out := webScroll()
+	out.Flow = specs.FlowScrollGroups
+	groups := make([]Group, 50)
+	for i := range groups {
+		groups[i] = Group{Heading: fmt.Sprintf("Group %d", i+1), Count: 200}
+	}
+	for b.Loop() {
+		if _, err := Solve(spec, &out, fs, groups); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
