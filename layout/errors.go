@@ -45,12 +45,12 @@ func (e *InfeasibleError) Suggest() string {
 
 // A Remedy is one change to an output that makes it feasible.
 type Remedy struct {
-	Text string    `json:"text"` // e.g. "5 columns", "a 4 mm gutter"
+	Text string    `json:"text"` // e.g. "5 columns", "a 4 mm gutter", "a 12 pt title and a 6 pt dek"
 	Set  []Setting `json:"set"`
 }
 
 // Setting is one value of a Remedy. Key names the output field as the spec
-// writes it; lengths are in points.
+// writes it; lengths and type sizes are in points.
 type Setting struct {
 	Key   string  `json:"key"`
 	Value float64 `json:"value"`
@@ -81,6 +81,14 @@ func (r Remedy) Apply(out *specs.Output) error {
 			out.Margins.Inside = l
 		case "margins.outside":
 			out.Margins.Outside = l
+		case "type.title":
+			out.Type.Title = l
+		case "type.dek":
+			out.Type.Dek = l
+		case "type.notes":
+			out.Type.Notes = l
+		case "type.heading":
+			out.Type.Heading = l
 		default:
 			return fmt.Errorf("layout: remedy sets unknown key %q", s.Key)
 		}

@@ -4,7 +4,7 @@ import (
 	"errors"
 	"fmt"
 	"math"
-	"strconv"
+	"slices"
 
 	"sheaf/layout/fonts"
 	"sheaf/specs"
@@ -49,7 +49,7 @@ const (
 // text measured in fs. It returns an *InfeasibleError when the request
 // cannot fit and a plain error for malformed input.
 func Solve(spec *specs.Spec, out *specs.Output, fs *fonts.Set, groups []Group) (*Plan, error) {
-	p, err := solve(spec, out, fs, groups)
+	p, err := solve(spec, out, fs, groups, false)
 	var inf *InfeasibleError
 	if errors.As(err, &inf) {
 		// Keep only the remedies that really work: each is tried by
@@ -60,7 +60,7 @@ func Solve(spec *specs.Spec, out *specs.Output, fs *fonts.Set, groups []Group) (
 			if r.Apply(&try) != nil {
 				continue
 			}
-			if _, e := solve(spec, &try, fs, groups); e == nil {
+			if _, e := solve(spec, &try, fs, groups, true); e == nil {
 				kept = append(kept, r)
 			}
 		}
@@ -74,7 +74,11 @@ type solver struct {
 	spec   *specs.Spec
 	out    *specs.Output
 	fs     *fonts.Set
+	groups []Group
 	u      units
+	// probe is set while a remedy is tried: the solve only needs to say
+	// whether it works, so it looks for no remedies of its own.
+	probe  bool
 	screen bool
 	scroll bool // pages as tall as their content
 	// perGroup cuts a scrolling output into one page per group, each of
@@ -122,11 +126,11 @@ func (s *solver) warn(key, format string, args ...any) {
 	s.warnings = append(s.warnings, Warning{Pos: pos, Key: key, Where: pos.String(), Output: s.out.Name, Message: fmt.Sprintf(format, args...)})
 }
 
-func solve(spec *specs.Spec, out *specs.Output, fs *fonts.Set, groups []Group) (*Plan, error) {
+func solve(spec *specs.Spec, out *specs.Output, fs *fonts.Set, groups []Group, probe bool) (*Plan, error) {
 	if spec == nil || out == nil || fs == nil {
 		return nil, errors.New("layout: Solve needs a spec, an output and a font set")
 	}
-	s := &solver{spec: spec, out: out, fs: fs}
+	s := &solver{spec: spec, out: out, fs: fs, groups: groups, probe: probe}
 	for i, g := range groups {
 		if g.Count < 0 {
 			return nil, fmt.Errorf("layout: group %d (%q) has %d panels", i, g.Heading, g.Count)
@@ -271,7 +275,7 @@ func (s *solver) pageBoxes() error {
 			v := s.u.up(need)
 			return s.infeasible("slug", "slug", need, s.slug,
 				fmt.Sprintf("%s need a slug of %s outside the bleed; it is %s", what, s.u.len(need), s.u.len(s.slug)),
-				Remedy{Text: "a " + s.u.len(v) + " slug", Set: []Setting{{"slug", v}}})
+				Remedy{Text: withArticle(s.u.len(v)) + " slug", Set: []Setting{{"slug", v}}})
 		}
 	}
 	s.liveW = s.trimW - s.inner - s.outer
@@ -421,16 +425,17 @@ func (s *solver) columns() error {
 		need := float64(s.n)*s.floorW + float64(s.n-1)*g
 		var r []Remedy
 		if m := fit(s.floorW); m >= 1 {
+			fix := s.widerMinimum
 			if o.Columns > 0 {
-				r = append(r, Remedy{Text: strconv.Itoa(m) + " columns", Set: []Setting{{"columns", float64(m)}}})
-			} else {
-				v := u.up(s.floorW)
-				r = append(r, Remedy{Text: "a minimum panel width of " + u.len(v), Set: []Setting{{"min-panel-width", v}}})
+				fix = func() (Remedy, bool) { return s.fewerColumns(m) }
+			}
+			if rem, ok := fix(); ok {
+				r = append(r, rem)
 			}
 		}
 		if s.n > 1 {
 			if v := u.down((s.liveW - float64(s.n)*s.floorW) / float64(s.n-1)); v >= 0 {
-				r = append(r, Remedy{Text: "a " + u.len(v) + " gutter", Set: []Setting{{"gutter", v}}})
+				r = append(r, Remedy{Text: withArticle(u.len(v)) + " gutter", Set: []Setting{{"gutter", v}}})
 			}
 		}
 		if len(r) == 0 {
@@ -483,7 +488,7 @@ func (s *solver) rows() error {
 			}
 			if o.Columns > 0 {
 				if m := int(math.Floor((s.liveW + g) / (s.floorH*a + g))); m >= 1 && m < s.n {
-					r = append(r, Remedy{Text: strconv.Itoa(m) + " columns", Set: []Setting{{"columns", float64(m)}}})
+					r = append(r, columnsRemedy(m))
 				}
 			} else if v := u.up(s.floorH * a); v > o.MinPanelWidth.Pt() {
 				r = append(r, Remedy{Text: "a minimum panel width of " + u.len(v), Set: []Setting{{"min-panel-width", v}}})
@@ -517,9 +522,13 @@ func (s *solver) rows() error {
 	d := need - have
 	if have <= 0 {
 		bands := s.bandsH(page == "first")
+		r := []Remedy{s.headFootMargins(d)}
+		if t, ok := s.smallerType(); ok {
+			r = append([]Remedy{t}, r...)
+		}
 		return s.infeasible("margins", "page height", bands, s.liveH,
-			fmt.Sprintf("the header, key band and footer of the %s page need %s; the live area is %s tall", page, u.len(bands), u.len(s.liveH)),
-			s.headFootMargins(d))
+			fmt.Sprintf("the header, key band and footer of the %s page need %s; the live area is %s tall%s",
+				page, u.len(bands), u.len(s.liveH), s.tallestBand(page == "first")), r...)
 	}
 	var r []Remedy
 	switch {
@@ -539,7 +548,7 @@ func (s *solver) rows() error {
 						break
 					}
 					if w/a <= ph {
-						r = append(r, Remedy{Text: strconv.Itoa(m) + " columns", Set: []Setting{{"columns", float64(m)}}})
+						r = append(r, columnsRemedy(m))
 						break
 					}
 				}
@@ -547,6 +556,13 @@ func (s *solver) rows() error {
 		}
 	}
 	r = append(r, s.headFootMargins(d))
+	if !s.probe && !slices.ContainsFunc(r, s.works) {
+		// Nothing about the panels or margins helps: the text bands
+		// leave too little room.
+		if t, ok := s.smallerType(); ok {
+			r = append(r, t)
+		}
+	}
 	return s.infeasible(s.heightKey(), "page height", need, have,
 		fmt.Sprintf("a row of panels needs %s (label, plot and tick labels%s); the %s page has %s left under its header, key band and footer",
 			u.len(need), with, page, u.len(have)), r...)
