@@ -61,6 +61,10 @@ func runBuild(args []string, stdout, stderr io.Writer) int {
 	if dir == "" {
 		dir = filepath.Join(spec.Dir, "out")
 	}
+	if err := checkOutDir(dir, *outDir != ""); err != nil {
+		fmt.Fprintf(stderr, "sheaf build: %v\n", err)
+		return exitBadInput
+	}
 	pre := startPrefetch(dir, spec, !*full)
 	defer pre.stop() // no reading left running after the build
 	data, err := series.Load(spec)
@@ -108,7 +112,8 @@ func runBuild(args []string, stdout, stderr io.Writer) int {
 		}
 	}
 	// Inserts too: a missing term or a graphic too small is bad input.
-	if _, err := prepareInserts(j); err != nil {
+	inserts, err := prepareInserts(j)
+	if err != nil {
 		fmt.Fprintln(stderr, err)
 		return exitBadInput
 	}
@@ -137,7 +142,7 @@ func runBuild(args []string, stdout, stderr io.Writer) int {
 	ctx, stop := signal.NotifyContext(context.Background(), os.Interrupt, syscall.SIGTERM)
 	defer stop()
 	b := &build{ctx: ctx, j: j, final: dir, date: date, only: *only, noProofs: *noProofs, full: *full,
-		progress: newProgress(stderr, *quiet), widths: widths, pre: pre, sums: map[string]fileSum{}}
+		progress: progressFor(stderr, *quiet), widths: widths, pre: pre, sums: map[string]fileSum{}, insertPreps: inserts}
 	files, err := b.run(preps)
 	b.progress.done()
 	if err != nil {
@@ -156,6 +161,29 @@ func runBuild(args []string, stdout, stderr io.Writer) int {
 	return exitOK
 }
 
+// checkOutDir refuses an output folder that is a file, or lies under
+// one, before anything is read or written: the user meant a folder.
+// flag says whether the path came from --out.
+func checkOutDir(dir string, flag bool) error {
+	name := dir
+	if flag {
+		name = "--out " + dir
+	}
+	fi, err := os.Stat(dir)
+	switch {
+	case err == nil && !fi.IsDir():
+		return fmt.Errorf("%s is a file; give a folder", name)
+	case errors.Is(err, syscall.ENOTDIR):
+		for p := filepath.Dir(dir); p != filepath.Dir(p); p = filepath.Dir(p) {
+			if fi, err := os.Stat(p); err == nil && !fi.IsDir() {
+				return fmt.Errorf("%s: %s is a file; give a folder", name, p)
+			}
+		}
+		return fmt.Errorf("%s: a part of the path is a file; give a folder", name)
+	}
+	return nil
+}
+
 // build is one run of `sheaf build`: everything is written into a stage
 // folder beside the final one, then swapped in.
 type build struct {
@@ -169,37 +197,135 @@ type build struct {
 	full     bool
 	progress *progress
 
-	prev    *manifest
-	specSum string
-	outputs []outputEntry
-	pages   map[string][]pageEntry // by file path relative to DIR: PDFs and proofs
-	stats   []outputStats
-	fonts   []fontHash
-	changes *changeReport
-	widths  map[string][]byte // by output: its fonts' saved widths
-	pre     *prefetch
-	terms   chan []termHash // termHashes of the data, when done
-	sumsMu  sync.Mutex
-	sums    map[string]fileSum // files this build wrote, by slash path relative to the stage
+	prev         *manifest
+	specSum      string
+	outputs      []outputEntry
+	insertPreps  []*preparedInsert // every insert of the spec, laid out
+	inserts      []insertEntry     // inserts built
+	insertsBuilt bool
+	meta         map[string]fileMeta // by file path relative to DIR
+	stats        []outputStats
+	fonts        []fontHash
+	changes      *changeReport
+	widths       map[string][]byte // by output: its fonts' saved widths
+	pre          *prefetch
+	termsDone    chan struct{} // closed when termList and termMap are ready
+	termList     []termHash    // termHashes of the data
+	termMap      map[string]string
+	sumsMu       sync.Mutex
+	sums         map[string]fileSum // files this build wrote, by slash path relative to the stage
 }
 
-// outputStats counts what a build did for one output.
+// fileMeta is what the manifest says of a file beside its hash: the
+// pages it shows, its terms, its insert.
+type fileMeta struct {
+	pages  []pageEntry
+	terms  []string
+	insert string
+}
+
+// note records what a file of the stage shows, for the manifest.
+func (b *build) note(path string, m fileMeta) { b.meta[rel(b.stage.dir, path)] = m }
+
+// termSums maps every selected term to the hash of its data; it waits
+// for the hashing started with the build.
+func (b *build) termSums() map[string]string {
+	<-b.termsDone
+	return b.termMap
+}
+
+// outputStats counts what a build did for one output or insert.
 type outputStats struct {
-	Output       string `json:"output"`
+	Output       string `json:"output"`           // the output, or the one an insert borrows
+	Insert       string `json:"insert,omitempty"` // the insert's name
+	Kind         string `json:"kind"`             // print, screen or insert
 	Pages        int    `json:"pages"`
-	Encoded      int    `json:"encoded"`       // pages drawn and encoded
-	Reused       int    `json:"reused"`        // pages taken from the cache
+	Encoded      int    `json:"encoded"`       // pages drawn (and encoded)
+	Reused       int    `json:"reused"`        // pages taken from the cache or the last build
 	ProofsDrawn  int    `json:"proofs_drawn"`  // proofs rasterized
 	ProofsReused int    `json:"proofs_reused"` // proofs kept from the last build
+	// Whole says, for a screen output or an insert (made or kept whole),
+	// "reused (inputs unchanged)" or "drawn (WHY)".
+	Whole string `json:"whole,omitempty"`
 }
 
 // Test hooks: encodeHook runs before a page is drawn for the PDF (not
-// for a page reused from the cache); an error from it fails the build.
-// commitHook runs just before the stage is swapped in.
+// for a page reused from the cache); drawHook before a screen output
+// ("web") or an insert ("insert NAME") is drawn (not when its files are
+// carried over); an error from either fails the build. commitHook runs
+// just before the stage is swapped in.
 var (
 	encodeHook func(output string, page int) error
+	drawHook   func(unit string) error
 	commitHook func(stage string) error
 )
+
+// drawReason says why a screen output or insert must be drawn, or ""
+// when its files may be carried over from the last build: have says the
+// last manifest has it, same that its inputs hash is this build's.
+func (b *build) drawReason(have, same bool) string {
+	switch {
+	case b.full:
+		return "--full"
+	case b.prev == nil:
+		return "first build"
+	case !have:
+		return "not in the last build"
+	case !same:
+		return "inputs changed"
+	}
+	return ""
+}
+
+// keepAll carries the last build's files of one output or insert into
+// the stage, when they are exactly the files this build would write
+// (want: stage paths) and each still has the SHA-256 the last manifest
+// recorded. Files are hashed on all cores; with a label, the progress
+// line counts them. On any miss it takes back
+// what it linked and reports false: the caller draws them.
+func (b *build) keepAll(label string, want []string, old []*fileEntry) bool {
+	if len(old) == 0 || len(old) != len(want) {
+		return false
+	}
+	wanted := map[string]bool{}
+	for _, w := range want {
+		wanted[rel(b.stage.dir, w)] = true
+	}
+	for _, f := range old {
+		if !wanted[f.Path] {
+			return false
+		}
+	}
+	if label != "" {
+		b.progress.begin(label, len(old))
+	}
+	ok := make([]bool, len(old))
+	parallel(len(old), func(lo, hi int) {
+		for i := lo; i < hi && b.ctx.Err() == nil; i++ {
+			p := filepath.FromSlash(old[i].Path)
+			ok[i] = b.keep(filepath.Join(b.final, p), filepath.Join(b.stage.dir, p), old[i].SHA256)
+			if label != "" {
+				b.progress.step()
+			}
+		}
+	})
+	all := true
+	for _, k := range ok {
+		all = all && k
+	}
+	if all {
+		return true
+	}
+	b.sumsMu.Lock()
+	defer b.sumsMu.Unlock()
+	for i, k := range ok {
+		if k {
+			os.Remove(filepath.Join(b.stage.dir, filepath.FromSlash(old[i].Path)))
+			delete(b.sums, old[i].Path)
+		}
+	}
+	return false
+}
 
 // run builds every prepared output into the stage and swaps it in. It
 // returns the files written, with their final paths.
@@ -225,19 +351,26 @@ func (b *build) run(preps []*prepared) (files []string, err error) {
 			b.stage.abort()
 		}
 	}()
-	// The terms' hashes are for the manifest at the end: they are taken
-	// while pages are drawn and written.
-	b.terms = make(chan []termHash, 1)
-	go func() { b.terms <- termHashes(b.j.data) }()
-	b.pages = map[string][]pageEntry{}
+	// The terms' hashes are for the manifest at the end, and for screen
+	// outputs' inputs: they are taken while print pages are drawn.
+	b.termsDone = make(chan struct{})
+	go func() {
+		defer close(b.termsDone)
+		b.termList = termHashes(b.j.data)
+		b.termMap = make(map[string]string, len(b.termList))
+		for _, t := range b.termList {
+			b.termMap[t.Term] = t.SHA256
+		}
+	}()
+	defer func() { <-b.termsDone }() // no hashing left running after the build
+	b.meta = map[string]fileMeta{}
 	for _, p := range preps {
 		if err := b.ctx.Err(); err != nil {
 			return nil, err
 		}
 		var written []string
 		if p.out.Kind == specs.Screen {
-			b.outputs = append(b.outputs, b.outputEntry(p, 0))
-			written, err = buildScreen(b.j, p, b.stage.dir, b.date)
+			written, err = b.buildScreen(p)
 		} else {
 			written, err = b.buildPrint(p)
 		}
@@ -257,11 +390,12 @@ func (b *build) run(preps []*prepared) (files []string, err error) {
 		files = append(files, written...)
 	}
 	// Inserts are built here, into b.stage.dir, when the spec has them.
-	if len(b.j.spec.Inserts) > 0 && (b.only == "" || insertsBorrow(b.j.spec, b.only)) {
-		written, err := buildInserts(b.j, b.stage.dir, b.date)
+	if len(b.insertPreps) > 0 && (b.only == "" || insertsBorrow(b.j.spec, b.only)) {
+		written, err := b.buildInserts(b.insertPreps)
 		if err != nil {
 			return nil, fmt.Errorf("inserts: %w", err)
 		}
+		b.insertsBuilt = true
 		files = append(files, written...)
 	}
 	if err := b.carry(); err != nil {
@@ -358,7 +492,7 @@ func (b *build) buildPrint(p *prepared) ([]string, error) {
 		}
 	}
 	entry := b.outputEntry(p, dpi)
-	st := outputStats{Output: out.Name, Pages: len(entry.Pages)}
+	st := outputStats{Output: out.Name, Kind: string(out.Kind), Pages: len(entry.Pages)}
 	odir := filepath.Join(b.stage.dir, out.Name)
 	pdfPath := filepath.Join(odir, out.Name+".pdf")
 	// Pages go into the PDF as they are ready, in order, while later ones
@@ -391,7 +525,7 @@ func (b *build) buildPrint(p *prepared) ([]string, error) {
 	if err != nil {
 		return nil, err
 	}
-	b.pages[rel(b.stage.dir, pdfPath)] = entry.Pages
+	b.note(pdfPath, fileMeta{pages: entry.Pages})
 	files := []string{pdfPath}
 	if dpi > 0 {
 		proofs, err := b.writeProofs(p, entry.Pages, dpi, odir, &st)
@@ -635,7 +769,7 @@ func (b *build) writeProofs(p *prepared, pages []pageEntry, dpi float64, odir st
 		path := filepath.Join(odir, "proofs", fmt.Sprintf("page-%03d.png", i+1))
 		files[i] = path
 		relp := rel(b.stage.dir, path)
-		b.pages[relp] = pages[i : i+1]
+		b.note(path, fileMeta{pages: pages[i : i+1]})
 		if !b.full && prevOut != nil && prevOut.Proofs == dpi {
 			if old := b.prev.file(relp); old != nil && len(old.Pages) == 1 && old.Pages[0].Inputs == pages[i].Inputs {
 				if b.keep(filepath.Join(b.final, relp), path, old.SHA256) {
@@ -678,7 +812,7 @@ func (b *build) writeProofs(p *prepared, pages []pageEntry, dpi float64, odir st
 	cpath := filepath.Join(odir, "contact.png")
 	files = append(files, cpath)
 	crel := rel(b.stage.dir, cpath)
-	b.pages[crel] = pages
+	b.note(cpath, fileMeta{pages: pages})
 	if st.ProofsDrawn == 0 && prevOut != nil && samePages(prevOut.Pages, pages) {
 		if old := b.prev.file(crel); old != nil && b.keep(filepath.Join(b.final, crel), cpath, old.SHA256) {
 			for _, pg := range pages { // keep the thumbnails for the next build
@@ -845,8 +979,10 @@ func (b *build) manifest() (*manifest, error) {
 		}
 		m.Data = append(m.Data, fileHash{Path: d, SHA256: fs.sum})
 	}
-	m.Terms = <-b.terms
+	<-b.termsDone
+	m.Terms = b.termList
 	m.Fonts = b.fonts
+	m.Inserts = b.inserts
 	m.Outputs = b.outputs
 	built := map[string]bool{}
 	for _, o := range b.outputs {
@@ -863,6 +999,10 @@ func (b *build) manifest() (*manifest, error) {
 			if !built[f.Output] && b.stage.carried[f.Output] {
 				m.Fonts = append(m.Fonts, f)
 			}
+		}
+		// Inserts not built (--only an output none borrows) keep theirs.
+		if !b.insertsBuilt && b.stage.carried[""] {
+			m.Inserts = b.prev.Inserts
 		}
 	}
 	order := map[string]int{}
@@ -890,11 +1030,11 @@ func (b *build) manifest() (*manifest, error) {
 			return nil, err
 		}
 		for i := range fs {
-			if pg, ok := b.pages[fs[i].Path]; ok {
-				fs[i].Pages = pg
+			if md, ok := b.meta[fs[i].Path]; ok {
+				fs[i].Pages, fs[i].Terms, fs[i].Insert = md.pages, md.terms, md.insert
 			} else if !built[output] {
 				if old := b.prev.file(fs[i].Path); old != nil {
-					fs[i].Pages = old.Pages
+					fs[i].Pages, fs[i].Terms, fs[i].Insert = old.Pages, old.Terms, old.Insert
 				}
 			}
 		}

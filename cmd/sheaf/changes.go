@@ -18,9 +18,18 @@ type changeReport struct {
 	DataChanged  []string       `json:"data_changed"`  // data files whose bytes changed
 	FontsChanged []string       `json:"fonts_changed"` // "OUTPUT STYLE (NAME)"
 	Files        fileChanges    `json:"files"`
-	Pages        []pagesChanged `json:"pages"` // per changed PDF
-	Terms        []termChange   `json:"terms"` // terms whose data changed, came or went
-	Work         []outputStats  `json:"work"`  // pages encoded and reused, per output built
+	Pages        []pagesChanged `json:"pages"`    // per changed PDF of pages
+	Graphics     []graphicDrawn `json:"graphics"` // per changed file of an insert
+	Terms        []termChange   `json:"terms"`    // terms whose data changed, came or went
+	Work         []outputStats  `json:"work"`     // what was drawn and reused, per output and insert built
+}
+
+// graphicDrawn is a changed file of an insert, a single graphic: it has
+// no pages to list, so the report says why it was drawn again.
+type graphicDrawn struct {
+	File   string `json:"file"`
+	Insert string `json:"insert"`
+	Why    string `json:"why"`
 }
 
 type fileChanges struct {
@@ -40,7 +49,8 @@ type pagesChanged struct {
 
 // termChange is one term whose data changed ("changed"), is new
 // ("added") or left the selection ("removed"), and where it sits:
-// "OUTPUT p. N" in this build (last build for removed terms).
+// "OUTPUT p. N" and "insert NAME" in this build (last build for removed
+// terms).
 type termChange struct {
 	Term   string   `json:"term"`
 	Change string   `json:"change"`
@@ -49,7 +59,7 @@ type termChange struct {
 
 // compareManifests builds the report. prev is nil on a first build.
 func compareManifests(prev, cur *manifest, work []outputStats) *changeReport {
-	r := &changeReport{Work: work, DataChanged: []string{}, FontsChanged: []string{}, Pages: []pagesChanged{}, Terms: []termChange{}}
+	r := &changeReport{Work: work, DataChanged: []string{}, FontsChanged: []string{}, Pages: []pagesChanged{}, Graphics: []graphicDrawn{}, Terms: []termChange{}}
 	r.Files = fileChanges{Added: []string{}, Removed: []string{}, Changed: []string{}, Unchanged: []string{}}
 	if prev == nil {
 		r.FirstBuild = true
@@ -84,7 +94,10 @@ func compareManifests(prev, cur *manifest, work []outputStats) *changeReport {
 			r.Files.Added = append(r.Files.Added, f.Path)
 		case old.SHA256 != f.SHA256:
 			r.Files.Changed = append(r.Files.Changed, f.Path)
-			if strings.HasSuffix(f.Path, ".pdf") {
+			switch {
+			case f.Insert != "":
+				r.Graphics = append(r.Graphics, graphicDrawn{File: f.Path, Insert: f.Insert, Why: insertWhy(r, prev, cur, f.Insert)})
+			case strings.HasSuffix(f.Path, ".pdf"):
 				r.Pages = append(r.Pages, pagesChanged{File: f.Path, Pages: changedPages(old.Pages, f.Pages), Of: len(f.Pages)})
 			}
 		default:
@@ -120,6 +133,31 @@ func compareManifests(prev, cur *manifest, work []outputStats) *changeReport {
 	for _, t := range gone {
 		r.Terms = append(r.Terms, termChange{Term: t, Change: "removed", Pages: oldPlaces[t]})
 	}
+	// An insert's terms need not be among the feature's: one that is not,
+	// and whose data changed, is listed with its inserts.
+	selected := map[string]bool{}
+	for _, t := range cur.Terms {
+		selected[t.Term] = true
+	}
+	oldInsertTerms := map[string]string{}
+	for _, in := range prev.Inserts {
+		for _, t := range in.Terms {
+			oldInsertTerms[t.Term] = t.SHA256
+		}
+	}
+	var insertOnly []string
+	for _, in := range cur.Inserts {
+		for _, t := range in.Terms {
+			if sum, ok := oldInsertTerms[t.Term]; ok && !selected[t.Term] && sum != t.SHA256 {
+				insertOnly = append(insertOnly, t.Term)
+				selected[t.Term] = true // once
+			}
+		}
+	}
+	sort.Strings(insertOnly)
+	for _, t := range insertOnly {
+		r.Terms = append(r.Terms, termChange{Term: t, Change: "changed", Pages: newPlaces[t]})
+	}
 	for i := range r.Terms {
 		if r.Terms[i].Pages == nil {
 			r.Terms[i].Pages = []string{}
@@ -139,7 +177,8 @@ func changedPages(old, cur []pageEntry) []int {
 	return out
 }
 
-// places maps every term to "OUTPUT p. N" for each page it is on.
+// places maps every term to "OUTPUT p. N" for each page it is on, then
+// "insert NAME" for each insert that shows it.
 func places(m *manifest) map[string][]string {
 	out := map[string][]string{}
 	for _, o := range m.Outputs {
@@ -149,7 +188,58 @@ func places(m *manifest) map[string][]string {
 			}
 		}
 	}
+	for _, in := range m.Inserts {
+		for _, t := range in.Terms {
+			out[t.Term] = append(out[t.Term], "insert "+in.Name)
+		}
+	}
 	return out
+}
+
+// insertWhy says why an insert was drawn again, from the two manifests
+// and the inputs already compared in r.
+func insertWhy(r *changeReport, prev, cur *manifest, name string) string {
+	a, b := prev.insert(name), cur.insert(name)
+	if a == nil || b == nil {
+		return "its inputs changed"
+	}
+	var why []string
+	switch {
+	case !sameTerms(a.Terms, b.Terms, true):
+		why = append(why, "its terms changed")
+	case !sameTerms(a.Terms, b.Terms, false):
+		why = append(why, "its terms' data changed")
+	}
+	if r.SheafChanged {
+		why = append(why, "a new sheaf version")
+	}
+	if r.SpecChanged {
+		why = append(why, "the spec changed")
+	}
+	for _, f := range r.FontsChanged {
+		if strings.HasPrefix(f, b.Output+" ") {
+			why = append(why, "its fonts changed")
+			break
+		}
+	}
+	if len(why) == 0 {
+		return "its inputs changed" // say, the date a PDF carries
+	}
+	return strings.Join(why, ", ")
+}
+
+// sameTerms reports whether two lists name the same terms in the same
+// order, and, unless namesOnly, with the same data.
+func sameTerms(a, b []termHash, namesOnly bool) bool {
+	if len(a) != len(b) {
+		return false
+	}
+	for i := range a {
+		if a[i].Term != b[i].Term || !namesOnly && a[i].SHA256 != b[i].SHA256 {
+			return false
+		}
+	}
+	return true
 }
 
 // nothing reports whether the build changed no file.
@@ -189,11 +279,18 @@ func (r *changeReport) text(b *strings.Builder, short bool) {
 	}
 	work := func() {
 		for _, s := range r.Work {
-			fmt.Fprintf(b, "%s: %d pages, %d encoded, %d reused", s.Output, s.Pages, s.Encoded, s.Reused)
-			if s.ProofsDrawn+s.ProofsReused > 0 {
-				fmt.Fprintf(b, "; proofs %d drawn, %d kept", s.ProofsDrawn, s.ProofsReused)
+			switch {
+			case s.Kind == "insert":
+				fmt.Fprintf(b, "insert %s: %s\n", s.Insert, s.Whole)
+			case s.Whole != "":
+				fmt.Fprintf(b, "%s: %s, %s\n", s.Output, plural(s.Pages, "page"), s.Whole)
+			default:
+				fmt.Fprintf(b, "%s: %d pages, %d encoded, %d reused", s.Output, s.Pages, s.Encoded, s.Reused)
+				if s.ProofsDrawn+s.ProofsReused > 0 {
+					fmt.Fprintf(b, "; proofs %d drawn, %d kept", s.ProofsDrawn, s.ProofsReused)
+				}
+				b.WriteString("\n")
 			}
-			b.WriteString("\n")
 		}
 	}
 	switch {
@@ -240,13 +337,18 @@ func (r *changeReport) text(b *strings.Builder, short bool) {
 		for i, n := range p.Pages {
 			ps[i] = strconv.Itoa(n)
 		}
-		what := "pages " + strings.Join(ps, ", ")
+		line := fmt.Sprintf("%s: pages %s of %d", p.File, strings.Join(ps, ", "), p.Of)
 		if len(ps) == 0 {
-			what = "no page content (document-level change)"
+			line = fmt.Sprintf("%s: every page as before; the document around them changed", p.File)
 		}
-		pages = append(pages, fmt.Sprintf("%s: %s of %d", p.File, what, p.Of))
+		pages = append(pages, line)
 	}
 	list("changed pages", pages)
+	var graphics []string
+	for _, g := range r.Graphics {
+		graphics = append(graphics, fmt.Sprintf("%s: redrawn (%s)", g.File, g.Why))
+	}
+	list("redrawn inserts", graphics)
 	list("changed files", r.Files.Changed)
 	list("added files", r.Files.Added)
 	list("removed files", r.Files.Removed)

@@ -41,7 +41,8 @@ type manifest struct {
 	Fonts   []fontHash    `json:"fonts"`
 	Terms   []termHash    `json:"terms"` // every selected term, sorted by term
 	Outputs []outputEntry `json:"outputs"`
-	Files   []fileEntry   `json:"files"` // every file of every output, sorted by path
+	Inserts []insertEntry `json:"inserts,omitempty"` // in the spec's order
+	Files   []fileEntry   `json:"files"`             // every file of every output and insert, sorted by path
 }
 
 type fileHash struct {
@@ -64,10 +65,24 @@ type termHash struct {
 }
 
 type outputEntry struct {
-	Name   string      `json:"name"`
-	Kind   string      `json:"kind"`
-	Proofs float64     `json:"proof_dpi,omitempty"` // 0: no proofs were made
+	Name   string  `json:"name"`
+	Kind   string  `json:"kind"`
+	Proofs float64 `json:"proof_dpi,omitempty"` // 0: no proofs were made
+	// Inputs, for a screen output, hashes everything that decides its
+	// files (see screenInputs): equal hashes and intact files mean the
+	// next build carries the files over instead of drawing them.
+	Inputs string      `json:"inputs,omitempty"`
 	Pages  []pageEntry `json:"pages"`
+}
+
+// insertEntry is one insert: the output it borrows, its terms with the
+// hash of their data, and the hash of everything that decides its files
+// (see insertInputs).
+type insertEntry struct {
+	Name   string     `json:"name"`
+	Output string     `json:"output"`
+	Terms  []termHash `json:"terms"` // in the insert's order
+	Inputs string     `json:"inputs"`
 }
 
 // pageEntry is one page: the terms on it and the hash of everything that
@@ -83,7 +98,9 @@ type fileEntry struct {
 	Output string      `json:"output,omitempty"`
 	SHA256 string      `json:"sha256"`
 	Size   int64       `json:"size"`
-	Pages  []pageEntry `json:"pages,omitempty"` // the PDF's pages, or the page a proof shows
+	Insert string      `json:"insert,omitempty"` // the insert the file shows
+	Terms  []string    `json:"terms,omitempty"`  // an insert's terms, or a panel file's term
+	Pages  []pageEntry `json:"pages,omitempty"`  // the PDF's pages, or the page(s) a proof, PNG or SVG shows
 }
 
 // readManifest reads DIR/manifest.json. No file is not an error: it
@@ -121,6 +138,33 @@ func (m *manifest) output(name string) *outputEntry {
 		}
 	}
 	return nil
+}
+
+func (m *manifest) insert(name string) *insertEntry {
+	if m == nil {
+		return nil
+	}
+	for i := range m.Inserts {
+		if m.Inserts[i].Name == name {
+			return &m.Inserts[i]
+		}
+	}
+	return nil
+}
+
+// filesOf lists the files of output (insert == "") or of an insert.
+func (m *manifest) filesOf(output, insert string) []*fileEntry {
+	if m == nil {
+		return nil
+	}
+	var out []*fileEntry
+	for i := range m.Files {
+		f := &m.Files[i]
+		if insert != "" && f.Insert == insert || insert == "" && f.Output == output && output != "" {
+			out = append(out, f)
+		}
+	}
+	return out
 }
 
 func (m *manifest) file(path string) *fileEntry {

@@ -9,7 +9,9 @@ import (
 )
 
 // progress shows "OUTPUT: STAGE done/total" on one line of a terminal
-// while a build runs longer than progressDelay. It is silent when stderr
+// while a build runs longer than progressDelay: PDF pages, proofs, a
+// screen output's SVG pages, PNGs and panel files, files carried over,
+// and the inserts. It is silent when stderr
 // is not a terminal (piped, redirected, in tests) or with --quiet. The
 // clock it reads decides only when to draw the line, never any output.
 type progress struct {
@@ -35,6 +37,10 @@ const (
 func newProgress(w io.Writer, quiet bool) *progress {
 	return &progress{w: w, on: !quiet && isTerminal(w), start: time.Now(), now: time.Now}
 }
+
+// progressFor makes a build's progress line: newProgress, but a test may
+// put in one that draws without a terminal.
+var progressFor = newProgress
 
 // isTerminal reports whether w is a character device: a terminal.
 func isTerminal(w io.Writer) bool {

@@ -7,13 +7,12 @@ import (
 	"image"
 	"io"
 	"math"
-	"os"
 	"path/filepath"
 	"runtime"
+	"sort"
 	"strconv"
 	"strings"
 	"sync"
-	"time"
 	"unicode"
 
 	"github.com/tdewolff/canvas"
@@ -37,18 +36,140 @@ var screenScales = []struct {
 // this at some scale gets no PNG at that scale (the SVG is still written).
 const maxRasterPx = 40000
 
-// buildScreen writes a screen output: one SVG per page (a scrolling
-// output is one tall page, or with scroll-groups one tall page per group,
-// the pages differing in height), a PNG of each at 1× and 2×, with
-// panel-files one small SVG per term, and an HTML proof page showing every
-// page in order at its own size. It returns the files written.
-func buildScreen(j *job, p *prepared, dir string, date time.Time) ([]string, error) {
-	_ = date // SVG and PNG carry no date; the argument keeps the build calls alike
+// buildScreen writes a screen output into the stage: one SVG per page (a
+// scrolling output is one tall page, or with scroll-groups one tall page
+// per group, the pages differing in height), a PNG of each at 1× and 2×,
+// with panel-files one small SVG per term, and an HTML proof page showing
+// every page in order at its own size. When the output's inputs hash is
+// the last build's and its files are intact, the files are carried over
+// instead: rasterizing a tall page at 2× is most of a rebuild otherwise.
+// It returns the files, sorted.
+func (b *build) buildScreen(p *prepared) ([]string, error) {
 	out := p.out
-	odir := filepath.Join(dir, out.Name)
+	entry := b.outputEntry(p, 0)
+	entry.Inputs = b.screenInputs(p, entry.Pages)
+	b.outputs = append(b.outputs, entry)
+	st := outputStats{Output: out.Name, Kind: string(out.Kind), Pages: len(entry.Pages)}
+	odir := filepath.Join(b.stage.dir, out.Name)
+	tasks, skipped := screenPNGTasks(p, odir)
+	for _, s := range skipped {
+		fmt.Fprintln(b.progress.w, "warning:", s)
+	}
+	want := b.noteScreenFiles(p, entry.Pages, odir, tasks)
+	prev := b.prev.output(out.Name)
+	why := b.drawReason(prev != nil, prev != nil && prev.Kind == entry.Kind && prev.Inputs == entry.Inputs)
+	if why == "" {
+		if b.keepAll(out.Name+": reusing files", want, b.prev.filesOf(out.Name, "")) {
+			st.Reused, st.Whole = st.Pages, "reused (inputs unchanged)"
+			b.stats = append(b.stats, st)
+			return want, nil
+		}
+		why = "a file of the last build is missing or altered"
+	}
+	if err := b.ctx.Err(); err != nil {
+		return nil, err
+	}
+	if drawHook != nil {
+		if err := drawHook(out.Name); err != nil {
+			return nil, err
+		}
+	}
+	files, err := drawScreen(b.j, p, odir, tasks, b.progress)
+	if err != nil {
+		return nil, err
+	}
+	sort.Strings(files)
+	st.Encoded, st.Whole = st.Pages, "drawn ("+why+")"
+	b.stats = append(b.stats, st)
+	return files, nil
+}
+
+// screenInputs is the hash of everything that decides a screen output's
+// files; equal hashes mean equal files. What goes in, and why it is
+// enough:
+//
+//   - the sheaf version (the drawing code) and the spec file's hash: every
+//     setting (width, type, fonts.family and embed, flow, spreads,
+//     panel-files, palette) is in the spec, and any edit redraws, as for
+//     print pages;
+//   - the output's name and kind;
+//   - every page's inputs (pageInputs: layout, the panels' data as drawn,
+//     span, unit, palette stops, fonts), in order: page SVGs, spreads,
+//     PNGs and panel files are drawn from them;
+//   - the data hash (counts and plotted values) of every term on it;
+//   - the palette's stops and the fonts' hashes, so an output with no
+//     page is covered too;
+//   - the plan's summary, which the proof page prints.
+//
+// The date is not in it: SVG and PNG carry none.
+func (b *build) screenInputs(p *prepared, pages []pageEntry) string {
+	h := newHasher("sheaf screen v1")
+	h.str(version)
+	h.str(b.specSum)
+	h.str(p.out.Name)
+	h.str(string(p.out.Kind))
+	terms := b.termSums()
+	h.int(len(pages))
+	for _, pg := range pages {
+		h.str(pg.Inputs)
+		h.int(len(pg.Terms))
+		for _, t := range pg.Terms {
+			h.str(t)
+			h.str(terms[t])
+		}
+	}
+	for _, s := range p.feat.Stops {
+		r := s.Color
+		h.floats([]float64{s.Year, r.R, r.G, r.B})
+	}
+	h.str(fontsSum(p.fonts))
+	h.str(p.plan.Summary())
+	return h.sum()
+}
+
+// noteScreenFiles records, for the manifest, the pages or term each file
+// of a screen output shows, and returns every file the output has
+// (stage paths, sorted).
+func (b *build) noteScreenFiles(p *prepared, pages []pageEntry, odir string, tasks []pngTask) []string {
+	var files []string
+	add := func(name string, m fileMeta) {
+		path := filepath.Join(odir, filepath.FromSlash(name))
+		b.note(path, m)
+		files = append(files, path)
+	}
+	for i := range pages {
+		add(fmt.Sprintf("page-%03d.svg", i+1), fileMeta{pages: pages[i : i+1]})
+	}
+	for _, t := range tasks {
+		add(filepath.Base(t.path), fileMeta{pages: pages[t.page : t.page+1]})
+	}
+	if p.out.Spreads && p.out.Flow == specs.FlowPages {
+		for k, sp := range p.plan.Spreads() {
+			var on []pageEntry
+			for _, sg := range sp.Pages {
+				on = append(on, pages[sg.Page])
+			}
+			add(fmt.Sprintf("spread-%03d.svg", k+1), fileMeta{pages: on})
+		}
+	}
+	if p.out.PanelFiles {
+		for _, pf := range panelFiles(b.j, p) {
+			add("panels/"+pf.name+".svg", fileMeta{terms: []string{pf.term}})
+		}
+	}
+	add("index.html", fileMeta{pages: pages})
+	sort.Strings(files)
+	return files
+}
+
+// drawScreen draws every file of a screen output into odir (see
+// buildScreen) and returns them.
+func drawScreen(j *job, p *prepared, odir string, tasks []pngTask, prog *progress) ([]string, error) {
+	out := p.out
 	n := len(p.plan.Pages)
 	var files []string
 	var shown []proofItem // what the proof page shows
+	prog.begin(out.Name+": SVG pages", n)
 	for i := range p.plan.Pages {
 		pg := &p.plan.Pages[i]
 		name := fmt.Sprintf("page-%03d.svg", i+1)
@@ -69,6 +190,7 @@ func buildScreen(j *job, p *prepared, dir string, date time.Time) ([]string, err
 			return nil, err
 		}
 		files = append(files, path)
+		prog.step()
 	}
 	if out.Spreads && out.Flow == specs.FlowPages {
 		spreads, err := writeSpreads(j, p, odir)
@@ -81,17 +203,14 @@ func buildScreen(j *job, p *prepared, dir string, date time.Time) ([]string, err
 			shown = append(shown, proofItem{filepath.Base(spreads[k]), sp.Sheet.W(), sp.Sheet.H()})
 		}
 	}
-	pngs, skipped, err := writeScreenPNGs(p, odir)
+	pngs, err := writeScreenPNGs(p, tasks, prog)
 	if err != nil {
 		return nil, err
-	}
-	for _, s := range skipped {
-		fmt.Fprintln(os.Stderr, "warning:", s)
 	}
 	files = append(files, pngs...)
 	var panels []string
 	if out.PanelFiles {
-		panels, err = writePanelFiles(j, p, filepath.Join(odir, "panels"))
+		panels, err = writePanelFiles(j, p, filepath.Join(odir, "panels"), prog)
 		if err != nil {
 			return nil, err
 		}
@@ -160,17 +279,16 @@ func drawSVG(w io.Writer, r layout.Rect, opts svg.Options, draw func(ctx *canvas
 	return err
 }
 
-// writeScreenPNGs renders every page at each screen scale, pages in
-// parallel. A page too tall for a PNG at a scale is skipped with a
-// message.
-func writeScreenPNGs(p *prepared, odir string) (files, skipped []string, err error) {
-	type task struct {
-		page  int
-		dpi   float64
-		path  string
-		index int
-	}
-	var tasks []task
+// pngTask is one screen PNG: page (from 0) at dpi, to path.
+type pngTask struct {
+	page int
+	dpi  float64
+	path string
+}
+
+// screenPNGTasks lists the PNGs of every page at each screen scale, and
+// a message for each one skipped: a page too tall for a PNG at a scale.
+func screenPNGTasks(p *prepared, odir string) (tasks []pngTask, skipped []string) {
 	for i := range p.plan.Pages {
 		pg := &p.plan.Pages[i]
 		for _, s := range screenScales {
@@ -179,33 +297,40 @@ func writeScreenPNGs(p *prepared, odir string) (files, skipped []string, err err
 					p.out.Name, i+1, pg.Trim.H()*s.dpi/72, s.dpi, maxRasterPx, s.suffix))
 				continue
 			}
-			tasks = append(tasks, task{page: i, dpi: s.dpi, index: len(tasks),
+			tasks = append(tasks, pngTask{page: i, dpi: s.dpi,
 				path: filepath.Join(odir, fmt.Sprintf("page-%03d%s.png", i+1, s.suffix))})
 		}
 	}
+	return tasks, skipped
+}
+
+// writeScreenPNGs renders the PNGs tasks lists, in parallel.
+func writeScreenPNGs(p *prepared, tasks []pngTask, prog *progress) (files []string, err error) {
+	prog.begin(p.out.Name+": PNGs", len(tasks))
 	errs := make([]error, len(tasks))
 	sem := make(chan struct{}, runtime.GOMAXPROCS(0))
 	var wg sync.WaitGroup
-	for _, t := range tasks {
+	for k, t := range tasks {
 		wg.Add(1)
 		sem <- struct{}{}
-		go func(t task) {
+		go func() {
 			defer func() { <-sem; wg.Done() }()
+			defer prog.step()
 			img, err := screenPNG(p, t.page, t.dpi)
 			if err == nil {
 				err = writeAtomic(t.path, func(w io.Writer) error { return raster.WritePNG(w, img) })
 			}
-			errs[t.index] = err
-		}(t)
+			errs[k] = err
+		}()
 	}
 	wg.Wait()
 	for i, t := range tasks {
 		if errs[i] != nil {
-			return nil, nil, errs[i]
+			return nil, errs[i]
 		}
 		files = append(files, t.path)
 	}
-	return files, skipped, nil
+	return files, nil
 }
 
 // screenPNG renders page i's trim box at dpi on the paper colour.
@@ -227,27 +352,47 @@ func panelWindow(plan *layout.Plan, pn layout.Panel) (layout.Panel, layout.Rect)
 	return pn, layout.Rect{X0: box.X0 - pad, Y0: pn.Ticks.Y0 - pad, X1: box.X1 + pad, Y1: box.Y1 + pad}
 }
 
-// writePanelFiles writes one SVG per term, named by the term's slug.
-func writePanelFiles(j *job, p *prepared, pdir string) ([]string, error) {
-	var files []string
+// panelFile is one panel file of a screen output.
+type panelFile struct {
+	name  string // the term's slug, unique in the output
+	term  string
+	item  int
+	panel layout.Panel
+	win   layout.Rect
+}
+
+// panelFiles lists the panel files of an output in panel order, named.
+func panelFiles(j *job, p *prepared) []panelFile {
+	var out []panelFile
 	used := map[string]bool{}
 	for i := range p.plan.Pages {
 		for _, pn := range p.plan.Pages[i].Panels {
 			pn, win := panelWindow(p.plan, pn)
 			term := j.data.Series[pn.Item].Term
-			name := uniqueSlug(slug(term), used)
-			title, desc := p.feat.Describe(pn.Item)
-			opts := screenSVGOptions(j, p)
-			opts.Title, opts.Desc = title, desc
-			path := filepath.Join(pdir, name+".svg")
-			err := writeAtomic(path, func(w io.Writer) error {
-				return drawSVG(w, win, opts, func(ctx *canvas.Context) error { return p.feat.DrawPanel(ctx, pn) })
-			})
-			if err != nil {
-				return nil, err
-			}
-			files = append(files, path)
+			out = append(out, panelFile{name: uniqueSlug(slug(term), used), term: term, item: pn.Item, panel: pn, win: win})
 		}
+	}
+	return out
+}
+
+// writePanelFiles writes one SVG per term, named by the term's slug.
+func writePanelFiles(j *job, p *prepared, pdir string, prog *progress) ([]string, error) {
+	var files []string
+	pfs := panelFiles(j, p)
+	prog.begin(p.out.Name+": panel files", len(pfs))
+	for _, pf := range pfs {
+		title, desc := p.feat.Describe(pf.item)
+		opts := screenSVGOptions(j, p)
+		opts.Title, opts.Desc = title, desc
+		path := filepath.Join(pdir, pf.name+".svg")
+		err := writeAtomic(path, func(w io.Writer) error {
+			return drawSVG(w, pf.win, opts, func(ctx *canvas.Context) error { return p.feat.DrawPanel(ctx, pf.panel) })
+		})
+		if err != nil {
+			return nil, err
+		}
+		files = append(files, path)
+		prog.step()
 	}
 	return files, nil
 }
