@@ -37,14 +37,15 @@ func runBuild(args []string, stdout, stderr io.Writer) int {
 	fs := newFlags("build", "SPEC [--out DIR] [--only OUTPUT] [--strict] [--no-proofs] [--full] [--quiet]",
 		"Render every output of the spec: for print, one PDF with bleed and crop marks, a PNG proof per page\n"+
 			"and a contact sheet. Preflight runs first. Pages whose inputs did not change since the last build\n"+
-			"are reused from DIR/.cache; DIR/manifest.json records what went in and came out, and\n"+
+			"are reused from DIR/.cache, and screen outputs and inserts whose inputs did not change keep their\n"+
+			"files; DIR/manifest.json records what went in and came out, and\n"+
 			"DIR/changes.txt and changes.json say what changed since the last build. The outputs are written\n"+
 			"beside DIR and swapped in only when all is done: an interrupted build leaves DIR as it was.", stderr)
 	outDir := fs.String("out", "", "folder for the outputs (default: out/ beside the spec)")
 	only := fs.String("only", "", "build only the output with this name; the others' files are kept")
 	strict := fs.Bool("strict", false, "stop without writing anything when preflight finds warnings or errors")
 	noProofs := fs.Bool("no-proofs", false, "write no PNG proofs or contact sheet for print outputs")
-	full := fs.Bool("full", false, "encode every page afresh instead of reusing unchanged ones")
+	full := fs.Bool("full", false, "draw every page, screen output and insert afresh instead of reusing unchanged ones")
 	quiet := fs.Bool("quiet", false, "no progress line")
 	path, code, ok := startCommand(fs, args, stderr)
 	if !ok {
