@@ -26,6 +26,7 @@ import (
 	"slices"
 	"strconv"
 	"strings"
+	"unicode/utf8"
 
 	"golang.org/x/text/cases"
 	"golang.org/x/text/unicode/norm"
@@ -221,6 +222,11 @@ func openTable(s *specs.Spec, key, name string, want []string, errs *specs.Error
 	}
 	names := make([]string, len(head))
 	for i, h := range head {
+		if !utf8.Valid(h) {
+			errs.Add(t.at(i), "the header %q is not valid UTF-8 text; save the table as UTF-8", h)
+			f.Close()
+			return nil
+		}
 		names[i] = string(h)
 		t.cols[strings.ToLower(strings.TrimSpace(names[i]))] = i
 	}
@@ -298,9 +304,11 @@ func (t *table) next(errs *specs.Errors) ([][]byte, int, bool) {
 	}
 }
 
-// parseNumber reads a count or total. Plain digits, the usual case, are
-// read here: up to 15 of them are below 2^53, so the integer is the exact
-// value strconv.ParseFloat would return.
+// parseNumber reads a count or total: a decimal number, which may have a
+// fraction (weighted or estimated counts) or an exponent, read as
+// strconv.ParseFloat reads it. Plain digits, the usual case, are read
+// here: up to 15 of them are below 2^53, so the integer is the exact value
+// strconv.ParseFloat would return.
 func parseNumber(b []byte) (float64, string) {
 	if n, ok := digits(b, 15); ok {
 		return float64(n), ""
@@ -308,7 +316,9 @@ func parseNumber(b []byte) (float64, string) {
 	s := string(b)
 	v, err := strconv.ParseFloat(strings.TrimSpace(s), 64)
 	switch {
-	case err != nil:
+	case err != nil || strings.ContainsAny(s, "xX_"):
+		// Counts are decimal: ParseFloat's hexadecimal and underscored
+		// forms are refused, as a spreadsheet would not write them.
 		return 0, fmt.Sprintf("%q is not a number", s)
 	case math.IsNaN(v) || math.IsInf(v, 0):
 		return 0, fmt.Sprintf("%q is not a finite number", s)
@@ -433,6 +443,14 @@ func (r *reader) pass1() (map[string]*agg, []string) {
 			}
 			continue
 		}
+		// A term is checked once a run: the row before's term (the key
+		// cache's) was valid.
+		if (string(term) != r.lastRaw || r.lastKey == "") && !utf8.Valid(term) {
+			if !r.errs.Add(t.at(tc), "the term %q is not valid UTF-8 text; save the table as UTF-8", term) {
+				break
+			}
+			continue
+		}
 		field := yc // the field a problem is in
 		y, msg := parseYear(rec[yc])
 		if msg == "" && (y < s.Years.From || y > s.Years.To) {
@@ -517,43 +535,60 @@ func (r *reader) pass1() (map[string]*agg, []string) {
 }
 
 // selectTerms applies the list, the rule and the exclusions, and returns
-// the keys of the selected terms in list-then-share order.
+// the keys of the selected terms in list-then-share order. A term listed
+// twice, a term both listed and excluded and an excluded term the data
+// lacks are errors: each is more likely a slip than a wish.
 func (r *reader) selectTerms(aggs map[string]*agg, order []string) []string {
 	s := r.spec
-	excluded := map[string]bool{}
-	for _, e := range s.Terms.Exclude {
-		excluded[r.key(e)] = true
+	var names []string
+	notIn := func(term string) string {
+		if names == nil {
+			for _, k := range order {
+				names = append(names, aggs[k].term)
+			}
+		}
+		hint := ""
+		if c := specs.Closest(term, names, 3); len(c) > 0 {
+			hint = "; closest: " + quoteList(c)
+		}
+		return fmt.Sprintf("is not in %s%s", s.Data.Counts, hint)
+	}
+	excluded := map[string]int{} // key → first exclude entry
+	for i, e := range s.Terms.Exclude {
+		if k := r.key(e); !hasKey(excluded, k) {
+			excluded[k] = i
+		}
 	}
 	var sel []string
-	picked := map[string]bool{}
-	var names []string
+	listed := map[string]int{} // key → first list entry
 	for i, term := range s.Terms.List {
 		k := r.key(term)
-		a := aggs[k]
-		if a == nil {
-			if names == nil {
-				for _, k := range order {
-					names = append(names, aggs[k].term)
-				}
-			}
-			hint := ""
-			if c := specs.Closest(term, names, 3); len(c) > 0 {
-				hint = "; closest: " + quoteList(c)
-			}
-			r.errs.Add(s.Where(fmt.Sprintf("terms.list.%d", i)), "term %q is not in %s%s", term, s.Data.Counts, hint)
+		at := s.Where(fmt.Sprintf("terms.list.%d", i))
+		if j, dup := listed[k]; dup {
+			r.errs.Add(at, "term %q is listed twice (first at %s)", term, seenAt(s.Where(fmt.Sprintf("terms.list.%d", j)), at))
 			continue
 		}
-		if picked[k] || excluded[k] {
+		listed[k] = i
+		if j, ex := excluded[k]; ex {
+			r.errs.Add(at, "term %q is both listed and excluded (exclude at %s)", term, seenAt(s.Where(fmt.Sprintf("terms.exclude.%d", j)), at))
 			continue
 		}
-		picked[k] = true
+		if aggs[k] == nil {
+			r.errs.Add(at, "term %q %s", term, notIn(term))
+			continue
+		}
 		sel = append(sel, k)
+	}
+	for i, e := range s.Terms.Exclude {
+		if aggs[r.key(e)] == nil {
+			r.errs.Add(s.Where(fmt.Sprintf("terms.exclude.%d", i)), "excluded term %q %s", e, notIn(e))
+		}
 	}
 	if s.Terms.Top > 0 || len(s.Terms.List) == 0 {
 		var cand []*agg
 		keys := map[*agg]string{}
 		for _, k := range order {
-			if a := aggs[k]; !picked[k] && !excluded[k] && a.total >= s.Terms.MinTotal {
+			if a := aggs[k]; !hasKey(listed, k) && !hasKey(excluded, k) && a.total >= s.Terms.MinTotal {
 				cand = append(cand, a)
 				keys[a] = k
 			}
@@ -576,6 +611,20 @@ func (r *reader) selectTerms(aggs map[string]*agg, order []string) []string {
 		aggs[k].idx = i
 	}
 	return sel
+}
+
+func hasKey(m map[string]int, k string) bool {
+	_, ok := m[k]
+	return ok
+}
+
+// seenAt says where an earlier entry is, seen from here: "line 8", or
+// "line 8, column 10" when both are on one line (a flow list).
+func seenAt(first, here specs.Pos) string {
+	if first.Line == here.Line && first.Col > 0 {
+		return fmt.Sprintf("line %d, column %d", first.Line, first.Col)
+	}
+	return fmt.Sprintf("line %d", first.Line)
 }
 
 // keepLimit is how many terms pass1 keeps the counts of: twice the most

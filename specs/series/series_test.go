@@ -335,6 +335,37 @@ func TestDataErrors(t *testing.T) {
 		{"total zero", "counts.csv", hdr, "year,total\n1900,0\n", "", "totals.csv:2:6", "total for 1900 is 0"},
 		{"total negative", "counts.csv", hdr, "year,total\n1900,-1\n", "", "totals.csv:2:6", "total for 1900: -1 is negative"},
 		{"totals outside span", "counts.csv", hdr, "year,total\n1800,5\n", "", "totals.csv", "no totals fall inside the span 1900–1905"},
+		// Counts are decimal (this project's own rule): strconv.ParseFloat's
+		// hexadecimal and underscored forms are refused.
+		{"hexadecimal count", "counts.csv", hdr + "boiler,1900,0x1p3\n", "", "", "counts.csv:2:13", `count for "boiler" in 1900: "0x1p3" is not a number`},
+		{"underscored count", "counts.csv", hdr + "boiler,1900,1_000\n", "", "", "counts.csv:2:13", `"1_000" is not a number`},
+
+		// Text must be UTF-8 (RFC 3629 §3: 0xFF never appears; 0xE9 is
+		// é in ISO 8859-1 but in UTF-8 a lead byte that needs two
+		// continuation bytes). The error is at the field's first byte.
+		{"term not UTF-8", "counts.csv", hdr + "bo\xffiler,1900,5\n", "", "", "counts.csv:2:1", `the term "bo\xffiler" is not valid UTF-8 text; save the table as UTF-8`},
+		{"Latin-1 term after a good run", "counts.csv", hdr + "cafe,1900,5\ncafe,1901,5\ncaf\xe9,1902,5\n", "", "", "counts.csv:4:1", `the term "caf\xe9" is not valid UTF-8 text`},
+		{"quoted term not UTF-8", "counts.csv", hdr + "boiler,1900,5\n\"caf\xe9, au lait\",1900,5\n", "", "", "counts.csv:3:1", `the term "caf\xe9, au lait" is not valid UTF-8 text`},
+		{"TSV term not UTF-8", "counts.tsv", "term\tyear\tcount\nMa\xdfstab\t1900\t3\n", "", "", "counts.tsv:2:1", `the term "Ma\xdfstab" is not valid UTF-8 text`},
+		{"header not UTF-8", "counts.csv", "term,ye\xe4r,count\nboiler,1900,5\n", "", "", "counts.csv:1:6", `the header "ye\xe4r" is not valid UTF-8 text; save the table as UTF-8`},
+		// A UTF-16LE file starts FF FE (Unicode §23.8, byte order mark).
+		{"UTF-16 table", "counts.csv", "\xff\xfet\x00e\x00r\x00m\x00,\x00y\x00", "", "", "counts.csv:1:1", `the header "\xff\xfet\x00e\x00r\x00m\x00" is not valid UTF-8 text`},
+		{"totals header not UTF-8", "counts.csv", hdr, "year,t\xf6tal\n1900,5\n", "", "totals.csv:1:6", `the header "t\xf6tal" is not valid UTF-8 text`},
+
+		// Term lists (this project's own rules): a term listed twice or
+		// both listed and excluded, and an excluded term the data lacks,
+		// are slips, reported at the entry. In the generated spec the
+		// terms mapping starts on line 7; "  list: [" is 9 columns.
+		{"listed twice, flow list", "counts.csv", hdr + "telegraph,1900,5\nboiler,1900,5\n", "", "terms:\n  list: [boiler, telegraph, boiler]\n", "spec.yaml:8:29", `term "boiler" is listed twice (first at line 8, column 10)`},
+		{"listed twice, block list", "counts.csv", hdr + "telegraph,1900,5\nboiler,1900,5\n", "", "terms:\n  list:\n    - boiler\n    - telegraph\n    - boiler\n", "spec.yaml:11:7", `term "boiler" is listed twice (first at line 9)`},
+		// NFC (Unicode Standard Annex #15): e + U+0301 is é, the same term.
+		{"listed twice in two normal forms", "counts.csv", hdr + "caf\u00e9,1900,5\n", "", "terms:\n  list:\n    - caf\u00e9\n    - cafe\u0301\n", "spec.yaml:10:7", "term \"cafe\u0301\" is listed twice (first at line 9)"},
+		{"listed twice, missing from the data", "counts.csv", hdr + "boiler,1900,5\n", "", "terms:\n  list: [steem, steem]\n", "spec.yaml:8:17", `term "steem" is listed twice (first at line 8, column 10)`},
+		{"listed and excluded", "counts.csv", hdr + "telegraph,1900,5\nboiler,1900,5\n", "", "terms:\n  list: [boiler, telegraph]\n  exclude: [telegraph]\n", "spec.yaml:8:18", `term "telegraph" is both listed and excluded (exclude at line 9)`},
+		{"listed and excluded, block lists", "counts.csv", hdr + "boiler,1900,5\n", "", "terms:\n  exclude:\n    - boiler\n  list:\n    - boiler\n", "spec.yaml:11:7", `term "boiler" is both listed and excluded (exclude at line 9)`},
+		{"excluded term not in the data", "counts.csv", hdr + "telegraph,1900,5\nboiler,1900,5\n", "", "terms:\n  exclude: [the, telegraf]\n", "spec.yaml:8:13", `excluded term "the" is not in counts.csv`},
+		{"excluded term misspelt", "counts.csv", hdr + "telegraph,1900,5\nboiler,1900,5\n", "", "terms:\n  exclude: [the, telegraf]\n", "spec.yaml:8:18", `excluded term "telegraf" is not in counts.csv; closest: "telegraph"`},
+		{"excluded term given alone", "counts.csv", hdr + "boiler,1900,5\n", "", "terms:\n  exclude: boyler\n", "spec.yaml:8:3", `excluded term "boyler" is not in counts.csv; closest: "boiler"`},
 	}
 	for _, tt := range tests {
 		t.Run(tt.name, func(t *testing.T) {
@@ -355,16 +386,97 @@ func TestDataErrors(t *testing.T) {
 	}
 }
 
+// TestRawNeedsNoTotal: raw counts need no total, so with values: raw a
+// count in a year the totals lack is kept and plotted as it is (this
+// project's own rule; the share check in TestDataErrors does not apply).
+// The year stays a gap of the table, and a term with no row there still
+// breaks its line.
 func TestRawNeedsNoTotal(t *testing.T) {
-	// Raw counts need no total, so a count in a year the totals lack is
-	// kept (the share check above does not apply).
-	spec := feature(t, "counts.csv", "term,year,count\nboiler,1903,5\n", "", "scale: {values: raw}\n")
+	spec := feature(t, "counts.csv", "term,year,count\nboiler,1903,5\nboiler,1904,2\ntelegraph,1900,2\n", "",
+		"terms: {list: [boiler, telegraph]}\nscale: {values: raw}\n")
 	set, err := load(t, spec)
 	if err != nil {
 		t.Fatal(err)
 	}
-	if got := set.Series[0].Values[3]; got != 5 {
-		t.Errorf("raw 1903 = %g, want 5", got)
+	if got := fmt.Sprint(set.Gaps); got != "[1903]" {
+		t.Errorf("gaps %s, want [1903]", got)
+	}
+	boiler, telegraph := set.Series[0], set.Series[1]
+	sameValues(t, "boiler values", boiler.Values, []float64{0, 0, 0, 5, 2, 0})
+	sameValues(t, "boiler counts", boiler.Counts, []float64{0, 0, 0, 5, 2, 0})
+	if boiler.Total != 7 || boiler.Peak != 5 || boiler.PeakYear != 1903 {
+		t.Errorf("boiler: total %g, peak %g in %d; want 7, 5 in 1903", boiler.Total, boiler.Peak, boiler.PeakYear)
+	}
+	sameValues(t, "telegraph values", telegraph.Values, []float64{2, 0, 0, gap, 0, 0})
+}
+
+// TestFractionalCounts: counts and totals may be fractional (weighted or
+// estimated counts; this project's own rule). Each is kept as the nearest
+// float64 to its decimal text (IEEE 754-2008 §5.12.2 round to nearest, as
+// strconv.ParseFloat reads it), not rounded to a whole number; the values
+// below are exact in binary except 0.1, whose nearest double is Go's
+// constant 0.1.
+func TestFractionalCounts(t *testing.T) {
+	tests := []struct {
+		text string
+		want float64
+	}{
+		{"5.5", 5.5},
+		{"0.25", 0.25},
+		{".75", 0.75},
+		{"7.", 7},
+		{"2.5e1", 25},
+		{"1E-2", 0.01},
+		{"0.1", 0.1},
+		{" 3.5 ", 3.5},                           // RFC 4180 §2.4 keeps the spaces; the number is read without them
+		{"12345678901234567", 12345678901234568}, // 17 digits: past 2^53, rounded to even
+	}
+	var counts strings.Builder
+	counts.WriteString("term,year,count\n")
+	for i, tt := range tests {
+		fmt.Fprintf(&counts, "t%d,1900,%s\n", i, tt.text)
+	}
+	// A fractional total too: 200000.5 words in 1900.
+	totals := "year,total\n1900,1e17\n1901,200000.5\n"
+	spec := feature(t, "counts.csv", counts.String()+"t0,1901,1.5\n", totals, "order: alphabetical\n")
+	set, err := load(t, spec)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for i, tt := range tests {
+		sr := set.Series[i]
+		if sr.Term != fmt.Sprintf("t%d", i) {
+			t.Fatalf("series %d is %q", i, sr.Term)
+		}
+		if got := sr.Counts[0]; math.Float64bits(got) != math.Float64bits(tt.want) {
+			t.Errorf("%q read as %v, want %v", tt.text, got, tt.want)
+		}
+		if got, want := sr.Values[0], tt.want/1e17*1e6; got != want {
+			t.Errorf("%q per million: %v, want %v", tt.text, got, want)
+		}
+	}
+	if got, want := set.Series[0].Values[1], 1.5/200000.5*1e6; got != want {
+		t.Errorf("1.5 of 200000.5 words: %v per million, want %v", got, want)
+	}
+}
+
+// TestFoldCaseListedTwice: with fold-case, spellings that differ only in
+// case (Unicode default case folding, §3.13) are one term, so listing
+// both is listing it twice.
+func TestFoldCaseListedTwice(t *testing.T) {
+	s, err := specs.Load(feature(t, "counts.csv", "term,year,count\nboiler,1900,5\n", "", "terms: {list: [boiler, BOILER]}\n"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	s.Data.FoldCase = true
+	_, err = Load(s)
+	if err == nil || !strings.HasSuffix(err.Error(), `spec.yaml:7:24: term "BOILER" is listed twice (first at line 7, column 16)`) {
+		t.Errorf("got %v", err)
+	}
+	s.Data.FoldCase = false // two terms then; BOILER is not in the data
+	_, err = Load(s)
+	if err == nil || !strings.Contains(err.Error(), `term "BOILER" is not in counts.csv`) {
+		t.Errorf("without fold-case: %v", err)
 	}
 }
 
