@@ -56,6 +56,13 @@ func TestRemediesFound(t *testing.T) {
 			// 18 and 9 pt scaled by 14.5/18 give 14.5 and 7.25, rounded
 			// down to 7 pt; one step larger, 15 and 7.5 pt, does not fit.
 			"a 14.5 pt title and a 7 pt dek", []Setting{{"type.title", 15}, {"type.dek", 7.5}}},
+		{"long dek leaves too little room for a row: smaller type first", func(s *specs.Spec) {
+			s.Dek = long("A long dek about invented words that runs on and on.", 45)
+		}, func(o *specs.Output) { o.Columns = 2 },
+			// The bands take more than half the 183 mm live area, so the
+			// message names the tallest; the panel remedies still follow.
+			[]string{"a row of panels needs 46.6 mm", "the first page has 31.9 mm left", "(the title and dek take 127 mm: shorten them)", " or a panel aspect of "},
+			"a 16.5 pt title and an 8 pt dek", []Setting{{"type.title", 17}, {"type.dek", 8.5}}},
 		{"long title: the running head of later pages", func(s *specs.Spec) {
 			s.Title = long("Title words", 150)
 		}, func(o *specs.Output) {
@@ -148,6 +155,22 @@ func TestWithArticle(t *testing.T) {
 	} {
 		if got := withArticle(tc.in); got != tc.want {
 			t.Errorf("withArticle(%q) = %q, want %q", tc.in, got, tc.want)
+		}
+	}
+}
+
+// BenchmarkInfeasibleRemedies measures the error path of a page whose dek
+// leaves no room: the solve, the search for smaller type and the check of
+// every remedy offered.
+func BenchmarkInfeasibleRemedies(b *testing.B) {
+	spec := testSpec()
+	spec.Dek = strings.TrimSpace(strings.Repeat("A long dek about invented words that runs on and on. ", 60))
+	fs := fontSet(b)
+	for b.Loop() {
+		o := a5Print()
+		o.Columns = 2
+		if _, err := Solve(spec, &o, fs, []Group{{"", 400}}); err == nil {
+			b.Fatal("solved")
 		}
 	}
 }

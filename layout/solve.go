@@ -556,16 +556,19 @@ func (s *solver) rows() error {
 		}
 	}
 	r = append(r, s.headFootMargins(d))
-	if !s.probe && !slices.ContainsFunc(r, s.works) {
-		// Nothing about the panels or margins helps: the text bands
-		// leave too little room.
+	// When the text bands take most of the page, or nothing about the
+	// panels or margins helps, the cure is in the text: say which band to
+	// shorten, and offer smaller type first.
+	bands, hint := s.bandsH(page == "first"), ""
+	if !s.probe && (bands > s.liveH/2 || !slices.ContainsFunc(r, s.works)) {
+		hint = s.tallestBand(page == "first")
 		if t, ok := s.smallerType(); ok {
-			r = append(r, t)
+			r = append([]Remedy{t}, r...)
 		}
 	}
 	return s.infeasible(s.heightKey(), "page height", need, have,
-		fmt.Sprintf("a row of panels needs %s (label, plot and tick labels%s); the %s page has %s left under its header, key band and footer",
-			u.len(need), with, page, u.len(have)), r...)
+		fmt.Sprintf("a row of panels needs %s (label, plot and tick labels%s); the %s page has %s left under its header, key band and footer%s",
+			u.len(need), with, page, u.len(have), hint), r...)
 }
 
 func (s *solver) heightKey() string {
