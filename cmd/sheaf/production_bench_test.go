@@ -25,7 +25,8 @@ func BenchmarkRebuild(b *testing.B) {
 			b.Fatal(err)
 		}
 		if f == "catalog.yaml" {
-			// The print pages only: inserts are built whole every time.
+			// The print pages only: BenchmarkDemoRebuild measures
+			// screen outputs and inserts, reused whole.
 			if i := bytes.Index(data, []byte("\ninserts:")); i >= 0 {
 				data = data[:i+1]
 			}
@@ -68,4 +69,47 @@ func BenchmarkRebuild(b *testing.B) {
 			}
 		})
 	}
+}
+
+// BenchmarkDemoRebuild builds the whole demo (print with proofs, the
+// 1200 px scrolling web page with its PNGs and panel files, two inserts)
+// once, then measures a rebuild with nothing changed and one after a
+// count of "telegraph" changed (print page 1, the web page and both
+// inserts show it).
+//
+//	go test ./cmd/sheaf -run '^$' -bench DemoRebuild -benchtime 3x
+func BenchmarkDemoRebuild(b *testing.B) {
+	dir := b.TempDir()
+	for _, f := range []string{"feature.yaml", "data/counts.csv", "data/totals.csv"} {
+		data, err := os.ReadFile(filepath.Join(filepath.Dir(demoSpec), f))
+		if err != nil {
+			b.Fatal(err)
+		}
+		os.MkdirAll(filepath.Join(dir, filepath.Dir(f)), 0o755)
+		if err := os.WriteFile(filepath.Join(dir, f), data, 0o644); err != nil {
+			b.Fatal(err)
+		}
+	}
+	spec := filepath.Join(dir, "feature.yaml")
+	out := filepath.Join(dir, "out")
+	build := func(b *testing.B) {
+		var o, e bytes.Buffer
+		if code := run([]string{"build", spec, "--out", out, "--quiet"}, &o, &e); code != exitOK {
+			b.Fatalf("exit %d: %s", code, e.String())
+		}
+	}
+	build(b)
+	b.Run("unchanged", func(b *testing.B) {
+		for b.Loop() {
+			build(b)
+		}
+	})
+	b.Run("one-term", func(b *testing.B) {
+		for b.Loop() {
+			b.StopTimer()
+			nudgeCount(b, spec, "telegraph")
+			b.StartTimer()
+			build(b)
+		}
+	})
 }
