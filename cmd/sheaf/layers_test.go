@@ -1,0 +1,53 @@
+package main
+
+import (
+	"os/exec"
+	"strings"
+	"testing"
+)
+
+// TestLayers keeps the pipeline readable top to bottom (DEVELOPERS.md):
+// specs → layout → palette → render → cmd. A package may import only
+// packages of its own layer or a lower one. The rule is this project's
+// own; `go list -deps` is the Go tool's account of the imports.
+func TestLayers(t *testing.T) {
+	if testing.Short() {
+		t.Skip("runs go list; skipped with -short")
+	}
+	goTool, err := exec.LookPath("go")
+	if err != nil {
+		t.Skip("the go tool is not on PATH")
+	}
+	layer := func(pkg string) int {
+		p := strings.TrimPrefix(pkg, "sheaf/")
+		switch {
+		case strings.HasPrefix(p, "specs"):
+			return 0
+		case strings.HasPrefix(p, "layout"):
+			return 1
+		case strings.HasPrefix(p, "palette"):
+			return 2
+		case strings.HasPrefix(p, "render"):
+			return 3
+		case strings.HasPrefix(p, "cmd"):
+			return 4
+		}
+		return -1 // examples: the demo's generator stands apart
+	}
+	out, err := exec.Command(goTool, "list", "-f", `{{.ImportPath}}{{range .Imports}} {{.}}{{end}}`, "sheaf/...").Output()
+	if err != nil {
+		t.Fatalf("go list: %v", err)
+	}
+	for _, line := range strings.Split(strings.TrimSpace(string(out)), "\n") {
+		f := strings.Fields(line)
+		from := layer(f[0])
+		for _, imp := range f[1:] {
+			if !strings.HasPrefix(imp, "sheaf/") || from < 0 {
+				continue
+			}
+			if to := layer(imp); to > from {
+				t.Errorf("%s imports %s, a higher layer", f[0], imp)
+			}
+		}
+	}
+}
