@@ -82,6 +82,13 @@ func TestParseErrors(t *testing.T) {
 		{"spreads on a scroll", head + "outputs:\n  web:\n    kind: screen\n    trim: 1200px\n    spreads: true\n", "8:5", "outputs.web.spreads: spreads pair a left and a right page; flow scroll has no facing pages"},
 		{"spreads on scroll-groups", head + "outputs:\n  web:\n    kind: screen\n    trim: 1200px x 1600px\n    flow: scroll-groups\n    spreads: true\n", "9:5", "flow scroll-groups has no facing pages"},
 		{"flow on print", printOut + "    flow: scroll-groups\n", "6:5", "outputs.print: flow, spreads and panel-files are for screen outputs"},
+		{"key-every on print", printOut + "    key-every: 200mm\n", "7:5", "outputs.print.key-every: the colour key repeats down scrolling screen pages; every print page carries its own key"},
+		{"key-every 0 on print", printOut + "    key-every: 0\n", "7:5", "outputs.print.key-every: the colour key repeats down scrolling screen pages"},
+		{"key-every on pages", head + "outputs:\n  web:\n    kind: screen\n    trim: 1200px x 1600px\n    key-every: 1600px\n", "8:5", "outputs.web.key-every: the colour key repeats down scrolling pages; with flow pages every page carries its own key"},
+		{"key-every on explicit pages", head + "outputs:\n  web:\n    kind: screen\n    key-every: 0\n    flow: pages\n    trim: 1200px x 1600px\n", "7:5", "with flow pages every page carries its own key"},
+		{"key-every without unit", head + "outputs:\n  web:\n    kind: screen\n    key-every: 1600\n", "7:16", `outputs.web.key-every: "1600" has no unit; write it with one, like 1600mm or 1600pt`},
+		{"key-every negative", head + "outputs:\n  web:\n    kind: screen\n    key-every: -10px\n", "7:16", "outputs.web.key-every must not be negative, not -10px"},
+		{"key-every a list", head + "outputs:\n  web:\n    kind: screen\n    key-every: [1, 2]\n", "7:16", "outputs.web.key-every must be a single value, not a list"},
 		{"kind unknown", head + "outputs:\n  web: {kind: scren}\n", "5:15", `outputs.web.kind must be one of print, screen, not "scren"; did you mean "screen"?`},
 		{"kind missing", head + "outputs:\n  web: {trim: A4}\n", "5:8", "outputs.web.kind is missing"},
 		{"output name", head + "outputs:\n  my output: {kind: print}\n", "5:3", `output name "my output": use letters, digits, - and _`},
@@ -247,6 +254,40 @@ outputs:
 	}
 	if got := s.Resolve("c.csv"); got != filepath.Join("dir", "c.csv") {
 		t.Errorf("Resolve = %s", got)
+	}
+}
+
+// TestKeyEvery checks the distance the colour key repeats at down a
+// scrolling screen page: 1600 px by default (this project's choice,
+// README "Outputs"), 0 for the top only, and 0 wherever the flow does not
+// scroll. Lengths convert at 96 px per inch and 72 pt per inch (CSS Values
+// and Units Level 3, absolute lengths).
+func TestKeyEvery(t *testing.T) {
+	for _, c := range []struct {
+		name, keys string
+		want       Length
+	}{
+		{"scroll default", "trim: 1200px", 1200},
+		{"scroll-groups default", "trim: 1200px\n    flow: scroll-groups", 1200},
+		{"pages: none", "trim: 1200px x 1600px", 0},
+		{"in px", "trim: 1200px\n    key-every: 2400px", 1800},
+		{"in other units", "key-every: 10in", 720},
+		{"bare 0: top only", "key-every: 0", 0},
+		{"0 with a unit", "key-every: 0px", 0},
+		{"scroll over a height", "trim: 1200px x 1600px\n    flow: scroll\n    key-every: 800px", 600},
+	} {
+		t.Run(c.name, func(t *testing.T) {
+			s, err := Parse("ok.yaml", []byte(head+"outputs:\n  web:\n    kind: screen\n    "+c.keys+"\n"))
+			if err != nil {
+				t.Fatal(err)
+			}
+			if got := s.Output("web").KeyEvery; math.Abs(float64(got-c.want)) > 1e-9 {
+				t.Errorf("key-every %g pt, want %g pt", got, c.want)
+			}
+		})
+	}
+	if d := DefaultOutput("print", Print); d.KeyEvery != 0 {
+		t.Errorf("print default key-every %g pt, want 0", d.KeyEvery)
 	}
 }
 

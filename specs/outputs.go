@@ -29,6 +29,9 @@ func DefaultOutput(name string, k Kind) Output {
 			Line:  px(1.75),
 			Ticks: TicksBottomRow, PeakDot: true,
 			Flow: FlowScroll,
+			// About one and a half screens of a laptop (1600 px): a reader
+			// never scrolls more than a screen back up to decode colour.
+			KeyEvery: px(1600),
 		}
 	}
 	mm := func(v float64) Length { return Length(v * PtPerMm) }
@@ -89,7 +92,7 @@ func (d *decoder) output(n *yaml.Node, path, name string) Output {
 	}
 	o := DefaultOutput(name, kind)
 	var kindText, firstPage, slack, ticks, flow string
-	trimSet := false
+	trimSet, keyEverySet := false, false
 	d.mapping(n, path, []field{
 		{"kind", d.choice(&kindText, string(Print), string(Screen))},
 		{"trim", func(n *yaml.Node, path string) {
@@ -188,6 +191,16 @@ func (d *decoder) output(n *yaml.Node, path, name string) Output {
 		{"flow", d.choice(&flow, string(FlowPages), string(FlowScroll), string(FlowScrollGroups))},
 		{"panel-files", d.boolean(&o.PanelFiles)},
 		{"spreads", d.boolean(&o.Spreads)},
+		{"key-every", func(n *yaml.Node, path string) {
+			// A bare 0 is allowed: with no distance, no unit is needed.
+			if v := d.resolve(n); v.Kind == yaml.ScalarNode && v.Value == "0" {
+				o.KeyEvery, keyEverySet = 0, true
+				return
+			}
+			o.KeyEvery = 0
+			d.length(&o.KeyEvery, true)(n, path)
+			keyEverySet = true
+		}},
 	}, "kind")
 	at := func(key string) *yaml.Node {
 		if p, ok := d.pos[path+"."+key]; ok {
@@ -213,6 +226,14 @@ func (d *decoder) output(n *yaml.Node, path, name string) Output {
 	}
 	if kind == Screen && o.Spreads && o.Flow.Scrolls() {
 		d.errorf(at("spreads"), "%s.spreads: spreads pair a left and a right page; flow %s has no facing pages (use flow: pages with a trim height, like 900px x 1200px)", path, o.Flow)
+	}
+	switch {
+	case kind == Print && keyEverySet:
+		d.errorf(at("key-every"), "%s.key-every: the colour key repeats down scrolling screen pages; every print page carries its own key", path)
+	case kind == Screen && !o.Flow.Scrolls() && keyEverySet:
+		d.errorf(at("key-every"), "%s.key-every: the colour key repeats down scrolling pages; with flow %s every page carries its own key (use flow: scroll or scroll-groups)", path, o.Flow)
+	case !o.Flow.Scrolls():
+		o.KeyEvery = 0 // the default is for scrolling pages only
 	}
 	if kind == Screen && (o.Bleed > 0 || o.Marks || o.SlugLine) {
 		d.errorf(n, "%s: bleed, marks and slug-line are for print outputs", path)

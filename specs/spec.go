@@ -266,6 +266,12 @@ type Output struct {
 	Flow       Flow // screen: pages, scroll or scroll-groups
 	PanelFiles bool // screen: one SVG per term as well
 	Spreads    bool // screen pages: two facing pages side by side
+
+	// KeyEvery repeats the colour key down a scrolling page (screen,
+	// scroll flows), so a reader deep in it need not scroll back to decode
+	// colour: a key band goes before the first row that starts more than
+	// this far below the previous key. 0: the key at the top only.
+	KeyEvery Length
 }
 
 // Margins are the four margins of a page. On facing pages Inside is the
