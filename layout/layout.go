@@ -66,16 +66,36 @@ type Page struct {
 	Live  Rect `json:"live"`
 
 	Header   Rect `json:"header,omitzero"` // title and dek, or the running head
-	Key      Rect `json:"key"`             // colour-key band
+	Key      Rect `json:"key"`             // colour-key band at the top
 	KeyStrip Rect `json:"key_strip"`       // the colour strip itself
 	KeyTicks Rect `json:"key_ticks"`       // year labels under the strip
-	Grid     Rect `json:"grid"`            // the room the panels and group headings share
+	Grid     Rect `json:"grid"`            // the room the panels, group headings and repeated keys share
 	Footer   Rect `json:"footer,omitzero"` // source, notes, folio
 	Slug     Rect `json:"slug,omitzero"`   // slug line, outside the bleed
+
+	// KeyRepeats are the colour-key bands repeated between the rows of a
+	// scrolling page (output key-every), top down, below the top one.
+	KeyRepeats []KeyBand `json:"key_repeats,omitempty"`
 
 	Text     []TextLine `json:"text,omitempty"`
 	Headings []Heading  `json:"headings,omitempty"`
 	Panels   []Panel    `json:"panels"`
+}
+
+// KeyBand is one colour-key band: the band, the colour strip at its top
+// and the year labels under the strip. Each band is drawn alike.
+type KeyBand struct {
+	Key   Rect `json:"key"`
+	Strip Rect `json:"strip"`
+	Ticks Rect `json:"ticks"`
+}
+
+// Keys returns every colour-key band on the page, top down: the one at
+// the top (Key, KeyStrip, KeyTicks) and the repeats.
+func (pg *Page) Keys() []KeyBand {
+	ks := make([]KeyBand, 0, 1+len(pg.KeyRepeats))
+	ks = append(ks, KeyBand{Key: pg.Key, Strip: pg.KeyStrip, Ticks: pg.KeyTicks})
+	return append(ks, pg.KeyRepeats...)
 }
 
 // TextRole says what a line of text is.

@@ -693,3 +693,150 @@ func TestScrollGroups(t *testing.T) {
 		t.Error("scroll-groups with one group differs from scroll")
 	}
 }
+
+// TestKeyRepeats: down a scrolling page the colour key repeats before the
+// first row whose top is more than key-every below the previous key's
+// top. With one group and ticks on every panel the rows are evenly
+// pitched, so the counts follow by hand: a key's top is kb (band and gap)
+// above the first row after it, and row j after it is kb + j × pitch
+// below, so a key is followed by j* = ⌊(E − kb) ÷ pitch⌋ + 1 rows (at
+// least one) and R rows need ⌈R ÷ j*⌉ − 1 repeats; each adds kb to the
+// page's height (this project's rules, README "Outputs").
+func TestKeyRepeats(t *testing.T) {
+	base := webScroll()
+	base.Columns = 6
+	const items = 6 * 40 // 40 rows
+	lead := base.Type.Leading
+	keyH := 1.6*base.Type.Key.Pt() + base.Type.Key.Pt()*lead
+	kb := keyH + base.Type.Label.Pt()*lead
+	top := solveT(t, testSpec(), base, []Group{{Count: items}})
+	pitch := top.LabelH + top.PlotH + top.TicksH + top.RowGap
+	h0 := top.Pages[0].Trim.H()
+	for _, c := range []struct {
+		name  string
+		every specs.Length
+		flow  specs.Flow
+		want  int // repeats; -1: from the formula
+	}{
+		{"0: top only", 0, specs.FlowScroll, 0},
+		{"longer than the page", pxL(100000), specs.FlowScroll, 0},
+		{"1600px", pxL(1600), specs.FlowScroll, -1},
+		{"800px", pxL(800), specs.FlowScroll, -1},
+		{"3 rows' room", specs.Length(kb + 3*pitch - 0.5), specs.FlowScroll, -1},
+		{"before every row", pxL(10), specs.FlowScroll, 39},
+		{"scroll-groups, one group", pxL(1600), specs.FlowScrollGroups, -1},
+		{"pages: never", pxL(800), specs.FlowPages, 0},
+	} {
+		t.Run(c.name, func(t *testing.T) {
+			out := base
+			out.KeyEvery, out.Flow = c.every, c.flow
+			if c.flow == specs.FlowPages {
+				out.Trim.H = pxL(1600)
+			}
+			p := solveT(t, testSpec(), out, []Group{{Count: items}})
+			want := c.want
+			if want < 0 {
+				per := max(1, int(math.Floor((c.every.Pt()-kb)/pitch))+1)
+				want = (40+per-1)/per - 1
+			}
+			got := 0
+			for _, pg := range p.Pages {
+				got += len(pg.KeyRepeats)
+			}
+			if got != want {
+				t.Fatalf("%d repeated keys, want %d", got, want)
+			}
+			if c.flow == specs.FlowPages {
+				return
+			}
+			pg := p.Pages[0]
+			if d := pg.Trim.H() - h0; math.Abs(d-float64(want)*kb) > 1e-6 {
+				t.Errorf("page grew by %.4f pt, want %d × %.4f", d, want, kb)
+			}
+			// Each repeat is the top key moved down: same strip, same
+			// columns, the same gap above the next row as under the top key.
+			for i, k := range pg.KeyRepeats {
+				dy := pg.Key.Y1 - k.Key.Y1
+				if !near(k.Strip, pg.KeyStrip.Translate(0, -dy)) || !near(k.Ticks, pg.KeyTicks.Translate(0, -dy)) || !near(k.Key, pg.Key.Translate(0, -dy)) {
+					t.Errorf("repeat %d %+v is not the top key %v moved down %.3f pt", i, k, pg.Key, dy)
+				}
+				next := math.Inf(-1)
+				for _, pn := range pg.Panels {
+					if pn.Label.Y1 < k.Key.Y0 {
+						next = max(next, pn.Label.Y1)
+					}
+				}
+				if gap := k.Key.Y0 - next; math.Abs(gap-(kb-keyH)) > 1e-6 {
+					t.Errorf("repeat %d: %.4f pt above the next row, want %.4f", i, gap, kb-keyH)
+				}
+			}
+			if len(p.Warnings) != 0 != (c.name == "before every row") {
+				t.Errorf("warnings %v", p.Warnings)
+			}
+		})
+	}
+}
+
+// TestKeyRepeatsEndBlocks: with ticks on the bottom row only, the rows
+// above a repeated key end their block: they carry their year labels, and
+// the key sits below them, a row gap under the tick area. A heading is
+// never parted from its first row: a key due there goes above it.
+func TestKeyRepeatsEndBlocks(t *testing.T) {
+	out := webScroll()
+	out.Columns = 6
+	out.Ticks = specs.TicksBottomRow
+	out.KeyEvery = pxL(1200)
+	p := solveT(t, testSpec(), out, []Group{{"1880s", 6 * 9}, {"1890s", 6 * 9}, {"1900s", 6 * 9}})
+	pg := p.Pages[0]
+	if len(pg.KeyRepeats) == 0 {
+		t.Fatal("no repeated keys")
+	}
+	overHeading := 0
+	for i, k := range pg.KeyRepeats {
+		above := math.Inf(1) // lowest panel bottom above the key
+		var row []Panel
+		for _, pn := range pg.Panels {
+			if pn.Plot.Y0 > k.Key.Y1 && pn.Plot.Y0 < above {
+				above, row = pn.Plot.Y0, nil
+			}
+			if pn.Plot.Y0 == above {
+				row = append(row, pn)
+			}
+		}
+		for _, pn := range row {
+			if !pn.ShowTicks {
+				t.Errorf("repeat %d: item %d above it has no year labels", i, pn.Item)
+			}
+			if gap := pn.Ticks.Y0 - k.Key.Y1; math.Abs(gap-p.RowGap) > 1e-6 {
+				t.Errorf("repeat %d: %.4f pt under the tick labels above, want the row gap %.4f", i, gap, p.RowGap)
+			}
+		}
+		// Under the key, a gap (a blank label line) down: a heading or a
+		// row's labels.
+		under := k.Key.Y0 - p.LabelH
+		what := ""
+		for _, h := range pg.Headings {
+			if math.Abs(h.Box.Y1-under) < 1e-6 {
+				what = "heading " + h.Text
+				overHeading++
+			}
+		}
+		for _, pn := range pg.Panels {
+			if math.Abs(pn.Label.Y1-under) < 1e-6 {
+				what = "row"
+			}
+		}
+		if what == "" {
+			t.Errorf("repeat %d: neither a heading nor a row a gap under it", i)
+		}
+	}
+	// 9 rows a group at this pitch: the keys fall at group starts too.
+	if overHeading == 0 {
+		t.Error("no repeated key above a heading; the case is not tested")
+	}
+}
+
+// near reports whether two rects agree to 1e-6 pt (rounding only).
+func near(a, b Rect) bool {
+	return math.Abs(a.X0-b.X0) < 1e-6 && math.Abs(a.Y0-b.Y0) < 1e-6 && math.Abs(a.X1-b.X1) < 1e-6 && math.Abs(a.Y1-b.Y1) < 1e-6
+}

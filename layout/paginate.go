@@ -10,6 +10,7 @@ type block struct {
 	group, row0, rows int
 	heading           bool // carries a group heading
 	continued         bool // the group began on an earlier page
+	keyBefore         bool // a repeated key band stands above it (scroll flows)
 }
 
 // pageFill is what one page holds before placement.
@@ -17,6 +18,7 @@ type pageFill struct {
 	blocks []block
 	rows   int
 	heads  int
+	keys   int // repeated key bands
 }
 
 const noLimit = math.MaxInt32
@@ -73,7 +75,7 @@ func (s *solver) fill(rows []int, heads []bool, limit func(int) int) ([]pageFill
 			p := &pages[i]
 			k := s.room(p, i, heads[g], limit(i))
 			if k >= r {
-				p.add(block{g, row0, r, heads[g], cont})
+				p.add(block{group: g, row0: row0, rows: r, heading: heads[g], continued: cont})
 				break
 			}
 			// Whether a group fits is a matter of room, not of the
@@ -88,12 +90,12 @@ func (s *solver) fill(rows []int, heads []bool, limit func(int) int) ([]pageFill
 					continue
 				}
 			} else if s.room(p, i, heads[g], noLimit) >= r {
-				p.add(block{g, row0, r, heads[g], cont})
+				p.add(block{group: g, row0: row0, rows: r, heading: heads[g], continued: cont})
 				break
 			} else if k == 0 {
 				return nil, errNoRoom
 			}
-			p.add(block{g, row0, k, heads[g], cont})
+			p.add(block{group: g, row0: row0, rows: k, heading: heads[g], continued: cont})
 			row0, r, cont = row0+k, r-k, true
 			pages = append(pages, pageFill{})
 		}
@@ -107,6 +109,56 @@ func (p *pageFill) add(b block) {
 	if b.heading {
 		p.heads++
 	}
+	if b.keyBefore {
+		p.keys++
+	}
+}
+
+// repeatKeys puts a key band before the first row of a scrolling page
+// that would start more than keyEvery below the top of the key before it.
+// The key splits the row's block there, so the rows above it end as a
+// page's do, with their year labels; a heading stays with its first row,
+// the key going above the heading. A key never stands before a page's
+// first row, nor straight under another key, so every key is followed by
+// a row: with keyEvery shorter than a key and a row there is a key before
+// every row (solve warns).
+//
+// Distances are measured down from the grid's top as placePage sets
+// them; the decision uses the row's place before the split adds the tick
+// area, so that successive keys are at most keyEvery plus one row (with
+// its tick labels and the gap under it) apart.
+func (s *solver) repeatKeys(f pageFill) pageFill {
+	kb := s.keyBandH()
+	keyTop := -kb
+	y, since := 0.0, 0 // top of the next row (or its heading); rows since the last key
+	out := pageFill{blocks: make([]block, 0, len(f.blocks))}
+	for _, b := range f.blocks {
+		cur := b
+		cur.rows = 0
+		for r := range b.rows {
+			head := 0.0
+			if r == 0 && b.heading {
+				head = s.hh
+			}
+			if since > 0 && y+head-keyTop > s.keyEvery+eps {
+				if r > 0 {
+					out.add(cur)
+					y += s.tb
+					cur = block{group: b.group, row0: b.row0 + r, continued: true}
+				}
+				cur.keyBefore = true
+				keyTop = y
+				y += kb
+				since = 0
+			}
+			y += head + s.rowH + s.rowGap
+			cur.rows++
+			since++
+		}
+		out.add(cur)
+		y += s.tb
+	}
+	return out
 }
 
 // paginate cuts the groups into pages, balancing them when asked. It

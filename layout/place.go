@@ -62,7 +62,7 @@ func (s *solver) place(groups []Group, fills []pageFill, balanced bool) *Plan {
 	for i, f := range fills {
 		trimH[i] = s.trimH
 		if s.scroll {
-			trimH[i] = s.top + s.bandsH(i == 0) + s.need(f.rows, f.heads, len(f.blocks)) + s.bottom
+			trimH[i] = s.top + s.bandsH(i == 0) + s.need(f.rows, f.heads, len(f.blocks)) + float64(f.keys)*s.keyBandH() + s.bottom
 		}
 	}
 
@@ -135,12 +135,8 @@ func (s *solver) placePage(pg *Page, i int, trimH float64, f pageFill, extra flo
 		y = s.lines(pg, RoleRunning, fonts.Regular, s.heading, s.runLines, y, o.Facing && pg.Right) // on the outside
 		y -= s.gap
 	}
-	pg.Key = Rect{x0, y - s.keyH, x1, y}
-	half := (s.n+1)/2 - 1 // the strip spans the first half of the columns
-	sx0, sx1 := s.colX(live, 0), s.colX(live, half)+s.colW
-	strip := keyStripFactor * s.key
-	pg.KeyStrip = Rect{sx0, y - strip, sx1, y}
-	pg.KeyTicks = Rect{sx0, y - s.keyH, sx1, y - strip}
+	k0 := s.keyBand(live, y)
+	pg.Key, pg.KeyStrip, pg.KeyTicks = k0.Key, k0.Strip, k0.Ticks
 	gridTop := y - s.keyH - s.gap
 
 	fh := s.footerHn
@@ -179,15 +175,28 @@ func (s *solver) placePage(pg *Page, i int, trimH float64, f pageFill, extra flo
 	// Baselines sit a fixed distance below their line box's top.
 	labelBase := s.fs.Baseline(fonts.Regular, s.label, s.lead, 0)
 	headBase := s.fs.Baseline(fonts.Bold, s.heading, s.lead, 0)
-	k, heads, ended := 0, 0, 0
+	kb := s.keyBandH()
+	k, heads, ended, keys := 0, 0, 0, 0
+	// below is how far row k's top (with heads headings, ended blocks
+	// and keys repeated keys above it) is below the grid's top.
+	below := func() float64 {
+		return float64(k)*pitch + float64(heads)*s.hh + float64(ended)*s.tb + float64(keys)*kb
+	}
+	if f.keys > 0 {
+		pg.KeyRepeats = make([]KeyBand, 0, f.keys)
+	}
 	for _, b := range f.blocks {
+		if b.keyBefore {
+			pg.KeyRepeats = append(pg.KeyRepeats, s.keyBand(live, gridTop-below()))
+			keys++
+		}
 		if b.heading {
 			heads++
 		}
 		gStart, gEnd := start[b.group], start[b.group+1]
 		bEnd := min(gEnd, gStart+(b.row0+b.rows)*s.n)
 		if b.heading {
-			top := gridTop - (float64(k)*pitch + float64(heads)*s.hh + float64(ended)*s.tb)
+			top := gridTop - below()
 			text := groups[b.group].Heading
 			if b.continued {
 				text += " (continued)"
@@ -199,7 +208,7 @@ func (s *solver) placePage(pg *Page, i int, trimH float64, f pageFill, extra flo
 			})
 		}
 		for r := 0; r < b.rows; r++ {
-			top := gridTop - (float64(k)*pitch + float64(heads)*s.hh + float64(ended)*s.tb)
+			top := gridTop - below()
 			item0 := gStart + (b.row0+r)*s.n
 			for c := 0; c < s.n && item0+c < bEnd; c++ {
 				item := item0 + c
@@ -224,6 +233,19 @@ func (s *solver) placePage(pg *Page, i int, trimH float64, f pageFill, extra flo
 	// Full slice expression: an append to one page's panels must not
 	// write over the next page's in the shared array.
 	pg.Panels = pg.Panels[:len(pg.Panels):len(pg.Panels)]
+}
+
+// keyBand is a colour-key band whose top is at y: the strip spans the
+// first half of the columns, so it lines up with the grid below.
+func (s *solver) keyBand(live Rect, y float64) KeyBand {
+	half := (s.n+1)/2 - 1
+	sx0, sx1 := s.colX(live, 0), s.colX(live, half)+s.colW
+	strip := keyStripFactor * s.key
+	return KeyBand{
+		Key:   Rect{live.X0, y - s.keyH, live.X1, y},
+		Strip: Rect{sx0, y - strip, sx1, y},
+		Ticks: Rect{sx0, y - s.keyH, sx1, y - strip},
+	}
 }
 
 // colX is the left edge of column c, from its index so that every gutter

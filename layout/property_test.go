@@ -50,6 +50,10 @@ func randomOutput(r *rand.Rand) specs.Output {
 	}
 	o.Slack = []specs.Slack{specs.SlackSpread, specs.SlackGrow}[r.IntN(2)]
 	o.Ticks = []specs.TickPlacement{specs.TicksBottomRow, specs.TicksEveryPanel}[r.IntN(2)]
+	if o.Flow.Scrolls() && r.IntN(4) > 0 {
+		// From a key before every row to one every few screens.
+		o.KeyEvery = pxL(uni(50, 3000))
+	}
 	return o
 }
 
@@ -106,6 +110,39 @@ func TestPropertiesRandomSpecs(t *testing.T) {
 	}
 }
 
+// TestPropertiesKeyRepeats draws scrolling screen outputs only, most with
+// key-every, grouped and not, and checks every plan as above — in
+// particular checkKeyRepeats and that repeated keys overlap no panel or
+// heading.
+func TestPropertiesKeyRepeats(t *testing.T) {
+	r := rand.New(rand.NewPCG(20250207, 8))
+	fs := fontSet(t)
+	spec := testSpec()
+	plans, repeats := 0, 0
+	for trial := 0; plans < 300 && trial < 3000; trial++ {
+		out := randomOutput(r)
+		if !out.Flow.Scrolls() {
+			continue
+		}
+		groups := randomGroups(r)
+		p, err := Solve(spec, &out, fs, groups)
+		if err != nil {
+			continue // remedies are TestPropertiesRandomSpecs's business
+		}
+		plans++
+		if msg := checkPlan(p, &out, groups); msg != "" {
+			t.Fatalf("trial %d (%s, key-every %.1f px, %d columns, groups %v): %s", trial, out.Flow, out.KeyEvery.Px(), p.Columns, groups, msg)
+		}
+		for _, pg := range p.Pages {
+			repeats += len(pg.KeyRepeats)
+		}
+	}
+	t.Logf("%d scrolling plans, %d repeated keys", plans, repeats)
+	if plans < 300 || repeats < 300 {
+		t.Errorf("%d plans with %d repeated keys: the generator tests too little", plans, repeats)
+	}
+}
+
 // checkPlan tests the invariants every plan must keep. It recomputes what
 // it can from the output rather than reading the solver's state.
 func checkPlan(p *Plan, out *specs.Output, groups []Group) string {
@@ -158,6 +195,20 @@ func checkPlan(p *Plan, out *specs.Output, groups []Group) string {
 				return fmt.Sprintf("page %d heading %q outside grid", pg.Number, h.Text)
 			}
 			boxes = append(boxes, h.Box)
+		}
+		for i, kb := range pg.Keys() {
+			if !kb.Key.Contains(kb.Strip) || !kb.Key.Contains(kb.Ticks) || kb.Strip.Y0 != kb.Ticks.Y1 || kb.Key.W() != pg.Live.W() {
+				return fmt.Sprintf("page %d key band %d: strip %v and ticks %v not in band %v across the live area", pg.Number, i, kb.Strip, kb.Ticks, kb.Key)
+			}
+			if i > 0 {
+				if !pg.Grid.Contains(kb.Key) {
+					return fmt.Sprintf("page %d repeated key %v outside the grid %v", pg.Number, kb.Key, pg.Grid)
+				}
+				boxes = append(boxes, kb.Key)
+			}
+		}
+		if len(pg.KeyRepeats) > 0 && (!p.isScroll() || out.KeyEvery == 0) {
+			return fmt.Sprintf("page %d: %d repeated keys on a %s %s output with key-every %g pt", pg.Number, len(pg.KeyRepeats), out.Kind, p.Flow, out.KeyEvery)
 		}
 		rowGroup := map[int]int{}
 		rowsOnPage := map[int]bool{}
@@ -284,7 +335,7 @@ func checkPlan(p *Plan, out *specs.Output, groups []Group) string {
 		return fmt.Sprintf("%d of %d items placed", next, len(groupOf))
 	}
 	if p.isScroll() {
-		if msg := checkScroll(p, groups); msg != "" {
+		if msg := checkScroll(p, out, groups); msg != "" {
 			return msg
 		}
 	}
@@ -358,13 +409,16 @@ func (p *Plan) isScroll() bool { return p.Flow.Scrolls() }
 // that group, the first page with the full header and the rest with the
 // running head, every page with the colour key and the first page's
 // source line.
-func checkScroll(p *Plan, groups []Group) string {
+func checkScroll(p *Plan, out *specs.Output, groups []Group) string {
 	for _, pg := range p.Pages {
 		if pg.Trim.W() != p.Pages[0].Trim.W() {
 			return fmt.Sprintf("page %d is %.3f pt wide, page 1 %.3f pt", pg.Number, pg.Trim.W(), p.Pages[0].Trim.W())
 		}
 		if pg.Key.IsZero() || pg.KeyStrip.IsZero() {
 			return fmt.Sprintf("page %d has no colour key", pg.Number)
+		}
+		if msg := checkKeyRepeats(p, out, pg); msg != "" {
+			return msg
 		}
 		if len(pg.Panels) == 0 {
 			continue
@@ -421,6 +475,65 @@ func checkScroll(p *Plan, groups []Group) string {
 		}
 		if !r[RoleRunning] || r[RoleTitle] || r[RoleDek] || r[RoleNote] || r[RoleFolio] || r[RoleSource] != r0[RoleSource] {
 			return fmt.Sprintf("page %d text roles %v: want the running head and, as page 1 has one, the source line", pg.Number, r)
+		}
+	}
+	return ""
+}
+
+// checkKeyRepeats tests the keys repeated down a scrolling page
+// (key-every): every key band is as tall as the top one; a heading sits
+// right on its group's first row, so no key comes between them; the tops
+// of successive keys, and of the last key and the last row, are no more
+// than key-every plus one row pitch (the row with its tick labels and the
+// gap under it) apart. When key-every is shorter than a key band and a
+// heading, a key stands before every row and the bound is that room
+// instead of key-every. Heights are recomputed from the output.
+func checkKeyRepeats(p *Plan, out *specs.Output, pg Page) string {
+	lead := out.Type.Leading
+	keyH := 1.6*out.Type.Key.Pt() + out.Type.Key.Pt()*lead
+	kb := keyH + out.Type.Label.Pt()*lead // band and the gap under it
+	hh := out.Type.Heading.Pt() * lead
+	pitch := p.LabelH + p.PlotH + p.TicksH + p.RowGap
+	keys := pg.Keys()
+	for i, k := range keys {
+		if math.Abs(k.Key.H()-keyH) > 1e-9 {
+			return fmt.Sprintf("page %d key %d is %.4f pt tall, want %.4f", pg.Number, i, k.Key.H(), keyH)
+		}
+		if i > 0 && k.Key.Y1 >= keys[i-1].Key.Y0 {
+			return fmt.Sprintf("page %d keys %d and %d out of order", pg.Number, i-1, i)
+		}
+	}
+	for _, h := range pg.Headings {
+		for _, pn := range pg.Panels {
+			if pn.Group == h.Group {
+				if math.Abs(h.Box.Y0-pn.Label.Y1) > 1e-6 {
+					return fmt.Sprintf("page %d: heading %q %.4f pt above its first row", pg.Number, h.Text, h.Box.Y0-pn.Label.Y1)
+				}
+				break
+			}
+		}
+	}
+	if len(pg.Panels) == 0 {
+		return ""
+	}
+	every := out.KeyEvery.Pt()
+	if every == 0 {
+		every = math.Inf(1)
+	}
+	bound := max(every, kb+hh) + pitch + 1e-6
+	tops := make([]float64, 0, len(keys)+1)
+	for _, k := range keys {
+		tops = append(tops, k.Key.Y1)
+	}
+	tops = append(tops, pg.Panels[len(pg.Panels)-1].Label.Y1)
+	for i := 1; i < len(tops); i++ {
+		if d := tops[i-1] - tops[i]; d > bound {
+			what := fmt.Sprintf("keys %d and %d", i-1, i)
+			if i == len(tops)-1 {
+				what = fmt.Sprintf("key %d and the last row", i-1)
+			}
+			return fmt.Sprintf("page %d: %s are %.3f pt apart; key-every %.3f pt and a row pitch %.3f pt allow %.3f",
+				pg.Number, what, d, out.KeyEvery.Pt(), pitch, bound)
 		}
 	}
 	return ""

@@ -104,7 +104,8 @@ type solver struct {
 	every                bool
 	floorW, floorH       float64
 	markOff, markLen     float64
-	headings             bool // some group has a heading
+	headings             bool    // some group has a heading
+	keyEvery             float64 // repeat the key this far down a scrolling page; 0: never
 	warnings             []Warning
 }
 
@@ -147,6 +148,12 @@ func solve(spec *specs.Spec, out *specs.Output, fs *fonts.Set, groups []Group, p
 	if err != nil {
 		return nil, err
 	}
+	if s.keyEvery > 0 {
+		s.warnKeyEvery()
+		for i := range pages {
+			pages[i] = s.repeatKeys(pages[i])
+		}
+	}
 	return s.place(groups, pages, balanced), nil
 }
 
@@ -179,7 +186,7 @@ func (s *solver) readOutput() error {
 	}{{"bleed", s.bleed}, {"slug", s.slug}, {"margins", s.top}, {"margins", s.bottom},
 		{"margins", s.inner}, {"margins", s.outer}, {"gutter", o.Gutter.Pt()}, {"row-gap", o.RowGap.Pt()},
 		{"panel.height", o.PanelHeight.Pt()}, {"min-panel-width", o.MinPanelWidth.Pt()},
-		{"panel.aspect", o.PanelAspect}} {
+		{"panel.aspect", o.PanelAspect}, {"key-every", o.KeyEvery.Pt()}} {
 		if l.v < 0 || math.IsNaN(l.v) || math.IsInf(l.v, 0) {
 			return s.errorf(l.key, "%s must be a finite length of 0 or more", l.key)
 		}
@@ -220,6 +227,9 @@ func (s *solver) readOutput() error {
 	s.gap = s.la // bands are a blank label line apart
 	s.hh = s.heading * s.lead
 	s.every = o.Ticks == specs.TicksEveryPanel
+	if s.scroll {
+		s.keyEvery = o.KeyEvery.Pt() // pages carry their own key
+	}
 
 	s.floorW = o.FloorWidth.Pt()
 	if s.floorW <= 0 {
@@ -373,6 +383,18 @@ func (s *solver) bands() error {
 	s.gridH1 = s.liveH - s.bandsH(true)
 	s.gridHn = s.liveH - s.bandsH(false)
 	return nil
+}
+
+// keyBandH is the height a key band takes with the gap under it.
+func (s *solver) keyBandH() float64 { return s.keyH + s.gap }
+
+// warnKeyEvery warns when key-every is shorter than a key band and a row:
+// then a key stands before every row, which is rarely what was meant.
+func (s *solver) warnKeyEvery() {
+	if least := s.keyBandH() + s.rowH + s.tb + s.rowGap; s.keyEvery < least-eps {
+		s.warn("key-every", "key-every of %s is less than a key band and a row of panels (%s): a key stands above every row; use 0 for a key at the top only, or %s or more",
+			s.u.len(s.keyEvery), s.u.len(least), s.u.len(s.u.up(least)))
+	}
 }
 
 // bandsH is the height the bands take from the live area of the first or a
