@@ -10,11 +10,12 @@ import (
 	"sheaf/specs"
 )
 
-// key draws the colour key on every page: the era palette as a strip
-// with year labels, so a reader never has to turn back to decode colour,
-// and a note on what the panels' heights mean.
-func (f *Feature) key(p pen, pg *layout.Page) {
-	r, strip, ticks := pg.Key, pg.KeyStrip, pg.KeyTicks
+// key draws one colour-key band: the era palette as a strip with year
+// labels, so a reader never has to turn back to decode colour, and a note
+// on what the panels' heights mean. Every page has one at its top; a
+// scrolling page repeats it down the page (layout's KeyRepeats).
+func (f *Feature) key(p pen, k layout.KeyBand) {
+	r, strip, ticks := k.Key, k.Strip, k.Ticks
 	if r.H() <= 0 || strip.W() <= 0 {
 		return
 	}

@@ -98,7 +98,9 @@ func (f *Feature) Draw(ctx *canvas.Context, i int) error {
 	pg := &f.Plan.Pages[i]
 	f.paper(p, pg)
 	f.placed(p, pg)
-	f.key(p, pg)
+	for _, k := range pg.Keys() {
+		f.key(p, k)
+	}
 	for _, h := range pg.Headings {
 		f.heading(p, h)
 	}

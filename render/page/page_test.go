@@ -2,6 +2,7 @@ package page
 
 import (
 	"bytes"
+	"fmt"
 	"image"
 	"image/color"
 	"math"
@@ -421,18 +422,48 @@ func TestBadPageIndex(t *testing.T) {
 // the strip's left end has the palette's first colour and its right end
 // the last, within ΔE00 2 (CIEDE2000, Sharma, Wu & Dalal 2005; 2 is about
 // one just-noticeable difference, CSS Color 4 §"color-difference"), colours
-// read as sRGB (IEC 61966-2-1) and converted to CIELAB.
+// read as sRGB (IEC 61966-2-1) and converted to CIELAB. On a scrolling
+// screen page every repeated key is checked the same way.
 func TestKeyStripCoversPalette(t *testing.T) {
 	const dpi = 200
-	f := smallFeature(t, nil)
-	pg := f.Plan.Pages[0]
-	strip := pg.KeyStrip
-	if strip.W() <= 0 {
-		t.Fatal("the small feature has no key strip")
+	for _, c := range []struct {
+		name string
+		edit func(s *specs.Spec, out *specs.Output)
+		keys int // key bands on page 1
+	}{
+		{"print page", nil, 1},
+		// Three terms in one column, a key before every row: the top
+		// key and two repeats.
+		{"scrolling page, repeated", func(s *specs.Spec, out *specs.Output) {
+			*out = specs.DefaultOutput("web", specs.Screen)
+			out.Trim.W = 400 * specs.PtPerPx
+			out.Columns = 1
+			out.KeyEvery = 10 * specs.PtPerPx
+		}, 3},
+	} {
+		t.Run(c.name, func(t *testing.T) {
+			f := smallFeature(t, c.edit)
+			pg := f.Plan.Pages[0]
+			keys := pg.Keys()
+			if len(keys) != c.keys {
+				t.Fatalf("%d key bands, want %d", len(keys), c.keys)
+			}
+			img := proof(t, f, 0, dpi)
+			for i, k := range keys {
+				checkStrip(t, f, img, pg.Media.H(), dpi, k.Strip, fmt.Sprintf("key %d", i))
+			}
+		})
 	}
-	img := proof(t, f, 0, dpi)
+}
+
+// checkStrip samples a key strip's two ends on a whole-page proof.
+func checkStrip(t *testing.T, f *Feature, img *image.RGBA, pageH, dpi float64, strip layout.Rect, what string) {
+	t.Helper()
+	if strip.W() <= 0 {
+		t.Fatalf("%s: no key strip", what)
+	}
 	k := dpi / 72.0
-	row := int((pg.Media.H() - (strip.Y0+strip.Y1)/2) * k)
+	row := int((pageH - (strip.Y0+strip.Y1)/2) * k)
 	right := int(strip.X1*k) - 3 // three pixels in from the strip's right end
 	// Walk left along the strip to the paper between it and its caption.
 	left := right
@@ -440,7 +471,7 @@ func TestKeyStripCoversPalette(t *testing.T) {
 		left--
 	}
 	if float64(right-left) < strip.W()*k/3 {
-		t.Fatalf("strip found from pixel %d to %d, under a third of the key band %.0f px", left, right, strip.W()*k)
+		t.Fatalf("%s: strip found from pixel %d to %d, under a third of the key band %.0f px", what, left, right, strip.W()*k)
 	}
 	left += 3
 	from, to := float64(f.Data.Span.From), float64(f.Data.Span.To)
@@ -458,17 +489,16 @@ func TestKeyStripCoversPalette(t *testing.T) {
 	} {
 		got := pxAt(c.x)
 		if d := palette.DeltaE00(got.Lab(), c.want.Lab()); d > 2 {
-			t.Errorf("%s: pixel %d is %s, palette %s: ΔE00 %.2f > 2", c.name, c.x, got.Hex(), c.want.Hex(), d)
+			t.Errorf("%s: %s: pixel %d is %s, palette %s: ΔE00 %.2f > 2", what, c.name, c.x, got.Hex(), c.want.Hex(), d)
 		}
 	}
 	// And the two ends differ as the palette's ends do: the strip is not
 	// one colour.
 	if d := palette.DeltaE00(pxAt(left).Lab(), pxAt(right).Lab()); d < 20 {
-		t.Errorf("the strip's ends differ by ΔE00 %.1f only", d)
+		t.Errorf("%s: the strip's ends differ by ΔE00 %.1f only", what, d)
 	}
 }
 
-// TestDescribe checks the accessible title and description of a panel.
 func TestDescribe(t *testing.T) {
 	f := smallFeature(t, nil)
 	for i, sr := range f.Data.Series {
