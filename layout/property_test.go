@@ -603,3 +603,20 @@ func BenchmarkSolve10kScrollGroups(b *testing.B) {
 		}
 	}
 }
+
+// BenchmarkSolve10kKeyRepeats: 10,000 panels on a 1200 px scrolling page
+// with the key repeated every 1600 px (138 repeats) and ticks on the
+// bottom row, so each repeat also ends a block.
+func BenchmarkSolve10kKeyRepeats(b *testing.B) {
+	fs := fontSet(b)
+	spec := testSpec()
+	out := webScroll()
+	out.KeyEvery = pxL(1600)
+	out.Ticks = specs.TicksBottomRow
+	groups := []Group{{Count: 10000}}
+	for b.Loop() {
+		if _, err := Solve(spec, &out, fs, groups); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
