@@ -13,6 +13,7 @@ import (
 	"sort"
 	"strconv"
 	"strings"
+	"time"
 
 	"gopkg.in/yaml.v3"
 )
@@ -404,6 +405,10 @@ func (d *decoder) length(dst *Length, allowZero bool) func(*yaml.Node, string) {
 			d.errorf(n, "%s: %v", path, err)
 			return
 		}
+		if l > maxLength {
+			d.errorf(n, "%s: %s is larger than the largest PDF page (14400 pt, 200 in; ISO 32000-1 Annex C.2)", path, n.Value)
+			return
+		}
 		if l < 0 || l == 0 && !allowZero {
 			if allowZero {
 				d.errorf(n, "%s must not be negative, not %s", path, n.Value)
@@ -415,6 +420,10 @@ func (d *decoder) length(dst *Length, allowZero bool) func(*yaml.Node, string) {
 		*dst = l
 	}
 }
+
+// maxLength bounds every length in a spec: nothing on a page can be
+// larger than the page, and PDF pages stop at 14 400 pt.
+const maxLength = 14400
 
 func (d *decoder) choice(dst *string, options ...string) func(*yaml.Node, string) {
 	return func(n *yaml.Node, path string) {
@@ -472,8 +481,14 @@ func (d *decoder) spec(n *yaml.Node, s *Spec) {
 		{"notes", d.strings(&s.Notes)},
 		{"date", func(n *yaml.Node, path string) {
 			d.str(&s.Date)(n, path)
-			if s.Date != "" && !regexp.MustCompile(`^\d{4}-\d{2}-\d{2}$`).MatchString(s.Date) {
-				d.errorf(n, "date must be written YYYY-MM-DD, not %q", s.Date)
+			if s.Date == "" {
+				return
+			}
+			v := d.resolve(n)
+			if !regexp.MustCompile(`^\d{4}-\d{2}-\d{2}$`).MatchString(s.Date) {
+				d.errorf(v, "date must be written YYYY-MM-DD, not %q", s.Date)
+			} else if _, err := time.Parse("2006-01-02", s.Date); err != nil {
+				d.errorf(v, "date %q is not a day of the calendar", s.Date)
 			}
 		}},
 		{"data", func(n *yaml.Node, path string) {

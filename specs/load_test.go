@@ -99,6 +99,8 @@ func TestParseErrors(t *testing.T) {
 		{"lab out of range", printOut + "palette: {paper: 'lab(120 0 0)'}\n", "7:18", "L* must be between 0 and 100"},
 		{"one anchor", printOut + "palette:\n  anchors:\n    - {year: 1900, color: '#000000'}\n", "9:5", "give at least two anchors"},
 		{"date format", printOut + "date: 1.2.2024\n", "7:7", `date must be written YYYY-MM-DD, not "1.2.2024"`},
+		{"date not in the calendar", printOut + "date: 2025-02-30\n", "7:7", `date "2025-02-30" is not a day of the calendar`},
+		{"length past any page", printOut + "    line: 1e308pt\n", "7:11", "outputs.print.line: 1e308pt is larger than the largest PDF page (14400 pt"},
 		{"insert output", printOut + "inserts:\n  fig1: {output: prnt, size: 80mm x 50mm, terms: [a]}\n", "8:10", `inserts.fig1.output: no output named "prnt"; did you mean "print"?`},
 		{"insert too many terms", printOut + "inserts:\n  fig1: {output: print, size: 80mm x 50mm, terms: [a, b, c, d, e]}\n", "8:44", "inserts.fig1.terms: an insert shows 1 to 4 terms, not 5"},
 		{"self alias", "title: T\nnotes: &n [a, *n]\n", "2:15", "a YAML alias refers to a value that contains it"},

@@ -285,7 +285,7 @@ func (r *changeReport) text(b *strings.Builder, short bool) {
 			case s.Whole != "":
 				fmt.Fprintf(b, "%s: %s, %s\n", s.Output, plural(s.Pages, "page"), s.Whole)
 			default:
-				fmt.Fprintf(b, "%s: %d pages, %d encoded, %d reused", s.Output, s.Pages, s.Encoded, s.Reused)
+				fmt.Fprintf(b, "%s: %s, %d encoded, %d reused", s.Output, plural(s.Pages, "page"), s.Encoded, s.Reused)
 				if s.ProofsDrawn+s.ProofsReused > 0 {
 					fmt.Fprintf(b, "; proofs %d drawn, %d kept", s.ProofsDrawn, s.ProofsReused)
 				}

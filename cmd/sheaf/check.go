@@ -85,6 +85,11 @@ func runCheck(args []string, stdout, stderr io.Writer) int {
 		fmt.Fprintln(stderr, err)
 		return exitBadInput
 	}
+	// The date build will write: a bad SOURCE_DATE_EPOCH is bad input here too.
+	if _, err := documentDate(job.spec); err != nil {
+		fmt.Fprintln(stderr, err)
+		return exitBadInput
+	}
 	code = exitOK
 	if preflight.Errs(rep.Preflight) || (*strict || job.spec.Preflight.Strict) && preflight.Stops(rep.Preflight) {
 		code = exitFindings
@@ -151,7 +156,7 @@ func summarize(j *job) (checkReport, error) {
 			TrimPt: [2]float64{o.Trim.W.Pt(), o.Trim.H.Pt()}, Bleed: o.Bleed.Pt(),
 			Summary: p.plan.Summary(), Pages: len(p.plan.Pages), Layout: p.plan}
 		for _, l := range p.feat.Labels() {
-			if l.Shrunk || l.Truncated {
+			if l.Shrunk || l.Truncated || l.NoPeak {
 				or.Labels = append(or.Labels, l)
 			}
 		}

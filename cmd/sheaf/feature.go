@@ -29,7 +29,7 @@ func scaleFor(s *specs.Spec, span specs.Span) (palette.Scale, error) {
 	anchors := palette.DefaultAnchors(from, to)
 	name := palette.DefaultName
 	if len(s.Palette.Anchors) > 0 {
-		name = "spec"
+		name = "custom"
 		anchors = anchors[:0:0]
 		for _, a := range s.Palette.Anchors {
 			anchors = append(anchors, palette.Anchor{Year: a.Year, Color: page.ColorOf(a.Color)})

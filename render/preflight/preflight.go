@@ -77,6 +77,7 @@ const (
 	IDSpike       = "spike"          // one year far above the term's others
 	IDGamut       = "palette-gamut"  // palette colours outside sRGB
 	IDPalette     = "palette"        // the palette check's verdict and findings
+	IDPaperTint   = "paper-tint"     // a non-white paper colour printed over the whole page
 )
 
 // Finding is one result.
@@ -142,6 +143,7 @@ func Check(in Input) ([]Finding, error) {
 	c.glyphs()
 	c.panels()
 	c.palette()
+	c.paperTint()
 	sort.SliceStable(c.found, func(i, j int) bool {
 		a, b := c.found[i], c.found[j]
 		if a.Severity != b.Severity {
@@ -158,8 +160,19 @@ func Check(in Input) ([]Finding, error) {
 	return c.found, nil
 }
 
-// Stops reports whether findings stop a strict build: any at Warning or
-// above.
+// paperTint warns that a print output's paper colour is not paper: sheaf
+// paints it over the whole bleed box, so the press lays a tint of ink over
+// every page (common practice: ask for the stock's colour instead, or
+// check the tint on a proof).
+func (c *checker) paperTint() {
+	p := c.in.Spec.Palette.Paper
+	if c.in.Output.Kind != specs.Print || p.Space == specs.SpaceSRGB && p.V == [3]float64{1, 1, 1} {
+		return
+	}
+	c.add(Finding{ID: IDPaperTint, Severity: Warning, At: c.in.Spec.Where("palette.paper").String(),
+		Message: fmt.Sprintf("paper %s is printed as a tint of ink over every page, bleed included; if the stock has that colour, set paper to #ffffff for print, or check the tint on a press proof", p.Text)})
+}
+
 // Errs reports whether any finding is an error: something that will print
 // wrongly (a missing glyph), not just a risk.
 func Errs(fs []Finding) bool {
@@ -171,6 +184,8 @@ func Errs(fs []Finding) bool {
 	return false
 }
 
+// Stops reports whether findings stop a strict build: any at Warning or
+// above.
 func Stops(fs []Finding) bool {
 	for _, f := range fs {
 		if f.Severity >= Warning {

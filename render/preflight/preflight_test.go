@@ -392,3 +392,18 @@ func TestErrsAndStops(t *testing.T) {
 		}
 	}
 }
+
+// TestPaperTint: a print output whose paper is not white gets its paper
+// painted over the bleed box, a tint of ink on every page — worth a
+// warning (common practice: a press proof for tints); white paper and
+// screen outputs get none.
+func TestPaperTint(t *testing.T) {
+	got := prepare(t, specText("", "palette: {paper: \"#fbfaf7\"}\n"))
+	f, ok := has(got, IDPaperTint, "", 0)
+	if !ok || f.Severity != Warning || !strings.Contains(f.Message, "#fbfaf7") || f.At == "" {
+		t.Errorf("paper tint finding %v (found %v)", f, ok)
+	}
+	if _, ok := has(prepare(t, specText("", "")), IDPaperTint, "", 0); ok {
+		t.Error("white paper reported as a tint")
+	}
+}

@@ -203,7 +203,7 @@ func openTable(s *specs.Spec, key, name string, want []string, errs *specs.Error
 		c = newRecords(br, ',', false)
 	default:
 		f.Close()
-		errs.Add(s.Where("data."+key), "data.%s: %q must end in .csv or .tsv (that decides the separator)", key, name)
+		errs.Add(s.Where("data."+key), "data.%s: %q must end in .csv or .txt (comma-separated) or .tsv or .tab (tab-separated): the ending decides the separator", key, name)
 		return nil
 	}
 	// Positions name the file as resolved, so that they can be opened
@@ -228,7 +228,13 @@ func openTable(s *specs.Spec, key, name string, want []string, errs *specs.Error
 			return nil
 		}
 		names[i] = string(h)
-		t.cols[strings.ToLower(strings.TrimSpace(names[i]))] = i
+		col := strings.ToLower(strings.TrimSpace(names[i]))
+		if j, dup := t.cols[col]; dup && slices.Contains(want, col) {
+			errs.Add(t.at(i), "column %q appears twice in the header (also column %d); which one holds the data is unclear", names[i], j+1)
+			f.Close()
+			return nil
+		}
+		t.cols[col] = i
 	}
 	var missing []string
 	for _, w := range want {
