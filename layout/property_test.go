@@ -548,13 +548,10 @@ func lowestRowBottom(pg Page) float64 {
 	return low
 }
 
-// BenchmarkSolve10k solves 10,000 panels for three outputs: A4 print,
-// Letter print and a 1200 px scrolling screen.
-func BenchmarkSolve10k(b *testing.B) {
+// benchSolve solves groups for every output once per iteration.
+func benchSolve(b *testing.B, outs []specs.Output, groups []Group) {
 	fs := fontSet(b)
 	spec := testSpec()
-	outs := []specs.Output{a4Print(), letterPrint(), webScroll()}
-	groups := []Group{{Count: 10000}}
 	for b.Loop() {
 		for i := range outs {
 			if _, err := Solve(spec, &outs[i], fs, groups); err != nil {
@@ -562,61 +559,47 @@ func BenchmarkSolve10k(b *testing.B) {
 			}
 		}
 	}
+}
+
+// headedGroups is n groups of count panels, each with a heading.
+func headedGroups(n, count int) []Group {
+	groups := make([]Group, n)
+	for i := range groups {
+		groups[i] = Group{Heading: fmt.Sprintf("Group %d", i+1), Count: count}
+	}
+	return groups
+}
+
+// BenchmarkSolve10k solves 10,000 panels for three outputs: A4 print,
+// Letter print and a 1200 px scrolling screen.
+func BenchmarkSolve10k(b *testing.B) {
+	benchSolve(b, []specs.Output{a4Print(), letterPrint(), webScroll()}, []Group{{Count: 10000}})
 }
 
 // BenchmarkSolve10kGrouped is the same with 50 headed groups of 200, and
 // balanced pages.
 func BenchmarkSolve10kGrouped(b *testing.B) {
-	fs := fontSet(b)
-	spec := testSpec()
 	outs := []specs.Output{a4Print(), letterPrint(), webScroll()}
 	for i := range outs {
 		outs[i].Balance = true
 	}
-	groups := make([]Group, 50)
-	for i := range groups {
-		groups[i] = Group{Heading: fmt.Sprintf("Group %d", i+1), Count: 200}
-	}
-	for b.Loop() {
-		for i := range outs {
-			if _, err := Solve(spec, &outs[i], fs, groups); err != nil {
-				b.Fatal(err)
-			}
-		}
-	}
+	benchSolve(b, outs, headedGroups(50, 200))
 }
 
 // BenchmarkSolve10kScrollGroups: 50 headed groups of 200 on a 1200 px
 // screen output with a page per group.
 func BenchmarkSolve10kScrollGroups(b *testing.B) {
-	fs := fontSet(b)
-	spec := testSpec()
 	out := webScroll()
 	out.Flow = specs.FlowScrollGroups
-	groups := make([]Group, 50)
-	for i := range groups {
-		groups[i] = Group{Heading: fmt.Sprintf("Group %d", i+1), Count: 200}
-	}
-	for b.Loop() {
-		if _, err := Solve(spec, &out, fs, groups); err != nil {
-			b.Fatal(err)
-		}
-	}
+	benchSolve(b, []specs.Output{out}, headedGroups(50, 200))
 }
 
 // BenchmarkSolve10kKeyRepeats: 10,000 panels on a 1200 px scrolling page
 // with the key repeated every 1600 px (138 repeats) and ticks on the
 // bottom row, so each repeat also ends a block.
 func BenchmarkSolve10kKeyRepeats(b *testing.B) {
-	fs := fontSet(b)
-	spec := testSpec()
 	out := webScroll()
 	out.KeyEvery = pxL(1600)
 	out.Ticks = specs.TicksBottomRow
-	groups := []Group{{Count: 10000}}
-	for b.Loop() {
-		if _, err := Solve(spec, &out, fs, groups); err != nil {
-			b.Fatal(err)
-		}
-	}
+	benchSolve(b, []specs.Output{out}, []Group{{Count: 10000}})
 }
