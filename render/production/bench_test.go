@@ -1,6 +1,7 @@
 package production
 
 import (
+	"context"
 	"io"
 	"os"
 	"path/filepath"
@@ -171,7 +172,7 @@ func BenchmarkCatalogScrollSVG(b *testing.B) {
 	for b.Loop() {
 		cw = countingWriter{}
 		pg := p.Plan.Pages[0].Trim
-		if err := drawSVG(&cw, pg, screenSVGOptions(j, p), func(ctx *canvas.Context) error { return p.Feature.Draw(ctx, 0) }); err != nil {
+		if err := drawSVG(context.Background(), &cw, pg, screenSVGOptions(j, p), func(ctx *canvas.Context) error { return p.Feature.Draw(ctx, 0) }); err != nil {
 			b.Fatal(err)
 		}
 	}
@@ -193,7 +194,7 @@ func BenchmarkCatalogPanelFiles(b *testing.B) {
 		for _, pn := range p.Plan.Pages[0].Panels {
 			pn, win := panelWindow(p.Plan, pn)
 			var cw countingWriter
-			if err := drawSVG(&cw, win, screenSVGOptions(j, p), func(ctx *canvas.Context) error { return p.Feature.DrawPanel(ctx, pn) }); err != nil {
+			if err := drawSVG(context.Background(), &cw, win, screenSVGOptions(j, p), func(ctx *canvas.Context) error { return p.Feature.DrawPanel(ctx, pn) }); err != nil {
 				b.Fatal(err)
 			}
 			total += cw.n
@@ -221,7 +222,7 @@ func BenchmarkCatalogPageSVG(b *testing.B) {
 	var cw countingWriter
 	for b.Loop() {
 		cw = countingWriter{}
-		if err := drawSVG(&cw, p.Plan.Pages[i].Trim, screenSVGOptions(j, p), func(ctx *canvas.Context) error { return p.Feature.Draw(ctx, i) }); err != nil {
+		if err := drawSVG(context.Background(), &cw, p.Plan.Pages[i].Trim, screenSVGOptions(j, p), func(ctx *canvas.Context) error { return p.Feature.Draw(ctx, i) }); err != nil {
 			b.Fatal(err)
 		}
 	}

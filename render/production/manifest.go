@@ -1,6 +1,7 @@
 package production
 
 import (
+	"context"
 	"crypto/sha256"
 	"encoding/binary"
 	"encoding/hex"
@@ -13,10 +14,8 @@ import (
 	"math"
 	"os"
 	"path/filepath"
-	"runtime"
 	"sort"
 	"strings"
-	"sync"
 
 	"sheaf/layout/fonts"
 	"sheaf/specs/series"
@@ -270,35 +269,18 @@ func termSumWith(h *hasher, sr *series.Series) string {
 }
 
 // termHashes hashes every term, on all cores: ten thousand terms of two
-// hundred years are megabytes of SHA-256.
-func termHashes(d *series.Set) []TermHash {
+// hundred years are megabytes of SHA-256. Cancelled, it returns what it
+// has (the build is stopping).
+func termHashes(ctx context.Context, d *series.Set) []TermHash {
 	ts := make([]TermHash, len(d.Series))
-	parallel(len(ts), func(lo, hi int) {
-		h := newHasher(termKind)
-		for i := lo; i < hi; i++ {
-			ts[i] = TermHash{Term: d.Series[i].Term, SHA256: termSumWith(h, &d.Series[i])}
-		}
+	each(ctx, len(ts), func(i int) (TermHash, error) {
+		return TermHash{Term: d.Series[i].Term, SHA256: termSum(&d.Series[i])}, nil
+	}, func(i int, t TermHash) error {
+		ts[i] = t
+		return nil
 	})
 	sort.Slice(ts, func(i, j int) bool { return ts[i].Term < ts[j].Term })
 	return ts
-}
-
-// parallel runs f over [0, n) cut into one range per core, and waits.
-func parallel(n int, f func(lo, hi int)) {
-	k := min(runtime.GOMAXPROCS(0), n)
-	if k <= 1 {
-		f(0, n)
-		return
-	}
-	var wg sync.WaitGroup
-	for c := range k {
-		wg.Add(1)
-		go func() {
-			defer wg.Done()
-			f(c*n/k, (c+1)*n/k)
-		}()
-	}
-	wg.Wait()
 }
 
 // fontHashes lists the fonts of an output with the hash of their raw

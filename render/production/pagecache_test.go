@@ -4,11 +4,13 @@ import (
 	"bytes"
 	"encoding/gob"
 	"fmt"
+	"math"
 	"reflect"
 	"strings"
 	"testing"
 	"time"
 
+	"github.com/stretchr/testify/assert"
 	"github.com/tdewolff/canvas"
 
 	"sheaf/layout/fonts"
@@ -72,7 +74,7 @@ func cachePages(t *testing.T) []*pdf.EncodedPage {
 			{Key: pdf.FontKey{7}}},
 		Patterns: []pdf.Shading{
 			{Radial: true, Coords: []float64{1, 2, 0, 3, 4, 5.5}, Stops: []pdf.Stop{{Offset: 0, R: 1}, {Offset: 1, G: 0.5, B: 1}}},
-			{Coords: []float64{0, 0, 100, -0.0}},
+			{Coords: []float64{0, 0, 100, math.Copysign(0, -1)}},
 		},
 		GStates:     []pdf.Alpha{{Fill: 0.5, Stroke: 1}, {}},
 		Transparent: true,
@@ -103,6 +105,9 @@ func TestPageCacheRoundTrip(t *testing.T) {
 		}
 		if !reflect.DeepEqual(got, &viaGob) {
 			t.Errorf("page %d: read back\n%+v\nwant (gob round trip)\n%+v", i, got, &viaGob)
+		}
+		if i == 1 { // DeepEqual takes -0 for 0: the bits must survive (IEEE 754 sign bit)
+			assert.True(t, math.Signbit(got.Patterns[1].Coords[3]), "negative zero read back as +0")
 		}
 		if i == 0 {
 			a, b := pdfOf(t, e), pdfOf(t, got)
