@@ -85,3 +85,16 @@ func TestCtrlCDuringTallPNG(t *testing.T) {
 	assert.NoDirExists(t, out, "a first build interrupted leaves no folder")
 	noStages(t, out)
 }
+
+// TestSchemaCommand: `sheaf schema` prints the schema the repository
+// keeps for editors, and takes no arguments.
+func TestSchemaCommand(t *testing.T) {
+	var o, e bytes.Buffer
+	require.Equal(t, exitOK, run([]string{"schema"}, &o, &e), e.String())
+	file, err := os.ReadFile("../../specs/sheaf.schema.json")
+	require.NoError(t, err)
+	assert.Equal(t, string(file), o.String())
+	o.Reset()
+	assert.Equal(t, exitBadInput, run([]string{"schema", "extra"}, &o, &e))
+	assert.Zero(t, o.Len())
+}
