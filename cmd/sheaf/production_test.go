@@ -18,6 +18,8 @@ import (
 	"testing"
 	"time"
 
+	"github.com/stretchr/testify/require"
+
 	"sheaf/render/feature"
 	"sheaf/render/production"
 	"sheaf/render/tooltest"
@@ -60,22 +62,14 @@ var demoData = sync.OnceValues(func() (map[string][]byte, error) {
 func newJob(t testing.TB, spec string) string {
 	t.Helper()
 	data, err := demoData()
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	dir := t.TempDir()
-	if err := os.MkdirAll(filepath.Join(dir, "data"), 0o755); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, os.MkdirAll(filepath.Join(dir, "data"), 0o755))
 	for name, b := range data {
-		if err := os.WriteFile(filepath.Join(dir, "data", name), b, 0o644); err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, os.WriteFile(filepath.Join(dir, "data", name), b, 0o644))
 	}
 	path := filepath.Join(dir, "spec.yaml")
-	if err := os.WriteFile(path, []byte(spec), 0o644); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, os.WriteFile(path, []byte(spec), 0o644))
 	return path
 }
 
@@ -102,13 +96,9 @@ func loadManifest(t testing.TB, dir string) *production.Manifest {
 func loadChanges(t testing.TB, dir string) production.ChangeReport {
 	t.Helper()
 	b, err := os.ReadFile(filepath.Join(dir, production.ChangesJSON))
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	var r production.ChangeReport
-	if err := json.Unmarshal(b, &r); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, json.Unmarshal(b, &r))
 	return r
 }
 
@@ -119,9 +109,7 @@ func nudgeCount(t testing.TB, spec, term string) int {
 	t.Helper()
 	path := filepath.Join(filepath.Dir(spec), "data", "counts.csv")
 	b, err := os.ReadFile(path)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	re := regexp.MustCompile(fmt.Sprintf(`(?m)^%s,(\d+),(\d+)\r?$`, regexp.QuoteMeta(term)))
 	rows := re.FindAllSubmatchIndex(b, -1)
 	top := 0
@@ -131,9 +119,7 @@ func nudgeCount(t testing.TB, spec, term string) int {
 	for _, r := range rows {
 		if n := atoi(b[r[4]:r[5]]); n > 0 && n < top/2 {
 			out := append(append(append([]byte{}, b[:r[4]]...), fmt.Sprint(n+1)...), b[r[5]:]...)
-			if err := os.WriteFile(path, out, 0o644); err != nil {
-				t.Fatal(err)
-			}
+			require.NoError(t, os.WriteFile(path, out, 0o644))
 			return atoi(b[r[2]:r[3]])
 		}
 	}
@@ -179,9 +165,7 @@ func snapshot(t testing.TB, dir string) map[string][]byte {
 		out[r] = b
 		return nil
 	})
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	return out
 }
 
@@ -450,9 +434,7 @@ func TestStrictPreflight(t *testing.T) {
 		t.Errorf("check --strict exit %d", code)
 	}
 	var rep feature.Report
-	if err := json.Unmarshal(o.Bytes(), &rep); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, json.Unmarshal(o.Bytes(), &rep))
 	ids := map[string]bool{}
 	for _, f := range rep.Preflight {
 		ids[f.ID] = true
@@ -487,9 +469,7 @@ func TestInterrupt(t *testing.T) {
 	cmd := exec.Command(bin, "build", spec, "--out", out, "--full")
 	var stderr bytes.Buffer
 	cmd.Stderr = &stderr
-	if err := cmd.Start(); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, cmd.Start())
 	// Wait until the stage holds a cached page: the build is under way.
 	deadline := time.Now().Add(20 * time.Second)
 	for {
@@ -503,9 +483,7 @@ func TestInterrupt(t *testing.T) {
 		}
 		time.Sleep(5 * time.Millisecond)
 	}
-	if err := cmd.Process.Signal(syscall.SIGINT); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, cmd.Process.Signal(syscall.SIGINT))
 	err := cmd.Wait()
 	var exit *exec.ExitError
 	if !errors.As(err, &exit) || exit.ExitCode() != exitFindings {

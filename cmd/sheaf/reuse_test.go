@@ -10,12 +10,15 @@ import (
 	"io"
 	"os"
 	"path/filepath"
-	"sheaf/render/production"
 	"slices"
 	"strings"
 	"sync"
 	"testing"
 	"time"
+
+	"github.com/stretchr/testify/require"
+
+	"sheaf/render/production"
 )
 
 // reuseOutputs adds a scrolling web output with panel files to jobSpec's
@@ -47,9 +50,7 @@ func countDraws(t *testing.T) *[]string {
 func outsideTerm(t *testing.T, spec string, selected []production.TermHash) string {
 	t.Helper()
 	f, err := os.Open(filepath.Join(filepath.Dir(spec), "data", "counts.csv"))
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	defer f.Close()
 	sel := map[string]bool{}
 	for _, s := range selected {
@@ -116,9 +117,7 @@ func TestWholeOutputReuse(t *testing.T) {
     size: 480px x 300px
     terms: [%q]
 `, t1, t1, t2, t3, u)
-	if err := os.WriteFile(spec, []byte(jobSpec(reuseOutputs)+inserts), 0o644); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, os.WriteFile(spec, []byte(jobSpec(reuseOutputs)+inserts), 0o644))
 	out := filepath.Join(filepath.Dir(spec), "out")
 	draws := countDraws(t)
 	stderrDrawing(t)
@@ -235,9 +234,7 @@ func TestWholeOutputReuse(t *testing.T) {
 	sameTree(t, snapshot(t, clean), snapshot(t, out), skip)
 
 	// A file altered after the build: the output is drawn again.
-	if err := os.WriteFile(filepath.Join(out, "web", "page-001.png"), []byte("edited"), 0o644); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, os.WriteFile(filepath.Join(out, "web", "page-001.png"), []byte("edited"), 0o644))
 	*draws = nil
 	_, stderr = buildInto(t, spec, out)
 	if want := "[web]"; fmt.Sprint(*draws) != want || !strings.Contains(stderr, "web: 1 page, drawn (a file of the last build is missing or altered)") {
@@ -262,9 +259,7 @@ func TestWholeOutputReuse(t *testing.T) {
 func TestOutIsFile(t *testing.T) {
 	spec := newJob(t, jobSpec(""))
 	file := filepath.Join(filepath.Dir(spec), "somefile")
-	if err := os.WriteFile(file, []byte("x"), 0o644); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, os.WriteFile(file, []byte("x"), 0o644))
 	for _, c := range []struct{ out, want string }{
 		{file, fmt.Sprintf("sheaf build: --out %s is a file; give a folder\n", file)},
 		{filepath.Join(file, "sub"), fmt.Sprintf("sheaf build: --out %s: %s is a file; give a folder\n", filepath.Join(file, "sub"), file)},

@@ -19,6 +19,8 @@ import (
 	"strings"
 	"testing"
 
+	"github.com/stretchr/testify/require"
+
 	"sheaf/render/feature"
 	"sheaf/render/tooltest"
 )
@@ -28,9 +30,7 @@ import (
 func screenSpec(t testing.TB, terms int, outputs, inserts string) string {
 	t.Helper()
 	data, err := filepath.Abs("../../examples/quillmere/data")
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	spec := fmt.Sprintf(`title: Screen test
 dek: Invented terms from the demo data, for the screen tests.
 source: "Source: invented demonstration data."
@@ -46,9 +46,7 @@ outputs:
 %s
 %s`, filepath.Join(data, "counts.csv"), filepath.Join(data, "totals.csv"), terms, outputs, inserts)
 	path := filepath.Join(t.TempDir(), "spec.yaml")
-	if err := os.WriteFile(path, []byte(spec), 0o644); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, os.WriteFile(path, []byte(spec), 0o644))
 	return path
 }
 
@@ -67,9 +65,7 @@ func TestReflowColumns(t *testing.T) {
     trim: 1200px
 `, "")
 	j, err := feature.Load(path)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	for _, c := range []struct {
 		name    string
 		columns int
@@ -81,9 +77,7 @@ func TestReflowColumns(t *testing.T) {
 		{"desk", 6, 14},
 	} {
 		p, err := j.Prepare(j.Spec.Output(c.name))
-		if err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, err)
 		if p.Plan.Columns != c.columns {
 			t.Errorf("%s: %d columns, want %d", c.name, p.Plan.Columns, c.columns)
 		}
@@ -172,9 +166,7 @@ func TestScreenBuild(t *testing.T) {
 	svgs = append(svgs, panels...)
 	for _, f := range svgs {
 		b, err := os.ReadFile(f)
-		if err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, err)
 		if err := wellFormed(b); err != nil {
 			t.Errorf("%s: %v", f, err)
 		}

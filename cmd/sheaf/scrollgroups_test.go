@@ -12,6 +12,8 @@ import (
 	"strings"
 	"testing"
 
+	"github.com/stretchr/testify/require"
+
 	"sheaf/render/feature"
 	"sheaf/render/tooltest"
 	"sheaf/specs"
@@ -33,17 +35,11 @@ func TestScreenScrollGroups(t *testing.T) {
     flow: scroll-groups
 `, "")
 	b, err := os.ReadFile(path)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	b = bytes.Replace(b, []byte("order: peak-year\n"), []byte("order: peak-year\ngroup: peak-decade\n"), 1)
-	if err := os.WriteFile(path, b, 0o644); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, os.WriteFile(path, b, 0o644))
 	j, err := feature.Load(path)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	var counts []int // panels of each group that has some, in order
 	var heads []string
 	for _, g := range j.Data.Groups {
@@ -64,9 +60,7 @@ func TestScreenScrollGroups(t *testing.T) {
 	}
 	size := regexp.MustCompile(`^<svg [^>]*width="([\d.]+)" height="([\d.]+)" viewBox="0 0 ([\d.]+) ([\d.]+)"`)
 	index, err := os.ReadFile(filepath.Join(dir, "web", "index.html"))
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	heights := map[string]bool{}
 	for i, f := range svgs {
 		name := fmt.Sprintf("page-%03d", i+1)
@@ -74,9 +68,7 @@ func TestScreenScrollGroups(t *testing.T) {
 			t.Fatalf("page %d is %s", i+1, f)
 		}
 		b, err := os.ReadFile(f)
-		if err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, err)
 		if err := wellFormed(b); err != nil {
 			t.Errorf("%s: %v", name, err)
 		}
