@@ -199,7 +199,7 @@ func (t *Tokenizer) line(b []byte, off int64, lineNo int, first, ends bool, emit
 			b = b[:n-2]
 		}
 	}
-	if !ascii {
+	if !ascii && !norm.NFKC.IsNormal(b) {
 		t.norm = norm.NFKC.Append(t.norm[:0], b...)
 		b = t.norm
 	}
