@@ -68,7 +68,7 @@ func runCount(args []string, stdout, stderr io.Writer) int {
 		return usageErr("--jobs must be at least 1")
 	}
 	if fi, err := os.Stat(*out); err == nil && !fi.IsDir() {
-		return report(stderr, &count.BadInput{Path: *out, Off: -1, Msg: "--out names a file, not a folder"})
+		return report(stderr, specs.BadInput(&count.BadInput{Path: *out, Off: -1, Msg: "--out names a file, not a folder"}))
 	}
 
 	opt := count.Options{Fold: !*keepCase, NGrams: *ngrams, MinCount: *minCount, MaxTerms: *maxTerms, Workers: *jobs}
@@ -82,19 +82,19 @@ func runCount(args []string, stdout, stderr io.Writer) int {
 		}
 		opt.Terms = specTerms(s)
 		if len(opt.Terms) == 0 {
-			return report(stderr, &count.BadInput{Path: *specPath, Off: -1, Msg: "the spec lists no terms (terms.list or inserts): give --terms FILE, or --ngrams N to count every word"})
+			return report(stderr, specs.BadInput(&count.BadInput{Path: *specPath, Off: -1, Msg: "the spec lists no terms (terms.list or inserts): give --terms FILE, or --ngrams N to count every word"}))
 		}
 		span = &s.Years
 	case *termsPath != "":
 		opt.Terms, err = readTermList(*termsPath)
 		if err != nil {
-			return report(stderr, err)
+			return report(stderr, specs.BadInput(err))
 		}
 	}
 
 	files, err := archiveFiles(pos[0], *ext, *yearPattern)
 	if err != nil {
-		return report(stderr, err)
+		return report(stderr, specs.BadInput(err))
 	}
 	if span != nil {
 		var in []count.File
@@ -107,7 +107,7 @@ func runCount(args []string, stdout, stderr io.Writer) int {
 			fmt.Fprintf(stderr, "sheaf count: %d file(s) outside the spec's years %d–%d left out\n", skipped, span.From, span.To)
 		}
 		if len(in) == 0 {
-			return report(stderr, &count.BadInput{Path: pos[0], Off: -1, Msg: fmt.Sprintf("no file of the archive is dated within the spec's years %d–%d", span.From, span.To)})
+			return report(stderr, specs.BadInput(&count.BadInput{Path: pos[0], Off: -1, Msg: fmt.Sprintf("no file of the archive is dated within the spec's years %d–%d", span.From, span.To)}))
 		}
 		files = in
 	}
@@ -206,16 +206,7 @@ func archiveFiles(path, ext, pattern string) ([]count.File, error) {
 	if ext != "" && !strings.HasPrefix(ext, ".") {
 		ext = "." + ext
 	}
-	files, err := count.Folder(path, ext, re)
-	if err != nil && !isBadInput(err) {
-		return nil, &count.BadInput{Path: "--year-pattern", Off: -1, Msg: err.Error()}
-	}
-	return files, err
-}
-
-func isBadInput(err error) bool {
-	var b interface{ BadInput() bool }
-	return errors.As(err, &b) && b.BadInput()
+	return count.Folder(path, ext, re)
 }
 
 // writeTables writes both tables under temporary names in dir and renames

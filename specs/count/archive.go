@@ -13,6 +13,8 @@ import (
 	"slices"
 	"strconv"
 	"strings"
+
+	"sheaf/specs"
 )
 
 // File is one text file of the archive and the year it belongs to.
@@ -58,10 +60,16 @@ func bad(path, format string, args ...any) *BadInput {
 // starting with ".") left out, each with the year that pattern finds in its
 // path relative to root (slash-separated). pattern must have exactly one
 // capture group, the year. A file with no year is an error naming it.
-// The list is sorted by path.
+// The list is sorted by path. Errors are *BadInput marked as
+// *specs.InputError.
 func Folder(root, ext string, pattern *regexp.Regexp) ([]File, error) {
+	files, err := folder(root, ext, pattern)
+	return files, specs.BadInput(err)
+}
+
+func folder(root, ext string, pattern *regexp.Regexp) ([]File, error) {
 	if pattern.NumSubexp() != 1 {
-		return nil, fmt.Errorf("year pattern %q: it needs exactly one capture group (the year), not %d", pattern, pattern.NumSubexp())
+		return nil, bad("--year-pattern", "%q needs exactly one capture group (the year), not %d", pattern, pattern.NumSubexp())
 	}
 	var files []File
 	err := filepath.WalkDir(root, func(path string, d fs.DirEntry, err error) error {
@@ -118,7 +126,13 @@ func Folder(root, ext string, pattern *regexp.Regexp) ([]File, error) {
 // Manifest reads a table of year,path rows (a header naming the columns
 // year and path; CSV, or TSV when the name ends in .tsv or .tab). Paths
 // are relative to the manifest's folder. The files are in table order.
+// Errors are *BadInput marked as *specs.InputError.
 func Manifest(path string) ([]File, error) {
+	files, err := manifest(path)
+	return files, specs.BadInput(err)
+}
+
+func manifest(path string) ([]File, error) {
 	data, err := os.ReadFile(path)
 	if err != nil {
 		return nil, bad(path, "cannot read: %v", unwrapPath(err))

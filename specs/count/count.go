@@ -26,6 +26,8 @@ import (
 	"sync"
 	"sync/atomic"
 	"unicode"
+
+	"sheaf/specs"
 )
 
 // DefaultMaxTerms is the default cap on distinct terms held in n-gram
@@ -108,8 +110,19 @@ func Tokenize(tk *Tokenizer, term string) []string {
 	return toks
 }
 
-// Count reads the files and counts what opt asks for.
+// Count reads the files and counts what opt asks for. Errors that are the
+// input's (a file that cannot be read or is not UTF-8 text, a bad term, the
+// n-gram cap) are marked as *specs.InputError around a *BadInput,
+// *TermError or *LimitError.
 func Count(files []File, opt Options) (*Result, error) {
+	res, err := count(files, opt)
+	if err != nil && isBad(err) {
+		err = specs.BadInput(err)
+	}
+	return res, err
+}
+
+func count(files []File, opt Options) (*Result, error) {
 	if len(files) == 0 {
 		return nil, errors.New("count: no files")
 	}
