@@ -1,6 +1,7 @@
 package count
 
 import (
+	"bytes"
 	"fmt"
 	"math/rand/v2"
 	"os"
@@ -89,7 +90,7 @@ func benchArchive(b *testing.B, size int) ([]File, []string) {
 }
 
 // benchSize is the archive BenchmarkCount reads.
-const benchSize = 64 << 20
+const benchSize = 8 << 20
 
 // BenchmarkCount reads a 64 MB invented archive (benchSize): 200 listed terms, and
 // every word and pair seen 5 times or more (two passes, so twice the
@@ -136,5 +137,26 @@ func reportPerCPU(b *testing.B, start time.Duration, bytes int64) {
 	used := (cpuTime() - start).Seconds()
 	if used > 0 {
 		b.ReportMetric(float64(bytes)*float64(b.N)/1e6/used, "MB/cpu-s")
+	}
+}
+
+// BenchmarkTokens is the tokenizer alone on 4 MB of invented text held in
+// memory (no files, no counting).
+func BenchmarkTokens(b *testing.B) {
+	files, _ := benchArchive(b, 4<<20)
+	var text []byte
+	for _, f := range files {
+		data, err := os.ReadFile(f.Path)
+		if err != nil {
+			b.Fatal(err)
+		}
+		text = append(text, data...)
+	}
+	tk := &Tokenizer{Fold: true}
+	b.SetBytes(int64(len(text)))
+	for b.Loop() {
+		if err := tk.Tokens(bytes.NewReader(text), func([]byte, bool) {}); err != nil {
+			b.Fatal(err)
+		}
 	}
 }

@@ -413,55 +413,72 @@ func (c *counter) ngrams() (*Result, error) {
 // level counts the n-word terms whose two (n−1)-word halves are in prev
 // (every word when n is 1, adding the words to totals).
 func (c *counter) level(n int, prev map[string]bool, totals []int64) (map[string]*entry, error) {
-	global := map[string]*entry{}
-	toks := make([]*Tokenizer, c.opt.Workers)
-	for w := range toks {
-		toks[w] = &Tokenizer{Fold: c.opt.Fold}
+	// Each worker counts into its own table, with no lock; the tables are
+	// added up at the end. A table holds at most MaxTerms terms.
+	type state struct {
+		tk     *Tokenizer
+		terms  map[string]*entry
+		totals []int64
+		win    [][]byte // the last words, none across a mark
+		bufs   [][]byte // their storage, reused
+		key    []byte
+	}
+	states := make([]*state, c.opt.Workers)
+	for w := range states {
+		states[w] = &state{tk: &Tokenizer{Fold: c.opt.Fold}, terms: map[string]*entry{}, totals: make([]int64, len(c.years)), bufs: make([][]byte, n)}
 	}
 	err := c.each(func(w int, f File, r io.Reader) error {
-		local := map[string]int64{}
+		st := states[w]
 		var words int64
-		win := make([][]byte, 0, n) // the last words, none across a mark
-		var key []byte
+		st.win = st.win[:0]
+		y := int32(f.Year)
 		tooMany := false
-		err := toks[w].Tokens(r, func(b []byte, word bool) {
+		err := st.tk.Tokens(r, func(b []byte, word bool) {
 			if word {
 				words++
 			}
 			if !word || !hasLetter(b) {
-				win = win[:0]
+				st.win = st.win[:0]
 				return
 			}
-			if len(win) == n {
-				first := win[0]
-				copy(win, win[1:])
-				win[n-1] = append(first[:0], b...)
+			if len(st.win) == n {
+				first := st.win[0]
+				copy(st.win, st.win[1:])
+				st.win[n-1] = append(first[:0], b...)
 			} else {
-				win = append(win, append([]byte(nil), b...))
+				i := len(st.win)
+				st.bufs[i] = append(st.bufs[i][:0], b...)
+				st.win = append(st.win, st.bufs[i])
 			}
-			if len(win) < n || tooMany {
+			if len(st.win) < n || tooMany {
 				return
 			}
 			if n > 1 {
-				key = join(key[:0], win[:n-1])
-				if !prev[string(key)] {
+				st.key = join(st.key[:0], st.win[:n-1])
+				if !prev[string(st.key)] {
 					return
 				}
-				key = join(key[:0], win[1:])
-				if !prev[string(key)] {
+				st.key = join(st.key[:0], st.win[1:])
+				if !prev[string(st.key)] {
 					return
 				}
 			}
-			key = join(key[:0], win)
-			if _, ok := local[string(key)]; ok {
-				local[string(key)]++
-				return
+			st.key = join(st.key[:0], st.win)
+			e := st.terms[string(st.key)]
+			if e == nil {
+				if len(st.terms) >= c.opt.MaxTerms {
+					tooMany = true
+					return
+				}
+				e = &entry{term: string(st.key)}
+				st.terms[e.term] = e
 			}
-			if len(local) >= c.opt.MaxTerms {
-				tooMany = true
-				return
+			e.total++
+			if k := len(e.years) - 1; k >= 0 && e.years[k].year == y {
+				e.years[k].n++
+			} else {
+				e.years = append(e.years, yearCount{y, 1})
 			}
-			local[string(key)] = 1
 		})
 		if err != nil {
 			return err
@@ -469,32 +486,47 @@ func (c *counter) level(n int, prev map[string]bool, totals []int64) (map[string
 		if tooMany {
 			return &LimitError{Words: n, Max: c.opt.MaxTerms, Path: f.Path}
 		}
-		c.mu.Lock()
-		defer c.mu.Unlock()
-		if n == 1 {
-			totals[c.yearIdx[f.Year]] += words
-		}
-		y := int32(f.Year)
-		for k, v := range local {
-			e := global[k]
-			if e == nil {
-				if len(global) >= c.opt.MaxTerms {
-					return &LimitError{Words: n, Max: c.opt.MaxTerms}
-				}
-				e = &entry{term: k}
-				global[k] = e
-			}
-			e.total += v
-			if i := slices.IndexFunc(e.years, func(yc yearCount) bool { return yc.year == y }); i >= 0 {
-				e.years[i].n += v
-			} else {
-				e.years = append(e.years, yearCount{y, v})
-			}
-		}
+		st.totals[c.yearIdx[f.Year]] += words
 		return nil
 	})
 	if err != nil {
 		return nil, err
+	}
+	global := states[0].terms
+	for _, st := range states[1:] {
+		for k, e := range st.terms {
+			g := global[k]
+			if g == nil {
+				if len(global) >= c.opt.MaxTerms {
+					return nil, &LimitError{Words: n, Max: c.opt.MaxTerms}
+				}
+				global[k] = e
+				continue
+			}
+			g.total += e.total
+			g.years = append(g.years, e.years...)
+		}
+		st.terms = nil
+	}
+	for _, e := range global {
+		// A worker may have read a year's files apart: one entry a year.
+		slices.SortFunc(e.years, func(a, b yearCount) int { return cmp.Compare(a.year, b.year) })
+		out := e.years[:0]
+		for _, yc := range e.years {
+			if k := len(out) - 1; k >= 0 && out[k].year == yc.year {
+				out[k].n += yc.n
+			} else {
+				out = append(out, yc)
+			}
+		}
+		e.years = out
+	}
+	if n == 1 {
+		for _, st := range states {
+			for i, v := range st.totals {
+				totals[i] += v
+			}
+		}
 	}
 	return global, nil
 }
