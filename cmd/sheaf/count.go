@@ -28,7 +28,7 @@ func runCount(args []string, stdout, stderr io.Writer) int {
 	termsPath := fs.String("terms", "", "count the terms in this UTF-8 file, one a line (blank lines and lines starting with # skipped)")
 	ngrams := fs.Int("ngrams", 0, "count every word and phrase of up to N words (no term list)")
 	minCount := fs.Int64("min-count", 5, "with --ngrams: keep terms seen at least this many times over the archive")
-	maxTerms := fs.Int("max-terms", count.DefaultMaxTerms, "with --ngrams: the most distinct terms held in memory at once (about 100 bytes + 16 a year each)")
+	maxTerms := fs.Int("max-terms", count.DefaultMaxTerms, "with --ngrams: the most distinct terms held in memory at once, per job (about 120 bytes + 16 a year each)")
 	keepCase := fs.Bool("keep-case", false, "keep case (default: fold case, so Telegraph counts as telegraph)")
 	ext := fs.String("ext", ".txt", "in a folder, read only files ending in this (\"\" for all)")
 	yearPattern := fs.String("year-pattern", count.DefaultYearPattern, "regular expression finding the year in a file's path below the folder: one capture group")

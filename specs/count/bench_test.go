@@ -90,7 +90,7 @@ func benchArchive(b *testing.B, size int) ([]File, []string) {
 }
 
 // benchSize is the archive BenchmarkCount reads.
-const benchSize = 8 << 20
+const benchSize = 64 << 20
 
 // BenchmarkCount reads a 64 MB invented archive (benchSize): 200 listed terms, and
 // every word and pair seen 5 times or more (two passes, so twice the

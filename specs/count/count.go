@@ -31,8 +31,8 @@ import (
 )
 
 // DefaultMaxTerms is the default cap on distinct terms held in n-gram
-// mode: some hundreds of MB at most (see Options.MaxTerms).
-const DefaultMaxTerms = 2_000_000
+// mode, per worker (see Options.MaxTerms).
+const DefaultMaxTerms = 1_000_000
 
 // Options says what to count and how.
 type Options struct {
@@ -45,11 +45,12 @@ type Options struct {
 	Terms    []string
 	NGrams   int
 	MinCount int64
-	// MaxTerms caps the distinct terms n-gram mode holds at once, in one
-	// file or over the archive, at one phrase length (0: DefaultMaxTerms).
-	// Past it Count stops with a *LimitError: raise MinCount or lower
-	// NGrams. Each held term takes about 100 bytes plus its text plus 16
-	// bytes for each year it occurs in.
+	// MaxTerms caps the distinct terms n-gram mode holds at once, per
+	// worker and over the archive, at one phrase length (0:
+	// DefaultMaxTerms). Past it Count stops with a *LimitError: raise
+	// MinCount or lower NGrams. Each held term takes about 120 bytes plus
+	// its text plus 16 bytes for each year it occurs in, so memory stays
+	// under about (Workers + 1) × MaxTerms × that.
 	MaxTerms int
 	// Workers is how many files are read at once (0: 1).
 	Workers int
