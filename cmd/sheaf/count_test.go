@@ -6,7 +6,9 @@ import (
 	"os"
 	"path/filepath"
 	"strconv"
+	"strings"
 	"testing"
+	"time"
 
 	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
@@ -132,4 +134,25 @@ func TestCountBadInput(t *testing.T) {
 			}
 		})
 	}
+}
+
+// TestCountProgress: the progress line is drawn only when on and after
+// the first second, and cleared at the end; off (not a terminal) it says
+// nothing.
+func TestCountProgress(t *testing.T) {
+	var buf bytes.Buffer
+	p := &countProgress{w: &buf, on: true, start: time.Now()}
+	p.show(1e6, 4e6)
+	assert.Empty(t, buf.String(), "nothing in the first second")
+	p.start = time.Now().Add(-2 * time.Second)
+	p.show(2e6, 4e6)
+	assert.Contains(t, buf.String(), "count: 2 of 4 MB (50%)")
+	p.end()
+	assert.True(t, strings.HasSuffix(buf.String(), "\r\033[K"))
+
+	buf.Reset()
+	off := &countProgress{w: &buf, on: false, start: time.Now().Add(-time.Hour)}
+	off.show(1, 2)
+	off.end()
+	assert.Empty(t, buf.String())
 }
