@@ -58,6 +58,9 @@ type Term struct {
 	Name   string
 	Shape  Shape // the family of its underlying curve
 	Counts []int // Counts[i] is the count in Corpus.Years[i]
+	// Expected is each year's mean count before editorial noise and
+	// Poisson sampling; only Sample sets it.
+	Expected []float64
 	// SpikeYear is the year of a one-off spike planted by the generator (a
 	// single long article: 5–9 times the term's busiest other year), or 0.
 	SpikeYear int
@@ -178,10 +181,13 @@ func (c Corpus) noise(level []float64, scale float64, counts []int, rng *rand.Ra
 }
 
 // Sample returns n series of the given shape, as Generate would make them
-// (a life of that shape drawn from the headline words' and the long tail's,
-// editorial noise, Poisson sampling) but with no spike, each scaled so that
-// its busiest year's expected count is peak. It is for checking a spike
-// detector's false alarms on clean series. Terms are named s0001, s0002, …
+// (a life of that shape drawn from those of the headline words and the long
+// tail, editorial noise, Poisson sampling) but with no spike, each scaled
+// so that the expected count is at least peak in every year of its active
+// life (expected share at least a third of its highest) and exactly peak
+// in the leanest of them. It is for measuring a spike detector's false
+// alarms on clean series. Terms are named s0001, s0002, …; each has
+// Expected set.
 func Sample(cfg Config, shape Shape, n int, peak float64) (Corpus, error) {
 	if err := cfg.check(); err != nil {
 		return Corpus{}, err
@@ -192,8 +198,8 @@ func Sample(cfg Config, shape Shape, n int, peak float64) (Corpus, error) {
 			lives = append(lives, *w.life)
 		}
 	}
-	for _, opts := range generic {
-		for _, o := range opts {
+	for _, e := range []era{eraAny, eraSteam, eraElectric, eraMachine, eraComputing, eraModern} {
+		for _, o := range generic[e] {
 			if o.life.shape == shape {
 				lives = append(lives, o.life)
 			}
@@ -204,20 +210,34 @@ func Sample(cfg Config, shape Shape, n int, peak float64) (Corpus, error) {
 	}
 	rng := rand.New(rand.NewPCG(cfg.Seed, streamSample+uint64(shape)<<8))
 	c := frame(cfg, rand.New(rand.NewPCG(cfg.Seed, streamTotals)))
-	level := make([]float64, len(c.Years))
 	for i := range n {
 		k := lives[rng.IntN(len(lives))].draw(math.NaN(), math.NaN(), cfg.From, cfg.To, rng)
-		// Scale by the busiest year's expected count, not the share.
-		var top float64
+		level := make([]float64, len(c.Years))
+		top := 0
 		for j, y := range c.Years {
 			level[j] = k.at(float64(y))
-			top = math.Max(top, level[j]*float64(c.Totals[j])/1e6)
+			if level[j] > level[top] {
+				top = j
+			}
 		}
 		counts := make([]int, len(c.Years))
-		if top > 0 {
-			c.noise(level, peak/top, counts, rng)
+		expected := make([]float64, len(c.Years))
+		if level[top] > 0 {
+			// level·scale is per million words: put peak words in the
+			// leanest active year.
+			lean := math.Inf(1)
+			for j, v := range level {
+				if 3*v >= level[top] {
+					lean = math.Min(lean, v*float64(c.Totals[j])/1e6)
+				}
+			}
+			scale := peak / lean
+			for j := range level {
+				expected[j] = level[j] * scale * float64(c.Totals[j]) / 1e6
+			}
+			c.noise(level, scale, counts, rng)
 		}
-		c.Terms = append(c.Terms, Term{Name: fmt.Sprintf("s%04d", i+1), Shape: k.shape, Counts: counts})
+		c.Terms = append(c.Terms, Term{Name: fmt.Sprintf("s%04d", i+1), Shape: k.shape, Counts: counts, Expected: expected})
 	}
 	return c, nil
 }
