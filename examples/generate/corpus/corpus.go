@@ -1,12 +1,15 @@
 // Package corpus invents the demo data for sheaf: yearly word counts of the
-// vocabulary of The Quillmere Engineer, a fictional engineering journal
-// published 1868–2025.
+// vocabulary of Plumb & Pinion, a fictional engineering weekly of the
+// invented town of Quillmere, published 1868–2025.
 //
-// Every name, count and event here is made up. The counts are meant to look
-// like real archive data to a chart (slow rises, falls, bursts, late
-// arrivals, dying words, Poisson noise, one-year spikes from a single long
-// article, war years in which the journal did not appear) and are fully
-// determined by Config: the same Config always yields the same bytes.
+// Every name, count and event here is made up. The headline words each live
+// a life that fits their meaning (old trades fade, the steam age peaks early,
+// computing arrives after the war, some words are steady, some come in two
+// waves, some hand over to others); the long tail takes a generic life of its
+// era. Editorial noise and Poisson sampling make the counts look like real
+// archive data to a chart, war years are missing, and a few one-year spikes
+// from a single long article are planted. The data is fully determined by
+// Config: the same Config always yields the same bytes.
 package corpus
 
 import (
