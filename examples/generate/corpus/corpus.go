@@ -118,7 +118,11 @@ func Generate(cfg Config) (Corpus, error) {
 			l = pick(generic[w.era], rng)
 		}
 		k := l.draw(w.pin, w.pin2, cfg.From, cfg.To, rng)
-		k.start = math.Max(k.start, w.coined)
+		if w.coined > 0 {
+			// Rise from nothing at the coinage, not from a cliff.
+			k.start = math.Max(k.start, w.coined)
+			k.rise = math.Max(1, math.Min(k.rise, (k.c-w.coined)/2.5))
+		}
 		share := topShare * math.Pow(float64(ranks[i]+1), -zipf) * math.Exp(0.15*rng.NormFloat64())
 		if w.kind != headline {
 			share *= tailDrop

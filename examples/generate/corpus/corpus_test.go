@@ -124,8 +124,8 @@ func TestCountsWithinTotals(t *testing.T) {
 func TestTotalsGrow(t *testing.T) {
 	c := mustDemo(t)
 	first, last := float64(c.Totals[0]), float64(c.Totals[len(c.Totals)-1])
-	if first < 900_000 || first > 1_350_000 {
-		t.Errorf("1868 total %v, want about 1.1 million", first)
+	if first < 1_600_000 || first > 2_500_000 {
+		t.Errorf("1868 total %v, want about 2 million", first)
 	}
 	if last < 12_000_000 || last > 18_000_000 {
 		t.Errorf("2025 total %v, want about 15 million", last)

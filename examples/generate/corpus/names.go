@@ -102,7 +102,7 @@ type span = [2]float64
 // years (see life).
 var (
 	// In use in 1868 and fading: old trades, horse and canal days.
-	fading = life{shape: Fall, at: span{1885, 1920}, fall: span{6, 12}, base: span{0.02, 0.08}, weight: 2}
+	fading = life{shape: Fall, at: span{1878, 1925}, fall: span{4, 16}, base: span{0.02, 0.15}, weight: 2}
 	// Gone for good by a year.
 	dying = life{shape: Vanish, at: span{1895, 1940}, fall: span{4, 8}}
 	// The steam age: strong in the 1870s–90s, a long decline.
@@ -117,6 +117,8 @@ var (
 	arrive = life{shape: Arrive, at: span{1990, 2020}, rise: span{3, 9}, born: true}
 	// Two waves decades apart.
 	twoWaves = life{shape: TwinPeak, rise: span{4, 8}, fall: span{5, 10}, base: span{0.02, 0.08}, h2: span{0.75, 1.1}, born: true}
+	// A second, smaller wave: a revival talked of more than built.
+	echo = life{shape: TwinPeak, rise: span{4, 8}, fall: span{5, 10}, base: span{0.02, 0.06}, h2: span{0.25, 0.45}, born: true}
 	// Always there.
 	steady = life{shape: Flat, weight: 5}
 	// Slowly more or less common over the whole span.
@@ -195,7 +197,8 @@ var headlines = concat(
 		circular economy@2019|climate change@2016|greenhouse gas@2012|LED@2014`),
 	lived(twoWaves, `wireless@1910/2008|electric vehicle@1905/2021|heat pump@1980/2023|
 		hydrogen economy@1977/2022|photovoltaic@1981/2013|asbestos@1955/1990|retrofit@1978/2016|
-		airship@1925/2004|tidal power@1925/1978|monorail@1912/1966|district heating@1955/2020`),
+		tidal power@1925/1978|district heating@1955/2020`),
+	lived(echo, `airship@1925/2004|monorail@1912/1966`),
 	lived(steady, `gear|bearing|shaft|lever|pulley|valve|bolt|pump|bridge|girder|beam|column|
 		foundation|tunnel|pipe|crane|drill|piston|flange|chain|tolerance|gauge|copper|brass|
 		timber|brick|cement|glass|pressure|temperature|load|survey|contract|tender|cost|wages|

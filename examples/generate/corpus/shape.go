@@ -46,9 +46,12 @@ type curve struct {
 	rise2      float64 // … and its widths and height
 	fall2, h2  float64
 	start, end float64 // the term is absent before start and after end
-	wobble     float64 // Flat: amplitude of a slow sine wander
+	wobble     float64 // Flat: amplitude of a slow wander (two sines, a long and a shorter one)
 	period     float64
 	phase      float64
+	wobble2    float64
+	period2    float64
+	phase2     float64
 }
 
 func logistic(x float64) float64 { return 1 / (1 + math.Exp(-x)) }
@@ -71,7 +74,7 @@ func (k curve) at(y float64) float64 {
 	b := k.base
 	switch k.shape {
 	case Flat:
-		return 1 + k.wobble*math.Sin(2*math.Pi*y/k.period+k.phase)
+		return 1 + k.wobble*math.Sin(2*math.Pi*y/k.period+k.phase) + k.wobble2*math.Sin(2*math.Pi*y/k.period2+k.phase2)
 	case Rise, Arrive:
 		v := b + (1-b)*logistic((y-k.c)/k.rise)
 		if settled := k.c + 2*k.rise; k.drift > 0 && y > settled {
@@ -138,7 +141,8 @@ func (l life) draw(pin, pin2 float64, from, to int, rng *rand.Rand) curve {
 	k.after, k.plateau, k.drift = unif(l.after), unif(l.plateau), unif(l.drift)
 	switch l.shape {
 	case Flat:
-		k.wobble, k.period, k.phase = unif([2]float64{0.05, 0.2}), unif([2]float64{30, 90}), 2*math.Pi*rng.Float64()
+		k.wobble, k.period, k.phase = unif([2]float64{0.15, 0.3}), unif([2]float64{60, 140}), 2*math.Pi*rng.Float64()
+		k.wobble2, k.period2, k.phase2 = unif([2]float64{0.04, 0.1}), unif([2]float64{20, 40}), 2*math.Pi*rng.Float64()
 	case Vanish:
 		k.end = math.Min(math.Max(k.c, lo+6), hi-2)
 		k.c = k.end - 2*k.fall - unif([2]float64{0, 10})
