@@ -95,9 +95,16 @@ func Draw(c *canvas.Canvas, s palette.Scale, r palette.Report) error {
 	y := margin + 5
 	d.text(f.bold, 13, d.ink, margin, y, canvas.Left, fmt.Sprintf("Palette %s, %s–%s", s.Name(), yearText(from), yearText(to)))
 	verdict := "passes every check"
+	if n := r.Warnings(); n > 0 {
+		verdict = fmt.Sprintf("no check fails, %d %s (see below)", n, map[bool]string{true: "warning", false: "warnings"}[n == 1])
+	}
 	if r.Failed() {
 		verdict = "FAILS a check (see below)"
 	}
+	// The size-aware count, so the sheet never reads as a clean pass when
+	// the lines are too thin for the key's eras.
+	verdict += fmt.Sprintf("; %d distinguishable %s at this width, the key labels %d eras",
+		r.Classes, map[bool]string{true: "class", false: "classes"}[r.Classes == 1], r.KeyEras)
 	kind := "continuous"
 	if s.Discrete() {
 		kind = fmt.Sprintf("%d eras", len(s.Eras()))
