@@ -40,7 +40,8 @@ const DefaultMaxSpan20 = 170
 // chroma inside what Ghostscript's generic coated CMYK profile
 // (default_cmyk.icc) can print. The keys were found by a numeric search
 // over these constraints, maximising the smallest ΔE00 between colours
-// 20 years apart over 1868–2025 (see README, "The built-in palette").
+// 20 years apart over 1868–2025 (palette/internal/designsearch; README,
+// "The built-in palette").
 var defaultKeys = []struct{ t, l, c, h float64 }{
 	{0, 0.465, 0.12, 23},
 	{0.38, 0.465 + 0.38*(0.64-0.465), 0.21, 8},
