@@ -275,9 +275,7 @@ func TestProofMatchesPoppler(t *testing.T) {
 	}
 	theirs := tooltest.ReadPNG(t, prefix+".png")
 	ours := tooltest.ReadPNG(t, filepath.Join(dir, "print", "proofs", "page-001.png"))
-	if theirs.Bounds().Size() != ours.Bounds().Size() {
-		t.Fatalf("poppler %v, proof %v", theirs.Bounds().Size(), ours.Bounds().Size())
-	}
+	require.Equal(t, ours.Bounds().Size(), theirs.Bounds().Size(), "poppler %v, proof %v", theirs.Bounds().Size(), ours.Bounds().Size())
 	mean, strong := tooltest.CompareImages(ours, theirs, 64)
 	t.Logf("proof vs pdftoppm: mean |Δ| %.3f/255, %.3f%% of pixels differ by more than 64", mean, strong*100)
 	if mean > 3 || strong > 0.015 {

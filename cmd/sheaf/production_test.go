@@ -18,6 +18,7 @@ import (
 	"testing"
 	"time"
 
+	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
 
 	"sheaf/render/feature"
@@ -78,9 +79,7 @@ func buildInto(t testing.TB, spec, out string, flags ...string) (stdout, stderr 
 	t.Helper()
 	var o, e bytes.Buffer
 	args := append([]string{"build", spec, "--out", out}, flags...)
-	if code := run(args, &o, &e); code != exitOK {
-		t.Fatalf("sheaf %s: exit %d\n%s", strings.Join(args, " "), code, e.String())
-	}
+	require.Equal(t, exitOK, run(args, &o, &e), "sheaf %s\n%s", strings.Join(args, " "), e.String())
 	return o.String(), e.String()
 }
 
@@ -178,10 +177,8 @@ func sameTree(t testing.TB, a, b map[string][]byte, skip func(string) bool) {
 			continue
 		}
 		y, ok := b[p]
-		if !ok {
-			t.Errorf("%s: missing in the second tree", p)
-		} else if !bytes.Equal(x, y) {
-			t.Errorf("%s: bytes differ", p)
+		if assert.True(t, ok, "%s: missing in the second tree", p) {
+			assert.Equal(t, x, y, "%s: bytes differ", p)
 		}
 	}
 	for p := range b {
@@ -196,9 +193,7 @@ func noStages(t testing.TB, dir string) {
 	t.Helper()
 	entries, _ := os.ReadDir(filepath.Dir(dir))
 	for _, e := range entries {
-		if strings.Contains(e.Name(), production.StageMark) {
-			t.Errorf("stage left behind: %s", e.Name())
-		}
+		assert.NotContains(t, e.Name(), production.StageMark, "stage left behind: %s", e.Name())
 	}
 }
 
@@ -214,9 +209,7 @@ func TestManifestHashes(t *testing.T) {
 	check := func(path, want string) {
 		t.Helper()
 		b, err := exec.Command(sum, path).Output()
-		if err != nil {
-			t.Fatalf("sha256sum %s: %v", path, err)
-		}
+		require.NoError(t, err, "sha256sum %s: %v", path, err)
 		if got, _, _ := strings.Cut(string(b), " "); got != want {
 			t.Errorf("%s: manifest %s, sha256sum %s", path, want, got)
 		}
@@ -244,9 +237,7 @@ func TestManifestHashes(t *testing.T) {
 	n := 0
 	for _, p := range pdf.Pages {
 		n += len(p.Terms)
-		if len(p.Inputs) != 64 {
-			t.Errorf("page %d inputs %q", p.Page, p.Inputs)
-		}
+		assert.Equal(t, 64, len(p.Inputs), "page %d inputs %q", p.Page, p.Inputs)
 	}
 	if n != 60 || len(m.Terms) != 60 {
 		t.Errorf("%d terms on pages, %d in the manifest; want 60", n, len(m.Terms))
@@ -277,12 +268,8 @@ func TestIncremental(t *testing.T) {
 	encodes := countEncodes(t)
 	before := snapshot(t, out)
 	_, stderr := buildInto(t, spec, out, "--quiet")
-	if len(*encodes) != 0 {
-		t.Errorf("unchanged rebuild encoded %v", *encodes)
-	}
-	if !strings.Contains(stderr, "nothing changed since the last build") {
-		t.Errorf("stderr:\n%s", stderr)
-	}
+	assert.Empty(t, *encodes, "unchanged rebuild encoded %v", *encodes)
+	assert.Contains(t, stderr, "nothing changed since the last build", "stderr:\n%s", stderr)
 	r := loadChanges(t, out)
 	if r.FirstBuild || len(r.Files.Changed)+len(r.Files.Added)+len(r.Files.Removed)+len(r.Terms)+len(r.Pages) != 0 || r.Work[0].Reused != pages || r.Work[0].ProofsReused != pages {
 		t.Errorf("unchanged rebuild report %+v", r)
@@ -313,14 +300,10 @@ func TestIncremental(t *testing.T) {
 		t.Errorf("work %+v", w)
 	}
 	for _, s := range []string{fmt.Sprintf("changed %q: print p. 2", term), fmt.Sprintf("print/print.pdf: pages 2 of %d", pages)} {
-		if !strings.Contains(stderr, s) {
-			t.Errorf("stderr lacks %q:\n%s", s, stderr)
-		}
+		assert.Contains(t, stderr, s, "stderr lacks %q:\n%s", s, stderr)
 	}
 	text, _ := os.ReadFile(filepath.Join(out, production.ChangesText))
-	if !strings.Contains(string(text), fmt.Sprintf("changed %q: print p. 2", term)) {
-		t.Errorf("changes.txt:\n%s", text)
-	}
+	assert.Contains(t, string(text), fmt.Sprintf("changed %q: print p. 2", term), "changes.txt:\n%s", text)
 
 	// A clean full build of the same inputs elsewhere.
 	clean := filepath.Join(t.TempDir(), "clean")
@@ -351,9 +334,7 @@ func TestFailedBuildKeepsPrevious(t *testing.T) {
 	if code != exitFindings || !strings.Contains(e.String(), "page 2: injected failure") || !strings.Contains(e.String(), "nothing was changed in") {
 		t.Errorf("exit %d, stderr:\n%s", code, e.String())
 	}
-	if o.Len() != 0 {
-		t.Errorf("stdout: %s", o.String())
-	}
+	assert.Zero(t, o.Len(), "stdout: %s", o.String())
 	sameTree(t, before, snapshot(t, out), nil)
 	noStages(t, out)
 
@@ -392,9 +373,7 @@ func TestOnlyKeepsOtherOutputs(t *testing.T) {
 	after := snapshot(t, out)
 	for p, b := range before {
 		if strings.HasPrefix(p, "second/") || strings.HasPrefix(p, "palette/") || strings.HasPrefix(p, ".cache/second/") {
-			if !bytes.Equal(b, after[p]) {
-				t.Errorf("%s changed or went missing", p)
-			}
+			assert.Equal(t, b, after[p], "%s changed or went missing", p)
 		}
 	}
 	m := loadManifest(t, out)
@@ -421,9 +400,7 @@ func TestStrictPreflight(t *testing.T) {
 		t.Fatalf("strict build exit %d\n%s", code, e.String())
 	}
 	for _, s := range []string{"warning  type-floor", "warning  line-floor", "strict preflight: stopped"} {
-		if !strings.Contains(e.String(), s) {
-			t.Errorf("stderr lacks %q:\n%s", s, e.String())
-		}
+		assert.Contains(t, e.String(), s, "stderr lacks %q:\n%s", s, e.String())
 	}
 	if _, err := os.Stat(out); !errors.Is(err, os.ErrNotExist) {
 		t.Errorf("strict build wrote %s", out)
@@ -446,9 +423,7 @@ func TestStrictPreflight(t *testing.T) {
 	}
 	// Without strict the build goes ahead, warning.
 	_, stderr := buildInto(t, spec, out, "--quiet")
-	if !strings.Contains(stderr, "type-floor") {
-		t.Errorf("build stderr lacks the finding:\n%s", stderr)
-	}
+	assert.Contains(t, stderr, "type-floor", "build stderr lacks the finding:\n%s", stderr)
 }
 
 // TestInterrupt sends a real SIGINT to a sheaf process in the middle of a
@@ -491,9 +466,7 @@ func TestInterrupt(t *testing.T) {
 	if !errors.As(err, &exit) || exit.ExitCode() != exitFindings {
 		t.Errorf("exit %v, want status %d; stderr:\n%s", err, exitFindings, stderr.String())
 	}
-	if !strings.Contains(stderr.String(), "interrupted") {
-		t.Errorf("stderr:\n%s", stderr.String())
-	}
+	assert.Contains(t, stderr.String(), "interrupted", "stderr:\n%s", stderr.String())
 	sameTree(t, before, snapshot(t, out), nil)
 	noStages(t, out)
 }
@@ -506,9 +479,7 @@ func TestProgress(t *testing.T) {
 	p.Begin("print: PDF pages", 3)
 	p.Step()
 	p.done()
-	if buf.Len() != 0 {
-		t.Errorf("not a terminal, yet %q", buf.String())
-	}
+	assert.Zero(t, buf.Len(), "not a terminal, yet %q", buf.String())
 
 	now := time.Unix(0, 0)
 	p = &progress{w: &buf, on: true, start: now, now: func() time.Time { return now }}
@@ -520,9 +491,7 @@ func TestProgress(t *testing.T) {
 	p.Step() // last step: always drawn
 	p.done()
 	want := "\rprint: PDF pages 2/3\rprint: PDF pages 3/3\r                    \r"
-	if buf.String() != want {
-		t.Errorf("progress wrote %q, want %q", buf.String(), want)
-	}
+	assert.Equal(t, want, buf.String(), "progress wrote %q, want %q", buf.String(), want)
 }
 
 // equalJSON compares two values by their JSON.

@@ -19,6 +19,7 @@ import (
 	"strings"
 	"testing"
 
+	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
 
 	"sheaf/render/feature"
@@ -78,9 +79,7 @@ func TestReflowColumns(t *testing.T) {
 	} {
 		p, err := j.Prepare(j.Spec.Output(c.name))
 		require.NoError(t, err)
-		if p.Plan.Columns != c.columns {
-			t.Errorf("%s: %d columns, want %d", c.name, p.Plan.Columns, c.columns)
-		}
+		assert.Equal(t, c.columns, p.Plan.Columns, "%s: %d columns, want %d", c.name, p.Plan.Columns, c.columns)
 		if got := p.Spec.Type.Label.Px(); math.Abs(got-c.label) > 1e-9 {
 			t.Errorf("%s: label size %v px, want %v", c.name, got, c.label)
 		}
@@ -156,9 +155,7 @@ func TestScreenBuild(t *testing.T) {
 		}
 	}
 	panels, _ := filepath.Glob(filepath.Join(dir, "web", "panels", "*.svg"))
-	if len(panels) != 30 {
-		t.Errorf("%d panel files, want 30 (one per term)", len(panels))
-	}
+	assert.Equal(t, 30, len(panels), "%d panel files, want 30 (one per term)", len(panels))
 
 	// Every SVG parses as XML (encoding/xml), has px sizes matching its
 	// viewBox, one titled group per panel it shows.
@@ -278,9 +275,7 @@ func TestChromiumMatchesPNG(t *testing.T) {
 	}
 	theirs := tooltest.ReadPNG(t, shot)
 	ours := tooltest.ReadPNG(t, filepath.Join(dir, "web", "page-001.png"))
-	if theirs.Bounds().Size() != ours.Bounds().Size() {
-		t.Fatalf("screenshot %v, our PNG %v", theirs.Bounds().Size(), ours.Bounds().Size())
-	}
+	require.Equal(t, ours.Bounds().Size(), theirs.Bounds().Size(), "screenshot %v, our PNG %v", theirs.Bounds().Size(), ours.Bounds().Size())
 	mean, strong := tooltest.CompareImages(ours, theirs, 64)
 	t.Logf("Chromium vs our PNG: mean channel difference %.2f, strongly different pixels %.2f%%", mean, strong*100)
 	if mean > chromeMeanLimit || strong > chromeStrongLimit {

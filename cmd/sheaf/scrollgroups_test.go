@@ -12,6 +12,7 @@ import (
 	"strings"
 	"testing"
 
+	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
 
 	"sheaf/render/feature"
@@ -55,18 +56,14 @@ func TestScreenScrollGroups(t *testing.T) {
 	dir := t.TempDir()
 	buildTo(t, path, dir)
 	svgs, _ := filepath.Glob(filepath.Join(dir, "web", "page-*.svg"))
-	if len(svgs) != len(counts) {
-		t.Fatalf("%d SVG pages for %d groups", len(svgs), len(counts))
-	}
+	require.Equal(t, len(counts), len(svgs), "%d SVG pages for %d groups", len(svgs), len(counts))
 	size := regexp.MustCompile(`^<svg [^>]*width="([\d.]+)" height="([\d.]+)" viewBox="0 0 ([\d.]+) ([\d.]+)"`)
 	index, err := os.ReadFile(filepath.Join(dir, "web", "index.html"))
 	require.NoError(t, err)
 	heights := map[string]bool{}
 	for i, f := range svgs {
 		name := fmt.Sprintf("page-%03d", i+1)
-		if filepath.Base(f) != name+".svg" {
-			t.Fatalf("page %d is %s", i+1, f)
-		}
+		require.Equal(t, name+".svg", filepath.Base(f), "page %d is %s", i+1, f)
 		b, err := os.ReadFile(f)
 		require.NoError(t, err)
 		if err := wellFormed(b); err != nil {
@@ -76,9 +73,7 @@ func TestScreenScrollGroups(t *testing.T) {
 		if m == nil || string(m[1]) != string(m[3]) || string(m[2]) != string(m[4]) {
 			t.Fatalf("%s: width/height and viewBox disagree: %.200s", name, b)
 		}
-		if string(m[1]) != "1200" {
-			t.Errorf("%s is %s px wide, want 1200", name, m[1])
-		}
+		assert.Equal(t, "1200", string(m[1]), "%s is %s px wide, want 1200", name, m[1])
 		heights[string(m[2])] = true
 		h, _ := strconv.ParseFloat(string(m[2]), 64)
 		if n := bytes.Count(b, []byte(`role="img"><title>`)); n != counts[i] {
