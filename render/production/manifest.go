@@ -44,11 +44,13 @@ type Manifest struct {
 	Files   []FileEntry   `json:"files"`             // every file of every output and insert, sorted by path
 }
 
+// FileHash is a file that went into a build, with its SHA-256.
 type FileHash struct {
 	Path   string `json:"path"`
 	SHA256 string `json:"sha256"`
 }
 
+// FontHash is one font of an output, with the SHA-256 of its bytes.
 type FontHash struct {
 	Output string `json:"output"`
 	Style  string `json:"style"`
@@ -63,6 +65,8 @@ type TermHash struct {
 	SHA256 string `json:"sha256"`
 }
 
+// OutputEntry is one output of a build: its pages, and for a screen
+// output the hash of its inputs.
 type OutputEntry struct {
 	Name   string  `json:"name"`
 	Kind   string  `json:"kind"`
@@ -92,6 +96,7 @@ type PageEntry struct {
 	Inputs string   `json:"inputs"`
 }
 
+// FileEntry is one file of a build: its hash and size, and what it shows.
 type FileEntry struct {
 	Path   string      `json:"path"` // relative to DIR, with forward slashes
 	Output string      `json:"output,omitempty"`
@@ -127,6 +132,7 @@ func encodeJSON(w io.Writer, v any) error {
 	return enc.Encode(v)
 }
 
+// Output returns the output named name, or nil (also for a nil manifest).
 func (m *Manifest) Output(name string) *OutputEntry {
 	if m == nil {
 		return nil
@@ -139,6 +145,7 @@ func (m *Manifest) Output(name string) *OutputEntry {
 	return nil
 }
 
+// Insert returns the insert named name, or nil.
 func (m *Manifest) Insert(name string) *InsertEntry {
 	if m == nil {
 		return nil
@@ -166,6 +173,8 @@ func (m *Manifest) FilesOf(output, insert string) []*FileEntry {
 	return out
 }
 
+// File returns the file at path (relative to the build folder, with
+// forward slashes), or nil.
 func (m *Manifest) File(path string) *FileEntry {
 	if m == nil {
 		return nil
