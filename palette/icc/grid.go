@@ -5,15 +5,15 @@ package icc
 type grid struct {
 	dims   []int
 	nOut   int
-	stride []int // per input, in values
-	data   []float64
+	stride []int     // per input, in values
+	data   []float32 // 16-bit table values need 16 of float32's 24 bits
 	// trilinear selects trilinear rather than tetrahedral interpolation
 	// for three inputs (LittleCMS's choice for CIELAB-indexed tables).
 	trilinear bool
 }
 
 func newGrid(dims []int, nOut, n int) *grid {
-	g := &grid{dims: dims, nOut: nOut, stride: make([]int, len(dims)), data: make([]float64, n)}
+	g := &grid{dims: dims, nOut: nOut, stride: make([]int, len(dims)), data: make([]float32, n)}
 	s := nOut
 	for i := len(dims) - 1; i >= 0; i-- {
 		g.stride[i] = s
@@ -86,7 +86,7 @@ func (g *grid) tetrahedral(dim, base int, idx []int, frac []float64, weight floa
 	v3 := v2 + g.stride[c]
 	w0, w1, w2, w3 := 1-frac[a], frac[a]-frac[b], frac[b]-frac[c], frac[c]
 	for o := range out {
-		out[o] += weight * (w0*g.data[v0+o] + w1*g.data[v1+o] + w2*g.data[v2+o] + w3*g.data[v3+o])
+		out[o] += weight * (w0*float64(g.data[v0+o]) + w1*float64(g.data[v1+o]) + w2*float64(g.data[v2+o]) + w3*float64(g.data[v3+o]))
 	}
 }
 
@@ -111,7 +111,7 @@ func (g *grid) multilinear(dim, base int, idx []int, frac []float64, weight floa
 			continue
 		}
 		for o := range out {
-			out[o] += w * g.data[off+o]
+			out[o] += w * float64(g.data[off+o])
 		}
 	}
 }

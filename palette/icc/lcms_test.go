@@ -190,3 +190,51 @@ func TestAgainstLittleCMS(t *testing.T) {
 		})
 	}
 }
+
+// Outside check on the v4 table types the Ghostscript profiles lack
+// (lutAToB and lutBToA with every element): an invented profile, through
+// our engine and LittleCMS, both ways.
+func TestInventedV4AgainstLittleCMS(t *testing.T) {
+	bin := tooltest.Require(t, "transicc", "liblcms2-utils")
+	b := inventedCMYK()
+	path := writeTemp(t, "invented.icc", b)
+	srgbPath := writeTemp(t, "sheaf-srgb.icc", icc.SRGBBytes())
+	dst, err := icc.Parse(b)
+	require.NoError(t, err)
+	colours := testColours(t)
+	rows := make([][]float64, len(colours))
+	for i, c := range colours {
+		rows[i] = []float64{float64(c[0]), float64(c[1]), float64(c[2])}
+	}
+	for _, bpc := range []bool{false, true} {
+		xf, err := icc.NewTransform(icc.SRGB(), dst, icc.RelativeColorimetric, bpc)
+		require.NoError(t, err)
+		args := []string{"-i" + srgbPath, "-o" + path, "-t1", "-c0"}
+		if bpc {
+			args = append(args, "-b")
+		}
+		want := transicc(t, bin, args, rows)
+		worst := 0.0
+		for i, rgb := range rows {
+			got := xf.Convert([]float64{rgb[0] / 255, rgb[1] / 255, rgb[2] / 255})
+			for k := range got {
+				worst = math.Max(worst, math.Abs(got[k]*100-want[i][k]))
+			}
+		}
+		t.Logf("bpc=%v: worst CMYK channel difference %.4f", bpc, worst)
+		require.LessOrEqual(t, worst, 0.5)
+	}
+	var cmyk [][]float64
+	rng := rand.New(rand.NewPCG(7, 7))
+	for i := 0; i < 500; i++ {
+		cmyk = append(cmyk, []float64{100 * rng.Float64(), 100 * rng.Float64(), 100 * rng.Float64(), 100 * rng.Float64()})
+	}
+	labs := transicc(t, bin, []string{"-i" + path, "-o*Lab", "-t1", "-c0"}, cmyk)
+	worst := 0.0
+	for i, k := range cmyk {
+		l := dst.ToLab([]float64{k[0] / 100, k[1] / 100, k[2] / 100, k[3] / 100}, icc.RelativeColorimetric)
+		worst = math.Max(worst, palette.DeltaE00(palette.Lab{L: l.L, A: l.A, B: l.B}, palette.Lab{L: labs[i][0], A: labs[i][1], B: labs[i][2]}))
+	}
+	t.Logf("CMYK → Lab: worst ΔE00 %.4f", worst)
+	require.LessOrEqual(t, worst, 0.5)
+}

@@ -369,7 +369,7 @@ func readLegacyLUT(d []byte, typ, name string, off int64) (*lut, error) {
 	l.steps = append(l.steps, tables(nIn, inEntries))
 	g := newGrid(repeat(gp, nIn), nOut, int(gridN))
 	for i := range g.data {
-		g.data[i] = read(p)
+		g.data[i] = float32(read(p))
 		p += width
 	}
 	l.steps = append(l.steps, g, tables(nOut, outEntries))
@@ -446,9 +446,9 @@ func readModernLUT(d []byte, typ, name string, off int64) (*lut, error) {
 		p := o + 20
 		for i := range g.data {
 			if prec == 2 {
-				g.data[i] = float64(be.Uint16(d[p:])) / 65535
+				g.data[i] = float32(float64(be.Uint16(d[p:])) / 65535)
 			} else {
-				g.data[i] = float64(d[p]) / 255
+				g.data[i] = float32(float64(d[p]) / 255)
 			}
 			p += uint32(prec)
 		}
@@ -541,14 +541,17 @@ func repeat(v, n int) []int {
 }
 
 // gridSize is the number of values in a CLUT, or false when it passes
-// 2²⁸ (no profile needs that; a hostile one could ask for gigabytes).
+// 2²⁴ (64 MB as float32; a 33⁴ CMYK table has 4.7 million values, so no
+// real profile comes near; a hostile one could ask for gigabytes).
 func gridSize(dims []int, nOut int) (uint64, bool) {
 	n := uint64(nOut)
 	for _, g := range dims {
 		n *= uint64(g)
-		if n > 1<<28 {
+		if n > maxGridValues {
 			return 0, false
 		}
 	}
 	return n, true
 }
+
+const maxGridValues = 1 << 24

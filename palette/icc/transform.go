@@ -202,19 +202,7 @@ func NewTransform(src, dst *Profile, intent Intent, bpc bool) (*Transform, error
 	}
 	t.bpc = bpc
 	if bpc {
-		in := detectBlackPoint(src, intent)
-		out := detectDestinationBlackPoint(dst, intent)
-		if in != out {
-			// Map in → out and D50 → D50 linearly per XYZ channel
-			// (LittleCMS cmscnvrt.c, ComputeBlackPointCompensation).
-			w := [3]float64{D50.X, D50.Y, D50.Z}
-			bi := [3]float64{in.X, in.Y, in.Z}
-			bo := [3]float64{out.X, out.Y, out.Z}
-			for i := range w {
-				t.scale[i] = (bo[i] - w[i]) / (bi[i] - w[i])
-				t.offset[i] = -w[i] * (bo[i] - bi[i]) / (bi[i] - w[i])
-			}
-		}
+		t.scale, t.offset = bpcMapping(detectBlackPoint(src, intent), detectDestinationBlackPoint(dst, intent))
 	}
 	return t, nil
 }
@@ -309,8 +297,34 @@ func blackThroughPerceptual(p *Profile) XYZ {
 	return neutralBlack(roundTrip(p, Perceptual, Lab{}))
 }
 
+// roundTrip is Lab → p (intent) → p (relative colorimetric) → Lab, the
+// probe of LittleCMS's black-point detection (CreateRoundtripXForm). Like
+// any LittleCMS link, the perceptual step into a v4 profile compensates
+// black points: from the Lab profile's (zero) to p's.
 func roundTrip(p *Profile, intent Intent, l Lab) Lab {
-	return p.ToLab(p.FromLab(l, intent), RelativeColorimetric)
+	x := LabToXYZ(l)
+	if intent == Perceptual && p.Version >= 0x04000000 {
+		scale, offset := bpcMapping(XYZ{}, detectDestinationBlackPoint(p, Perceptual))
+		x = XYZ{scale[0]*x.X + offset[0], scale[1]*x.Y + offset[1], scale[2]*x.Z + offset[2]}
+	}
+	return p.ToLab(p.FromXYZ(x, intent), RelativeColorimetric)
+}
+
+// bpcMapping maps in → out and D50 → D50 linearly per XYZ channel
+// (LittleCMS cmscnvrt.c, ComputeBlackPointCompensation).
+func bpcMapping(in, out XYZ) (scale, offset [3]float64) {
+	scale = [3]float64{1, 1, 1}
+	if in == out {
+		return scale, offset
+	}
+	w := [3]float64{D50.X, D50.Y, D50.Z}
+	bi := [3]float64{in.X, in.Y, in.Z}
+	bo := [3]float64{out.X, out.Y, out.Z}
+	for i := range w {
+		scale[i] = (bo[i] - w[i]) / (bi[i] - w[i])
+		offset[i] = -w[i] * (bo[i] - bi[i]) / (bi[i] - w[i])
+	}
+	return scale, offset
 }
 
 func detectDestinationBlackPoint(p *Profile, intent Intent) XYZ {
