@@ -17,33 +17,6 @@ import (
 	"sheaf/render/tooltest"
 )
 
-// ghostscriptProfile finds one of the ICC profiles Debian's ghostscript
-// package installs (they are not ours to commit: see README). It skips
-// when they are missing and fails under SHEAF_REQUIRE_TOOLS=1.
-func ghostscriptProfile(t testing.TB, name string) string {
-	t.Helper()
-	for _, dir := range []string{"/usr/share/color/icc/ghostscript"} {
-		if p := filepath.Join(dir, name); fileExists(p) {
-			return p
-		}
-	}
-	matches, _ := filepath.Glob("/usr/share/ghostscript/*/iccprofiles/" + name)
-	if len(matches) > 0 {
-		return matches[0]
-	}
-	msg := name + " not found; install Debian package ghostscript"
-	if os.Getenv(tooltest.EnvRequire) == "1" {
-		t.Fatalf("%s (required because %s=1)", msg, tooltest.EnvRequire)
-	}
-	t.Skip(msg)
-	return ""
-}
-
-func fileExists(p string) bool {
-	st, err := os.Stat(p)
-	return err == nil && st.Mode().IsRegular()
-}
-
 func loadProfile(t testing.TB, path string) *icc.Profile {
 	t.Helper()
 	b, err := os.ReadFile(path)
@@ -152,7 +125,7 @@ func TestAgainstLittleCMS(t *testing.T) {
 	}
 	for _, c := range cases {
 		t.Run(fmt.Sprintf("%s/%v/bpc=%v", c.profile, c.intent, c.bpc), func(t *testing.T) {
-			path := ghostscriptProfile(t, c.profile)
+			path := tooltest.ICCProfile(t, c.profile)
 			dst := loadProfile(t, path)
 			xf, err := icc.NewTransform(src, dst, c.intent, c.bpc)
 			require.NoError(t, err)

@@ -3,7 +3,6 @@ package press_test
 import (
 	"math"
 	"os"
-	"path/filepath"
 	"testing"
 
 	"github.com/stretchr/testify/assert"
@@ -15,24 +14,11 @@ import (
 	"sheaf/render/tooltest"
 )
 
-// coated finds Ghostscript's generic coated CMYK profile (Debian package
-// ghostscript); skips when missing, fails under SHEAF_REQUIRE_TOOLS=1.
 func coated(t testing.TB) []byte {
-	t.Helper()
-	for _, p := range append([]string{"/usr/share/color/icc/ghostscript/default_cmyk.icc"}, glob("/usr/share/ghostscript/*/iccprofiles/default_cmyk.icc")...) {
-		if b, err := os.ReadFile(p); err == nil {
-			return b
-		}
-	}
-	msg := "default_cmyk.icc not found; install Debian package ghostscript"
-	if os.Getenv(tooltest.EnvRequire) == "1" {
-		t.Fatal(msg)
-	}
-	t.Skip(msg)
-	return nil
+	b, err := os.ReadFile(tooltest.ICCProfile(t, "default_cmyk.icc"))
+	require.NoError(t, err)
+	return b
 }
-
-func glob(p string) []string { m, _ := filepath.Glob(p); return m }
 
 func condition(t testing.TB) *press.Condition {
 	c, err := press.New(coated(t), press.Settings{Registry: "http://www.color.org", InkLimit: 300, Intent: icc.RelativeColorimetric})

@@ -9,6 +9,7 @@ package tooltest
 import (
 	"os"
 	"os/exec"
+	"path/filepath"
 	"testing"
 )
 
@@ -25,6 +26,29 @@ func Require(t testing.TB, program, debianPackage string) string {
 		return path
 	}
 	msg := program + " not found; install Debian package " + debianPackage
+	if os.Getenv(EnvRequire) == "1" {
+		t.Fatalf("%s (required because %s=1)", msg, EnvRequire)
+	}
+	t.Skip(msg)
+	return ""
+}
+
+// ICCProfile returns the path of one of the ICC profiles Debian's
+// ghostscript package installs (default_cmyk.icc, ps_cmyk.icc, …: not ours
+// to commit), or skips (fails under SHEAF_REQUIRE_TOOLS=1) when it is
+// missing.
+func ICCProfile(t testing.TB, name string) string {
+	t.Helper()
+	candidates := []string{"/usr/share/color/icc/ghostscript/" + name}
+	if m, _ := filepath.Glob("/usr/share/ghostscript/*/iccprofiles/" + name); len(m) > 0 {
+		candidates = append(candidates, m...)
+	}
+	for _, p := range candidates {
+		if st, err := os.Stat(p); err == nil && st.Mode().IsRegular() {
+			return p
+		}
+	}
+	msg := name + " not found; install Debian package ghostscript"
 	if os.Getenv(EnvRequire) == "1" {
 		t.Fatalf("%s (required because %s=1)", msg, EnvRequire)
 	}
