@@ -6,8 +6,8 @@ package pdfcpucheck
 
 import (
 	"bytes"
-	"os"
 	"math"
+	"os"
 	"testing"
 	"time"
 
