@@ -17,6 +17,7 @@ import (
 	"sheaf/layout"
 	"sheaf/layout/fonts"
 	"sheaf/palette"
+	"sheaf/palette/press"
 	"sheaf/render/page"
 	"sheaf/render/tooltest"
 	"sheaf/specs"
@@ -91,7 +92,11 @@ func checkSpec(t *testing.T, dir, text string) []Finding {
 		t.Fatal(err)
 	}
 	feat := page.NewFeature(s, out, plan, data, sc, fs)
-	got, err := Check(Input{Spec: s, Output: out, Plan: plan, Data: data, Fonts: fs, Labels: feat.Labels(), Palette: &rep})
+	cond, err := press.ForOutput(s, out)
+	if err != nil {
+		t.Fatal(err)
+	}
+	got, err := Check(Input{Spec: s, Output: out, Plan: plan, Data: data, Fonts: fs, Labels: feat.Labels(), Palette: &rep, Scale: &sc, Press: cond})
 	if err != nil {
 		t.Fatal(err)
 	}
