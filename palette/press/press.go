@@ -47,8 +47,9 @@ type Condition struct {
 	InkLimit   float64
 	Intent     icc.Intent
 
-	srgb *icc.Profile
-	xf   *icc.Transform
+	srgb  *icc.Profile
+	xf    *icc.Transform
+	proof *icc.Transform // press → sRGB, for soft proofs
 
 	mu      sync.Mutex
 	neutral map[float64][]float64
@@ -89,8 +90,12 @@ func New(profile []byte, s Settings) (*Condition, error) {
 	if err != nil {
 		return nil, err
 	}
+	proof, err := icc.NewTransform(p, src, icc.RelativeColorimetric, true)
+	if err != nil {
+		return nil, err
+	}
 	c := &Condition{Profile: p, Identifier: s.Condition, Registry: s.Registry, InkLimit: s.InkLimit, Intent: s.Intent,
-		srgb: src, xf: xf, neutral: map[float64][]float64{}, ramps: map[string][]Stop{}}
+		srgb: src, xf: xf, proof: proof, neutral: map[float64][]float64{}, ramps: map[string][]Stop{}}
 	if c.Identifier == "" {
 		c.Identifier = p.Description
 	}
@@ -212,11 +217,12 @@ func (c *Condition) Intended(rgb palette.RGB) palette.Lab {
 }
 
 // Proof is the soft proof of device values: how the press prints them,
-// as sRGB (device → PCS → sRGB, relative colorimetric; colours the screen
-// cannot show are clipped).
+// as sRGB (device → PCS → sRGB, relative colorimetric with black-point
+// compensation, so paper shows as white and solid ink as the screen's
+// black — what Ghostscript and LittleCMS show by default; colours the
+// screen cannot show are clipped).
 func (c *Condition) Proof(ink []float64) palette.RGB {
-	x := c.Profile.ToXYZ(ink, icc.RelativeColorimetric)
-	v := c.srgb.FromXYZ(x, icc.RelativeColorimetric)
+	v := c.proof.Convert(ink)
 	return palette.RGB{R: v[0], G: v[1], B: v[2]}
 }
 
