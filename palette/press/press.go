@@ -16,6 +16,8 @@
 package press
 
 import (
+	"crypto/sha256"
+	"encoding/hex"
 	"errors"
 	"fmt"
 	"math"
@@ -106,6 +108,15 @@ func New(profile []byte, s Settings) (*Condition, error) {
 		c.InkLimit = 300
 	}
 	return c, nil
+}
+
+// Fingerprint is a hash of everything that decides the conversions: the
+// profile's bytes and the settings. Equal fingerprints convert alike.
+func (c *Condition) Fingerprint() string {
+	h := sha256.New()
+	h.Write(c.Profile.Bytes())
+	fmt.Fprintf(h, "\x00%s\x00%s\x00%g\x00%d\x00press v1", c.Identifier, c.Registry, c.InkLimit, c.Intent)
+	return hex.EncodeToString(h.Sum(nil))
 }
 
 // Components is the number of device components: 4 (CMYK), 3 (RGB), 1 (gray).
@@ -226,11 +237,18 @@ func (c *Condition) Proof(ink []float64) palette.RGB {
 	return palette.RGB{R: v[0], G: v[1], B: v[2]}
 }
 
-// Shift is the ΔE00 between a colour as intended and as the press prints
-// it (Ink, then Printed).
+// Shift is the ΔE00 between a colour as intended and its press round
+// trip: the colour to ink (Ink) and back as the soft proof shows it
+// (Proof), both in CIELAB D50. The black-point compensation of the way
+// there is undone on the way back, so what is left is what the press
+// cannot print.
 func (c *Condition) Shift(rgb palette.RGB) float64 {
 	ink, _ := c.Ink(rgb)
-	return palette.DeltaE00(c.Intended(rgb), c.Printed(ink))
+	return c.shiftOf(rgb, ink)
+}
+
+func (c *Condition) shiftOf(rgb palette.RGB, ink []float64) float64 {
+	return palette.DeltaE00(c.Intended(rgb), c.Intended(c.Proof(ink)))
 }
 
 // Stop is a gradient stop in device values.

@@ -17,7 +17,8 @@ func (j *Job) Preflight(outs []*Output) ([]preflight.Finding, error) {
 	}
 	var all []preflight.Finding
 	for _, o := range outs {
-		in := preflight.Input{Spec: j.Spec, Output: o.Spec, Plan: o.Plan, Data: j.Data, Fonts: o.Fonts, Labels: o.Feature.Labels()}
+		in := preflight.Input{Spec: j.Spec, Output: o.Spec, Plan: o.Plan, Data: j.Data, Fonts: o.Fonts, Labels: o.Feature.Labels(),
+			Scale: &o.Feature.Palette, Press: o.Press}
 		for i := range pal {
 			if pal[i].Output == o.Spec.Name {
 				in.Palette = &pal[i].Report

@@ -44,7 +44,7 @@ type PageSetup struct {
 	// its profile, greys as black ink alone, black type overprinting. The
 	// document's Options.Press must be the same condition. Nil: colours
 	// stay sRGB (ICCBased).
-	Press *press.Condition
+	Press *press.Condition `json:"-"`
 }
 
 // EncodedPage is a page turned into PDF: a compressed content stream plus

@@ -54,8 +54,7 @@ func (c *checker) press() {
 				worstInk, worstInkYear = t, y
 			}
 		}
-		printed := cond.Printed(ink)
-		if d := palette.DeltaE00(cond.Intended(rgb), printed); d > maxShift {
+		if d := cond.Shift(rgb); d > maxShift {
 			shifted = append(shifted, y)
 			if d > worstShift {
 				worstShift, worstShiftYear = d, y
