@@ -17,6 +17,7 @@ package press
 
 import (
 	"crypto/sha256"
+	"encoding/binary"
 	"encoding/hex"
 	"errors"
 	"fmt"
@@ -56,6 +57,12 @@ type Condition struct {
 	mu      sync.Mutex
 	neutral map[float64][]float64
 	ramps   map[string][]Stop
+	inks    map[palette.RGB]solid
+}
+
+type solid struct {
+	ink   []float64
+	black bool
 }
 
 // ErrNotOutput is wrapped by New for a profile that is not a printer's.
@@ -97,7 +104,7 @@ func New(profile []byte, s Settings) (*Condition, error) {
 		return nil, err
 	}
 	c := &Condition{Profile: p, Identifier: s.Condition, Registry: s.Registry, InkLimit: s.InkLimit, Intent: s.Intent,
-		srgb: src, xf: xf, proof: proof, neutral: map[float64][]float64{}, ramps: map[string][]Stop{}}
+		srgb: src, xf: xf, proof: proof, neutral: map[float64][]float64{}, ramps: map[string][]Stop{}, inks: map[palette.RGB]solid{}}
 	if c.Identifier == "" {
 		c.Identifier = p.Description
 	}
@@ -142,10 +149,20 @@ func IsNeutral(rgb palette.RGB) bool {
 // Ink is what a solid colour prints as: greys as black ink alone (see
 // Neutral), other colours through the profile. black reports a grey.
 func (c *Condition) Ink(rgb palette.RGB) (ink []float64, black bool) {
-	if IsNeutral(rgb) {
-		return c.Neutral(c.lab(rgb).L), true
+	c.mu.Lock()
+	s, ok := c.inks[rgb]
+	c.mu.Unlock()
+	if !ok {
+		if IsNeutral(rgb) {
+			s = solid{c.Neutral(c.lab(rgb).L), true}
+		} else {
+			s = solid{c.Convert(rgb), false}
+		}
+		c.mu.Lock()
+		c.inks[rgb] = s
+		c.mu.Unlock()
 	}
-	return c.Convert(rgb), false
+	return append([]float64(nil), s.ink...), s.black
 }
 
 // Neutral is the black-ink tint whose lightness through the profile is L*
@@ -336,7 +353,9 @@ func lerpInk(a, b []float64, t float64) []float64 {
 func rampKey(stops []RGBStop) string {
 	b := make([]byte, 0, 32*len(stops))
 	for _, s := range stops {
-		b = fmt.Appendf(b, "%g %g %g %g;", s.Offset, s.RGB.R, s.RGB.G, s.RGB.B)
+		for _, v := range [4]float64{s.Offset, s.RGB.R, s.RGB.G, s.RGB.B} {
+			b = binary.LittleEndian.AppendUint64(b, math.Float64bits(v))
+		}
 	}
 	return string(b)
 }
