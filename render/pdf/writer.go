@@ -2,8 +2,10 @@
 //
 // A Writer implements the document side (ISO 32000-1, PDF 1.6, with the
 // structure PDF/X-4 asks for, ISO 15930-7): page boxes (MediaBox = CropBox,
-// BleedBox, TrimBox), every colour in one embedded ICC sRGB profile that is
-// also the document's GTS_PDFX output intent, TrueType fonts embedded as
+// BleedBox, TrimBox), colours either in one embedded ICC sRGB profile (an
+// RGB file: no output intent, no PDF/X claim) or, with a printing condition
+// (Options.Press), in the press's device colours with its profile as the
+// GTS_PDFX output intent (PDF/X-4), TrueType fonts embedded as
 // subset CID fonts with ToUnicode maps, Info and XMP metadata that agree,
 // a trailer /ID, and printer's marks in a registration colour. Drawing
 // stays canvas code: each page is drawn on a *canvas.Canvas and rendered

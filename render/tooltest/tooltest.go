@@ -34,7 +34,7 @@ func Require(t testing.TB, program, debianPackage string) string {
 }
 
 // ICCProfile returns the path of one of the ICC profiles Debian's
-// ghostscript package installs (default_cmyk.icc, ps_cmyk.icc, …: not ours
+// ghostscript installs (package libgs-common) (default_cmyk.icc, ps_cmyk.icc, …: not ours
 // to commit), or skips (fails under SHEAF_REQUIRE_TOOLS=1) when it is
 // missing.
 func ICCProfile(t testing.TB, name string) string {
@@ -48,7 +48,7 @@ func ICCProfile(t testing.TB, name string) string {
 			return p
 		}
 	}
-	msg := name + " not found; install Debian package ghostscript"
+	msg := name + " not found; install Debian package libgs-common (comes with ghostscript)"
 	if os.Getenv(EnvRequire) == "1" {
 		t.Fatalf("%s (required because %s=1)", msg, EnvRequire)
 	}
