@@ -7,6 +7,7 @@
 package tooltest
 
 import (
+	"errors"
 	"os"
 	"os/exec"
 	"path/filepath"
@@ -33,10 +34,39 @@ func Require(t testing.TB, program, debianPackage string) string {
 	return ""
 }
 
+// RequireFile returns path when it names a readable regular file, or skips
+// (fails under SHEAF_REQUIRE_TOOLS=1) when it does not: for data that a
+// Debian package installs, such as wamerican's /usr/share/dict/words.
+// debianPackage names the package that provides it, for the message.
+func RequireFile(t testing.TB, path, debianPackage string) string {
+	t.Helper()
+	f, err := os.Open(path)
+	if err == nil {
+		fi, serr := f.Stat()
+		f.Close()
+		if serr == nil && fi.Mode().IsRegular() {
+			return path
+		}
+		if serr == nil {
+			err = errNotRegular
+		} else {
+			err = serr
+		}
+	}
+	msg := path + " not readable (" + err.Error() + "); install Debian package " + debianPackage
+	if os.Getenv(EnvRequire) == "1" {
+		t.Fatalf("%s (required because %s=1)", msg, EnvRequire)
+	}
+	t.Skip(msg)
+	return ""
+}
+
+var errNotRegular = errors.New("not a regular file")
+
 // ICCProfile returns the path of one of the ICC profiles Debian's
-// ghostscript installs (package libgs-common) (default_cmyk.icc, ps_cmyk.icc, …: not ours
-// to commit), or skips (fails under SHEAF_REQUIRE_TOOLS=1) when it is
-// missing.
+// ghostscript installs (package libgs-common: default_cmyk.icc,
+// ps_cmyk.icc, …; not ours to commit), or skips (fails under
+// SHEAF_REQUIRE_TOOLS=1) when it is missing.
 func ICCProfile(t testing.TB, name string) string {
 	t.Helper()
 	candidates := []string{"/usr/share/color/icc/ghostscript/" + name}
@@ -48,10 +78,5 @@ func ICCProfile(t testing.TB, name string) string {
 			return p
 		}
 	}
-	msg := name + " not found; install Debian package libgs-common (comes with ghostscript)"
-	if os.Getenv(EnvRequire) == "1" {
-		t.Fatalf("%s (required because %s=1)", msg, EnvRequire)
-	}
-	t.Skip(msg)
-	return ""
+	return RequireFile(t, candidates[0], "libgs-common (comes with ghostscript)")
 }
