@@ -118,3 +118,27 @@ func TestProof(t *testing.T) {
 	p := c.Proof(c.Convert(mid))
 	assert.Less(t, palette.DeltaE00(c.Intended(mid), c.Intended(p)), 3.0)
 }
+
+// A gradient with few, far-apart stops (saturated orange to blue): ink
+// values interpolated straight between the two converted ends would stray
+// far from the colours between them converted directly; Ramp adds stops
+// until every point is within MaxRampError (checked at 200 points, not
+// only at the midpoints Ramp itself tests).
+func TestRampRefinesSparseGradients(t *testing.T) {
+	c := condition(t)
+	a, b := palette.RGB{R: 0.95, G: 0.45, B: 0.05}, palette.RGB{R: 0.1, G: 0.2, B: 0.85}
+	out := c.Ramp([]press.RGBStop{{Offset: 0, RGB: a}, {Offset: 1, RGB: b}})
+	straight := []press.Stop{{Offset: 0, Ink: c.Convert(a)}, {Offset: 1, Ink: c.Convert(b)}}
+	worst, worstStraight := 0.0, 0.0
+	for i := 0; i <= 200; i++ {
+		tt := float64(i) / 200
+		rgb := palette.RGB{R: a.R + tt*(b.R-a.R), G: a.G + tt*(b.G-a.G), B: a.B + tt*(b.B-a.B)}
+		want := c.Printed(c.Convert(rgb))
+		worst = math.Max(worst, palette.DeltaE00(want, c.Printed(inkAt(out, tt))))
+		worstStraight = math.Max(worstStraight, palette.DeltaE00(want, c.Printed(inkAt(straight, tt))))
+	}
+	t.Logf("2 stops → %d; worst ΔE00 %.2f (straight between the ends: %.1f)", len(out), worst, worstStraight)
+	assert.Greater(t, worstStraight, 2.0, "the test gradient must need refining")
+	assert.LessOrEqual(t, worst, 1.0)
+	assert.Greater(t, len(out), 2)
+}
