@@ -1,0 +1,98 @@
+package series
+
+import "math"
+
+// Pool sums counts and exposure over a centred window of years years
+// around each year: the pooled estimate of year j is counts ÷ exposure
+// over its window (a ratio of sums, not a mean of yearly ratios, so a
+// year with a small total weighs as little as its words). A window is cut
+// where the run of years it sits in ends — at the span's ends and at a gap
+// year (NaN count or exposure) —, so it shrinks there and never reaches
+// across a gap. Gap years stay NaN. years of 0 or 1 pools nothing: each
+// year alone.
+func Pool(counts, exposure []float64, years int) (pooled, pooledExposure []float64) {
+	n := len(counts)
+	pooled = make([]float64, n)
+	pooledExposure = make([]float64, n)
+	half := 0
+	if years > 1 {
+		half = years / 2
+	}
+	gap := func(j int) bool { return math.IsNaN(counts[j]) || math.IsNaN(exposure[j]) }
+	for j := 0; j < n; {
+		if gap(j) {
+			pooled[j], pooledExposure[j] = math.NaN(), math.NaN()
+			j++
+			continue
+		}
+		// The run of years with data that j starts: [start, end).
+		start, end := j, j
+		for end < n && !gap(end) {
+			end++
+		}
+		for i := start; i < end; i++ {
+			lo, hi := max(start, i-half), min(end-1, i+half)
+			var c, e float64
+			for k := lo; k <= hi; k++ {
+				c += counts[k]
+				e += exposure[k]
+			}
+			pooled[i], pooledExposure[i] = c, e
+		}
+		j = end
+	}
+	return pooled, pooledExposure
+}
+
+// exposure is what a count is divided by in each year: the year's total
+// words for shares, one year for raw counts (so that a pooled raw count
+// is a mean per year). NaN where the year is a gap.
+func (set *Set) exposure(sr *Series) []float64 {
+	if set.totals != nil {
+		return set.totals
+	}
+	e := make([]float64, len(sr.Counts))
+	for j := range e {
+		e[j] = 1
+	}
+	return e
+}
+
+// Pooled returns a series' counts summed over each year's rolling window
+// and what they are divided by (the window's total words, or its number
+// of years with raw counts); without smoothing, each year's own. The
+// plotted value is pooled ÷ exposure × sr.Factor.
+func (set *Set) Pooled(sr *Series) (pooled, exposure []float64) {
+	return Pool(sr.Counts, set.exposure(sr), set.Rolling)
+}
+
+// Yearly returns a series' values year by year before any smoothing, in
+// the unit of the feature before own-peak scaling: per million words (or
+// raw counts). A one-year spike is a property of these.
+func (set *Set) Yearly(sr *Series) []float64 {
+	e := set.exposure(sr)
+	v := make([]float64, len(sr.Counts))
+	for j, c := range sr.Counts {
+		v[j] = c / e[j] * set.unitFactor
+	}
+	return v
+}
+
+// Band returns the limits of the exact Poisson interval at level (0.95
+// for 95 %) around every plotted value of sr: each year's pooled count's
+// interval (PoissonInterval), divided by its exposure and scaled as the
+// line is. NaN in gap years.
+func (set *Set) Band(sr *Series, level float64) (lo, hi []float64) {
+	pooled, exposure := set.Pooled(sr)
+	lo, hi = make([]float64, len(pooled)), make([]float64, len(pooled))
+	for j, k := range pooled {
+		if math.IsNaN(k) {
+			lo[j], hi[j] = math.NaN(), math.NaN()
+			continue
+		}
+		l, u := PoissonInterval(k, level)
+		lo[j] = l / exposure[j] * sr.Factor
+		hi[j] = u / exposure[j] * sr.Factor
+	}
+	return lo, hi
+}
