@@ -19,8 +19,10 @@ func PoissonInterval(k, level float64) (lower, upper float64) {
 }
 
 // gammaQuantile returns x with P(a, x) = p, P the regularized lower
-// incomplete gamma function: Newton's method on P, kept inside a bracket
-// that bisection shrinks whenever a Newton step would leave it.
+// incomplete gamma function: Newton's method on P from the
+// Wilson–Hilferty approximation (Johnson, Kotz & Balakrishnan,
+// Continuous Univariate Distributions vol. 1, 2nd ed., §18.8), kept
+// inside a bracket that bisection shrinks whenever a step would leave it.
 func gammaQuantile(a, p float64) float64 {
 	if p <= 0 {
 		return 0
@@ -28,13 +30,15 @@ func gammaQuantile(a, p float64) float64 {
 	if p >= 1 {
 		return math.Inf(1)
 	}
-	lo, hi := 0.0, math.Max(1, a)
-	for gammaP(a, hi) < p {
-		lo, hi = hi, hi*2
+	z := math.Sqrt2 * math.Erfinv(2*p-1)
+	c := 1 - 1/(9*a) + z/(3*math.Sqrt(a))
+	x := a * c * c * c
+	if !(x > 0) {
+		x = math.Min(a, 1) * 0.5
 	}
-	x := (lo + hi) / 2
+	lo, hi := 0.0, math.Inf(1)
 	lg, _ := math.Lgamma(a)
-	for range 200 {
+	for range 400 {
 		f := gammaP(a, x) - p
 		if f < 0 {
 			lo = x
@@ -43,12 +47,17 @@ func gammaQuantile(a, p float64) float64 {
 		}
 		// P'(a, x) = x^(a−1) e^(−x) / Γ(a)
 		d := math.Exp((a-1)*math.Log(x) - x - lg)
-		next := x - f/d
-		if !(next > lo && next < hi) || d == 0 {
-			next = (lo + hi) / 2
+		step := f / d
+		if math.Abs(step) <= 1e-13*math.Max(1e-3, x) || f == 0 {
+			return x - step
 		}
-		if math.Abs(next-x) <= 1e-15*math.Max(1, x) {
-			return next
+		next := x - step
+		if !(next > lo && next < hi) || d == 0 || math.IsNaN(next) {
+			if math.IsInf(hi, 1) {
+				next = 2 * x
+			} else {
+				next = (lo + hi) / 2
+			}
 		}
 		x = next
 	}
@@ -95,7 +104,7 @@ func gammaP(a, x float64) float64 {
 		d = 1 / d
 		del := d * c
 		h *= del
-		if math.Abs(del-1) < 1e-16 {
+		if math.Abs(del-1) < 1e-15 {
 			break
 		}
 	}
