@@ -59,14 +59,14 @@ type Group struct {
 // Set is the data of a feature, ready to plot.
 type Set struct {
 	Span   specs.Span
-	Years  []float64   // x values, one per year of the span
-	Gaps   []int       // years of the span the totals table lacks
-	Series []Series    // selected terms, in panel order
-	Groups []Group     // one group with an empty heading when not grouping
-	Unit   string      // what a value means, for the key
-	YMax   float64     // the shared y-range top (largest YMax)
-	Terms  int         // distinct terms in the counts table
-	Rows   int         // data rows read from the counts table
+	Years  []float64 // x values, one per year of the span
+	Gaps   []int     // years of the span the totals table lacks
+	Series []Series  // selected terms, in panel order
+	Groups []Group   // one group with an empty heading when not grouping
+	Unit   string    // what a value means, for the key
+	YMax   float64   // the shared y-range top (largest YMax)
+	Terms  int       // distinct terms in the counts table
+	Rows   int       // data rows read from the counts table
 	// Rolling is the centred window, in years, the counts are pooled
 	// over before scaling (see Pool); 0: every year alone.
 	Rolling int

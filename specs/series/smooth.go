@@ -1,6 +1,9 @@
 package series
 
-import "math"
+import (
+	"math"
+	"sync"
+)
 
 // Pool sums counts and exposure over a centred window of years years
 // around each year: the pooled estimate of year j is counts ÷ exposure
@@ -78,11 +81,11 @@ func (set *Set) Yearly(sr *Series) []float64 {
 	return v
 }
 
-// Band returns the limits of the exact Poisson interval at level (0.95
-// for 95 %) around every plotted value of sr: each year's pooled count's
-// interval (PoissonInterval), divided by its exposure and scaled as the
-// line is. NaN in gap years.
-func (set *Set) Band(sr *Series, level float64) (lo, hi []float64) {
+// Band returns the limits of the exact Poisson interval at iv's level
+// around every plotted value of sr: each year's pooled count's interval
+// (PoissonInterval), divided by its exposure and scaled as the line is.
+// NaN in gap years.
+func (set *Set) Band(sr *Series, iv *Intervals) (lo, hi []float64) {
 	pooled, exposure := set.Pooled(sr)
 	lo, hi = make([]float64, len(pooled)), make([]float64, len(pooled))
 	for j, k := range pooled {
@@ -90,9 +93,38 @@ func (set *Set) Band(sr *Series, level float64) (lo, hi []float64) {
 			lo[j], hi[j] = math.NaN(), math.NaN()
 			continue
 		}
-		l, u := PoissonInterval(k, level)
+		l, u := iv.Of(k)
 		lo[j] = l / exposure[j] * sr.Factor
 		hi[j] = u / exposure[j] * sr.Factor
 	}
+	return lo, hi
+}
+
+// Intervals remembers PoissonInterval at one confidence level by count:
+// counts repeat across thousands of terms (most are small whole
+// numbers), so each is solved once. It is safe for concurrent use.
+type Intervals struct {
+	Level float64
+	mu    sync.Mutex
+	known map[float64][2]float64
+}
+
+// NewIntervals returns an empty memo for level (0.95 for 95 %).
+func NewIntervals(level float64) *Intervals {
+	return &Intervals{Level: level, known: map[float64][2]float64{}}
+}
+
+// Of returns the interval of count k.
+func (iv *Intervals) Of(k float64) (lo, hi float64) {
+	iv.mu.Lock()
+	v, ok := iv.known[k]
+	iv.mu.Unlock()
+	if ok {
+		return v[0], v[1]
+	}
+	lo, hi = PoissonInterval(k, iv.Level)
+	iv.mu.Lock()
+	iv.known[k] = [2]float64{lo, hi}
+	iv.mu.Unlock()
 	return lo, hi
 }

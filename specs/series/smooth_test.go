@@ -270,7 +270,7 @@ func TestBandSmall(t *testing.T) {
 			tg = &set.Series[i]
 		}
 	}
-	lo, hi := set.Band(tg, 0.95)
+	lo, hi := set.Band(tg, NewIntervals(0.95))
 	wantLo := distuv.ChiSquared{K: 180}.Quantile(0.025) / 2 / 280000 * 1e6
 	wantHi := distuv.ChiSquared{K: 182}.Quantile(0.975) / 2 / 280000 * 1e6
 	assert.InDelta(t, wantLo, lo[4], 1e-7)
