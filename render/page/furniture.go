@@ -110,7 +110,7 @@ func (f *Feature) scaleNotes() []string {
 	roll := f.Data.Note()
 	band := ""
 	if f.Output.Band > 0 {
-		band = "; tint: " + strconv.FormatFloat(f.Output.Band*100, 'f', -1, 64) + " % interval"
+		band = "; tint: " + strconv.FormatFloat(f.Output.Band*100, 'f', -1, 64) + "% interval"
 	}
 	if roll == "" && band == "" {
 		return notes
