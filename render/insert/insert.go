@@ -84,9 +84,9 @@ type Graphic struct {
 	m      curve.Map
 	stops  []palette.Stop
 
-	rows      []Row              // aligned rows, top first (rows style only)
-	scaleNote string             // what the values are, above the plot
-	intervals *series.Intervals  // the band's intervals; nil: no band
+	rows      []Row             // aligned rows, top first (rows style only)
+	scaleNote string            // what the values are, above the plot
+	intervals *series.Intervals // the band's intervals; nil: no band
 }
 
 // Row is one term's strip in the aligned-rows style.

@@ -99,7 +99,7 @@ func TestRowsDraw(t *testing.T) {
 	pk := r.Map.Apply(float64(sr.PeakYear), sr.Peak)
 	k := dpi / 72.0
 	c := img.RGBAAt(int(pk.X*k), int((h-pk.Y)*k))
-	want := g.colorAt(pk.X)
+	want := rgba(g.Palette.At(float64(sr.PeakYear)).RGB()) // the era colour of the peak year
 	assert.InDelta(t, float64(want.R), float64(c.R), 12, "peak dot red")
 	assert.InDelta(t, float64(want.G), float64(c.G), 12, "peak dot green")
 	assert.InDelta(t, float64(want.B), float64(c.B), 12, "peak dot blue")
