@@ -265,7 +265,8 @@ func (g *Graphic) layout() error {
 	if n := g.Data.Note(); n != "" {
 		g.scaleNote += " (" + n + ")"
 	}
-	if g.Output.Band > 0 && g.Rowed() { // overlaid bands would hide each other
+	// Overlaid bands would hide each other: a band in rows or alone.
+	if g.Output.Band > 0 && (g.Rowed() || len(g.Data.Series) == 1) {
 		g.intervals = series.NewIntervals(g.Output.Band)
 		g.scaleNote += "; tint: " + strconv.FormatFloat(g.Output.Band*100, 'f', -1, 64) + "% interval"
 	}
@@ -491,8 +492,14 @@ func (g *Graphic) Draw(ctx *canvas.Context) error {
 		text(ctx, fs, fonts.Regular, ts, inkSoft, x, base, canvas.Center, strconv.Itoa(yr))
 	}
 
-	// The lines, first term on top: drawn last.
+	// The lines, first term on top: drawn last; a single term's band
+	// behind its line.
 	var b curve.Builder
+	if g.intervals != nil {
+		if err := g.band(ctx, &b, &g.Data.Series[0], g.m, g.plot.Y0); err != nil {
+			return err
+		}
+	}
 	for i := len(g.Data.Series) - 1; i >= 0; i-- {
 		b.Reset()
 		if err := g.stroke(ctx, &b, &g.Data.Series[i], g.m, &Styles[i]); err != nil {
@@ -539,7 +546,6 @@ func (g *Graphic) drawRows(ctx *canvas.Context) error {
 	fs := g.Fonts
 	t := g.Output.Type
 	ls, ts := t.Label.Pt(), t.Ticks.Pt()
-	lw := g.Output.Line.Pt()
 	pr := g.plot
 	// What the values are, above the rows, at the left edge.
 	text(ctx, fs, fonts.Regular, ts, inkSoft, g.pad, pr.Y1+ts*1.1, canvas.Left,
@@ -560,19 +566,8 @@ func (g *Graphic) drawRows(ctx *canvas.Context) error {
 		line(ctx, r.Plot.X0, r.Plot.Y0, r.Plot.X1, r.Plot.Y0, g.rule, axisGrey, nil)
 		b.Reset()
 		if g.intervals != nil {
-			lo, hi := g.Data.Band(sr, g.intervals)
-			path, err := page.BandPath(&b, g.Data.Years, lo, hi, g.yMax, r.Map, lw*2)
-			if err != nil {
-				return fmt.Errorf("insert %q, term %q: band: %w", g.Insert.Name, sr.Term, err)
-			}
-			if !path.Empty() {
-				gr := canvas.NewLinearGradient(canvas.Point{X: pr.X0 * mm, Y: r.Plot.Y0 * mm}, canvas.Point{X: pr.X1 * mm, Y: r.Plot.Y0 * mm})
-				page.AddStops(gr, page.TintStops(g.stops, page.ColorOf(g.Spec.Palette.Paper).RGB(), page.BandStrength),
-					float64(g.Data.Span.From), float64(g.Data.Span.To))
-				ctx.ResetStyle()
-				ctx.SetStrokeColor(canvas.Transparent)
-				ctx.SetFillGradient(gr)
-				ctx.DrawPath(0, 0, path)
+			if err := g.band(ctx, &b, sr, r.Map, r.Plot.Y0); err != nil {
+				return err
 			}
 		}
 		if err := g.stroke(ctx, &b, sr, r.Map, nil); err != nil {
@@ -598,6 +593,27 @@ func (g *Graphic) drawRows(ctx *canvas.Context) error {
 		line(ctx, x, last.Plot.Y0, x, last.Plot.Y0-tick, g.rule, axisGrey, nil)
 		text(ctx, fs, fonts.Regular, ts, inkSoft, x, base, canvas.Center, strconv.Itoa(yr))
 	}
+	return nil
+}
+
+// band fills a term's uncertainty band through m with a tint of the era
+// palette (as the pages do, page.BandPath).
+func (g *Graphic) band(ctx *canvas.Context, b *curve.Builder, sr *series.Series, m curve.Map, y float64) error {
+	lo, hi := g.Data.Band(sr, g.intervals)
+	path, err := page.BandPath(b, g.Data.Years, lo, hi, g.yMax, m, g.Output.Line.Pt()*2)
+	if err != nil {
+		return fmt.Errorf("insert %q, term %q: band: %w", g.Insert.Name, sr.Term, err)
+	}
+	if path.Empty() {
+		return nil
+	}
+	gr := canvas.NewLinearGradient(canvas.Point{X: g.plot.X0 * mm, Y: y * mm}, canvas.Point{X: g.plot.X1 * mm, Y: y * mm})
+	page.AddStops(gr, page.TintStops(g.stops, page.ColorOf(g.Spec.Palette.Paper).RGB(), page.BandStrength),
+		float64(g.Data.Span.From), float64(g.Data.Span.To))
+	ctx.ResetStyle()
+	ctx.SetStrokeColor(canvas.Transparent)
+	ctx.SetFillGradient(gr)
+	ctx.DrawPath(0, 0, path)
 	return nil
 }
 

@@ -100,8 +100,12 @@ type Grouper interface {
 // and the peak.
 func (f *Feature) Describe(item int) (title, desc string) {
 	sr := &f.Data.Series[item]
+	unit := f.Data.Unit
+	if n := f.Data.Note(); n != "" {
+		unit += ", " + n
+	}
 	return sr.Term, fmt.Sprintf("How often %q was used each year, %d–%d (%s); highest in %d.",
-		sr.Term, f.Data.Span.From, f.Data.Span.To, f.Data.Unit, sr.PeakYear)
+		sr.Term, f.Data.Span.From, f.Data.Span.To, unit, sr.PeakYear)
 }
 
 // Ink colours of the furniture. Text and rules are one ink (black or a
