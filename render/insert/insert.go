@@ -367,8 +367,9 @@ func (g *Graphic) layoutRows(top, bottom float64) error {
 	floorW, floorH := 6*ls, 2.2*ls
 	if x1-x0 < floorW || stripH < floorH {
 		needH := math.Max(0, floorH*float64(n)+float64(n-1)*gap-(y1-bottom))
-		return fmt.Errorf("the rows would be %s × %s each; make the insert larger (at least about %s wider and %s taller) or its title shorter",
-			g.Output.Describe(specs.Length(math.Max(x1-x0, 0))), g.Output.Describe(specs.Length(math.Max(stripH, 0))),
+		return fmt.Errorf("the plot would be %s × %s, %d rows %s tall each; make the insert larger (at least about %s wider and %s taller) or its title shorter",
+			g.Output.Describe(specs.Length(math.Max(x1-x0, 0))), g.Output.Describe(specs.Length(math.Max(y1-bottom, 0))), n,
+			g.Output.Describe(specs.Length(math.Max(stripH, 0))),
 			g.Output.Describe(specs.Length(math.Max(0, floorW-(x1-x0)))), g.Output.Describe(specs.Length(needH)))
 	}
 	g.plot = rectPt{X0: x0, Y0: bottom, X1: x1, Y1: y1}
