@@ -3,6 +3,9 @@ package feature
 import (
 	"testing"
 
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
+
 	"sheaf/render/preflight"
 )
 
@@ -27,4 +30,18 @@ func TestDedupeData(t *testing.T) {
 	if got[3].Term != "tool" || got[3].Message != "n" {
 		t.Errorf("other spike %v", got[3])
 	}
+}
+
+// TestDedupeSparse: sparse-counts is a fact about a term's data, listed
+// once however many outputs show the term (invented findings).
+func TestDedupeSparse(t *testing.T) {
+	in := []preflight.Finding{
+		{ID: preflight.IDSparse, Output: "print", Page: 3, Term: "rivet", Message: "median 3"},
+		{ID: preflight.IDSparse, Output: "web", Page: 1, Term: "rivet", Message: "median 3"},
+		{ID: preflight.IDSparse, Output: "web", Page: 1, Term: "gear", Message: "median 4"},
+	}
+	got := dedupeData(in)
+	require.Len(t, got, 2)
+	assert.Equal(t, "median 3; also web p. 1", got[0].Message)
+	assert.Equal(t, "gear", got[1].Term)
 }
