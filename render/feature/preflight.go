@@ -33,7 +33,8 @@ func (j *Job) Preflight(outs []*Output) ([]preflight.Finding, error) {
 }
 
 // dedupeData keeps one finding about the data itself (a spike, an empty
-// panel) however many outputs show the term, and says where else it sits.
+// panel, a sparse term) however many outputs show the term, and says
+// where else it sits.
 func dedupeData(fs []preflight.Finding) []preflight.Finding {
 	type key struct {
 		id, term string
@@ -42,7 +43,7 @@ func dedupeData(fs []preflight.Finding) []preflight.Finding {
 	first := map[key]int{}
 	var out []preflight.Finding
 	for _, f := range fs {
-		if f.ID != preflight.IDSpike && f.ID != preflight.IDNoData {
+		if f.ID != preflight.IDSpike && f.ID != preflight.IDNoData && f.ID != preflight.IDSparse {
 			out = append(out, f)
 			continue
 		}
