@@ -261,15 +261,13 @@ func (g *Graphic) layout() error {
 		peak = 1
 	}
 	g.yTicks, g.yMax = niceTicks(peak, 4)
-	g.scaleNote = g.Data.Unit
-	if n := g.Data.Note(); n != "" {
-		g.scaleNote += " (" + n + ")"
-	}
 	// Overlaid bands would hide each other: a band in rows or alone.
+	band := ""
 	if g.Output.Band > 0 && (g.Rowed() || len(g.Data.Series) == 1) {
 		g.intervals = series.NewIntervals(g.Output.Band)
-		g.scaleNote += "; tint: " + strconv.FormatFloat(g.Output.Band*100, 'f', -1, 64) + "% interval"
+		band = "tint: " + strconv.FormatFloat(g.Output.Band*100, 'f', -1, 64) + "% interval"
 	}
+	g.scaleNote = g.fitNote(inner, band)
 	if g.Rowed() {
 		return g.layoutRows(top, bottom)
 	}
@@ -397,6 +395,31 @@ func (g *Graphic) layoutRows(top, bottom float64) error {
 	}
 	g.m = g.rows[0].Map // every row maps years alike (colorAt uses it)
 	return nil
+}
+
+// fitNote is the line above the plot that says what the values are: the
+// unit, the smoothing, the band and (in rows) that every row has one
+// scale — the longest of those wordings, dropping parts from the end,
+// that fits width.
+func (g *Graphic) fitNote(width float64, band string) string {
+	ts := g.Output.Type.Ticks.Pt()
+	unit := g.Data.Unit
+	if g.Data.Rolling > 1 {
+		unit += fmt.Sprintf(", %d-year rolling", g.Data.Rolling)
+	}
+	parts := []string{unit}
+	if band != "" {
+		parts = append(parts, band)
+	}
+	if g.Rowed() {
+		parts = append(parts, "the same scale in every row")
+	}
+	for n := len(parts); n > 1; n-- {
+		if note := strings.Join(parts[:n], "; "); g.Fonts.Width(fonts.Regular, ts, note) <= width {
+			return note
+		}
+	}
+	return unit
 }
 
 // dotRadius is the radius of the dot that marks a row's peak, as on the
@@ -549,8 +572,7 @@ func (g *Graphic) drawRows(ctx *canvas.Context) error {
 	ls, ts := t.Label.Pt(), t.Ticks.Pt()
 	pr := g.plot
 	// What the values are, above the rows, at the left edge.
-	text(ctx, fs, fonts.Regular, ts, inkSoft, g.pad, pr.Y1+ts*1.1, canvas.Left,
-		g.scaleNote+"; the same scale in every row")
+	text(ctx, fs, fonts.Regular, ts, inkSoft, g.pad, pr.Y1+ts*1.1, canvas.Left, g.scaleNote)
 	years := tickYears(fs, g.Data.Span, pr.W(), ts)
 	first, last := g.rows[0], g.rows[len(g.rows)-1]
 	for _, yr := range years {

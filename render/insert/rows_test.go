@@ -115,3 +115,21 @@ func testPalette(t *testing.T) palette.Scale {
 	require.NoError(t, err)
 	return pal
 }
+
+// TestNoteFits: the line above the plot says the unit, the smoothing and
+// "the same scale in every row" when there is room, and drops parts from
+// its end, never the unit, to stay inside the insert.
+func TestNoteFits(t *testing.T) {
+	wide := testInsertAs(t, specs.Screen, specs.Length(600*0.75), specs.Length(360*0.75), specs.CompareRows)
+	assert.Equal(t, "per million words; the same scale in every row", wide.scaleNote)
+	wide.Data.Rolling = 5
+	assert.Equal(t, "per million words, 5-year rolling; tint: 95% interval; the same scale in every row", wide.fitNote(1e6, "tint: 95% interval"))
+	ts := wide.Output.Type.Ticks.Pt()
+	for _, w := range []float64{300, 200, 120, 60} {
+		note := wide.fitNote(w, "tint: 95% interval")
+		assert.Contains(t, note, "per million words")
+		if wide.Fonts.Width(fonts.Regular, ts, "per million words, 5-year rolling") <= w {
+			assert.LessOrEqual(t, wide.Fonts.Width(fonts.Regular, ts, note), w, "width %v: %q", w, note)
+		}
+	}
+}
