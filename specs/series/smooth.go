@@ -72,11 +72,19 @@ func (set *Set) Pooled(sr *Series) (pooled, exposure []float64) {
 // Yearly returns a series' values year by year before any smoothing, in
 // the unit of the feature before own-peak scaling: per million words (or
 // raw counts). A one-year spike is a property of these.
+// A series built by hand without counts has only its values.
 func (set *Set) Yearly(sr *Series) []float64 {
+	if len(sr.Counts) == 0 {
+		return sr.Values
+	}
 	e := set.exposure(sr)
+	f := set.unitFactor
+	if f == 0 {
+		f = 1
+	}
 	v := make([]float64, len(sr.Counts))
 	for j, c := range sr.Counts {
-		v[j] = c / e[j] * set.unitFactor
+		v[j] = c / e[j] * f
 	}
 	return v
 }

@@ -287,3 +287,14 @@ func TestBandSmall(t *testing.T) {
 	assert.InDelta(t, 1.623/220000*1e6, lo[0], 0.0005/220000*1e6)
 	assert.InDelta(t, 11.668/220000*1e6, hi[0], 0.0005/220000*1e6)
 }
+
+// TestYearlyHandBuilt: a Set built by hand, without counts, gives its
+// values as the yearly values (nothing to pool).
+func TestYearlyHandBuilt(t *testing.T) {
+	set := &Set{}
+	sr := &Series{Values: []float64{1, 4, nan}}
+	got := set.Yearly(sr)
+	assert.Equal(t, 4.0, got[1])
+	raw := &Series{Counts: []float64{2, 3}}
+	assert.Equal(t, []float64{2, 3}, set.Yearly(raw), "no totals, no factor: the counts")
+}
