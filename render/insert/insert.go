@@ -623,6 +623,9 @@ func (g *Graphic) drawRows(ctx *canvas.Context) error {
 // palette (as the pages do, page.BandPath).
 func (g *Graphic) band(ctx *canvas.Context, b *curve.Builder, sr *series.Series, m curve.Map, y float64) error {
 	lo, hi := g.Data.Band(sr, g.intervals)
+	if lo == nil {
+		return nil
+	}
 	path, err := page.BandPath(b, g.Data.Years, lo, hi, g.yMax, m, g.Output.Line.Pt()*2)
 	if err != nil {
 		return fmt.Errorf("insert %q, term %q: band: %w", g.Insert.Name, sr.Term, err)

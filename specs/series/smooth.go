@@ -92,8 +92,11 @@ func (set *Set) Yearly(sr *Series) []float64 {
 // Band returns the limits of the exact Poisson interval at iv's level
 // around every plotted value of sr: each year's pooled count's interval
 // (PoissonInterval), divided by its exposure and scaled as the line is.
-// NaN in gap years.
+// NaN in gap years; nil for a series without counts.
 func (set *Set) Band(sr *Series, iv *Intervals) (lo, hi []float64) {
+	if len(sr.Counts) == 0 || iv == nil {
+		return nil, nil // built by hand without counts: no band
+	}
 	pooled, exposure := set.Pooled(sr)
 	lo, hi = make([]float64, len(pooled)), make([]float64, len(pooled))
 	for j, k := range pooled {
