@@ -5,6 +5,7 @@ import (
 	"math"
 	"regexp"
 	"strconv"
+	"strings"
 
 	"gopkg.in/yaml.v3"
 )
@@ -202,6 +203,7 @@ func (d *decoder) output(n *yaml.Node, path, name string) Output {
 			keyEverySet = true
 		}},
 		{"press", func(n *yaml.Node, path string) { o.Press = d.press(n, path) }},
+		{"band", func(n *yaml.Node, path string) { d.level(n, path, &o.Band) }},
 	}, "kind")
 	at := func(key string) *yaml.Node {
 		if p, ok := d.pos[path+"."+key]; ok {
@@ -270,6 +272,32 @@ func (d *decoder) output(n *yaml.Node, path, name string) Output {
 	return o
 }
 
+// level reads a confidence level written as a percentage, "95%", or
+// none (no band). Levels from 50 % to 99.9 % are allowed: below, the
+// band says little; above, it is mostly the tail of the distribution.
+func (d *decoder) level(n *yaml.Node, path string, dst *float64) {
+	n, ok := d.scalar(n, path)
+	if !ok {
+		return
+	}
+	v := strings.TrimSpace(n.Value)
+	if v == "none" || v == "false" || v == "off" || v == "no" {
+		*dst = 0
+		return
+	}
+	num, pct := strings.CutSuffix(v, "%")
+	f, err := strconv.ParseFloat(strings.TrimSpace(num), 64)
+	if !pct || err != nil || math.IsNaN(f) {
+		d.errorf(n, "%s must be a confidence level such as 95%% (or none), not %q", path, n.Value)
+		return
+	}
+	if f < 50 || f > 99.9 {
+		d.errorf(n, "%s must be between 50%% and 99.9%%, not %s", path, n.Value)
+		return
+	}
+	*dst = f / 100
+}
+
 // maxProofPixels bounds a proof image's side, as render/raster does.
 const maxProofPixels = 40000
 
@@ -287,14 +315,18 @@ func (d *decoder) inserts(n *yaml.Node, path string, s *Spec) {
 			d.errorf(k, "insert name %q: use letters, digits, - and _ (it names a file)", k.Value)
 			continue
 		}
-		in := Insert{Name: k.Value}
-		var size string
+		in := Insert{Name: k.Value, Compare: CompareRows}
+		var size, compare string
 		d.mapping(v, p, []field{
 			{"output", d.str(&in.Output)},
 			{"size", d.str(&size)},
 			{"terms", d.strings(&in.Terms)},
 			{"title", d.str(&in.Title)},
+			{"compare", d.choice(&compare, string(CompareRows), string(CompareOverlay))},
 		}, "output", "size", "terms")
+		if compare != "" {
+			in.Compare = Compare(compare)
+		}
 		if size != "" {
 			sz, err := ParseSize(size, false)
 			if err != nil {

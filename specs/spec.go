@@ -172,6 +172,9 @@ const (
 type Scale struct {
 	Mode   ScaleMode
 	YRange YRange
+	// Rolling is the length in years of the centred window the counts
+	// are pooled over before scaling (an odd number); 0: no smoothing.
+	Rolling int
 }
 
 // Color is a colour as written in the spec, in one of three spaces.
@@ -220,6 +223,9 @@ type Preflight struct {
 	MinScreenType Length  // smallest type size on screen
 	MinLine       Length  // thinnest rule or line in print
 	Strict        bool    // findings stop the build
+	// MinCount is the median count (yearly, or per rolling window) below
+	// which a term's line is mostly Poisson noise; 0 turns the check off.
+	MinCount float64
 }
 
 // Kind is the medium of an output.
@@ -276,6 +282,10 @@ type Output struct {
 	// Press is the printing condition (print): with it the PDF is CMYK
 	// through the printer's profile and a PDF/X-4; nil: an RGB PDF.
 	Press *Press
+	// Band is the confidence level (0.95 for 95 %) of the uncertainty
+	// band drawn behind every line: the exact Poisson interval of each
+	// year's (pooled) count. 0: no band.
+	Band float64
 }
 
 // Margins are the four margins of a page. On facing pages Inside is the
@@ -337,7 +347,21 @@ type Insert struct {
 	Size   Size
 	Terms  []string
 	Title  string
+	// Compare is how a comparison of two to four terms is drawn: in
+	// aligned rows (the default) or overlaid on one plot.
+	Compare Compare
 }
+
+// Compare is how a comparison insert shows its terms.
+type Compare string
+
+const (
+	// CompareRows gives each term a strip of its own, one above the
+	// other, sharing the x axis and the y-range.
+	CompareRows Compare = "rows"
+	// CompareOverlay draws every term on one plot, told apart by stroke.
+	CompareOverlay Compare = "overlay"
+)
 
 // ForInsert returns a copy of the spec that selects exactly the insert's
 // terms, in its order and ungrouped, scaled as the feature is; errors

@@ -61,7 +61,11 @@ func writeSummary(w io.Writer, r feature.Report) {
 		gaps = strings.Trim(fmt.Sprint(r.Years.Gaps), "[]")
 	}
 	fmt.Fprintf(w, "  years:   %d–%d (%d years; gaps: %s)\n", r.Years.From, r.Years.To, r.Years.To-r.Years.From+1, gaps)
-	fmt.Fprintf(w, "  values:  %s (%s), %s y-range\n", r.Scale.Values, r.Scale.Unit, r.Scale.YRange)
+	smoothing := ""
+	if r.Scale.Smoothing != "" {
+		smoothing = ", " + r.Scale.Smoothing
+	}
+	fmt.Fprintf(w, "  values:  %s (%s)%s, %s y-range\n", r.Scale.Values, r.Scale.Unit, smoothing, r.Scale.YRange)
 	for _, o := range r.Outputs {
 		switch {
 		case o.Kind == string(specs.Screen) && o.Layout != nil && o.Layout.Flow == specs.FlowScrollGroups:

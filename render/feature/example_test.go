@@ -30,6 +30,7 @@ func Example() {
 	}
 	// Output:
 	// print: 1 page(s), 3 panels
+	// review sparse-counts
 	// info palette
 	// info rgb-output
 }

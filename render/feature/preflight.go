@@ -40,7 +40,8 @@ func (j *Job) PreflightInput(o *Output, pal []PaletteCheck) preflight.Input {
 }
 
 // dedupeData keeps one finding about the data itself (a spike, an empty
-// panel) however many outputs show the term, and says where else it sits.
+// panel, a sparse term) however many outputs show the term, and says
+// where else it sits.
 func dedupeData(fs []preflight.Finding) []preflight.Finding {
 	type key struct {
 		id, term string
@@ -49,7 +50,7 @@ func dedupeData(fs []preflight.Finding) []preflight.Finding {
 	first := map[key]int{}
 	var out []preflight.Finding
 	for _, f := range fs {
-		if f.ID != preflight.IDSpike && f.ID != preflight.IDNoData {
+		if f.ID != preflight.IDSpike && f.ID != preflight.IDNoData && f.ID != preflight.IDSparse {
 			out = append(out, f)
 			continue
 		}

@@ -2,6 +2,7 @@ package page
 
 import (
 	"strconv"
+	"strings"
 
 	"github.com/tdewolff/canvas"
 
@@ -102,8 +103,31 @@ func (f *Feature) noteLines(size, width float64) []string {
 }
 
 // scaleNotes says what a panel's height means, in a full and a short
-// wording.
+// wording; with smoothing it says so first ("5-year rolling share"), and
+// with a band what the tint is.
 func (f *Feature) scaleNotes() []string {
+	notes := f.heightNotes()
+	roll := f.Data.Note()
+	band := ""
+	if f.Output.Band > 0 {
+		band = "; tint: " + strconv.FormatFloat(f.Output.Band*100, 'f', -1, 64) + "% interval"
+	}
+	if roll == "" && band == "" {
+		return notes
+	}
+	lead := ""
+	if roll != "" {
+		lead = strings.ToUpper(roll[:1]) + roll[1:] + ". "
+	}
+	out := []string{lead + notes[0] + band, lead + notes[1] + band}
+	if roll != "" {
+		// The shortest says the smoothing and leaves out the rest.
+		out = append(out, lead+notes[1], strings.TrimSuffix(lead, ". "))
+	}
+	return out
+}
+
+func (f *Feature) heightNotes() []string {
 	s := f.Spec.Scale
 	switch {
 	case s.Mode == specs.ScaleOwnPeak && f.Output.PeakDot:

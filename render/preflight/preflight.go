@@ -79,6 +79,7 @@ const (
 	IDGamut       = "palette-gamut"  // palette colours outside sRGB
 	IDPalette     = "palette"        // the palette check's verdict and findings
 	IDPaperTint   = "paper-tint"     // a non-white paper colour printed over the whole page
+	IDSparse      = "sparse-counts"  // a term whose line rests on counts too small to read
 )
 
 // Finding is one result.
@@ -380,20 +381,25 @@ func clip(s string, n int) string {
 	return string(r[:n-1]) + "…"
 }
 
-// panels reports panels with nothing to draw and one-year spikes: a year
-// whose value is more than spike-ratio times the term's next-highest
-// year, because one long article can make a word look like a trend. It
-// compares the plotted values, since that is the line the reader sees.
+// panels reports panels with nothing to draw, one-year spikes and lines
+// that rest on too few occurrences.
+//
+// A spike is a year whose value is more than spike-ratio times the
+// term's next-highest year, because one long article can make a word look
+// like a trend. It is a property of the yearly counts, so it is found on
+// the values before any rolling window (count ÷ the year's total, or the
+// count itself), which smoothing would hide.
 func (c *checker) panels() {
 	k := c.th.SpikeRatio
 	for i := range c.in.Data.Series {
 		sr := &c.in.Data.Series[i]
-		top, second, year := Spike(sr.Values)
+		top, second, year := Spike(c.in.Data.Yearly(sr))
 		if top <= 0 {
 			c.add(Finding{ID: IDNoData, Severity: Warning, Page: c.pageOf[i], Term: sr.Term,
 				Message: fmt.Sprintf("no data in %d–%d: every year is zero or a gap; the panel is empty", c.in.Data.Span.From, c.in.Data.Span.To)})
 			continue
 		}
+		c.sparse(i, sr)
 		if k <= 0 || top <= k*second {
 			continue
 		}
@@ -405,6 +411,73 @@ func (c *checker) panels() {
 		c.add(Finding{ID: IDSpike, Severity: Review, Page: c.pageOf[i], Term: sr.Term, Year: y,
 			Message: fmt.Sprintf("%d stands alone: %s (over %g×); check it is not one long article", y, ratio, k)})
 	}
+}
+
+// sparse reports a term whose typical count is so small that its line is
+// mostly Poisson noise: a count k scatters by about √k, 1/√k of itself —
+// 32 % at the default min-count of 10 (common practice). The count is the
+// one each plotted value rests on: the year's, or the rolling window's
+// pooled count; typical is the median over the years from the term's
+// first occurrence to its last (gap years left out), so years before a
+// word existed do not count against it.
+func (c *checker) sparse(i int, sr *series.Series) {
+	floor := c.th.MinCount
+	if floor <= 0 {
+		return
+	}
+	pooled, _ := c.in.Data.Pooled(sr)
+	med, ok := MedianActive(sr.Counts, pooled)
+	if !ok || med >= floor {
+		return
+	}
+	noise := 100.0
+	if med > 0 {
+		noise = 100 / math.Sqrt(med)
+	}
+	var msg string
+	if w := c.in.Data.Rolling; w > 1 {
+		msg = fmt.Sprintf("even pooled over %d years its median count is %s (under %g): the line is mostly noise (about ±%.0f %%); widen scale.rolling or leave the term out",
+			w, formatCount(med), floor, noise)
+	} else {
+		msg = fmt.Sprintf("its median yearly count is %s (under %g): the line is mostly noise (about ±%.0f %% a year); smooth it with scale.rolling, e.g. {years: 5}",
+			formatCount(med), floor, noise)
+	}
+	c.add(Finding{ID: IDSparse, Severity: Review, Page: c.pageOf[i], Term: sr.Term,
+		At: c.in.Spec.Where("preflight.min-count").String(), Message: msg})
+}
+
+// MedianActive returns the median of values over the years from the
+// first to the last in which counts is above zero, gap years (NaN in
+// either) left out; false when counts has no such year.
+func MedianActive(counts, values []float64) (float64, bool) {
+	first, last := -1, -1
+	for j, c := range counts {
+		if c > 0 {
+			if first < 0 {
+				first = j
+			}
+			last = j
+		}
+	}
+	if first < 0 {
+		return 0, false
+	}
+	var xs []float64
+	for j := first; j <= last; j++ {
+		if !math.IsNaN(counts[j]) && !math.IsNaN(values[j]) {
+			xs = append(xs, values[j])
+		}
+	}
+	sort.Float64s(xs)
+	n := len(xs)
+	if n%2 == 1 {
+		return xs[n/2], true
+	}
+	return (xs[n/2-1] + xs[n/2]) / 2, true
+}
+
+func formatCount(v float64) string {
+	return strconv.FormatFloat(math.Round(v*10)/10, 'f', -1, 64)
 }
 
 // Spike returns the highest of values, the highest of the other years,

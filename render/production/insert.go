@@ -136,6 +136,9 @@ func (b *build) insertInputs(p *feature.Insert, terms []TermHash) string {
 		h.int(y)
 	}
 	h.str(d.Unit)
+	h.int(d.Rolling)
+	h.float(p.Graphic.Output.Band)
+	h.str(string(p.Graphic.Insert.Compare))
 	for _, s := range p.Graphic.Palette.Stops(float64(d.Span.From), float64(d.Span.To), 0) {
 		r := s.Color
 		h.floats([]float64{s.Year, r.R, r.G, r.B})

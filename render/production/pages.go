@@ -62,6 +62,8 @@ func pageInputs(j *feature.Job, p *feature.Output, i int, setup pdf.PageSetup, s
 	h.floats(d.Years)
 	h.str(d.Unit)
 	h.float(d.YMax)
+	h.int(d.Rolling)     // the window the values were pooled over (the key's note says it)
+	h.float(p.Spec.Band) // the band's level: the tint and the key's note
 	for _, s := range p.Feature.Stops {
 		r := s.Color
 		h.floats([]float64{s.Year, r.R, r.G, r.B})
