@@ -141,6 +141,9 @@ const (
 	OrderListed   Order = "listed"       // as listed, then rule-selected terms by share
 	OrderAlpha    Order = "alphabetical" // by term, Unicode collation-free code point order after case folding
 	OrderPeakYear Order = "peak-year"    // by the year of the term's peak, then name
+	// OrderSimilarity puts panels whose plotted shapes look alike next to
+	// each other (package specs/series/shape).
+	OrderSimilarity Order = "similarity"
 )
 
 // Grouping puts panels into groups with headings.
@@ -149,6 +152,9 @@ type Grouping string
 const (
 	GroupNone       Grouping = "none"
 	GroupPeakDecade Grouping = "peak-decade"
+	// GroupSimilarity makes clusters of alike shapes into groups, each
+	// headed by a description of its mean shape.
+	GroupSimilarity Grouping = "similarity"
 )
 
 // ScaleMode is how yearly counts become the plotted value.

@@ -91,6 +91,10 @@ func arrange(s *specs.Spec, set *Set) {
 			return strings.Compare(x.Term, y.Term)
 		})
 	}
+	if s.Order == specs.OrderSimilarity || s.Group == specs.GroupSimilarity {
+		bySimilarity(s, set)
+		return
+	}
 	if s.Group != specs.GroupPeakDecade {
 		set.Groups = []Group{{Start: 0, Count: len(ser)}}
 		return

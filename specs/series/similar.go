@@ -1,0 +1,58 @@
+package series
+
+import (
+	"slices"
+
+	"sheaf/specs"
+	"sheaf/specs/series/shape"
+)
+
+// MaxSimilar is the most panels order: similarity and group: similarity
+// take: they compare every two panels and keep the distances (n²/2
+// float32: 50 MB at this many).
+const MaxSimilar = 5000
+
+// Shapes returns each series as its panel plots it (package shape).
+func (set *Set) Shapes() [][]float64 {
+	out := make([][]float64, len(set.Series))
+	for i := range set.Series {
+		out[i] = shape.Of(set.Series[i].Values, set.Series[i].YMax)
+	}
+	return out
+}
+
+// bySimilarity orders the series by shape (order: similarity) and, with
+// group: similarity, cuts them into clusters headed by what their mean
+// shape does. With group: similarity and another order, each cluster
+// keeps the seriation's place and is sorted inside by that order (ser is
+// already in it: arrange sorted it).
+func bySimilarity(s *specs.Spec, set *Set) {
+	ser := set.Series
+	shapes := set.Shapes()
+	sr := shape.Seriate(shapes)
+	runs := []shape.Run{{Start: 0, Count: len(ser)}}
+	var heads []string
+	if s.Group == specs.GroupSimilarity {
+		runs = sr.Groups(shape.GroupCount(len(ser)))
+		heads = shape.Headings(shapes, sr.Order, runs, s.Years.From)
+	}
+	order := slices.Clone(sr.Order)
+	if s.Order != specs.OrderSimilarity {
+		for _, r := range runs {
+			slices.Sort(order[r.Start : r.Start+r.Count]) // index order is the spec's order
+		}
+	}
+	out := make([]Series, len(ser))
+	for p, i := range order {
+		out[p] = ser[i]
+	}
+	copy(ser, out)
+	set.Groups = set.Groups[:0]
+	for i, r := range runs {
+		g := Group{Start: r.Start, Count: r.Count}
+		if heads != nil {
+			g.Heading = heads[i]
+		}
+		set.Groups = append(set.Groups, g)
+	}
+}
