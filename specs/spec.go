@@ -278,6 +278,10 @@ type Output struct {
 	// colour: a key band goes before the first row that starts more than
 	// this far below the previous key. 0: the key at the top only.
 	KeyEvery Length
+
+	// PanelBank is panel aspect "bank": the aspect is chosen from the data
+	// by banking (layout/bank); PanelAspect is 0 until then.
+	PanelBank bool
 }
 
 // Margins are the four margins of a page. On facing pages Inside is the

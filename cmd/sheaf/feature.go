@@ -5,6 +5,7 @@ import (
 	"time"
 
 	"sheaf/layout"
+	"sheaf/layout/bank"
 	"sheaf/layout/fonts"
 	"sheaf/palette"
 	"sheaf/render/page"
@@ -66,7 +67,7 @@ func prepare(j *job, out *specs.Output) (*prepared, error) {
 	if err != nil {
 		return nil, err
 	}
-	plan, err := layout.Solve(j.spec, out, fs, groupsOf(j))
+	plan, err := bank.Solve(j.spec, out, fs, groupsOf(j), j.data) // layout.Solve, banking the aspect when asked
 	if err != nil {
 		return nil, err
 	}
