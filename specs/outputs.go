@@ -144,6 +144,9 @@ func (d *decoder) output(n *yaml.Node, path, name string) Output {
 					if v := d.resolve(n); v.Kind == yaml.ScalarNode && v.Value == "bank" {
 						bank, aspect = true, 0
 						return
+					} else if _, err := strconv.ParseFloat(v.Value, 64); v.Kind == yaml.ScalarNode && err != nil {
+						d.errorf(v, "%s must be a number (plot width ÷ height) or bank, not %q%s", path, v.Value, didYouMean(v.Value, []string{"bank"}))
+						return
 					}
 					d.number(&aspect, 0, 100, true)(n, path)
 				}},

@@ -1,0 +1,57 @@
+package shape
+
+import (
+	"math"
+	"testing"
+
+	"github.com/stretchr/testify/assert"
+)
+
+// Describe on shapes built to a known form over 1868–2025. The words and
+// thresholds are our own rule (see Describe); the years follow from the
+// construction: a logistic with midpoint m crosses ½ at m, a Gaussian's
+// half-maximum width is 2.355σ (2√(2 ln 2)σ, a property of the normal
+// curve), so σ = 5 gives 12 years and σ = 25 gives 59.
+func TestDescribe(t *testing.T) {
+	const from, to = 1868, 2025
+	mk := func(f func(y float64) float64) []float64 {
+		out := make([]float64, to-from+1)
+		for i := range out {
+			out[i] = f(float64(from + i))
+		}
+		return out
+	}
+	logistic := func(mid float64, up bool) func(float64) float64 {
+		return func(y float64) float64 {
+			v := 1 / (1 + math.Exp(-(y-mid)/5))
+			if !up {
+				v = 1 - v
+			}
+			return v
+		}
+	}
+	gauss := func(c, s float64) func(float64) float64 {
+		return func(y float64) float64 { return math.Exp(-(y - c) * (y - c) / (2 * s * s)) }
+	}
+	for _, tc := range []struct {
+		name string
+		y    []float64
+		kind Kind
+		text string
+	}{
+		{"logistic rise, midpoint 1993", mk(logistic(1993, true)), Rising, "Rising since 1990"},
+		{"logistic fall, midpoint 1915.5", mk(logistic(1915.5, false)), Falling, "Falling since 1910"},
+		{"Gaussian peak 1925, σ = 5 (half-max 12 years)", mk(gauss(1925, 5)), Peaked, "Brief peak in the 1920s"},
+		{"Gaussian peak 1945, σ = 25 (half-max 59 years)", mk(gauss(1945, 25)), Peaked, "Peak in the 1940s"},
+		{"flat at 0.8 with a ripple of ±0.1", mk(func(y float64) float64 { return 0.8 + 0.1*math.Sin(y) }), Steady, "Steady throughout"},
+		{"U: 1 − Gaussian at 1955, σ = 20", mk(func(y float64) float64 { return 1 - gauss(1955, 20)(y) }), Dipped, "Low in the 1950s, high at both ends"},
+		{"nothing", make([]float64, to-from+1), Empty, "No occurrences"},
+	} {
+		d := Describe(tc.y, from)
+		assert.Equal(t, tc.kind, d.Kind, tc.name)
+		assert.Equal(t, tc.text, d.Text, tc.name)
+	}
+	d := Describe(mk(gauss(1925, 5)), from)
+	assert.Equal(t, 1925, d.PeakYear, "the Gaussian's centre")
+	assert.InDelta(t, 12, d.HighTo-d.HighFrom+1, 3, "half-max width 2.355σ ≈ 12 years, blurred by the 9-year mean")
+}
