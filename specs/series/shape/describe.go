@@ -33,8 +33,8 @@ type Description struct {
 // plain words. It looks at the shape smoothed by a centred 9-year moving
 // mean and divided by its top, r(t): the mean of r over the first and the
 // last tenth of the span (at least 5 years) says whether it starts and
-// ends high (≥ 0.75) or low (< 0.5); where r crosses ½ dates a rise or a
-// fall. Years are given as their decade ("1990", "the 1920s"): the
+// ends high (≥ ½; ≥ 0.75 for a line still rising) or low; where r
+// crosses ½ dates a rise or a fall. Years are given as their decade ("1990", "the 1920s"): the
 // smoothing blurs single years. The thresholds are our own choice.
 func Describe(y []float64, from int) Description {
 	n := len(y)
@@ -68,14 +68,17 @@ func Describe(y []float64, from int) Description {
 	switch {
 	case low >= 0.6:
 		d.Kind, d.Text = Steady, "Steady throughout"
-	case start < 0.5 && end >= 0.75:
+	case start < 0.5 && end >= 0.5:
 		t := n - 1
 		for t > 0 && r[t-1] >= 0.5 {
 			t--
 		}
 		d.Since = from + t
 		d.Kind, d.Text = Rising, fmt.Sprintf("Rising since %d", decade(d.Since))
-	case start >= 0.75 && end < 0.5:
+		if end < 0.75 { // still high, but past its top
+			d.Text = fmt.Sprintf("High since %d, peak in the %ds", decade(d.Since), decade(d.PeakYear))
+		}
+	case start >= 0.5 && end < 0.5:
 		t := 0
 		for t+1 < n && r[t+1] >= 0.5 {
 			t++

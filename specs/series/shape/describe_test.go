@@ -45,6 +45,7 @@ func TestDescribe(t *testing.T) {
 		{"Gaussian peak 1945, σ = 25 (half-max 59 years)", mk(gauss(1945, 25)), Peaked, "Peak in the 1940s"},
 		{"flat at 0.8 with a ripple of ±0.1", mk(func(y float64) float64 { return 0.8 + 0.1*math.Sin(y) }), Steady, "Steady throughout"},
 		{"U: 1 − Gaussian at 1955, σ = 20", mk(func(y float64) float64 { return 1 - gauss(1955, 20)(y) }), Dipped, "Low in the 1950s, high at both ends"},
+		{"rise to 1 about 1955, back to 0.6 by 2025", mk(func(y float64) float64 { return logistic(1955, true)(y) - 0.4*logistic(2000, true)(y) }), Rising, "High since 1950, peak in the 1980s"},
 		{"nothing", make([]float64, to-from+1), Empty, "No occurrences"},
 	} {
 		d := Describe(tc.y, from)

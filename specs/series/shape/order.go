@@ -17,19 +17,19 @@ const OptimalLimit = 1000
 type Seriation struct {
 	Order   []int   // shape indices, first to last
 	Tree    *Tree   // average-linkage tree of Dist
-	Dist    *Matrix // Distance between every two shapes
+	Dist    *Matrix // Distance between every two shapes' Signatures
 	Optimal bool    // Order is the optimal leaf order (else the greedy one)
 }
 
 // Seriate orders shapes so that neighbours look alike: the optimal leaf
-// order of their average-linkage tree under Distance (GreedyLeafOrder
-// above OptimalLimit shapes). Of the order and its reverse, which cost
+// order of their average-linkage tree under the Distance between their
+// Signatures (GreedyLeafOrder above OptimalLimit shapes). Of the order and its reverse, which cost
 // the same, it returns the one whose first shape has its weight (the
 // mean position of its ink, Σ t·y(t) / Σ y(t)) no later than its last.
 // Cost: O(n²·y) for the distances, O(n²) for the tree, O(n³) at most for
 // the order.
 func Seriate(shapes [][]float64) *Seriation {
-	d := Distances(shapes)
+	d := Distances(Signatures(shapes))
 	t := AverageLinkage(d)
 	s := &Seriation{Tree: t, Dist: d, Optimal: len(shapes) <= OptimalLimit}
 	if s.Optimal {

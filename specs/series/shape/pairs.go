@@ -12,7 +12,7 @@ import (
 // Pair is two shapes that look alike.
 type Pair struct {
 	A, B     int     // shape indices, A < B
-	Distance float64 // Distance(shapes[A], shapes[B])
+	Distance float64 // Distance between their Signatures
 }
 
 // HandOver is two shapes of which one falls as the other rises.
@@ -130,7 +130,8 @@ func workers[T any](n int, work func(rows func(yield func(int) bool)) T) []T {
 	return out
 }
 
-// Similar returns the top most alike pairs of shapes, closest first,
+// Similar returns the top most alike pairs of shapes (by the Distance
+// between their Signatures, as Seriate compares them), closest first,
 // with no shape in more than perTerm of them (0: no limit; the limit
 // picks from the 4·top closest pairs), so that one term alike to many
 // does not fill the list.
@@ -150,6 +151,7 @@ func Similar(shapes [][]float64, top, perTerm int) []Pair {
 	if n < 2 || top <= 0 {
 		return nil
 	}
+	shapes = Signatures(shapes)
 	y := float64(len(shapes[0]))
 	keep := top
 	if perTerm > 0 {

@@ -43,7 +43,7 @@ func TestSimilarEqualsBruteForce(t *testing.T) {
 		var all []Pair
 		for i := range shapes {
 			for j := range i {
-				all = append(all, Pair{A: j, B: i, Distance: Distance(shapes[i], shapes[j])})
+				all = append(all, Pair{A: j, B: i, Distance: Distance(Signature(shapes[i]), Signature(shapes[j]))})
 			}
 		}
 		slices.SortFunc(all, worsePair)

@@ -264,3 +264,16 @@ func TestCutGivesRuns(t *testing.T) {
 		assert.Equal(t, 30, total)
 	}
 }
+
+// Signature: the shape, then its cumulative share of ink (by hand).
+func TestSignature(t *testing.T) {
+	assert.Equal(t, []float64{1, 0, 1, 0, 0.5, 0.5, 1, 1}, Signature([]float64{1, 0, 1, 0}))
+	assert.Equal(t, []float64{0, 0, 0, 0}, Signature([]float64{0, 0}), "no ink: 0 throughout")
+	// Why it is there: two brief peaks (3 years of 150) 80 years apart
+	// and two 5 years apart are equally far as plotted lines (no overlap
+	// either way), but not by when their ink falls.
+	peak := func(at int) []float64 { s := make([]float64, 150); s[at], s[at+1], s[at+2] = 1, 1, 1; return s }
+	a, near, far := peak(20), peak(25), peak(100)
+	assert.InDelta(t, Distance(a, near), Distance(a, far), 1e-12)
+	assert.Less(t, Distance(Signature(a), Signature(near)), Distance(Signature(a), Signature(far)))
+}
