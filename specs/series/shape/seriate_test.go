@@ -4,6 +4,7 @@ import (
 	"math"
 	"math/rand/v2"
 	"slices"
+	"strconv"
 	"testing"
 
 	"github.com/stretchr/testify/assert"
@@ -276,4 +277,18 @@ func TestSignature(t *testing.T) {
 	a, near, far := peak(20), peak(25), peak(100)
 	assert.InDelta(t, Distance(a, near), Distance(a, far), 1e-12)
 	assert.Less(t, Distance(Signature(a), Signature(near)), Distance(Signature(a), Signature(far)))
+}
+
+// BenchmarkSeriate: distances, tree and order for n random-walk shapes of
+// 158 years (the demo's span): optimal order up to OptimalLimit, greedy
+// above.
+func BenchmarkSeriate(b *testing.B) {
+	for _, n := range []int{384, OptimalLimit, OptimalLimit + 1, 1000, 4000} {
+		shapes := randomShapes(rand.New(rand.NewPCG(1, uint64(n))), n, 158)
+		b.Run(strconv.Itoa(n), func(b *testing.B) {
+			for b.Loop() {
+				Seriate(shapes)
+			}
+		})
+	}
 }

@@ -112,14 +112,18 @@ func (m *Matrix) Set(i, j int, v float64) {
 }
 
 // Distances is the matrix of Distance between every two shapes.
-// Cost: n(n−1)/2 distances of y years each.
+// Cost: n(n−1)/2 distances of y years each, rows shared among the
+// processor's cores (each writes only its own rows).
 func Distances(shapes [][]float64) *Matrix {
 	m := NewMatrix(len(shapes))
-	for i := range shapes {
-		for j := 0; j < i; j++ {
-			m.Set(i, j, Distance(shapes[i], shapes[j]))
+	workers(len(shapes), func(rows func(func(int) bool)) struct{} {
+		for i := range rows {
+			for j := 0; j < i; j++ {
+				m.Set(i, j, Distance(shapes[i], shapes[j]))
+			}
 		}
-	}
+		return struct{}{}
+	})
 	return m
 }
 
