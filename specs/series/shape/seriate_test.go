@@ -292,3 +292,22 @@ func BenchmarkSeriate(b *testing.B) {
 		})
 	}
 }
+
+// One, two and three shapes, and shapes of one or two years: no panic,
+// a permutation, groups that cover every place.
+func TestSeriateSmallInputs(t *testing.T) {
+	for _, n := range []int{1, 2, 3} {
+		for _, y := range []int{1, 2, 30} {
+			shapes := randomShapes(rand.New(rand.NewPCG(uint64(n), uint64(y))), n, y)
+			s := Seriate(shapes)
+			assert.ElementsMatch(t, seq(n), s.Order, "n=%d y=%d", n, y)
+			total := 0
+			for _, r := range s.Groups(GroupCount(n)) {
+				total += r.Count
+			}
+			assert.Equal(t, n, total)
+			assert.Len(t, Headings(shapes, s.Order, s.Groups(GroupCount(n)), 1900), len(s.Groups(GroupCount(n))))
+			assert.NotPanics(t, func() { Similar(shapes, 3, 1); HandOvers(shapes, 3, 1) })
+		}
+	}
+}
