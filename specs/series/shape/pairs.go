@@ -208,7 +208,9 @@ func Similar(shapes [][]float64, top, perTerm int) []Pair {
 		all = append(all, h...)
 	}
 	slices.SortFunc(all, worsePair)
-	all = limitPerTerm(all, top, perTerm, func(p Pair) (int, int) { return p.A, p.B })
+	// The best keep of all pairs, whatever the number of cores: each
+	// worker kept its own best keep.
+	all = limitPerTerm(all[:min(len(all), keep)], top, perTerm, func(p Pair) (int, int) { return p.A, p.B })
 	for i := range all {
 		all[i].Distance = math.Sqrt(all[i].Distance / y)
 	}
@@ -417,7 +419,7 @@ func HandOvers(shapes [][]float64, top, perTerm int) []HandOver {
 		all = append(all, h...)
 	}
 	slices.SortFunc(all, weakerHO)
-	all = limitPerTerm(all, top, perTerm, func(h HandOver) (int, int) { return h.Falling, h.Rising })
+	all = limitPerTerm(all[:min(len(all), keep)], top, perTerm, func(h HandOver) (int, int) { return h.Falling, h.Rising })
 	for i := range all {
 		all[i].Crossing = crossing(shapes[all[i].Falling], shapes[all[i].Rising], all[i].Split)
 	}

@@ -3,6 +3,7 @@ package shape
 import (
 	"math"
 	"math/rand/v2"
+	"runtime"
 	"slices"
 	"testing"
 
@@ -47,7 +48,7 @@ func TestSimilarEqualsBruteForce(t *testing.T) {
 			}
 		}
 		slices.SortFunc(all, worsePair)
-		want := limitPerTerm(all, tc.top, tc.per, func(p Pair) (int, int) { return p.A, p.B })
+		want := limitPerTerm(all[:min(len(all), keepOf(tc.top, tc.per))], tc.top, tc.per, func(p Pair) (int, int) { return p.A, p.B })
 		got := Similar(shapes, tc.top, tc.per)
 		require.Len(t, got, len(want), "%+v", tc)
 		for k := range want {
@@ -83,7 +84,7 @@ func TestHandOversEqualBruteForce(t *testing.T) {
 			}
 		}
 		slices.SortFunc(all, weakerHO)
-		want := limitPerTerm(all, tc.top, tc.per, func(h HandOver) (int, int) { return h.Falling, h.Rising })
+		want := limitPerTerm(all[:min(len(all), keepOf(tc.top, tc.per))], tc.top, tc.per, func(h HandOver) (int, int) { return h.Falling, h.Rising })
 		got := HandOvers(shapes, tc.top, tc.per)
 		require.Len(t, got, len(want), "%+v", tc)
 		for k := range want {
@@ -116,4 +117,25 @@ func TestHandOverWorked(t *testing.T) {
 	for _, h := range got {
 		assert.NotEqual(t, [2]int{1, 2}, [2]int{h.Falling, h.Rising}, "a rise is not a fall")
 	}
+}
+
+// keepOf is how many of the best the per-term limit picks from: 4·top
+// with a limit (Similar's and HandOvers' documented rule).
+func keepOf(top, per int) int {
+	if per > 0 {
+		return 4 * top
+	}
+	return top
+}
+
+// The answer does not depend on how many cores share the rows.
+func TestPairsIndependentOfCores(t *testing.T) {
+	shapes := randomShapes(rand.New(rand.NewPCG(5, 5)), 700, 120)
+	prev := runtime.GOMAXPROCS(1)
+	s1, h1 := Similar(shapes, 20, 1), HandOvers(shapes, 20, 1)
+	runtime.GOMAXPROCS(4)
+	s4, h4 := Similar(shapes, 20, 1), HandOvers(shapes, 20, 1)
+	runtime.GOMAXPROCS(prev)
+	assert.Equal(t, s1, s4)
+	assert.Equal(t, h1, h4)
 }
