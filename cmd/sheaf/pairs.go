@@ -16,8 +16,10 @@ import (
 
 	"sheaf/layout/fonts"
 	"sheaf/render/contact"
+	"sheaf/render/feature"
 	"sheaf/render/insert"
 	"sheaf/render/pdf"
+	"sheaf/render/production"
 	"sheaf/render/raster"
 	"sheaf/specs"
 	"sheaf/specs/series"
@@ -86,19 +88,19 @@ func runPairs(args []string, stdout, stderr io.Writer) int {
 		fmt.Fprintln(stderr, "sheaf pairs: --top must be 1 to 100 and --per-term 0 or more")
 		return exitBadInput
 	}
-	j, err := loadJob(path)
+	j, err := feature.Load(path)
 	if err != nil {
 		fmt.Fprintln(stderr, err)
 		return exitBadInput
 	}
-	if len(j.spec.Outputs) == 0 {
+	if len(j.Spec.Outputs) == 0 {
 		fmt.Fprintln(stderr, "sheaf pairs: the spec has no outputs")
 		return exitBadInput
 	}
-	rep := &pairsReport{Spec: j.spec.File, Terms: len(j.data.Series), data: j.data, insertFor: &j.spec.Outputs[0],
+	rep := &pairsReport{Spec: j.Spec.File, Terms: len(j.Data.Series), data: j.Data, insertFor: &j.Spec.Outputs[0],
 		Alike: []pairRow{}, HandOvers: []pairRow{}}
 	if *outName != "" {
-		if rep.insertFor = j.spec.Output(*outName); rep.insertFor == nil {
+		if rep.insertFor = j.Spec.Output(*outName); rep.insertFor == nil {
 			fmt.Fprintf(stderr, "sheaf pairs: --output %s: the spec has no output of that name\n", *outName)
 			return exitBadInput
 		}
@@ -115,7 +117,7 @@ func runPairs(args []string, stdout, stderr io.Writer) int {
 	}
 	dir := *outDir
 	if dir == "" {
-		dir = filepath.Join(j.spec.Dir, "out", "pairs")
+		dir = filepath.Join(j.Spec.Dir, "out", "pairs")
 	}
 	if st, err := os.Stat(dir); err == nil && !st.IsDir() && !*noSheet {
 		fmt.Fprintf(stderr, "sheaf pairs: --out %s is a file; give a folder\n", dir)
@@ -163,7 +165,7 @@ func findPairs(rep *pairsReport, top, perTerm int) {
 	size := specLength(rep.insertFor, rep.size.W) + " x " + specLength(rep.insertFor, rep.size.H)
 	entry := func(kind string, a, b int, title string) pairInsert {
 		ta, tb := d.Series[a].Term, d.Series[b].Term
-		return pairInsert{Name: kind + "-" + slug(ta) + "-" + slug(tb), Output: rep.insertFor.Name, Size: size,
+		return pairInsert{Name: kind + "-" + production.Slug(ta) + "-" + production.Slug(tb), Output: rep.insertFor.Name, Size: size,
 			Terms: []string{ta, tb}, Title: title}
 	}
 	for _, p := range shape.Similar(shapes, top, perTerm) {
@@ -241,12 +243,12 @@ func writePairsTable(w io.Writer, rep *pairsReport) {
 
 // pairGraphics lays out each row as a comparison panel, as the insert
 // it proposes would be drawn.
-func pairGraphics(j *job, rep *pairsReport) ([]*insert.Graphic, error) {
-	fset, err := fonts.Load(j.spec, rep.insertFor)
+func pairGraphics(j *feature.Job, rep *pairsReport) ([]*insert.Graphic, error) {
+	fset, err := fonts.Load(j.Spec, rep.insertFor)
 	if err != nil {
 		return nil, err
 	}
-	sc, err := scaleFor(j.spec, j.data.Span)
+	sc, err := feature.Scale(j.Spec, j.Data.Span)
 	if err != nil {
 		return nil, err
 	}
@@ -254,10 +256,10 @@ func pairGraphics(j *job, rep *pairsReport) ([]*insert.Graphic, error) {
 	for _, r := range rep.rows {
 		in := &specs.Insert{Name: r.Insert.Name, Output: rep.insertFor.Name, Size: rep.size,
 			Terms: r.Insert.Terms, Title: fmt.Sprintf("%d. %s", r.Number, r.Insert.Title)}
-		d := *j.data
-		d.Series = []series.Series{j.data.Series[r.series[0]], j.data.Series[r.series[1]]}
+		d := *j.Data
+		d.Series = []series.Series{j.Data.Series[r.series[0]], j.Data.Series[r.series[1]]}
 		d.Groups = []series.Group{{Count: 2}}
-		g, err := insert.New(j.spec, in, rep.insertFor, &d, sc, fset)
+		g, err := insert.New(j.Spec, in, rep.insertFor, &d, sc, fset)
 		if err != nil {
 			// The insert is not in the spec: its message names no place
 			// in it, only what the size must become.
@@ -277,7 +279,7 @@ const sheetColumns = 4
 
 // writePairSheets writes pairs.png (the graphics at 96 dpi on a contact
 // sheet, numbered as in the table) and pairs.pdf (each graphic a page).
-func writePairSheets(j *job, rep *pairsReport, gs []*insert.Graphic, dir string) ([]string, error) {
+func writePairSheets(j *feature.Job, rep *pairsReport, gs []*insert.Graphic, dir string) ([]string, error) {
 	paper := gs[0].Paper()
 	var thumbs []image.Image
 	for _, g := range gs {
@@ -289,12 +291,12 @@ func writePairSheets(j *job, rep *pairsReport, gs []*insert.Graphic, dir string)
 		thumbs = append(thumbs, img)
 	}
 	png := filepath.Join(dir, "pairs.png")
-	if err := writeAtomic(png, func(w io.Writer) error {
+	if err := production.WriteAtomic(png, func(w io.Writer) error {
 		return raster.WritePNG(w, contact.Sheet(thumbs, sheetColumns))
 	}); err != nil {
 		return nil, err
 	}
-	date, err := documentDate(j.spec)
+	date, err := feature.DocumentDate(j.Spec, os.Getenv("SOURCE_DATE_EPOCH"))
 	if err != nil {
 		return nil, err
 	}
@@ -303,8 +305,8 @@ func writePairSheets(j *job, rep *pairsReport, gs []*insert.Graphic, dir string)
 	// (one graphic a page, so each keeps its own coordinates and
 	// gradients).
 	pdfPath := filepath.Join(dir, "pairs.pdf")
-	err = writeAtomic(pdfPath, func(w io.Writer) error {
-		doc := pdf.NewWriter(w, pdf.Options{Title: j.spec.Title + " — pairs", Version: version, Date: date})
+	err = production.WriteAtomic(pdfPath, func(w io.Writer) error {
+		doc := pdf.NewWriter(w, pdf.Options{Title: j.Spec.Title + " — pairs", Version: version, Date: date})
 		for _, g := range gs {
 			gw, gh := g.Size()
 			box := canvas.Rect{X0: 0, Y0: 0, X1: gw, Y1: gh}

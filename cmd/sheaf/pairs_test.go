@@ -7,14 +7,16 @@ import (
 	"os/exec"
 	"path/filepath"
 	"strings"
+	"sync"
 	"testing"
 
 	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
 
+	"sheaf/examples/generate/corpus"
+	"sheaf/render/feature"
 	"sheaf/render/tooltest"
 	"sheaf/specs"
-	"sheaf/specs/series"
 )
 
 // sheaf pairs on the demo: the JSON's rows are numbered, each insert
@@ -59,10 +61,9 @@ func TestPairsDemo(t *testing.T) {
 	spec, err := specs.Parse(filepath.Join(filepath.Dir(demoSpec), "pasted.yaml"), []byte(text))
 	require.NoError(t, err, "the pasted lines are valid inserts entries")
 	require.Len(t, spec.Inserts, 2+6)
-	j := &job{spec: spec}
-	j.data, err = series.Load(spec)
+	j, err := feature.LoadData(spec)
 	require.NoError(t, err)
-	_, err = prepareInserts(j)
+	_, err = j.PrepareInserts()
 	require.NoError(t, err, "each pasted insert lays out")
 
 	require.Equal(t, []string{filepath.Join(dir, "pairs.png"), filepath.Join(dir, "pairs.pdf")}, rep.Files)
@@ -122,20 +123,43 @@ func TestPairsTable(t *testing.T) {
 	assert.NotContains(t, s, "pairs.png", "--no-sheet writes nothing")
 }
 
+// pairsCatalog writes the benchmark catalog of the issues once: 4,000
+// invented terms over 1851–2025 (175 years) from the demo generator,
+// with the demo's outputs.
+var pairsCatalog = sync.OnceValues(func() (string, error) {
+	dir, err := os.MkdirTemp("", "sheaf-pairs-catalog-*")
+	if err != nil {
+		return "", err
+	}
+	cfg := corpus.DefaultConfig()
+	cfg.Terms, cfg.From = 4000, 1851
+	if err := corpus.WriteDir(filepath.Join(dir, "data"), cfg); err != nil {
+		return "", err
+	}
+	demo, err := os.ReadFile(demoSpec)
+	if err != nil {
+		return "", err
+	}
+	spec := strings.NewReplacer("top: 384", "top: 4000", "years: {from: 1868, to: 2025}", "years: {from: 1851, to: 2025}",
+		"min-total: 200", "min-total: 0").Replace(string(demo))
+	path := filepath.Join(dir, "catalog.yaml")
+	return path, os.WriteFile(path, []byte(spec), 0o644)
+})
+
 // BenchmarkPairsCatalog: the pair search on the 4,000-term catalog
 // (175 years), data loaded once: shapes, the most alike pairs and the
 // strongest hand-overs (top 8 of each).
 func BenchmarkPairsCatalog(b *testing.B) {
-	spec, err := catalog()
+	spec, err := pairsCatalog()
 	if err != nil {
 		b.Fatal(err)
 	}
-	j, err := loadJob(spec)
+	j, err := feature.Load(spec)
 	if err != nil {
 		b.Fatal(err)
 	}
 	for b.Loop() {
-		rep := &pairsReport{data: j.data, insertFor: &j.spec.Outputs[0], size: specs.Size{W: 255, H: 170}}
+		rep := &pairsReport{data: j.Data, insertFor: &j.Spec.Outputs[0], size: specs.Size{W: 255, H: 170}}
 		findPairs(rep, 8, 2)
 		if len(rep.rows) != 16 {
 			b.Fatalf("%d rows", len(rep.rows))
