@@ -35,7 +35,9 @@ func Feature(set *series.Set) (*layout.Banking, error) {
 // with panel: {aspect: bank} it lays the output out at Feature's aspect
 // and records the banking in the plan; otherwise it is layout.Solve.
 // An aspect the page cannot fit is the layout's infeasibility error,
-// which says the aspect came from banking and offers its remedies.
+// which says the aspect came from banking and offers its remedies. With
+// slack: grow the leftover height is spread instead, with a warning:
+// growing the plots would undo the banking.
 func Solve(spec *specs.Spec, out *specs.Output, fs *fonts.Set, groups []layout.Group, set *series.Set) (*layout.Plan, error) {
 	if !out.PanelBank || out.PanelHeight > 0 {
 		return layout.Solve(spec, out, fs, groups)
@@ -51,11 +53,22 @@ func Solve(spec *specs.Spec, out *specs.Output, fs *fonts.Set, groups []layout.G
 	b.MedianOrientation = MedianOrientation(segs, 1/b.Aspect)
 	o := *out
 	o.PanelAspect = b.Aspect
+	// slack: grow would make the plots taller than the banked aspect:
+	// the leftover height is spread between the rows instead.
+	grow := o.Slack == specs.SlackGrow
+	if grow {
+		o.Slack = specs.SlackSpread
+	}
 	plan, err := layout.Solve(spec, &o, fs, groups)
 	if err != nil {
 		return nil, fmt.Errorf("%w (the banked aspect is %s: the lines' slopes read best there)", err, trim2(b.Aspect))
 	}
 	plan.Banking = b
+	if grow {
+		pos := spec.Where("outputs." + out.Name + ".slack")
+		plan.Warnings = append(plan.Warnings, layout.Warning{Pos: pos, Key: "slack", Where: pos.String(), Output: out.Name,
+			Message: "slack: grow would make the panels taller than the banked aspect; the leftover height is spread between the rows instead"})
+	}
 	return plan, nil
 }
 

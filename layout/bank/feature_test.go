@@ -84,6 +84,17 @@ func TestSolveFitsPanelsOfTheBankedAspect(t *testing.T) {
 	assert.InDelta(t, mid, plan.Banking.MedianOrientation, 1e-9, "by hand from the sine's slopes")
 	assert.Contains(t, plan.Summary(), "banked aspect 2.03")
 
+	// slack: grow would undo the banking: spread instead, with a warning.
+	out.Slack = specs.SlackGrow
+	plan, err = Solve(spec, &out, fs, []layout.Group{{Count: 12}}, set)
+	require.NoError(t, err)
+	for _, p := range plan.Pages[0].Panels {
+		assert.InDelta(t, want, p.Plot.W()/p.Plot.H(), 0.001, "still the banked aspect")
+	}
+	require.NotEmpty(t, plan.Warnings)
+	assert.Equal(t, "slack", plan.Warnings[len(plan.Warnings)-1].Key)
+	out.Slack = specs.SlackSpread
+
 	// An output that does not bank is laid out as layout.Solve does.
 	out.PanelBank, out.PanelAspect = false, 1.6
 	plan, err = Solve(spec, &out, fs, []layout.Group{{Count: 12}}, set)
