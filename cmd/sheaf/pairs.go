@@ -46,7 +46,8 @@ type pairRow struct {
 	Kind   string   `json:"kind"` // "alike" or "hand-over"
 	Terms  []string `json:"terms"`
 	// Distance (alike): the root-mean-square difference of the two
-	// plotted lines, in plot heights.
+	// lines' signatures (as plotted, in plot heights, then their
+	// cumulative share of ink; package shape).
 	Distance float64 `json:"distance,omitempty"`
 	// Strength (hand-over): the smaller of the first term's fall and the
 	// second's rise across the split, in plot heights.
@@ -222,7 +223,7 @@ func (e pairInsert) yaml() string {
 
 func writePairsTable(w io.Writer, rep *pairsReport) {
 	fmt.Fprintf(w, "%s: %d terms compared as plotted\n\n", rep.Spec, rep.Terms)
-	fmt.Fprintln(w, "Most alike (distance: root-mean-square difference of the plotted lines, in plot heights)")
+	fmt.Fprintln(w, "Most alike (distance: root-mean-square difference of the lines as plotted and of their cumulative ink; 0 is the same line)")
 	if len(rep.Alike) == 0 {
 		fmt.Fprintln(w, "  none")
 	}
