@@ -5,6 +5,7 @@ import (
 	"testing"
 
 	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
 )
 
 // Describe on shapes built to a known form over 1868–2025. The words and
@@ -55,4 +56,24 @@ func TestDescribe(t *testing.T) {
 	d := Describe(mk(gauss(1925, 5)), from)
 	assert.Equal(t, 1925, d.PeakYear, "the Gaussian's centre")
 	assert.InDelta(t, 12, d.HighTo-d.HighFrom+1, 3, "half-max width 2.355σ ≈ 12 years, blurred by the 9-year mean")
+}
+
+// Two groups whose means read alike get the years they stay above half
+// their top, so no two headings are the same.
+func TestHeadingsDistinct(t *testing.T) {
+	const from = 1868
+	g := func(c, s float64) []float64 {
+		out := make([]float64, 158)
+		for i := range out {
+			d := float64(from+i) - c
+			out[i] = math.Exp(-d * d / (2 * s * s))
+		}
+		return out
+	}
+	shapes := [][]float64{g(1922, 12), g(1924, 12), g(1925, 30), g(1926, 30)}
+	heads := Headings(shapes, []int{0, 1, 2, 3}, []Run{{0, 2}, {2, 2}}, from)
+	require.Len(t, heads, 2)
+	assert.NotEqual(t, heads[0], heads[1])
+	assert.Regexp(t, `^Peak in the 1920s \(high 19\d\d–19\d\d\)$`, heads[0])
+	assert.Regexp(t, `^Peak in the 1920s \(high 18\d\d–19\d\d\)$`, heads[1])
 }
