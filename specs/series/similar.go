@@ -21,21 +21,27 @@ func (set *Set) Shapes() [][]float64 {
 	return out
 }
 
-// bySimilarity orders the series by shape (order: similarity) and, with
-// group: similarity, cuts them into clusters headed by what their mean
-// shape does. With group: similarity and another order, each cluster
-// keeps the seriation's place and is sorted inside by that order (ser is
+// seriate puts the series in the order of shape.Seriate.
+func seriate(set *Set) {
+	sr := shape.Seriate(set.Shapes())
+	out := make([]Series, len(set.Series))
+	for p, i := range sr.Order {
+		out[p] = set.Series[i]
+	}
+	copy(set.Series, out)
+}
+
+// bySimilarity cuts the series into clusters of alike shapes (group:
+// similarity) headed by what their mean shape does, in the order of
+// shape.Seriate. With another order than similarity, each cluster keeps
+// the seriation's place and is sorted inside by that order (ser is
 // already in it: arrange sorted it).
 func bySimilarity(s *specs.Spec, set *Set) {
 	ser := set.Series
 	shapes := set.Shapes()
 	sr := shape.Seriate(shapes)
-	runs := []shape.Run{{Start: 0, Count: len(ser)}}
-	var heads []string
-	if s.Group == specs.GroupSimilarity {
-		runs = sr.Groups(shape.GroupCount(len(ser)))
-		heads = shape.Headings(shapes, sr.Order, runs, s.Years.From)
-	}
+	runs := sr.Groups(shape.GroupCount(len(ser)))
+	heads := shape.Headings(shapes, sr.Order, runs, s.Years.From)
 	order := slices.Clone(sr.Order)
 	if s.Order != specs.OrderSimilarity {
 		for _, r := range runs {
@@ -49,10 +55,6 @@ func bySimilarity(s *specs.Spec, set *Set) {
 	copy(ser, out)
 	set.Groups = set.Groups[:0]
 	for i, r := range runs {
-		g := Group{Start: r.Start, Count: r.Count}
-		if heads != nil {
-			g.Heading = heads[i]
-		}
-		set.Groups = append(set.Groups, g)
+		set.Groups = append(set.Groups, Group{Heading: heads[i], Start: r.Start, Count: r.Count})
 	}
 }

@@ -124,3 +124,22 @@ func TestSimilarityLimit(t *testing.T) {
 	require.Error(t, err)
 	assert.Regexp(t, `spec.yaml:7:1: group: similarity compares every two panels and takes at most 5000; the spec selects 5001 terms`, err.Error())
 }
+
+// order: similarity with group: peak-decade: decades as headings, the
+// seriation's order within each.
+func TestOrderSimilarityByDecade(t *testing.T) {
+	terms := map[string]func(int) float64{}
+	for i, name := range []string{"zinc", "mica", "adze", "quoin"} {
+		terms[name] = bump(1912+float64(i)*2, 6) // peaks 1912–1918: one decade
+	}
+	terms["kiln"] = bump(1955, 6)
+	set, err := load(t, shapedFeature(t, terms, "order: similarity\ngroup: peak-decade\n"))
+	require.NoError(t, err)
+	require.Len(t, set.Groups, 2)
+	assert.Equal(t, "Peak in the 1910s", set.Groups[0].Heading)
+	var got []string
+	for _, s := range set.Series[:4] {
+		got = append(got, s.Term)
+	}
+	assert.Equal(t, []string{"zinc", "mica", "adze", "quoin"}, got, "by peak within the decade: the seriation's order")
+}
