@@ -89,7 +89,16 @@ func runPairs(args []string, stdout, stderr io.Writer) int {
 		fmt.Fprintln(stderr, "sheaf pairs: --top must be 1 to 100 and --per-term 0 or more")
 		return exitBadInput
 	}
-	j, err := feature.Load(path)
+	spec, err := specs.Load(path)
+	if err != nil {
+		fmt.Fprintln(stderr, err)
+		return exitBadInput
+	}
+	// The panels' order and groups do not matter here: skip the
+	// similarity ordering the spec may ask for (seconds for thousands).
+	unordered := *spec
+	unordered.Order, unordered.Group = specs.OrderListed, specs.GroupNone
+	j, err := feature.LoadData(&unordered)
 	if err != nil {
 		fmt.Fprintln(stderr, err)
 		return exitBadInput
