@@ -60,7 +60,9 @@ func TestPairsDemo(t *testing.T) {
 	}
 	spec, err := specs.Parse(filepath.Join(filepath.Dir(demoSpec), "pasted.yaml"), []byte(text))
 	require.NoError(t, err, "the pasted lines are valid inserts entries")
-	require.Len(t, spec.Inserts, 2+6)
+	demoSpecParsed, err := specs.Parse(demoSpec, demo)
+	require.NoError(t, err)
+	require.Len(t, spec.Inserts, len(demoSpecParsed.Inserts)+6, "the demo's inserts and the six pasted")
 	j, err := feature.LoadData(spec)
 	require.NoError(t, err)
 	_, err = j.PrepareInserts()

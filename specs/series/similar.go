@@ -40,8 +40,7 @@ func bySimilarity(s *specs.Spec, set *Set) {
 	ser := set.Series
 	shapes := set.Shapes()
 	sr := shape.Seriate(shapes)
-	runs := sr.Groups(shape.GroupCount(len(ser)))
-	heads := shape.Headings(shapes, sr.Order, runs, s.Years.From)
+	runs, heads := sr.Described(shapes, s.Years.From)
 	order := slices.Clone(sr.Order)
 	if s.Order != specs.OrderSimilarity {
 		for _, r := range runs {

@@ -12,6 +12,7 @@ import (
 	"github.com/stretchr/testify/require"
 
 	"sheaf/specs"
+	"sheaf/specs/series/shape"
 )
 
 // shapedFeature writes a feature over 1900–2000 whose terms have the
@@ -142,4 +143,33 @@ func TestOrderSimilarityByDecade(t *testing.T) {
 		got = append(got, s.Term)
 	}
 	assert.Equal(t, []string{"zinc", "mica", "adze", "quoin"}, got, "by peak within the decade: the seriation's order")
+}
+
+// The demo (examples/quillmere/similarity.yaml) has a group whose lines
+// are of mixed kinds (some dip, some only wave): its heading says so,
+// and every other heading's kind is that of most of its lines.
+func TestDemoHeadingsHold(t *testing.T) {
+	s, err := specs.Load("../../examples/quillmere/similarity.yaml")
+	require.NoError(t, err)
+	set, err := Load(s)
+	require.NoError(t, err)
+	shapes := set.Shapes()
+	mixed := 0
+	for _, g := range set.Groups {
+		members := shapes[g.Start : g.Start+g.Count]
+		kind := shape.Describe(shape.Mean(members), s.Years.From).Kind
+		same := 0
+		for _, m := range members {
+			if shape.Describe(m, s.Years.From).Kind == kind {
+				same++
+			}
+		}
+		if strings.HasSuffix(g.Heading, "(mixed)") {
+			mixed++
+			assert.Less(t, 2*same, g.Count, g.Heading)
+		} else {
+			assert.GreaterOrEqual(t, 2*same, g.Count, g.Heading)
+		}
+	}
+	assert.Positive(t, mixed, "the demo has a mixed group")
 }

@@ -2,6 +2,7 @@ package shape
 
 import (
 	"math"
+	"math/rand/v2"
 	"testing"
 
 	"github.com/stretchr/testify/assert"
@@ -76,4 +77,52 @@ func TestHeadingsDistinct(t *testing.T) {
 	assert.NotEqual(t, heads[0], heads[1])
 	assert.Regexp(t, `^Peak in the 1920s \(high 19\d\d–19\d\d\)$`, heads[0])
 	assert.Regexp(t, `^Peak in the 1920s \(high 18\d\d–19\d\d\)$`, heads[1])
+}
+
+// Described: every heading is true of most of its group's lines (the
+// mean's kind is that of half or more of them) or says it is mixed; the
+// groups cover the order.
+func TestDescribedHeadingsHold(t *testing.T) {
+	const from, years = 1868, 158
+	r := rand.New(rand.NewPCG(4, 4))
+	var shapes [][]float64
+	for i := range 120 {
+		s := make([]float64, years)
+		mid := 20 + r.Float64()*118
+		for t := range s {
+			v := 1 / (1 + math.Exp(-(float64(t)-mid)/6))
+			switch i % 3 {
+			case 1:
+				v = 1 - v
+			case 2:
+				v = 0.7 + 0.3*math.Sin(float64(t)/(5+r.Float64()))
+			}
+			s[t] = math.Max(0, v+0.05*r.NormFloat64())
+		}
+		shapes = append(shapes, s)
+	}
+	sr := Seriate(shapes)
+	runs, heads := sr.Described(shapes, from)
+	require.Len(t, heads, len(runs))
+	total := 0
+	for g, run := range runs {
+		total += run.Count
+		members := make([][]float64, run.Count)
+		for p := range run.Count {
+			members[p] = shapes[sr.Order[run.Start+p]]
+		}
+		kind := Describe(Mean(members), from).Kind
+		same := 0
+		for _, m := range members {
+			if Describe(m, from).Kind == kind {
+				same++
+			}
+		}
+		if 2*same < run.Count {
+			assert.Contains(t, heads[g], "(mixed)", "group %d: %d of %d share the mean's kind", g, same, run.Count)
+		} else {
+			assert.NotContains(t, heads[g], "(mixed)")
+		}
+	}
+	assert.Equal(t, len(shapes), total)
 }

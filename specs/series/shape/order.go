@@ -124,6 +124,55 @@ func GroupCount(n int) int {
 	return max(2, min(12, int(math.Round(math.Sqrt(float64(n)/4)))))
 }
 
+// Described cuts the seriation into groups (Groups) headed by what
+// their mean shape does (Headings), with as few groups as keep each
+// heading true of most of its panels: starting at GroupCount(n) it asks
+// for one more group while some group's mean is of another kind (rising,
+// falling, peaked…, see Describe) than half or more of its members, up
+// to twice GroupCount(n). A group that is still mixed then says so:
+// "Steady throughout on average (mixed)".
+func (s *Seriation) Described(shapes [][]float64, from int) ([]Run, []string) {
+	n := len(s.Order)
+	kinds := make([]Kind, len(shapes))
+	for i, sh := range shapes {
+		kinds[i] = Describe(sh, from).Kind
+	}
+	base := GroupCount(n)
+	var runs []Run
+	var heads []string
+	var mixed []bool
+	for k := base; ; k++ {
+		runs = s.Groups(k)
+		heads = Headings(shapes, s.Order, runs, from)
+		mixed = make([]bool, len(runs))
+		any := false
+		for g, r := range runs {
+			members := make([][]float64, r.Count)
+			for p := range r.Count {
+				members[p] = shapes[s.Order[r.Start+p]]
+			}
+			kind := Describe(Mean(members), from).Kind
+			same := 0
+			for p := range r.Count {
+				if kinds[s.Order[r.Start+p]] == kind {
+					same++
+				}
+			}
+			mixed[g] = 2*same < r.Count
+			any = any || mixed[g]
+		}
+		if !any || k >= min(n, 2*base) {
+			break
+		}
+	}
+	for g := range heads {
+		if mixed[g] {
+			heads[g] += " on average (mixed)"
+		}
+	}
+	return runs, heads
+}
+
 // Mean is the mean of shapes, year by year.
 func Mean(shapes [][]float64) []float64 {
 	if len(shapes) == 0 {
