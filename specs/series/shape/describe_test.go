@@ -126,3 +126,13 @@ func TestDescribedHeadingsHold(t *testing.T) {
 	}
 	assert.Equal(t, len(shapes), total)
 }
+
+// Groups equal even in their high years are counted.
+func TestHeadingsCounted(t *testing.T) {
+	flat := make([]float64, 50)
+	for i := range flat {
+		flat[i] = 0.9
+	}
+	heads := Headings([][]float64{flat, flat, flat}, []int{0, 1, 2}, []Run{{0, 1}, {1, 1}, {2, 1}}, 1900)
+	assert.Equal(t, []string{"Steady throughout, 1 of 3", "Steady throughout, 2 of 3", "Steady throughout, 3 of 3"}, heads)
+}

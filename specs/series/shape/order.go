@@ -143,7 +143,6 @@ func (s *Seriation) Described(shapes [][]float64, from int) ([]Run, []string) {
 	var mixed []bool
 	for k := base; ; k++ {
 		runs = s.Groups(k)
-		heads = Headings(shapes, s.Order, runs, from)
 		mixed = make([]bool, len(runs))
 		any := false
 		for g, r := range runs {
@@ -165,11 +164,7 @@ func (s *Seriation) Described(shapes [][]float64, from int) ([]Run, []string) {
 			break
 		}
 	}
-	for g := range heads {
-		if mixed[g] {
-			heads[g] += " on average (mixed)"
-		}
-	}
+	heads = headings(shapes, s.Order, runs, from, mixed)
 	return runs, heads
 }
 
@@ -191,8 +186,14 @@ func Mean(shapes [][]float64) []float64 {
 }
 
 // Headings describes each run's mean shape (Describe) and makes equal
-// descriptions distinct by the years the mean stays above half its top.
+// descriptions distinct: by the years the mean stays above half its top
+// when those differ, else by counting them ("…, 2 of 3").
 func Headings(shapes [][]float64, order []int, runs []Run, from int) []string {
+	return headings(shapes, order, runs, from, nil)
+}
+
+// headings is Headings with the groups marked mixed saying so.
+func headings(shapes [][]float64, order []int, runs []Run, from int, mixed []bool) []string {
 	out := make([]string, len(runs))
 	descs := make([]Description, len(runs))
 	for i, r := range runs {
@@ -202,14 +203,35 @@ func Headings(shapes [][]float64, order []int, runs []Run, from int) []string {
 		}
 		descs[i] = Describe(Mean(members), from)
 		out[i] = descs[i].Text
-	}
-	for i := range out {
-		dup := false
-		for j := range out {
-			dup = dup || j != i && descs[j].Text == descs[i].Text
+		if mixed != nil && mixed[i] {
+			out[i] += " on average (mixed)"
 		}
-		if dup {
-			out[i] = fmt.Sprintf("%s (high %d–%d)", descs[i].Text, descs[i].HighFrom, descs[i].HighTo)
+	}
+	// Equal words: the years above half tell them apart when they
+	// differ for every one of them; else they are counted.
+	byText := map[string][]int{}
+	var texts []string
+	for i, t := range out {
+		if byText[t] == nil {
+			texts = append(texts, t)
+		}
+		byText[t] = append(byText[t], i)
+	}
+	for _, t := range texts {
+		idx := byText[t]
+		if len(idx) < 2 {
+			continue
+		}
+		spans := map[[2]int]bool{}
+		for _, i := range idx {
+			spans[[2]int{descs[i].HighFrom, descs[i].HighTo}] = true
+		}
+		for k, i := range idx {
+			if len(spans) == len(idx) {
+				out[i] = fmt.Sprintf("%s (high %d–%d)", t, descs[i].HighFrom, descs[i].HighTo)
+			} else {
+				out[i] = fmt.Sprintf("%s, %d of %d", t, k+1, len(idx))
+			}
 		}
 	}
 	return out
