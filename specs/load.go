@@ -614,8 +614,8 @@ func (d *decoder) spec(n *yaml.Node, s *Spec) {
 				{"exclude", d.strings(&s.Terms.Exclude)},
 			})
 		}},
-		{"order", d.choice(&order, string(OrderListed), string(OrderAlpha), string(OrderPeakYear))},
-		{"group", d.choice(&group, string(GroupNone), string(GroupPeakDecade))},
+		{"order", d.choice(&order, string(OrderListed), string(OrderAlpha), string(OrderPeakYear), string(OrderSimilarity))},
+		{"group", d.choice(&group, string(GroupNone), string(GroupPeakDecade), string(GroupSimilarity))},
 		{"scale", func(n *yaml.Node, path string) {
 			var mode, yr string
 			d.mapping(n, path, []field{

@@ -138,15 +138,26 @@ func (d *decoder) output(n *yaml.Node, path, name string) Output {
 		{"panel", func(n *yaml.Node, path string) {
 			aspect := math.NaN()
 			var h Length
+			bank := false
 			d.mapping(n, path, []field{
-				{"aspect", d.number(&aspect, 0, 100, true)},
+				{"aspect", func(n *yaml.Node, path string) {
+					// "bank": the aspect is chosen from the data (layout/bank).
+					if v := d.resolve(n); v.Kind == yaml.ScalarNode && v.Value == "bank" {
+						bank, aspect = true, 0
+						return
+					} else if _, err := strconv.ParseFloat(v.Value, 64); v.Kind == yaml.ScalarNode && err != nil {
+						d.errorf(v, "%s must be a number (plot width ÷ height) or bank, not %q%s", path, v.Value, didYouMean(v.Value, []string{"bank"}))
+						return
+					}
+					d.number(&aspect, 0, 100, true)(n, path)
+				}},
 				{"height", d.length(&h, false)},
 			})
 			if !math.IsNaN(aspect) && h > 0 {
 				d.errorf(n, "%s: give aspect or height, not both", path)
 			}
 			if !math.IsNaN(aspect) {
-				o.PanelAspect, o.PanelHeight = aspect, 0
+				o.PanelAspect, o.PanelHeight, o.PanelBank = aspect, 0, bank
 			}
 			if h > 0 {
 				o.PanelHeight = h

@@ -141,6 +141,9 @@ const (
 	OrderListed   Order = "listed"       // as listed, then rule-selected terms by share
 	OrderAlpha    Order = "alphabetical" // by term, Unicode collation-free code point order after case folding
 	OrderPeakYear Order = "peak-year"    // by the year of the term's peak, then name
+	// OrderSimilarity puts panels whose plotted shapes look alike next to
+	// each other (package specs/series/shape).
+	OrderSimilarity Order = "similarity"
 )
 
 // Grouping puts panels into groups with headings.
@@ -149,6 +152,9 @@ type Grouping string
 const (
 	GroupNone       Grouping = "none"
 	GroupPeakDecade Grouping = "peak-decade"
+	// GroupSimilarity makes clusters of alike shapes into groups, each
+	// headed by a description of its mean shape.
+	GroupSimilarity Grouping = "similarity"
 )
 
 // ScaleMode is how yearly counts become the plotted value.
@@ -286,6 +292,9 @@ type Output struct {
 	// band drawn behind every line: the exact Poisson interval of each
 	// year's (pooled) count. 0: no band.
 	Band float64
+	// PanelBank is panel aspect "bank": the aspect is chosen from the data
+	// by banking (layout/bank); PanelAspect is 0 until then.
+	PanelBank bool
 }
 
 // Margins are the four margins of a page. On facing pages Inside is the

@@ -14,6 +14,7 @@ import (
 	"time"
 
 	"sheaf/layout"
+	"sheaf/layout/bank"
 	"sheaf/layout/fonts"
 	"sheaf/palette"
 	"sheaf/palette/press"
@@ -107,7 +108,7 @@ func (j *Job) Prepare(out *specs.Output) (*Output, error) {
 	if err != nil {
 		return nil, specs.BadInput(err)
 	}
-	plan, err := layout.Solve(j.Spec, out, fs, j.Groups())
+	plan, err := bank.Solve(j.Spec, out, fs, j.Groups(), j.Data) // layout.Solve, banking the aspect when asked
 	if err != nil {
 		return nil, specs.BadInput(err)
 	}

@@ -112,6 +112,13 @@ func arrange(s *specs.Spec, set *Set) {
 			return strings.Compare(x.Term, y.Term)
 		})
 	}
+	if s.Group == specs.GroupSimilarity {
+		bySimilarity(s, set)
+		return
+	}
+	if s.Order == specs.OrderSimilarity {
+		seriate(set) // then grouped by decade below, if asked, keeping this order within
+	}
 	if s.Group != specs.GroupPeakDecade {
 		set.Groups = []Group{{Start: 0, Count: len(ser)}}
 		return

@@ -108,6 +108,14 @@ func Load(s *specs.Spec) (*Set, error) {
 		errs.Add(s.Where("terms"), "no terms are selected: the data has %d terms and none pass the spec's selection", len(order))
 		return nil, errs
 	}
+	if n := len(selected); n > MaxSimilar && (s.Order == specs.OrderSimilarity || s.Group == specs.GroupSimilarity) {
+		key := "order"
+		if s.Order != specs.OrderSimilarity {
+			key = "group"
+		}
+		errs.Add(s.Where(key), "%s: similarity compares every two panels and takes at most %d; the spec selects %d terms: select fewer (terms.top) or choose another %s", key, MaxSimilar, n, key)
+		return nil, errs
+	}
 	if r.keep {
 		for _, k := range selected {
 			r.counts = append(r.counts, aggs[k].counts)
