@@ -3,6 +3,7 @@ module sheaf
 go 1.26.0
 
 require (
+	github.com/go-fonts/dejavu v0.3.2
 	github.com/lucasb-eyer/go-colorful v1.4.1
 	github.com/pdfcpu/pdfcpu v0.15.0
 	github.com/tdewolff/canvas v0.0.0-20250728095813-50d4cb1eee71

@@ -33,10 +33,11 @@ func (e *encoder) useFont(d *fontData) int {
 	return i
 }
 
-// RenderText writes horizontal text as real text (embedded TrueType font,
-// searchable through ToUnicode). What PDF text cannot say as canvas means
-// it — vertical writing, rotated glyphs, CFF outlines, mark offsets — is
-// drawn as glyph outlines instead.
+// RenderText writes horizontal text as real text (embedded TrueType or
+// CFF font, searchable through ToUnicode). What PDF text cannot say as
+// canvas means it — vertical writing, rotated glyphs, CFF2 outlines, mark
+// offsets — is drawn as glyph outlines instead. A font whose licence
+// forbids embedding is an error: its outlines may not go into the file.
 func (e *encoder) RenderText(t *canvas.Text, m canvas.Matrix) {
 	e.op++
 	if e.err != nil || t == nil || t.Empty() {
@@ -69,6 +70,10 @@ func (e *encoder) RenderText(t *canvas.Text, m canvas.Matrix) {
 			return
 		}
 		d, err := e.keys.get(span.Face.Font.SFNT)
+		if err == nil && d.refusal != "" {
+			e.fail("font %s: %s", d.psName, d.refusal)
+			return
+		}
 		if err != nil || !d.embeddable || !spanIsPlain(span) {
 			e.spanOutlines(x, y, span, m)
 			return

@@ -536,7 +536,7 @@ func (d *Document) writeFonts(h *bytes.Buffer) error {
 			}
 		}
 		sort.Slice(ids[1:], func(i, j int) bool { return ids[1+i] < ids[1+j] })
-		sub, err := u.font.SFNT.Subset(ids, font.SubsetOptions{Tables: font.KeepMinTables})
+		sub, err := subset(u.font.SFNT, ids)
 		if err != nil {
 			return fmt.Errorf("svg: subsetting font %q: %w", u.font.Name(), err)
 		}
@@ -549,13 +549,19 @@ func (d *Document) writeFonts(h *bytes.Buffer) error {
 				style = "italic"
 			}
 		}
-		fmt.Fprintf(h, "@font-face{font-family:%q;font-weight:%s;font-style:%s;src:url(data:font/ttf;base64,", d.embeddedFamily(), weight, style)
+		// The media type and format name of the outlines (RFC 8081;
+		// CSS Fonts 4 §4.3.1): glyf outlines "truetype", CFF "opentype".
+		mime, format := "font/ttf", "truetype"
+		if sub.IsCFF {
+			mime, format = "font/otf", "opentype"
+		}
+		fmt.Fprintf(h, "@font-face{font-family:%q;font-weight:%s;font-style:%s;src:url(data:%s;base64,", d.embeddedFamily(), weight, style, mime)
 		prog, err := stableWrite(sub)
 		if err != nil {
 			return fmt.Errorf("svg: writing the subset of font %q: %w", u.font.Name(), err)
 		}
 		h.WriteString(base64.StdEncoding.EncodeToString(prog))
-		h.WriteString(") format(\"truetype\")}\n")
+		fmt.Fprintf(h, ") format(%q)}\n", format)
 	}
 	h.WriteString("</style>\n")
 	return nil
@@ -630,4 +636,60 @@ func checksum(b []byte) uint32 {
 		sum += binary.BigEndian.Uint32(w[:])
 	}
 	return sum
+}
+
+// subset makes a web font of the glyphs ids from its own parse of s's
+// tables: tdewolff/font's Subset writes into the font it subsets (maxp,
+// hhea, head and a CFF table's subroutines), and s is shared with the
+// renderers drawing the same pages.
+func subset(s *font.SFNT, ids []uint16) (sub *font.SFNT, err error) {
+	defer func() {
+		if r := recover(); r != nil {
+			sub, err = nil, fmt.Errorf("font subsetter failed: %v", r)
+		}
+	}()
+	own, err := font.ParseSFNT(assemble(s.Tables), 0)
+	if err != nil {
+		return nil, err
+	}
+	return own.Subset(ids, font.SubsetOptions{Tables: font.KeepMinTables})
+}
+
+// assemble writes tables as an sfnt file (OpenType spec, "Organization of
+// an OpenType Font"), for parsing again; checksums are not needed there.
+func assemble(tables map[string][]byte) []byte {
+	tags := make([]string, 0, len(tables))
+	for t := range tables {
+		tags = append(tags, t)
+	}
+	sort.Strings(tags)
+	n := len(tags)
+	es := 0
+	for 1<<(es+1) <= n {
+		es++
+	}
+	version := uint32(0x00010000)
+	if tables["CFF "] != nil || tables["CFF2"] != nil {
+		version = 0x4F54544F // "OTTO"
+	}
+	be := binary.BigEndian
+	out := be.AppendUint32(nil, version)
+	out = be.AppendUint16(out, uint16(n))
+	out = be.AppendUint16(out, uint16(16<<es))
+	out = be.AppendUint16(out, uint16(es))
+	out = be.AppendUint16(out, uint16(16*n-16<<es))
+	off := 12 + 16*n
+	var body []byte
+	for _, tag := range tags {
+		b := tables[tag]
+		out = append(out, tag...)
+		out = be.AppendUint32(out, checksum(b))
+		out = be.AppendUint32(out, uint32(off+len(body)))
+		out = be.AppendUint32(out, uint32(len(b)))
+		body = append(body, b...)
+		for len(body)%4 != 0 {
+			body = append(body, 0)
+		}
+	}
+	return append(out, body...)
 }

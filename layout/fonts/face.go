@@ -1,0 +1,245 @@
+package fonts
+
+import (
+	"encoding/binary"
+	"errors"
+	"fmt"
+	"strconv"
+	"strings"
+
+	"github.com/tdewolff/font"
+
+	"sheaf/layout/fonts/cff"
+	"sheaf/specs"
+)
+
+// maxFaces bounds the faces listed from a collection's header.
+const maxFaces = 1 << 12
+
+// Faces lists the full names (name ID 4) of the faces in a font file: one
+// for a single font, each face of a collection (.ttc, .otc: the OpenType
+// spec's "Font Collections") in order. A face whose name cannot be read
+// is listed as "".
+func Faces(b []byte) ([]string, error) {
+	n := 1
+	if len(b) >= 12 && string(b[:4]) == "ttcf" {
+		n = int(binary.BigEndian.Uint32(b[8:]))
+		if n < 1 || n > maxFaces || 12+4*n > len(b) {
+			return nil, fmt.Errorf("collection header lists %d faces", n)
+		}
+	}
+	names := make([]string, n)
+	for i := range names {
+		s, err := parseSFNT(b, i)
+		if err != nil {
+			if n == 1 {
+				return nil, err
+			}
+			continue
+		}
+		names[i] = fullName(s)
+	}
+	return names, nil
+}
+
+// parseSFNT parses face i of b, turning a panic of the parser into an
+// error: font files come from users.
+func parseSFNT(b []byte, i int) (s *font.SFNT, err error) {
+	defer func() {
+		if r := recover(); r != nil {
+			s, err = nil, fmt.Errorf("font parser failed: %v", r)
+		}
+	}()
+	return font.ParseSFNT(b, i)
+}
+
+func fullName(s *font.SFNT) string {
+	if s == nil || s.Name == nil {
+		return ""
+	}
+	for _, id := range []font.NameID{4, 6, 1} {
+		for _, r := range s.Name.Get(id) {
+			if v := r.String(); v != "" {
+				return v
+			}
+		}
+	}
+	return ""
+}
+
+// FaceError is a face the spec names that the file does not have.
+type FaceError struct {
+	Want  specs.FaceRef
+	Faces []string // the file's faces, by index
+}
+
+func (e *FaceError) Error() string {
+	var b strings.Builder
+	fmt.Fprintf(&b, "no face %s in the file; its faces are", e.Want)
+	for i, n := range e.Faces {
+		if i > 0 {
+			b.WriteString(",")
+		}
+		fmt.Fprintf(&b, " %d %s", i, strconv.Quote(n))
+	}
+	return b.String()
+}
+
+// pickFace returns the index of the face ref names in b.
+func pickFace(b []byte, ref specs.FaceRef) (int, error) {
+	collection := len(b) >= 4 && string(b[:4]) == "ttcf"
+	if !collection && ref.Name == "" && ref.Index == 0 {
+		return 0, nil
+	}
+	faces, err := Faces(b)
+	if err != nil {
+		return 0, err
+	}
+	if ref.Name == "" {
+		if ref.Index < len(faces) {
+			return ref.Index, nil
+		}
+		return 0, &FaceError{Want: ref, Faces: faces}
+	}
+	for i, n := range faces {
+		if n == ref.Name {
+			return i, nil
+		}
+	}
+	// Names differ in case and spacing between tools; accept those.
+	for i, n := range faces {
+		if strings.EqualFold(strings.Join(strings.Fields(n), " "), strings.Join(strings.Fields(ref.Name), " ")) {
+			return i, nil
+		}
+	}
+	return 0, &FaceError{Want: ref, Faces: faces}
+}
+
+// Licence is what a font's OS/2 fsType allows an embedder (OpenType
+// spec, "OS/2 — OS/2 and Windows Metrics Table", fsType).
+type Licence struct {
+	FsType uint16
+	HasOS2 bool
+}
+
+// fsType bits (OpenType OS/2 fsType).
+const (
+	fsRestricted   = 0x0002 // Restricted License embedding
+	fsPreviewPrint = 0x0004 // Preview & Print embedding
+	fsEditable     = 0x0008 // Editable embedding
+	fsNoSubsetting = 0x0100
+	fsBitmapOnly   = 0x0200
+)
+
+// LicenceOf reads the embedding permissions of a parsed face.
+func LicenceOf(s *font.SFNT) Licence {
+	if s == nil || s.OS2 == nil {
+		return Licence{}
+	}
+	return Licence{FsType: s.OS2.FsType, HasOS2: true}
+}
+
+// Restricted reports a font its licence forbids to embed at all:
+// Restricted License embedding with no less restrictive bit beside it
+// (OS/2 versions 0–2 may set several; the least restrictive applies).
+func (l Licence) Restricted() bool {
+	return l.FsType&fsRestricted != 0 && l.FsType&(fsPreviewPrint|fsEditable) == 0
+}
+
+// BitmapOnly reports a font whose outlines may not be embedded.
+func (l Licence) BitmapOnly() bool { return l.FsType&fsBitmapOnly != 0 }
+
+// NoSubsetting reports a font that may be embedded only whole.
+func (l Licence) NoSubsetting() bool { return l.FsType&fsNoSubsetting != 0 }
+
+// PreviewPrint reports Preview & Print embedding: a document may carry the
+// font to be viewed and printed, not edited.
+func (l Licence) PreviewPrint() bool {
+	return l.FsType&fsPreviewPrint != 0 && l.FsType&fsEditable == 0
+}
+
+// Refusal says why the licence forbids embedding, or "" when it allows it.
+func (l Licence) Refusal() string {
+	switch {
+	case l.Restricted():
+		return fmt.Sprintf("its licence forbids embedding it in a document (OS/2 fsType 0x%04X: Restricted License embedding)", l.FsType)
+	case l.BitmapOnly():
+		return fmt.Sprintf("its licence allows only its bitmaps to be embedded, not its outlines (OS/2 fsType 0x%04X: Bitmap embedding only)", l.FsType)
+	}
+	return ""
+}
+
+// String says what the licence allows, for findings.
+func (l Licence) String() string {
+	if !l.HasOS2 {
+		return "no OS/2 table: embedding permission not stated; treated as installable (common practice)"
+	}
+	var parts []string
+	switch {
+	case l.Restricted():
+		parts = append(parts, "Restricted License embedding")
+	case l.PreviewPrint():
+		parts = append(parts, "Preview & Print embedding")
+	case l.FsType&fsEditable != 0:
+		parts = append(parts, "Editable embedding")
+	default:
+		parts = append(parts, "Installable embedding")
+	}
+	if l.NoSubsetting() {
+		parts = append(parts, "no subsetting")
+	}
+	if l.BitmapOnly() {
+		parts = append(parts, "bitmap embedding only")
+	}
+	return fmt.Sprintf("OS/2 fsType 0x%04X: %s", l.FsType, strings.Join(parts, ", "))
+}
+
+// Outlines names a face's outline format.
+type Outlines string
+
+const (
+	TrueType Outlines = "TrueType" // glyf/loca
+	CFF      Outlines = "CFF"      // CFF version 1
+	CFF2     Outlines = "CFF2"     // variable CFF
+)
+
+// Embedding is how a face goes into a document.
+type Embedding struct {
+	Outlines Outlines
+	// Outlined, when not "", says why text in this face is drawn as glyph
+	// outlines instead of embedded as a font (not searchable).
+	Outlined string
+	Licence  Licence
+}
+
+// embeddingOf checks a parsed face: a CFF table that does not parse, or
+// whose charstrings do not, is an error, as the PDF and SVG writers would
+// fail on it later.
+func embeddingOf(s *font.SFNT) (Embedding, error) {
+	e := Embedding{Licence: LicenceOf(s)}
+	switch {
+	case s.IsTrueType:
+		e.Outlines = TrueType
+		if s.Tables["glyf"] == nil || s.Tables["loca"] == nil {
+			e.Outlined = "its TrueType outlines lack a glyf or loca table"
+		}
+	case s.Tables["CFF2"] != nil:
+		e.Outlines = CFF2
+		e.Outlined = "its outlines are CFF2 (a variable font), which sheaf does not embed"
+	case s.IsCFF:
+		e.Outlines = CFF
+		f, err := cff.Parse(s.Tables["CFF "])
+		if err != nil {
+			return e, err
+		}
+		if err := f.Check(); err != nil {
+			return e, err
+		}
+		if f.NumGlyphs() != int(s.NumGlyphs()) {
+			return e, fmt.Errorf("CFF table has %d glyphs, maxp %d", f.NumGlyphs(), s.NumGlyphs())
+		}
+	default:
+		return e, errors.New("font has neither TrueType nor CFF outlines")
+	}
+	return e, nil
+}
