@@ -30,16 +30,69 @@ func Faces(b []byte) ([]string, error) {
 	}
 	names := make([]string, n)
 	for i := range names {
-		s, err := parseSFNT(b, i)
+		s, err := parseFace(b, i)
 		if err != nil {
 			if n == 1 {
 				return nil, err
 			}
 			continue
 		}
-		names[i] = fullName(s)
+		names[i] = fullNames(s)[0]
 	}
 	return names, nil
+}
+
+// parseFace parses face i of b.
+func parseFace(b []byte, i int) (*font.SFNT, error) {
+	one, err := extractFace(b, i)
+	if err != nil {
+		return nil, err
+	}
+	return parseSFNT(one, 0)
+}
+
+// extractFace returns face i of a collection as a font file of its own
+// (its table directory and tables, offsets rebased); a single font is
+// returned as it is. tdewolff/font refuses the last face of a collection
+// (it measures each face by the gap to the next one), and a face of its
+// own is also what gets hashed and embedded.
+func extractFace(b []byte, i int) ([]byte, error) {
+	if len(b) < 12 || string(b[:4]) != "ttcf" {
+		if i != 0 {
+			return nil, fmt.Errorf("face %d of a file that is not a collection", i)
+		}
+		return b, nil
+	}
+	be := binary.BigEndian
+	n := int(be.Uint32(b[8:]))
+	if i < 0 || i >= n || 12+4*(i+1) > len(b) {
+		return nil, fmt.Errorf("collection has no face %d", i)
+	}
+	dir := int(be.Uint32(b[12+4*i:]))
+	if dir < 0 || dir+12 > len(b) {
+		return nil, fmt.Errorf("face %d's table directory is past the file's end", i)
+	}
+	nt := int(be.Uint16(b[dir+4:]))
+	if dir+12+16*nt > len(b) {
+		return nil, fmt.Errorf("face %d's table directory runs past the file's end", i)
+	}
+	out := append([]byte(nil), b[dir:dir+12+16*nt]...)
+	for r := 0; r < nt; r++ {
+		rec := 12 + 16*r
+		off, length := int64(be.Uint32(out[rec+8:])), int64(be.Uint32(out[rec+12:]))
+		if off+length > int64(len(b)) {
+			return nil, fmt.Errorf("face %d: table %q runs past the file's end", i, out[rec:rec+4])
+		}
+		for len(out)%4 != 0 {
+			out = append(out, 0)
+		}
+		be.PutUint32(out[rec+8:], uint32(len(out)))
+		out = append(out, b[off:off+length]...)
+	}
+	for len(out)%4 != 0 {
+		out = append(out, 0)
+	}
+	return out, nil
 }
 
 // parseSFNT parses face i of b, turning a panic of the parser into an
@@ -53,18 +106,24 @@ func parseSFNT(b []byte, i int) (s *font.SFNT, err error) {
 	return font.ParseSFNT(b, i)
 }
 
-func fullName(s *font.SFNT) string {
-	if s == nil || s.Name == nil {
-		return ""
-	}
-	for _, id := range []font.NameID{4, 6, 1} {
-		for _, r := range s.Name.Get(id) {
-			if v := r.String(); v != "" {
-				return v
+// fullNames are the face's full names (name ID 4) as its name records
+// give them (platforms differ), then its PostScript name (ID 6); the
+// first is the one listed.
+func fullNames(s *font.SFNT) []string {
+	var out []string
+	if s != nil && s.Name != nil {
+		for _, id := range []font.NameID{4, 6} {
+			for _, r := range s.Name.Get(id) {
+				if v := r.String(); v != "" {
+					out = append(out, v)
+				}
 			}
 		}
 	}
-	return ""
+	if len(out) == 0 {
+		out = []string{""}
+	}
+	return out
 }
 
 // FaceError is a face the spec names that the file does not have.
@@ -101,15 +160,18 @@ func pickFace(b []byte, ref specs.FaceRef) (int, error) {
 		}
 		return 0, &FaceError{Want: ref, Faces: faces}
 	}
-	for i, n := range faces {
-		if n == ref.Name {
-			return i, nil
+	// Any full name record matches (or the PostScript name); case and
+	// spacing differ between tools, so they do not count.
+	norm := func(s string) string { return strings.ToLower(strings.Join(strings.Fields(s), " ")) }
+	for i := range faces {
+		s, err := parseFace(b, i)
+		if err != nil {
+			continue
 		}
-	}
-	// Names differ in case and spacing between tools; accept those.
-	for i, n := range faces {
-		if strings.EqualFold(strings.Join(strings.Fields(n), " "), strings.Join(strings.Fields(ref.Name), " ")) {
-			return i, nil
+		for _, n := range fullNames(s) {
+			if norm(n) == norm(ref.Name) {
+				return i, nil
+			}
 		}
 	}
 	return 0, &FaceError{Want: ref, Faces: faces}

@@ -125,6 +125,9 @@ func Load(spec *specs.Spec, out *specs.Output) (*Set, error) {
 			return fmt.Errorf("%s: cannot read font %q (resolved to %q): %w", where, written, resolved, err)
 		}
 		face, err := pickFace(b, ref)
+		if err == nil {
+			b, err = extractFace(b, face)
+		}
 		if err != nil {
 			var fe *FaceError
 			if errors.As(err, &fe) {
@@ -133,9 +136,10 @@ func Load(spec *specs.Spec, out *specs.Output) (*Set, error) {
 			}
 			return fmt.Errorf("%s: %q (resolved to %q) is not a usable TrueType/OpenType font: %w", where, written, resolved, err)
 		}
-		if err := s.set(st, b, resolved, face); err != nil {
+		if err := s.set(st, b, resolved, 0); err != nil {
 			return fmt.Errorf("%s: %q (resolved to %q) is not a usable TrueType/OpenType font: %w", where, written, resolved, err)
 		}
+		s.face[st] = face
 		if why := s.emb[st].Licence.Refusal(); why != "" && embeds {
 			return fmt.Errorf("%s: font %q (%s, resolved to %q): %s; output %q embeds its fonts (%s); choose another font or one licensed for embedding",
 				where, s.fonts[st].Name(), written, resolved, why, out.Name, embedsWhy(out))
