@@ -654,6 +654,7 @@ func (f *Font) usedSubrs(glyphs []uint16) (map[int]bool, []map[int]bool, error) 
 		local[i] = map[int]bool{}
 	}
 	unsure := false
+	total := 0
 	for _, g := range glyphs {
 		if int(g) >= f.NumGlyphs() {
 			return nil, nil, errf("glyph %d is beyond the font's %d glyphs", g, f.NumGlyphs())
@@ -661,6 +662,9 @@ func (f *Font) usedSubrs(glyphs []uint16) (map[int]bool, []map[int]bool, error) 
 		fd := f.fdOf(int(g))
 		w := walker{f: f, local: f.fds[fd].subrs, usedLocal: local[fd], usedGlobal: global}
 		_, err := w.run(f.charStrings.get(int(g)), 0)
+		if total += w.steps; total > maxTotalSteps {
+			return nil, nil, errf("charstrings take more than %d steps to walk", maxTotalSteps)
+		}
 		if errors.Is(err, errUnsure) {
 			unsure = true
 			continue
@@ -694,8 +698,13 @@ type walker struct {
 	steps                 int
 }
 
-// maxSteps bounds the work one glyph may cause, subroutine loops included.
-const maxSteps = 1 << 16
+// maxSteps bounds the work one glyph may cause, subroutine loops
+// included; maxTotalSteps all glyphs' (a font of 65,535 glyphs of 500
+// steps each is well under it).
+const (
+	maxSteps      = 1 << 16
+	maxTotalSteps = 1 << 25
+)
 
 // run interprets cs; it reports whether endchar was met.
 func (w *walker) run(cs []byte, depth int) (bool, error) {
