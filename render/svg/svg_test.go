@@ -41,6 +41,11 @@ func goFonts(t testing.TB) (*canvas.Font, *canvas.Font) {
 func sample(t testing.TB, opts Options) []byte {
 	t.Helper()
 	reg, bold := goFonts(t)
+	return sampleWith(t, opts, reg, bold)
+}
+
+func sampleWith(t testing.TB, opts Options, reg, bold *canvas.Font) []byte {
+	t.Helper()
 	d, err := New(300, 150, opts)
 	if err != nil {
 		t.Fatal(err)
