@@ -2,7 +2,11 @@ package svg
 
 import (
 	"encoding/base64"
+	"os"
+	"os/exec"
+	"path/filepath"
 	"regexp"
+	"strings"
 	"testing"
 
 	"github.com/go-fonts/latin-modern/lmsans10bold"
@@ -51,4 +55,55 @@ func TestEmbeddedCFFSubset(t *testing.T) {
 		require.NoError(t, c.Check())
 		assert.Equal(t, uint32(0xB1B0AFBA), checksum(raw), "OpenType head checkSumAdjustment")
 	}
+}
+
+type pathRec struct{ ops []float64 }
+
+func (r *pathRec) MoveTo(x, y float64)             { r.ops = append(r.ops, 1, x, y) }
+func (r *pathRec) LineTo(x, y float64)             { r.ops = append(r.ops, 2, x, y) }
+func (r *pathRec) QuadTo(a, b, x, y float64)       { r.ops = append(r.ops, 3, a, b, x, y) }
+func (r *pathRec) CubeTo(a, b, c, d, x, y float64) { r.ops = append(r.ops, 4, a, b, c, d, x, y) }
+func (r *pathRec) Close()                          { r.ops = append(r.ops, 5) }
+
+func glyphOps(t *testing.T, s *font.SFNT, g uint16) []float64 {
+	var r pathRec
+	require.NoError(t, s.GlyphPath(&r, g, 0, 0, 0, 1, font.NoHinting))
+	return r.ops
+}
+
+// TestEmbeddedSubsetLiningFigures: EB Garamond's default figures are
+// old-style; shaped with lnum (as sheaf shapes every face) the digits are
+// its lining figures, and a browser, which shapes again from the
+// embedded subset's cmap, must find those: the subset maps '1', '6', '8'
+// to glyphs drawn as the lining ones.
+func TestEmbeddedSubsetLiningFigures(t *testing.T) {
+	out, err := exec.Command("go", "list", "-m", "-f", "{{.Dir}}", "github.com/tdewolff/font").Output()
+	if err != nil {
+		t.Skipf("tdewolff/font not in the module cache: %v", err)
+	}
+	b, err := os.ReadFile(filepath.Join(strings.TrimSpace(string(out)), "resources", "EBGaramond12-Regular.otf"))
+	require.NoError(t, err)
+	reg, err := canvas.LoadFont(b, 0, canvas.FontRegular)
+	require.NoError(t, err)
+	reg.SetFeatures("lnum")
+	lining := map[rune]uint16{}
+	txt := canvas.NewTextLine(reg.Face(10, canvas.Black), "1868", canvas.Left)
+	txt.WalkSpans(func(_, _ float64, sp canvas.TextSpan) {
+		for i, g := range sp.Glyphs {
+			lining[rune(sp.Text[i])] = g.ID
+		}
+	})
+	require.NotEqual(t, reg.GlyphIndex('1'), lining['1'], "lnum changes EB Garamond's figures")
+
+	s := string(sampleWith(t, Options{EmbedFonts: true}, reg, reg))
+	m := regexp.MustCompile(`src:url\(data:font/otf;base64,([A-Za-z0-9+/=]+)\)`).FindAllStringSubmatch(s, -1)
+	require.NotEmpty(t, m)
+	raw, err := base64.StdEncoding.DecodeString(m[0][1])
+	require.NoError(t, err)
+	sub, err := font.ParseSFNT(raw, 0)
+	require.NoError(t, err)
+	for _, r := range "168" {
+		assert.Equal(t, glyphOps(t, reg.SFNT, lining[r]), glyphOps(t, sub, sub.GlyphIndex(r)), "%q is the lining figure", r)
+	}
+	assert.NotZero(t, sub.GlyphIndex('M'), "other characters still map")
 }

@@ -30,6 +30,7 @@ import (
 	"sort"
 	"strconv"
 	"strings"
+	"unicode/utf8"
 
 	"github.com/tdewolff/canvas"
 	"github.com/tdewolff/font"
@@ -86,6 +87,12 @@ type Document struct {
 type fontUse struct {
 	font   *canvas.Font
 	glyphs map[uint16]bool
+	// cmap is the glyph each character was drawn with where shaping chose
+	// another than the font's cmap (lining figures, lnum): the subset's
+	// cmap then maps the character there, since a browser shapes the text
+	// again from the cmap alone (the subset keeps no GSUB).
+	cmap  map[rune]uint16
+	runes map[rune]bool // every character drawn
 }
 
 // New returns a document of w × h points; the drawing's origin is the
@@ -393,16 +400,31 @@ func (d *Document) useGlyphs(s canvas.TextSpan) {
 		}
 	}
 	if u == nil {
-		u = &fontUse{font: s.Face.Font, glyphs: map[uint16]bool{}}
+		u = &fontUse{font: s.Face.Font, glyphs: map[uint16]bool{}, cmap: map[rune]uint16{}, runes: map[rune]bool{}}
 		d.fonts = append(d.fonts, u)
 	}
-	for _, g := range s.Glyphs {
+	for i, g := range s.Glyphs {
 		u.glyphs[g.ID] = true
+		// a cluster of one character drawn with one glyph
+		single := (i == 0 || s.Glyphs[i-1].Cluster != g.Cluster) && (i+1 == len(s.Glyphs) || s.Glyphs[i+1].Cluster != g.Cluster)
+		if c := int(g.Cluster); single && c < len(s.Text) {
+			r, n := utf8.DecodeRuneInString(s.Text[c:])
+			end := len(s.Text)
+			for _, h := range s.Glyphs {
+				if int(h.Cluster) > c && int(h.Cluster) < end {
+					end = int(h.Cluster)
+				}
+			}
+			if _, seen := u.cmap[r]; !seen && c+n == end && g.ID != s.Face.Font.SFNT.GlyphIndex(r) {
+				u.cmap[r] = g.ID
+			}
+		}
 	}
 	// A browser shapes the string again from the font's cmap: every
 	// character must map to a glyph in the subset.
 	for _, r := range s.Text {
 		u.glyphs[s.Face.Font.SFNT.GlyphIndex(r)] = true
+		u.runes[r] = true
 	}
 }
 
@@ -539,6 +561,22 @@ func (d *Document) writeFonts(h *bytes.Buffer) error {
 		sub, err := subset(u.font.SFNT, ids)
 		if err != nil {
 			return fmt.Errorf("svg: subsetting font %q: %w", u.font.Name(), err)
+		}
+		if len(u.cmap) > 0 {
+			// The subset's glyph i is ids[i] (tdewolff/font's Subset keeps
+			// the order given).
+			at := make(map[uint16]uint16, len(ids))
+			for i, id := range ids {
+				at[id] = uint16(i)
+			}
+			m := map[rune]uint16{}
+			for r := range u.runes {
+				m[r] = at[u.font.SFNT.GlyphIndex(r)]
+			}
+			for r, g := range u.cmap {
+				m[r] = at[g]
+			}
+			sub.Tables["cmap"] = cmapTable(m)
 		}
 		weight, style := "normal", "normal"
 		if hd := u.font.SFNT.Head; hd != nil {
@@ -692,4 +730,86 @@ func assemble(tables map[string][]byte) []byte {
 		}
 	}
 	return append(out, body...)
+}
+
+// cmapTable writes a cmap (OpenType spec, "cmap — Character to Glyph
+// Index Mapping Table") with a format 4 subtable (Windows, BMP) and, when
+// a character lies beyond the BMP, a format 12 one (Windows, full
+// repertoire): one segment or group per character.
+func cmapTable(m map[rune]uint16) []byte {
+	rs := make([]rune, 0, len(m))
+	astral := false
+	for r := range m {
+		if r >= 0 && r <= 0x10FFFF {
+			rs = append(rs, r)
+			astral = astral || r > 0xFFFF
+		}
+	}
+	sort.Slice(rs, func(i, j int) bool { return rs[i] < rs[j] })
+	be := binary.BigEndian
+	// format 4
+	var bmp []rune
+	for _, r := range rs {
+		if r < 0xFFFF {
+			bmp = append(bmp, r)
+		}
+	}
+	seg := len(bmp) + 1
+	es := 0
+	for 1<<(es+1) <= seg {
+		es++
+	}
+	f4 := be.AppendUint16(nil, 4)
+	f4 = be.AppendUint16(f4, uint16(16+8*seg))
+	f4 = be.AppendUint16(f4, 0) // language
+	f4 = be.AppendUint16(f4, uint16(2*seg))
+	f4 = be.AppendUint16(f4, uint16(2<<es))
+	f4 = be.AppendUint16(f4, uint16(es))
+	f4 = be.AppendUint16(f4, uint16(2*seg-2<<es))
+	for _, r := range bmp {
+		f4 = be.AppendUint16(f4, uint16(r)) // endCode
+	}
+	f4 = be.AppendUint16(f4, 0xFFFF)
+	f4 = be.AppendUint16(f4, 0) // reservedPad
+	for _, r := range bmp {
+		f4 = be.AppendUint16(f4, uint16(r)) // startCode
+	}
+	f4 = be.AppendUint16(f4, 0xFFFF)
+	for _, r := range bmp {
+		f4 = be.AppendUint16(f4, m[r]-uint16(r)) // idDelta, modulo 65536
+	}
+	f4 = be.AppendUint16(f4, 1)
+	for range seg {
+		f4 = be.AppendUint16(f4, 0) // idRangeOffset
+	}
+	var f12 []byte
+	if astral {
+		f12 = be.AppendUint16(nil, 12)
+		f12 = be.AppendUint16(f12, 0)
+		f12 = be.AppendUint32(f12, uint32(16+12*len(rs)))
+		f12 = be.AppendUint32(f12, 0) // language
+		f12 = be.AppendUint32(f12, uint32(len(rs)))
+		for _, r := range rs {
+			f12 = be.AppendUint32(f12, uint32(r))
+			f12 = be.AppendUint32(f12, uint32(r))
+			f12 = be.AppendUint32(f12, uint32(m[r]))
+		}
+	}
+	n := 1
+	if f12 != nil {
+		n = 2
+	}
+	out := be.AppendUint16(nil, 0)
+	out = be.AppendUint16(out, uint16(n))
+	off := 4 + 8*n
+	out = be.AppendUint16(out, 3)
+	out = be.AppendUint16(out, 1)
+	out = be.AppendUint32(out, uint32(off))
+	if f12 != nil {
+		out = be.AppendUint16(out, 3)
+		out = be.AppendUint16(out, 10)
+		out = be.AppendUint32(out, uint32(off+len(f4)))
+	}
+	out = append(out, f4...)
+	return append(out, f12...)
 }
