@@ -91,7 +91,12 @@ func (e *extraDocError) Error() string { return fmt.Sprintf("line %d: a second Y
 // decodeAll parses the first YAML document into root and makes sure no
 // other follows: yaml.Unmarshal would silently drop the rest.
 func decodeAll(data []byte, root *yaml.Node) error {
-	dec := yaml.NewDecoder(bytes.NewReader(data))
+	return decodeAllFrom(bytes.NewReader(data), root)
+}
+
+// decodeAllFrom is decodeAll reading from r.
+func decodeAllFrom(r io.Reader, root *yaml.Node) error {
+	dec := yaml.NewDecoder(r)
 	if err := dec.Decode(root); err != nil && err != io.EOF {
 		return err
 	}
@@ -152,10 +157,13 @@ func checkAliases(file string, root *yaml.Node) *Error {
 
 // yamlError turns a yaml.v3 syntax error into one with a line and column.
 // yaml.v3 reports the line where the enclosing construct began (for some
-// errors 0-based, for some not at all), so the line is found again by
-// parsing ever longer prefixes of the text, line by line, until one fails
-// with the same message. The column is the line's first non-blank
-// character, or the first tab when tabs are the trouble.
+// errors 0-based, for some not at all), so the line is found again in
+// linear time: the text is parsed once more through a reader that hands
+// the parser one line at a time, so the parser has read at most a line or
+// two past the fault when it fails; then a handful of prefixes ending near
+// there (and at the line yaml.v3 named) are parsed, and the shortest that
+// fails with the same message wins. The column is the line's first
+// non-blank character, or the first tab when tabs are the trouble.
 func yamlError(file string, data []byte, err error) *Error {
 	msg := err.Error()
 	line := 1
@@ -166,21 +174,22 @@ func yamlError(file string, data []byte, err error) *Error {
 		msg = strings.TrimPrefix(msg, "yaml: ")
 	}
 	lines := strings.Split(string(data), "\n")
-	if len(lines) <= maxScanLines {
-		for k := 1; k <= len(lines); k++ {
-			var n yaml.Node
-			perr := decodeAll([]byte(strings.Join(lines[:k], "\n")+"\n"), &n)
-			if perr == nil || errors.As(perr, new(*extraDocError)) {
-				continue
-			}
-			pm := strings.TrimPrefix(perr.Error(), "yaml: ")
-			if m := yamlLine.FindStringSubmatch(perr.Error()); m != nil {
-				pm = m[2]
-			}
-			if pm == msg {
-				line = k
-				break
-			}
+	lr := &lineReader{data: data}
+	var n yaml.Node
+	_ = decodeAllFrom(lr, &n)
+	reached := lr.lines
+	candidates := []int{line}
+	for k := max(reached-3, 1); k <= reached; k++ {
+		candidates = append(candidates, k)
+	}
+	sort.Ints(candidates)
+	for _, k := range candidates {
+		if k < 1 || k > len(lines) {
+			continue
+		}
+		if sameYAMLFailure(lineEnd(data, k), msg) {
+			line = k
+			break
 		}
 	}
 	col := 1
@@ -196,6 +205,63 @@ func yamlError(file string, data []byte, err error) *Error {
 		col = len(text) - len(strings.TrimLeft(text, " \t")) + 1
 	}
 	return &Error{Pos: Pos{File: file, Line: line, Col: col}, Msg: "YAML syntax: " + msg}
+}
+
+// sameYAMLFailure reports whether prefix, parsed on its own, fails with
+// the syntax message msg.
+func sameYAMLFailure(prefix []byte, msg string) bool {
+	var n yaml.Node
+	perr := decodeAll(append(prefix[:len(prefix):len(prefix)], '\n'), &n)
+	if perr == nil || errors.As(perr, new(*extraDocError)) {
+		return false
+	}
+	pm := strings.TrimPrefix(perr.Error(), "yaml: ")
+	if m := yamlLine.FindStringSubmatch(perr.Error()); m != nil {
+		pm = m[2]
+	}
+	return pm == msg
+}
+
+// lineEnd returns data up to the end of line k (1-based), without its
+// newline.
+func lineEnd(data []byte, k int) []byte {
+	off := 0
+	for i := 1; i < k; i++ {
+		j := bytes.IndexByte(data[off:], '\n')
+		if j < 0 {
+			return data
+		}
+		off += j + 1
+	}
+	if j := bytes.IndexByte(data[off:], '\n'); j >= 0 {
+		return data[:off+j]
+	}
+	return data
+}
+
+// lineReader hands out its data at most one line per Read and counts the
+// lines it has begun to hand out, so after a failed parse it says how far
+// the parser read.
+type lineReader struct {
+	data  []byte
+	off   int
+	lines int
+}
+
+func (r *lineReader) Read(p []byte) (int, error) {
+	if r.off >= len(r.data) {
+		return 0, io.EOF
+	}
+	rest := r.data[r.off:]
+	if i := bytes.IndexByte(rest, '\n'); i >= 0 {
+		rest = rest[:i+1]
+	}
+	n := copy(p, rest)
+	if r.off == 0 || r.data[r.off-1] == '\n' {
+		r.lines++
+	}
+	r.off += n
+	return n, nil
 }
 
 type decoder struct {
@@ -229,10 +295,6 @@ func (d *decoder) overBudget(n *yaml.Node) bool {
 	}
 	return false
 }
-
-// maxScanLines bounds the prefix search for a syntax error's line; it is
-// quadratic, and specs are far shorter.
-const maxScanLines = 2000
 
 const aliasMsg = "the spec expands to too many values (YAML aliases that multiply); write it out plainly"
 

@@ -4,6 +4,7 @@ import (
 	"bytes"
 	"encoding/json"
 	"path/filepath"
+	"sheaf/render/feature"
 	"strings"
 	"testing"
 )
@@ -129,7 +130,7 @@ func TestCheckSmall(t *testing.T) {
 	if code := run([]string{"check", "../../testdata/small/spec.yaml", "--json"}, &out, &errb); code != exitOK {
 		t.Fatalf("--json exit %d: %s", code, errb.String())
 	}
-	var rep checkReport
+	var rep feature.Report
 	if err := json.Unmarshal(out.Bytes(), &rep); err != nil {
 		t.Fatalf("--json output is not JSON: %v\n%s", err, out.String())
 	}

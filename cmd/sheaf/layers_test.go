@@ -7,7 +7,8 @@ import (
 )
 
 // TestLayers keeps the pipeline readable top to bottom (DEVELOPERS.md):
-// specs → layout → palette → render → cmd. A package may import only
+// specs → layout → palette → render → render/feature → render/production
+// → cmd. A package may import only
 // packages of its own layer or a lower one. The rule is this project's
 // own; `go list -deps` is the Go tool's account of the imports.
 func TestLayers(t *testing.T) {
@@ -27,10 +28,14 @@ func TestLayers(t *testing.T) {
 			return 1
 		case strings.HasPrefix(p, "palette"):
 			return 2
+		case strings.HasPrefix(p, "render/feature"):
+			return 4
+		case strings.HasPrefix(p, "render/production"):
+			return 5
 		case strings.HasPrefix(p, "render"):
 			return 3
 		case strings.HasPrefix(p, "cmd"):
-			return 4
+			return 6
 		}
 		return -1 // examples: the demo's generator stands apart
 	}

@@ -19,11 +19,15 @@ import (
 	"fmt"
 	"io"
 	"os"
+	"runtime/debug"
 	"strings"
+
+	"sheaf/render/production"
+	"sheaf/specs"
 )
 
 // version is the program's version, written into file metadata.
-const version = "0.1.0"
+const version = production.Version
 
 const (
 	exitOK       = 0
@@ -53,9 +57,14 @@ func main() {
 // run is main without the process: tests call it.
 func run(args []string, stdout, stderr io.Writer) (code int) {
 	defer func() {
+		// A panic is a bug in sheaf, never the input's fault: exit 1. The
+		// stack is for whoever fixes it, shown with SHEAF_DEBUG=1.
 		if r := recover(); r != nil {
 			fmt.Fprintf(stderr, "sheaf: internal error: %v (please report this with the spec that caused it)\n", r)
-			code = exitBadInput
+			if os.Getenv("SHEAF_DEBUG") == "1" {
+				stderr.Write(debug.Stack())
+			}
+			code = exitFindings
 		}
 	}()
 	if len(args) == 0 {
@@ -151,12 +160,11 @@ func startCommand(fs *flag.FlagSet, args []string, stderr io.Writer) (string, in
 	return pos[0], 0, true
 }
 
-// report prints an error for the user and returns its exit code: bad input
-// is 2, anything else 1.
+// report prints an error for the user and returns its exit code: bad
+// input (a *specs.InputError anywhere in its chain) is 2, anything else 1.
 func report(stderr io.Writer, err error) int {
 	fmt.Fprintln(stderr, err)
-	var bad interface{ BadInput() bool }
-	if errors.As(err, &bad) && bad.BadInput() {
+	if specs.IsBadInput(err) {
 		return exitBadInput
 	}
 	return exitFindings

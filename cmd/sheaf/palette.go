@@ -8,63 +8,11 @@ import (
 
 	"github.com/tdewolff/canvas"
 
-	"sheaf/palette"
-	"sheaf/render/page"
+	"sheaf/render/feature"
 	"sheaf/render/pdf"
+	"sheaf/render/production"
 	"sheaf/render/swatch"
-	"sheaf/specs"
 )
-
-// paletteCheck is the era palette checked for one output: its line width
-// and medium decide the size-aware check.
-type paletteCheck struct {
-	output string
-	scale  palette.Scale
-	report palette.Report
-}
-
-// thresholds turns the spec's palette checks into the palette package's.
-func thresholds(s *specs.Spec) (palette.Thresholds, error) {
-	th := palette.DefaultThresholds()
-	c := s.Palette.Checks
-	dir := c.Lightness
-	if dir == "monotone" {
-		dir = "auto"
-	}
-	d, err := palette.ParseDirection(dir)
-	if err != nil {
-		return th, fmt.Errorf("%s: %v", s.Where("palette.checks.lightness"), err)
-	}
-	th.Lightness = d
-	th.MinStep, th.MinSpan, th.MinContrast, th.MinCVDStep = c.MinStep, c.MinSpan, c.MinContrast, c.MinCVDStep
-	return th, nil
-}
-
-// checkPalette runs the palette checks for every output of the spec.
-func checkPalette(j *job) ([]paletteCheck, error) {
-	sc, err := scaleFor(j.spec, j.data.Span)
-	if err != nil {
-		return nil, err
-	}
-	th, err := thresholds(j.spec)
-	if err != nil {
-		return nil, err
-	}
-	paper := page.ColorOf(j.spec.Palette.Paper)
-	var out []paletteCheck
-	for _, o := range j.spec.Outputs {
-		m := palette.Print
-		if o.Kind == specs.Screen {
-			m = palette.Screen
-		}
-		r, err := palette.Check(sc, paper, o.Line.Pt(), m, th)
-		if err != nil {
-			return nil, fmt.Errorf("%s: %v", j.spec.Where("palette"), err)
-		}
-		out = append(out, paletteCheck{output: o.Name, scale: sc, report: r})
-	}
-	return out, nil
-}
 
 func runPalette(args []string, stdout, stderr io.Writer) int {
 	fs := newFlags("palette", "SPEC [--out DIR]",
@@ -74,19 +22,17 @@ func runPalette(args []string, stdout, stderr io.Writer) int {
 	if !ok {
 		return code
 	}
-	j, err := loadJob(path)
+	j, err := feature.Load(path)
 	if err != nil {
-		fmt.Fprintln(stderr, err)
-		return exitBadInput
+		return report(stderr, err)
 	}
-	checks, err := checkPalette(j)
+	checks, err := j.CheckPalette()
 	if err != nil {
-		fmt.Fprintln(stderr, err)
-		return exitBadInput
+		return report(stderr, err)
 	}
 	dir := *outDir
 	if dir == "" {
-		dir = filepath.Join(j.spec.Dir, "out", "palette")
+		dir = filepath.Join(j.Spec.Dir, "out", "palette")
 	}
 	if st, err := os.Stat(dir); err == nil && !st.IsDir() {
 		fmt.Fprintf(stderr, "sheaf palette: --out %s is a file; give a folder\n", dir)
@@ -98,32 +44,31 @@ func runPalette(args []string, stdout, stderr io.Writer) int {
 	}
 	failed := false
 	for i, c := range checks {
-		fmt.Fprintf(stdout, "Output %s (line %s):\n", c.output, j.spec.Outputs[i].Describe(j.spec.Outputs[i].Line))
-		if err := c.report.WriteTable(stdout); err != nil {
+		fmt.Fprintf(stdout, "Output %s (line %s):\n", c.Output, j.Spec.Outputs[i].Describe(j.Spec.Outputs[i].Line))
+		if err := c.Report.WriteTable(stdout); err != nil {
 			fmt.Fprintln(stderr, err)
 			return exitFindings
 		}
 		fmt.Fprintln(stdout)
-		failed = failed || c.report.Failed()
+		failed = failed || c.Report.Failed()
 	}
 	first := checks[0]
 	png := filepath.Join(dir, "swatch.png")
-	if err := writeAtomic(png, func(w io.Writer) error { return swatch.WritePNG(w, first.scale, first.report, 150) }); err != nil {
+	if err := production.WriteAtomic(png, func(w io.Writer) error { return swatch.WritePNG(w, first.Scale, first.Report, 150) }); err != nil {
 		fmt.Fprintln(stderr, "sheaf palette:", err)
 		return exitFindings
 	}
-	date, err := documentDate(j.spec)
+	date, err := feature.DocumentDate(j.Spec, os.Getenv("SOURCE_DATE_EPOCH"))
 	if err != nil {
-		fmt.Fprintln(stderr, err)
-		return exitBadInput
+		return report(stderr, err)
 	}
 	pdfPath := filepath.Join(dir, "swatch.pdf")
-	err = writeAtomic(pdfPath, func(w io.Writer) error {
+	err = production.WriteAtomic(pdfPath, func(w io.Writer) error {
 		wmm, hmm := swatch.Size()
-		pw := pdf.NewWriter(w, pdf.Options{Title: j.spec.Title + " — era palette", Version: version, Date: date})
+		pw := pdf.NewWriter(w, pdf.Options{Title: j.Spec.Title + " — era palette", Version: version, Date: date})
 		r := canvas.Rect{X0: 0, Y0: 0, X1: wmm / pdf.MMPerPt, Y1: hmm / pdf.MMPerPt}
 		if err := pw.AddPage(pdf.PageSetup{Boxes: pdf.PageBoxes{Media: r, Bleed: r, Trim: r}}, func(c *canvas.Canvas) error {
-			return swatch.Draw(c, first.scale, first.report)
+			return swatch.Draw(c, first.Scale, first.Report)
 		}); err != nil {
 			return err
 		}

@@ -21,6 +21,7 @@ import (
 
 	"sheaf/layout"
 	"sheaf/render/curve"
+	"sheaf/render/feature"
 	"sheaf/render/tooltest"
 )
 
@@ -46,7 +47,7 @@ type buildError struct {
 
 func (e *buildError) Error() string { return "build exit " + strconv.Itoa(e.code) + ": " + e.stderr }
 
-func demo(t *testing.T) (string, *prepared) {
+func demo(t *testing.T) (string, *feature.Output) {
 	t.Helper()
 	if testing.Short() {
 		t.Skip("builds the demo; skipped with -short")
@@ -55,11 +56,11 @@ func demo(t *testing.T) (string, *prepared) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	j, err := loadJob(demoSpec)
+	j, err := feature.Load(demoSpec)
 	if err != nil {
 		t.Fatal(err)
 	}
-	p, err := prepare(j, j.spec.Output("print"))
+	p, err := j.Prepare(j.Spec.Output("print"))
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -89,15 +90,15 @@ func TestDemoPDFBoxes(t *testing.T) {
 	if err := api.ValidateContext(ctx); err != nil {
 		t.Fatalf("pdfcpu strict validation: %v", err)
 	}
-	if ctx.PageCount != len(p.plan.Pages) || ctx.PageCount != 8 {
-		t.Fatalf("PDF has %d pages, the plan %d, the demo asks for 8", ctx.PageCount, len(p.plan.Pages))
+	if ctx.PageCount != len(p.Plan.Pages) || ctx.PageCount != 8 {
+		t.Fatalf("PDF has %d pages, the plan %d, the demo asks for 8", ctx.PageCount, len(p.Plan.Pages))
 	}
 	pbs, err := ctx.PageBoundaries(nil)
 	if err != nil {
 		t.Fatal(err)
 	}
 	for i, pb := range pbs {
-		pg := p.plan.Pages[i]
+		pg := p.Plan.Pages[i]
 		for _, c := range []struct {
 			name string
 			box  *model.Box
@@ -229,11 +230,11 @@ func TestCurvesPassThroughData(t *testing.T) {
 		}
 		return best
 	}
-	data := p.feat.Data
+	data := p.Feature.Data
 	checked := 0
-	for _, pn := range p.plan.Pages[0].Panels {
+	for _, pn := range p.Plan.Pages[0].Panels {
 		sr := data.Series[pn.Item]
-		m, err := p.feat.PlotMap(pn)
+		m, err := p.Feature.PlotMap(pn)
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -279,8 +280,8 @@ func TestCurvesPassThroughData(t *testing.T) {
 func TestProofMatchesPoppler(t *testing.T) {
 	pdftoppm := tooltest.Require(t, "pdftoppm", "poppler-utils")
 	dir, p := demo(t)
-	dpi := p.out.Proofs
-	pg := p.plan.Pages[0]
+	dpi := p.Spec.Proofs
+	pg := p.Plan.Pages[0]
 	px := func(v float64) int { return int(math.Round(v * dpi / 72)) }
 	x, y := px(pg.Trim.X0), px(pg.Media.H()-pg.Trim.Y1)
 	w, h := px(pg.Trim.X1)-x, px(pg.Media.H()-pg.Trim.Y0)-y
@@ -308,7 +309,7 @@ func TestProofMatchesPoppler(t *testing.T) {
 		r := image.Rect(px(pn.Plot.X0)-x, px(pg.Media.H()-pn.Plot.Y1)-y, px(pn.Plot.X1)-x, px(pg.Media.H()-pn.Plot.Y0)-y)
 		_, s := tooltest.CompareImages(tooltest.SubImage(ours, r), tooltest.SubImage(theirs, r), 64)
 		if s > worst {
-			worst, where = s, p.feat.Data.Series[pn.Item].Term
+			worst, where = s, p.Feature.Data.Series[pn.Item].Term
 		}
 	}
 	t.Logf("worst panel %q: %.2f%% strongly different pixels", where, worst*100)

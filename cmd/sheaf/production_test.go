@@ -18,6 +18,8 @@ import (
 	"testing"
 	"time"
 
+	"sheaf/render/feature"
+	"sheaf/render/production"
 	"sheaf/render/tooltest"
 )
 
@@ -88,22 +90,22 @@ func buildInto(t testing.TB, spec, out string, flags ...string) (stdout, stderr 
 	return o.String(), e.String()
 }
 
-func loadManifest(t testing.TB, dir string) *manifest {
+func loadManifest(t testing.TB, dir string) *production.Manifest {
 	t.Helper()
-	m, err := readManifest(dir)
+	m, err := production.ReadManifest(dir)
 	if err != nil || m == nil {
 		t.Fatalf("manifest in %s: %v", dir, err)
 	}
 	return m
 }
 
-func loadChanges(t testing.TB, dir string) changeReport {
+func loadChanges(t testing.TB, dir string) production.ChangeReport {
 	t.Helper()
-	b, err := os.ReadFile(filepath.Join(dir, changesJSON))
+	b, err := os.ReadFile(filepath.Join(dir, production.ChangesJSON))
 	if err != nil {
 		t.Fatal(err)
 	}
-	var r changeReport
+	var r production.ChangeReport
 	if err := json.Unmarshal(b, &r); err != nil {
 		t.Fatal(err)
 	}
@@ -147,17 +149,17 @@ func atoi(b []byte) int {
 	return n
 }
 
-// countEncodes installs encodeHook to count pages drawn for PDFs.
+// countEncodes installs buildHooks.BeforeEncode to count pages drawn for PDFs.
 func countEncodes(t *testing.T) *[]string {
 	var mu sync.Mutex
 	var got []string
-	encodeHook = func(output string, page int) error {
+	buildHooks.BeforeEncode = func(output string, page int) error {
 		mu.Lock()
 		defer mu.Unlock()
 		got = append(got, fmt.Sprintf("%s p. %d", output, page))
 		return nil
 	}
-	t.Cleanup(func() { encodeHook = nil })
+	t.Cleanup(func() { buildHooks.BeforeEncode = nil })
 	return &got
 }
 
@@ -208,7 +210,7 @@ func noStages(t testing.TB, dir string) {
 	t.Helper()
 	entries, _ := os.ReadDir(filepath.Dir(dir))
 	for _, e := range entries {
-		if strings.Contains(e.Name(), stageMark) {
+		if strings.Contains(e.Name(), production.StageMark) {
 			t.Errorf("stage left behind: %s", e.Name())
 		}
 	}
@@ -249,7 +251,7 @@ func TestManifestHashes(t *testing.T) {
 	for _, d := range m.Data {
 		check(filepath.Join(filepath.Dir(spec), d.Path), d.SHA256)
 	}
-	pdf := m.file("print/print.pdf")
+	pdf := m.File("print/print.pdf")
 	if pdf == nil || len(pdf.Pages) != pages || pdf.Output != "print" {
 		t.Fatalf("PDF entry %+v", pdf)
 	}
@@ -299,7 +301,7 @@ func TestIncremental(t *testing.T) {
 	if r.FirstBuild || len(r.Files.Changed)+len(r.Files.Added)+len(r.Files.Removed)+len(r.Terms)+len(r.Pages) != 0 || r.Work[0].Reused != pages || r.Work[0].ProofsReused != pages {
 		t.Errorf("unchanged rebuild report %+v", r)
 	}
-	sameTree(t, before, snapshot(t, out), func(p string) bool { return p == changesJSON || p == changesText })
+	sameTree(t, before, snapshot(t, out), func(p string) bool { return p == production.ChangesJSON || p == production.ChangesText })
 
 	// Pick a term on page 2 and change one year.
 	p2 := first.Outputs[0].Pages[1]
@@ -329,7 +331,7 @@ func TestIncremental(t *testing.T) {
 			t.Errorf("stderr lacks %q:\n%s", s, stderr)
 		}
 	}
-	text, _ := os.ReadFile(filepath.Join(out, changesText))
+	text, _ := os.ReadFile(filepath.Join(out, production.ChangesText))
 	if !strings.Contains(string(text), fmt.Sprintf("changed %q: print p. 2", term)) {
 		t.Errorf("changes.txt:\n%s", text)
 	}
@@ -338,7 +340,7 @@ func TestIncremental(t *testing.T) {
 	clean := filepath.Join(t.TempDir(), "clean")
 	buildInto(t, spec, clean, "--quiet", "--full")
 	sameTree(t, snapshot(t, clean), snapshot(t, out), func(p string) bool {
-		return p == changesJSON || p == changesText
+		return p == production.ChangesJSON || p == production.ChangesText
 	})
 	noStages(t, out)
 }
@@ -351,13 +353,13 @@ func TestFailedBuildKeepsPrevious(t *testing.T) {
 	out := filepath.Join(filepath.Dir(spec), "out")
 	buildInto(t, spec, out, "--quiet")
 	before := snapshot(t, out)
-	encodeHook = func(output string, page int) error {
+	buildHooks.BeforeEncode = func(output string, page int) error {
 		if page == 2 {
 			return errors.New("injected failure")
 		}
 		return nil
 	}
-	defer func() { encodeHook = nil }()
+	defer func() { buildHooks.BeforeEncode = nil }()
 	var o, e bytes.Buffer
 	code := run([]string{"build", spec, "--out", out, "--full", "--quiet"}, &o, &e)
 	if code != exitFindings || !strings.Contains(e.String(), "page 2: injected failure") || !strings.Contains(e.String(), "nothing was changed in") {
@@ -370,9 +372,9 @@ func TestFailedBuildKeepsPrevious(t *testing.T) {
 	noStages(t, out)
 
 	// A failure at the very end, after everything is written to the stage.
-	encodeHook = nil
-	commitHook = func(string) error { return errors.New("injected failure before the swap") }
-	defer func() { commitHook = nil }()
+	buildHooks.BeforeEncode = nil
+	buildHooks.BeforeCommit = func(string) error { return errors.New("injected failure before the swap") }
+	defer func() { buildHooks.BeforeCommit = nil }()
 	nudgeCount(t, spec, loadManifest(t, out).Terms[0].Term)
 	if code := run([]string{"build", spec, "--out", out, "--quiet"}, &o, &e); code != exitFindings {
 		t.Errorf("exit %d", code)
@@ -410,10 +412,10 @@ func TestOnlyKeepsOtherOutputs(t *testing.T) {
 		}
 	}
 	m := loadManifest(t, out)
-	if len(m.Outputs) != 2 || m.Outputs[1].Name != "second" || m.file("second/second.pdf") == nil || m.file("palette/swatch.png") != nil {
+	if len(m.Outputs) != 2 || m.Outputs[1].Name != "second" || m.File("second/second.pdf") == nil || m.File("palette/swatch.png") != nil {
 		t.Errorf("manifest outputs %d, files %d", len(m.Outputs), len(m.Files))
 	}
-	if !equalJSON(m.Outputs[1], m0.Outputs[1]) || len(m.file("second/second.pdf").Pages) == 0 {
+	if !equalJSON(m.Outputs[1], m0.Outputs[1]) || len(m.File("second/second.pdf").Pages) == 0 {
 		t.Errorf("second's entry changed")
 	}
 	// A whole build again: the palette folder still stays.
@@ -447,7 +449,7 @@ func TestStrictPreflight(t *testing.T) {
 	if code := run([]string{"check", spec, "--json", "--strict"}, &o, &e); code != exitFindings {
 		t.Errorf("check --strict exit %d", code)
 	}
-	var rep checkReport
+	var rep feature.Report
 	if err := json.Unmarshal(o.Bytes(), &rep); err != nil {
 		t.Fatal(err)
 	}
@@ -491,7 +493,7 @@ func TestInterrupt(t *testing.T) {
 	// Wait until the stage holds a cached page: the build is under way.
 	deadline := time.Now().Add(20 * time.Second)
 	for {
-		m, _ := filepath.Glob(filepath.Join(filepath.Dir(out), ".out"+stageMark+"*", cacheDir, "print", "*.page"))
+		m, _ := filepath.Glob(filepath.Join(filepath.Dir(out), ".out"+production.StageMark+"*", production.CacheDir, "print", "*.page"))
 		if len(m) > 0 {
 			break
 		}
@@ -516,40 +518,13 @@ func TestInterrupt(t *testing.T) {
 	noStages(t, out)
 }
 
-// TestStaleStageRemoved: a stage left by a process that no longer exists
-// (killed with SIGKILL) is removed by the next build; one of a live
-// process is not.
-func TestStaleStageRemoved(t *testing.T) {
-	parent := t.TempDir()
-	out := filepath.Join(parent, "out")
-	dead := exec.Command("true")
-	if err := dead.Run(); err != nil {
-		t.Skip("cannot run true:", err)
-	}
-	stale := filepath.Join(parent, ".out"+stageMark+fmt.Sprint(dead.Process.Pid)+"-1")
-	live := filepath.Join(parent, ".out"+stageMark+fmt.Sprint(os.Getpid())+"-2")
-	os.MkdirAll(stale, 0o755)
-	os.MkdirAll(live, 0o755)
-	s, err := newStage(out)
-	if err != nil {
-		t.Fatal(err)
-	}
-	defer s.abort()
-	if _, err := os.Stat(stale); !errors.Is(err, os.ErrNotExist) {
-		t.Errorf("stale stage kept")
-	}
-	if _, err := os.Stat(live); err != nil {
-		t.Errorf("live stage removed: %v", err)
-	}
-}
-
 // TestProgress: silent when not a terminal; on a terminal, a line after
 // the delay, redrawn no faster than progressEvery, cleared at the end.
 func TestProgress(t *testing.T) {
 	var buf bytes.Buffer
 	p := newProgress(&buf, false)
-	p.begin("print: PDF pages", 3)
-	p.step()
+	p.Begin("print: PDF pages", 3)
+	p.Step()
 	p.done()
 	if buf.Len() != 0 {
 		t.Errorf("not a terminal, yet %q", buf.String())
@@ -557,12 +532,12 @@ func TestProgress(t *testing.T) {
 
 	now := time.Unix(0, 0)
 	p = &progress{w: &buf, on: true, start: now, now: func() time.Time { return now }}
-	p.begin("print: PDF pages", 3)
-	p.step() // before the delay: nothing
+	p.Begin("print: PDF pages", 3)
+	p.Step() // before the delay: nothing
 	now = now.Add(progressDelay)
-	p.step() // drawn
+	p.Step() // drawn
 	now = now.Add(progressEvery / 2)
-	p.step() // last step: always drawn
+	p.Step() // last step: always drawn
 	p.done()
 	want := "\rprint: PDF pages 2/3\rprint: PDF pages 3/3\r                    \r"
 	if buf.String() != want {

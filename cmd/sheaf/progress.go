@@ -6,6 +6,8 @@ import (
 	"os"
 	"sync"
 	"time"
+
+	"sheaf/render/preflight"
 )
 
 // progress shows "OUTPUT: STAGE done/total" on one line of a terminal
@@ -52,16 +54,16 @@ func isTerminal(w io.Writer) bool {
 	return err == nil && fi.Mode()&os.ModeCharDevice != 0
 }
 
-// begin starts counting a stage of total steps.
-func (p *progress) begin(label string, total int) {
+// Begin starts counting a stage of total steps.
+func (p *progress) Begin(label string, total int) {
 	p.mu.Lock()
 	defer p.mu.Unlock()
 	p.label, p.done_, p.all = label, 0, total
 	p.draw(true)
 }
 
-// step counts one step done. Safe for concurrent use.
-func (p *progress) step() {
+// Step counts one step done. Safe for concurrent use.
+func (p *progress) Step() {
 	p.mu.Lock()
 	defer p.mu.Unlock()
 	p.done_++
@@ -84,11 +86,33 @@ func (p *progress) draw(force bool) {
 	p.shown = now
 }
 
+// Warn prints a warning on its own line.
+func (p *progress) Warn(msg string) {
+	p.mu.Lock()
+	defer p.mu.Unlock()
+	p.clear()
+	fmt.Fprintln(p.w, "sheaf build: warning:", msg)
+}
+
+// Findings prints preflight's findings as a table.
+func (p *progress) Findings(fs []preflight.Finding) {
+	p.mu.Lock()
+	defer p.mu.Unlock()
+	p.clear()
+	writeFindings(p.w, fs, maxFindingsShown)
+}
+
+// clear removes the line, if one is shown, so that text can follow.
+func (p *progress) clear() {
+	if p.on && !p.shown.IsZero() && p.width > 0 {
+		fmt.Fprintf(p.w, "\r%*s\r", p.width, "")
+		p.width = 0
+	}
+}
+
 // done clears the line, if one was drawn.
 func (p *progress) done() {
 	p.mu.Lock()
 	defer p.mu.Unlock()
-	if p.on && !p.shown.IsZero() {
-		fmt.Fprintf(p.w, "\r%*s\r", p.width, "")
-	}
+	p.clear()
 }

@@ -10,6 +10,7 @@ import (
 	"io"
 	"os"
 	"path/filepath"
+	"sheaf/render/production"
 	"slices"
 	"strings"
 	"sync"
@@ -25,25 +26,25 @@ const reuseOutputs = `  web:
     panel-files: true
 `
 
-// countDraws installs drawHook to list the screen outputs and inserts
+// countDraws installs buildHooks.BeforeDraw to list the screen outputs and inserts
 // drawn.
 func countDraws(t *testing.T) *[]string {
 	var mu sync.Mutex
 	var got []string
-	drawHook = func(unit string) error {
+	buildHooks.BeforeDraw = func(unit string) error {
 		mu.Lock()
 		defer mu.Unlock()
 		got = append(got, unit)
 		return nil
 	}
-	t.Cleanup(func() { drawHook = nil })
+	t.Cleanup(func() { buildHooks.BeforeDraw = nil })
 	return &got
 }
 
 // outsideTerm returns a term of the counts table that the spec does not
 // select, from the lower half of the table (so one more count cannot
 // bring it into the top 60).
-func outsideTerm(t *testing.T, spec string, selected []termHash) string {
+func outsideTerm(t *testing.T, spec string, selected []production.TermHash) string {
 	t.Helper()
 	f, err := os.Open(filepath.Join(filepath.Dir(spec), "data", "counts.csv"))
 	if err != nil {
@@ -133,7 +134,7 @@ func TestWholeOutputReuse(t *testing.T) {
 		}
 	}
 	first := loadManifest(t, out)
-	if o := first.output("web"); o == nil || len(o.Inputs) != 64 || len(first.Inserts) != 4 {
+	if o := first.Output("web"); o == nil || len(o.Inputs) != 64 || len(first.Inserts) != 4 {
 		t.Fatalf("manifest: web %+v, inserts %+v", o, first.Inserts)
 	}
 
@@ -146,7 +147,7 @@ func TestWholeOutputReuse(t *testing.T) {
 	if len(*draws)+len(*encodes) != 0 {
 		t.Errorf("unchanged rebuild drew %v and encoded %v", *draws, *encodes)
 	}
-	sameTree(t, before, snapshot(t, out), func(p string) bool { return p == changesJSON || p == changesText })
+	sameTree(t, before, snapshot(t, out), func(p string) bool { return p == production.ChangesJSON || p == production.ChangesText })
 	if afterInfo, err := os.Stat(filepath.Join(out, "web", "page-001@2x.png")); err != nil || !os.SameFile(beforeInfo, afterInfo) {
 		t.Errorf("the 2× PNG was written again, not carried over (%v)", err)
 	}
@@ -185,7 +186,7 @@ func TestWholeOutputReuse(t *testing.T) {
 		}
 	}
 	place := fmt.Sprintf("changed %q: %s, web p. 1, insert col, insert pair", t1, strings.Join(at, ", "))
-	text, _ := os.ReadFile(filepath.Join(out, changesText))
+	text, _ := os.ReadFile(filepath.Join(out, production.ChangesText))
 	for _, s := range []string{place, "inserts/col.pdf: redrawn (its terms' data changed)",
 		"inserts/pair.svg: redrawn (its terms' data changed)", "web: 1 page, drawn (inputs changed)",
 		"insert col: drawn (inputs changed)", "insert other: reused (inputs unchanged)"} {
@@ -205,13 +206,13 @@ func TestWholeOutputReuse(t *testing.T) {
 	}
 	// Files carry their terms: a screen page its page, an insert its
 	// terms, a panel file its term.
-	if f := m.file("web/page-001@2x.png"); f == nil || len(f.Pages) != 1 || len(f.Pages[0].Terms) != 60 {
+	if f := m.File("web/page-001@2x.png"); f == nil || len(f.Pages) != 1 || len(f.Pages[0].Terms) != 60 {
 		t.Errorf("web 2× PNG entry %+v", f)
 	}
-	if f := m.file("inserts/pair.png"); f == nil || f.Insert != "pair" || fmt.Sprint(f.Terms) != fmt.Sprint([]string{t1, t2}) {
+	if f := m.File("inserts/pair.png"); f == nil || f.Insert != "pair" || fmt.Sprint(f.Terms) != fmt.Sprint([]string{t1, t2}) {
 		t.Errorf("pair PNG entry %+v", f)
 	}
-	if f := m.file("web/panels/" + slug(t1) + ".svg"); f == nil || fmt.Sprint(f.Terms) != fmt.Sprint([]string{t1}) {
+	if f := m.File("web/panels/" + production.Slug(t1) + ".svg"); f == nil || fmt.Sprint(f.Terms) != fmt.Sprint([]string{t1}) {
 		t.Errorf("panel file entry %+v", f)
 	}
 
@@ -230,7 +231,7 @@ func TestWholeOutputReuse(t *testing.T) {
 	// The same bytes as a clean full build.
 	clean := filepath.Join(t.TempDir(), "clean")
 	buildInto(t, spec, clean, "--quiet", "--full")
-	skip := func(p string) bool { return p == changesJSON || p == changesText }
+	skip := func(p string) bool { return p == production.ChangesJSON || p == production.ChangesText }
 	sameTree(t, snapshot(t, clean), snapshot(t, out), skip)
 
 	// A file altered after the build: the output is drawn again.
@@ -250,7 +251,7 @@ func TestWholeOutputReuse(t *testing.T) {
 	if len(*draws) != 5 {
 		t.Errorf("--full drew %v", *draws)
 	}
-	if r := loadChanges(t, out); !r.nothing() || r.Work[1].Whole != "drawn (--full)" {
+	if r := loadChanges(t, out); !r.Nothing() || r.Work[1].Whole != "drawn (--full)" {
 		t.Errorf("--full rebuild report %+v", r)
 	}
 	noStages(t, out)

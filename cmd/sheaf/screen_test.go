@@ -19,50 +19,9 @@ import (
 	"strings"
 	"testing"
 
-	"github.com/tdewolff/canvas"
-
+	"sheaf/render/feature"
 	"sheaf/render/tooltest"
-	"sheaf/specs"
 )
-
-// TestSlug names panel files safely. The folding follows Unicode NFKD
-// (UAX #15: "é" = "e" + U+0301, "ﬁ" → "fi"); the spelled-out letters are
-// common practice for ASCII file names.
-func TestSlug(t *testing.T) {
-	for _, c := range []struct{ term, want string }{
-		{"boiler", "boiler"},
-		{"Café au lait", "cafe-au-lait"},        // NFKD drops the accent
-		{"Maßstab", "massstab"},                 // ß has no decomposition: spelled ss
-		{"Ærø", "aero"},                         // Æ, ø spelled out
-		{"ﬁre-engine", "fire-engine"},           // compatibility ligature (NFKD)
-		{"3D printing", "3d-printing"},          // digits kept
-		{"gas–lit bridge", "gas-lit-bridge"},    // en dash separates
-		{"../../etc/passwd", "etc-passwd"},      // no path characters survive
-		{`a\b:c*d?"e<f>g|h`, "a-b-c-d-e-f-g-h"}, // Windows' forbidden characters
-		{"  spaced   out  ", "spaced-out"},      // no leading, trailing or double hyphens
-		{"R&D", "randd"},                        // & spelled out
-		{"αβ", "u3b1-u3b2"},                     // no Latin letter: code points, no percent sign
-		{"電報", "u96fb-u5831"},                   // CJK likewise
-		{"   ", "term"},                         // nothing at all
-		{strings.Repeat("word ", 30), strings.TrimRight(strings.Repeat("word-", 13), "-")}, // 64-byte cap
-	} {
-		got := slug(c.term)
-		if got != c.want {
-			t.Errorf("slug(%q) = %q, want %q", c.term, got, c.want)
-		}
-		if !regexp.MustCompile(`^[a-z0-9]+(-[a-z0-9]+)*$`).MatchString(got) || len(got) > maxSlug {
-			t.Errorf("slug(%q) = %q is not a safe file name stem", c.term, got)
-		}
-	}
-	used := map[string]bool{}
-	var got []string
-	for _, s := range []string{"cafe", "cafe", "cafe-2", "cafe"} {
-		got = append(got, uniqueSlug(s, used))
-	}
-	if want := []string{"cafe", "cafe-2", "cafe-2-2", "cafe-3"}; fmt.Sprint(got) != fmt.Sprint(want) {
-		t.Errorf("collisions named %v, want %v", got, want)
-	}
-}
 
 // screenSpec writes a spec over the demo's data with the given outputs
 // (and inserts) YAML and returns its path.
@@ -107,7 +66,7 @@ func TestReflowColumns(t *testing.T) {
     kind: screen
     trim: 1200px
 `, "")
-	j, err := loadJob(path)
+	j, err := feature.Load(path)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -121,18 +80,18 @@ func TestReflowColumns(t *testing.T) {
 		// defaults: (1200 − 2·32 + 20) ÷ (170 + 20) = 1156 ÷ 190 = 6.08 → 6
 		{"desk", 6, 14},
 	} {
-		p, err := prepare(j, j.spec.Output(c.name))
+		p, err := j.Prepare(j.Spec.Output(c.name))
 		if err != nil {
 			t.Fatal(err)
 		}
-		if p.plan.Columns != c.columns {
-			t.Errorf("%s: %d columns, want %d", c.name, p.plan.Columns, c.columns)
+		if p.Plan.Columns != c.columns {
+			t.Errorf("%s: %d columns, want %d", c.name, p.Plan.Columns, c.columns)
 		}
-		if got := p.out.Type.Label.Px(); math.Abs(got-c.label) > 1e-9 {
+		if got := p.Spec.Type.Label.Px(); math.Abs(got-c.label) > 1e-9 {
 			t.Errorf("%s: label size %v px, want %v", c.name, got, c.label)
 		}
-		if p.plan.Flow != "scroll" || len(p.plan.Pages) != 1 {
-			t.Errorf("%s: flow %q with %d pages; a width alone scrolls on one page", c.name, p.plan.Flow, len(p.plan.Pages))
+		if p.Plan.Flow != "scroll" || len(p.Plan.Pages) != 1 {
+			t.Errorf("%s: flow %q with %d pages; a width alone scrolls on one page", c.name, p.Plan.Flow, len(p.Plan.Pages))
 		}
 	}
 }
@@ -338,9 +297,9 @@ func TestChromiumMatchesPNG(t *testing.T) {
 	}
 	// Per panel: a panel drawn in the wrong place or with a wrong curve
 	// stands out even when the page mean is small.
-	j, _ := loadJob(spec)
-	p, _ := prepare(j, j.spec.Output("web"))
-	pg := &p.plan.Pages[0]
+	j, _ := feature.Load(spec)
+	p, _ := j.Prepare(j.Spec.Output("web"))
+	pg := &p.Plan.Pages[0]
 	px := func(v float64) int { return int(math.Round(v * 96 / 72)) }
 	worst := 0.0
 	for _, pn := range pg.Panels {
@@ -349,7 +308,7 @@ func TestChromiumMatchesPNG(t *testing.T) {
 		worst = max(worst, s)
 		if s > chromePanelLimit {
 			t.Errorf("panel %q: %.1f%% of its plot's pixels differ strongly from Chromium's (limit %.1f%%)",
-				p.feat.Data.Series[pn.Item].Term, s*100, chromePanelLimit*100)
+				p.Feature.Data.Series[pn.Item].Term, s*100, chromePanelLimit*100)
 		}
 	}
 	t.Logf("worst panel: %.2f%% strongly different pixels", worst*100)
@@ -361,107 +320,6 @@ const (
 	chromeStrongLimit = 0.01
 	chromePanelLimit  = 0.01
 )
-
-// catalogJob loads the 4,000-term catalog once per benchmark.
-func catalogJob(b *testing.B) *job {
-	b.Helper()
-	spec, err := catalog()
-	if err != nil {
-		b.Fatal(err)
-	}
-	j, err := loadJob(spec)
-	if err != nil {
-		b.Fatal(err)
-	}
-	return j
-}
-
-// screenBench prepares the catalog's web output (the demo's, 1200 px
-// wide, minimum panel width 150 px: six columns) without embedded fonts,
-// scrolling or, with pageH > 0, in pages of that height.
-func screenBench(b *testing.B, j *job, pageH float64) *prepared {
-	b.Helper()
-	out := *j.spec.Output("web")
-	out.Fonts.Embed = false
-	out.MinPanelWidth = specs.Length(150 * 0.75)
-	if pageH > 0 {
-		out.Trim.H = specs.Length(pageH * 0.75)
-		out.Flow = specs.FlowPages
-	}
-	p, err := prepare(j, &out)
-	if err != nil {
-		b.Fatal(err)
-	}
-	return p
-}
-
-// BenchmarkCatalogScrollSVG: the catalog as one 1200 px scrolling SVG
-// (layout done once, outside the loop). Reports its size and the size a
-// 48-panel share of it takes.
-func BenchmarkCatalogScrollSVG(b *testing.B) {
-	j := catalogJob(b)
-	p := screenBench(b, j, 0)
-	var cw countingWriter
-	for b.Loop() {
-		cw = countingWriter{}
-		pg := p.plan.Pages[0].Trim
-		if err := drawSVG(&cw, pg, screenSVGOptions(j, p), func(ctx *canvas.Context) error { return p.feat.Draw(ctx, 0) }); err != nil {
-			b.Fatal(err)
-		}
-	}
-	n := p.plan.Panels()
-	b.ReportMetric(float64(n), "panels")
-	b.ReportMetric(float64(cw.n)/(1<<20), "MB")
-	b.ReportMetric(float64(cw.n)/float64(n)*48/1024, "KB/48-panels")
-}
-
-// BenchmarkCatalogPanelFiles: one SVG per term for the whole catalog,
-// written to memory. Reports the total and the mean file size.
-func BenchmarkCatalogPanelFiles(b *testing.B) {
-	j := catalogJob(b)
-	p := screenBench(b, j, 0)
-	var total int64
-	n := 0
-	for b.Loop() {
-		total, n = 0, 0
-		for _, pn := range p.plan.Pages[0].Panels {
-			pn, win := panelWindow(p.plan, pn)
-			var cw countingWriter
-			if err := drawSVG(&cw, win, screenSVGOptions(j, p), func(ctx *canvas.Context) error { return p.feat.DrawPanel(ctx, pn) }); err != nil {
-				b.Fatal(err)
-			}
-			total += cw.n
-			n++
-		}
-	}
-	b.ReportMetric(float64(n), "files")
-	b.ReportMetric(float64(total)/(1<<20), "MB-total")
-	b.ReportMetric(float64(total)/float64(n)/1024, "KB/file")
-}
-
-// BenchmarkCatalogPageSVG: the catalog in 1200 px wide pages of 6 × 8 =
-// 48 panels (after the first page; minimum panel width 150 px, the
-// shortest page height that holds eight rows); reports a full page's size.
-func BenchmarkCatalogPageSVG(b *testing.B) {
-	j := catalogJob(b)
-	var p *prepared
-	for h := 1200.0; ; h += 10 {
-		p = screenBench(b, j, h)
-		if p.plan.RowsPerPage >= 8 && p.plan.Columns == 6 || h > 3000 {
-			break
-		}
-	}
-	i := 1 // a page after the first: no title, all panels
-	var cw countingWriter
-	for b.Loop() {
-		cw = countingWriter{}
-		if err := drawSVG(&cw, p.plan.Pages[i].Trim, screenSVGOptions(j, p), func(ctx *canvas.Context) error { return p.feat.Draw(ctx, i) }); err != nil {
-			b.Fatal(err)
-		}
-	}
-	b.ReportMetric(float64(len(p.plan.Pages[i].Panels)), "panels/page")
-	b.ReportMetric(float64(cw.n)/1024, "KB/page")
-}
 
 // TestInsertBadInput: an insert's term missing from the data, or a
 // graphic too small for its plot, stops the build with the place in the

@@ -12,6 +12,7 @@ import (
 	"strings"
 	"testing"
 
+	"sheaf/render/feature"
 	"sheaf/render/tooltest"
 	"sheaf/specs"
 )
@@ -39,13 +40,13 @@ func TestScreenScrollGroups(t *testing.T) {
 	if err := os.WriteFile(path, b, 0o644); err != nil {
 		t.Fatal(err)
 	}
-	j, err := loadJob(path)
+	j, err := feature.Load(path)
 	if err != nil {
 		t.Fatal(err)
 	}
 	var counts []int // panels of each group that has some, in order
 	var heads []string
-	for _, g := range j.data.Groups {
+	for _, g := range j.Data.Groups {
 		if g.Count > 0 {
 			counts = append(counts, g.Count)
 			heads = append(heads, g.Heading)
@@ -124,7 +125,7 @@ func TestScreenScrollGroups(t *testing.T) {
 	if strings.Count(string(index), "<figure>") != len(counts) {
 		t.Errorf("the proof page shows %d figures, want %d", strings.Count(string(index), "<figure>"), len(counts))
 	}
-	if s := j.spec.Output("web"); s.Flow != specs.FlowScrollGroups {
+	if s := j.Spec.Output("web"); s.Flow != specs.FlowScrollGroups {
 		t.Errorf("flow %q", s.Flow)
 	}
 	var out, errb bytes.Buffer

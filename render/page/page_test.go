@@ -28,9 +28,10 @@ import (
 
 const smallSpec = "../../testdata/small/spec.yaml"
 
-// smallFeature prepares testdata/small's print output as the build does
-// (cmd/sheaf prepare): spec, data, fonts, layout, palette. edit, when not
-// nil, changes the spec before anything is computed from it.
+// smallFeature prepares testdata/small's print output as a build does
+// (package feature, through PrepareForTest): spec, data, fonts, layout,
+// the spec's palette. edit, when not nil, changes the spec before
+// anything is computed from it.
 func smallFeature(t testing.TB, edit func(s *specs.Spec, out *specs.Output)) *Feature {
 	t.Helper()
 	s, err := specs.Load(smallSpec)
@@ -48,24 +49,17 @@ func smallFeature(t testing.TB, edit func(s *specs.Spec, out *specs.Output)) *Fe
 	if edit != nil {
 		edit(s, out)
 	}
-	fs, err := fonts.Load(s, out)
+	f, err := PrepareForTest(s, d, out)
 	if err != nil {
 		t.Fatal(err)
 	}
-	var groups []layout.Group
-	for _, g := range d.Groups {
-		groups = append(groups, layout.Group{Heading: g.Heading, Count: g.Count})
-	}
-	plan, err := layout.Solve(s, out, fs, groups)
-	if err != nil {
-		t.Fatal(err)
-	}
-	pal, err := palette.Default(float64(d.Span.From), float64(d.Span.To))
-	if err != nil {
-		t.Fatal(err)
-	}
-	return NewFeature(s, out, plan, d, pal, fs)
+	return f
 }
+
+// PrepareForTest prepares an output as package feature does. Package
+// feature imports this one, so only an external test package can call
+// it: feature_test.go sets it.
+var PrepareForTest func(s *specs.Spec, d *series.Set, out *specs.Output) (*Feature, error)
 
 // proof rasterizes page i of f whole (media box) at dpi on white.
 func proof(t testing.TB, f *Feature, i int, dpi float64) *image.RGBA {

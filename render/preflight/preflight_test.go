@@ -14,13 +14,7 @@ import (
 	"golang.org/x/image/font/gofont/goregular"
 
 	"sheaf/examples/generate/corpus"
-	"sheaf/layout"
-	"sheaf/layout/fonts"
-	"sheaf/palette"
-	"sheaf/render/page"
 	"sheaf/render/tooltest"
-	"sheaf/specs"
-	"sheaf/specs/series"
 )
 
 // specText is a small print spec over testdata (see testdata/README.md).
@@ -61,42 +55,22 @@ func checkSpec(t *testing.T, dir, text string) []Finding {
 	if err := os.WriteFile(path, []byte(text), 0o644); err != nil {
 		t.Fatal(err)
 	}
-	s, err := specs.Load(path)
+	in, err := PrepareForTest(path)
 	if err != nil {
 		t.Fatal(err)
 	}
-	data, err := series.Load(s)
-	if err != nil {
-		t.Fatal(err)
-	}
-	out := &s.Outputs[0]
-	fs, err := fonts.Load(s, out)
-	if err != nil {
-		t.Fatal(err)
-	}
-	var groups []layout.Group
-	for _, g := range data.Groups {
-		groups = append(groups, layout.Group{Heading: g.Heading, Count: g.Count})
-	}
-	plan, err := layout.Solve(s, out, fs, groups)
-	if err != nil {
-		t.Fatal(err)
-	}
-	sc, err := palette.NewScale("default", palette.DefaultAnchors(1900, 1905), nil)
-	if err != nil {
-		t.Fatal(err)
-	}
-	rep, err := palette.Check(sc, palette.FromRGB(palette.RGB{R: 1, G: 1, B: 1}), out.Line.Pt(), palette.Print, palette.DefaultThresholds())
-	if err != nil {
-		t.Fatal(err)
-	}
-	feat := page.NewFeature(s, out, plan, data, sc, fs)
-	got, err := Check(Input{Spec: s, Output: out, Plan: plan, Data: data, Fonts: fs, Labels: feat.Labels(), Palette: &rep})
+	got, err := Check(in)
 	if err != nil {
 		t.Fatal(err)
 	}
 	return got
 }
+
+// PrepareForTest loads the spec at path and prepares its first output as
+// a build does (package feature: fonts, layout, the spec's palette and
+// its check, fitted labels). Package feature imports this one, so only
+// an external test package can call it: feature_test.go sets it.
+var PrepareForTest func(path string) (Input, error)
 
 // has reports whether a finding with id (and, if given, term and year)
 // is in fs, and returns it.

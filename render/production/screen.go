@@ -1,4 +1,4 @@
-package main
+package production
 
 import (
 	"bytes"
@@ -19,6 +19,7 @@ import (
 	"golang.org/x/text/unicode/norm"
 
 	"sheaf/layout"
+	"sheaf/render/feature"
 	"sheaf/render/raster"
 	"sheaf/render/svg"
 	"sheaf/specs"
@@ -44,22 +45,22 @@ const maxRasterPx = 40000
 // the last build's and its files are intact, the files are carried over
 // instead: rasterizing a tall page at 2× is most of a rebuild otherwise.
 // It returns the files, sorted.
-func (b *build) buildScreen(p *prepared) ([]string, error) {
-	out := p.out
-	entry := b.outputEntry(p, 0)
+func (b *build) buildScreen(p *feature.Output) ([]string, error) {
+	out := p.Spec
+	entry := b.OutputEntry(p, 0)
 	entry.Inputs = b.screenInputs(p, entry.Pages)
 	b.outputs = append(b.outputs, entry)
-	st := outputStats{Output: out.Name, Kind: string(out.Kind), Pages: len(entry.Pages)}
+	st := OutputStats{Output: out.Name, Kind: string(out.Kind), Pages: len(entry.Pages)}
 	odir := filepath.Join(b.stage.dir, out.Name)
 	tasks, skipped := screenPNGTasks(p, odir)
 	for _, s := range skipped {
-		fmt.Fprintln(b.progress.w, "warning:", s)
+		b.progress.Warn(s)
 	}
 	want := b.noteScreenFiles(p, entry.Pages, odir, tasks)
-	prev := b.prev.output(out.Name)
+	prev := b.prev.Output(out.Name)
 	why := b.drawReason(prev != nil, prev != nil && prev.Kind == entry.Kind && prev.Inputs == entry.Inputs)
 	if why == "" {
-		if b.keepAll(out.Name+": reusing files", want, b.prev.filesOf(out.Name, "")) {
+		if b.keepAll(out.Name+": reusing files", want, b.prev.FilesOf(out.Name, "")) {
 			st.Reused, st.Whole = st.Pages, "reused (inputs unchanged)"
 			b.stats = append(b.stats, st)
 			return want, nil
@@ -69,8 +70,8 @@ func (b *build) buildScreen(p *prepared) ([]string, error) {
 	if err := b.ctx.Err(); err != nil {
 		return nil, err
 	}
-	if drawHook != nil {
-		if err := drawHook(out.Name); err != nil {
+	if h := b.hooks.BeforeDraw; h != nil {
+		if err := h(out.Name); err != nil {
 			return nil, err
 		}
 	}
@@ -102,12 +103,12 @@ func (b *build) buildScreen(p *prepared) ([]string, error) {
 //   - the plan's summary, which the proof page prints.
 //
 // The date is not in it: SVG and PNG carry none.
-func (b *build) screenInputs(p *prepared, pages []pageEntry) string {
+func (b *build) screenInputs(p *feature.Output, pages []PageEntry) string {
 	h := newHasher("sheaf screen v1")
-	h.str(version)
+	h.str(Version)
 	h.str(b.specSum)
-	h.str(p.out.Name)
-	h.str(string(p.out.Kind))
+	h.str(p.Spec.Name)
+	h.str(string(p.Spec.Kind))
 	terms := b.termSums()
 	h.int(len(pages))
 	for _, pg := range pages {
@@ -118,19 +119,19 @@ func (b *build) screenInputs(p *prepared, pages []pageEntry) string {
 			h.str(terms[t])
 		}
 	}
-	for _, s := range p.feat.Stops {
+	for _, s := range p.Feature.Stops {
 		r := s.Color
 		h.floats([]float64{s.Year, r.R, r.G, r.B})
 	}
-	h.str(fontsSum(p.fonts))
-	h.str(p.plan.Summary())
+	h.str(fontsSum(p.Fonts))
+	h.str(p.Plan.Summary())
 	return h.sum()
 }
 
 // noteScreenFiles records, for the manifest, the pages or term each file
 // of a screen output shows, and returns every file the output has
 // (stage paths, sorted).
-func (b *build) noteScreenFiles(p *prepared, pages []pageEntry, odir string, tasks []pngTask) []string {
+func (b *build) noteScreenFiles(p *feature.Output, pages []PageEntry, odir string, tasks []pngTask) []string {
 	var files []string
 	add := func(name string, m fileMeta) {
 		path := filepath.Join(odir, filepath.FromSlash(name))
@@ -143,16 +144,16 @@ func (b *build) noteScreenFiles(p *prepared, pages []pageEntry, odir string, tas
 	for _, t := range tasks {
 		add(filepath.Base(t.path), fileMeta{pages: pages[t.page : t.page+1]})
 	}
-	if p.out.Spreads && p.out.Flow == specs.FlowPages {
-		for k, sp := range p.plan.Spreads() {
-			var on []pageEntry
+	if p.Spec.Spreads && p.Spec.Flow == specs.FlowPages {
+		for k, sp := range p.Plan.Spreads() {
+			var on []PageEntry
 			for _, sg := range sp.Pages {
 				on = append(on, pages[sg.Page])
 			}
 			add(fmt.Sprintf("spread-%03d.svg", k+1), fileMeta{pages: on})
 		}
 	}
-	if p.out.PanelFiles {
+	if p.Spec.PanelFiles {
 		for _, pf := range panelFiles(b.j, p) {
 			add("panels/"+pf.name+".svg", fileMeta{terms: []string{pf.term}})
 		}
@@ -164,14 +165,14 @@ func (b *build) noteScreenFiles(p *prepared, pages []pageEntry, odir string, tas
 
 // drawScreen draws every file of a screen output into odir (see
 // buildScreen) and returns them.
-func drawScreen(j *job, p *prepared, odir string, tasks []pngTask, prog *progress) ([]string, error) {
-	out := p.out
-	n := len(p.plan.Pages)
+func drawScreen(j *feature.Job, p *feature.Output, odir string, tasks []pngTask, prog Progress) ([]string, error) {
+	out := p.Spec
+	n := len(p.Plan.Pages)
 	var files []string
 	var shown []proofItem // what the proof page shows
-	prog.begin(out.Name+": SVG pages", n)
-	for i := range p.plan.Pages {
-		pg := &p.plan.Pages[i]
+	prog.Begin(out.Name+": SVG pages", n)
+	for i := range p.Plan.Pages {
+		pg := &p.Plan.Pages[i]
 		name := fmt.Sprintf("page-%03d.svg", i+1)
 		shown = append(shown, proofItem{name, pg.Trim.W(), pg.Trim.H()})
 		path := filepath.Join(odir, name)
@@ -183,14 +184,14 @@ func drawScreen(j *job, p *prepared, odir string, tasks []pngTask, prog *progres
 		case n > 1:
 			opts.Title = fmt.Sprintf("%s (page %d of %d)", opts.Title, i+1, n)
 		}
-		err := writeAtomic(path, func(w io.Writer) error {
-			return drawSVG(w, pg.Trim, opts, func(ctx *canvas.Context) error { return p.feat.Draw(ctx, i) })
+		err := WriteAtomic(path, func(w io.Writer) error {
+			return drawSVG(w, pg.Trim, opts, func(ctx *canvas.Context) error { return p.Feature.Draw(ctx, i) })
 		})
 		if err != nil {
 			return nil, err
 		}
 		files = append(files, path)
-		prog.step()
+		prog.Step()
 	}
 	if out.Spreads && out.Flow == specs.FlowPages {
 		spreads, err := writeSpreads(j, p, odir)
@@ -199,7 +200,7 @@ func drawScreen(j *job, p *prepared, odir string, tasks []pngTask, prog *progres
 		}
 		files = append(files, spreads...)
 		shown = shown[:0]
-		for k, sp := range p.plan.Spreads() {
+		for k, sp := range p.Plan.Spreads() {
 			shown = append(shown, proofItem{filepath.Base(spreads[k]), sp.Sheet.W(), sp.Sheet.H()})
 		}
 	}
@@ -217,7 +218,7 @@ func drawScreen(j *job, p *prepared, odir string, tasks []pngTask, prog *progres
 		files = append(files, panels...)
 	}
 	index := filepath.Join(odir, "index.html")
-	if err := writeAtomic(index, func(w io.Writer) error {
+	if err := WriteAtomic(index, func(w io.Writer) error {
 		return writeProofPage(w, j, p, shown, len(panels))
 	}); err != nil {
 		return nil, err
@@ -228,18 +229,18 @@ func drawScreen(j *job, p *prepared, odir string, tasks []pngTask, prog *progres
 // writeSpreads writes one SVG per spread (dir/spread-NNN.svg): a
 // left-hand page and the right-hand page after it side by side, as a
 // reader of a magazine app sees them.
-func writeSpreads(j *job, p *prepared, odir string) ([]string, error) {
+func writeSpreads(j *feature.Job, p *feature.Output, odir string) ([]string, error) {
 	var files []string
-	spreads := p.plan.Spreads()
+	spreads := p.Plan.Spreads()
 	for k, sp := range spreads {
 		opts := screenSVGOptions(j, p)
 		opts.Title = fmt.Sprintf("%s (spread %d of %d)", opts.Title, k+1, len(spreads))
 		path := filepath.Join(odir, fmt.Sprintf("spread-%03d.svg", k+1))
-		err := writeAtomic(path, func(w io.Writer) error {
+		err := WriteAtomic(path, func(w io.Writer) error {
 			return drawSVG(w, sp.Sheet, opts, func(ctx *canvas.Context) error {
 				for _, sg := range sp.Pages {
 					ctx.SetView(canvas.Identity.Translate(sg.Offset.X*25.4/72, sg.Offset.Y*25.4/72))
-					if err := p.feat.Draw(ctx, sg.Page); err != nil {
+					if err := p.Feature.Draw(ctx, sg.Page); err != nil {
 						return err
 					}
 				}
@@ -255,13 +256,13 @@ func writeSpreads(j *job, p *prepared, odir string) ([]string, error) {
 }
 
 // screenSVGOptions are the document options every SVG of an output shares.
-func screenSVGOptions(j *job, p *prepared) svg.Options {
+func screenSVGOptions(j *feature.Job, p *feature.Output) svg.Options {
 	return svg.Options{
-		Title:      j.spec.Title,
-		Desc:       j.spec.Dek,
-		FontFamily: p.out.Fonts.Family,
-		EmbedFonts: p.out.Fonts.Embed,
-		Background: p.feat.PaperColor(),
+		Title:      j.Spec.Title,
+		Desc:       j.Spec.Dek,
+		FontFamily: p.Spec.Fonts.Family,
+		EmbedFonts: p.Spec.Fonts.Embed,
+		Background: p.Feature.PaperColor(),
 	}
 }
 
@@ -288,13 +289,13 @@ type pngTask struct {
 
 // screenPNGTasks lists the PNGs of every page at each screen scale, and
 // a message for each one skipped: a page too tall for a PNG at a scale.
-func screenPNGTasks(p *prepared, odir string) (tasks []pngTask, skipped []string) {
-	for i := range p.plan.Pages {
-		pg := &p.plan.Pages[i]
+func screenPNGTasks(p *feature.Output, odir string) (tasks []pngTask, skipped []string) {
+	for i := range p.Plan.Pages {
+		pg := &p.Plan.Pages[i]
 		for _, s := range screenScales {
 			if pg.Trim.H()*s.dpi/72 > maxRasterPx || pg.Trim.W()*s.dpi/72 > maxRasterPx {
 				skipped = append(skipped, fmt.Sprintf("output %q page %d: %.0f px tall at %g dpi is past the %d px PNG limit; no PNG%s written (the SVG has it all)",
-					p.out.Name, i+1, pg.Trim.H()*s.dpi/72, s.dpi, maxRasterPx, s.suffix))
+					p.Spec.Name, i+1, pg.Trim.H()*s.dpi/72, s.dpi, maxRasterPx, s.suffix))
 				continue
 			}
 			tasks = append(tasks, pngTask{page: i, dpi: s.dpi,
@@ -305,8 +306,8 @@ func screenPNGTasks(p *prepared, odir string) (tasks []pngTask, skipped []string
 }
 
 // writeScreenPNGs renders the PNGs tasks lists, in parallel.
-func writeScreenPNGs(p *prepared, tasks []pngTask, prog *progress) (files []string, err error) {
-	prog.begin(p.out.Name+": PNGs", len(tasks))
+func writeScreenPNGs(p *feature.Output, tasks []pngTask, prog Progress) (files []string, err error) {
+	prog.Begin(p.Spec.Name+": PNGs", len(tasks))
 	errs := make([]error, len(tasks))
 	sem := make(chan struct{}, runtime.GOMAXPROCS(0))
 	var wg sync.WaitGroup
@@ -315,10 +316,10 @@ func writeScreenPNGs(p *prepared, tasks []pngTask, prog *progress) (files []stri
 		sem <- struct{}{}
 		go func() {
 			defer func() { <-sem; wg.Done() }()
-			defer prog.step()
+			defer prog.Step()
 			img, err := screenPNG(p, t.page, t.dpi)
 			if err == nil {
-				err = writeAtomic(t.path, func(w io.Writer) error { return raster.WritePNG(w, img) })
+				err = WriteAtomic(t.path, func(w io.Writer) error { return raster.WritePNG(w, img) })
 			}
 			errs[k] = err
 		}()
@@ -334,11 +335,11 @@ func writeScreenPNGs(p *prepared, tasks []pngTask, prog *progress) (files []stri
 }
 
 // screenPNG renders page i's trim box at dpi on the paper colour.
-func screenPNG(p *prepared, i int, dpi float64) (image.Image, error) {
-	pg := &p.plan.Pages[i]
+func screenPNG(p *feature.Output, i int, dpi float64) (image.Image, error) {
+	pg := &p.Plan.Pages[i]
 	r := raster.RegionOf(pg.Media.H(), dpi, pg.Trim.X0, pg.Trim.Y0, pg.Trim.X1, pg.Trim.Y1)
-	return raster.DrawRegion(pg.Media.H(), dpi, r, p.feat.PaperColor(), func(ctx *canvas.Context) error {
-		return p.feat.Draw(ctx, i)
+	return raster.DrawRegion(pg.Media.H(), dpi, r, p.Feature.PaperColor(), func(ctx *canvas.Context) error {
+		return p.Feature.Draw(ctx, i)
 	})
 }
 
@@ -362,37 +363,37 @@ type panelFile struct {
 }
 
 // panelFiles lists the panel files of an output in panel order, named.
-func panelFiles(j *job, p *prepared) []panelFile {
+func panelFiles(j *feature.Job, p *feature.Output) []panelFile {
 	var out []panelFile
 	used := map[string]bool{}
-	for i := range p.plan.Pages {
-		for _, pn := range p.plan.Pages[i].Panels {
-			pn, win := panelWindow(p.plan, pn)
-			term := j.data.Series[pn.Item].Term
-			out = append(out, panelFile{name: uniqueSlug(slug(term), used), term: term, item: pn.Item, panel: pn, win: win})
+	for i := range p.Plan.Pages {
+		for _, pn := range p.Plan.Pages[i].Panels {
+			pn, win := panelWindow(p.Plan, pn)
+			term := j.Data.Series[pn.Item].Term
+			out = append(out, panelFile{name: uniqueSlug(Slug(term), used), term: term, item: pn.Item, panel: pn, win: win})
 		}
 	}
 	return out
 }
 
 // writePanelFiles writes one SVG per term, named by the term's slug.
-func writePanelFiles(j *job, p *prepared, pdir string, prog *progress) ([]string, error) {
+func writePanelFiles(j *feature.Job, p *feature.Output, pdir string, prog Progress) ([]string, error) {
 	var files []string
 	pfs := panelFiles(j, p)
-	prog.begin(p.out.Name+": panel files", len(pfs))
+	prog.Begin(p.Spec.Name+": panel files", len(pfs))
 	for _, pf := range pfs {
-		title, desc := p.feat.Describe(pf.item)
+		title, desc := p.Feature.Describe(pf.item)
 		opts := screenSVGOptions(j, p)
 		opts.Title, opts.Desc = title, desc
 		path := filepath.Join(pdir, pf.name+".svg")
-		err := writeAtomic(path, func(w io.Writer) error {
-			return drawSVG(w, pf.win, opts, func(ctx *canvas.Context) error { return p.feat.DrawPanel(ctx, pf.panel) })
+		err := WriteAtomic(path, func(w io.Writer) error {
+			return drawSVG(w, pf.win, opts, func(ctx *canvas.Context) error { return p.Feature.DrawPanel(ctx, pf.panel) })
 		})
 		if err != nil {
 			return nil, err
 		}
 		files = append(files, path)
-		prog.step()
+		prog.Step()
 	}
 	return files, nil
 }
@@ -409,14 +410,14 @@ var translit = map[rune]string{
 // system's name limit.
 const maxSlug = 64
 
-// slug turns a term into a file name stem that is safe everywhere: lower
+// Slug turns a term into a file name stem that is safe everywhere: lower
 // case ASCII letters and digits joined by single hyphens. Accents are
 // dropped after Unicode compatibility decomposition (NFKD: "Café" →
 // "cafe"), a few letters are spelled out ("ß" → "ss"), and everything
 // else separates words. A term with no Latin letter or digit at all (say,
 // Greek or CJK) is named by its code points instead ("u3b1-u3b2"), so two
 // such terms never share a name and no percent sign appears.
-func slug(term string) string {
+func Slug(term string) string {
 	var b strings.Builder
 	dash := false
 	put := func(s string) {
@@ -479,10 +480,10 @@ type proofItem struct {
 // page's SVG in order, at its own size, each captioned with its name and
 // size, the first at the page's top-left corner, so a screenshot of the
 // window shows page 1 exactly as a browser draws it.
-func writeProofPage(w io.Writer, j *job, p *prepared, items []proofItem, panels int) error {
+func writeProofPage(w io.Writer, j *feature.Job, p *feature.Output, items []proofItem, panels int) error {
 	var b bytes.Buffer
 	esc := html.EscapeString
-	title := fmt.Sprintf("%s — %s (screen proof)", j.spec.Title, p.out.Name)
+	title := fmt.Sprintf("%s — %s (screen proof)", j.Spec.Title, p.Spec.Name)
 	fmt.Fprintf(&b, `<!DOCTYPE html>
 <html lang="en">
 <head>
@@ -504,9 +505,9 @@ figcaption{padding:6px 12px}
 		ws, hs := strconv.FormatFloat(roundTo(wpx, 1), 'f', -1, 64), strconv.FormatFloat(roundTo(hpx, 1), 'f', -1, 64)
 		wi, hi := strconv.Itoa(int(math.Ceil(wpx-0.05))), strconv.Itoa(int(math.Ceil(hpx-0.05)))
 		fmt.Fprintf(&b, "<figure>\n<img src=\"%s\" width=\"%s\" height=\"%s\" alt=\"%s\">\n<figcaption>%s · %s × %s px · %d of %d</figcaption>\n</figure>\n",
-			esc(it.name), wi, hi, esc(fmt.Sprintf("%s, %d of %d", j.spec.Title, i+1, len(items))), esc(it.name), ws, hs, i+1, len(items))
+			esc(it.name), wi, hi, esc(fmt.Sprintf("%s, %d of %d", j.Spec.Title, i+1, len(items))), esc(it.name), ws, hs, i+1, len(items))
 	}
-	fmt.Fprintf(&b, "<p style=\"padding:0 12px\">%s", esc(p.plan.Summary()))
+	fmt.Fprintf(&b, "<p style=\"padding:0 12px\">%s", esc(p.Plan.Summary()))
 	if panels > 0 {
 		fmt.Fprintf(&b, "; %d panel files in <a href=\"panels/\">panels/</a>", panels)
 	}

@@ -1,4 +1,4 @@
-package main
+package production
 
 import (
 	"fmt"
@@ -8,59 +8,59 @@ import (
 	"strings"
 )
 
-// changeReport is what changed between the previous build's manifest and
+// ChangeReport is what changed between the previous build's manifest and
 // this one: DIR/changes.json, DIR/changes.txt and the summary on stderr.
 // README documents it.
-type changeReport struct {
+type ChangeReport struct {
 	FirstBuild   bool           `json:"first_build"`
 	SheafChanged bool           `json:"sheaf_changed"` // another sheaf version
 	SpecChanged  bool           `json:"spec_changed"`
 	DataChanged  []string       `json:"data_changed"`  // data files whose bytes changed
 	FontsChanged []string       `json:"fonts_changed"` // "OUTPUT STYLE (NAME)"
-	Files        fileChanges    `json:"files"`
-	Pages        []pagesChanged `json:"pages"`    // per changed PDF of pages
-	Graphics     []graphicDrawn `json:"graphics"` // per changed file of an insert
-	Terms        []termChange   `json:"terms"`    // terms whose data changed, came or went
-	Work         []outputStats  `json:"work"`     // what was drawn and reused, per output and insert built
+	Files        FileChanges    `json:"files"`
+	Pages        []PagesChanged `json:"pages"`    // per changed PDF of pages
+	Graphics     []GraphicDrawn `json:"graphics"` // per changed file of an insert
+	Terms        []TermChange   `json:"terms"`    // terms whose data changed, came or went
+	Work         []OutputStats  `json:"work"`     // what was drawn and reused, per output and insert built
 }
 
-// graphicDrawn is a changed file of an insert, a single graphic: it has
+// GraphicDrawn is a changed file of an insert, a single graphic: it has
 // no pages to list, so the report says why it was drawn again.
-type graphicDrawn struct {
+type GraphicDrawn struct {
 	File   string `json:"file"`
 	Insert string `json:"insert"`
 	Why    string `json:"why"`
 }
 
-type fileChanges struct {
+type FileChanges struct {
 	Added     []string `json:"added"`
 	Removed   []string `json:"removed"`
 	Changed   []string `json:"changed"`
 	Unchanged []string `json:"unchanged"`
 }
 
-// pagesChanged lists the pages of one PDF that differ from the last
+// PagesChanged lists the pages of one PDF that differ from the last
 // build (pages past the shorter of the two count as changed).
-type pagesChanged struct {
+type PagesChanged struct {
 	File  string `json:"file"`
 	Pages []int  `json:"pages"`
 	Of    int    `json:"of"` // pages in the new PDF
 }
 
-// termChange is one term whose data changed ("changed"), is new
+// TermChange is one term whose data changed ("changed"), is new
 // ("added") or left the selection ("removed"), and where it sits:
 // "OUTPUT p. N" and "insert NAME" in this build (last build for removed
 // terms).
-type termChange struct {
+type TermChange struct {
 	Term   string   `json:"term"`
 	Change string   `json:"change"`
 	Pages  []string `json:"pages"`
 }
 
 // compareManifests builds the report. prev is nil on a first build.
-func compareManifests(prev, cur *manifest, work []outputStats) *changeReport {
-	r := &changeReport{Work: work, DataChanged: []string{}, FontsChanged: []string{}, Pages: []pagesChanged{}, Graphics: []graphicDrawn{}, Terms: []termChange{}}
-	r.Files = fileChanges{Added: []string{}, Removed: []string{}, Changed: []string{}, Unchanged: []string{}}
+func compareManifests(prev, cur *Manifest, work []OutputStats) *ChangeReport {
+	r := &ChangeReport{Work: work, DataChanged: []string{}, FontsChanged: []string{}, Pages: []PagesChanged{}, Graphics: []GraphicDrawn{}, Terms: []TermChange{}}
+	r.Files = FileChanges{Added: []string{}, Removed: []string{}, Changed: []string{}, Unchanged: []string{}}
 	if prev == nil {
 		r.FirstBuild = true
 		for _, f := range cur.Files {
@@ -88,7 +88,7 @@ func compareManifests(prev, cur *manifest, work []outputStats) *changeReport {
 	seen := map[string]bool{}
 	for _, f := range cur.Files {
 		seen[f.Path] = true
-		old := prev.file(f.Path)
+		old := prev.File(f.Path)
 		switch {
 		case old == nil:
 			r.Files.Added = append(r.Files.Added, f.Path)
@@ -96,9 +96,9 @@ func compareManifests(prev, cur *manifest, work []outputStats) *changeReport {
 			r.Files.Changed = append(r.Files.Changed, f.Path)
 			switch {
 			case f.Insert != "":
-				r.Graphics = append(r.Graphics, graphicDrawn{File: f.Path, Insert: f.Insert, Why: insertWhy(r, prev, cur, f.Insert)})
+				r.Graphics = append(r.Graphics, GraphicDrawn{File: f.Path, Insert: f.Insert, Why: insertWhy(r, prev, cur, f.Insert)})
 			case strings.HasSuffix(f.Path, ".pdf"):
-				r.Pages = append(r.Pages, pagesChanged{File: f.Path, Pages: changedPages(old.Pages, f.Pages), Of: len(f.Pages)})
+				r.Pages = append(r.Pages, PagesChanged{File: f.Path, Pages: changedPages(old.Pages, f.Pages), Of: len(f.Pages)})
 			}
 		default:
 			r.Files.Unchanged = append(r.Files.Unchanged, f.Path)
@@ -119,9 +119,9 @@ func compareManifests(prev, cur *manifest, work []outputStats) *changeReport {
 		sum, ok := oldTerms[t.Term]
 		switch {
 		case !ok:
-			r.Terms = append(r.Terms, termChange{Term: t.Term, Change: "added", Pages: newPlaces[t.Term]})
+			r.Terms = append(r.Terms, TermChange{Term: t.Term, Change: "added", Pages: newPlaces[t.Term]})
 		case sum != t.SHA256:
-			r.Terms = append(r.Terms, termChange{Term: t.Term, Change: "changed", Pages: newPlaces[t.Term]})
+			r.Terms = append(r.Terms, TermChange{Term: t.Term, Change: "changed", Pages: newPlaces[t.Term]})
 		}
 		delete(oldTerms, t.Term)
 	}
@@ -131,7 +131,7 @@ func compareManifests(prev, cur *manifest, work []outputStats) *changeReport {
 	}
 	sort.Strings(gone)
 	for _, t := range gone {
-		r.Terms = append(r.Terms, termChange{Term: t, Change: "removed", Pages: oldPlaces[t]})
+		r.Terms = append(r.Terms, TermChange{Term: t, Change: "removed", Pages: oldPlaces[t]})
 	}
 	// An insert's terms need not be among the feature's: one that is not,
 	// and whose data changed, is listed with its inserts.
@@ -156,7 +156,7 @@ func compareManifests(prev, cur *manifest, work []outputStats) *changeReport {
 	}
 	sort.Strings(insertOnly)
 	for _, t := range insertOnly {
-		r.Terms = append(r.Terms, termChange{Term: t, Change: "changed", Pages: newPlaces[t]})
+		r.Terms = append(r.Terms, TermChange{Term: t, Change: "changed", Pages: newPlaces[t]})
 	}
 	for i := range r.Terms {
 		if r.Terms[i].Pages == nil {
@@ -167,7 +167,7 @@ func compareManifests(prev, cur *manifest, work []outputStats) *changeReport {
 }
 
 // changedPages compares two PDFs' page lists by their inputs hashes.
-func changedPages(old, cur []pageEntry) []int {
+func changedPages(old, cur []PageEntry) []int {
 	out := []int{}
 	for i, p := range cur {
 		if i >= len(old) || old[i].Inputs != p.Inputs {
@@ -179,7 +179,7 @@ func changedPages(old, cur []pageEntry) []int {
 
 // places maps every term to "OUTPUT p. N" for each page it is on, then
 // "insert NAME" for each insert that shows it.
-func places(m *manifest) map[string][]string {
+func places(m *Manifest) map[string][]string {
 	out := map[string][]string{}
 	for _, o := range m.Outputs {
 		for _, p := range o.Pages {
@@ -198,8 +198,8 @@ func places(m *manifest) map[string][]string {
 
 // insertWhy says why an insert was drawn again, from the two manifests
 // and the inputs already compared in r.
-func insertWhy(r *changeReport, prev, cur *manifest, name string) string {
-	a, b := prev.insert(name), cur.insert(name)
+func insertWhy(r *ChangeReport, prev, cur *Manifest, name string) string {
+	a, b := prev.Insert(name), cur.Insert(name)
 	if a == nil || b == nil {
 		return "its inputs changed"
 	}
@@ -230,7 +230,7 @@ func insertWhy(r *changeReport, prev, cur *manifest, name string) string {
 
 // sameTerms reports whether two lists name the same terms in the same
 // order, and, unless namesOnly, with the same data.
-func sameTerms(a, b []termHash, namesOnly bool) bool {
+func sameTerms(a, b []TermHash, namesOnly bool) bool {
 	if len(a) != len(b) {
 		return false
 	}
@@ -242,13 +242,13 @@ func sameTerms(a, b []termHash, namesOnly bool) bool {
 	return true
 }
 
-// nothing reports whether the build changed no file.
-func (r *changeReport) nothing() bool {
+// Nothing reports whether the build changed no file.
+func (r *ChangeReport) Nothing() bool {
 	return !r.FirstBuild && len(r.Files.Added)+len(r.Files.Removed)+len(r.Files.Changed) == 0
 }
 
 // writeText writes the report for people: changes.txt.
-func (r *changeReport) writeText(w io.Writer) error {
+func (r *ChangeReport) WriteText(w io.Writer) error {
 	var b strings.Builder
 	r.text(&b, false)
 	_, err := io.WriteString(w, b.String())
@@ -257,13 +257,13 @@ func (r *changeReport) writeText(w io.Writer) error {
 
 // writeSummary prints the report on stderr: the same, with long lists of
 // unchanged files left out.
-func (r *changeReport) writeSummary(w io.Writer) {
+func (r *ChangeReport) WriteSummary(w io.Writer) {
 	var b strings.Builder
 	r.text(&b, true)
 	io.WriteString(w, b.String())
 }
 
-func (r *changeReport) text(b *strings.Builder, short bool) {
+func (r *ChangeReport) text(b *strings.Builder, short bool) {
 	list := func(title string, xs []string) {
 		if len(xs) == 0 {
 			return
@@ -301,7 +301,7 @@ func (r *changeReport) text(b *strings.Builder, short bool) {
 		}
 		work()
 		return
-	case r.nothing():
+	case r.Nothing():
 		fmt.Fprintf(b, "nothing changed since the last build (%d files unchanged)\n", len(r.Files.Unchanged))
 		work()
 		return
@@ -358,4 +358,12 @@ func (r *changeReport) text(b *strings.Builder, short bool) {
 		list("unchanged files", r.Files.Unchanged)
 	}
 	work()
+}
+
+// plural writes a count with its noun, "1 page", "2 pages".
+func plural(n int, noun string) string {
+	if n == 1 {
+		return "1 " + noun
+	}
+	return fmt.Sprintf("%d %ss", n, noun)
 }

@@ -1,4 +1,4 @@
-package main
+package production
 
 import (
 	"bytes"
@@ -54,16 +54,13 @@ func TestPageCacheCoversEncodedPage(t *testing.T) {
 // empty) so that each part of the layout is exercised.
 func cachePages(t *testing.T) []*pdf.EncodedPage {
 	t.Helper()
-	j, err := loadJob(newJob(t, jobSpec("")))
+	j := demoJob(t, "")
+	p, err := j.Prepare(j.Spec.Output("print"))
 	if err != nil {
 		t.Fatal(err)
 	}
-	p, err := prepare(j, j.spec.Output("print"))
-	if err != nil {
-		t.Fatal(err)
-	}
-	drawn, err := pdf.EncodePage(pdf.PageSetup{Boxes: boxes(&p.plan.Pages[0]), Marks: &pdf.MarkOptions{}},
-		func(c *canvas.Canvas) error { return p.feat.Draw(canvas.NewContext(c), 0) })
+	drawn, err := pdf.EncodePage(pdf.PageSetup{Boxes: PageBoxes(&p.Plan.Pages[0]), Marks: &pdf.MarkOptions{}},
+		func(c *canvas.Canvas) error { return p.Feature.Draw(canvas.NewContext(c), 0) })
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -123,7 +120,7 @@ func pdfOf(t *testing.T, e *pdf.EncodedPage) []byte {
 		t.Fatal(err)
 	}
 	var out bytes.Buffer
-	w := pdf.NewWriter(&out, pdf.Options{Title: "cache", Version: version, Date: time.Unix(0, 0).UTC()})
+	w := pdf.NewWriter(&out, pdf.Options{Title: "cache", Version: Version, Date: time.Unix(0, 0).UTC()})
 	for _, st := range []fonts.Style{fonts.Regular, fonts.Bold, fonts.Italic} {
 		if _, err := w.RegisterFont(fs.Font(st)); err != nil {
 			t.Fatal(err)

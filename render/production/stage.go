@@ -1,4 +1,4 @@
-package main
+package production
 
 import (
 	"errors"
@@ -26,7 +26,7 @@ type stage struct {
 	foreign map[string]bool
 }
 
-const stageMark = ".stage-"
+const StageMark = ".stage-"
 
 // newStage makes a stage beside final, after removing stages left by
 // builds that were killed outright (their process is gone).
@@ -43,7 +43,7 @@ func newStage(final string) (*stage, error) {
 		return nil, err
 	}
 	removeStaleStages(parent, base)
-	dir, err := os.MkdirTemp(parent, "."+base+stageMark+strconv.Itoa(os.Getpid())+"-")
+	dir, err := os.MkdirTemp(parent, "."+base+StageMark+strconv.Itoa(os.Getpid())+"-")
 	if err != nil {
 		return nil, err
 	}
@@ -62,7 +62,7 @@ func removeStaleStages(parent, base string) {
 	if err != nil {
 		return
 	}
-	prefix := "." + base + stageMark
+	prefix := "." + base + StageMark
 	for _, e := range entries {
 		name := e.Name()
 		if !e.IsDir() || !strings.HasPrefix(name, prefix) {
@@ -128,15 +128,15 @@ func (b *build) carry() error {
 	for _, e := range entries {
 		name := e.Name()
 		switch name {
-		case manifestFile, changesJSON, changesText:
+		case ManifestFile, ChangesJSON, ChangesText:
 			continue
-		case cacheDir:
+		case CacheDir:
 			if err := b.carryCache(); err != nil {
 				return err
 			}
 			continue
 		}
-		if strings.Contains(name, stageMark) {
+		if strings.Contains(name, StageMark) {
 			continue
 		}
 		if _, err := os.Lstat(filepath.Join(s.dir, name)); err == nil {
@@ -148,7 +148,7 @@ func (b *build) carry() error {
 			s.foreign[name] = true
 		case b.only == "":
 			continue // a whole build: what it did not make is gone
-		case out != "" && b.j.spec.Output(out) == nil:
+		case out != "" && b.j.Spec.Output(out) == nil:
 			continue // the output left the spec
 		default:
 			s.carried[out] = true
@@ -166,15 +166,15 @@ func (b *build) carryCache() error {
 	if b.only == "" {
 		return nil
 	}
-	for _, o := range b.j.spec.Outputs {
+	for _, o := range b.j.Spec.Outputs {
 		if o.Name == b.only {
 			continue
 		}
-		src := filepath.Join(b.final, cacheDir, o.Name)
+		src := filepath.Join(b.final, CacheDir, o.Name)
 		if _, err := os.Stat(src); err != nil {
 			continue
 		}
-		if err := linkTree(src, filepath.Join(b.stage.dir, cacheDir, o.Name)); err != nil {
+		if err := linkTree(src, filepath.Join(b.stage.dir, CacheDir, o.Name)); err != nil {
 			return err
 		}
 	}
@@ -221,7 +221,7 @@ func linkOrCopy(src, dst string) error {
 		return err
 	}
 	defer in.Close()
-	return writeAtomic(dst, func(w io.Writer) error {
+	return WriteAtomic(dst, func(w io.Writer) error {
 		_, err := io.Copy(w, in)
 		return err
 	})

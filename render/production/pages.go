@@ -1,9 +1,10 @@
-package main
+package production
 
 import (
 	"encoding/json"
 
 	"sheaf/layout/fonts"
+	"sheaf/render/feature"
 	"sheaf/render/pdf"
 )
 
@@ -25,22 +26,22 @@ import (
 //     prints it);
 //   - the palette as gradient stops;
 //   - the SHA-256 of each font's bytes.
-func pageInputs(j *job, p *prepared, i int, setup pdf.PageSetup, specSum, fontSum string) string {
+func pageInputs(j *feature.Job, p *feature.Output, i int, setup pdf.PageSetup, specSum, fontSum string) string {
 	h := newHasher("sheaf page v1")
-	h.str(version)
+	h.str(Version)
 	h.str(specSum)
-	h.str(p.out.Name)
+	h.str(p.Spec.Name)
 	h.int(i)
-	h.int(len(p.plan.Pages))
+	h.int(len(p.Plan.Pages))
 	if s, err := json.Marshal(setup); err == nil {
 		h.str(string(s))
 	}
-	pg := &p.plan.Pages[i]
+	pg := &p.Plan.Pages[i]
 	if s, err := json.Marshal(pg); err == nil {
 		h.str(string(s))
 	}
-	d := j.data
-	labels := p.feat.Labels()
+	d := j.Data
+	labels := p.Feature.Labels()
 	for _, pn := range pg.Panels {
 		sr := &d.Series[pn.Item]
 		h.str(sr.Term)
@@ -59,7 +60,7 @@ func pageInputs(j *job, p *prepared, i int, setup pdf.PageSetup, specSum, fontSu
 	h.floats(d.Years)
 	h.str(d.Unit)
 	h.float(d.YMax)
-	for _, s := range p.feat.Stops {
+	for _, s := range p.Feature.Stops {
 		r := s.Color
 		h.floats([]float64{s.Year, r.R, r.G, r.B})
 	}
@@ -77,10 +78,10 @@ func fontsSum(fs *fonts.Set) string {
 }
 
 // pageTerms lists the terms on page i, in panel order.
-func pageTerms(j *job, p *prepared, i int) []string {
+func pageTerms(j *feature.Job, p *feature.Output, i int) []string {
 	terms := []string{}
-	for _, pn := range p.plan.Pages[i].Panels {
-		terms = append(terms, j.data.Series[pn.Item].Term)
+	for _, pn := range p.Plan.Pages[i].Panels {
+		terms = append(terms, j.Data.Series[pn.Item].Term)
 	}
 	return terms
 }

@@ -1,4 +1,4 @@
-package main
+package production
 
 import (
 	"crypto/sha256"
@@ -25,32 +25,32 @@ import (
 // Names of the files every build writes into its folder, beside the
 // outputs' folders.
 const (
-	manifestFile = "manifest.json"
-	changesJSON  = "changes.json"
-	changesText  = "changes.txt"
-	cacheDir     = ".cache" // encoded pages: .cache/OUTPUT/HASH.page
+	ManifestFile = "manifest.json"
+	ChangesJSON  = "changes.json"
+	ChangesText  = "changes.txt"
+	CacheDir     = ".cache" // encoded pages: .cache/OUTPUT/HASH.page
 )
 
-// manifest is DIR/manifest.json: what went into a build and what came
+// Manifest is DIR/manifest.json: what went into a build and what came
 // out, with enough hashes to tell the next build what changed. README
 // documents it.
-type manifest struct {
+type Manifest struct {
 	Sheaf   string        `json:"sheaf"` // sheaf version
-	Spec    fileHash      `json:"spec"`
-	Data    []fileHash    `json:"data"`
-	Fonts   []fontHash    `json:"fonts"`
-	Terms   []termHash    `json:"terms"` // every selected term, sorted by term
-	Outputs []outputEntry `json:"outputs"`
-	Inserts []insertEntry `json:"inserts,omitempty"` // in the spec's order
-	Files   []fileEntry   `json:"files"`             // every file of every output and insert, sorted by path
+	Spec    FileHash      `json:"spec"`
+	Data    []FileHash    `json:"data"`
+	Fonts   []FontHash    `json:"fonts"`
+	Terms   []TermHash    `json:"terms"` // every selected term, sorted by term
+	Outputs []OutputEntry `json:"outputs"`
+	Inserts []InsertEntry `json:"inserts,omitempty"` // in the spec's order
+	Files   []FileEntry   `json:"files"`             // every file of every output and insert, sorted by path
 }
 
-type fileHash struct {
+type FileHash struct {
 	Path   string `json:"path"`
 	SHA256 string `json:"sha256"`
 }
 
-type fontHash struct {
+type FontHash struct {
 	Output string `json:"output"`
 	Style  string `json:"style"`
 	Name   string `json:"name"`
@@ -58,13 +58,13 @@ type fontHash struct {
 	SHA256 string `json:"sha256"`
 }
 
-// termHash is a term's data: its yearly counts and plotted values.
-type termHash struct {
+// TermHash is a term's data: its yearly counts and plotted values.
+type TermHash struct {
 	Term   string `json:"term"`
 	SHA256 string `json:"sha256"`
 }
 
-type outputEntry struct {
+type OutputEntry struct {
 	Name   string  `json:"name"`
 	Kind   string  `json:"kind"`
 	Proofs float64 `json:"proof_dpi,omitempty"` // 0: no proofs were made
@@ -72,50 +72,50 @@ type outputEntry struct {
 	// files (see screenInputs): equal hashes and intact files mean the
 	// next build carries the files over instead of drawing them.
 	Inputs string      `json:"inputs,omitempty"`
-	Pages  []pageEntry `json:"pages"`
+	Pages  []PageEntry `json:"pages"`
 }
 
-// insertEntry is one insert: the output it borrows, its terms with the
+// InsertEntry is one insert: the output it borrows, its terms with the
 // hash of their data, and the hash of everything that decides its files
 // (see insertInputs).
-type insertEntry struct {
+type InsertEntry struct {
 	Name   string     `json:"name"`
 	Output string     `json:"output"`
-	Terms  []termHash `json:"terms"` // in the insert's order
+	Terms  []TermHash `json:"terms"` // in the insert's order
 	Inputs string     `json:"inputs"`
 }
 
-// pageEntry is one page: the terms on it and the hash of everything that
+// PageEntry is one page: the terms on it and the hash of everything that
 // decides its drawing (see pageInputs).
-type pageEntry struct {
+type PageEntry struct {
 	Page   int      `json:"page"` // from 1
 	Terms  []string `json:"terms"`
 	Inputs string   `json:"inputs"`
 }
 
-type fileEntry struct {
+type FileEntry struct {
 	Path   string      `json:"path"` // relative to DIR, with forward slashes
 	Output string      `json:"output,omitempty"`
 	SHA256 string      `json:"sha256"`
 	Size   int64       `json:"size"`
 	Insert string      `json:"insert,omitempty"` // the insert the file shows
 	Terms  []string    `json:"terms,omitempty"`  // an insert's terms, or a panel file's term
-	Pages  []pageEntry `json:"pages,omitempty"`  // the PDF's pages, or the page(s) a proof, PNG or SVG shows
+	Pages  []PageEntry `json:"pages,omitempty"`  // the PDF's pages, or the page(s) a proof, PNG or SVG shows
 }
 
-// readManifest reads DIR/manifest.json. No file is not an error: it
+// ReadManifest reads DIR/manifest.json. No file is not an error: it
 // returns nil, nil.
-func readManifest(dir string) (*manifest, error) {
-	b, err := os.ReadFile(filepath.Join(dir, manifestFile))
+func ReadManifest(dir string) (*Manifest, error) {
+	b, err := os.ReadFile(filepath.Join(dir, ManifestFile))
 	if errors.Is(err, fs.ErrNotExist) {
 		return nil, nil
 	}
 	if err != nil {
 		return nil, err
 	}
-	var m manifest
+	var m Manifest
 	if err := json.Unmarshal(b, &m); err != nil {
-		return nil, fmt.Errorf("%s: %v", filepath.Join(dir, manifestFile), err)
+		return nil, fmt.Errorf("%s: %v", filepath.Join(dir, ManifestFile), err)
 	}
 	return &m, nil
 }
@@ -128,7 +128,7 @@ func encodeJSON(w io.Writer, v any) error {
 	return enc.Encode(v)
 }
 
-func (m *manifest) output(name string) *outputEntry {
+func (m *Manifest) Output(name string) *OutputEntry {
 	if m == nil {
 		return nil
 	}
@@ -140,7 +140,7 @@ func (m *manifest) output(name string) *outputEntry {
 	return nil
 }
 
-func (m *manifest) insert(name string) *insertEntry {
+func (m *Manifest) Insert(name string) *InsertEntry {
 	if m == nil {
 		return nil
 	}
@@ -152,12 +152,12 @@ func (m *manifest) insert(name string) *insertEntry {
 	return nil
 }
 
-// filesOf lists the files of output (insert == "") or of an insert.
-func (m *manifest) filesOf(output, insert string) []*fileEntry {
+// FilesOf lists the files of output (insert == "") or of an insert.
+func (m *Manifest) FilesOf(output, insert string) []*FileEntry {
 	if m == nil {
 		return nil
 	}
-	var out []*fileEntry
+	var out []*FileEntry
 	for i := range m.Files {
 		f := &m.Files[i]
 		if insert != "" && f.Insert == insert || insert == "" && f.Output == output && output != "" {
@@ -167,7 +167,7 @@ func (m *manifest) filesOf(output, insert string) []*fileEntry {
 	return out
 }
 
-func (m *manifest) file(path string) *fileEntry {
+func (m *Manifest) File(path string) *FileEntry {
 	if m == nil {
 		return nil
 	}
@@ -271,12 +271,12 @@ func termSumWith(h *hasher, sr *series.Series) string {
 
 // termHashes hashes every term, on all cores: ten thousand terms of two
 // hundred years are megabytes of SHA-256.
-func termHashes(d *series.Set) []termHash {
-	ts := make([]termHash, len(d.Series))
+func termHashes(d *series.Set) []TermHash {
+	ts := make([]TermHash, len(d.Series))
 	parallel(len(ts), func(lo, hi int) {
 		h := newHasher(termKind)
 		for i := lo; i < hi; i++ {
-			ts[i] = termHash{Term: d.Series[i].Term, SHA256: termSumWith(h, &d.Series[i])}
+			ts[i] = TermHash{Term: d.Series[i].Term, SHA256: termSumWith(h, &d.Series[i])}
 		}
 	})
 	sort.Slice(ts, func(i, j int) bool { return ts[i].Term < ts[j].Term })
@@ -304,10 +304,10 @@ func parallel(n int, f func(lo, hi int)) {
 // fontHashes lists the fonts of an output with the hash of their raw
 // bytes; the built-in Go fonts too, so a sheaf upgrade that changes them
 // shows.
-func fontHashes(output string, fs *fonts.Set) []fontHash {
-	var out []fontHash
+func fontHashes(output string, fs *fonts.Set) []FontHash {
+	var out []FontHash
 	for _, st := range []fonts.Style{fonts.Regular, fonts.Bold, fonts.Italic} {
-		out = append(out, fontHash{Output: output, Style: st.String(), Name: fs.Name(st), Path: fs.Path(st), SHA256: sumBytes(fs.Bytes(st))})
+		out = append(out, FontHash{Output: output, Style: st.String(), Name: fs.Name(st), Path: fs.Path(st), SHA256: sumBytes(fs.Bytes(st))})
 	}
 	return out
 }
@@ -315,8 +315,8 @@ func fontHashes(output string, fs *fonts.Set) []fontHash {
 // hashFiles hashes every regular file under root/sub (a path relative to
 // root) and returns entries with slash paths relative to root. Files in
 // known (by slash path) were hashed as they were written.
-func hashFiles(root, sub, output string, known map[string]fileSum) ([]fileEntry, error) {
-	var out []fileEntry
+func hashFiles(root, sub, output string, known map[string]fileSum) ([]FileEntry, error) {
+	var out []FileEntry
 	base := filepath.Join(root, sub)
 	err := filepath.WalkDir(base, func(p string, d fs.DirEntry, err error) error {
 		if err != nil {
@@ -339,7 +339,7 @@ func hashFiles(root, sub, output string, known map[string]fileSum) ([]fileEntry,
 				return err
 			}
 		}
-		out = append(out, fileEntry{Path: rel, Output: output, SHA256: fs.sum, Size: fs.size})
+		out = append(out, FileEntry{Path: rel, Output: output, SHA256: fs.sum, Size: fs.size})
 		return nil
 	})
 	return out, err
@@ -347,5 +347,5 @@ func hashFiles(root, sub, output string, known map[string]fileSum) ([]fileEntry,
 
 // writeJSONFile writes v as indented JSON to path, atomically.
 func writeJSONFile(path string, v any) error {
-	return writeAtomic(path, func(w io.Writer) error { return encodeJSON(w, v) })
+	return WriteAtomic(path, func(w io.Writer) error { return encodeJSON(w, v) })
 }

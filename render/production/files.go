@@ -1,4 +1,4 @@
-package main
+package production
 
 import (
 	"bufio"
@@ -8,10 +8,10 @@ import (
 	"path/filepath"
 )
 
-// writeAtomic writes a file through a temporary name in the same folder
+// WriteAtomic writes a file through a temporary name in the same folder
 // and renames it into place only when fill succeeded, so a failed or
 // interrupted write never leaves a half-written file under the real name.
-func writeAtomic(path string, fill func(w io.Writer) error) error {
+func WriteAtomic(path string, fill func(w io.Writer) error) error {
 	dir := filepath.Dir(path)
 	if err := os.MkdirAll(dir, 0o755); err != nil {
 		return err

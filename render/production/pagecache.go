@@ -1,4 +1,4 @@
-package main
+package production
 
 import (
 	"encoding/binary"

@@ -1,0 +1,40 @@
+package main
+
+import (
+	"fmt"
+	"io"
+	"text/tabwriter"
+
+	"sheaf/render/preflight"
+)
+
+// maxFindingsShown bounds the preflight table on stderr; `sheaf check
+// --json` lists every finding.
+const maxFindingsShown = 40
+
+// writeFindings prints findings as a table, worst first, at most limit
+// rows (0: all).
+func writeFindings(w io.Writer, fs []preflight.Finding, limit int) {
+	if len(fs) == 0 {
+		return
+	}
+	counts := map[preflight.Severity]int{}
+	for _, f := range fs {
+		counts[f.Severity]++
+	}
+	fmt.Fprintf(w, "preflight: %d errors, %d warnings, %d for review, %d notes\n",
+		counts[preflight.Error], counts[preflight.Warning], counts[preflight.Review], counts[preflight.Info])
+	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', 0)
+	for k, f := range fs {
+		if limit > 0 && k == limit {
+			fmt.Fprintf(tw, "  …\t%d more: sheaf check --json lists them all\t\t\n", len(fs)-k)
+			break
+		}
+		msg := f.Message
+		if f.At != "" {
+			msg += " (" + f.At + ")"
+		}
+		fmt.Fprintf(tw, "  %s\t%s\t%s\t%s\n", f.Severity, f.ID, f.Where(), msg)
+	}
+	tw.Flush()
+}

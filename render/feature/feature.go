@@ -1,0 +1,160 @@
+// Package feature loads and prepares a feature for drawing: the spec and
+// its data, the era palette the spec asks for, and for every output its
+// fonts, layout plan and fitted labels; every insert laid out; the
+// palette's checks and preflight over all outputs; and the summary that
+// `sheaf check` prints. It writes no files: package production does.
+//
+// Every error a function here returns for something the user must fix
+// is a *specs.InputError (choose it with errors.As or specs.IsBadInput).
+package feature
+
+import (
+	"fmt"
+	"strconv"
+	"time"
+
+	"sheaf/layout"
+	"sheaf/layout/fonts"
+	"sheaf/palette"
+	"sheaf/render/page"
+	"sheaf/specs"
+	"sheaf/specs/series"
+)
+
+// Job is a loaded spec with its data.
+type Job struct {
+	Spec *specs.Spec
+	Data *series.Set
+}
+
+// Load reads the spec at path and its data tables.
+func Load(path string) (*Job, error) {
+	s, err := specs.Load(path)
+	if err != nil {
+		return nil, specs.BadInput(err)
+	}
+	return LoadData(s)
+}
+
+// LoadData reads the data tables of a loaded spec.
+func LoadData(s *specs.Spec) (*Job, error) {
+	d, err := series.Load(s)
+	if err != nil {
+		return nil, specs.BadInput(err)
+	}
+	return &Job{Spec: s, Data: d}, nil
+}
+
+// Scale builds the era palette the spec asks for over span.
+func Scale(s *specs.Spec, span specs.Span) (palette.Scale, error) {
+	from, to := float64(span.From), float64(span.To)
+	var bounds []float64
+	if len(s.Palette.Eras) > 0 {
+		bounds = append(bounds, from)
+		for _, e := range s.Palette.Eras {
+			if float64(e) <= from || float64(e) >= to {
+				return palette.Scale{}, specs.BadInput(fmt.Errorf("%s: palette.eras: boundary %d must lie inside the span %d–%d", s.Where("palette.eras"), e, span.From, span.To))
+			}
+			bounds = append(bounds, float64(e))
+		}
+		bounds = append(bounds, to)
+	}
+	anchors := palette.DefaultAnchors(from, to)
+	name := palette.DefaultName
+	if len(s.Palette.Anchors) > 0 {
+		name = "custom"
+		anchors = anchors[:0:0]
+		for _, a := range s.Palette.Anchors {
+			anchors = append(anchors, palette.Anchor{Year: a.Year, Color: page.ColorOf(a.Color)})
+		}
+	}
+	sc, err := palette.NewScale(name, anchors, bounds)
+	if err != nil {
+		return palette.Scale{}, specs.BadInput(fmt.Errorf("%s: %v", s.Where("palette"), err))
+	}
+	return sc, nil
+}
+
+// Groups turns the data's groups into the layout's.
+func (j *Job) Groups() []layout.Group {
+	var gs []layout.Group
+	for _, g := range j.Data.Groups {
+		gs = append(gs, layout.Group{Heading: g.Heading, Count: g.Count})
+	}
+	return gs
+}
+
+// Output is one output ready to draw: its fonts, its layout plan and the
+// feature as its pages draw it (palette, stops, fitted labels).
+type Output struct {
+	Spec    *specs.Output
+	Fonts   *fonts.Set
+	Plan    *layout.Plan
+	Feature *page.Feature
+}
+
+// Name is the output's name.
+func (o *Output) Name() string { return o.Spec.Name }
+
+// Prepare loads the fonts, solves the layout and builds the palette of
+// one output of the job's spec.
+func (j *Job) Prepare(out *specs.Output) (*Output, error) {
+	fs, err := fonts.Load(j.Spec, out)
+	if err != nil {
+		return nil, specs.BadInput(err)
+	}
+	plan, err := layout.Solve(j.Spec, out, fs, j.Groups())
+	if err != nil {
+		return nil, specs.BadInput(err)
+	}
+	sc, err := Scale(j.Spec, j.Data.Span)
+	if err != nil {
+		return nil, err
+	}
+	return &Output{Spec: out, Fonts: fs, Plan: plan,
+		Feature: page.NewFeature(j.Spec, out, plan, j.Data, sc, fs)}, nil
+}
+
+// PrepareAll prepares every output of the spec, in the spec's order.
+func (j *Job) PrepareAll() ([]*Output, error) {
+	var outs []*Output
+	for i := range j.Spec.Outputs {
+		o, err := j.Prepare(&j.Spec.Outputs[i])
+		if err != nil {
+			return nil, err
+		}
+		outs = append(outs, o)
+	}
+	return outs, nil
+}
+
+// FallbackDate stands in when neither SOURCE_DATE_EPOCH nor the spec's
+// date is set: a fixed day, so files never depend on the clock.
+var FallbackDate = time.Date(2000, 1, 1, 0, 0, 0, 0, time.UTC)
+
+// DocumentDate is the date written into file metadata: sourceDateEpoch
+// (the value of SOURCE_DATE_EPOCH, seconds since 1970 — the
+// reproducible-builds.org convention; "" when unset) first, then the
+// spec's date, then FallbackDate. The caller reads the environment.
+func DocumentDate(s *specs.Spec, sourceDateEpoch string) (time.Time, error) {
+	d := FallbackDate
+	if s.Date != "" {
+		t, err := time.Parse("2006-01-02", s.Date)
+		if err != nil {
+			return time.Time{}, specs.BadInput(fmt.Errorf("%s: date %q: %v", s.Where("date"), s.Date, err))
+		}
+		d = t
+	}
+	if sourceDateEpoch == "" {
+		return d, nil
+	}
+	n, err := strconv.ParseInt(sourceDateEpoch, 10, 64)
+	if err != nil {
+		return time.Time{}, specs.BadInput(fmt.Errorf("SOURCE_DATE_EPOCH=%q is not an integer number of seconds", sourceDateEpoch))
+	}
+	// PDF dates have four-digit years (ISO 32000-1 §7.9.4): 0000–9999.
+	if n < 0 || n > 253402300799 {
+		return time.Time{}, specs.BadInput(fmt.Errorf("SOURCE_DATE_EPOCH=%q is outside 0 (1970-01-01) … 253402300799 (9999-12-31), the years a PDF date can hold", sourceDateEpoch))
+	}
+	return time.Unix(n, 0).UTC(), nil
+}

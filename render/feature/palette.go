@@ -1,0 +1,61 @@
+package feature
+
+import (
+	"fmt"
+
+	"sheaf/palette"
+	"sheaf/render/page"
+	"sheaf/specs"
+)
+
+// PaletteCheck is the era palette checked for one output: its line width
+// and medium decide the size-aware check.
+type PaletteCheck struct {
+	Output string
+	Scale  palette.Scale
+	Report palette.Report
+}
+
+// Thresholds turns the spec's palette checks into the palette package's.
+func Thresholds(s *specs.Spec) (palette.Thresholds, error) {
+	th := palette.DefaultThresholds()
+	c := s.Palette.Checks
+	dir := c.Lightness
+	if dir == "monotone" {
+		dir = "auto"
+	}
+	d, err := palette.ParseDirection(dir)
+	if err != nil {
+		return th, specs.BadInput(fmt.Errorf("%s: %v", s.Where("palette.checks.lightness"), err))
+	}
+	th.Lightness = d
+	th.MinStep, th.MinSpan, th.MinContrast, th.MinCVDStep = c.MinStep, c.MinSpan, c.MinContrast, c.MinCVDStep
+	return th, nil
+}
+
+// CheckPalette runs the palette checks for every output of the spec, in
+// the spec's order.
+func (j *Job) CheckPalette() ([]PaletteCheck, error) {
+	sc, err := Scale(j.Spec, j.Data.Span)
+	if err != nil {
+		return nil, err
+	}
+	th, err := Thresholds(j.Spec)
+	if err != nil {
+		return nil, err
+	}
+	paper := page.ColorOf(j.Spec.Palette.Paper)
+	var out []PaletteCheck
+	for _, o := range j.Spec.Outputs {
+		m := palette.Print
+		if o.Kind == specs.Screen {
+			m = palette.Screen
+		}
+		r, err := palette.Check(sc, paper, o.Line.Pt(), m, th)
+		if err != nil {
+			return nil, specs.BadInput(fmt.Errorf("%s: %v", j.Spec.Where("palette"), err))
+		}
+		out = append(out, PaletteCheck{Output: o.Name, Scale: sc, Report: r})
+	}
+	return out, nil
+}

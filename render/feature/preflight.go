@@ -1,0 +1,58 @@
+package feature
+
+import (
+	"fmt"
+
+	"sheaf/render/preflight"
+	"sheaf/specs"
+)
+
+// Preflight checks every prepared output (see package preflight), each
+// with its palette report. A finding about the data itself (a spike, an
+// empty panel) is listed once however many outputs show the term.
+func (j *Job) Preflight(outs []*Output) ([]preflight.Finding, error) {
+	pal, err := j.CheckPalette()
+	if err != nil {
+		return nil, err
+	}
+	var all []preflight.Finding
+	for _, o := range outs {
+		in := preflight.Input{Spec: j.Spec, Output: o.Spec, Plan: o.Plan, Data: j.Data, Fonts: o.Fonts, Labels: o.Feature.Labels()}
+		for i := range pal {
+			if pal[i].Output == o.Spec.Name {
+				in.Palette = &pal[i].Report
+			}
+		}
+		fs, err := preflight.Check(in)
+		if err != nil {
+			return nil, specs.BadInput(err)
+		}
+		all = append(all, fs...)
+	}
+	return dedupeData(all), nil
+}
+
+// dedupeData keeps one finding about the data itself (a spike, an empty
+// panel) however many outputs show the term, and says where else it sits.
+func dedupeData(fs []preflight.Finding) []preflight.Finding {
+	type key struct {
+		id, term string
+		year     int
+	}
+	first := map[key]int{}
+	var out []preflight.Finding
+	for _, f := range fs {
+		if f.ID != preflight.IDSpike && f.ID != preflight.IDNoData {
+			out = append(out, f)
+			continue
+		}
+		k := key{f.ID, f.Term, f.Year}
+		if i, ok := first[k]; ok {
+			out[i].Message += fmt.Sprintf("; also %s p. %d", f.Output, f.Page)
+			continue
+		}
+		first[k] = len(out)
+		out = append(out, f)
+	}
+	return out
+}

@@ -1,0 +1,128 @@
+package feature
+
+import (
+	"fmt"
+
+	"sheaf/layout"
+	"sheaf/render/page"
+	"sheaf/render/preflight"
+)
+
+// Report is what `sheaf check --json` prints: the job summarized, every
+// output's layout, and preflight's findings. README documents it.
+type Report struct {
+	Spec    string         `json:"spec"`
+	Title   string         `json:"title"`
+	Terms   TermsReport    `json:"terms"`
+	Years   YearsReport    `json:"years"`
+	Scale   ScaleReport    `json:"scale"`
+	Outputs []OutputReport `json:"outputs"`
+	// Preflight lists what the preflight checks found, worst first
+	// (see package preflight).
+	Preflight []preflight.Finding `json:"preflight"`
+}
+
+// TermsReport is the terms the data has and the spec selects.
+type TermsReport struct {
+	InData   int      `json:"in_data"`
+	Rows     int      `json:"rows"`
+	Selected int      `json:"selected"`
+	Order    string   `json:"order"`
+	Groups   []string `json:"groups,omitempty"`
+	List     []string `json:"list"`
+}
+
+// YearsReport is the span of the data and the years it lacks.
+type YearsReport struct {
+	From int   `json:"from"`
+	To   int   `json:"to"`
+	Gaps []int `json:"gaps"`
+}
+
+// ScaleReport is how values are scaled.
+type ScaleReport struct {
+	Values string  `json:"values"`
+	Unit   string  `json:"unit"`
+	YRange string  `json:"y_range"`
+	YMax   float64 `json:"y_max"`
+}
+
+// OutputReport is one output: its size, its plan, the labels that had to
+// be shortened and the palette's verdict.
+type OutputReport struct {
+	Name     string         `json:"name"`
+	Kind     string         `json:"kind"`
+	TrimPt   [2]float64     `json:"trim_pt"`
+	Bleed    float64        `json:"bleed_pt"`
+	Summary  string         `json:"summary"`
+	Pages    int            `json:"pages"`
+	Labels   []page.Label   `json:"labels_shortened,omitempty"`
+	Warnings []string       `json:"warnings,omitempty"`
+	Palette  PaletteSummary `json:"palette"`
+	Layout   *layout.Plan   `json:"layout"`
+}
+
+// PaletteSummary is the palette check of one output in brief.
+type PaletteSummary struct {
+	Name     string   `json:"name"`
+	Failed   bool     `json:"failed"`
+	Findings []string `json:"findings"`
+}
+
+// Summarize prepares every output and insert of the job (bad input in
+// any of them is an error, as it is for a build) and runs preflight.
+func (j *Job) Summarize() (Report, error) {
+	s, d := j.Spec, j.Data
+	r := Report{Spec: s.File, Title: s.Title}
+	r.Terms = TermsReport{InData: d.Terms, Rows: d.Rows, Selected: len(d.Series), Order: string(s.Order)}
+	for _, g := range d.Groups {
+		if g.Heading != "" {
+			r.Terms.Groups = append(r.Terms.Groups, fmt.Sprintf("%s (%d)", g.Heading, g.Count))
+		}
+	}
+	for _, sr := range d.Series {
+		r.Terms.List = append(r.Terms.List, sr.Term)
+	}
+	r.Years = YearsReport{From: d.Span.From, To: d.Span.To, Gaps: append([]int{}, d.Gaps...)}
+	r.Scale = ScaleReport{Values: string(s.Scale.Mode), Unit: d.Unit, YRange: string(s.Scale.YRange), YMax: d.YMax}
+	pal, err := j.CheckPalette()
+	if err != nil {
+		return r, err
+	}
+	var outs []*Output
+	for i := range s.Outputs {
+		o := &s.Outputs[i]
+		p, err := j.Prepare(o)
+		if err != nil {
+			return r, err
+		}
+		outs = append(outs, p)
+		or := OutputReport{Name: o.Name, Kind: string(o.Kind),
+			TrimPt: [2]float64{o.Trim.W.Pt(), o.Trim.H.Pt()}, Bleed: o.Bleed.Pt(),
+			Summary: p.Plan.Summary(), Pages: len(p.Plan.Pages), Layout: p.Plan}
+		for _, l := range p.Feature.Labels() {
+			if l.Shrunk || l.Truncated || l.NoPeak {
+				or.Labels = append(or.Labels, l)
+			}
+		}
+		for _, w := range p.Plan.Warnings {
+			or.Warnings = append(or.Warnings, w.String())
+		}
+		pc := pal[i].Report
+		or.Palette = PaletteSummary{Name: pal[i].Scale.Name(), Failed: pc.Failed(), Findings: []string{}}
+		for _, f := range pc.Findings {
+			or.Palette.Findings = append(or.Palette.Findings, f.String())
+		}
+		r.Outputs = append(r.Outputs, or)
+	}
+	// Inserts are laid out too: a missing term or a graphic too small for
+	// its plot is bad input here, as it is for build.
+	if _, err := j.PrepareInserts(); err != nil {
+		return r, err
+	}
+	r.Preflight, err = j.Preflight(outs)
+	if r.Preflight == nil {
+		r.Preflight = []preflight.Finding{}
+	}
+	return r, err
+}

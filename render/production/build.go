@@ -1,0 +1,1094 @@
+package production
+
+import (
+	"bufio"
+	"bytes"
+	"context"
+	"crypto/sha256"
+	"errors"
+	"fmt"
+	"image"
+	"image/png"
+	"io"
+	"os"
+	"path/filepath"
+	"runtime"
+	"sort"
+	"strings"
+	"sync"
+	"sync/atomic"
+	"syscall"
+	"time"
+
+	"github.com/tdewolff/canvas"
+
+	"sheaf/layout"
+	"sheaf/layout/fonts"
+	"sheaf/render/contact"
+	"sheaf/render/feature"
+	"sheaf/render/pdf"
+	"sheaf/render/preflight"
+	"sheaf/render/raster"
+	"sheaf/specs"
+)
+
+// Version is the version of sheaf's drawing code: it is written into
+// file metadata and into every inputs hash, so a new version redraws.
+const Version = "0.1.0"
+
+// Options are the settings of one build.
+type Options struct {
+	// Dir is the folder the outputs go to (sheaf's default: out/ beside
+	// the spec). It is replaced whole, by an atomic swap, when the build
+	// is complete.
+	Dir string
+	// Only builds the output with this name ("": all); the other
+	// outputs' files are kept from the last build.
+	Only string
+	// Strict stops the build before anything is written when preflight
+	// finds warnings or errors (as the spec's preflight.strict does).
+	Strict bool
+	// NoProofs writes no PNG proofs or contact sheet for print outputs.
+	NoProofs bool
+	// Full draws everything afresh instead of reusing the last build's
+	// pages and files.
+	Full bool
+	// Date is written into file metadata (see feature.DocumentDate).
+	Date time.Time
+	// Progress hears how the build goes; nil hears nothing.
+	Progress Progress
+	// Hooks are for tests: each runs at one point of the build, and an
+	// error from one fails the build.
+	Hooks Hooks
+}
+
+// Hooks run at fixed points of a build; each may be nil.
+type Hooks struct {
+	// BeforeEncode runs before a page is drawn for a PDF (not for a page
+	// reused from the cache); page counts from 1.
+	BeforeEncode func(output string, page int) error
+	// BeforeDraw runs before a screen output ("web") or an insert
+	// ("insert NAME") is drawn (not when its files are carried over).
+	BeforeDraw func(unit string) error
+	// BeforeCommit runs just before the stage folder is swapped in.
+	BeforeCommit func(stage string) error
+}
+
+// Progress hears how a build goes. Begin and Step may be called from
+// several goroutines at once.
+type Progress interface {
+	// Findings hands over preflight's findings, worst first, before
+	// anything is written.
+	Findings(fs []preflight.Finding)
+	// Begin starts a stage of total steps, such as "print: PDF pages".
+	Begin(stage string, total int)
+	// Step counts one step of the stage done.
+	Step()
+	// Warn tells of something the build worked around, such as a page
+	// too tall for a PNG.
+	Warn(msg string)
+}
+
+// ErrStrict is returned (wrapped) when strict preflight stopped a build
+// before it wrote anything.
+var ErrStrict = errors.New("strict preflight: stopped before writing anything (fix the warnings and errors found, or build without strictness)")
+
+// Result is what a build did.
+type Result struct {
+	// Files are the files written, with their paths in Dir.
+	Files []string
+	// Findings are preflight's, worst first.
+	Findings []preflight.Finding
+	// Changes says what changed since the last build.
+	Changes *ChangeReport
+}
+
+// Build renders every output of the job (or the one Options.Only names)
+// and its inserts into a stage folder beside Options.Dir, writes the
+// manifest and the change report, and swaps the stage in. Pages, screen
+// outputs and inserts whose inputs did not change since the last build
+// are reused. Bad input (a *specs.InputError) stops it before any file is
+// touched; a failure or a cancelled ctx leaves Dir as it was.
+//
+// job.Data may be nil: Build then loads the data itself, while it reads
+// what it needs of the last build.
+func Build(ctx context.Context, job *feature.Job, opts Options) (*Result, error) {
+	if opts.Progress == nil {
+		opts.Progress = silent{}
+	}
+	dir := opts.Dir
+	if dir == "" {
+		return nil, specs.BadInput(errors.New("no output folder given"))
+	}
+	if err := checkOutDir(dir); err != nil {
+		return nil, specs.BadInput(err)
+	}
+	spec := job.Spec
+	pre := startPrefetch(dir, spec, !opts.Full)
+	defer pre.stop() // no reading left running after the build
+	if job.Data == nil {
+		var err error
+		if job, err = feature.LoadData(spec); err != nil {
+			return nil, err
+		}
+	}
+	var outs []*specs.Output
+	for i := range spec.Outputs {
+		o := &spec.Outputs[i]
+		if opts.Only == "" || o.Name == opts.Only {
+			outs = append(outs, o)
+		}
+	}
+	if len(outs) == 0 {
+		var names []string
+		for _, o := range spec.Outputs {
+			names = append(names, o.Name)
+		}
+		return nil, specs.BadInput(fmt.Errorf("no output named %q; the spec has %v", opts.Only, names))
+	}
+	// Prepare every output first: bad input stops the build before any
+	// file is touched.
+	var preps []*feature.Output
+	for _, o := range outs {
+		p, err := job.Prepare(o)
+		if err != nil {
+			return nil, err
+		}
+		preps = append(preps, p)
+	}
+	// Text widths from the last build: fitting thousands of labels is
+	// otherwise most of a small rebuild's layout time.
+	if !opts.Full {
+		for _, p := range preps {
+			loadWidths(dir, p)
+		}
+	}
+	// Inserts too: a missing term or a graphic too small is bad input.
+	inserts, err := job.PrepareInserts()
+	if err != nil {
+		return nil, err
+	}
+	findings, err := job.Preflight(preps)
+	if err != nil {
+		return nil, err
+	}
+	res := &Result{Findings: findings}
+	// The widths asked for up to here (layout, labels, preflight) are the
+	// same for the same inputs, however many pages a build draws: they are
+	// what the cache keeps, so an incremental and a full build leave the
+	// same file.
+	widths := map[string][]byte{}
+	for _, p := range preps {
+		var buf bytes.Buffer
+		if err := p.Fonts.SaveWidths(&buf); err == nil {
+			widths[p.Spec.Name] = buf.Bytes()
+		}
+	}
+	opts.Progress.Findings(findings)
+	if (opts.Strict || spec.Preflight.Strict) && preflight.Stops(findings) {
+		return res, ErrStrict
+	}
+	b := &build{ctx: ctx, j: job, final: dir, date: opts.Date, only: opts.Only, noProofs: opts.NoProofs, full: opts.Full,
+		progress: opts.Progress, hooks: opts.Hooks, widths: widths, pre: pre, sums: map[string]fileSum{}, insertPreps: inserts}
+	files, err := b.run(preps)
+	if err != nil {
+		return res, err
+	}
+	res.Files, res.Changes = files, b.changes
+	return res, nil
+}
+
+// silent is the Progress of a build nobody watches.
+type silent struct{}
+
+func (silent) Findings([]preflight.Finding) {}
+func (silent) Begin(string, int)            {}
+func (silent) Step()                        {}
+func (silent) Warn(string)                  {}
+
+// FolderError says that the output folder is a file, or lies under
+// one: the user meant a folder.
+type FolderError struct {
+	Dir  string // the output folder as given
+	File string // the file in its way: Dir itself or a folder above it
+}
+
+func (e *FolderError) Error() string {
+	switch e.File {
+	case e.Dir:
+		return fmt.Sprintf("%s is a file; give a folder", e.Dir)
+	case "":
+		return fmt.Sprintf("%s: a part of the path is a file; give a folder", e.Dir)
+	}
+	return fmt.Sprintf("%s: %s is a file; give a folder", e.Dir, e.File)
+}
+
+// checkOutDir refuses an output folder that is a file, or lies under
+// one, before anything is read or written.
+func checkOutDir(dir string) error {
+	fi, err := os.Stat(dir)
+	switch {
+	case err == nil && !fi.IsDir():
+		return &FolderError{Dir: dir, File: dir}
+	case errors.Is(err, syscall.ENOTDIR):
+		for p := filepath.Dir(dir); p != filepath.Dir(p); p = filepath.Dir(p) {
+			if fi, err := os.Stat(p); err == nil && !fi.IsDir() {
+				return &FolderError{Dir: dir, File: p}
+			}
+		}
+		return &FolderError{Dir: dir}
+	}
+	return nil
+}
+
+// build is one run of `sheaf build`: everything is written into a stage
+// folder beside the final one, then swapped in.
+type build struct {
+	ctx      context.Context
+	j        *feature.Job
+	final    string // DIR
+	stage    *stage
+	date     time.Time
+	only     string
+	noProofs bool
+	full     bool
+	progress Progress
+	hooks    Hooks
+
+	prev         *Manifest
+	specSum      string
+	outputs      []OutputEntry
+	insertPreps  []*feature.Insert // every insert of the spec, laid out
+	inserts      []InsertEntry     // inserts built
+	insertsBuilt bool
+	meta         map[string]fileMeta // by file path relative to DIR
+	stats        []OutputStats
+	fonts        []FontHash
+	changes      *ChangeReport
+	widths       map[string][]byte // by output: its fonts' saved widths
+	pre          *prefetch
+	termsDone    chan struct{} // closed when termList and termMap are ready
+	termList     []TermHash    // termHashes of the data
+	termMap      map[string]string
+	sumsMu       sync.Mutex
+	sums         map[string]fileSum // files this build wrote, by slash path relative to the stage
+}
+
+// fileMeta is what the manifest says of a file beside its hash: the
+// pages it shows, its terms, its insert.
+type fileMeta struct {
+	pages  []PageEntry
+	terms  []string
+	insert string
+}
+
+// note records what a file of the stage shows, for the manifest.
+func (b *build) note(path string, m fileMeta) { b.meta[rel(b.stage.dir, path)] = m }
+
+// termSums maps every selected term to the hash of its data; it waits
+// for the hashing started with the build.
+func (b *build) termSums() map[string]string {
+	<-b.termsDone
+	return b.termMap
+}
+
+// OutputStats counts what a build did for one output or insert.
+type OutputStats struct {
+	Output       string `json:"output"`           // the output, or the one an insert borrows
+	Insert       string `json:"insert,omitempty"` // the insert's name
+	Kind         string `json:"kind"`             // print, screen or insert
+	Pages        int    `json:"pages"`
+	Encoded      int    `json:"encoded"`       // pages drawn (and encoded)
+	Reused       int    `json:"reused"`        // pages taken from the cache or the last build
+	ProofsDrawn  int    `json:"proofs_drawn"`  // proofs rasterized
+	ProofsReused int    `json:"proofs_reused"` // proofs kept from the last build
+	// Whole says, for a screen output or an insert (made or kept whole),
+	// "reused (inputs unchanged)" or "drawn (WHY)".
+	Whole string `json:"whole,omitempty"`
+}
+
+// drawReason says why a screen output or insert must be drawn, or ""
+// when its files may be carried over from the last build: have says the
+// last manifest has it, same that its inputs hash is this build's.
+func (b *build) drawReason(have, same bool) string {
+	switch {
+	case b.full:
+		return "--full"
+	case b.prev == nil:
+		return "first build"
+	case !have:
+		return "not in the last build"
+	case !same:
+		return "inputs changed"
+	}
+	return ""
+}
+
+// keepAll carries the last build's files of one output or insert into
+// the stage, when they are exactly the files this build would write
+// (want: stage paths) and each still has the SHA-256 the last manifest
+// recorded. Files are hashed on all cores; with a label, the progress
+// line counts them. On any miss it takes back
+// what it linked and reports false: the caller draws them.
+func (b *build) keepAll(label string, want []string, old []*FileEntry) bool {
+	if len(old) == 0 || len(old) != len(want) {
+		return false
+	}
+	wanted := map[string]bool{}
+	for _, w := range want {
+		wanted[rel(b.stage.dir, w)] = true
+	}
+	for _, f := range old {
+		if !wanted[f.Path] {
+			return false
+		}
+	}
+	if label != "" {
+		b.progress.Begin(label, len(old))
+	}
+	ok := make([]bool, len(old))
+	parallel(len(old), func(lo, hi int) {
+		for i := lo; i < hi && b.ctx.Err() == nil; i++ {
+			p := filepath.FromSlash(old[i].Path)
+			ok[i] = b.keep(filepath.Join(b.final, p), filepath.Join(b.stage.dir, p), old[i].SHA256)
+			if label != "" {
+				b.progress.Step()
+			}
+		}
+	})
+	all := true
+	for _, k := range ok {
+		all = all && k
+	}
+	if all {
+		return true
+	}
+	b.sumsMu.Lock()
+	defer b.sumsMu.Unlock()
+	for i, k := range ok {
+		if k {
+			os.Remove(filepath.Join(b.stage.dir, filepath.FromSlash(old[i].Path)))
+			delete(b.sums, old[i].Path)
+		}
+	}
+	return false
+}
+
+// run builds every prepared output into the stage and swaps it in. It
+// returns the files written, with their final paths.
+func (b *build) run(preps []*feature.Output) (files []string, err error) {
+	spec, err := os.ReadFile(b.j.Spec.File)
+	if err != nil {
+		return nil, err
+	}
+	b.specSum = sumBytes(spec)
+	b.pre.wait()
+	b.prev, err = b.pre.prev, b.pre.prevErr
+	if err != nil {
+		// A damaged manifest costs the change report and the cache, not the build.
+		b.progress.Warn(fmt.Sprintf("ignoring the previous manifest: %v", err))
+		b.prev = nil
+	}
+	b.stage, err = newStage(b.final)
+	if err != nil {
+		return nil, err
+	}
+	committed := false
+	defer func() {
+		if !committed { // an error, or a panic on its way up
+			b.stage.abort()
+		}
+	}()
+	// The terms' hashes are for the manifest at the end, and for screen
+	// outputs' inputs: they are taken while print pages are drawn.
+	b.termsDone = make(chan struct{})
+	go func() {
+		defer close(b.termsDone)
+		b.termList = termHashes(b.j.Data)
+		b.termMap = make(map[string]string, len(b.termList))
+		for _, t := range b.termList {
+			b.termMap[t.Term] = t.SHA256
+		}
+	}()
+	defer func() { <-b.termsDone }() // no hashing left running after the build
+	b.meta = map[string]fileMeta{}
+	for _, p := range preps {
+		if err := b.ctx.Err(); err != nil {
+			return nil, err
+		}
+		var written []string
+		if p.Spec.Kind == specs.Screen {
+			written, err = b.buildScreen(p)
+		} else {
+			written, err = b.buildPrint(p)
+		}
+		if err != nil {
+			return nil, fmt.Errorf("output %q: %w", p.Spec.Name, err)
+		}
+		if w, ok := b.widths[p.Spec.Name]; ok {
+			err := WriteAtomic(filepath.Join(b.stage.dir, CacheDir, p.Spec.Name, widthsFile), func(f io.Writer) error {
+				_, err := f.Write(w)
+				return err
+			})
+			if err != nil {
+				return nil, err
+			}
+		}
+		b.fonts = append(b.fonts, fontHashes(p.Spec.Name, p.Fonts)...)
+		files = append(files, written...)
+	}
+	// Inserts are built here, into b.stage.dir, when the spec has them.
+	if len(b.insertPreps) > 0 && (b.only == "" || feature.BorrowsOutput(b.j.Spec, b.only)) {
+		written, err := b.buildInserts(b.insertPreps)
+		if err != nil {
+			return nil, fmt.Errorf("inserts: %w", err)
+		}
+		b.insertsBuilt = true
+		files = append(files, written...)
+	}
+	if err := b.carry(); err != nil {
+		return nil, err
+	}
+	m, err := b.manifest()
+	if err != nil {
+		return nil, err
+	}
+	// The manifest is written while the change report is made from it.
+	wrote := make(chan error, 1)
+	go func() { wrote <- writeJSONFile(filepath.Join(b.stage.dir, ManifestFile), m) }()
+	b.changes = compareManifests(b.prev, m, b.stats)
+	if err := <-wrote; err != nil {
+		return nil, err
+	}
+	if err := writeJSONFile(filepath.Join(b.stage.dir, ChangesJSON), b.changes); err != nil {
+		return nil, err
+	}
+	if err := WriteAtomic(filepath.Join(b.stage.dir, ChangesText), b.changes.WriteText); err != nil {
+		return nil, err
+	}
+	if err := b.ctx.Err(); err != nil {
+		return nil, err
+	}
+	if h := b.hooks.BeforeCommit; h != nil {
+		if err := h(b.stage.dir); err != nil {
+			return nil, err
+		}
+	}
+	if err := b.stage.commit(); err != nil {
+		return nil, err
+	}
+	committed = true
+	for i, f := range files {
+		if rel, err := filepath.Rel(b.stage.dir, f); err == nil && !strings.HasPrefix(rel, "..") {
+			files[i] = filepath.Join(b.final, rel)
+		}
+	}
+	return files, nil
+}
+
+// OutputEntry lists an output's pages with their terms and input hashes.
+func (b *build) OutputEntry(p *feature.Output, dpi float64) OutputEntry {
+	e := OutputEntry{Name: p.Spec.Name, Kind: string(p.Spec.Kind), Proofs: dpi}
+	if len(p.Plan.Pages) == 0 {
+		return e
+	}
+	fontSum := fontsSum(p.Fonts)
+	e.Pages = make([]PageEntry, len(p.Plan.Pages))
+	parallel(len(e.Pages), func(lo, hi int) {
+		for i := lo; i < hi; i++ {
+			e.Pages[i] = PageEntry{Page: i + 1, Terms: pageTerms(b.j, p, i),
+				Inputs: pageInputs(b.j, p, i, b.setup(p, i), b.specSum, fontSum)}
+		}
+	})
+	return e
+}
+
+// PageBoxes converts a layout page's boxes for the PDF writer.
+func PageBoxes(pg *layout.Page) pdf.PageBoxes {
+	r := func(r layout.Rect) canvas.Rect { return canvas.Rect{X0: r.X0, Y0: r.Y0, X1: r.X1, Y1: r.Y1} }
+	return pdf.PageBoxes{Media: r(pg.Media), Bleed: r(pg.Bleed), Trim: r(pg.Trim)}
+}
+
+// setup is page i's boxes, marks and slug line. Screen pages have none.
+func (b *build) setup(p *feature.Output, i int) pdf.PageSetup {
+	if p.Spec.Kind != specs.Print {
+		return pdf.PageSetup{}
+	}
+	out := p.Spec
+	pg := &p.Plan.Pages[i]
+	setup := pdf.PageSetup{Boxes: PageBoxes(pg)}
+	if out.Marks {
+		setup.Marks = &pdf.MarkOptions{}
+	}
+	if out.SlugLine {
+		if setup.Marks == nil {
+			setup.Marks = &pdf.MarkOptions{Length: 0.001}
+		}
+		setup.Slug = fmt.Sprintf("%s · %s · page %d of %d · %s", b.j.Spec.Title, out.Name, i+1, len(p.Plan.Pages), b.date.Format("2006-01-02"))
+	}
+	return setup
+}
+
+// buildPrint writes the PDF, the proofs and the contact sheet of a print
+// output into the stage and returns the files written.
+func (b *build) buildPrint(p *feature.Output) ([]string, error) {
+	out := p.Spec
+	dpi := 0.0
+	if !b.noProofs {
+		dpi = p.Spec.Proofs
+		if dpi <= 0 {
+			dpi = 100
+		}
+	}
+	entry := b.OutputEntry(p, dpi)
+	st := OutputStats{Output: out.Name, Kind: string(out.Kind), Pages: len(entry.Pages)}
+	odir := filepath.Join(b.stage.dir, out.Name)
+	pdfPath := filepath.Join(odir, out.Name+".pdf")
+	// Pages go into the PDF as they are ready, in order, while later ones
+	// are still being drawn.
+	var encErr error
+	err := b.writeHashed(pdfPath, func(w io.Writer) error {
+		pw := pdf.NewWriter(w, pdf.Options{Title: b.j.Spec.Title, Version: Version, Date: b.date})
+		// Pages from the cache name their fonts by hash only.
+		for _, st := range []fonts.Style{fonts.Regular, fonts.Bold, fonts.Italic} {
+			if _, err := pw.RegisterFont(p.Fonts.Font(st)); err != nil {
+				return err
+			}
+		}
+		var addErr error
+		encErr = b.encodePages(p, entry.Pages, &st, func(e *pdf.EncodedPage) bool {
+			addErr = pw.AddEncoded(e)
+			return addErr == nil
+		})
+		switch {
+		case encErr != nil:
+			return encErr
+		case addErr != nil:
+			return addErr
+		}
+		return pw.Close()
+	})
+	if encErr != nil {
+		return nil, encErr
+	}
+	if err != nil {
+		return nil, err
+	}
+	b.note(pdfPath, fileMeta{pages: entry.Pages})
+	files := []string{pdfPath}
+	if dpi > 0 {
+		proofs, err := b.writeProofs(p, entry.Pages, dpi, odir, &st)
+		if err != nil {
+			return nil, err
+		}
+		files = append(files, proofs...)
+	}
+	b.outputs = append(b.outputs, entry)
+	b.stats = append(b.stats, st)
+	return files, nil
+}
+
+func rel(root, path string) string {
+	r, err := filepath.Rel(root, path)
+	if err != nil {
+		return filepath.ToSlash(path)
+	}
+	return filepath.ToSlash(r)
+}
+
+// encodePages hands every page, encoded for the PDF, to add in page order
+// as soon as it and the pages before it are ready; pages are drawn in
+// parallel. A page whose inputs hash is in the previous build's cache is
+// taken from it; the others are drawn and encoded and go into the new
+// cache. It stops when add reports false.
+func (b *build) encodePages(p *feature.Output, pages []PageEntry, st *OutputStats, add func(*pdf.EncodedPage) bool) error {
+	out := p.Spec.Name
+	oldCache := filepath.Join(b.final, CacheDir, out)
+	newCache := filepath.Join(b.stage.dir, CacheDir, out)
+	if err := os.MkdirAll(newCache, 0o755); err != nil {
+		return err
+	}
+	n := len(pages)
+	res := make([]*pdf.EncodedPage, n)
+	errs := make([]error, n)
+	done := make([]chan struct{}, n)
+	for i := range done {
+		done[i] = make(chan struct{})
+	}
+	var encodedN, reusedN atomic.Int64
+	var stop atomic.Bool
+	b.progress.Begin(out+": PDF pages", n)
+	work := make(chan int, n)
+	for i := range n {
+		work <- i
+	}
+	close(work)
+	var wg sync.WaitGroup
+	for range runtime.GOMAXPROCS(0) {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			for i := range work {
+				b.encodeOne(p, i, pages[i].Inputs+".page", oldCache, newCache, &stop, &encodedN, &reusedN, &res[i], &errs[i])
+				close(done[i])
+			}
+		}()
+	}
+	var first error // the first page in order that failed
+	for i := range n {
+		<-done[i]
+		if errs[i] != nil {
+			first = fmt.Errorf("page %d: %w", i+1, errs[i])
+			break
+		}
+		if !add(res[i]) {
+			break
+		}
+		res[i] = nil // the writer has it
+	}
+	stop.Store(true)
+	wg.Wait()
+	if err := b.ctx.Err(); err != nil {
+		return err
+	}
+	st.Encoded, st.Reused = int(encodedN.Load()), int(reusedN.Load())
+	return first
+}
+
+// encodeOne takes page i from the old cache or draws and encodes it.
+func (b *build) encodeOne(p *feature.Output, i int, name, oldCache, newCache string, stop *atomic.Bool, encodedN, reusedN *atomic.Int64, res **pdf.EncodedPage, errp *error) {
+	if stop.Load() {
+		*errp = errors.New("stopped")
+		return
+	}
+	if err := b.ctx.Err(); err != nil {
+		*errp = err
+		return
+	}
+	if !b.full {
+		if e, ok := b.reuse(filepath.Join(oldCache, name), filepath.Join(newCache, name)); ok {
+			*res = e
+			reusedN.Add(1)
+			b.progress.Step()
+			return
+		}
+	}
+	e, err := b.encode(p, i)
+	if err == nil {
+		err = WriteAtomic(filepath.Join(newCache, name), func(w io.Writer) error { return writeCachedPage(w, e) })
+	}
+	*res, *errp = e, err
+	encodedN.Add(1)
+	b.progress.Step()
+}
+
+// encode draws and encodes page i.
+func (b *build) encode(p *feature.Output, i int) (*pdf.EncodedPage, error) {
+	if h := b.hooks.BeforeEncode; h != nil {
+		if err := h(p.Spec.Name, i+1); err != nil {
+			return nil, err
+		}
+	}
+	return pdf.EncodePage(b.setup(p, i), func(c *canvas.Canvas) error { return p.Feature.Draw(canvas.NewContext(c), i) })
+}
+
+// widthsFile holds an output's text widths between builds (see
+// fonts.Set.SaveWidths), beside its cached pages.
+const widthsFile = "text-widths"
+
+// loadWidths gives p's fonts the widths the last build saved. A missing,
+// damaged or outdated file costs only the time to measure again.
+func loadWidths(dir string, p *feature.Output) {
+	f, err := os.Open(filepath.Join(dir, CacheDir, p.Spec.Name, widthsFile))
+	if err != nil {
+		return
+	}
+	defer f.Close()
+	p.Fonts.LoadWidths(f)
+}
+
+// reuse reads a cached page, or takes it as prefetched, and links it into
+// the new cache. Any problem (missing, unreadable, damaged) means: encode
+// it again.
+func (b *build) reuse(old, new string) (*pdf.EncodedPage, bool) {
+	e, ok := b.pre.pages[old]
+	if !ok {
+		e = readCachedPage(old)
+	}
+	if e == nil {
+		return nil, false
+	}
+	if err := linkOrCopy(old, new); err != nil {
+		return nil, false
+	}
+	return e, true
+}
+
+// readCachedPage decodes an encoded page from the cache; nil when it is
+// missing, unreadable or damaged.
+func readCachedPage(path string) *pdf.EncodedPage {
+	data, err := os.ReadFile(path)
+	if err != nil {
+		return nil
+	}
+	e, err := decodeCachedPage(data)
+	if err != nil || len(e.Content) == 0 {
+		return nil
+	}
+	return e
+}
+
+// prefetch reads, beside the data, what a build needs from the last one:
+// its manifest, the SHA-256 of the data files and, unless the build is
+// full, the cached pages the manifest lists, decoded. The data read is one
+// core's work; this is the other's.
+type prefetch struct {
+	done    chan struct{}
+	stopped atomic.Bool
+	prev    *Manifest
+	prevErr error
+	data    map[string]fileSum          // by resolved path
+	pages   map[string]*pdf.EncodedPage // by cache file path; nil for a damaged one
+}
+
+type fileSum struct {
+	sum  string
+	size int64
+}
+
+func startPrefetch(dir string, s *specs.Spec, pages bool) *prefetch {
+	p := &prefetch{done: make(chan struct{}), data: map[string]fileSum{}, pages: map[string]*pdf.EncodedPage{}}
+	go func() {
+		defer close(p.done)
+		p.prev, p.prevErr = ReadManifest(dir)
+		if p.stopped.Load() {
+			return
+		}
+		for _, d := range []string{s.Data.Counts, s.Data.Totals} {
+			path := s.Resolve(d)
+			if sum, size, err := sumFile(path); err == nil {
+				p.data[path] = fileSum{sum, size}
+			}
+		}
+		if !pages || p.prev == nil {
+			return
+		}
+		for _, o := range p.prev.Outputs {
+			if o.Kind != string(specs.Print) {
+				continue
+			}
+			for _, pg := range o.Pages {
+				if p.stopped.Load() {
+					return
+				}
+				path := filepath.Join(dir, CacheDir, o.Name, pg.Inputs+".page")
+				p.pages[path] = readCachedPage(path)
+			}
+		}
+	}()
+	return p
+}
+
+func (p *prefetch) wait() { <-p.done }
+
+// stop ends the reading early and waits for it.
+func (p *prefetch) stop() {
+	p.stopped.Store(true)
+	<-p.done
+}
+
+// writeProofs writes a PNG of every page's trim area, pages in parallel,
+// and the contact sheet. A proof whose page inputs and resolution match
+// the previous build's, and whose file is intact, is kept instead of
+// drawn again.
+func (b *build) writeProofs(p *feature.Output, pages []PageEntry, dpi float64, odir string, st *OutputStats) ([]string, error) {
+	n := len(pages)
+	prevOut := b.prev.Output(p.Spec.Name)
+	files := make([]string, n)
+	fresh := make([]image.Image, n) // drawn this build; nil when kept
+	errs := make([]error, n)
+	kept := make([]bool, n)
+	b.progress.Begin(p.Spec.Name+": proofs", n)
+	sem := make(chan struct{}, runtime.GOMAXPROCS(0))
+	var wg sync.WaitGroup
+	for i := range n {
+		if b.ctx.Err() != nil {
+			break
+		}
+		path := filepath.Join(odir, "proofs", fmt.Sprintf("page-%03d.png", i+1))
+		files[i] = path
+		relp := rel(b.stage.dir, path)
+		b.note(path, fileMeta{pages: pages[i : i+1]})
+		if !b.full && prevOut != nil && prevOut.Proofs == dpi {
+			if old := b.prev.File(relp); old != nil && len(old.Pages) == 1 && old.Pages[0].Inputs == pages[i].Inputs {
+				if b.keep(filepath.Join(b.final, relp), path, old.SHA256) {
+					kept[i] = true
+					st.ProofsReused++
+					b.progress.Step()
+					continue
+				}
+			}
+		}
+		st.ProofsDrawn++
+		wg.Add(1)
+		sem <- struct{}{}
+		go func(i int) {
+			defer func() { <-sem; wg.Done() }()
+			defer b.progress.Step()
+			pg := &p.Plan.Pages[i]
+			region := raster.RegionOf(pg.Media.H(), dpi, pg.Trim.X0, pg.Trim.Y0, pg.Trim.X1, pg.Trim.Y1)
+			trim, err := raster.DrawRegion(pg.Media.H(), dpi, region, p.Feature.PaperColor(), func(ctx *canvas.Context) error {
+				return p.Feature.Draw(ctx, i)
+			})
+			if err != nil {
+				errs[i] = err
+				return
+			}
+			if err := b.writeHashed(files[i], func(w io.Writer) error { return raster.WritePNG(w, trim) }); err != nil {
+				errs[i] = err
+				return
+			}
+			fresh[i] = trim
+		}(i)
+	}
+	wg.Wait()
+	if err := b.ctx.Err(); err != nil {
+		return nil, err
+	}
+	if err := errors.Join(errs...); err != nil {
+		return nil, err
+	}
+	cpath := filepath.Join(odir, "contact.png")
+	files = append(files, cpath)
+	crel := rel(b.stage.dir, cpath)
+	b.note(cpath, fileMeta{pages: pages})
+	if st.ProofsDrawn == 0 && prevOut != nil && samePages(prevOut.Pages, pages) {
+		if old := b.prev.File(crel); old != nil && b.keep(filepath.Join(b.final, crel), cpath, old.SHA256) {
+			for _, pg := range pages { // keep the thumbnails for the next build
+				name := fmt.Sprintf("%s-%g.thumb.png", pg.Inputs, dpi)
+				linkOrCopy(filepath.Join(b.final, CacheDir, p.Spec.Name, name), filepath.Join(b.stage.dir, CacheDir, p.Spec.Name, name))
+			}
+			return files, nil
+		}
+	}
+	// Thumbnails are cached beside the pages: scaling 84 proofs down costs
+	// more than the one page that changed.
+	thumbs := make([]image.Image, n)
+	errs = make([]error, n)
+	for i := range n {
+		wg.Add(1)
+		sem <- struct{}{}
+		go func(i int) {
+			defer func() { <-sem; wg.Done() }()
+			thumbs[i], errs[i] = b.thumbnail(p.Spec.Name, pages[i].Inputs, dpi, fresh[i], files[i])
+		}(i)
+	}
+	wg.Wait()
+	if err := errors.Join(errs...); err != nil {
+		return nil, err
+	}
+	sheet := contact.Sheet(thumbs, 4)
+	if err := b.writeHashed(cpath, func(w io.Writer) error { return raster.WritePNG(w, sheet) }); err != nil {
+		return nil, err
+	}
+	return files, nil
+}
+
+// thumbnail returns a page's contact-sheet thumbnail: from the previous
+// build's cache when the page and resolution are the same, else scaled
+// from the proof (drawn now, or read back from its PNG, which holds the
+// same pixels) and cached.
+func (b *build) thumbnail(output, inputs string, dpi float64, img image.Image, proof string) (image.Image, error) {
+	name := fmt.Sprintf("%s-%g.thumb.png", inputs, dpi)
+	old := filepath.Join(b.final, CacheDir, output, name)
+	cur := filepath.Join(b.stage.dir, CacheDir, output, name)
+	if img == nil && !b.full {
+		if f, err := os.Open(old); err == nil {
+			t, err := png.Decode(f)
+			f.Close()
+			if err == nil && linkOrCopy(old, cur) == nil {
+				return t, nil
+			}
+		}
+	}
+	if img == nil {
+		f, err := os.Open(proof)
+		if err != nil {
+			return nil, err
+		}
+		img, err = png.Decode(f)
+		f.Close()
+		if err != nil {
+			return nil, fmt.Errorf("reading proof %s: %w", proof, err)
+		}
+	}
+	t := contact.Thumbnail(img, 240)
+	if err := WriteAtomic(cur, func(w io.Writer) error { return raster.WritePNG(w, t) }); err != nil {
+		return nil, err
+	}
+	return t, nil
+}
+
+func samePages(a, b []PageEntry) bool {
+	if len(a) != len(b) {
+		return false
+	}
+	for i := range a {
+		if a[i].Inputs != b[i].Inputs {
+			return false
+		}
+	}
+	return true
+}
+
+// keep links the previous build's file into the stage when its content
+// is still what the previous manifest recorded.
+func (b *build) keep(old, new, sum string) bool {
+	got, size, err := sumFile(old)
+	if err != nil || got != sum {
+		return false
+	}
+	if err := os.MkdirAll(filepath.Dir(new), 0o755); err != nil {
+		return false
+	}
+	if linkOrCopy(old, new) != nil {
+		return false
+	}
+	b.known(new, fileSum{got, size})
+	return true
+}
+
+// writeHashed is WriteAtomic that also hashes what it writes, so that the
+// manifest need not read the file back. The hashing runs beside the
+// writing, on 64 KiB blocks.
+func (b *build) writeHashed(path string, fill func(w io.Writer) error) error {
+	h := sha256.New()
+	var n int64
+	blocks := make(chan []byte, 8)
+	free := make(chan []byte, 10)
+	hashed := make(chan struct{})
+	go func() {
+		for p := range blocks {
+			h.Write(p)
+			select {
+			case free <- p[:0]:
+			default:
+			}
+		}
+		close(hashed)
+	}()
+	err := WriteAtomic(path, func(w io.Writer) error {
+		bw := bufio.NewWriterSize(writerFunc(func(p []byte) (int, error) {
+			var c []byte
+			select {
+			case c = <-free:
+			default:
+			}
+			blocks <- append(c, p...)
+			k, err := w.Write(p)
+			n += int64(k)
+			return k, err
+		}), 64<<10)
+		if err := fill(bw); err != nil {
+			return err
+		}
+		return bw.Flush()
+	})
+	close(blocks)
+	<-hashed
+	if err == nil {
+		b.known(path, fileSum{hexSum(h), n})
+	}
+	return err
+}
+
+// known records the hash of a file in the stage.
+func (b *build) known(path string, fs fileSum) {
+	b.sumsMu.Lock()
+	b.sums[rel(b.stage.dir, path)] = fs
+	b.sumsMu.Unlock()
+}
+
+type writerFunc func(p []byte) (int, error)
+
+func (f writerFunc) Write(p []byte) (int, error) { return f(p) }
+
+// manifest describes the stage as it will be swapped in.
+func (b *build) manifest() (*Manifest, error) {
+	s := b.j.Spec
+	m := &Manifest{Sheaf: Version, Spec: FileHash{Path: filepath.Base(s.File), SHA256: b.specSum}}
+	for _, d := range []string{s.Data.Counts, s.Data.Totals} {
+		fs, ok := b.pre.data[s.Resolve(d)]
+		if !ok {
+			sum, size, err := sumFile(s.Resolve(d))
+			if err != nil {
+				return nil, err
+			}
+			fs = fileSum{sum, size}
+		}
+		m.Data = append(m.Data, FileHash{Path: d, SHA256: fs.sum})
+	}
+	<-b.termsDone
+	m.Terms = b.termList
+	m.Fonts = b.fonts
+	m.Inserts = b.inserts
+	m.Outputs = b.outputs
+	built := map[string]bool{}
+	for _, o := range b.outputs {
+		built[o.Name] = true
+	}
+	// Outputs kept from the last build (--only) keep their entries.
+	if b.prev != nil {
+		for _, o := range b.prev.Outputs {
+			if !built[o.Name] && b.stage.carried[o.Name] {
+				m.Outputs = append(m.Outputs, o)
+			}
+		}
+		for _, f := range b.prev.Fonts {
+			if !built[f.Output] && b.stage.carried[f.Output] {
+				m.Fonts = append(m.Fonts, f)
+			}
+		}
+		// Inserts not built (--only an output none borrows) keep theirs.
+		if !b.insertsBuilt && b.stage.carried[""] {
+			m.Inserts = b.prev.Inserts
+		}
+	}
+	order := map[string]int{}
+	for i, o := range s.Outputs {
+		order[o.Name] = i
+	}
+	sort.SliceStable(m.Outputs, func(i, j int) bool { return order[m.Outputs[i].Name] < order[m.Outputs[j].Name] })
+	sort.SliceStable(m.Fonts, func(i, j int) bool { return order[m.Fonts[i].Output] < order[m.Fonts[j].Output] })
+
+	entries, err := os.ReadDir(b.stage.dir)
+	if err != nil {
+		return nil, err
+	}
+	for _, e := range entries {
+		name := e.Name()
+		if strings.HasPrefix(name, ".") || name == ManifestFile || name == ChangesJSON || name == ChangesText || b.stage.foreign[name] {
+			continue
+		}
+		output := ""
+		if s.Output(name) != nil {
+			output = name
+		}
+		fs, err := hashFiles(b.stage.dir, name, output, b.sums)
+		if err != nil {
+			return nil, err
+		}
+		for i := range fs {
+			if md, ok := b.meta[fs[i].Path]; ok {
+				fs[i].Pages, fs[i].Terms, fs[i].Insert = md.pages, md.terms, md.insert
+			} else if !built[output] {
+				if old := b.prev.File(fs[i].Path); old != nil {
+					fs[i].Pages, fs[i].Terms, fs[i].Insert = old.Pages, old.Terms, old.Insert
+				}
+			}
+		}
+		m.Files = append(m.Files, fs...)
+	}
+	sort.Slice(m.Files, func(i, j int) bool { return m.Files[i].Path < m.Files[j].Path })
+	return m, nil
+}

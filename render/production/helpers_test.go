@@ -1,0 +1,43 @@
+package production
+
+import (
+	"os"
+	"path/filepath"
+	"testing"
+
+	"sheaf/render/feature"
+)
+
+// demoJob loads a print spec over the demo's data (the 60 most used
+// terms on A5 pages), written into a fresh folder; extra is added at the
+// top level of the spec.
+func demoJob(t testing.TB, extra string) *feature.Job {
+	t.Helper()
+	data, err := filepath.Abs("../../examples/quillmere/data")
+	if err != nil {
+		t.Fatal(err)
+	}
+	spec := `title: Production test
+date: 2026-01-15
+data: {counts: ` + filepath.Join(data, "counts.csv") + `, totals: ` + filepath.Join(data, "totals.csv") + `}
+years: {from: 1868, to: 2025}
+terms: {top: 60}
+scale: {values: own-peak}
+outputs:
+  print:
+    kind: print
+    trim: A5
+    columns: 4
+    slug-line: true
+    proofs: 40
+` + extra
+	path := filepath.Join(t.TempDir(), "spec.yaml")
+	if err := os.WriteFile(path, []byte(spec), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	j, err := feature.Load(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return j
+}

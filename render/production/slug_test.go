@@ -1,0 +1,47 @@
+package production
+
+import (
+	"fmt"
+	"regexp"
+	"strings"
+	"testing"
+)
+
+// TestSlug names panel files safely. The folding follows Unicode NFKD
+// (UAX #15: "é" = "e" + U+0301, "ﬁ" → "fi"); the spelled-out letters are
+// common practice for ASCII file names.
+func TestSlug(t *testing.T) {
+	for _, c := range []struct{ term, want string }{
+		{"boiler", "boiler"},
+		{"Café au lait", "cafe-au-lait"},        // NFKD drops the accent
+		{"Maßstab", "massstab"},                 // ß has no decomposition: spelled ss
+		{"Ærø", "aero"},                         // Æ, ø spelled out
+		{"ﬁre-engine", "fire-engine"},           // compatibility ligature (NFKD)
+		{"3D printing", "3d-printing"},          // digits kept
+		{"gas–lit bridge", "gas-lit-bridge"},    // en dash separates
+		{"../../etc/passwd", "etc-passwd"},      // no path characters survive
+		{`a\b:c*d?"e<f>g|h`, "a-b-c-d-e-f-g-h"}, // Windows' forbidden characters
+		{"  spaced   out  ", "spaced-out"},      // no leading, trailing or double hyphens
+		{"R&D", "randd"},                        // & spelled out
+		{"αβ", "u3b1-u3b2"},                     // no Latin letter: code points, no percent sign
+		{"電報", "u96fb-u5831"},                   // CJK likewise
+		{"   ", "term"},                         // nothing at all
+		{strings.Repeat("word ", 30), strings.TrimRight(strings.Repeat("word-", 13), "-")}, // 64-byte cap
+	} {
+		got := Slug(c.term)
+		if got != c.want {
+			t.Errorf("slug(%q) = %q, want %q", c.term, got, c.want)
+		}
+		if !regexp.MustCompile(`^[a-z0-9]+(-[a-z0-9]+)*$`).MatchString(got) || len(got) > maxSlug {
+			t.Errorf("slug(%q) = %q is not a safe file name stem", c.term, got)
+		}
+	}
+	used := map[string]bool{}
+	var got []string
+	for _, s := range []string{"cafe", "cafe", "cafe-2", "cafe"} {
+		got = append(got, uniqueSlug(s, used))
+	}
+	if want := []string{"cafe", "cafe-2", "cafe-2-2", "cafe-3"}; fmt.Sprint(got) != fmt.Sprint(want) {
+		t.Errorf("collisions named %v, want %v", got, want)
+	}
+}
