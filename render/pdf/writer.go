@@ -28,7 +28,7 @@
 // can be encoded before the document knows all glyphs. An EncodedPage names
 // fonts by FontKey (SHA-256 of the font tables); pages made by EncodePage
 // carry the font, pages restored from a cache need Writer.RegisterFont.
-// The slug font, Go Regular, is always registered.
+// The slug font, DejaVu Sans Condensed, is always registered.
 //
 // Limits, each reported or handled rather than written wrong: raster
 // images and hatch patterns are errors; CFF2-outline fonts, vertical text,
