@@ -385,3 +385,25 @@ func FuzzFontFile(f *testing.F) {
 		_ = s.set(Regular, b, "", 0)
 	})
 }
+
+func TestFiguresAreTabularLining(t *testing.T) {
+	// EB Garamond's default figures are old-style and proportional: '1'
+	// is narrower than '0'. Regular text is shaped with lnum (lining,
+	// still proportional); Figures with lnum and tnum (every digit one
+	// advance). The default face's figures are tabular already (DejaVu
+	// Sans Condensed: all ten digits one advance, read from its hmtx by
+	// canvas here and equal under both styles).
+	eb := ebGaramond(t)
+	spec, out := specIn(t, specHead+"    fonts: {regular: eb.otf}\n", map[string][]byte{"eb.otf": eb})
+	s, err := Load(spec, out)
+	require.NoError(t, err)
+	assert.NotEqual(t, s.Width(Regular, 10, "1111"), s.Width(Regular, 10, "0000"), "proportional figures in text")
+	assert.InDelta(t, s.Width(Figures, 10, "1111"), s.Width(Figures, 10, "0000"), 1e-9, "tabular figures")
+	assert.InDelta(t, s.Width(Figures, 10, "1868"), s.Width(Figures, 10, "2025"), 1e-9, "tabular figures")
+
+	d := mustDefault(t)
+	for _, st := range []Style{Regular, Figures} {
+		assert.InDelta(t, d.Width(st, 10, "1111"), d.Width(st, 10, "0000"), 1e-9, st.String())
+	}
+	assert.Equal(t, d.Width(Regular, 7, "1868 2025"), d.Width(Figures, 7, "1868 2025"))
+}

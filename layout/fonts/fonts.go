@@ -34,6 +34,10 @@ const (
 	Regular Style = iota
 	Bold
 	Italic
+	// Figures is the regular face shaped with tabular lining figures
+	// (OpenType lnum and tnum), for tick labels and columns of numbers;
+	// in a face without those features it is the regular face.
+	Figures
 	numStyles
 )
 
@@ -45,6 +49,8 @@ func (s Style) String() string {
 		return "bold"
 	case Italic:
 		return "italic"
+	case Figures:
+		return "figures"
 	}
 	return fmt.Sprintf("Style(%d)", int(s))
 }
@@ -160,6 +166,12 @@ func Load(spec *specs.Spec, out *specs.Output) (*Set, error) {
 		s.raw[Italic], s.path[Italic], s.face[Italic], s.fonts[Italic], s.emb[Italic] =
 			s.raw[Regular], s.path[Regular], s.face[Regular], s.fonts[Regular], s.emb[Regular]
 	}
+	// The same bytes parsed again: canvas keeps features per font.
+	if err := s.set(Figures, s.raw[Regular], s.path[Regular], 0); err != nil {
+		return nil, err
+	}
+	s.face[Figures] = s.face[Regular]
+	s.fonts[Figures].SetFeatures(figureFeatures)
 	return s, nil
 }
 
@@ -200,6 +212,10 @@ func Default() (*Set, error) {
 // in faces whose default figures are old-style. Faces without the feature
 // keep their own figures.
 const features = "lnum"
+
+// figureFeatures add tabular figures (tnum): every digit one advance
+// wide, so numbers in a column or under ticks line up.
+const figureFeatures = "lnum,tnum"
 
 // set parses face i of b. Font files come from users, so a panic inside
 // the parser is turned into an error rather than taking the program down.

@@ -146,7 +146,7 @@ func (s *Set) identity() [sha256.Size]byte {
 		h.Write(sum[:])
 		fmt.Fprintf(h, "face %d\n", s.face[st])
 	}
-	h.Write([]byte(features + "\n"))
+	h.Write([]byte(features + "\n" + figureFeatures + "\n"))
 	if bi, ok := debug.ReadBuildInfo(); ok {
 		for _, d := range bi.Deps {
 			if strings.HasPrefix(d.Path, "github.com/tdewolff/") || strings.HasPrefix(d.Path, "github.com/go-text/") {

@@ -227,7 +227,7 @@ func (g *Graphic) layout() error {
 	// Left: the y labels; right: the line-end labels.
 	left := 0.0
 	for _, v := range g.yTicks {
-		left = math.Max(left, fs.Width(fonts.Regular, ts, formatValue(v)))
+		left = math.Max(left, fs.Width(fonts.Figures, ts, formatValue(v)))
 	}
 	ls := t.Label.Pt()
 	right := 0.0
@@ -358,7 +358,7 @@ func (g *Graphic) Draw(ctx *canvas.Context) error {
 		}
 		line(ctx, pr.X0, yy, pr.X1, yy, g.rule, col, nil)
 		mt := fs.Metrics(fonts.Regular, ts)
-		text(ctx, fs, fonts.Regular, ts, inkSoft, pr.X0-ts*0.6, yy-mt.CapHeight/2, canvas.Right, formatValue(v))
+		text(ctx, fs, fonts.Figures, ts, inkSoft, pr.X0-ts*0.6, yy-mt.CapHeight/2, canvas.Right, formatValue(v))
 	}
 	// What the values are, above the y labels.
 	text(ctx, fs, fonts.Regular, ts, inkSoft, g.pad, pr.Y1+ts*1.1, canvas.Left, g.Data.Unit)
@@ -369,7 +369,7 @@ func (g *Graphic) Draw(ctx *canvas.Context) error {
 	for _, yr := range tickYears(fs, g.Data.Span, pr.W(), ts) {
 		x := g.m.X(float64(yr))
 		line(ctx, x, pr.Y0, x, pr.Y0-tick, g.rule, axisGrey, nil)
-		text(ctx, fs, fonts.Regular, ts, inkSoft, x, base, canvas.Center, strconv.Itoa(yr))
+		text(ctx, fs, fonts.Figures, ts, inkSoft, x, base, canvas.Center, strconv.Itoa(yr))
 	}
 
 	// The lines, first term on top: drawn last.
@@ -464,7 +464,7 @@ func (g *Graphic) colorAt(x float64) color.RGBA {
 
 // tickYears picks round years whose labels leave an em between them.
 func tickYears(fs *fonts.Set, span specs.Span, width, size float64) []int {
-	label := fs.Width(fonts.Regular, size, "0000") + size
+	label := fs.Width(fonts.Figures, size, "0000") + size
 	perYear := width / float64(span.To-span.From)
 	for _, s := range []int{5, 10, 20, 25, 50, 100, 200, 250, 500, 1000} {
 		if float64(s)*perYear >= label {

@@ -221,7 +221,7 @@ func AddStops(g *canvas.LinearGradient, stops []palette.Stop, from, to float64) 
 // labels.
 func (f *Feature) tickYears(width, size float64) []int {
 	span := f.Data.Span
-	label := f.Fonts.Width(fonts.Regular, size, "0000") + size
+	label := f.Fonts.Width(fonts.Figures, size, "0000") + size
 	perYear := width / float64(span.To-span.From)
 	step := 0
 	for _, s := range []int{5, 10, 20, 25, 50, 100, 200, 250, 500, 1000} {
@@ -341,7 +341,7 @@ func (f *Feature) ticks(p pen, pn layout.Panel) {
 	}
 	for _, y := range years {
 		x := pr.X0 + (float64(y)-from)/(to-from)*pr.W()
-		p.text(fonts.Regular, size, inkSoft, x, base, canvas.Center, strconv.Itoa(y))
+		p.text(fonts.Figures, size, inkSoft, x, base, canvas.Center, strconv.Itoa(y))
 	}
 }
 

@@ -107,3 +107,53 @@ func TestEmbeddedSubsetLiningFigures(t *testing.T) {
 	}
 	assert.NotZero(t, sub.GlyphIndex('M'), "other characters still map")
 }
+
+// TestVariantFontGetsItsOwnFamily: the same face shaped two ways (text
+// with lnum, tick labels with lnum and tnum, as sheaf's fonts.Set gives
+// them) are two fonts of one weight and slant; CSS picks one @font-face
+// per family, weight and slant, so the second gets a family of its own
+// (named through a class on its text), and each subset maps the digits to
+// the glyphs drawn with it.
+func TestVariantFontGetsItsOwnFamily(t *testing.T) {
+	out, err := exec.Command("go", "list", "-m", "-f", "{{.Dir}}", "github.com/tdewolff/font").Output()
+	if err != nil {
+		t.Skipf("tdewolff/font not in the module cache: %v", err)
+	}
+	b, err := os.ReadFile(filepath.Join(strings.TrimSpace(string(out)), "resources", "EBGaramond12-Regular.otf"))
+	require.NoError(t, err)
+	text, err := canvas.LoadFont(b, 0, canvas.FontRegular)
+	require.NoError(t, err)
+	text.SetFeatures("lnum")
+	figs, err := canvas.LoadFont(b, 0, canvas.FontRegular)
+	require.NoError(t, err)
+	figs.SetFeatures("lnum,tnum")
+
+	d, err := New(200, 50, Options{EmbedFonts: true, FontFamily: "serif"})
+	require.NoError(t, err)
+	ctx := canvas.NewContext(d)
+	ctx.DrawText(10*mm, 30*mm, canvas.NewTextLine(text.Face(10, canvas.Black), "Words 1868", canvas.Left))
+	ctx.DrawText(10*mm, 10*mm, canvas.NewTextLine(figs.Face(8, canvas.Black), "1868", canvas.Center))
+	var buf strings.Builder
+	_, err = d.WriteTo(&buf)
+	require.NoError(t, err)
+	s := buf.String()
+
+	fams := regexp.MustCompile(`@font-face\{font-family:"([^"]+)";font-weight:normal;font-style:normal;src:url\(data:font/otf;base64,([A-Za-z0-9+/=]+)\)`).FindAllStringSubmatch(s, -1)
+	require.Len(t, fams, 2)
+	assert.Equal(t, fams[0][1]+"-v1", fams[1][1])
+	assert.Contains(t, s, `.sheaf-v1{font-family:"`+fams[1][1]+`", serif}`)
+	assert.Regexp(t, `<text [^>]*font-size="10.7"[^>]*class="sheaf-v1"[^>]*>1868</text>`, s)
+	assert.Regexp(t, `<text [^>]*font-size="13.3"[^>]*>Words 1868</text>`, s)
+	assert.NotRegexp(t, `class="sheaf-v1"[^>]*>Words`, s)
+
+	// each subset's '1' draws as the glyph its font was shaped with
+	for i, f := range []*canvas.Font{text, figs} {
+		var want uint16
+		canvas.NewTextLine(f.Face(10, canvas.Black), "1", canvas.Left).WalkSpans(func(_, _ float64, sp canvas.TextSpan) { want = sp.Glyphs[0].ID })
+		raw, err := base64.StdEncoding.DecodeString(fams[i][2])
+		require.NoError(t, err)
+		sub, err := font.ParseSFNT(raw, 0)
+		require.NoError(t, err)
+		assert.Equal(t, glyphOps(t, f.SFNT, want), glyphOps(t, sub, sub.GlyphIndex('1')), "font %d", i)
+	}
+}

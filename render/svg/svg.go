@@ -93,6 +93,36 @@ type fontUse struct {
 	// again from the cmap alone (the subset keeps no GSUB).
 	cmap  map[rune]uint16
 	runes map[rune]bool // every character drawn
+	// variant counts the fonts of the same weight and slant used before
+	// this one (the same face shaped with other features, such as tabular
+	// figures): a variant gets a family of its own, named by a class on
+	// its text, since one family holds one font per weight and slant.
+	variant int
+}
+
+// slot is a font's weight and slant, as CSS selects @font-face rules.
+func slot(f *canvas.Font) [2]bool {
+	if h := f.SFNT.Head; h != nil {
+		return [2]bool{h.MacStyle[0], h.MacStyle[1]}
+	}
+	return [2]bool{}
+}
+
+// use returns the record of font f, made on its first use.
+func (d *Document) use(f *canvas.Font) *fontUse {
+	for _, u := range d.fonts {
+		if u.font == f {
+			return u
+		}
+	}
+	u := &fontUse{font: f, glyphs: map[uint16]bool{}, cmap: map[rune]uint16{}, runes: map[rune]bool{}}
+	for _, o := range d.fonts {
+		if slot(o.font) == slot(f) {
+			u.variant++
+		}
+	}
+	d.fonts = append(d.fonts, u)
+	return u
 }
 
 // New returns a document of w × h points; the drawing's origin is the
@@ -377,6 +407,11 @@ func (d *Document) textElem(mp canvas.Matrix, scale, x, y float64, anchor string
 	if anchor != "" {
 		b.WriteString(` text-anchor="` + anchor + `"`)
 	}
+	if d.opts.EmbedFonts {
+		if v := d.use(face.Font).variant; v > 0 {
+			b.WriteString(` class="sheaf-v` + strconv.Itoa(v) + `"`)
+		}
+	}
 	if !(face.Fill.IsColor() && face.Fill.Color == canvas.Black) {
 		d.paint(b, "fill", face.Fill, mp)
 	}
@@ -393,16 +428,7 @@ func (d *Document) useGlyphs(s canvas.TextSpan) {
 	if !d.opts.EmbedFonts {
 		return
 	}
-	var u *fontUse
-	for _, f := range d.fonts {
-		if f.font == s.Face.Font {
-			u = f
-		}
-	}
-	if u == nil {
-		u = &fontUse{font: s.Face.Font, glyphs: map[uint16]bool{}, cmap: map[rune]uint16{}, runes: map[rune]bool{}}
-		d.fonts = append(d.fonts, u)
-	}
+	u := d.use(s.Face.Font)
 	for i, g := range s.Glyphs {
 		u.glyphs[g.ID] = true
 		// a cluster of one character drawn with one glyph
@@ -533,6 +559,7 @@ func (d *Document) embeddedFamily() string {
 	h := sha256.New()
 	for _, u := range d.fonts {
 		io.WriteString(h, u.font.Name())
+		fmt.Fprintf(h, "/%d", u.variant)
 		ids := make([]int, 0, len(u.glyphs))
 		for id := range u.glyphs {
 			ids = append(ids, int(id))
@@ -593,7 +620,17 @@ func (d *Document) writeFonts(h *bytes.Buffer) error {
 		if sub.IsCFF {
 			mime, format = "font/otf", "opentype"
 		}
-		fmt.Fprintf(h, "@font-face{font-family:%q;font-weight:%s;font-style:%s;src:url(data:%s;base64,", d.embeddedFamily(), weight, style, mime)
+		family := d.embeddedFamily()
+		if u.variant > 0 {
+			family += "-v" + strconv.Itoa(u.variant)
+			rest := d.opts.FontFamily
+			if strings.TrimSpace(rest) == "" {
+				rest = "sans-serif"
+			}
+			// quotes stay as they are (CSS); < and & are escaped for XML
+			h.WriteString(strings.NewReplacer("&", "&amp;", "<", "&lt;").Replace(fmt.Sprintf(".sheaf-v%d{font-family:%q, %s}\n", u.variant, family, rest)))
+		}
+		fmt.Fprintf(h, "@font-face{font-family:%q;font-weight:%s;font-style:%s;src:url(data:%s;base64,", family, weight, style, mime)
 		prog, err := stableWrite(sub)
 		if err != nil {
 			return fmt.Errorf("svg: writing the subset of font %q: %w", u.font.Name(), err)
