@@ -282,8 +282,8 @@ func embeddingOf(s *font.SFNT) (Embedding, error) {
 	switch {
 	case s.IsTrueType:
 		e.Outlines = TrueType
-		if s.Tables["glyf"] == nil || s.Tables["loca"] == nil {
-			e.Outlined = "its TrueType outlines lack a glyf or loca table"
+		if why := locaProblem(s); why != "" {
+			e.Outlined = why
 		}
 	case s.Tables["CFF2"] != nil:
 		e.Outlines = CFF2
@@ -304,4 +304,33 @@ func embeddingOf(s *font.SFNT) (Embedding, error) {
 		return e, errors.New("font has neither TrueType nor CFF outlines")
 	}
 	return e, nil
+}
+
+// locaProblem says why a TrueType font's glyph locations (OpenType 'loca'
+// table: numGlyphs+1 offsets into 'glyf', never decreasing) cannot be
+// used to embed it, or "" when they can. The PDF writer reads them so.
+func locaProblem(s *font.SFNT) string {
+	head, loca, glyf := s.Tables["head"], s.Tables["loca"], s.Tables["glyf"]
+	if len(head) < 54 || loca == nil || glyf == nil {
+		return "its TrueType outlines lack a glyf or loca table"
+	}
+	long := binary.BigEndian.Uint16(head[50:]) == 1
+	n := int(s.NumGlyphs()) + 1
+	if long && len(loca) < 4*n || !long && len(loca) < 2*n {
+		return "its loca table is shorter than its glyph count needs"
+	}
+	prev := uint32(0)
+	for i := 0; i < n; i++ {
+		var v uint32
+		if long {
+			v = binary.BigEndian.Uint32(loca[4*i:])
+		} else {
+			v = 2 * uint32(binary.BigEndian.Uint16(loca[2*i:]))
+		}
+		if v < prev || v > uint32(len(glyf)) {
+			return fmt.Sprintf("its loca table is out of order at glyph %d", i)
+		}
+		prev = v
+	}
+	return ""
 }

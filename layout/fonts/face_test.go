@@ -407,3 +407,36 @@ func TestFiguresAreTabularLining(t *testing.T) {
 	}
 	assert.Equal(t, d.Width(Regular, 7, "1868 2025"), d.Width(Figures, 7, "1868 2025"))
 }
+
+func TestEmbeddingOf(t *testing.T) {
+	// Outlines a PDF or SVG cannot carry as a font are drawn as outlines,
+	// with the reason; the font reader refuses such files today (CFF2:
+	// "not supported"), so these faces are built by hand.
+	goFace, err := parseSFNT(goregular.TTF, 0)
+	require.NoError(t, err)
+	e, err := embeddingOf(goFace)
+	require.NoError(t, err)
+	assert.Equal(t, TrueType, e.Outlines)
+	assert.Empty(t, e.Outlined)
+
+	noLoca := *goFace
+	noLoca.Tables = map[string][]byte{"head": goFace.Tables["head"], "glyf": goFace.Tables["glyf"]}
+	e, err = embeddingOf(&noLoca)
+	require.NoError(t, err)
+	assert.Contains(t, e.Outlined, "lack a glyf or loca table")
+
+	short := *goFace
+	short.Tables = map[string][]byte{"head": goFace.Tables["head"], "glyf": goFace.Tables["glyf"], "loca": goFace.Tables["loca"][:10]}
+	e, err = embeddingOf(&short)
+	require.NoError(t, err)
+	assert.Contains(t, e.Outlined, "loca table is shorter")
+
+	lm, err := parseSFNT(lmsans10regular.TTF, 0)
+	require.NoError(t, err)
+	cff2 := *lm
+	cff2.Tables = map[string][]byte{"CFF2": {2, 0, 5, 0, 0}}
+	e, err = embeddingOf(&cff2)
+	require.NoError(t, err)
+	assert.Equal(t, CFF2, e.Outlines)
+	assert.Contains(t, e.Outlined, "CFF2")
+}

@@ -31,8 +31,9 @@
 // The slug font, DejaVu Sans Condensed, is always registered.
 //
 // Limits, each reported or handled rather than written wrong: raster
-// images and hatch patterns are errors; CFF2-outline fonts, vertical text,
-// rotated glyphs and glyph offsets are drawn as outlines (not searchable);
+// images and hatch patterns are errors; fonts whose outlines cannot be
+// embedded, vertical text and rotated glyphs are drawn as outlines (not
+// searchable);
 // miter-clip and arcs joins are stroked into outlines by canvas; a
 // gradient's opacity is its first stop's (PDF shadings have no alpha
 // without soft masks).
