@@ -76,4 +76,3 @@ func TestFontFindings(t *testing.T) {
 		})
 	}
 }
-
