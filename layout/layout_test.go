@@ -11,6 +11,8 @@ import (
 	"strings"
 	"testing"
 
+	"github.com/stretchr/testify/assert"
+
 	"sheaf/specs"
 )
 
@@ -495,7 +497,7 @@ func TestInfeasible(t *testing.T) {
 			o := a4Print()
 			o.Slug = mmL(2)
 			return o
-		}, "slug", []string{"crop marks and the slug line need a slug of 6 mm", "use a 6 mm slug"}},
+		}, "slug", []string{"crop marks and the slug line need a slug of 7 mm", "use a 7 mm slug"}}, // CropMarks: 1 mm gap + 6 mm mark outside a 3 mm bleed
 		{"margins eat the page", func() specs.Output {
 			o := a4Print()
 			o.Margins.Inside, o.Margins.Outside = mmL(110), mmL(110)
@@ -839,4 +841,25 @@ func TestKeyRepeatsEndBlocks(t *testing.T) {
 // near reports whether two rects agree to 1e-6 pt (rounding only).
 func near(a, b Rect) bool {
 	return math.Abs(a.X0-b.X0) < 1e-6 && math.Abs(a.Y0-b.Y0) < 1e-6 && math.Abs(a.X1-b.X1) < 1e-6 && math.Abs(a.Y1-b.Y1) < 1e-6
+}
+
+// TestCropMarks: the one crop-mark rule (common practice, print-facts.md
+// "Crop marks": start at least a bleed outside the trim, never in the
+// bleed, about 6 mm long; ours adds 1 mm against trimming drift and
+// keeps 3 mm clear of the trim with no bleed).
+func TestCropMarks(t *testing.T) {
+	const mm = 72 / 25.4
+	for _, c := range []struct {
+		bleed, offset float64 // mm
+	}{
+		{3, 4},         // Europe's usual 3 mm bleed (print-facts.md): 1 mm beyond it
+		{3.175, 4.175}, // North America's 0.125 in
+		{5, 6},         // a 5 mm bleed
+		{0, 3},         // no bleed: 3 mm clear of the trim
+		{1.5, 3},       // 1.5 + 1 < 3
+	} {
+		off, length := CropMarks(c.bleed * mm)
+		assert.InDelta(t, c.offset*mm, off, 1e-9, "offset, bleed %g mm", c.bleed)
+		assert.InDelta(t, 6*mm, length, 1e-9, "length, bleed %g mm", c.bleed)
+	}
 }

@@ -30,11 +30,6 @@ const (
 	floorWidthScreen = 80 * 0.75
 	floorHeightLabel = 3
 
-	// Crop marks start at least a bleed width outside the trim and are
-	// about 6 mm long (print-facts.md, common practice, length
-	// unconfirmed); with no bleed they still keep 3 mm clear of the trim.
-	markLength    = 6 * mm
-	markMinOffset = 3 * mm
 	// slugGap separates the slug line from the bleed edge.
 	slugGap = 2.0
 
@@ -267,8 +262,7 @@ func (s *solver) pageBoxes() error {
 		var need float64
 		what := ""
 		if o.Marks {
-			s.markOff = max(s.bleed, markMinOffset)
-			s.markLen = markLength
+			s.markOff, s.markLen = CropMarks(s.bleed)
 			need = s.markOff - s.bleed + s.markLen
 			what = "crop marks"
 		}

@@ -59,6 +59,12 @@ type Thresholds struct {
 	MinContrast float64   // WCAG 2.1 contrast against the paper; default 3 (SC 1.4.11)
 	MinCVDStep  float64   // simulated ΔE00 between adjacent steps; default 2 (one JND, CSS Color 4)
 	NoticeableP float64   // fraction of viewers for the size guidance; default 0.5
+	// KeyEras is how many eras the colour key labels, i.e. how many
+	// bands of years a reader is asked to tell apart by colour. 0 means:
+	// the eras of a stepped scale, else the years a key labelled every 20
+	// years would show (the multiples of 20 inside the span, at least 2).
+	// A renderer that knows its key's labels should set it.
+	KeyEras int
 }
 
 // DefaultThresholds returns the documented defaults:
@@ -94,6 +100,9 @@ func (th Thresholds) validate() error {
 	}
 	if th.NoticeableP > 1 {
 		return fmt.Errorf("palette: threshold NoticeableP = %v: must be at most 1", th.NoticeableP)
+	}
+	if th.KeyEras < 0 {
+		return fmt.Errorf("palette: threshold KeyEras = %d: must not be negative", th.KeyEras)
 	}
 	if th.Lightness < LightnessAuto || th.Lightness > LightnessAny {
 		return fmt.Errorf("palette: threshold Lightness = %v: unknown direction", th.Lightness)
@@ -176,9 +185,15 @@ type Report struct {
 	LineWidthPt float64
 	AngleDeg    float64 // visual angle of the line
 	ND          Lab     // noticeable difference per CIELAB axis at that angle
-	Thresholds  Thresholds
-	Rows        []Row
-	Findings    []Finding
+	// Classes is how many bands of years the span holds that readers can
+	// tell apart at this line width: see Classes.
+	Classes int
+	// KeyEras is how many eras the key labels (Thresholds.KeyEras, or
+	// its default); fewer Classes than KeyEras is a warning.
+	KeyEras    int
+	Thresholds Thresholds
+	Rows       []Row
+	Findings   []Finding
 }
 
 // Failed reports whether any finding has severity Fail.
@@ -189,6 +204,17 @@ func (r Report) Failed() bool {
 		}
 	}
 	return false
+}
+
+// Warnings counts the findings of severity Warn.
+func (r Report) Warnings() int {
+	n := 0
+	for _, f := range r.Findings {
+		if f.Severity == Warn {
+			n++
+		}
+	}
+	return n
 }
 
 // Check measures scale s drawn as lines lineWidthPt wide on paper in
@@ -224,6 +250,11 @@ func Check(s Scale, paper Color, lineWidthPt float64, m Medium, th Thresholds) (
 		LineWidthPt: lineWidthPt, AngleDeg: VisualAngle(lineWidthPt, m), Thresholds: th,
 	}
 	r.ND = NoticeableDifference(th.NoticeableP, r.AngleDeg)
+	r.Classes = Classes(s, r.ND)
+	r.KeyEras = th.KeyEras
+	if r.KeyEras == 0 {
+		r.KeyEras = defaultKeyEras(s)
+	}
 	r.Rows = s.rows(th.SampleYears)
 	for i := range r.Rows {
 		row := &r.Rows[i]
@@ -525,19 +556,83 @@ func (r *Report) checkSize() {
 	if r.AngleDeg < StoneMinAngle || r.AngleDeg > StoneMaxAngle {
 		note = fmt.Sprintf(", outside the model's fitted %.2f°–%.0f°, so extrapolated", StoneMinAngle, StoneMaxAngle)
 	}
-	msg := fmt.Sprintf("a %.2f pt line seen in %s at %.0f mm subtends %.4f°%s; ND(%.0f%%) = ΔL* %.1f, Δa* %.1f, Δb* %.1f; %d of %d adjacent steps exceed it; first vs last %s (guidance: Stone, Szafir & Setlur 2014, numbers from secondary sources)",
+	msg := fmt.Sprintf("a %.2f pt line seen in %s at %.0f mm subtends %.4f°%s; ND(%.0f%%) = ΔL* %.1f, Δa* %.1f, Δb* %.1f; %d of %d adjacent steps exceed it; first vs last %s; the span holds %d distinguishable %s, the key labels %d eras (guidance: Stone, Szafir & Setlur 2014, numbers from secondary sources)",
 		r.LineWidthPt, r.Medium, ViewingDistanceMM(r.Medium), r.AngleDeg, note, 100*r.Thresholds.NoticeableP,
-		r.ND.L, r.ND.A, r.ND.B, n, len(r.Rows)-1, map[bool]string{true: "does", false: "does not"}[whole])
-	// Warn only where the model was fitted; beyond it the numbers are a
-	// rough extrapolation and stay guidance.
+		r.ND.L, r.ND.A, r.ND.B, n, len(r.Rows)-1, map[bool]string{true: "does", false: "does not"}[whole],
+		r.Classes, plural(r.Classes, "class", "classes"), r.KeyEras)
+	// The guidance must not be overruled by a PASS: when readers can tell
+	// apart fewer bands of years than the key labels, that is a warning,
+	// even where the model is extrapolated (it is the only size model we
+	// have; a thin line is, if anything, harder than the model's squares).
 	sev := Info
-	if !whole {
+	switch {
+	case r.Classes < r.KeyEras:
+		sev = Warn
+		msg += fmt.Sprintf("; at this width readers can tell apart only %d of the key's %d eras by colour: use thicker lines, fewer eras (a stepped palette), or a key with fewer labels", r.Classes, r.KeyEras)
+	case !whole:
 		msg += "; at this width readers may not see the time encoding at all: consider thicker lines or a wider palette"
 		if note == "" {
 			sev = Warn
 		}
 	}
 	r.add(CheckSize, nil, sev, "%s", msg)
+}
+
+func plural(n int, one, many string) string {
+	if n == 1 {
+		return one
+	}
+	return many
+}
+
+// Classes counts how many bands of years along scale s readers can tell
+// apart when each CIELAB axis needs a difference of nd (Stone, Szafir &
+// Setlur 2014, per-axis reading, see Noticeable). The count walks the
+// span from its first year: a new class starts at the first year whose
+// colour is noticeably different from the colour that started the
+// current class; a stepped scale is walked era by era. Walking greedily
+// from the start gives the longest such chain when difference grows with
+// distance along the scale, so the count is what the colours could carry
+// at best: a key that labels more eras than this asks readers for
+// distinctions the lines cannot show. Continuous scales are walked at
+// 1/1000 of the span or one year, whichever is finer.
+func Classes(s Scale, nd Lab) int {
+	if len(s.anchors) == 0 {
+		return 0
+	}
+	var cols []Lab
+	if len(s.eras) > 0 {
+		for _, e := range s.eras {
+			cols = append(cols, e.Color.Clip().Lab())
+		}
+	} else {
+		from, to := s.Span()
+		n := max(1000, int(math.Ceil(to-from)))
+		if n > 100000 {
+			n = 100000
+		}
+		for k := 0; k <= n; k++ {
+			cols = append(cols, s.At(from+(to-from)*float64(k)/float64(n)).Clip().Lab())
+		}
+	}
+	classes, start := 1, cols[0]
+	for _, c := range cols[1:] {
+		if Noticeable(start, c, nd) {
+			classes++
+			start = c
+		}
+	}
+	return classes
+}
+
+// defaultKeyEras is Thresholds.KeyEras's default for s.
+func defaultKeyEras(s Scale) int {
+	if len(s.eras) > 0 {
+		return len(s.eras)
+	}
+	from, to := s.Span()
+	n := int(math.Floor(to/20) - math.Ceil(from/20) + 1)
+	return max(2, n)
 }
 
 // WriteTable prints the rows as an aligned table, then the findings.
@@ -562,6 +657,8 @@ func (r Report) WriteTable(w io.Writer) error {
 			q.Contrast, gamut, nd)
 	}
 	tw.Flush()
+	fmt.Fprintf(&b, "\ndistinguishable classes at %.2f pt: %d (Stone, Szafir & Setlur 2014 at %.0f%% of viewers); the key labels %d eras\n",
+		r.LineWidthPt, r.Classes, 100*r.Thresholds.NoticeableP, r.KeyEras)
 	if len(r.Findings) == 0 {
 		b.WriteString("\nno findings\n")
 	} else {
@@ -572,6 +669,9 @@ func (r Report) WriteTable(w io.Writer) error {
 		}
 	}
 	verdict := "PASS"
+	if n := r.Warnings(); n > 0 {
+		verdict = fmt.Sprintf("WARN (no check fails, but %d %s: see above)", n, plural(n, "warning", "warnings"))
+	}
 	if r.Failed() {
 		verdict = "FAIL"
 	}

@@ -2,9 +2,13 @@ package palette
 
 import (
 	"bytes"
+	"fmt"
 	"math"
 	"strings"
 	"testing"
+
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
 )
 
 func TestDefaultPassesEveryCheck(t *testing.T) {
@@ -179,8 +183,10 @@ func TestSizeGuidance(t *testing.T) {
 		width float64
 		sev   Severity
 	}{
-		{0.75, Info}, // 0.043°: outside the fitted range, guidance only
-		{20, Warn},   // 1.16°: inside 1/3°–6°, ND50 L* ≈ 5.7 > 3
+		// 0.043°: outside the fitted range, but the span holds 1 class
+		// against the 6 eras a 20-year key would label: a warning anyway.
+		{0.75, Warn},
+		{20, Warn}, // 1.16°: inside 1/3°–6°, ND50 L* ≈ 5.7 > 3
 	} {
 		r, err := Check(s, white, tc.width, Print, th)
 		if err != nil {
@@ -247,7 +253,9 @@ func TestWriteTable(t *testing.T) {
 		t.Error("table not deterministic")
 	}
 	out := a.String()
-	for _, w := range []string{"palette Tidewater, 1868–2025, paper #ffffff, print, line 0.75 pt", "ΔE00", "contrast", "1868", "#e96163", "2025", "#073b0f", "INFO size", "\nPASS\n"} {
+	first, last := s.At(1868).Clip().Hex(), s.At(2025).Clip().Hex()
+	for _, w := range []string{"palette " + DefaultName + ", 1868–2025, paper #ffffff, print, line 0.75 pt", "ΔE00", "contrast", "1868", first, "2025", last,
+		"distinguishable classes at 0.75 pt: 2 (", "the key labels 8 eras", "WARN size", "\nWARN (no check fails, but 1 warning: see above)\n"} {
 		if !strings.Contains(out, w) {
 			t.Errorf("table lacks %q:\n%s", w, out)
 		}
@@ -311,4 +319,72 @@ func TestSweepFindsColoursBetweenSamples(t *testing.T) {
 			t.Fatalf("a table row at %v: the test must put the anchor between samples", row.Year)
 		}
 	}
+}
+
+// Classes counts by a greedy walk from the first year. On a grey ramp
+// L* 30 → 80 with ND L* = 9.9 (a and b never noticeable) the classes
+// start at L* 30, 39.9, 49.8, 59.7, 69.6 and 79.5: six. Worked by hand.
+func TestClassesGreyRamp(t *testing.T) {
+	s, err := NewScale("grey", []Anchor{{1900, FromLab(Lab{30, 0, 0})}, {2000, FromLab(Lab{80, 0, 0})}}, nil)
+	require.NoError(t, err)
+	nd := Lab{9.9, 1000, 1000}
+	assert.Equal(t, 6, Classes(s, nd))
+	assert.Equal(t, 1, Classes(s, Lab{51, 1000, 1000}), "no step reaches the ND: one class")
+	assert.Equal(t, 2, Classes(s, Lab{49.9, 1000, 1000}), "first vs last just over the ND: two")
+	// A stepped scale is walked era by era: five eras, each the colour at
+	// its mid-year (L* 35, 45, 55, 65, 75), with ND 19.9 → the 1st, 3rd
+	// and 5th start classes: three.
+	st, err := NewScale("grey", []Anchor{{1900, FromLab(Lab{30, 0, 0})}, {2000, FromLab(Lab{80, 0, 0})}}, []float64{1900, 1920, 1940, 1960, 1980, 2000})
+	require.NoError(t, err)
+	assert.Equal(t, 3, Classes(st, Lab{19.9, 1000, 1000}))
+	assert.Equal(t, 0, Classes(Scale{}, nd))
+}
+
+// The size check warns exactly when the span holds fewer classes than
+// the key labels eras, and the table and verdict say so.
+func TestSizeClassesAgainstKey(t *testing.T) {
+	white := mustHex(t, "#ffffff")
+	s, err := Default(1868, 2025)
+	require.NoError(t, err)
+	for _, tc := range []struct {
+		widthPt float64
+		keyEras int
+		warn    bool
+	}{
+		{0.75, 0, true},  // default key: 8 labels (1880 … 2020); 2 classes at 0.043°
+		{0.75, 2, false}, // a key of 2 eras asks no more than the lines carry
+		{40, 0, false},   // 2.3°: inside the fitted range, enough classes for 8 eras
+		{40, 40, true},   // but not for 40
+	} {
+		th := DefaultThresholds()
+		th.KeyEras = tc.keyEras
+		r, err := Check(s, white, tc.widthPt, Print, th)
+		require.NoError(t, err)
+		if tc.keyEras == 0 {
+			assert.Equal(t, 8, r.KeyEras, "default key eras for 1868–2025")
+		} else {
+			assert.Equal(t, tc.keyEras, r.KeyEras)
+		}
+		assert.Equal(t, Classes(s, r.ND), r.Classes)
+		var size []Finding
+		for _, f := range r.Findings {
+			if f.Check == CheckSize {
+				size = append(size, f)
+			}
+		}
+		require.Len(t, size, 1)
+		assert.Equal(t, tc.warn, size[0].Severity == Warn, "%v pt, key %d eras, %d classes: %v", tc.widthPt, r.KeyEras, r.Classes, size[0])
+		assert.Equal(t, tc.warn, r.Classes < r.KeyEras)
+		var b bytes.Buffer
+		require.NoError(t, r.WriteTable(&b))
+		assert.Contains(t, b.String(), fmt.Sprintf("distinguishable classes at %.2f pt: %d (", tc.widthPt, r.Classes))
+		if tc.warn {
+			assert.Contains(t, b.String(), "\nWARN (")
+			assert.NotContains(t, b.String(), "\nPASS\n")
+		}
+	}
+	bad := DefaultThresholds()
+	bad.KeyEras = -1
+	_, err = Check(s, white, 1, Print, bad)
+	assert.ErrorContains(t, err, "KeyEras = -1")
 }

@@ -76,7 +76,6 @@ func TestParseErrors(t *testing.T) {
 		{"page past the PDF limit", printOut + "    trim: 6000mm x 300mm\n", "7:5", "PDF pages stop at 14400 pt (200 in, ISO 32000-1 Annex C.2)"},
 		{"proofs too large", printOut + "    trim: 2000mm x 300mm\n    proofs: 1200\n", "8:5", "proofs at 1200 dpi would be 95717 pixels across; the most is 40000"},
 		{"screen margins in px", head + "outputs:\n  web:\n    kind: screen\n    trim: 60px\n    margins: 32px\n", "8:5", "(64 px together) leave no room on a 60 px wide page"},
-		{"marks need slug", printOut + "    slug: 5mm\n", "7:5", "crop marks need a slug area of at least 7.0 mm outside the bleed"},
 		{"bleed on screen", head + "outputs:\n  web: {kind: screen, bleed: 3mm}\n", "5:8", "outputs.web: bleed, marks and slug-line are for print outputs"},
 		{"flow choice", head + "outputs:\n  web: {kind: screen, flow: scroll-group}\n", "5:29", `outputs.web.flow must be one of pages, scroll, scroll-groups, not "scroll-group"; did you mean "scroll-groups"?`},
 		{"spreads on a scroll", head + "outputs:\n  web:\n    kind: screen\n    trim: 1200px\n    spreads: true\n", "8:5", "outputs.web.spreads: spreads pair a left and a right page; flow scroll has no facing pages"},

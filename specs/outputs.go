@@ -241,10 +241,8 @@ func (d *decoder) output(n *yaml.Node, path, name string) Output {
 	if kind == Print && (o.Spreads || o.PanelFiles || flow != "") {
 		d.errorf(n, "%s: flow, spreads and panel-files are for screen outputs", path)
 	}
-	if o.Marks && kind == Print && o.Slug < mmPt(7)-0.001 {
-		d.errorf(at("slug"), "%s: crop marks need a slug area of at least %.1f mm outside the bleed (1 mm gap + 6 mm mark); slug is %.1f mm",
-			path, (mmPt(7)).Mm(), o.Slug.Mm())
-	}
+	// Whether the slug holds the crop marks is the layout's to say: it
+	// owns the one crop-mark rule (layout.CropMarks).
 	// Compare with a little slack: margins that use up the page exactly
 	// should not slip through on rounding (110 mm + 100 mm vs 210 mm).
 	const eps = 1e-6

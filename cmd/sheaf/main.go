@@ -45,6 +45,7 @@ func commands() []command {
 		{"check", "SPEC [--json] [--strict]", "validate the spec and data; print a summary, pages and preflight findings", runCheck},
 		{"palette", "SPEC [--out DIR]", "print the era palette's table and checks; write a swatch sheet", runPalette},
 		{"build", "SPEC [--out DIR] [--only OUTPUT] [--strict] [--no-proofs] [--full] [--quiet]", "render every output: PDF, proofs, SVG, PNG; manifest and change report", runBuild},
+		{"count", countArgs, "count terms in a dated text archive into the two tables a spec's data reads", runCount},
 
 		{"help", "[COMMAND]", "show help for sheaf or one command", nil},
 	}

@@ -1,7 +1,8 @@
 // Command generate writes the invented demo data of sheaf: yearly word
-// counts for the vocabulary of The Quillmere Engineer, a fictional journal.
+// counts for the vocabulary of Plumb & Pinion, a fictional engineering weekly
+// of the invented town of Quillmere.
 //
-//	go run ./examples/generate -out examples/quillmere/data -terms 1500 -seed 1868
+//	go run ./examples/generate -out examples/quillmere/data
 //
 // It writes counts.csv (term,year,count; nonzero counts only) and totals.csv
 // (year,total) into the -out directory. Same flags, same bytes.
@@ -24,11 +25,12 @@ func main() {
 	seed := flag.Uint64("seed", def.Seed, "random seed")
 	from := flag.Int("from", def.From, "first year")
 	to := flag.Int("to", def.To, "last year")
+	spikes := flag.Int("spikes", def.Spikes, "number of common terms given a one-year spike")
 	missing := flag.String("missing", joinInts(def.Missing), "comma-separated years in which the journal did not appear")
 	flag.Parse()
 
 	if *out == "" || flag.NArg() > 0 {
-		fmt.Fprintln(os.Stderr, "usage: generate -out DIR [-terms N] [-seed S] [-from YEAR] [-to YEAR] [-missing Y,Y,...]")
+		fmt.Fprintln(os.Stderr, "usage: generate -out DIR [-terms N] [-seed S] [-from YEAR] [-to YEAR] [-missing Y,Y,...] [-spikes N]")
 		os.Exit(2)
 	}
 	skip, err := parseInts(*missing)
@@ -36,7 +38,7 @@ func main() {
 		fmt.Fprintf(os.Stderr, "generate: -missing: %v\n", err)
 		os.Exit(2)
 	}
-	cfg := corpus.Config{Terms: *terms, Seed: *seed, From: *from, To: *to, Missing: skip}
+	cfg := corpus.Config{Terms: *terms, Seed: *seed, From: *from, To: *to, Missing: skip, Spikes: *spikes}
 	if err := corpus.WriteDir(*out, cfg); err != nil {
 		fmt.Fprintf(os.Stderr, "generate: %v\n", err)
 		os.Exit(1)

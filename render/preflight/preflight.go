@@ -472,6 +472,9 @@ func (c *checker) palette() {
 		return
 	}
 	verdict := "passes its checks"
+	if n := r.Warnings(); n > 0 {
+		verdict = fmt.Sprintf("fails no check but has %d warning(s); %d distinguishable classes at the line width, the key labels %d eras", n, r.Classes, r.KeyEras)
+	}
 	if r.Failed() {
 		verdict = "fails a check (run sheaf palette for the table)"
 	}

@@ -518,11 +518,13 @@ func (b *build) setup(p *feature.Output, i int) pdf.PageSetup {
 	pg := &p.Plan.Pages[i]
 	setup := pdf.PageSetup{Boxes: PageBoxes(pg)}
 	if out.Marks {
-		setup.Marks = &pdf.MarkOptions{}
+		// The layout's crop-mark geometry (layout.CropMarks), which
+		// `sheaf check --json` reports: what the PDF draws.
+		setup.Marks = &pdf.MarkOptions{Offset: p.Plan.MarkOffset, Length: p.Plan.MarkLength}
 	}
 	if out.SlugLine {
 		if setup.Marks == nil {
-			setup.Marks = &pdf.MarkOptions{Length: 0.001}
+			setup.Marks = &pdf.MarkOptions{SlugOnly: true}
 		}
 		setup.Slug = fmt.Sprintf("%s · %s · page %d of %d · %s", b.j.Spec.Title, out.Name, i+1, len(p.Plan.Pages), b.date.Format("2006-01-02"))
 	}

@@ -95,9 +95,16 @@ func Draw(c *canvas.Canvas, s palette.Scale, r palette.Report) error {
 	y := margin + 5
 	d.text(f.bold, 13, d.ink, margin, y, canvas.Left, fmt.Sprintf("Palette %s, %s–%s", s.Name(), yearText(from), yearText(to)))
 	verdict := "passes every check"
+	if n := r.Warnings(); n > 0 {
+		verdict = fmt.Sprintf("no check fails, %d %s (see below)", n, map[bool]string{true: "warning", false: "warnings"}[n == 1])
+	}
 	if r.Failed() {
 		verdict = "FAILS a check (see below)"
 	}
+	// The size-aware count, on a line of its own, so the sheet never reads
+	// as a clean pass when the lines are too thin for the key's eras.
+	classes := fmt.Sprintf("%d distinguishable %s at this line width (Stone, Szafir & Setlur 2014); the key labels %d eras",
+		r.Classes, map[bool]string{true: "class", false: "classes"}[r.Classes == 1], r.KeyEras)
 	kind := "continuous"
 	if s.Discrete() {
 		kind = fmt.Sprintf("%d eras", len(s.Eras()))
@@ -105,9 +112,11 @@ func Draw(c *canvas.Canvas, s palette.Scale, r palette.Report) error {
 	y += 5.5
 	d.text(f.regular, 8, d.soft, margin, y, canvas.Left, fmt.Sprintf("%s; lines %.2f pt on paper %s, %s at %.0f cm; %s",
 		kind, r.LineWidthPt, r.Paper.Hex(), r.Medium, palette.ViewingDistanceMM(r.Medium)/10, verdict))
+	y += 4
+	d.text(f.regular, 8, d.soft, margin, y, canvas.Left, classes)
 
 	// Normal vision: wide strip and four sample charts.
-	y += 9
+	y += 6.5
 	d.text(f.bold, 9, d.ink, margin, y, canvas.Left, "Normal vision")
 	y += 2.5
 	ident := func(c palette.Color) palette.Color { return c }

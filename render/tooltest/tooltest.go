@@ -7,6 +7,7 @@
 package tooltest
 
 import (
+	"errors"
 	"os"
 	"os/exec"
 	"testing"
@@ -31,3 +32,32 @@ func Require(t testing.TB, program, debianPackage string) string {
 	t.Skip(msg)
 	return ""
 }
+
+// RequireFile returns path when it names a readable regular file, or skips
+// (fails under SHEAF_REQUIRE_TOOLS=1) when it does not: for data that a
+// Debian package installs, such as wamerican's /usr/share/dict/words.
+// debianPackage names the package that provides it, for the message.
+func RequireFile(t testing.TB, path, debianPackage string) string {
+	t.Helper()
+	f, err := os.Open(path)
+	if err == nil {
+		fi, serr := f.Stat()
+		f.Close()
+		if serr == nil && fi.Mode().IsRegular() {
+			return path
+		}
+		if serr == nil {
+			err = errNotRegular
+		} else {
+			err = serr
+		}
+	}
+	msg := path + " not readable (" + err.Error() + "); install Debian package " + debianPackage
+	if os.Getenv(EnvRequire) == "1" {
+		t.Fatalf("%s (required because %s=1)", msg, EnvRequire)
+	}
+	t.Skip(msg)
+	return ""
+}
+
+var errNotRegular = errors.New("not a regular file")

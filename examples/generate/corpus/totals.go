@@ -5,13 +5,13 @@ import (
 	"math/rand/v2"
 )
 
-// Words printed per year: about 1.1 million in 1868 (a weekly of some
-// 20,000 words an issue) growing to about 15 million by 2025, as the journal
+// Words printed per year: about 2 million in 1868 (a weekly of some
+// 38,000 words an issue) growing to about 15 million by 2025, as the journal
 // added pages and issues, with dips for wars, slumps and paper shortages.
 // Invented for the demo; a large archive keeps the counts of mid-ranked
 // terms in the tens, so their lines show shape rather than sampling noise.
 const (
-	wordsFirst, yearFirst = 1_100_000.0, 1868.0
+	wordsFirst, yearFirst = 2_000_000.0, 1868.0
 	wordsLast, yearLast   = 15_000_000.0, 2025.0
 )
 
