@@ -3,9 +3,11 @@ package main
 import (
 	"bytes"
 	"encoding/binary"
+	"math"
 	"os"
 	"os/exec"
 	"path/filepath"
+	"strconv"
 	"strings"
 	"testing"
 
@@ -14,6 +16,7 @@ import (
 	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
 
+	"sheaf/render/feature"
 	"sheaf/render/tooltest"
 )
 
@@ -165,4 +168,38 @@ func TestChromiumMatchesPNGWithCFF(t *testing.T) {
 	t.Logf("Chromium vs our PNG (CFF fonts): mean channel difference %.2f, strongly different pixels %.2f%%", mean, strong*100)
 	assert.LessOrEqual(t, mean, chromeMeanLimit)
 	assert.LessOrEqual(t, strong, chromeStrongLimit)
+}
+
+// TestCFFProofMatchesPoppler: TestProofMatchesPoppler's check with the
+// CFF fonts of the issue (Latin Modern Sans): our proof of page 1 against
+// pdftoppm's rendering of the PDF, trim box, same resolution and limits.
+func TestCFFProofMatchesPoppler(t *testing.T) {
+	pdftoppm := tooltest.Require(t, "pdftoppm", "poppler-utils")
+	spec := fontSpec(t, "{regular: lmsans10-regular.otf, bold: lmsans10-bold.otf}",
+		map[string][]byte{"lmsans10-regular.otf": lmsans10regular.TTF, "lmsans10-bold.otf": lmsans10bold.TTF})
+	out := filepath.Join(t.TempDir(), "out")
+	var o, e bytes.Buffer
+	require.Equal(t, exitOK, run([]string{"build", spec, "--out", out, "--quiet"}, &o, &e), e.String())
+	j, err := feature.Load(spec)
+	require.NoError(t, err)
+	p, err := j.Prepare(j.Spec.Output("print"))
+	require.NoError(t, err)
+	dpi := p.Spec.Proofs
+	pg := p.Plan.Pages[0]
+	px := func(v float64) int { return int(math.Round(v * dpi / 72)) }
+	x, y := px(pg.Trim.X0), px(pg.Media.H()-pg.Trim.Y1)
+	w, h := px(pg.Trim.X1)-x, px(pg.Media.H()-pg.Trim.Y0)-y
+	prefix := filepath.Join(t.TempDir(), "poppler")
+	cmd := exec.Command(pdftoppm, "-r", strconv.FormatFloat(dpi, 'f', -1, 64), "-f", "1", "-l", "1", "-singlefile",
+		"-x", strconv.Itoa(x), "-y", strconv.Itoa(y), "-W", strconv.Itoa(w), "-H", strconv.Itoa(h),
+		"-png", filepath.Join(out, "print", "print.pdf"), prefix)
+	b, err := cmd.CombinedOutput()
+	require.NoError(t, err, string(b))
+	theirs := tooltest.ReadPNG(t, prefix+".png")
+	ours := tooltest.ReadPNG(t, filepath.Join(out, "print", "proofs", "page-001.png"))
+	require.Equal(t, ours.Bounds().Size(), theirs.Bounds().Size())
+	mean, strong := tooltest.CompareImages(ours, theirs, 64)
+	t.Logf("CFF proof vs pdftoppm: mean |Δ| %.3f/255, %.3f%% of pixels differ by more than 64", mean, strong*100)
+	assert.LessOrEqual(t, mean, 3.0)
+	assert.LessOrEqual(t, strong, 0.015)
 }

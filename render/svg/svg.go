@@ -55,11 +55,11 @@ type Options struct {
 	Desc  string // the document's <desc>: a sentence or two
 
 	// FontFamily is the CSS font-family list every text uses, such as
-	// `"Go", Arial, sans-serif`. Empty: sans-serif.
+	// `"DejaVu Sans Condensed", sans-serif`. Empty: sans-serif.
 	FontFamily string
 	// EmbedFonts embeds a subset of every font drawn with (only the glyphs
-	// used) as a base64 TrueType @font-face, so the document looks the same
-	// wherever it is opened.
+	// used) as a base64 @font-face — TrueType outlines as font/ttf, CFF
+	// as font/otf — so the document looks the same wherever it is opened.
 	EmbedFonts bool
 
 	// Background, when not nil, fills the whole document first (the

@@ -94,7 +94,7 @@ func sampleWith(t testing.TB, opts Options, reg, bold *canvas.Font) []byte {
 // 400 × 200 px at 1 px = 0.75 pt (CSS Values and Units Level 3 §5.2).
 func TestWellFormed(t *testing.T) {
 	for _, embed := range []bool{false, true} {
-		b := sample(t, Options{Title: "A & B", Desc: "d", FontFamily: `"Go", Arial, sans-serif`, EmbedFonts: embed, Background: color.White})
+		b := sample(t, Options{Title: "A & B", Desc: "d", FontFamily: `"DejaVu Sans Condensed", sans-serif`, EmbedFonts: embed, Background: color.White})
 		dec := xml.NewDecoder(bytes.NewReader(b))
 		var root struct {
 			XMLName xml.Name
