@@ -56,31 +56,72 @@ outputs:
 func TestBuildWithCFFFonts(t *testing.T) {
 	tooltest.Require(t, "pdffonts", "poppler-utils")
 	tooltest.Require(t, "pdftotext", "poppler-utils")
-	spec := fontSpec(t, "{regular: lmsans10-regular.otf, bold: lmsans10-bold.otf}",
-		map[string][]byte{"lmsans10-regular.otf": lmsans10regular.TTF, "lmsans10-bold.otf": lmsans10bold.TTF})
-	out := filepath.Join(t.TempDir(), "out")
-	var o, e bytes.Buffer
-	require.Equal(t, exitOK, run([]string{"build", spec, "--out", out, "--no-proofs", "--quiet"}, &o, &e), e.String())
-	assert.NotContains(t, e.String(), "text-outlined")
-	pdf := filepath.Join(out, "print", "print.pdf")
-	fonts, err := exec.Command("pdffonts", pdf).Output()
-	require.NoError(t, err)
-	for _, name := range []string{"LMSans10-Regular", "LMSans10-Bold"} {
-		var row string
-		for _, l := range strings.Split(string(fonts), "\n") {
-			if strings.Contains(l, "+"+name+" ") {
-				row = l
+	files := map[string][]byte{
+		"lmsans10-regular.otf": lmsans10regular.TTF, "lmsans10-bold.otf": lmsans10bold.TTF,
+		"lmsans10.otc": collection(t, lmsans10regular.TTF, lmsans10bold.TTF),
+	}
+	for _, fonts := range []string{
+		"{regular: lmsans10-regular.otf, bold: lmsans10-bold.otf}",
+		// both faces from one collection, the bold (its last face) by name
+		`{regular: {path: lmsans10.otc, face: 0}, bold: {path: lmsans10.otc, face: "Latin Modern Sans 10 Bold"}}`,
+	} {
+		t.Run(fonts, func(t *testing.T) {
+			spec := fontSpec(t, fonts, files)
+			out := filepath.Join(t.TempDir(), "out")
+			var o, e bytes.Buffer
+			require.Equal(t, exitOK, run([]string{"build", spec, "--out", out, "--no-proofs", "--quiet"}, &o, &e), e.String())
+			assert.NotContains(t, e.String(), "text-outlined")
+			pdf := filepath.Join(out, "print", "print.pdf")
+			fonts, err := exec.Command("pdffonts", pdf).Output()
+			require.NoError(t, err)
+			for _, name := range []string{"LMSans10-Regular", "LMSans10-Bold"} {
+				var row string
+				for _, l := range strings.Split(string(fonts), "\n") {
+					if strings.Contains(l, "+"+name+" ") {
+						row = l
+					}
+				}
+				require.NotEmpty(t, row, "pdffonts lacks %s:\n%s", name, fonts)
+				assert.Contains(t, row, "CID Type 0C")
+				assert.Regexp(t, `yes\s+yes\s+yes`, row, "embedded, subset, ToUnicode")
+			}
+			text, err := exec.Command("pdftotext", pdf, "-").Output()
+			require.NoError(t, err)
+			for _, term := range []string{"telegraph", "boiler", "Maßstab", "A small test feature"} {
+				assert.Contains(t, string(text), term)
+			}
+		})
+	}
+}
+
+// collection joins fonts into one collection file (OpenType spec, "Font
+// Collections": a 'ttcf' header, then each font's table directory, its
+// table offsets counted from the start of the file).
+func collection(t *testing.T, fonts ...[]byte) []byte {
+	be := binary.BigEndian
+	out := be.AppendUint32([]byte("ttcf"), 0x00010000)
+	out = be.AppendUint32(out, uint32(len(fonts)))
+	at := len(out)
+	out = append(out, make([]byte, 4*len(fonts))...)
+	for i, f := range fonts {
+		be.PutUint32(out[at+4*i:], uint32(len(out)))
+		n := int(be.Uint16(f[4:]))
+		dir := append([]byte(nil), f[:12+16*n]...)
+		base := len(out) + len(dir)
+		var body []byte
+		for r := 0; r < n; r++ {
+			rec := 12 + 16*r
+			off, length := be.Uint32(f[rec+8:]), be.Uint32(f[rec+12:])
+			require.LessOrEqual(t, int(off+length), len(f))
+			be.PutUint32(dir[rec+8:], uint32(base+len(body)))
+			body = append(body, f[off:off+length]...)
+			for len(body)%4 != 0 {
+				body = append(body, 0)
 			}
 		}
-		require.NotEmpty(t, row, "pdffonts lacks %s:\n%s", name, fonts)
-		assert.Contains(t, row, "CID Type 0C")
-		assert.Regexp(t, `yes\s+yes\s+yes`, row, "embedded, subset, ToUnicode")
+		out = append(append(out, dir...), body...)
 	}
-	text, err := exec.Command("pdftotext", pdf, "-").Output()
-	require.NoError(t, err)
-	for _, term := range []string{"telegraph", "boiler", "Maßstab", "A small test feature"} {
-		assert.Contains(t, string(text), term)
-	}
+	return out
 }
 
 // TestBadFontsExitTwo: fonts that cannot be used are bad input (exit 2)
