@@ -24,7 +24,7 @@ func DefaultOutput(name string, k Kind) Output {
 			MinPanelWidth: px(170),
 			Gutter:        px(20), RowGap: px(18),
 			PanelAspect: 1.6, Slack: SlackSpread,
-			Fonts: Fonts{Family: `"Go", "Helvetica Neue", Arial, sans-serif`},
+			Fonts: Fonts{Family: `"DejaVu Sans Condensed", sans-serif`},
 			Type: TypeSizes{Title: px(34), Dek: px(17), Label: px(14), Ticks: px(11), Key: px(12),
 				Notes: px(12), Folio: px(12), Heading: px(16), Leading: 1.3},
 			Line:  px(1.75),
@@ -173,8 +173,8 @@ func (d *decoder) output(n *yaml.Node, path, name string) Output {
 		}},
 		{"fonts", func(n *yaml.Node, path string) {
 			d.mapping(n, path, []field{
-				{"regular", d.str(&o.Fonts.Regular)},
-				{"bold", d.str(&o.Fonts.Bold)},
+				{"regular", d.fontFile(&o.Fonts.Regular, &o.Fonts.RegularFace)},
+				{"bold", d.fontFile(&o.Fonts.Bold, &o.Fonts.BoldFace)},
 				{"family", d.str(&o.Fonts.Family)},
 				{"embed", d.boolean(&o.Fonts.Embed)},
 			})
@@ -374,4 +374,38 @@ func (o *Output) Describe(l Length) string {
 		return strconv.FormatFloat(math.Round(l.Px()*100)/100, 'f', -1, 64) + " px"
 	}
 	return fmt.Sprintf("%.1f mm", l.Mm())
+}
+
+// fontFile reads a font as a path, or as {path, face} where face picks a
+// face of a collection by full name (a string) or index (an integer).
+func (d *decoder) fontFile(path *string, face *FaceRef) func(*yaml.Node, string) {
+	return func(n *yaml.Node, p string) {
+		if v := d.resolve(n); v.Kind != yaml.MappingNode {
+			d.str(path)(n, p)
+			return
+		}
+		d.mapping(n, p, []field{
+			{"path", d.str(path)},
+			{"face", func(n *yaml.Node, p string) {
+				v, ok := d.scalar(n, p)
+				if !ok {
+					return
+				}
+				if v.Tag == "!!int" {
+					i, err := strconv.Atoi(v.Value)
+					if err != nil || i < 0 || i > 65535 {
+						d.errorf(v, "%s: a face index is a whole number from 0, not %s", p, v.Value)
+						return
+					}
+					*face = FaceRef{Index: i}
+					return
+				}
+				if v.Value == "" {
+					d.errorf(v, "%s: name the face (its full name) or give its index", p)
+					return
+				}
+				*face = FaceRef{Name: v.Value}
+			}},
+		}, "path")
+	}
 }

@@ -8,6 +8,7 @@ package specs
 import (
 	"fmt"
 	"path/filepath"
+	"strconv"
 	"strings"
 )
 
@@ -312,10 +313,28 @@ const (
 // Fonts are the faces an output uses. Empty paths mean the Go fonts
 // embedded in the binary.
 type Fonts struct {
-	Regular string // TTF/OTF path, resolved against the spec
+	Regular string // TTF/OTF/TTC/OTC path, resolved against the spec
 	Bold    string
 	Family  string // screen: CSS font-family list written into SVG
 	Embed   bool   // screen: embed the font subset in SVG
+
+	// RegularFace and BoldFace pick a face of a collection (.ttc, .otc);
+	// the zero value is the first face.
+	RegularFace, BoldFace FaceRef
+}
+
+// FaceRef names one face of a font file: by its full name (name ID 4)
+// when Name is set, else by its index in a collection, from 0.
+type FaceRef struct {
+	Index int
+	Name  string
+}
+
+func (f FaceRef) String() string {
+	if f.Name != "" {
+		return strconv.Quote(f.Name)
+	}
+	return "#" + strconv.Itoa(f.Index)
 }
 
 // TypeSizes are the type sizes an output uses.

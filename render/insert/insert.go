@@ -276,7 +276,7 @@ func (g *Graphic) layout() error {
 	// Left: the y labels; right: the line-end labels.
 	left := 0.0
 	for _, v := range g.yTicks {
-		left = math.Max(left, fs.Width(fonts.Regular, ts, formatValue(v)))
+		left = math.Max(left, fs.Width(fonts.Figures, ts, formatValue(v)))
 	}
 	ls := t.Label.Pt()
 	right := 0.0
@@ -503,7 +503,7 @@ func (g *Graphic) Draw(ctx *canvas.Context) error {
 		}
 		line(ctx, pr.X0, yy, pr.X1, yy, g.rule, col, nil)
 		mt := fs.Metrics(fonts.Regular, ts)
-		text(ctx, fs, fonts.Regular, ts, inkSoft, pr.X0-ts*0.6, yy-mt.CapHeight/2, canvas.Right, formatValue(v))
+		text(ctx, fs, fonts.Figures, ts, inkSoft, pr.X0-ts*0.6, yy-mt.CapHeight/2, canvas.Right, formatValue(v))
 	}
 	// What the values are, above the y labels.
 	text(ctx, fs, fonts.Regular, ts, inkSoft, g.pad, pr.Y1+ts*1.1, canvas.Left, g.scaleNote)
@@ -514,7 +514,7 @@ func (g *Graphic) Draw(ctx *canvas.Context) error {
 	for _, yr := range tickYears(fs, g.Data.Span, pr.W(), ts) {
 		x := g.m.X(float64(yr))
 		line(ctx, x, pr.Y0, x, pr.Y0-tick, g.rule, axisGrey, nil)
-		text(ctx, fs, fonts.Regular, ts, inkSoft, x, base, canvas.Center, strconv.Itoa(yr))
+		text(ctx, fs, fonts.Figures, ts, inkSoft, x, base, canvas.Center, strconv.Itoa(yr))
 	}
 
 	// The lines, first term on top: drawn last; a single term's band

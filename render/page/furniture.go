@@ -48,7 +48,7 @@ func (f *Feature) key(p pen, k layout.KeyBand) {
 	for _, y := range years {
 		x := x0 + (float64(y)-from)/(to-from)*(x1-x0)
 		p.line(x, strip.Y0, x, strip.Y0-tick, f.Rule(), ruleGrey)
-		p.text(fonts.Regular, tsize, inkSoft, x, base, canvas.Center, strconv.Itoa(y))
+		p.text(fonts.Figures, tsize, inkSoft, x, base, canvas.Center, strconv.Itoa(y))
 	}
 	// What the height means, right-aligned in the band beside the strip:
 	// on one line level with the strip, or on two (strip and tick row),
@@ -68,7 +68,7 @@ func (f *Feature) key(p pen, k layout.KeyBand) {
 // out where a label would collide with the one before.
 func (f *Feature) eraTicks(width, size float64) []int {
 	from, to := f.Data.Span.From, f.Data.Span.To
-	gap := f.Fonts.Width(fonts.Regular, size, "0000") + size
+	gap := f.Fonts.Width(fonts.Figures, size, "0000") + size
 	perYear := width / float64(to-from)
 	years := []int{from}
 	for _, e := range f.Spec.Palette.Eras {

@@ -363,7 +363,7 @@ func (f *Feature) ticks(p pen, pn layout.Panel) {
 	}
 	for _, y := range years {
 		x := pr.X0 + (float64(y)-from)/(to-from)*pr.W()
-		p.text(fonts.Regular, size, inkSoft, x, base, canvas.Center, strconv.Itoa(y))
+		p.text(fonts.Figures, size, inkSoft, x, base, canvas.Center, strconv.Itoa(y))
 	}
 }
 

@@ -5,7 +5,7 @@
 // BleedBox, TrimBox), colours either in one embedded ICC sRGB profile (an
 // RGB file: no output intent, no PDF/X claim) or, with a printing condition
 // (Options.Press), in the press's device colours with its profile as the
-// GTS_PDFX output intent (PDF/X-4), TrueType fonts embedded as
+// GTS_PDFX output intent (PDF/X-4), TrueType and CFF fonts embedded as
 // subset CID fonts with ToUnicode maps, Info and XMP metadata that agree,
 // a trailer /ID, and printer's marks in a registration colour. Drawing
 // stays canvas code: each page is drawn on a *canvas.Canvas and rendered
@@ -30,11 +30,12 @@
 // can be encoded before the document knows all glyphs. An EncodedPage names
 // fonts by FontKey (SHA-256 of the font tables); pages made by EncodePage
 // carry the font, pages restored from a cache need Writer.RegisterFont.
-// The slug font, Go Regular, is always registered.
+// The slug font, DejaVu Sans Condensed, is always registered.
 //
 // Limits, each reported or handled rather than written wrong: raster
-// images and hatch patterns are errors; CFF-outline fonts, vertical text,
-// rotated glyphs and glyph offsets are drawn as outlines (not searchable);
+// images and hatch patterns are errors; fonts whose outlines cannot be
+// embedded, vertical text and rotated glyphs are drawn as outlines (not
+// searchable);
 // miter-clip and arcs joins are stroked into outlines by canvas; a
 // gradient's opacity is its first stop's (PDF shadings have no alpha
 // without soft masks).
@@ -421,7 +422,10 @@ func (w *Writer) writePage(p *EncodedPage) error {
 					return fmt.Errorf("font %v is not registered", pf.Key)
 				}
 				if !d.embeddable {
-					return fmt.Errorf("font %s has no TrueType outlines to embed", d.psName)
+					return fmt.Errorf("font %s has no TrueType or CFF outlines to embed", d.psName)
+				}
+				if d.refusal != "" {
+					return fmt.Errorf("font %s: %s", d.psName, d.refusal)
 				}
 				df = &docFont{ref: w.alloc(), data: d, used: map[uint16]string{}}
 				w.fonts[pf.Key] = df
@@ -723,26 +727,26 @@ func (w *Writer) Close() error {
 	return w.err
 }
 
-// writeFont embeds a TrueType font as a Type 0 font with a CIDFontType2
-// descendant (ISO 32000-1 §9.7): Identity-H encoding, CIDToGIDMap
-// Identity, widths, FontFile2 and a ToUnicode CMap.
+// writeFont embeds a font as a Type 0 font (ISO 32000-1 §9.7) with
+// Identity-H encoding, widths and a ToUnicode CMap: TrueType as a
+// CIDFontType2 descendant (CIDToGIDMap Identity, FontFile2), CFF as a
+// CIDFontType0 (FontFile3 /CIDFontType0C); see fontData.program.
 func (w *Writer) writeFont(f *docFont) error {
 	d := f.data
 	used := map[uint16]bool{}
 	for id := range f.used {
 		used[id] = true
 	}
-	tag := subsetTag(d.key, used)
-	file, err := d.subset(used)
+	name := d.baseName(used)
+	file, fileKey, fileDict, subtype, cidExtra, err := d.program(used)
 	if err != nil {
 		return err
 	}
-	name := tag + "+" + d.psName
 	scale := 1000 / float64(d.unitsPerEm)
 
 	fileData, filter := w.compress(file)
 	fontFile := w.alloc()
-	w.stream(fontFile, " /Length1 "+strconv.Itoa(len(file))+filter, fileData)
+	w.stream(fontFile, fileDict+filter, fileData)
 
 	s := d.sfnt
 	ascent, descent := 0.0, 0.0
@@ -778,7 +782,7 @@ func (w *Writer) writeFont(f *docFont) error {
 	b = appendNum(b, capHeight)
 	// StemV is required but fonts do not store it; 80 is the customary
 	// value for a regular weight (no standard gives one).
-	b = append(b, " /StemV 80 /FontFile2 "...)
+	b = append(b, " /StemV 80 /"+fileKey+" "...)
 	b = append(b, ref(fontFile)...)
 	b = append(b, " >>"...)
 	desc := w.alloc()
@@ -790,11 +794,11 @@ func (w *Writer) writeFont(f *docFont) error {
 	}
 	sort.Ints(ids)
 	b = b[:0]
-	b = append(b, "<< /Type /Font /Subtype /CIDFontType2 /BaseFont /"...)
+	b = append(b, "<< /Type /Font /Subtype /"+subtype+" /BaseFont /"...)
 	b = append(b, name...)
 	b = append(b, " /CIDSystemInfo << /Registry (Adobe) /Ordering (Identity) /Supplement 0 >> /FontDescriptor "...)
 	b = append(b, ref(desc)...)
-	b = append(b, " /CIDToGIDMap /Identity /W ["...)
+	b = append(b, cidExtra+" /W ["...)
 	for i := 0; i < len(ids); {
 		j := i
 		for j+1 < len(ids) && ids[j+1] == ids[j]+1 {

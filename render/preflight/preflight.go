@@ -80,6 +80,8 @@ const (
 	IDPalette     = "palette"        // the palette check's verdict and findings
 	IDPaperTint   = "paper-tint"     // a non-white paper colour printed over the whole page
 	IDSparse      = "sparse-counts"  // a term whose line rests on counts too small to read
+	IDOutlined    = "text-outlined"  // text drawn as glyph outlines, not embedded as a font
+	IDLicence     = "font-licence"   // what a font's licence allows the files it goes into
 )
 
 // Finding is one result.
@@ -152,6 +154,7 @@ func Check(in Input) ([]Finding, error) {
 	c.palette()
 	c.paperTint()
 	c.press()
+	c.fontFiles()
 	sort.SliceStable(c.found, func(i, j int) bool {
 		a, b := c.found[i], c.found[j]
 		if a.Severity != b.Severity {
@@ -179,6 +182,48 @@ func (c *checker) paperTint() {
 	}
 	c.add(Finding{ID: IDPaperTint, Severity: Warning, At: c.in.Spec.Where("palette.paper").String(),
 		Message: fmt.Sprintf("paper %s is printed as a tint of ink over every page, bleed included; if the stock has that colour, set paper to #ffffff for print, or check the tint on a press proof", p.Text)})
+}
+
+// fontFiles reports, for each face an output draws with, text that
+// cannot go into its files as a font (drawn as outlines: not searchable,
+// heavier, no hinting) and what the face's licence (OS/2 fsType) says
+// where it shapes the files. A licence that forbids embedding is refused
+// when the fonts are loaded (bad input), before preflight runs.
+func (c *checker) fontFiles() {
+	embeds := c.in.Output.Kind == specs.Print || c.in.Output.Fonts.Embed
+	seen := map[string]bool{}
+	for _, st := range []fonts.Style{fonts.Regular, fonts.Bold, fonts.Italic} {
+		name := c.in.Fonts.Name(st)
+		if seen[name] {
+			continue
+		}
+		seen[name] = true
+		key := "regular"
+		if st == fonts.Bold {
+			key = "bold"
+		}
+		at := c.in.Spec.Where(c.path("fonts." + key)).String()
+		e := c.in.Fonts.Embedding(st)
+		if e.Outlined != "" && c.in.Output.Kind == specs.Print {
+			c.add(Finding{ID: IDOutlined, Severity: Warning, At: at,
+				Message: fmt.Sprintf("text in %s (%s) is drawn as outlines, not as a font: %s; it will not be searchable and may print heavier at small sizes — use a TrueType or CFF OpenType font", name, st, e.Outlined)})
+		}
+		if !embeds {
+			continue
+		}
+		l := e.Licence
+		switch {
+		case !l.HasOS2:
+			c.add(Finding{ID: IDLicence, Severity: Info, At: at,
+				Message: fmt.Sprintf("%s has no OS/2 table, so its embedding permission is not stated; embedded as installable (common practice) — check the font's licence", name)})
+		case l.NoSubsetting():
+			c.add(Finding{ID: IDLicence, Severity: Info, At: at,
+				Message: fmt.Sprintf("%s: its licence forbids subsetting (%s), so the whole font is embedded in every file that uses it", name, l)})
+		case l.PreviewPrint():
+			c.add(Finding{ID: IDLicence, Severity: Info, At: at,
+				Message: fmt.Sprintf("%s is licensed for preview & print embedding (%s): the files may be viewed and printed, not edited with the font", name, l)})
+		}
+	}
 }
 
 // Errs reports whether any finding is an error: something that will print

@@ -15,10 +15,10 @@ import (
 	"io"
 	"math"
 
+	"github.com/go-fonts/dejavu/dejavusanscondensed"
+	"github.com/go-fonts/dejavu/dejavusanscondensedbold"
 	"github.com/tdewolff/canvas"
 	"github.com/tdewolff/canvas/renderers/rasterizer"
-	"golang.org/x/image/font/gofont/gobold"
-	"golang.org/x/image/font/gofont/goregular"
 
 	"sheaf/palette"
 	"sheaf/palette/press"
@@ -180,13 +180,15 @@ func DrawFor(c *canvas.Canvas, s palette.Scale, r palette.Report, cond *press.Co
 type fonts struct{ regular, bold *canvas.FontFamily }
 
 func loadFonts() (fonts, error) {
-	reg := canvas.NewFontFamily("Go")
-	if err := reg.LoadFont(goregular.TTF, 0, canvas.FontRegular); err != nil {
-		return fonts{}, fmt.Errorf("swatch: loading Go Regular: %w", err)
+	// The built-in face of every output (layout/fonts): DejaVu Sans
+	// Condensed.
+	reg := canvas.NewFontFamily("DejaVu Sans Condensed")
+	if err := reg.LoadFont(dejavusanscondensed.TTF, 0, canvas.FontRegular); err != nil {
+		return fonts{}, fmt.Errorf("swatch: loading DejaVu Sans Condensed: %w", err)
 	}
-	bold := canvas.NewFontFamily("Go Bold")
-	if err := bold.LoadFont(gobold.TTF, 0, canvas.FontRegular); err != nil {
-		return fonts{}, fmt.Errorf("swatch: loading Go Bold: %w", err)
+	bold := canvas.NewFontFamily("DejaVu Sans Condensed Bold")
+	if err := bold.LoadFont(dejavusanscondensedbold.TTF, 0, canvas.FontRegular); err != nil {
+		return fonts{}, fmt.Errorf("swatch: loading DejaVu Sans Condensed Bold: %w", err)
 	}
 	return fonts{reg, bold}, nil
 }
