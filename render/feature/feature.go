@@ -11,6 +11,7 @@ package feature
 import (
 	"fmt"
 	"strconv"
+	"sync"
 	"time"
 
 	"sheaf/layout"
@@ -27,6 +28,14 @@ import (
 type Job struct {
 	Spec *specs.Spec
 	Data *series.Set
+
+	// table is the counts table Data was selected from, kept for the
+	// inserts' terms (nil: they read the table again).
+	table *series.Table
+	// fonts are the outputs' fonts by output name, parsed once for the
+	// output and the inserts that borrow it.
+	mu    sync.Mutex
+	fonts map[string]*fonts.Set
 }
 
 // Load reads the spec at path and its data tables.
@@ -40,11 +49,34 @@ func Load(path string) (*Job, error) {
 
 // LoadData reads the data tables of a loaded spec.
 func LoadData(s *specs.Spec) (*Job, error) {
-	d, err := series.Load(s)
+	t, err := series.ReadTable(s)
 	if err != nil {
 		return nil, specs.BadInput(err)
 	}
-	return &Job{Spec: s, Data: d}, nil
+	d, err := t.Select(s)
+	if err != nil {
+		return nil, specs.BadInput(err)
+	}
+	return &Job{Spec: s, Data: d, table: t}, nil
+}
+
+// fontsFor loads out's fonts once for the job: the output and every
+// insert that borrows it measure and draw with the same Set.
+func (j *Job) fontsFor(out *specs.Output) (*fonts.Set, error) {
+	j.mu.Lock()
+	defer j.mu.Unlock()
+	if fs, ok := j.fonts[out.Name]; ok {
+		return fs, nil
+	}
+	fs, err := fonts.Load(j.Spec, out)
+	if err != nil {
+		return nil, err
+	}
+	if j.fonts == nil {
+		j.fonts = map[string]*fonts.Set{}
+	}
+	j.fonts[out.Name] = fs
+	return fs, nil
 }
 
 // Scale builds the era palette the spec asks for over span.
@@ -104,7 +136,7 @@ func (o *Output) Name() string { return o.Spec.Name }
 // Prepare loads the fonts, solves the layout and builds the palette of
 // one output of the job's spec.
 func (j *Job) Prepare(out *specs.Output) (*Output, error) {
-	fs, err := fonts.Load(j.Spec, out)
+	fs, err := j.fontsFor(out)
 	if err != nil {
 		return nil, specs.BadInput(err)
 	}

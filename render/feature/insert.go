@@ -6,7 +6,6 @@ import (
 	"errors"
 	"fmt"
 
-	"sheaf/layout/fonts"
 	"sheaf/render/insert"
 	"sheaf/specs"
 	"sheaf/specs/series"
@@ -33,11 +32,17 @@ func (j *Job) PrepareInsert(in *specs.Insert) (*Insert, error) {
 		return nil, specs.BadInput(fmt.Errorf("%s: inserts.%s.output: no output named %q", j.Spec.Where("inserts."+in.Name+".output"), in.Name, in.Output))
 	}
 	// The insert's own terms, in its order, scaled as the feature is.
-	data, err := series.Load(j.Spec.ForInsert(in))
+	var data *series.Set
+	var err error
+	if j.table != nil {
+		data, err = j.table.Select(j.Spec.ForInsert(in))
+	} else {
+		data, err = series.Load(j.Spec.ForInsert(in))
+	}
 	if err != nil {
 		return nil, specs.BadInput(err)
 	}
-	fs, err := fonts.Load(j.Spec, out)
+	fs, err := j.fontsFor(out)
 	if err != nil {
 		return nil, specs.BadInput(err)
 	}

@@ -26,6 +26,7 @@ import (
 	"slices"
 	"strconv"
 	"strings"
+	"sync"
 	"unicode/utf8"
 
 	"golang.org/x/text/cases"
@@ -80,6 +81,32 @@ type Set struct {
 // Load reads and scales the data a spec names. Problems come back as
 // specs.Errors with file and line.
 func Load(s *specs.Spec) (*Set, error) {
+	t, err := ReadTable(s)
+	if err != nil {
+		return nil, err
+	}
+	return t.Select(s)
+}
+
+// Table is a spec's counts table read and checked once, so that the spec
+// and the specs made from it for its inserts (specs.Spec.ForInsert: the
+// same data, span and scaling, other terms) select from one reading of
+// what may be millions of rows. Its methods are safe for concurrent use.
+type Table struct {
+	mu     sync.Mutex // Select marks the selection in aggs
+	spec   *specs.Spec
+	totals map[int]float64
+	aggs   map[string]*agg
+	order  []string // keys in the table's order
+	rows   int
+	keep   bool // every term's counts are in aggs: Select reads no more
+}
+
+// ReadTable reads and checks the totals and counts tables a spec names.
+// It keeps every term's yearly counts when the table has at most twice as
+// many terms as the spec can select (else Select reads the counts of its
+// terms again).
+func ReadTable(s *specs.Spec) (*Table, error) {
 	var errs specs.Errors
 	totals, ok := readTotals(s, &errs)
 	if !ok {
@@ -93,6 +120,24 @@ func Load(s *specs.Spec) (*Set, error) {
 	if len(errs) > 0 {
 		return nil, errs
 	}
+	return &Table{spec: s, totals: totals, aggs: aggs, order: order, rows: r.rows, keep: r.keep}, nil
+}
+
+// Select picks, scales and arranges the terms s asks for from the table.
+// s is the spec the table was read for or one made from it with
+// specs.Spec.ForInsert.
+func (t *Table) Select(s *specs.Spec) (*Set, error) {
+	t.mu.Lock()
+	defer t.mu.Unlock()
+	var errs specs.Errors
+	r := &reader{spec: s, totals: t.totals, errs: &errs, fold: s.Data.FoldCase, rows: t.rows, keep: t.keep}
+	if s.Data.FoldCase {
+		r.folder = cases.Fold()
+	}
+	aggs, order := t.aggs, t.order
+	for _, a := range aggs {
+		a.idx = -1 // a selection before this one's
+	}
 	selected := r.selectTerms(aggs, order)
 	if len(errs) > 0 {
 		return nil, errs
@@ -100,7 +145,7 @@ func Load(s *specs.Spec) (*Set, error) {
 	set := &Set{Span: s.Years, Terms: len(order), Rows: r.rows, Rolling: s.Scale.Rolling}
 	for y := s.Years.From; y <= s.Years.To; y++ {
 		set.Years = append(set.Years, float64(y))
-		if _, ok := totals[y]; !ok {
+		if _, ok := t.totals[y]; !ok {
 			set.Gaps = append(set.Gaps, y)
 		}
 	}
@@ -117,8 +162,13 @@ func Load(s *specs.Spec) (*Set, error) {
 		return nil, errs
 	}
 	if r.keep {
-		for _, k := range selected {
-			r.counts = append(r.counts, aggs[k].counts)
+		// Copies: a Set's counts are its own, whoever else selects.
+		span := s.Years.Len()
+		all := make([]float64, len(selected)*span)
+		for i, k := range selected {
+			c := all[i*span : (i+1)*span : (i+1)*span]
+			copy(c, aggs[k].counts)
+			r.counts = append(r.counts, c)
 		}
 	} else {
 		r.pass2(aggs, selected)
