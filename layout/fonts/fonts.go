@@ -92,6 +92,16 @@ type Set struct {
 	saved    map[widthKey]float64
 	savedRaw []byte
 	reused   int
+	// advances are texts' shaped advances in font units by style: the
+	// shaper works in font units whatever the size (canvas scales the sum
+	// by the face's mm per em), so a label tried at several sizes, or
+	// measured for several purposes, is shaped once.
+	advances map[advanceKey]int32
+}
+
+type advanceKey struct {
+	st   Style
+	text string
 }
 
 type widthKey struct {
@@ -346,7 +356,7 @@ func (s *Set) Width(st Style, size float64, text string) float64 {
 	}
 	w, ok := s.saved[k]
 	if !ok {
-		w = s.Face(st, size).TextWidth(text) / mmPerPt
+		w = s.measure(k.st, size, text)
 	}
 	if s.widths == nil {
 		s.widths = make(map[widthKey]float64)
@@ -359,6 +369,35 @@ func (s *Set) Width(st Style, size float64, text string) float64 {
 	}
 	return w
 }
+
+// measure is canvas.FontFace.TextWidth in points, shaping text in st
+// once for every size: the same sum of advances scaled the same way, so
+// the same float64. s.mu is held.
+func (s *Set) measure(st Style, size float64, text string) float64 {
+	face := s.Face(st, size)
+	k := advanceKey{st, text}
+	units, ok := s.advances[k]
+	if !ok {
+		for _, g := range face.Glyphs(text) {
+			if !g.Vertical {
+				units += g.XAdvance
+			} else {
+				units -= g.YAdvance
+			}
+		}
+		if s.advances == nil {
+			s.advances = make(map[advanceKey]int32)
+		}
+		if len(s.advances) < maxAdvances {
+			s.advances[k] = units
+		}
+	}
+	return face.MmPerEm * float64(units) / mmPerPt
+}
+
+// maxAdvances bounds the advances kept: a few per panel of a large
+// catalog, a few bytes each beside the text the labels hold anyway.
+const maxAdvances = 1 << 16
 
 // Wrap breaks text into lines no wider than width points, greedily at
 // spaces; a newline in text forces a break. A single word wider than width
