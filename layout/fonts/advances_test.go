@@ -23,5 +23,27 @@ func TestWidthSharedAcrossSizesIsCanvasWidth(t *testing.T) {
 			}
 		}
 	}
-	require.NotEmpty(t, s.advances, "the advances were shared")
+	require.NotEmpty(t, s.adv.m, "the advances were kept")
+}
+
+// Two outputs in the same faces share their shaping; their widths are
+// still canvas's (the reference), and a Set in other faces shares nothing.
+func TestShareShaping(t *testing.T) {
+	a, err := Default()
+	require.NoError(t, err)
+	b, err := Default()
+	require.NoError(t, err)
+	require.True(t, b.ShareShaping(a), "the same built-in faces")
+	a.Width(Bold, 6.5, "hydraulic condenser")
+	require.Same(t, a.adv, b.adv)
+	for _, size := range []float64{6.5, 5.525, 10.5} {
+		want := b.Face(Bold, size).TextWidth("hydraulic condenser") / mmPerPt // canvas's TextWidth: the reference
+		require.Equal(t, want, b.Width(Bold, size, "hydraulic condenser"))
+	}
+
+	c, err := Default()
+	require.NoError(t, err)
+	c.raw[Bold] = c.raw[Regular] // other bytes for one style
+	require.False(t, c.ShareShaping(a))
+	require.NotSame(t, a.adv, c.adv)
 }

@@ -8,6 +8,7 @@
 package fonts
 
 import (
+	"bytes"
 	"errors"
 	"fmt"
 	"io"
@@ -92,11 +93,41 @@ type Set struct {
 	saved    map[widthKey]float64
 	savedRaw []byte
 	reused   int
-	// advances are texts' shaped advances in font units by style: the
-	// shaper works in font units whatever the size (canvas scales the sum
-	// by the face's mm per em), so a label tried at several sizes, or
-	// measured for several purposes, is shaped once.
-	advances map[advanceKey]int32
+	// adv holds texts' shaped advances in font units by style: the shaper
+	// works in font units whatever the size (canvas scales the sum by the
+	// face's mm per em), so a label tried at several sizes, or measured
+	// for several outputs set in the same faces (ShareShaping), is shaped
+	// once.
+	adv *advances
+}
+
+type advances struct {
+	mu sync.Mutex // taken inside a Set's mu, never the other way round
+	m  map[advanceKey]int32
+}
+
+// ShareShaping makes s measure with o's shaped advances when both hold
+// the same faces (the same font bytes and faces for every style), and
+// reports whether it does. Widths stay each Set's own.
+func (s *Set) ShareShaping(o *Set) bool {
+	if s == o {
+		return true
+	}
+	for st := range numStyles {
+		if s.face[st] != o.face[st] || !bytes.Equal(s.raw[st], o.raw[st]) {
+			return false
+		}
+	}
+	o.mu.Lock()
+	if o.adv == nil {
+		o.adv = &advances{}
+	}
+	adv := o.adv
+	o.mu.Unlock()
+	s.mu.Lock()
+	s.adv = adv
+	s.mu.Unlock()
+	return true
 }
 
 type advanceKey struct {
@@ -376,7 +407,12 @@ func (s *Set) Width(st Style, size float64, text string) float64 {
 func (s *Set) measure(st Style, size float64, text string) float64 {
 	face := s.Face(st, size)
 	k := advanceKey{st, text}
-	units, ok := s.advances[k]
+	if s.adv == nil {
+		s.adv = &advances{}
+	}
+	s.adv.mu.Lock()
+	defer s.adv.mu.Unlock()
+	units, ok := s.adv.m[k]
 	if !ok {
 		for _, g := range face.Glyphs(text) {
 			if !g.Vertical {
@@ -385,11 +421,11 @@ func (s *Set) measure(st Style, size float64, text string) float64 {
 				units -= g.YAdvance
 			}
 		}
-		if s.advances == nil {
-			s.advances = make(map[advanceKey]int32)
+		if s.adv.m == nil {
+			s.adv.m = make(map[advanceKey]int32)
 		}
-		if len(s.advances) < maxAdvances {
-			s.advances[k] = units
+		if len(s.adv.m) < maxAdvances {
+			s.adv.m[k] = units
 		}
 	}
 	return face.MmPerEm * float64(units) / mmPerPt

@@ -72,6 +72,11 @@ func (j *Job) fontsFor(out *specs.Output) (*fonts.Set, error) {
 	if err != nil {
 		return nil, err
 	}
+	for _, o := range j.Spec.Outputs {
+		if other := j.fonts[o.Name]; other != nil && fs.ShareShaping(other) {
+			break // outputs in the same faces shape each label once
+		}
+	}
 	if j.fonts == nil {
 		j.fonts = map[string]*fonts.Set{}
 	}
