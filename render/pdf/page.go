@@ -11,7 +11,7 @@ import (
 	"math"
 	"sort"
 	"strconv"
-	"sync"
+	"runtime"
 
 	"github.com/tdewolff/canvas"
 )
@@ -153,21 +153,38 @@ func contains(outer, inner canvas.Rect) bool {
 // function gets a canvas in millimetres (as all canvas renderers use) the
 // size of the MediaBox; MMPerPt converts layout points.
 func EncodePage(setup PageSetup, draw func(c *canvas.Canvas) error) (*EncodedPage, error) {
-	return encodePage(setup, draw, 0, nil, nil)
+	return encodePage(setup, draw, 0, nil, encodePools)
 }
 
-// pools recycles a writer's content buffers and zlib compressors between
-// pages: both are large (hundreds of KB) and every page needs them.
+// encodePools are EncodePage's: a program that encodes pages one by one,
+// on every core, reuses as many compressors and content buffers as it
+// runs pages at once, rather than allocating a megabyte a page for the
+// garbage collector. A reused compressor writes the very bytes a new one
+// would (zlib.Writer.Reset).
+var encodePools = newPools(DefaultCompression)
+
+// pools recycles content buffers and zlib compressors between pages:
+// both are large (hundreds of KB) and every page needs them. They are
+// free lists of a fixed length, unlike a sync.Pool, which the garbage
+// collector empties: a build allocates so much that it would empty it
+// between pages.
 type pools struct {
 	level int
-	bufs  sync.Pool // *[]byte
-	zlibs sync.Pool // *zlib.Writer at level
+	bufs  chan []byte
+	zlibs chan *zlib.Writer // at level
+}
+
+func newPools(level int) *pools {
+	n := max(2, runtime.GOMAXPROCS(0))
+	return &pools{level: level, bufs: make(chan []byte, n), zlibs: make(chan *zlib.Writer, n)}
 }
 
 func (p *pools) buf() []byte {
 	if p != nil {
-		if b, ok := p.bufs.Get().(*[]byte); ok {
-			return (*b)[:0]
+		select {
+		case b := <-p.bufs:
+			return b[:0]
+		default:
 		}
 	}
 	return make([]byte, 0, 64<<10)
@@ -175,7 +192,30 @@ func (p *pools) buf() []byte {
 
 func (p *pools) putBuf(b []byte) {
 	if p != nil && cap(b) > 0 {
-		p.bufs.Put(&b)
+		select {
+		case p.bufs <- b:
+		default:
+		}
+	}
+}
+
+func (p *pools) zlib() *zlib.Writer {
+	if p != nil {
+		select {
+		case z := <-p.zlibs:
+			return z
+		default:
+		}
+	}
+	return nil
+}
+
+func (p *pools) putZlib(z *zlib.Writer) {
+	if p != nil {
+		select {
+		case p.zlibs <- z:
+		default:
+		}
 	}
 }
 
@@ -943,9 +983,9 @@ func (e *encoder) finish(boxes PageBoxes, level int, pl *pools) (*EncodedPage, e
 	}
 	var out bytes.Buffer
 	out.Grow(len(e.buf)/2 + 64)
-	var zw *zlib.Writer
-	if pl != nil {
-		zw, _ = pl.zlibs.Get().(*zlib.Writer)
+	zw := pl.zlib()
+	if zw != nil && pl.level != level {
+		zw = nil // a pool for another level (Writer's Options.Compression)
 	}
 	if zw != nil {
 		zw.Reset(&out)
@@ -959,9 +999,7 @@ func (e *encoder) finish(boxes PageBoxes, level int, pl *pools) (*EncodedPage, e
 	if err := zw.Close(); err != nil {
 		return nil, err
 	}
-	if pl != nil {
-		pl.zlibs.Put(zw)
-	}
+	pl.putZlib(zw)
 	p.Content = out.Bytes()
 	p.Compressed = true
 	return p, nil

@@ -42,6 +42,7 @@
 package pdf
 
 import (
+	"cmp"
 	"sheaf/palette/press"
 
 	"bufio"
@@ -169,7 +170,7 @@ func NewWriter(w io.Writer, opts Options) *Writer {
 		nextObj:   firstFreeObj,
 		offsets:   make([]int64, firstFreeObj),
 		keys:      newFontKeys(),
-		pools:     &pools{level: opts.Compression},
+		pools:     newPools(cmp.Or(opts.Compression, DefaultCompression)),
 		registry:  map[FontKey]*fontData{},
 		fonts:     map[FontKey]*docFont{},
 		functions: map[string]int{},
