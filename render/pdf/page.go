@@ -9,9 +9,9 @@ import (
 	"fmt"
 	"image"
 	"math"
+	"runtime"
 	"sort"
 	"strconv"
-	"runtime"
 
 	"github.com/tdewolff/canvas"
 )
