@@ -67,6 +67,15 @@ type Spec struct {
 
 	Preflight Preflight
 
+	// The editor's layer (text.go): the language of words and numbers,
+	// every phrase, annotations, highlighted terms, labelled periods.
+	Language    Language
+	Text        Text
+	Annotations []Annotation
+	Highlights  []string
+	Periods     []Period
+	PeriodBands bool // light bands behind every plot for the periods
+
 	positions map[string]Pos
 }
 
