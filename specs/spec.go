@@ -76,6 +76,10 @@ type Spec struct {
 	Periods     []Period
 	PeriodBands bool // light bands behind every plot for the periods
 
+	// DataGaps are the years of the span the data has no total for, set
+	// when the data is loaded (render/feature), for the gap note.
+	DataGaps []int
+
 	positions map[string]Pos
 }
 

@@ -457,3 +457,12 @@ func spanText(from, to int) string {
 	}
 	return strconv.Itoa(from)
 }
+
+// GapNoteText is the note on the years without data (DataGaps), or "" when
+// there are none or the spec turns it off.
+func (s *Spec) GapNoteText() string {
+	if len(s.DataGaps) == 0 || s.Text.GapNoteOn == GapNoteNone {
+		return ""
+	}
+	return Fill(s.Phrase(PhraseGapNote), "years", s.YearList(s.DataGaps))
+}
