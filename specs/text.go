@@ -215,7 +215,24 @@ func withBraces(pairs []string) []string {
 // most digits fraction digits.
 func (s *Spec) FormatNumber(v float64, digits int) string {
 	p := message.NewPrinter(s.Language.Tag())
-	return p.Sprint(number.Decimal(v, number.MaxFractionDigits(digits)))
+	out := p.Sprint(number.Decimal(v, number.MaxFractionDigits(digits)))
+	if s.Language == Spanish {
+		out = minimumGrouping2(out, ".", ",")
+	}
+	return out
+}
+
+// minimumGrouping2 applies CLDR's minimumGroupingDigits = 2 (Spanish, UTS
+// #35 Part 3 §3.3), which golang.org/x/text does not: a number with four
+// integer digits is written without its group separator (1234,5, but
+// 12.345,5).
+func minimumGrouping2(s, group, decimal string) string {
+	intPart, _, _ := strings.Cut(s, decimal)
+	digits := strings.TrimLeft(intPart, "-−")
+	if strings.Count(digits, group) == 1 && len(digits) == 4+len(group) {
+		return strings.Replace(s, group, "", 1)
+	}
+	return s
 }
 
 // FormatSignificant writes v with three significant digits (at least the
