@@ -146,13 +146,20 @@ func (f *Feature) placeNotes(pn layout.Panel) []Note {
 	met := f.Fonts.Metrics(fonts.Regular, size)
 	var out []Note
 	var leaders []segment
-	for _, i := range idx {
+	// Every mark first, so no text lands on a mark placed after it.
+	anchors := make([]curve.Point, len(idx))
+	marks := make([]layout.Rect, len(idx))
+	for k, i := range idx {
+		anchors[k], marks[k] = f.noteMark(m, vals, f.Spec.Annotations[i], pr)
+		obstacles = append(obstacles, grow(marks[k], f.notePad()))
+		solid = append(solid, marks[k]) // leaders keep off the marks
+	}
+	step := math.Max(0.5, size*0.15) // candidate spots: a fine grid
+	for k, i := range idx {
 		a := f.Spec.Annotations[i]
 		n := Note{Index: i, Term: a.Term, From: a.From, To: a.To, Text: a.Text, Item: pn.Item, Size: size}
-		anchor, mark := f.noteMark(m, vals, a, pr)
-		n.Mark = mark
-		obstacles = append(obstacles, grow(mark, f.notePad()))
-		solid = append(solid, mark) // leaders keep off the marks
+		anchor := anchors[k]
+		n.Mark = marks[k]
 		lh := size * f.leading()
 		minLead := math.Max(2, size*0.4) // a leader always shows which mark a text belongs to
 		best, bestScore, bestLines := layout.Rect{}, math.Inf(1), []string(nil)
@@ -163,7 +170,6 @@ func (f *Feature) placeNotes(pn layout.Panel) []Note {
 			}
 			h := met.Ascent + met.Descent + float64(len(lines)-1)*lh
 			penalty := float64(k) * 3 // one line is better than two
-			const step = 0.5
 			for y0 := inner.Y0; y0+h <= inner.Y1+1e-9; y0 += step {
 				for x0 := inner.X0; x0+w <= inner.X1+1e-9; x0 += step {
 					box := layout.Rect{X0: x0, Y0: y0, X1: x0 + w, Y1: y0 + h}
@@ -203,6 +209,9 @@ func (f *Feature) placeNotes(pn layout.Panel) []Note {
 func (f *Feature) noteMark(m curve.Map, vals []float64, a specs.Annotation, pr layout.Rect) (curve.Point, layout.Rect) {
 	from := f.Data.Span.From
 	val := func(y int) float64 {
+		if y-from < 0 || y-from >= len(vals) {
+			return 0 // the spec's check keeps notes inside the span
+		}
 		if v := vals[y-from]; !math.IsNaN(v) {
 			return v
 		}
@@ -502,4 +511,26 @@ func segHitsAny(s segment, rs []layout.Rect) bool {
 		}
 	}
 	return false
+}
+
+// evenRows sets every label of a row at one size, the smallest any of
+// them needed: a row that mixes a shrunk label with full-size neighbours
+// looks like a mistake. The labels made smaller are reported as shrunk.
+func (f *Feature) evenRows() {
+	for _, pg := range f.Plan.Pages {
+		for i := 0; i < len(pg.Panels); {
+			j := i
+			size := math.Inf(1)
+			for ; j < len(pg.Panels) && pg.Panels[j].Row == pg.Panels[i].Row; j++ {
+				size = math.Min(size, f.labels[pg.Panels[j].Item].Size)
+			}
+			for k := i; k < j; k++ {
+				l := &f.labels[pg.Panels[k].Item]
+				if l.Size > size {
+					l.Size, l.Shrunk = size, true
+				}
+			}
+			i = j
+		}
+	}
 }

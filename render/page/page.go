@@ -346,15 +346,34 @@ func (f *Feature) ticks(p pen, pn layout.Panel) {
 		x := m.X(float64(y))
 		p.line(x, pr.Y0, x, pr.Y0-tick, f.Rule(), ruleGrey)
 	}
-	lo, hi := f.tickLabelRoom(pr)
-	for _, y := range years {
+	for _, l := range f.tickLabels(pn, m) {
+		p.text(fonts.Regular, size, inkSoft, (l.X0+l.X1)/2, base, canvas.Center, l.Text)
+	}
+}
+
+// tickLabel is a year label under a panel, centred on its tick.
+type tickLabel struct {
+	Text   string
+	X0, X1 float64
+}
+
+// tickLabels are the year labels a panel shows: every tick's, less those
+// that would reach past tickLabelRoom, where they could run into the
+// neighbouring panel's.
+func (f *Feature) tickLabels(pn layout.Panel, m curve.Map) []tickLabel {
+	size := f.Output.Type.Ticks.Pt()
+	lo, hi := f.tickLabelRoom(pn.Plot)
+	var out []tickLabel
+	for _, y := range f.tickYears(pn.Plot.W(), size) {
 		x := m.X(float64(y))
 		t := strconv.Itoa(y)
-		if w := f.Fonts.Width(fonts.Regular, size, t); x-w/2 < lo || x+w/2 > hi {
-			continue // it would run into the next panel's labels
+		w := f.Fonts.Width(fonts.Regular, size, t)
+		if x-w/2 < lo || x+w/2 > hi {
+			continue
 		}
-		p.text(fonts.Regular, size, inkSoft, x, base, canvas.Center, t)
+		out = append(out, tickLabel{t, x - w/2, x + w/2})
 	}
+	return out
 }
 
 // tickLabelRoom is how far a panel's tick labels may reach: into half the
@@ -446,6 +465,7 @@ func (f *Feature) fitLabels() {
 		}
 		f.labels[i] = l
 	}
+	f.evenRows()
 }
 
 // Labels returns how every term's label is set; the ones shrunk or cut
