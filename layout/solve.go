@@ -11,7 +11,7 @@ import (
 )
 
 const (
-	mm = 72 / 25.4 // points per millimetre: 1 in = 25.4 mm, 1 pt = 1/72 in
+	mm = specs.PtPerMm
 
 	// defaultLeading is the line height when the spec gives none: 120 % of
 	// the type size, the usual setting for text type (common practice).

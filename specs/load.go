@@ -269,6 +269,7 @@ type decoder struct {
 	errs  Errors
 	pos   map[string]Pos
 	nodes int
+	desc  *describer // not nil: describe the key tables for Schema instead of decoding
 }
 
 func (d *decoder) at(n *yaml.Node) Pos { return Pos{File: d.file, Line: n.Line, Col: n.Column} }
@@ -307,6 +308,10 @@ type field struct {
 // mapping decodes a mapping node by its known keys; unknown keys are errors
 // with a suggestion. required lists keys that must be present.
 func (d *decoder) mapping(n *yaml.Node, path string, fields []field, required ...string) {
+	if d.desc != nil {
+		d.desc.mapping(n, fields, required)
+		return
+	}
 	n = d.resolve(n)
 	if d.overBudget(n) {
 		return
@@ -379,6 +384,10 @@ func kindName(n *yaml.Node) string {
 }
 
 func (d *decoder) scalar(n *yaml.Node, path string) (*yaml.Node, bool) {
+	if d.desc != nil {
+		d.desc.record(n, map[string]any{"type": []any{"string", "number"}})
+		return n, false
+	}
 	n = d.resolve(n)
 	if n.Kind != yaml.ScalarNode || n.Tag == "!!null" {
 		d.errorf(n, "%s must be a single value, not %s", path, kindName(n))
@@ -389,6 +398,10 @@ func (d *decoder) scalar(n *yaml.Node, path string) (*yaml.Node, bool) {
 
 func (d *decoder) str(dst *string) func(*yaml.Node, string) {
 	return func(n *yaml.Node, path string) {
+		if d.desc != nil {
+			d.desc.record(n, schemaString)
+			return
+		}
 		if n, ok := d.scalar(n, path); ok {
 			*dst = n.Value
 		}
@@ -397,6 +410,10 @@ func (d *decoder) str(dst *string) func(*yaml.Node, string) {
 
 func (d *decoder) boolean(dst *bool) func(*yaml.Node, string) {
 	return func(n *yaml.Node, path string) {
+		if d.desc != nil {
+			d.desc.record(n, schemaBool)
+			return
+		}
 		n, ok := d.scalar(n, path)
 		if !ok {
 			return
@@ -414,6 +431,10 @@ func (d *decoder) boolean(dst *bool) func(*yaml.Node, string) {
 
 func (d *decoder) integer(dst *int, lo, hi int) func(*yaml.Node, string) {
 	return func(n *yaml.Node, path string) {
+		if d.desc != nil {
+			d.desc.record(n, schemaInteger(lo, hi))
+			return
+		}
 		n, ok := d.scalar(n, path)
 		if !ok {
 			return
@@ -433,6 +454,10 @@ func (d *decoder) integer(dst *int, lo, hi int) func(*yaml.Node, string) {
 
 func (d *decoder) number(dst *float64, lo, hi float64, loOpen bool) func(*yaml.Node, string) {
 	return func(n *yaml.Node, path string) {
+		if d.desc != nil {
+			d.desc.record(n, schemaNumber(lo, hi, loOpen))
+			return
+		}
 		n, ok := d.scalar(n, path)
 		if !ok {
 			return
@@ -458,6 +483,10 @@ func (d *decoder) number(dst *float64, lo, hi float64, loOpen bool) func(*yaml.N
 // allowZero is set; negative lengths never are.
 func (d *decoder) length(dst *Length, allowZero bool) func(*yaml.Node, string) {
 	return func(n *yaml.Node, path string) {
+		if d.desc != nil {
+			d.desc.record(n, schemaLength)
+			return
+		}
 		n, ok := d.scalar(n, path)
 		if !ok {
 			return
@@ -489,6 +518,10 @@ const maxLength = 14400
 
 func (d *decoder) choice(dst *string, options ...string) func(*yaml.Node, string) {
 	return func(n *yaml.Node, path string) {
+		if d.desc != nil {
+			d.desc.record(n, schemaChoice(options))
+			return
+		}
 		n, ok := d.scalar(n, path)
 		if !ok {
 			return
@@ -506,6 +539,10 @@ func (d *decoder) choice(dst *string, options ...string) func(*yaml.Node, string
 // strings decodes a list of strings; a single string is a list of one.
 func (d *decoder) strings(dst *[]string) func(*yaml.Node, string) {
 	return func(n *yaml.Node, path string) {
+		if d.desc != nil {
+			d.desc.record(n, schemaStrings)
+			return
+		}
 		n = d.resolve(n)
 		if n.Kind == yaml.ScalarNode && n.Tag != "!!null" {
 			*dst = []string{n.Value}
@@ -747,6 +784,10 @@ var (
 // color reads "#rrggbb", "#rgb", "lab(L a b)" or "oklch(L C h)" (L as
 // 0–1 or a percentage), after CSS Color 4's notations.
 func (d *decoder) color(n *yaml.Node, path string, dst *Color) {
+	if d.desc != nil {
+		d.desc.record(n, schemaString)
+		return
+	}
 	n, ok := d.scalar(n, path)
 	if !ok {
 		return

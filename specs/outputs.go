@@ -268,8 +268,6 @@ func (d *decoder) output(n *yaml.Node, path, name string) Output {
 // maxProofPixels bounds a proof image's side, as render/raster does.
 const maxProofPixels = 40000
 
-func mmPt(v float64) Length { return Length(v * PtPerMm) }
-
 func (d *decoder) inserts(n *yaml.Node, path string, s *Spec) {
 	n = d.resolve(n)
 	if n.Kind != yaml.MappingNode {

@@ -36,10 +36,10 @@ type Length float64
 func (l Length) Pt() float64 { return float64(l) }
 
 // Mm returns the length in millimetres.
-func (l Length) Mm() float64 { return float64(l) * 25.4 / 72 }
+func (l Length) Mm() float64 { return float64(l) * MmPerPt }
 
 // Px returns the length in CSS reference pixels (96 per inch).
-func (l Length) Px() float64 { return float64(l) * 96 / 72 }
+func (l Length) Px() float64 { return float64(l) * PxPerPt }
 
 // Size is a width and a height.
 type Size struct{ W, H Length }

@@ -289,6 +289,10 @@ var placeholder = regexp.MustCompile(`\{[^{}]*\}`)
 // phraseKey decodes a phrase under text:, checking its placeholders.
 func (d *decoder) phraseKey(dst *string, allowed ...string) func(*yaml.Node, string) {
 	return func(n *yaml.Node, path string) {
+		if d.desc != nil {
+			d.desc.record(n, schemaString)
+			return
+		}
 		n, ok := d.scalar(n, path)
 		if !ok {
 			return
@@ -339,6 +343,10 @@ func (d *decoder) text(n *yaml.Node, path string, t *Text) {
 // language decodes the language key.
 func (d *decoder) language(dst *Language) func(*yaml.Node, string) {
 	return func(n *yaml.Node, path string) {
+		if d.desc != nil {
+			d.desc.record(n, schemaString)
+			return
+		}
 		n, ok := d.scalar(n, path)
 		if !ok {
 			return
@@ -377,6 +385,9 @@ func yearSpan(v string) (from, to int, err error) {
 // year a year or a span.
 func (d *decoder) annotations(n *yaml.Node, path string, s *Spec) {
 	n = d.resolve(n)
+	if d.desc != nil && n.Kind != yaml.SequenceNode {
+		return
+	}
 	if n.Kind != yaml.SequenceNode {
 		d.errorf(n, "%s must be a list of {term, year, text}", path)
 		return
@@ -388,7 +399,13 @@ func (d *decoder) annotations(n *yaml.Node, path string, s *Spec) {
 		var year string
 		d.mapping(item, p, []field{
 			{"term", d.str(&a.Term)},
-			{"year", d.str(&year)},
+			{"year", func(n *yaml.Node, p string) {
+				if d.desc != nil { // a year (1926) or a span ("1914–1918")
+					d.desc.record(n, map[string]any{"type": []any{"string", "integer"}})
+					return
+				}
+				d.str(&year)(n, p)
+			}},
 			{"text", d.str(&a.Text)},
 		}, "term", "year", "text")
 		if year == "" || a.Term == "" || a.Text == "" {

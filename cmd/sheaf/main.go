@@ -7,6 +7,7 @@
 //	sheaf check SPEC [--json] [--strict]
 //	sheaf palette SPEC [--out DIR]
 //	sheaf build SPEC [--out DIR] [--only OUTPUT] [--strict] [--no-proofs] [--full] [--quiet]
+//	sheaf schema
 //	sheaf help [COMMAND]
 //
 // Exit status: 0 when all is well, 1 when checks find problems or a build
@@ -46,6 +47,8 @@ func commands() []command {
 		{"palette", "SPEC [--out DIR]", "print the era palette's table and checks; write a swatch sheet", runPalette},
 		{"build", "SPEC [--out DIR] [--only OUTPUT] [--strict] [--no-proofs] [--full] [--quiet]", "render every output: PDF, proofs, SVG, PNG; manifest and change report", runBuild},
 		{"count", countArgs, "count terms in a dated text archive into the two tables a spec's data reads", runCount},
+
+		{"schema", "", "print the JSON Schema of the page spec, for YAML editors", runSchema},
 
 		{"help", "[COMMAND]", "show help for sheaf or one command", nil},
 	}

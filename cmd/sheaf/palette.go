@@ -12,6 +12,7 @@ import (
 	"sheaf/render/pdf"
 	"sheaf/render/production"
 	"sheaf/render/swatch"
+	"sheaf/specs"
 )
 
 func runPalette(args []string, stdout, stderr io.Writer) int {
@@ -66,7 +67,7 @@ func runPalette(args []string, stdout, stderr io.Writer) int {
 	err = production.WriteAtomic(pdfPath, func(w io.Writer) error {
 		wmm, hmm := swatch.Size()
 		pw := pdf.NewWriter(w, pdf.Options{Title: j.Spec.Title + " — era palette", Version: version, Date: date})
-		r := canvas.Rect{X0: 0, Y0: 0, X1: wmm / pdf.MMPerPt, Y1: hmm / pdf.MMPerPt}
+		r := canvas.Rect{X0: 0, Y0: 0, X1: wmm * specs.PtPerMm, Y1: hmm * specs.PtPerMm}
 		if err := pw.AddPage(pdf.PageSetup{Boxes: pdf.PageBoxes{Media: r, Bleed: r, Trim: r}}, func(c *canvas.Canvas) error {
 			return swatch.Draw(c, first.Scale, first.Report)
 		}); err != nil {

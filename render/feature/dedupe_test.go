@@ -3,6 +3,9 @@ package feature
 import (
 	"testing"
 
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
+
 	"sheaf/render/preflight"
 )
 
@@ -18,13 +21,8 @@ func TestDedupeData(t *testing.T) {
 		{ID: preflight.IDSpike, Output: "web", Page: 1, Term: "tool", Year: 1924, Message: "n"},
 	}
 	got := dedupeData(in)
-	if len(got) != 4 {
-		t.Fatalf("%d findings, want 4: %v", len(got), got)
-	}
-	if got[0].Message != "m; also web p. 1" {
-		t.Errorf("first spike says %q", got[0].Message)
-	}
-	if got[3].Term != "tool" || got[3].Message != "n" {
-		t.Errorf("other spike %v", got[3])
-	}
+	require.Len(t, got, 4)
+	assert.Equal(t, "m; also web p. 1", got[0].Message, "the first spike names the other place")
+	assert.Equal(t, "tool", got[3].Term, "the other spike")
+	assert.Equal(t, "n", got[3].Message, "the other spike")
 }

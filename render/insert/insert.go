@@ -23,13 +23,14 @@ import (
 	"sheaf/layout/fonts"
 	"sheaf/palette"
 	"sheaf/render/curve"
+	"sheaf/render/draw"
 	"sheaf/render/page"
 	"sheaf/specs"
 	"sheaf/specs/series"
 )
 
 // mm is millimetres per point.
-const mm = 25.4 / 72
+const mm = specs.MmPerPt
 
 // LineStyle is how one term's line is stroked in a comparison.
 type LineStyle struct {
@@ -464,60 +465,30 @@ func (g *Graphic) colorAt(x float64) color.RGBA {
 
 // tickYears picks round years whose labels leave an em between them.
 func tickYears(fs *fonts.Set, span specs.Span, width, size float64) []int {
-	label := fs.Width(fonts.Regular, size, "0000") + size
-	perYear := width / float64(span.To-span.From)
-	for _, s := range []int{5, 10, 20, 25, 50, 100, 200, 250, 500, 1000} {
-		if float64(s)*perYear >= label {
-			var ys []int
-			for y := (span.From + s - 1) / s * s; y <= span.To; y += s {
-				ys = append(ys, y)
-			}
-			return ys
-		}
-	}
-	return nil
+	return draw.TickYears(fs, span, width, size)
 }
 
-func rgba(c palette.RGB) color.RGBA {
-	r, g, b := c.Clip().RGB8()
-	return color.RGBA{r, g, b, 0xff}
-}
+func rgba(c palette.RGB) color.RGBA { return draw.RGBA(c) }
+
+// The drawing helpers of package draw, with the context and fonts passed.
 
 func text(ctx *canvas.Context, fs *fonts.Set, st fonts.Style, size float64, col color.Color, x, y float64, align canvas.TextAlign, s string) {
-	if s == "" {
-		return
-	}
-	ctx.DrawText(x*mm, y*mm, canvas.NewTextLine(fs.Font(st).Face(size, col), s, align))
+	draw.Pen{Ctx: ctx, Fonts: fs}.Text(st, size, col, x, y, align, s)
 }
 
 // line strokes a straight line; with a style, dashed and round-capped.
 func line(ctx *canvas.Context, x0, y0, x1, y1, width float64, col color.Color, st *LineStyle) {
-	ctx.ResetStyle()
-	ctx.SetFillColor(canvas.Transparent)
-	ctx.SetStrokeColor(col)
-	ctx.SetStrokeWidth(width * mm)
-	ctx.SetStrokeCapper(canvas.ButtCap)
 	if st != nil {
-		ctx.SetStrokeCapper(canvas.RoundCap)
-		ctx.SetDashes(0, st.Dashes...)
+		draw.Pen{Ctx: ctx}.StyledLine(x0, y0, x1, y1, width, col, st.Dashes...)
+		return
 	}
-	ctx.DrawPath(0, 0, canvas.Line((x1-x0)*mm, (y1-y0)*mm).Translate(x0*mm, y0*mm))
+	draw.Pen{Ctx: ctx}.Line(x0, y0, x1, y1, width, col)
 }
 
 func fillRect(ctx *canvas.Context, x0, y0, x1, y1 float64, col color.Color, g *canvas.LinearGradient) {
-	ctx.ResetStyle()
-	ctx.SetStrokeColor(canvas.Transparent)
-	if g != nil {
-		ctx.SetFillGradient(g)
-	} else {
-		ctx.SetFillColor(col)
-	}
-	ctx.DrawPath(0, 0, canvas.Rectangle((x1-x0)*mm, (y1-y0)*mm).Translate(x0*mm, y0*mm))
+	draw.Pen{Ctx: ctx}.FillRect(x0, y0, x1, y1, col, g)
 }
 
 func circle(ctx *canvas.Context, x, y, r float64, col color.Color) {
-	ctx.ResetStyle()
-	ctx.SetStrokeColor(canvas.Transparent)
-	ctx.SetFillColor(col)
-	ctx.DrawPath(x*mm, y*mm, canvas.Circle(r*mm))
+	draw.Pen{Ctx: ctx}.Dot(x, y, r, col, nil, 0)
 }

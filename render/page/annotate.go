@@ -534,3 +534,11 @@ func (f *Feature) evenRows() {
 		}
 	}
 }
+
+// leading is the output's line height as a multiple of the type size.
+func (f *Feature) leading() float64 {
+	if l := f.Output.Type.Leading; l > 0 {
+		return l
+	}
+	return 1.2
+}

@@ -20,6 +20,7 @@ import (
 	"sheaf/layout/fonts"
 	"sheaf/palette"
 	"sheaf/render/curve"
+	"sheaf/render/draw"
 	"sheaf/specs"
 	"sheaf/specs/series"
 )
@@ -165,17 +166,7 @@ func ColorOf(c specs.Color) palette.Color {
 	return palette.FromRGB(palette.RGB{R: c.V[0], G: c.V[1], B: c.V[2]})
 }
 
-func rgba(c palette.RGB) color.RGBA {
-	r, g, b := c.Clip().RGB8()
-	return color.RGBA{r, g, b, 0xff}
-}
-
-func (f *Feature) leading() float64 {
-	if l := f.Output.Type.Leading; l > 0 {
-		return l
-	}
-	return 1.2
-}
+func rgba(c palette.RGB) color.RGBA { return draw.RGBA(c) }
 
 // placed draws the text lines the layout measured and placed: title, dek,
 // running head, source, notes, folio.
@@ -216,28 +207,10 @@ func AddStops(g *canvas.LinearGradient, stops []palette.Stop, from, to float64) 
 	}
 }
 
-// tickYears chooses year ticks whose labels never collide: the smallest
-// round step whose spacing leaves a label's width plus an em between
-// labels.
+// tickYears chooses year ticks whose labels never collide (see
+// draw.TickYears).
 func (f *Feature) tickYears(width, size float64) []int {
-	span := f.Data.Span
-	label := f.Fonts.Width(fonts.Regular, size, "0000") + size
-	perYear := width / float64(span.To-span.From)
-	step := 0
-	for _, s := range []int{5, 10, 20, 25, 50, 100, 200, 250, 500, 1000} {
-		if float64(s)*perYear >= label {
-			step = s
-			break
-		}
-	}
-	if step == 0 {
-		return nil
-	}
-	var ys []int
-	for y := (span.From + step - 1) / step * step; y <= span.To; y += step {
-		ys = append(ys, y)
-	}
-	return ys
+	return draw.TickYears(f.Fonts, f.Data.Span, width, size)
 }
 
 func (f *Feature) panel(p pen, b *curve.Builder, pn layout.Panel) error {

@@ -9,9 +9,9 @@
 // stays canvas code: each page is drawn on a *canvas.Canvas and rendered
 // through this package's canvas.Renderer.
 //
-// Output is deterministic: no clock is read (dates come from Options.Date,
-// see DateFromEnv), objects are written in a fixed order, font subset tags
-// come from a hash of the glyph set, and the /ID is a hash of the bytes.
+// Output is deterministic: no clock is read (dates come from Options.Date;
+// sheaf's is feature.DocumentDate), objects are written in a fixed order,
+// font subset tags come from a hash of the glyph set, and the /ID is a hash of the bytes.
 //
 // Pages are encoded and compressed in parallel (bounded by GOMAXPROCS)
 // and written in the order added, with a bounded window of pages in
@@ -45,7 +45,6 @@ import (
 	"fmt"
 	"hash"
 	"io"
-	"os"
 	"runtime"
 	"sort"
 	"strconv"
@@ -74,31 +73,12 @@ type Options struct {
 	// Version is the sheaf version; the Producer is "sheaf <Version>".
 	Version string
 	// Date is both CreationDate and ModDate. It is never taken from the
-	// clock: pass DateFromEnv's result or a fixed time. The zero Time
+	// clock: pass a fixed time (sheaf: feature.DocumentDate). The zero Time
 	// means the Unix epoch, 1970-01-01T00:00:00Z.
 	Date time.Time
 	// Compression is the zlib level (1–9) of content streams and font
 	// files; 0 means DefaultCompression, Uncompressed means none.
 	Compression int
-}
-
-// DateFromEnv returns the time in SOURCE_DATE_EPOCH (seconds since the
-// Unix epoch, reproducible-builds.org specification) or fallback when the
-// variable is unset or empty. A malformed value is an error.
-func DateFromEnv(fallback time.Time) (time.Time, error) {
-	s := os.Getenv("SOURCE_DATE_EPOCH")
-	if s == "" {
-		return fallback, nil
-	}
-	n, err := strconv.ParseInt(s, 10, 64)
-	if err != nil {
-		return time.Time{}, fmt.Errorf("SOURCE_DATE_EPOCH=%q is not an integer number of seconds", s)
-	}
-	// PDF dates have four-digit years (ISO 32000-1 §7.9.4): 0000–9999.
-	if n < 0 || n > 253402300799 {
-		return time.Time{}, fmt.Errorf("SOURCE_DATE_EPOCH=%q is outside 0 (1970-01-01) … 253402300799 (9999-12-31), the years a PDF date can hold", s)
-	}
-	return time.Unix(n, 0).UTC(), nil
 }
 
 // Object numbers fixed by the writer.

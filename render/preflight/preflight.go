@@ -222,7 +222,7 @@ func pagesOf(p *layout.Plan) map[int]int {
 // units prints a length in the output's own unit.
 func (c *checker) units(l float64) string {
 	if c.in.Output.Kind == specs.Screen {
-		return strconv.FormatFloat(l*96/72, 'g', 4, 64) + " px"
+		return strconv.FormatFloat(l*specs.PxPerPt, 'g', 4, 64) + " px"
 	}
 	return strconv.FormatFloat(l, 'g', 4, 64) + " pt"
 }

@@ -1,6 +1,7 @@
 package production
 
 import (
+	"context"
 	"io"
 	"os"
 	"path/filepath"
@@ -10,6 +11,7 @@ import (
 	"testing"
 	"time"
 
+	"github.com/stretchr/testify/require"
 	"github.com/tdewolff/canvas"
 
 	"sheaf/examples/generate/corpus"
@@ -45,13 +47,9 @@ var catalog = sync.OnceValues(func() (string, error) {
 func benchJob(b *testing.B, spec string) (*feature.Job, *feature.Output) {
 	b.Helper()
 	j, err := feature.Load(spec)
-	if err != nil {
-		b.Fatal(err)
-	}
+	require.NoError(b, err)
 	p, err := j.Prepare(j.Spec.Output("print"))
-	if err != nil {
-		b.Fatal(err)
-	}
+	require.NoError(b, err)
 	return j, p
 }
 
@@ -62,13 +60,9 @@ func writeOnlyPDF(b *testing.B, j *feature.Job, p *feature.Output) int64 {
 	w := pdf.NewWriter(&cw, pdf.Options{Title: j.Spec.Title, Version: Version, Date: time.Unix(0, 0)})
 	for i := range p.Plan.Pages {
 		setup := pdf.PageSetup{Boxes: PageBoxes(&p.Plan.Pages[i]), Marks: &pdf.MarkOptions{}}
-		if err := w.AddPage(setup, func(c *canvas.Canvas) error { return p.Feature.Draw(canvas.NewContext(c), i) }); err != nil {
-			b.Fatal(err)
-		}
+		require.NoError(b, w.AddPage(setup, func(c *canvas.Canvas) error { return p.Feature.Draw(canvas.NewContext(c), i) }))
 	}
-	if err := w.Close(); err != nil {
-		b.Fatal(err)
-	}
+	require.NoError(b, w.Close())
 	return cw.n
 }
 
@@ -83,9 +77,7 @@ var _ io.Writer = (*countingWriter)(nil)
 // Reports the PDF's size per page and the peak heap.
 func BenchmarkCatalogPDF(b *testing.B) {
 	spec, err := catalog()
-	if err != nil {
-		b.Fatal(err)
-	}
+	require.NoError(b, err)
 	var size int64
 	var pages int
 	peak := heapPeak(func() {
@@ -132,13 +124,9 @@ func heapPeak(f func()) uint64 {
 func catalogJob(b *testing.B) *feature.Job {
 	b.Helper()
 	spec, err := catalog()
-	if err != nil {
-		b.Fatal(err)
-	}
+	require.NoError(b, err)
 	j, err := feature.Load(spec)
-	if err != nil {
-		b.Fatal(err)
-	}
+	require.NoError(b, err)
 	return j
 }
 
@@ -155,9 +143,7 @@ func screenBench(b *testing.B, j *feature.Job, pageH float64) *feature.Output {
 		out.Flow = specs.FlowPages
 	}
 	p, err := j.Prepare(&out)
-	if err != nil {
-		b.Fatal(err)
-	}
+	require.NoError(b, err)
 	return p
 }
 
@@ -171,9 +157,7 @@ func BenchmarkCatalogScrollSVG(b *testing.B) {
 	for b.Loop() {
 		cw = countingWriter{}
 		pg := p.Plan.Pages[0].Trim
-		if err := drawSVG(&cw, pg, screenSVGOptions(j, p), func(ctx *canvas.Context) error { return p.Feature.Draw(ctx, 0) }); err != nil {
-			b.Fatal(err)
-		}
+		require.NoError(b, drawSVG(context.Background(), &cw, pg, screenSVGOptions(j, p), func(ctx *canvas.Context) error { return p.Feature.Draw(ctx, 0) }))
 	}
 	n := p.Plan.Panels()
 	b.ReportMetric(float64(n), "panels")
@@ -193,9 +177,7 @@ func BenchmarkCatalogPanelFiles(b *testing.B) {
 		for _, pn := range p.Plan.Pages[0].Panels {
 			pn, win := panelWindow(p.Plan, pn)
 			var cw countingWriter
-			if err := drawSVG(&cw, win, screenSVGOptions(j, p), func(ctx *canvas.Context) error { return p.Feature.DrawPanel(ctx, pn) }); err != nil {
-				b.Fatal(err)
-			}
+			require.NoError(b, drawSVG(context.Background(), &cw, win, screenSVGOptions(j, p), func(ctx *canvas.Context) error { return p.Feature.DrawPanel(ctx, pn) }))
 			total += cw.n
 			n++
 		}
@@ -221,9 +203,7 @@ func BenchmarkCatalogPageSVG(b *testing.B) {
 	var cw countingWriter
 	for b.Loop() {
 		cw = countingWriter{}
-		if err := drawSVG(&cw, p.Plan.Pages[i].Trim, screenSVGOptions(j, p), func(ctx *canvas.Context) error { return p.Feature.Draw(ctx, i) }); err != nil {
-			b.Fatal(err)
-		}
+		require.NoError(b, drawSVG(context.Background(), &cw, p.Plan.Pages[i].Trim, screenSVGOptions(j, p), func(ctx *canvas.Context) error { return p.Feature.Draw(ctx, i) }))
 	}
 	b.ReportMetric(float64(len(p.Plan.Pages[i].Panels)), "panels/page")
 	b.ReportMetric(float64(cw.n)/1024, "KB/page")

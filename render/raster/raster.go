@@ -9,6 +9,7 @@
 package raster
 
 import (
+	"context"
 	"fmt"
 	"image"
 	"image/color"
@@ -19,6 +20,8 @@ import (
 
 	"github.com/tdewolff/canvas"
 	"github.com/tdewolff/canvas/renderers/rasterizer"
+
+	"sheaf/specs"
 )
 
 // flatTolerancePx is the largest distance, in device pixels, between a
@@ -28,6 +31,10 @@ const flatTolerancePx = 0.05
 
 // Renderer is a canvas.Renderer that rasterizes with flattened strokes.
 type Renderer struct {
+	// done, when not nil, is a cancelled drawing's signal: once it is
+	// closed every Render call draws nothing, so a long drawing ends as
+	// fast as its paths can be built.
+	done  <-chan struct{}
 	ras   *rasterizer.Rasterizer
 	img   *image.RGBA
 	tol   float64       // flattening tolerance in millimetres
@@ -51,7 +58,7 @@ func New(w, h, dpi float64, background color.Color) (*Renderer, error) {
 	// was rounded: move the page's top edge onto the image's, where PDF
 	// rasterizers put it (row = (h − y)·dpi/72), so a page whose height is
 	// not a whole number of pixels is not shifted by the rounding.
-	lift := float64(py)*25.4/dpi - h*25.4/72
+	lift := float64(py)*25.4/dpi - h*specs.MmPerPt
 	return &Renderer{ras: ras, img: img, tol: flatTolerancePx * 25.4 / dpi, shift: canvas.Identity.Translate(0, lift)}, nil
 }
 
@@ -82,8 +89,8 @@ func NewRegion(pageH, dpi float64, r Region, background color.Color) (*Renderer,
 	}
 	// Page point (X, Y) must land at pixel (X·dpi/72 − r.X, (pageH − Y)·dpi/72 − r.Y).
 	mmPerPx := 25.4 / dpi
-	top := pageH*25.4/72 - float64(r.Y)*mmPerPx // page y (mm) of the region's top edge
-	rr.shift = canvas.Identity.Translate(-float64(r.X)*mmPerPx, h*25.4/72-top)
+	top := pageH*specs.MmPerPt - float64(r.Y)*mmPerPx // page y (mm) of the region's top edge
+	rr.shift = canvas.Identity.Translate(-float64(r.X)*mmPerPx, h*specs.MmPerPt-top)
 	return rr, nil
 }
 
@@ -92,6 +99,9 @@ func (r *Renderer) Size() (float64, float64) { return r.ras.Size() }
 
 // RenderPath draws a path; strokes are flattened first (see the package doc).
 func (r *Renderer) RenderPath(p *canvas.Path, style canvas.Style, m canvas.Matrix) {
+	if r.stopped() {
+		return
+	}
 	m = r.shift.Mul(m)
 	if style.HasStroke() {
 		scale := math.Sqrt(math.Abs(m.Det()))
@@ -126,10 +136,17 @@ func (r *Renderer) RenderPath(p *canvas.Path, style canvas.Style, m canvas.Matri
 }
 
 // RenderText draws text.
-func (r *Renderer) RenderText(t *canvas.Text, m canvas.Matrix) { r.ras.RenderText(t, r.shift.Mul(m)) }
+func (r *Renderer) RenderText(t *canvas.Text, m canvas.Matrix) {
+	if !r.stopped() {
+		r.ras.RenderText(t, r.shift.Mul(m))
+	}
+}
 
 // RenderImage draws an image.
 func (r *Renderer) RenderImage(img image.Image, m canvas.Matrix) {
+	if r.stopped() {
+		return
+	}
 	r.ras.RenderImage(img, r.shift.Mul(m))
 }
 
@@ -139,14 +156,46 @@ func (r *Renderer) Image() *image.RGBA {
 	return r.img
 }
 
+// stopped reports whether the drawing was cancelled.
+func (r *Renderer) stopped() bool {
+	if r.done == nil {
+		return false
+	}
+	select {
+	case <-r.done:
+		return true
+	default:
+		return false
+	}
+}
+
 // Draw renders one page of w × h points: draw gets a context in
 // millimetres with the origin at the lower-left corner.
 func Draw(w, h, dpi float64, background color.Color, draw func(ctx *canvas.Context) error) (*image.RGBA, error) {
+	return DrawContext(context.Background(), w, h, dpi, background, draw)
+}
+
+// DrawContext is Draw that stops when ctx is cancelled: nothing more is
+// drawn and it returns ctx's error.
+func DrawContext(ctx context.Context, w, h, dpi float64, background color.Color, draw func(ctx *canvas.Context) error) (*image.RGBA, error) {
+	if err := ctx.Err(); err != nil {
+		return nil, err
+	}
 	r, err := New(w, h, dpi, background)
 	if err != nil {
 		return nil, err
 	}
-	if err := draw(canvas.NewContext(r)); err != nil {
+	return r.run(ctx, draw)
+}
+
+// run draws with r until done or cancelled.
+func (r *Renderer) run(ctx context.Context, draw func(ctx *canvas.Context) error) (*image.RGBA, error) {
+	r.done = ctx.Done()
+	err := draw(canvas.NewContext(r))
+	if cerr := ctx.Err(); cerr != nil {
+		return nil, cerr
+	}
+	if err != nil {
 		return nil, err
 	}
 	return r.Image(), nil
@@ -154,19 +203,53 @@ func Draw(w, h, dpi float64, background color.Color, draw func(ctx *canvas.Conte
 
 // WritePNG encodes img as PNG with the default compression.
 func WritePNG(w io.Writer, img image.Image) error {
+	return WritePNGContext(context.Background(), w, img)
+}
+
+// WritePNGContext is WritePNG that stops when ctx is cancelled (a tall
+// page's PNG takes seconds to compress) and returns ctx's error.
+func WritePNGContext(ctx context.Context, w io.Writer, img image.Image) error {
 	enc := png.Encoder{CompressionLevel: png.DefaultCompression}
-	return enc.Encode(w, img)
+	if ctx.Done() != nil {
+		w = ctxWriter{ctx, w}
+	}
+	if err := enc.Encode(w, img); err != nil {
+		if cerr := ctx.Err(); cerr != nil {
+			return cerr
+		}
+		return err
+	}
+	return nil
+}
+
+// ctxWriter fails every write once its context is cancelled.
+type ctxWriter struct {
+	ctx context.Context
+	w   io.Writer
+}
+
+func (c ctxWriter) Write(p []byte) (int, error) {
+	if err := c.ctx.Err(); err != nil {
+		return 0, err
+	}
+	return c.w.Write(p)
 }
 
 // DrawRegion renders region r of a page pageH points tall; draw gets a
 // context in page millimetres, as for Draw.
 func DrawRegion(pageH, dpi float64, r Region, background color.Color, draw func(ctx *canvas.Context) error) (*image.RGBA, error) {
+	return DrawRegionContext(context.Background(), pageH, dpi, r, background, draw)
+}
+
+// DrawRegionContext is DrawRegion that stops when ctx is cancelled:
+// nothing more is drawn and it returns ctx's error.
+func DrawRegionContext(ctx context.Context, pageH, dpi float64, r Region, background color.Color, draw func(ctx *canvas.Context) error) (*image.RGBA, error) {
+	if err := ctx.Err(); err != nil {
+		return nil, err
+	}
 	rr, err := NewRegion(pageH, dpi, r, background)
 	if err != nil {
 		return nil, err
 	}
-	if err := draw(canvas.NewContext(rr)); err != nil {
-		return nil, err
-	}
-	return rr.Image(), nil
+	return rr.run(ctx, draw)
 }

@@ -21,9 +21,10 @@ import (
 	"golang.org/x/image/font/gofont/goregular"
 
 	"sheaf/palette"
+	"sheaf/specs"
 )
 
-const mmPerPt = 25.4 / 72
+const mmPerPt = specs.MmPerPt
 
 // Sheet geometry, mm.
 const (
