@@ -174,7 +174,7 @@ func (f *Feature) placed(p pen, pg *layout.Page) {
 	for _, t := range pg.Text {
 		col := ink
 		switch t.Role {
-		case layout.RoleSource, layout.RoleNote, layout.RoleRunning:
+		case layout.RoleSource, layout.RoleNote, layout.RoleRunning, layout.RoleGapNote:
 			col = inkSoft
 		}
 		p.text(t.Style, t.Size, col, t.X, t.Baseline, canvas.Left, t.Text)
