@@ -225,7 +225,9 @@ func TestCurvesPassThroughData(t *testing.T) {
 			}
 			// A zero with no non-zero neighbour is not drawn: it lies on
 			// the baseline (README, "Absence").
-			nonzero := func(j int) bool { return j >= 0 && j < len(sr.Values) && !math.IsNaN(sr.Values[j]) && sr.Values[j] != 0 }
+			nonzero := func(j int) bool {
+				return j >= 0 && j < len(sr.Values) && !math.IsNaN(sr.Values[j]) && sr.Values[j] != 0
+			}
 			if v == 0 && !nonzero(i-1) && !nonzero(i+1) {
 				continue
 			}
