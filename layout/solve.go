@@ -534,6 +534,8 @@ func (s *solver) rows() error {
 				fmt.Sprintf("panels %s wide at aspect %g have plots %s tall; the legibility floor is %s (%s)",
 					u.len(s.colW), a, u.len(s.plotH), u.len(s.floorH), s.floorText()), r...)
 		}
+	case o.PanelBank:
+		return s.errorf("panel.aspect", "panel.aspect: bank is chosen from the data: lay the output out with bank.Solve")
 	default:
 		return s.errorf("panel", "set panel.aspect or panel.height")
 	}

@@ -614,13 +614,14 @@ func (d *decoder) spec(n *yaml.Node, s *Spec) {
 				{"exclude", d.strings(&s.Terms.Exclude)},
 			})
 		}},
-		{"order", d.choice(&order, string(OrderListed), string(OrderAlpha), string(OrderPeakYear))},
-		{"group", d.choice(&group, string(GroupNone), string(GroupPeakDecade))},
+		{"order", d.choice(&order, string(OrderListed), string(OrderAlpha), string(OrderPeakYear), string(OrderSimilarity))},
+		{"group", d.choice(&group, string(GroupNone), string(GroupPeakDecade), string(GroupSimilarity))},
 		{"scale", func(n *yaml.Node, path string) {
 			var mode, yr string
 			d.mapping(n, path, []field{
 				{"values", d.choice(&mode, string(ScaleShare), string(ScaleOwnPeak), string(ScaleRaw))},
 				{"y-range", d.choice(&yr, string(YShared), string(YOwn))},
+				{"rolling", func(n *yaml.Node, path string) { d.rolling(n, path, &s.Scale.Rolling) }},
 			})
 			s.Scale.Mode, s.Scale.YRange = ScaleMode(mode), YRange(yr)
 		}},
@@ -641,6 +642,7 @@ func (d *decoder) spec(n *yaml.Node, s *Spec) {
 				{"min-screen-type", d.length(&p.MinScreenType, true)},
 				{"min-line", d.length(&p.MinLine, true)},
 				{"strict", d.boolean(&p.Strict)},
+				{"min-count", d.number(&p.MinCount, 0, 1e9, false)},
 			})
 		}},
 	}, "data", "years", "outputs")
@@ -671,6 +673,7 @@ func (d *decoder) spec(n *yaml.Node, s *Spec) {
 	}
 	d.checkInserts(s)
 	d.checkEditorial(s)
+	d.checkPress(s)
 	d.palettePaper(&s.Palette)
 	preflightDefaults(&s.Preflight, d.pos)
 }
@@ -692,6 +695,30 @@ func preflightDefaults(p *Preflight, given map[string]Pos) {
 	}
 	if !set("min-line") {
 		p.MinLine = 0.25
+	}
+	if !set("min-count") {
+		// Poisson noise is 1/√k of a count k: 1/√10 ≈ 32 % (common practice).
+		p.MinCount = 10
+	}
+}
+
+// maxRolling bounds the rolling window: wider than a lifetime smooths a
+// history away.
+const maxRolling = 99
+
+// rolling reads scale.rolling: {years: N}, a centred window of an odd
+// number of years (so that it has a middle year); 1 is no smoothing.
+func (d *decoder) rolling(n *yaml.Node, path string, dst *int) {
+	years := 0
+	d.mapping(n, path, []field{
+		{"years", d.integer(&years, 1, maxRolling)},
+	}, "years")
+	if years > 1 && years%2 == 0 {
+		d.errorf(d.resolve(n), "%s.years: a centred window needs an odd number of years (%d or %d), not %d", path, years-1, years+1, years)
+		return
+	}
+	if years > 1 {
+		*dst = years
 	}
 }
 

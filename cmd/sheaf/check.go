@@ -61,7 +61,11 @@ func writeSummary(w io.Writer, r feature.Report) {
 		gaps = strings.Trim(fmt.Sprint(r.Years.Gaps), "[]")
 	}
 	fmt.Fprintf(w, "  years:   %d–%d (%d years; gaps: %s)\n", r.Years.From, r.Years.To, r.Years.To-r.Years.From+1, gaps)
-	fmt.Fprintf(w, "  values:  %s (%s), %s y-range\n", r.Scale.Values, r.Scale.Unit, r.Scale.YRange)
+	smoothing := ""
+	if r.Scale.Smoothing != "" {
+		smoothing = ", " + r.Scale.Smoothing
+	}
+	fmt.Fprintf(w, "  values:  %s (%s)%s, %s y-range\n", r.Scale.Values, r.Scale.Unit, smoothing, r.Scale.YRange)
 	for _, o := range r.Outputs {
 		switch {
 		case o.Kind == string(specs.Screen) && o.Layout != nil && o.Layout.Flow == specs.FlowScrollGroups:
@@ -80,6 +84,12 @@ func writeSummary(w io.Writer, r feature.Report) {
 		// Labels, layout warnings and the palette's findings come in the
 		// preflight table below.
 		fmt.Fprintf(w, "    %s\n", o.Summary)
+		switch {
+		case o.Press != nil:
+			fmt.Fprintf(w, "    %s PDF/X-4 for %q (%s, ink limit %.0f%%)\n", o.Press.Space, o.Press.Condition, o.Press.Intent, o.Press.InkLimit)
+		case o.Kind == string(specs.Print):
+			fmt.Fprintln(w, "    RGB PDF (no printing condition)")
+		}
 	}
 }
 

@@ -111,11 +111,11 @@ func RGBA(c palette.RGB) color.RGBA {
 }
 
 // TickYears chooses year ticks over span whose labels, set in fs's
-// regular face at size, never collide across width points: the smallest
+// figures (tabular lining) at size, never collide across width points: the smallest
 // round step whose spacing leaves a label's width plus an em between
 // labels (an em between labels: common practice for axis labels).
 func TickYears(fs *fonts.Set, span specs.Span, width, size float64) []int {
-	label := fs.Width(fonts.Regular, size, "0000") + size
+	label := fs.Width(fonts.Figures, size, "0000") + size
 	perYear := width / float64(span.To-span.From)
 	for _, s := range []int{5, 10, 20, 25, 50, 100, 200, 250, 500, 1000} {
 		if float64(s)*perYear >= label {

@@ -26,3 +26,17 @@ func TestDedupeData(t *testing.T) {
 	assert.Equal(t, "tool", got[3].Term, "the other spike")
 	assert.Equal(t, "n", got[3].Message, "the other spike")
 }
+
+// TestDedupeSparse: sparse-counts is a fact about a term's data, listed
+// once however many outputs show the term (invented findings).
+func TestDedupeSparse(t *testing.T) {
+	in := []preflight.Finding{
+		{ID: preflight.IDSparse, Output: "print", Page: 3, Term: "rivet", Message: "median 3"},
+		{ID: preflight.IDSparse, Output: "web", Page: 1, Term: "rivet", Message: "median 3"},
+		{ID: preflight.IDSparse, Output: "web", Page: 1, Term: "gear", Message: "median 4"},
+	}
+	got := dedupeData(in)
+	require.Len(t, got, 2)
+	assert.Equal(t, "median 3; also web p. 1", got[0].Message)
+	assert.Equal(t, "gear", got[1].Term)
+}

@@ -38,13 +38,55 @@ type Feature struct {
 
 	labelsOnce sync.Once
 	labels     []Label
+
+	// intervals memoizes the band's Poisson intervals (nil: no band).
+	intervals *series.Intervals
 }
 
 // NewFeature computes what all pages share. Labels are fitted when first
 // asked for, so that a caller can fill the fonts' width cache first.
 func NewFeature(s *specs.Spec, out *specs.Output, plan *layout.Plan, data *series.Set, pal palette.Scale, fs *fonts.Set) *Feature {
-	return &Feature{Spec: s, Output: out, Plan: plan, Data: data, Palette: pal, Fonts: fs,
+	f := &Feature{Spec: s, Output: out, Plan: plan, Data: data, Palette: pal, Fonts: fs,
 		Stops: pal.Stops(float64(data.Span.From), float64(data.Span.To), 0)}
+	if out.Band > 0 {
+		f.intervals = series.NewIntervals(out.Band)
+	}
+	return f
+}
+
+// Band returns the limits of a panel's uncertainty band (see
+// series.Set.Band), or nil when the output draws none.
+func (f *Feature) Band(item int) (lo, hi []float64) {
+	if f.intervals == nil || item < 0 || item >= len(f.Data.Series) {
+		return nil, nil
+	}
+	return f.Data.Band(&f.Data.Series[item], f.intervals)
+}
+
+// band fills the uncertainty band behind a panel's line with a tint of
+// the era palette.
+func (f *Feature) band(p pen, b *curve.Builder, pn layout.Panel, m curve.Map) error {
+	lo, hi := f.Band(pn.Item)
+	if lo == nil {
+		return nil
+	}
+	sr := &f.Data.Series[pn.Item]
+	path, err := BandPath(b, f.Data.Years, lo, hi, sr.YMax, m, f.Output.Line.Pt()*2)
+	if err != nil {
+		return fmt.Errorf("panel %q: band: %w", sr.Term, err)
+	}
+	if path.Empty() {
+		return nil
+	}
+	pr := pn.Plot
+	g := p.gradient(pr.X0, pr.X1, pr.Y0)
+	from, to := float64(f.Data.Span.From), float64(f.Data.Span.To)
+	AddStops(g, TintStops(f.Stops, ColorOf(f.Spec.Palette.Paper).RGB(), BandStrength), from, to)
+	p.ctx.ResetStyle()
+	p.ctx.SetStrokeColor(canvas.Transparent)
+	p.ctx.SetFillGradient(g)
+	p.ctx.DrawPath(0, 0, path)
+	return nil
 }
 
 // Grouper is implemented by renderers that keep structure, such as SVG:
@@ -59,8 +101,12 @@ type Grouper interface {
 // and the peak.
 func (f *Feature) Describe(item int) (title, desc string) {
 	sr := &f.Data.Series[item]
+	unit := f.Data.Unit
+	if n := f.Data.Note(); n != "" {
+		unit += ", " + n
+	}
 	return sr.Term, fmt.Sprintf("How often %q was used each year, %d–%d (%s); highest in %d.",
-		sr.Term, f.Data.Span.From, f.Data.Span.To, f.Data.Unit, sr.PeakYear)
+		sr.Term, f.Data.Span.From, f.Data.Span.To, unit, sr.PeakYear)
 }
 
 // Ink colours of the furniture. Text and rules are one ink (black or a
@@ -243,6 +289,9 @@ func (f *Feature) panel(p pen, b *curve.Builder, pn layout.Panel) error {
 	// The curve: monotone cubic through every year; runs of zeros lie on
 	// the baseline (plotted).
 	b.Reset()
+	if err := f.band(p, b, pn, m); err != nil {
+		return err
+	}
 	runs, err := b.Build(f.Data.Years, f.plotted(sr), m, nil)
 	if err != nil {
 		return fmt.Errorf("panel %q: %w", sr.Term, err)
@@ -320,7 +369,7 @@ func (f *Feature) ticks(p pen, pn layout.Panel) {
 		p.line(x, pr.Y0, x, pr.Y0-tick, f.Rule(), ruleGrey)
 	}
 	for _, l := range f.tickLabels(pn, m) {
-		p.text(fonts.Regular, size, inkSoft, (l.X0+l.X1)/2, base, canvas.Center, l.Text)
+		p.text(fonts.Figures, size, inkSoft, (l.X0+l.X1)/2, base, canvas.Center, l.Text)
 	}
 }
 
@@ -340,7 +389,7 @@ func (f *Feature) tickLabels(pn layout.Panel, m curve.Map) []tickLabel {
 	for _, y := range f.tickYears(pn.Plot.W(), size) {
 		x := m.X(float64(y))
 		t := strconv.Itoa(y)
-		w := f.Fonts.Width(fonts.Regular, size, t)
+		w := f.Fonts.Width(fonts.Figures, size, t)
 		if x-w/2 < lo || x+w/2 > hi {
 			continue
 		}

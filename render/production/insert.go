@@ -136,11 +136,17 @@ func (b *build) insertInputs(p *feature.Insert, terms []TermHash) string {
 		h.int(y)
 	}
 	h.str(d.Unit)
+	h.int(d.Rolling)
+	h.float(p.Graphic.Output.Band)
+	h.str(string(p.Graphic.Insert.Compare))
 	for _, s := range p.Graphic.Palette.Stops(float64(d.Span.From), float64(d.Span.To), 0) {
 		r := s.Color
 		h.floats([]float64{s.Year, r.R, r.G, r.B})
 	}
 	h.str(fontsSum(p.Graphic.Fonts))
+	if p.Press != nil {
+		h.str("press " + p.Press.Fingerprint())
+	}
 	return h.sum()
 }
 
@@ -158,8 +164,8 @@ func (b *build) drawInsert(p *feature.Insert, dir string) error {
 		box := canvas.Rect{X0: 0, Y0: 0, X1: w, Y1: h}
 		title, _ := p.Graphic.Describe()
 		return WriteAtomic(path, func(wr io.Writer) error {
-			pw := pdf.NewWriter(wr, pdf.Options{Title: title, Version: Version, Date: b.date})
-			if err := pw.AddPage(pdf.PageSetup{Boxes: pdf.PageBoxes{Media: box, Bleed: box, Trim: box}}, draw); err != nil {
+			pw := pdf.NewWriter(wr, pdf.Options{Title: title, Version: Version, Date: b.date, Press: p.Press})
+			if err := pw.AddPage(pdf.PageSetup{Boxes: pdf.PageBoxes{Media: box, Bleed: box, Trim: box}, Press: p.Press}, draw); err != nil {
 				return err
 			}
 			return pw.Close()
