@@ -127,6 +127,9 @@ const (
 	PhraseContinued
 	PhraseGroupHeading
 	PhraseAnd
+	PhraseRollingShare // {years}
+	PhraseRollingMean  // {years}
+	PhraseBandTint     // {level}
 	numPhrases
 )
 
@@ -141,6 +144,7 @@ var phrases = map[Language][numPhrases]string{
 		"per million words", "share of the term's own peak", "occurrences a year",
 		"Lines break at years with no data: {years}.",
 		"{page}", "{heading} (continued)", "Peak in the {decade}s", "and",
+		"{years}-year rolling share", "{years}-year rolling mean", "tint: {level}% interval",
 	},
 	German: {
 		"Die Farbe zeigt das Jahr",
@@ -151,6 +155,7 @@ var phrases = map[Language][numPhrases]string{
 		"je Million Wörter", "Anteil am eigenen Höchstwert", "Vorkommen im Jahr",
 		"Die Linien brechen in Jahren ohne Daten ab: {years}.",
 		"{page}", "{heading} (Fortsetzung)", "Höhepunkt in den {decade}er-Jahren", "und",
+		"gleitender {years}-Jahres-Anteil", "gleitendes {years}-Jahres-Mittel", "Tönung: {level}-%-Intervall",
 	},
 	Spanish: {
 		"El color indica el año",
@@ -161,6 +166,7 @@ var phrases = map[Language][numPhrases]string{
 		"por millón de palabras", "fracción del máximo propio", "apariciones al año",
 		"Las líneas se interrumpen en los años sin datos: {years}.",
 		"{page}", "{heading} (continuación)", "Pico en la década de {decade}", "y",
+		"fracción móvil de {years} años", "media móvil de {years} años", "sombreado: intervalo del {level} %",
 	},
 }
 

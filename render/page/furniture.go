@@ -108,10 +108,17 @@ func (f *Feature) noteLines(size, width float64) []string {
 // with a band what the tint is.
 func (f *Feature) scaleNotes() []string {
 	notes := f.heightNotes()
-	roll := f.Data.Note()
+	roll := ""
+	if f.Data.Rolling >= 2 { // the language's "5-year rolling share" (Data.Note's wording in English)
+		id := specs.PhraseRollingShare
+		if f.Spec.Scale.Mode == specs.ScaleRaw {
+			id = specs.PhraseRollingMean
+		}
+		roll = specs.Fill(f.Spec.Phrase(id), "years", strconv.Itoa(f.Data.Rolling))
+	}
 	band := ""
 	if f.Output.Band > 0 {
-		band = "; tint: " + strconv.FormatFloat(f.Output.Band*100, 'f', -1, 64) + "% interval"
+		band = "; " + specs.Fill(f.Spec.Phrase(specs.PhraseBandTint), "level", f.Spec.FormatSignificant(f.Output.Band*100))
 	}
 	if roll == "" && band == "" {
 		return notes
