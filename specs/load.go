@@ -664,6 +664,7 @@ func (d *decoder) spec(n *yaml.Node, s *Spec) {
 		d.errs.Add(s.Where("outputs"), "outputs: give at least one output")
 	}
 	d.checkInserts(s)
+	d.checkPress(s)
 	d.palettePaper(&s.Palette)
 	preflightDefaults(&s.Preflight, d.pos)
 }

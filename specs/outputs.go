@@ -201,6 +201,7 @@ func (d *decoder) output(n *yaml.Node, path, name string) Output {
 			d.length(&o.KeyEvery, true)(n, path)
 			keyEverySet = true
 		}},
+		{"press", func(n *yaml.Node, path string) { o.Press = d.press(n, path) }},
 	}, "kind")
 	at := func(key string) *yaml.Node {
 		if p, ok := d.pos[path+"."+key]; ok {
@@ -237,6 +238,10 @@ func (d *decoder) output(n *yaml.Node, path, name string) Output {
 	}
 	if kind == Screen && (o.Bleed > 0 || o.Marks || o.SlugLine) {
 		d.errorf(n, "%s: bleed, marks and slug-line are for print outputs", path)
+	}
+	if kind == Screen && o.Press != nil {
+		d.errorf(at("press"), "%s.press: a printing condition is for print outputs; screen colours are sRGB", path)
+		o.Press = nil
 	}
 	if kind == Print && (o.Spreads || o.PanelFiles || flow != "") {
 		d.errorf(n, "%s: flow, spreads and panel-files are for screen outputs", path)

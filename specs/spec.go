@@ -272,6 +272,10 @@ type Output struct {
 	// colour: a key band goes before the first row that starts more than
 	// this far below the previous key. 0: the key at the top only.
 	KeyEvery Length
+
+	// Press is the printing condition (print): with it the PDF is CMYK
+	// through the printer's profile and a PDF/X-4; nil: an RGB PDF.
+	Press *Press
 }
 
 // Margins are the four margins of a page. On facing pages Inside is the

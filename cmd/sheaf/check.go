@@ -80,6 +80,12 @@ func writeSummary(w io.Writer, r feature.Report) {
 		// Labels, layout warnings and the palette's findings come in the
 		// preflight table below.
 		fmt.Fprintf(w, "    %s\n", o.Summary)
+		switch {
+		case o.Press != nil:
+			fmt.Fprintf(w, "    %s PDF/X-4 for %q (%s, ink limit %.0f%%)\n", o.Press.Space, o.Press.Condition, o.Press.Intent, o.Press.InkLimit)
+		case o.Kind == string(specs.Print):
+			fmt.Fprintln(w, "    RGB PDF (no printing condition)")
+		}
 	}
 }
 

@@ -31,6 +31,7 @@ func Example() {
 	// Output:
 	// print: 1 page(s), 3 panels
 	// info palette
+	// info rgb-output
 }
 
 // Summarize is the report `sheaf check --json` prints.

@@ -16,6 +16,7 @@ import (
 	"sheaf/layout"
 	"sheaf/layout/fonts"
 	"sheaf/palette"
+	"sheaf/palette/press"
 	"sheaf/render/page"
 	"sheaf/specs"
 	"sheaf/specs/series"
@@ -91,6 +92,9 @@ type Output struct {
 	Fonts   *fonts.Set
 	Plan    *layout.Plan
 	Feature *page.Feature
+	// Press is the printing condition of a print output with a press
+	// profile (spec press); nil: RGB.
+	Press *press.Condition
 }
 
 // Name is the output's name.
@@ -111,7 +115,11 @@ func (j *Job) Prepare(out *specs.Output) (*Output, error) {
 	if err != nil {
 		return nil, err
 	}
-	return &Output{Spec: out, Fonts: fs, Plan: plan,
+	cond, err := press.ForOutput(j.Spec, out)
+	if err != nil {
+		return nil, specs.BadInput(err)
+	}
+	return &Output{Spec: out, Fonts: fs, Plan: plan, Press: cond,
 		Feature: page.NewFeature(j.Spec, out, plan, j.Data, sc, fs)}, nil
 }
 

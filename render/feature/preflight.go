@@ -17,19 +17,26 @@ func (j *Job) Preflight(outs []*Output) ([]preflight.Finding, error) {
 	}
 	var all []preflight.Finding
 	for _, o := range outs {
-		in := preflight.Input{Spec: j.Spec, Output: o.Spec, Plan: o.Plan, Data: j.Data, Fonts: o.Fonts, Labels: o.Feature.Labels()}
-		for i := range pal {
-			if pal[i].Output == o.Spec.Name {
-				in.Palette = &pal[i].Report
-			}
-		}
-		fs, err := preflight.Check(in)
+		fs, err := preflight.Check(j.PreflightInput(o, pal))
 		if err != nil {
 			return nil, specs.BadInput(err)
 		}
 		all = append(all, fs...)
 	}
 	return dedupeData(all), nil
+}
+
+// PreflightInput is what preflight checks for one prepared output, with
+// its palette report from pal (CheckPalette).
+func (j *Job) PreflightInput(o *Output, pal []PaletteCheck) preflight.Input {
+	in := preflight.Input{Spec: j.Spec, Output: o.Spec, Plan: o.Plan, Data: j.Data, Fonts: o.Fonts, Labels: o.Feature.Labels(),
+		Scale: &o.Feature.Palette, Press: o.Press}
+	for i := range pal {
+		if pal[i].Output == o.Spec.Name {
+			in.Palette = &pal[i].Report
+		}
+	}
+	return in
 }
 
 // dedupeData keeps one finding about the data itself (a spike, an empty

@@ -59,7 +59,21 @@ type OutputReport struct {
 	Labels   []page.Label   `json:"labels_shortened,omitempty"`
 	Warnings []string       `json:"warnings,omitempty"`
 	Palette  PaletteSummary `json:"palette"`
-	Layout   *layout.Plan   `json:"layout"`
+	// Press is the printing condition of a print output (the PDF is a
+	// CMYK PDF/X-4 for it); absent: the PDF is RGB.
+	Press  *PressReport `json:"press,omitempty"`
+	Layout *layout.Plan `json:"layout"`
+}
+
+// PressReport is an output's printing condition in brief.
+type PressReport struct {
+	Condition string  `json:"condition"` // OutputConditionIdentifier
+	Registry  string  `json:"registry"`
+	Profile   string  `json:"profile"`     // the path as the spec gives it
+	Describes string  `json:"description"` // the profile's own description
+	Space     string  `json:"space"`       // CMYK, GRAY or RGB
+	Intent    string  `json:"intent"`
+	InkLimit  float64 `json:"ink_limit"` // percent
 }
 
 // PaletteSummary is the palette check of one output in brief.
@@ -112,6 +126,10 @@ func (j *Job) Summarize() (Report, error) {
 		or.Palette = PaletteSummary{Name: pal[i].Scale.Name(), Failed: pc.Failed(), Findings: []string{}}
 		for _, f := range pc.Findings {
 			or.Palette.Findings = append(or.Palette.Findings, f.String())
+		}
+		if c := p.Press; c != nil {
+			or.Press = &PressReport{Condition: c.Identifier, Registry: c.Registry, Profile: o.Press.Profile,
+				Describes: c.Profile.Description, Space: c.Profile.Space.String(), Intent: string(o.Press.Intent), InkLimit: c.InkLimit}
 		}
 		r.Outputs = append(r.Outputs, or)
 	}

@@ -128,7 +128,7 @@ var slugFont = sync.OnceValue(func() *fontData {
 func (e *encoder) drawMarks(b PageBoxes, o MarkOptions, slug string) error {
 	o = o.withDefaults(b)
 	e.save()
-	e.setAlpha(Alpha{1, 1})
+	e.setAlpha(Alpha{Fill: 1, Stroke: 1})
 	e.setRegistration()
 	e.buf = appendNum(e.buf, o.Weight)
 	e.buf = append(e.buf, " w 0 J 0 j [] 0 d\n"...)

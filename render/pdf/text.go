@@ -120,6 +120,8 @@ func glyphTexts(span canvas.TextSpan) []string {
 
 func (e *encoder) spanText(x, y float64, span canvas.TextSpan, m canvas.Matrix, d *fontData) {
 	face := span.Face
+	e.inText = true
+	defer func() { e.inText = false }()
 	if !e.setPaint(face.Fill, false) {
 		return
 	}

@@ -2,8 +2,10 @@
 //
 // A Writer implements the document side (ISO 32000-1, PDF 1.6, with the
 // structure PDF/X-4 asks for, ISO 15930-7): page boxes (MediaBox = CropBox,
-// BleedBox, TrimBox), every colour in one embedded ICC sRGB profile that is
-// also the document's GTS_PDFX output intent, TrueType fonts embedded as
+// BleedBox, TrimBox), colours either in one embedded ICC sRGB profile (an
+// RGB file: no output intent, no PDF/X claim) or, with a printing condition
+// (Options.Press), in the press's device colours with its profile as the
+// GTS_PDFX output intent (PDF/X-4), TrueType fonts embedded as
 // subset CID fonts with ToUnicode maps, Info and XMP metadata that agree,
 // a trailer /ID, and printer's marks in a registration colour. Drawing
 // stays canvas code: each page is drawn on a *canvas.Canvas and rendered
@@ -39,6 +41,8 @@
 package pdf
 
 import (
+	"sheaf/palette/press"
+
 	"bufio"
 	"crypto/sha256"
 	"errors"
@@ -79,6 +83,13 @@ type Options struct {
 	// Compression is the zlib level (1–9) of content streams and font
 	// files; 0 means DefaultCompression, Uncompressed means none.
 	Compression int
+	// Press is the printing condition. With it the document is a PDF/X-4
+	// (ISO 15930-7): its output intent carries the press's profile and
+	// every page must have been drawn for the same condition
+	// (PageSetup.Press). Without it the document is plain RGB — colours
+	// in the embedded sRGB profile, no output intent, no PDF/X claim —
+	// and the printer converts it.
+	Press *press.Condition
 }
 
 // Object numbers fixed by the writer.
@@ -347,6 +358,23 @@ func (w *Writer) start() {
 	// The comment line of bytes ≥ 128 tells transfer programs the file
 	// is binary (ISO 32000-1 §7.5.2).
 	w.write([]byte("%PDF-1.6\n%\xE2\xE3\xCF\xD3\n"))
+	if pc := w.opts.Press; pc != nil {
+		// The press profile is both the output intent's DestOutputProfile
+		// and the alternate space of the registration colour.
+		n := pc.Components()
+		data, filter := w.compress(pc.Profile.Bytes())
+		w.stream(objICC, " /N "+strconv.Itoa(n)+" /Alternate "+deviceSpace(n)+filter, data)
+		w.obj(objICCSpace, []byte("[/ICCBased "+ref(objICC)+"]"))
+		// Registration: colourant All marks every separation (§8.6.6.4);
+		// its alternate puts tint t on every device component.
+		c0, c1 := strings.Repeat("0 ", n), strings.Repeat("1 ", n)
+		if n != 4 {
+			c0, c1 = strings.Repeat("1 ", n), strings.Repeat("0 ", n) // additive: 0 is black
+		}
+		w.obj(objRegSpace, []byte("[/Separation /All "+ref(objICCSpace)+
+			" << /FunctionType 2 /Domain [0 1] /C0 ["+strings.TrimSpace(c0)+"] /C1 ["+strings.TrimSpace(c1)+"] /N 1 >>]"))
+		return
+	}
 	icc := SRGBProfile()
 	data, filter := w.compress(icc)
 	w.stream(objICC, " /N 3 /Alternate /DeviceRGB"+filter, data)
@@ -367,6 +395,13 @@ func rectArray(b []byte, r canvas.Rect) []byte {
 
 func (w *Writer) writePage(p *EncodedPage) error {
 	w.start()
+	want := 0
+	if w.opts.Press != nil {
+		want = w.opts.Press.Components()
+	}
+	if p.Device != want {
+		return fmt.Errorf("a page drawn in %s does not belong in a document in %s", spaceName(p.Device), spaceName(want))
+	}
 	var res []byte
 	res = append(res, "<< /ColorSpace << /CS0 "...)
 	res = append(res, ref(objICCSpace)...)
@@ -436,6 +471,9 @@ func (w *Writer) writePage(p *EncodedPage) error {
 				b = appendNum(b, a.Fill)
 				b = append(b, " /CA "...)
 				b = appendNum(b, a.Stroke)
+				if a.Overprint {
+					b = append(b, " /OP true /op true /OPM 1"...)
+				}
 				b = append(b, " >>"...)
 				w.obj(num, b)
 			}
@@ -471,7 +509,11 @@ func (w *Writer) writePage(p *EncodedPage) error {
 	b = append(b, res...)
 	if p.Transparent {
 		b = append(b, " /Group << /Type /Group /S /Transparency /CS "...)
-		b = append(b, ref(objICCSpace)...)
+		if p.Device > 0 {
+			b = append(b, deviceSpace(p.Device)...)
+		} else {
+			b = append(b, ref(objICCSpace)...)
+		}
 		b = append(b, " >>"...)
 	}
 	b = append(b, " /Contents "...)
@@ -519,7 +561,11 @@ func (w *Writer) pattern(sh Shading) (int, error) {
 		b = append(b, '2')
 	}
 	b = append(b, " /ColorSpace "...)
-	b = append(b, ref(objICCSpace)...)
+	if sh.Device > 0 {
+		b = append(b, deviceSpace(sh.Device)...)
+	} else {
+		b = append(b, ref(objICCSpace)...)
+	}
 	b = append(b, " /Coords ["...)
 	b = appendNums(b, sh.Coords...)
 	b = append(b, "] /Function "...)
@@ -534,7 +580,7 @@ func (w *Writer) pattern(sh Shading) (int, error) {
 // Stops.At); coincident stops make a hard edge.
 func stitching(stops []Stop) ([]byte, error) {
 	for i, s := range stops {
-		if !finite(s.Offset, s.R, s.G, s.B) || s.Offset < 0 || s.Offset > 1 || i > 0 && s.Offset < stops[i-1].Offset {
+		if !finite(s.Offset, s.R, s.G, s.B) || !finite(s.Ink...) || len(s.Ink) != len(stops[0].Ink) || s.Offset < 0 || s.Offset > 1 || i > 0 && s.Offset < stops[i-1].Offset {
 			return nil, fmt.Errorf("gradient stop %d %+v is out of range or order", i, s)
 		}
 	}
@@ -559,9 +605,9 @@ func stitching(stops []Stop) ([]byte, error) {
 	b = append(b, "<< /FunctionType 3 /Domain [0 1] /Functions ["...)
 	for _, p := range pieces {
 		b = append(b, " << /FunctionType 2 /Domain [0 1] /C0 ["...)
-		b = appendNums(b, p.c0.R, p.c0.G, p.c0.B)
+		b = appendNums(b, p.c0.components()...)
 		b = append(b, "] /C1 ["...)
-		b = appendNums(b, p.c1.R, p.c1.G, p.c1.B)
+		b = appendNums(b, p.c1.components()...)
 		b = append(b, "] /N 1 >>"...)
 	}
 	b = append(b, " ] /Bounds ["...)
@@ -617,10 +663,17 @@ func (w *Writer) Close() error {
 	b = append(b, " >>"...)
 	w.obj(objPages, b)
 
-	w.obj(objCatalog, []byte("<< /Type /Catalog /Pages "+ref(objPages)+" /Metadata "+ref(objMetadata)+
-		" /OutputIntents [<< /Type /OutputIntent /S /GTS_PDFX /OutputConditionIdentifier (sRGB IEC61966-2.1)"+
-		" /OutputCondition (sRGB IEC61966-2.1) /RegistryName (http://www.color.org) /Info (sRGB IEC61966-2.1) /DestOutputProfile "+
-		ref(objICC)+" >>] >>"))
+	catalog := "<< /Type /Catalog /Pages " + ref(objPages) + " /Metadata " + ref(objMetadata)
+	pdfx := ""
+	if pc := w.opts.Press; pc != nil {
+		// ISO 15930-7 §6.2.4: a GTS_PDFX output intent whose
+		// DestOutputProfile characterises the printing condition.
+		catalog += " /OutputIntents [<< /Type /OutputIntent /S /GTS_PDFX /OutputConditionIdentifier " + pdfText(pc.Identifier) +
+			" /OutputCondition " + pdfText(pc.Identifier) + " /RegistryName " + pdfText(pc.Registry) +
+			" /Info " + pdfText(pc.Profile.Description) + " /DestOutputProfile " + ref(objICC) + " >>]"
+		pdfx = " /GTS_PDFXVersion (PDF/X-4)"
+	}
+	w.obj(objCatalog, []byte(catalog+" >>"))
 
 	date := w.opts.Date
 	if date.IsZero() {
@@ -633,8 +686,8 @@ func (w *Writer) Close() error {
 	}
 	pdfDate := date.Format("D:20060102150405Z00'00'")
 	w.obj(objInfo, []byte("<< /Title "+pdfText(w.opts.Title)+" /Producer "+pdfText(producer)+" /Creator "+pdfText(producer)+
-		" /CreationDate ("+pdfDate+") /ModDate ("+pdfDate+") /Trapped /False >>"))
-	w.stream(objMetadata, " /Type /Metadata /Subtype /XML", xmp(w.opts.Title, producer, date))
+		" /CreationDate ("+pdfDate+") /ModDate ("+pdfDate+") /Trapped /False"+pdfx+" >>"))
+	w.stream(objMetadata, " /Type /Metadata /Subtype /XML", xmp(w.opts.Title, producer, date, pdfx != ""))
 
 	// cross-reference table (§7.5.4): 20-byte entries
 	xref := w.n
@@ -802,12 +855,19 @@ func pdfText(s string) string {
 
 // xmp is the document's XMP packet (ISO 16684-1) with the properties
 // PDF/X-4 wants to agree with the Info dictionary.
-func xmp(title, producer string, date time.Time) []byte {
+func xmp(title, producer string, date time.Time, pdfx bool) []byte {
 	d := date.Format("2006-01-02T15:04:05Z")
 	sum := sha256.Sum256([]byte(title + "\x00" + d))
 	uuid := fmt.Sprintf("uuid:%x-%x-%x-%x-%x", sum[0:4], sum[4:6], sum[6:8], sum[8:10], sum[10:16])
 	esc := func(s string) string {
 		return strings.NewReplacer("&", "&amp;", "<", "&lt;", ">", "&gt;", `"`, "&quot;").Replace(s)
+	}
+	// PDF/X-4 identification (ISO 15930-7 §6.7.5): only for a document
+	// with a printing condition.
+	pdfxNS, pdfxID := "", ""
+	if pdfx {
+		pdfxNS = "\n xmlns:pdfxid=\"http://www.npes.org/pdfx/ns/id/\""
+		pdfxID = "<pdfxid:GTS_PDFXVersion>PDF/X-4</pdfxid:GTS_PDFXVersion>\n"
 	}
 	return []byte(`<?xpacket begin="` + "\uFEFF" + `" id="W5M0MpCehiHzreSzNTczkc9d"?>
 <x:xmpmeta xmlns:x="adobe:ns:meta/">
@@ -816,8 +876,7 @@ func xmp(title, producer string, date time.Time) []byte {
  xmlns:dc="http://purl.org/dc/elements/1.1/"
  xmlns:xmp="http://ns.adobe.com/xap/1.0/"
  xmlns:pdf="http://ns.adobe.com/pdf/1.3/"
- xmlns:xmpMM="http://ns.adobe.com/xap/1.0/mm/"
- xmlns:pdfxid="http://www.npes.org/pdfx/ns/id/">
+ xmlns:xmpMM="http://ns.adobe.com/xap/1.0/mm/"` + pdfxNS + `>
 <dc:format>application/pdf</dc:format>
 <dc:title><rdf:Alt><rdf:li xml:lang="x-default">` + esc(title) + `</rdf:li></rdf:Alt></dc:title>
 <xmp:CreateDate>` + d + `</xmp:CreateDate>
@@ -830,9 +889,23 @@ func xmp(title, producer string, date time.Time) []byte {
 <xmpMM:InstanceID>` + uuid + `</xmpMM:InstanceID>
 <xmpMM:VersionID>1</xmpMM:VersionID>
 <xmpMM:RenditionClass>default</xmpMM:RenditionClass>
-<pdfxid:GTS_PDFXVersion>PDF/X-4</pdfxid:GTS_PDFXVersion>
-</rdf:Description>
+` + pdfxID + `</rdf:Description>
 </rdf:RDF>
 </x:xmpmeta>
 <?xpacket end="w"?>`)
+}
+
+func spaceName(device int) string {
+	if device == 0 {
+		return "sRGB"
+	}
+	return strings.TrimPrefix(deviceSpace(device), "/")
+}
+
+// components are the stop's colour values: device values or sRGB.
+func (s Stop) components() []float64 {
+	if len(s.Ink) > 0 {
+		return s.Ink
+	}
+	return []float64{s.R, s.G, s.B}
 }

@@ -220,10 +220,10 @@ func TestStitchingFunction(t *testing.T) {
 		stops []Stop
 		want  string
 	}{
-		{[]Stop{{0, 0, 0, 0}, {1, 1, 1, 1}}, "/Functions [ << /FunctionType 2 /Domain [0 1] /C0 [0 0 0] /C1 [1 1 1] /N 1 >> ] /Bounds [] /Encode [0 1]"},
-		{[]Stop{{0.25, 1, 0, 0}, {0.75, 0, 0, 1}}, "/Bounds [0.25 0.75] /Encode [0 1 0 1 0 1]"},
-		{[]Stop{{0, 1, 0, 0}, {0.5, 0, 1, 0}, {0.5, 0, 0, 1}, {1, 1, 1, 1}}, "/Bounds [0.5] /Encode [0 1 0 1]"},
-		{[]Stop{{0.4, 0.2, 0.2, 0.2}}, "/Bounds [0.4] /Encode [0 1 0 1]"},
+		{[]Stop{{0, 0, 0, 0, nil}, {1, 1, 1, 1, nil}}, "/Functions [ << /FunctionType 2 /Domain [0 1] /C0 [0 0 0] /C1 [1 1 1] /N 1 >> ] /Bounds [] /Encode [0 1]"},
+		{[]Stop{{0.25, 1, 0, 0, nil}, {0.75, 0, 0, 1, nil}}, "/Bounds [0.25 0.75] /Encode [0 1 0 1 0 1]"},
+		{[]Stop{{0, 1, 0, 0, nil}, {0.5, 0, 1, 0, nil}, {0.5, 0, 0, 1, nil}, {1, 1, 1, 1, nil}}, "/Bounds [0.5] /Encode [0 1 0 1]"},
+		{[]Stop{{0.4, 0.2, 0.2, 0.2, nil}}, "/Bounds [0.4] /Encode [0 1 0 1]"},
 	}
 	for _, c := range cases {
 		b, err := stitching(c.stops)
@@ -231,7 +231,7 @@ func TestStitchingFunction(t *testing.T) {
 			t.Errorf("stitching(%v) = %s (%v), want it to contain %q", c.stops, b, err, c.want)
 		}
 	}
-	if _, err := stitching([]Stop{{0.5, 0, 0, 0}, {0.2, 0, 0, 0}}); err == nil {
+	if _, err := stitching([]Stop{{0.5, 0, 0, 0, nil}, {0.2, 0, 0, 0, nil}}); err == nil {
 		t.Error("stops out of order accepted")
 	}
 }

@@ -21,6 +21,7 @@ import (
 	"sheaf/layout"
 	"sheaf/layout/fonts"
 	"sheaf/palette"
+	"sheaf/palette/press"
 	"sheaf/render/page"
 	"sheaf/specs"
 	"sheaf/specs/series"
@@ -126,6 +127,11 @@ type Input struct {
 	Fonts   *fonts.Set
 	Labels  []page.Label // as page.Feature.Labels returns them
 	Palette *palette.Report
+	// Scale is the era palette drawn (page.Feature.Palette) and Press the
+	// printing condition of a print output (nil: RGB); both for the press
+	// checks.
+	Scale *palette.Scale
+	Press *press.Condition
 }
 
 // Check runs every check on in with the spec's thresholds
@@ -144,6 +150,7 @@ func Check(in Input) ([]Finding, error) {
 	c.panels()
 	c.palette()
 	c.paperTint()
+	c.press()
 	sort.SliceStable(c.found, func(i, j int) bool {
 		a, b := c.found[i], c.found[j]
 		if a.Severity != b.Severity {

@@ -521,7 +521,7 @@ func (b *build) setup(p *feature.Output, i int) pdf.PageSetup {
 	}
 	out := p.Spec
 	pg := &p.Plan.Pages[i]
-	setup := pdf.PageSetup{Boxes: PageBoxes(pg)}
+	setup := pdf.PageSetup{Boxes: PageBoxes(pg), Press: p.Press}
 	if out.Marks {
 		// The layout's crop-mark geometry (layout.CropMarks), which
 		// `sheaf check --json` reports: what the PDF draws.
@@ -558,7 +558,7 @@ func (b *build) buildPrint(p *feature.Output) ([]string, error) {
 	// are still being drawn.
 	var encErr error
 	err = b.writeHashed(pdfPath, func(w io.Writer) error {
-		pw := pdf.NewWriter(w, pdf.Options{Title: b.j.Spec.Title, Version: Version, Date: b.date})
+		pw := pdf.NewWriter(w, pdf.Options{Title: b.j.Spec.Title, Version: Version, Date: b.date, Press: p.Press})
 		// Pages from the cache name their fonts by hash only.
 		for _, st := range []fonts.Style{fonts.Regular, fonts.Bold, fonts.Italic} {
 			if _, err := pw.RegisterFont(p.Fonts.Font(st)); err != nil {
@@ -784,7 +784,9 @@ func (b *build) writeProofs(p *feature.Output, pages []PageEntry, dpi float64, o
 		pg := &p.Plan.Pages[i]
 		region := raster.RegionOf(pg.Media.H(), dpi, pg.Trim.X0, pg.Trim.Y0, pg.Trim.X1, pg.Trim.Y1)
 		trim, err := b.rasterize(files[i], func() (*image.RGBA, error) {
-			return raster.DrawRegionContext(b.ctx, pg.Media.H(), dpi, region, p.Feature.PaperColor(), func(ctx *canvas.Context) error {
+			// With a printing condition the proof is a soft proof: colours
+			// as the press prints them.
+			return raster.ProofRegionContext(b.ctx, pg.Media.H(), dpi, region, p.Feature.PaperColor(), p.Press, func(ctx *canvas.Context) error {
 				return p.Feature.Draw(ctx, i)
 			})
 		})

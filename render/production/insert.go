@@ -141,6 +141,9 @@ func (b *build) insertInputs(p *feature.Insert, terms []TermHash) string {
 		h.floats([]float64{s.Year, r.R, r.G, r.B})
 	}
 	h.str(fontsSum(p.Graphic.Fonts))
+	if p.Press != nil {
+		h.str("press " + p.Press.Fingerprint())
+	}
 	return h.sum()
 }
 
@@ -158,8 +161,8 @@ func (b *build) drawInsert(p *feature.Insert, dir string) error {
 		box := canvas.Rect{X0: 0, Y0: 0, X1: w, Y1: h}
 		title, _ := p.Graphic.Describe()
 		return WriteAtomic(path, func(wr io.Writer) error {
-			pw := pdf.NewWriter(wr, pdf.Options{Title: title, Version: Version, Date: b.date})
-			if err := pw.AddPage(pdf.PageSetup{Boxes: pdf.PageBoxes{Media: box, Bleed: box, Trim: box}}, draw); err != nil {
+			pw := pdf.NewWriter(wr, pdf.Options{Title: title, Version: Version, Date: b.date, Press: p.Press})
+			if err := pw.AddPage(pdf.PageSetup{Boxes: pdf.PageBoxes{Media: box, Bleed: box, Trim: box}, Press: p.Press}, draw); err != nil {
 				return err
 			}
 			return pw.Close()

@@ -25,15 +25,15 @@ import (
 // key (see pdf.EncodedPage).
 func TestPageCacheCoversEncodedPage(t *testing.T) {
 	want := map[string]string{
-		"pdf.EncodedPage": "Boxes pdf.PageBoxes; Content []uint8; Compressed bool; Fonts []pdf.PageFont; Patterns []pdf.Shading; GStates []pdf.Alpha; Transparent bool",
+		"pdf.EncodedPage": "Boxes pdf.PageBoxes; Content []uint8; Compressed bool; Fonts []pdf.PageFont; Patterns []pdf.Shading; GStates []pdf.Alpha; Transparent bool; Device int",
 		"pdf.PageBoxes":   "Media canvas.Rect; Bleed canvas.Rect; Trim canvas.Rect",
 		"canvas.Rect":     "X0 float64; Y0 float64; X1 float64; Y1 float64",
 		"pdf.PageFont":    "Key pdf.FontKey; Glyphs []pdf.GlyphUse; font *pdf.fontData",
 		"pdf.FontKey":     "[32]uint8",
 		"pdf.GlyphUse":    "ID uint16; Text string",
-		"pdf.Shading":     "Radial bool; Coords []float64; Stops []pdf.Stop",
-		"pdf.Stop":        "Offset float64; R float64; G float64; B float64",
-		"pdf.Alpha":       "Fill float64; Stroke float64",
+		"pdf.Shading":     "Radial bool; Device int; Coords []float64; Stops []pdf.Stop",
+		"pdf.Stop":        "Offset float64; R float64; G float64; B float64; Ink []float64",
+		"pdf.Alpha":       "Fill float64; Stroke float64; Overprint bool",
 	}
 	for _, v := range []any{pdf.EncodedPage{}, pdf.PageBoxes{}, canvas.Rect{}, pdf.PageFont{}, pdf.FontKey{}, pdf.GlyphUse{}, pdf.Shading{}, pdf.Stop{}, pdf.Alpha{}} {
 		typ := reflect.TypeOf(v)
@@ -72,9 +72,11 @@ func cachePages(t *testing.T) []*pdf.EncodedPage {
 		Patterns: []pdf.Shading{
 			{Radial: true, Coords: []float64{1, 2, 0, 3, 4, 5.5}, Stops: []pdf.Stop{{Offset: 0, R: 1}, {Offset: 1, G: 0.5, B: 1}}},
 			{Coords: []float64{0, 0, 100, math.Copysign(0, -1)}},
+			{Device: 4, Coords: []float64{0, 0, 10, 0}, Stops: []pdf.Stop{{Offset: 0, Ink: []float64{0.1, 0.2, 0.3, 0.4}}, {Offset: 1, Ink: []float64{1, 0, 0.5, 0}}}},
 		},
-		GStates:     []pdf.Alpha{{Fill: 0.5, Stroke: 1}, {}},
+		GStates:     []pdf.Alpha{{Fill: 0.5, Stroke: 1}, {}, {Fill: 1, Stroke: 1, Overprint: true}},
 		Transparent: true,
+		Device:      4,
 	}
 	return []*pdf.EncodedPage{drawn, full}
 }

@@ -21,6 +21,8 @@ import (
 	"github.com/tdewolff/canvas"
 	"github.com/tdewolff/canvas/renderers/rasterizer"
 
+	"sheaf/palette"
+	"sheaf/palette/press"
 	"sheaf/specs"
 )
 
@@ -39,6 +41,8 @@ type Renderer struct {
 	img   *image.RGBA
 	tol   float64       // flattening tolerance in millimetres
 	shift canvas.Matrix // page millimetres to the image's region
+	dpi   float64
+	proof *press.Condition // soft proof: colours as this press prints them
 }
 
 // New returns a renderer for a page of w × h points at dpi dots per inch,
@@ -59,7 +63,7 @@ func New(w, h, dpi float64, background color.Color) (*Renderer, error) {
 	// rasterizers put it (row = (h − y)·dpi/72), so a page whose height is
 	// not a whole number of pixels is not shifted by the rounding.
 	lift := float64(py)*25.4/dpi - h*specs.MmPerPt
-	return &Renderer{ras: ras, img: img, tol: flatTolerancePx * 25.4 / dpi, shift: canvas.Identity.Translate(0, lift)}, nil
+	return &Renderer{ras: ras, img: img, tol: flatTolerancePx * 25.4 / dpi, shift: canvas.Identity.Translate(0, lift), dpi: dpi}, nil
 }
 
 // Region is the part of a page an image shows, in whole device pixels
@@ -102,6 +106,10 @@ func (r *Renderer) RenderPath(p *canvas.Path, style canvas.Style, m canvas.Matri
 	if r.stopped() {
 		return
 	}
+	if r.proof != nil {
+		style.Fill = r.proofPaint(style.Fill)
+		style.Stroke = r.proofPaint(style.Stroke)
+	}
 	m = r.shift.Mul(m)
 	if style.HasStroke() {
 		scale := math.Sqrt(math.Abs(m.Det()))
@@ -137,9 +145,16 @@ func (r *Renderer) RenderPath(p *canvas.Path, style canvas.Style, m canvas.Matri
 
 // RenderText draws text.
 func (r *Renderer) RenderText(t *canvas.Text, m canvas.Matrix) {
-	if !r.stopped() {
-		r.ras.RenderText(t, r.shift.Mul(m))
+	if r.stopped() {
+		return
 	}
+	if r.proof != nil {
+		// as the rasterizer does, but through RenderPath so the glyphs'
+		// colours are proofed too
+		t.RenderAsPath(r, m, canvas.DPI(r.dpi))
+		return
+	}
+	r.ras.RenderText(t, r.shift.Mul(m))
 }
 
 // RenderImage draws an image.
@@ -244,12 +259,94 @@ func DrawRegion(pageH, dpi float64, r Region, background color.Color, draw func(
 // DrawRegionContext is DrawRegion that stops when ctx is cancelled:
 // nothing more is drawn and it returns ctx's error.
 func DrawRegionContext(ctx context.Context, pageH, dpi float64, r Region, background color.Color, draw func(ctx *canvas.Context) error) (*image.RGBA, error) {
+	return ProofRegionContext(ctx, pageH, dpi, r, background, nil, draw)
+}
+
+// ProofRegion is DrawRegion as a soft proof for a printing condition: every
+// colour (background, fills, strokes, gradients, type) is drawn as the
+// press prints it — the colour the PDF carries for that press (greys as
+// black ink, gradients as its refined ink ramp) taken back through the
+// profile to sRGB (see press.Condition.Proof). With cond nil it is
+// DrawRegion.
+func ProofRegion(pageH, dpi float64, r Region, background color.Color, cond *press.Condition, draw func(ctx *canvas.Context) error) (*image.RGBA, error) {
+	return ProofRegionContext(context.Background(), pageH, dpi, r, background, cond, draw)
+}
+
+// ProofRegionContext is ProofRegion that stops when ctx is cancelled:
+// nothing more is drawn and it returns ctx's error.
+func ProofRegionContext(ctx context.Context, pageH, dpi float64, r Region, background color.Color, cond *press.Condition, draw func(ctx *canvas.Context) error) (*image.RGBA, error) {
 	if err := ctx.Err(); err != nil {
 		return nil, err
+	}
+	if cond != nil {
+		background = proofColor(cond, color.RGBAModel.Convert(background).(color.RGBA))
 	}
 	rr, err := NewRegion(pageH, dpi, r, background)
 	if err != nil {
 		return nil, err
 	}
+	rr.proof = cond
 	return rr.run(ctx, draw)
+}
+
+// proofPaint maps a paint's colours to the soft proof.
+func (r *Renderer) proofPaint(p canvas.Paint) canvas.Paint {
+	switch {
+	case p.IsPattern():
+		return p
+	case p.IsGradient():
+		switch g := p.Gradient.(type) {
+		case *canvas.LinearGradient:
+			c := *g
+			c.Stops = proofStops(r.proof, g.Stops)
+			p.Gradient = &c
+		case *canvas.RadialGradient:
+			c := *g
+			c.Stops = proofStops(r.proof, g.Stops)
+			p.Gradient = &c
+		}
+		return p
+	}
+	if p.Color.A == 0 {
+		return p
+	}
+	p.Color = proofColor(r.proof, p.Color)
+	return p
+}
+
+// proofColor is a premultiplied colour as the press prints it.
+func proofColor(cond *press.Condition, c color.RGBA) color.RGBA {
+	if c.A == 0 {
+		return c
+	}
+	a := float64(c.A) / 255
+	rgb := palette.RGB{R: float64(c.R) / 255 / a, G: float64(c.G) / 255 / a, B: float64(c.B) / 255 / a}
+	ink, _ := cond.Ink(rgb)
+	return premultiplied(cond.Proof(ink), c.A)
+}
+
+func premultiplied(c palette.RGB, alpha uint8) color.RGBA {
+	r, g, b := c.Clip().RGB8()
+	a := float64(alpha) / 255
+	return color.RGBA{uint8(math.Round(float64(r) * a)), uint8(math.Round(float64(g) * a)), uint8(math.Round(float64(b) * a)), alpha}
+}
+
+// proofStops are a gradient's stops as the press prints them: the ink ramp
+// the PDF carries (press.Condition.Ramp), each stop proofed.
+func proofStops(cond *press.Condition, stops canvas.Stops) canvas.Stops {
+	if len(stops) == 0 {
+		return stops
+	}
+	alpha := stops[0].Color.A
+	in := make([]press.RGBStop, len(stops))
+	for i, s := range stops {
+		a := math.Max(float64(s.Color.A), 1) / 255
+		in[i] = press.RGBStop{Offset: s.Offset, RGB: palette.RGB{R: float64(s.Color.R) / 255 / a, G: float64(s.Color.G) / 255 / a, B: float64(s.Color.B) / 255 / a}}
+	}
+	ramp := cond.Ramp(in)
+	out := make(canvas.Stops, len(ramp))
+	for i, s := range ramp {
+		out[i] = canvas.Stop{Offset: s.Offset, Color: premultiplied(cond.Proof(s.Ink), alpha)}
+	}
+	return out
 }
