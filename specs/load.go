@@ -35,9 +35,14 @@ func Load(path string) (*Spec, error) {
 	if info.IsDir() {
 		return nil, Errors{{Pos: Pos{File: path}, Msg: "is a directory; give the spec's YAML file"}}
 	}
-	data, err := os.ReadFile(path)
+	data, err := ReadRegular(path, MaxSpecSize)
 	if err != nil {
-		return nil, Errors{{Pos: Pos{File: path}, Msg: err.Error()}}
+		msg := err.Error()
+		var pe *fs.PathError
+		if errors.As(err, &pe) {
+			msg = pe.Err.Error() // the position names the path
+		}
+		return nil, Errors{{Pos: Pos{File: path}, Msg: msg}}
 	}
 	return Parse(path, data)
 }

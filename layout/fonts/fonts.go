@@ -9,7 +9,6 @@ package fonts
 
 import (
 	"fmt"
-	"os"
 	"strings"
 	"sync"
 
@@ -109,7 +108,7 @@ func Load(spec *specs.Spec, out *specs.Output) (*Set, error) {
 		}
 		resolved := spec.Resolve(written)
 		where := fmt.Sprintf("%s: output %q: fonts.%s", spec.Where("outputs."+out.Name+".fonts."+key), out.Name, key)
-		b, err := os.ReadFile(resolved)
+		b, err := specs.ReadRegular(resolved, specs.MaxFontSize)
 		if err != nil {
 			return fmt.Errorf("%s: cannot read font %q (resolved to %q): %w", where, written, resolved, err)
 		}
