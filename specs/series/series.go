@@ -168,9 +168,9 @@ func (r *reader) normKey(term string) string {
 
 // table opens a CSV or TSV file (by extension) and maps its header.
 type table struct {
-	name  string // resolved path, for positions in messages
-	f     *os.File
-	csv   *records
+	name   string // resolved path, for positions in messages
+	f      *os.File
+	csv    *records
 	cols   map[string]int
 	width  int
 	fields int // in the header: a row may have no more
