@@ -72,7 +72,7 @@ func ReadRegular(path string, limit int64) ([]byte, error) {
 	}
 	defer f.Close()
 	if fi, err := f.Stat(); err == nil && fi.Size() > limit {
-		return nil, &fs.PathError{Op: "read", Path: path, Err: fmt.Errorf("is %s; sheaf reads at most %s", sizeText(fi.Size()), sizeText(limit))}
+		return nil, &fs.PathError{Op: "read", Path: path, Err: fmt.Errorf("is %d bytes, over the %s sheaf reads", fi.Size(), sizeText(limit))}
 	}
 	b, err := io.ReadAll(io.LimitReader(f, limit+1))
 	if err != nil {

@@ -94,7 +94,7 @@ func Load(s *specs.Spec) (*Set, error) {
 		}
 	}
 	if len(selected) == 0 {
-		errs.Add(s.Where("terms"), "no terms are selected: the data has %d terms and none pass the spec's selection", len(order))
+		errs.Add(whereSelection(s), "no terms are selected: the data has %d terms and none pass the spec's selection", len(order))
 		return nil, errs
 	}
 	if r.keep {
@@ -418,7 +418,7 @@ func readTotals(s *specs.Spec, errs *specs.Errors) (map[int]float64, bool) {
 		}
 	}
 	if len(*errs) == 0 && len(totals) == 0 {
-		errs.Add(specs.Pos{File: t.name}, "no totals fall inside the span %d–%d", s.Years.From, s.Years.To)
+		errs.Add(s.Where("years"), "no totals in %s fall inside the span %d–%d", t.name, s.Years.From, s.Years.To)
 	}
 	return totals, len(*errs) == 0
 }
@@ -748,4 +748,16 @@ func checkTerm(term []byte) string {
 		}
 	}
 	return ""
+}
+
+// whereSelection is the spec line that decides which terms are shown:
+// terms (or a key under it), else data.counts, whose every term is a
+// candidate when the spec has no terms key.
+func whereSelection(s *specs.Spec) specs.Pos {
+	for _, k := range []string{"terms", "data.counts"} {
+		if p := s.Where(k); p.Line > 0 {
+			return p
+		}
+	}
+	return specs.Pos{File: s.File}
 }
