@@ -18,6 +18,8 @@ func TestIssue20SpecMessages(t *testing.T) {
 	}{
 		{"empty list", "terms:\n  list: []\n", "s.yaml:6:9", "terms.list is empty", ""},
 		{"long plain list", long, "s.yaml:", "the spec has more than 200000 values", "alias"},
+		{"insert twice", "inserts:\n  a: {output: print, size: 80mm x 45mm, terms: [w]}\n  a: {output: print, size: 80mm x 45mm, terms: [v]}\n", "s.yaml:7:3", `insert "a" is given twice (first at line 6)`, ""},
+
 	}
 	for _, tt := range tests {
 		t.Run(tt.name, func(t *testing.T) {
@@ -30,4 +32,15 @@ func TestIssue20SpecMessages(t *testing.T) {
 			}
 		})
 	}
+}
+
+// TestOutputNamedInserts: with inserts in the spec, an output may not be
+// named "inserts" (its folder): an insert named page-001 would overwrite
+// its first page (issue 20). The error is at the output's line.
+func TestOutputNamedInserts(t *testing.T) {
+	spec := "title: T\ndata: {counts: c.csv, totals: t.csv}\nyears: {from: 1900, to: 1905}\noutputs:\n  inserts: {kind: print}\ninserts:\n  page-001: {output: inserts, size: 80mm x 45mm, terms: [w]}\n"
+	_, err := Parse("s.yaml", []byte(spec))
+	require.ErrorContains(t, err, `s.yaml:5:3: output "inserts": the spec has inserts`)
+	_, err = Parse("s.yaml", []byte(spec[:strings.Index(spec, "inserts:\n  page")]))
+	require.NoError(t, err, "an output named inserts without inserts is fine")
 }

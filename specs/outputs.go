@@ -270,15 +270,26 @@ const maxProofPixels = 40000
 
 func mmPt(v float64) Length { return Length(v * PtPerMm) }
 
+// InsertsFolder is the folder of the output folder that inserts are
+// written to.
+const InsertsFolder = "inserts"
+
 func (d *decoder) inserts(n *yaml.Node, path string, s *Spec) {
 	n = d.resolve(n)
 	if n.Kind != yaml.MappingNode {
 		d.errorf(n, "inserts must be a mapping of insert names to settings")
 		return
 	}
+	seen := map[string]*yaml.Node{}
 	for i := 0; i+1 < len(n.Content); i += 2 {
 		k, v := n.Content[i], n.Content[i+1]
 		p := joinPath(path, k.Value)
+		if first, dup := seen[k.Value]; dup {
+			// The second would overwrite the first's files.
+			d.errorf(k, "insert %q is given twice (first at line %d)", k.Value, first.Line)
+			continue
+		}
+		seen[k.Value] = k
 		d.pos[p] = d.at(k)
 		if !outputName.MatchString(k.Value) {
 			d.errorf(k, "insert name %q: use letters, digits, - and _ (it names a file)", k.Value)
@@ -311,6 +322,12 @@ func (d *decoder) inserts(n *yaml.Node, path string, s *Spec) {
 }
 
 func (d *decoder) checkInserts(s *Spec) {
+	// Inserts are written to the folder "inserts" beside the outputs'
+	// folders: an output of that name would share it, and an insert could
+	// overwrite its pages.
+	if o := s.Output(InsertsFolder); o != nil && len(s.Inserts) > 0 {
+		d.errs.Add(s.Where("outputs."+o.Name), "output %q: the spec has inserts, which are written to the folder %q; give the output another name", o.Name, InsertsFolder)
+	}
 	for _, in := range s.Inserts {
 		if in.Output != "" && s.Output(in.Output) == nil {
 			var names []string
