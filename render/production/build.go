@@ -875,14 +875,14 @@ func (b *build) writeProofs(p *feature.Output, pages []PageEntry, dpi float64, o
 			defer b.progress.Step()
 			pg := &p.Plan.Pages[i]
 			region := raster.RegionOf(pg.Media.H(), dpi, pg.Trim.X0, pg.Trim.Y0, pg.Trim.X1, pg.Trim.Y1)
-			trim, err := raster.DrawRegion(pg.Media.H(), dpi, region, p.Feature.PaperColor(), func(ctx *canvas.Context) error {
+			trim, err := raster.DrawRegion(pg.Media.H(), dpi, region, p.Feature.PaperColor(), stoppable(b.ctx, func(ctx *canvas.Context) error {
 				return p.Feature.Draw(ctx, i)
-			})
+			}))
 			if err != nil {
 				errs[i] = err
 				return
 			}
-			if err := b.writeHashed(files[i], func(w io.Writer) error { return raster.WritePNG(w, trim) }); err != nil {
+			if err := b.writeHashed(files[i], func(w io.Writer) error { return raster.WritePNG(ctxWriter{b.ctx, w}, trim) }); err != nil {
 				errs[i] = err
 				return
 			}

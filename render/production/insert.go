@@ -1,6 +1,7 @@
 package production
 
 import (
+	"context"
 	"fmt"
 	"io"
 	"path/filepath"
@@ -61,7 +62,7 @@ func (b *build) buildInserts(preps []*feature.Insert) ([]string, error) {
 				return nil, err
 			}
 		}
-		if err := drawInsert(p, idir, b.date); err != nil {
+		if err := drawInsert(b.ctx, p, idir, b.date); err != nil {
 			return nil, err
 		}
 		st.Encoded, st.Whole = 1, "drawn ("+why+")"
@@ -144,7 +145,7 @@ func (b *build) insertInputs(p *feature.Insert, terms []TermHash) string {
 }
 
 // drawInsert draws one insert's files into dir.
-func drawInsert(p *feature.Insert, dir string, date time.Time) error {
+func drawInsert(ctx context.Context, p *feature.Insert, dir string, date time.Time) error {
 	w, h := p.Graphic.Size()
 	if p.Output.Kind == specs.Print {
 		// An insert is placed by the article's layout, which adds its
@@ -180,12 +181,12 @@ func drawInsert(p *feature.Insert, dir string, date time.Time) error {
 		return err
 	}
 	for _, s := range screenScales {
-		img, err := raster.Draw(w, h, s.dpi, paper, func(ctx *canvas.Context) error { return p.Graphic.Draw(ctx) })
+		img, err := raster.Draw(w, h, s.dpi, paper, stoppable(ctx, p.Graphic.Draw))
 		if err != nil {
 			return fmt.Errorf("insert %q: %w", p.Spec.Name, err)
 		}
 		ppath := filepath.Join(dir, p.Spec.Name+s.suffix+".png")
-		if err := WriteAtomic(ppath, func(wr io.Writer) error { return raster.WritePNG(wr, img) }); err != nil {
+		if err := WriteAtomic(ppath, func(wr io.Writer) error { return raster.WritePNG(ctxWriter{ctx, wr}, img) }); err != nil {
 			return err
 		}
 	}
