@@ -15,9 +15,9 @@ const (
 	// MaxSpecSize bounds a spec file: a spec of thousands of listed terms
 	// is well under 1 MiB.
 	MaxSpecSize = 16 << 20
-	// MaxFontSize bounds a font file: large CJK OpenType collections are
-	// about 20–30 MiB.
-	MaxFontSize = 64 << 20
+	// MaxFontSize bounds a font file: the largest CJK OpenType
+	// collections are a few tens of MiB.
+	MaxFontSize = 256 << 20
 	// MaxRecordSize bounds one record (line) of a data table.
 	MaxRecordSize = 64 << 10
 	// MaxTermSize bounds a term, in bytes of UTF-8: it becomes a label.

@@ -19,7 +19,6 @@ func TestIssue20SpecMessages(t *testing.T) {
 		{"empty list", "terms:\n  list: []\n", "s.yaml:6:9", "terms.list is empty", ""},
 		{"long plain list", long, "s.yaml:", "the spec has more than 200000 values", "alias"},
 		{"insert twice", "inserts:\n  a: {output: print, size: 80mm x 45mm, terms: [w]}\n  a: {output: print, size: 80mm x 45mm, terms: [v]}\n", "s.yaml:7:3", `insert "a" is given twice (first at line 6)`, ""},
-
 	}
 	for _, tt := range tests {
 		t.Run(tt.name, func(t *testing.T) {

@@ -7,6 +7,7 @@
 //	sheaf check SPEC [--json] [--strict]
 //	sheaf palette SPEC [--out DIR]
 //	sheaf build SPEC [--out DIR] [--only OUTPUT] [--strict] [--no-proofs] [--full] [--quiet]
+//	sheaf schema
 //	sheaf help [COMMAND]
 //
 // Exit status: 0 when all is well, 1 when checks find problems or a build
@@ -45,7 +46,10 @@ func commands() []command {
 		{"check", "SPEC [--json] [--strict]", "validate the spec and data; print a summary, pages and preflight findings", runCheck},
 		{"palette", "SPEC [--out DIR]", "print the era palette's table and checks; write a swatch sheet", runPalette},
 		{"build", "SPEC [--out DIR] [--only OUTPUT] [--strict] [--no-proofs] [--full] [--quiet]", "render every output: PDF, proofs, SVG, PNG; manifest and change report", runBuild},
+		{"pairs", "SPEC [--top N] [--per-term N] [--output NAME] [--size 'W x H'] [--json] [--out DIR] [--no-sheet]", "find the most alike pairs of terms and the strongest hand-overs; inserts entries and a sheet", runPairs},
 		{"count", countArgs, "count terms in a dated text archive into the two tables a spec's data reads", runCount},
+
+		{"schema", "", "print the JSON Schema of the page spec, for YAML editors", runSchema},
 
 		{"help", "[COMMAND]", "show help for sheaf or one command", nil},
 	}

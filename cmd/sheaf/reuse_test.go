@@ -10,12 +10,16 @@ import (
 	"io"
 	"os"
 	"path/filepath"
-	"sheaf/render/production"
 	"slices"
 	"strings"
 	"sync"
 	"testing"
 	"time"
+
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
+
+	"sheaf/render/production"
 )
 
 // reuseOutputs adds a scrolling web output with panel files to jobSpec's
@@ -47,9 +51,7 @@ func countDraws(t *testing.T) *[]string {
 func outsideTerm(t *testing.T, spec string, selected []production.TermHash) string {
 	t.Helper()
 	f, err := os.Open(filepath.Join(filepath.Dir(spec), "data", "counts.csv"))
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	defer f.Close()
 	sel := map[string]bool{}
 	for _, s := range selected {
@@ -116,9 +118,7 @@ func TestWholeOutputReuse(t *testing.T) {
     size: 480px x 300px
     terms: [%q]
 `, t1, t1, t2, t3, u)
-	if err := os.WriteFile(spec, []byte(jobSpec(reuseOutputs)+inserts), 0o644); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, os.WriteFile(spec, []byte(jobSpec(reuseOutputs)+inserts), 0o644))
 	out := filepath.Join(filepath.Dir(spec), "out")
 	draws := countDraws(t)
 	stderrDrawing(t)
@@ -129,9 +129,7 @@ func TestWholeOutputReuse(t *testing.T) {
 	// Progress covers the screen output and the inserts (done of total,
 	// the current output).
 	for _, s := range []string{"\rweb: SVG pages 1/1", "\rweb: PNGs 2/2", "\rweb: panel files 60/60", "\rinserts 4/4", "\rprint: PDF pages"} {
-		if !strings.Contains(stderr, s) {
-			t.Errorf("progress lacks %q:\n%q", s, stderr)
-		}
+		assert.Contains(t, stderr, s, "progress lacks %q:\n%q", s, stderr)
 	}
 	first := loadManifest(t, out)
 	if o := first.Output("web"); o == nil || len(o.Inputs) != 64 || len(first.Inserts) != 4 {
@@ -144,18 +142,14 @@ func TestWholeOutputReuse(t *testing.T) {
 	before := snapshot(t, out)
 	beforeInfo, _ := os.Stat(filepath.Join(out, "web", "page-001@2x.png"))
 	_, stderr = buildInto(t, spec, out)
-	if len(*draws)+len(*encodes) != 0 {
-		t.Errorf("unchanged rebuild drew %v and encoded %v", *draws, *encodes)
-	}
+	assert.Equal(t, 0, len(*draws)+len(*encodes), "unchanged rebuild drew %v and encoded %v", *draws, *encodes)
 	sameTree(t, before, snapshot(t, out), func(p string) bool { return p == production.ChangesJSON || p == production.ChangesText })
 	if afterInfo, err := os.Stat(filepath.Join(out, "web", "page-001@2x.png")); err != nil || !os.SameFile(beforeInfo, afterInfo) {
 		t.Errorf("the 2× PNG was written again, not carried over (%v)", err)
 	}
 	for _, s := range []string{"nothing changed since the last build", "web: 1 page, reused (inputs unchanged)",
 		"insert col: reused (inputs unchanged)", "insert outside: reused (inputs unchanged)", "\rweb: reusing files"} {
-		if !strings.Contains(stderr, s) {
-			t.Errorf("stderr lacks %q:\n%s", s, stderr)
-		}
+		assert.Contains(t, stderr, s, "stderr lacks %q:\n%s", s, stderr)
 	}
 	r := loadChanges(t, out)
 	for _, w := range r.Work {
@@ -163,9 +157,7 @@ func TestWholeOutputReuse(t *testing.T) {
 			t.Errorf("unchanged rebuild work %+v", w)
 		}
 	}
-	if len(r.Work) != 6 {
-		t.Errorf("work has %d entries, want 6 (print, web, four inserts)", len(r.Work))
-	}
+	assert.Equal(t, 6, len(r.Work), "work has %d entries, want 6 (print, web, four inserts)", len(r.Work))
 
 	// One count of t1 (on print, web and in col and pair): exactly those
 	// are drawn again.
@@ -175,9 +167,7 @@ func TestWholeOutputReuse(t *testing.T) {
 	if want := "[web insert col insert pair]"; fmt.Sprint(*draws) != want {
 		t.Errorf("drew %v, want %s", *draws, want)
 	}
-	if len(*encodes) != 1 {
-		t.Errorf("encoded %v, want the one print page", *encodes)
-	}
+	assert.Equal(t, 1, len(*encodes), "encoded %v, want the one print page", *encodes)
 	m := loadManifest(t, out)
 	var at []string
 	for _, p := range m.Outputs[0].Pages {
@@ -190,16 +180,12 @@ func TestWholeOutputReuse(t *testing.T) {
 	for _, s := range []string{place, "inserts/col.pdf: redrawn (its terms' data changed)",
 		"inserts/pair.svg: redrawn (its terms' data changed)", "web: 1 page, drawn (inputs changed)",
 		"insert col: drawn (inputs changed)", "insert other: reused (inputs unchanged)"} {
-		if !strings.Contains(string(text), s) {
-			t.Errorf("changes.txt lacks %q:\n%s", s, text)
-		}
+		assert.Contains(t, string(text), s, "changes.txt lacks %q:\n%s", s, text)
 	}
 	if bytes.Contains(text, []byte(" of 0\n")) || bytes.Contains(text, []byte("inserts/other.svg: redrawn")) {
 		t.Errorf("changes.txt:\n%s", text)
 	}
-	if !strings.Contains(stderr, place) {
-		t.Errorf("stderr lacks %q:\n%s", place, stderr)
-	}
+	assert.Contains(t, stderr, place, "stderr lacks %q:\n%s", place, stderr)
 	r = loadChanges(t, out)
 	if len(r.Graphics) != 4 || r.Graphics[0].Insert != "col" || len(r.Pages) != 1 || r.Pages[0].File != "print/print.pdf" {
 		t.Errorf("graphics %+v, pages %+v", r.Graphics, r.Pages)
@@ -235,9 +221,7 @@ func TestWholeOutputReuse(t *testing.T) {
 	sameTree(t, snapshot(t, clean), snapshot(t, out), skip)
 
 	// A file altered after the build: the output is drawn again.
-	if err := os.WriteFile(filepath.Join(out, "web", "page-001.png"), []byte("edited"), 0o644); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, os.WriteFile(filepath.Join(out, "web", "page-001.png"), []byte("edited"), 0o644))
 	*draws = nil
 	_, stderr = buildInto(t, spec, out)
 	if want := "[web]"; fmt.Sprint(*draws) != want || !strings.Contains(stderr, "web: 1 page, drawn (a file of the last build is missing or altered)") {
@@ -248,9 +232,7 @@ func TestWholeOutputReuse(t *testing.T) {
 	// --full draws everything.
 	*draws = nil
 	buildInto(t, spec, out, "--quiet", "--full")
-	if len(*draws) != 5 {
-		t.Errorf("--full drew %v", *draws)
-	}
+	assert.Equal(t, 5, len(*draws), "--full drew %v", *draws)
 	if r := loadChanges(t, out); !r.Nothing() || r.Work[1].Whole != "drawn (--full)" {
 		t.Errorf("--full rebuild report %+v", r)
 	}
@@ -262,9 +244,7 @@ func TestWholeOutputReuse(t *testing.T) {
 func TestOutIsFile(t *testing.T) {
 	spec := newJob(t, jobSpec(""))
 	file := filepath.Join(filepath.Dir(spec), "somefile")
-	if err := os.WriteFile(file, []byte("x"), 0o644); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, os.WriteFile(file, []byte("x"), 0o644))
 	for _, c := range []struct{ out, want string }{
 		{file, fmt.Sprintf("sheaf build: --out %s is a file; give a folder\n", file)},
 		{filepath.Join(file, "sub"), fmt.Sprintf("sheaf build: --out %s: %s is a file; give a folder\n", filepath.Join(file, "sub"), file)},

@@ -15,7 +15,7 @@ import (
 // TestFontFilesMustBeRegularAndBounded: a font that is a FIFO with no
 // writer, a device that never ends, or a file over specs.MaxFontSize is
 // refused at once with its path (issue 20; the limit is this project's
-// own: large CJK collections are 20–30 MiB, from memory).
+// own: the largest CJK collections are a few tens of MiB, from memory).
 func TestFontFilesMustBeRegularAndBounded(t *testing.T) {
 	dir := t.TempDir()
 	require.NoError(t, syscall.Mkfifo(filepath.Join(dir, "fifo.ttf"), 0o644))
@@ -27,7 +27,7 @@ func TestFontFilesMustBeRegularAndBounded(t *testing.T) {
 	tests := []struct{ file, want string }{
 		{"fifo.ttf", "is a named pipe (FIFO), not a regular file"},
 		{"zero.ttf", "is a character device, not a regular file"},
-		{"big.ttf", "over the 64.0 MiB sheaf reads"},
+		{"big.ttf", "over the 256.0 MiB sheaf reads"},
 	}
 	for _, tt := range tests {
 		t.Run(tt.file, func(t *testing.T) {

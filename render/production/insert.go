@@ -1,8 +1,8 @@
 package production
 
 import (
-	"context"
 	"fmt"
+	"image"
 	"io"
 	"path/filepath"
 	"sort"
@@ -62,7 +62,7 @@ func (b *build) buildInserts(preps []*feature.Insert) ([]string, error) {
 				return nil, err
 			}
 		}
-		if err := drawInsert(b.ctx, p, idir, b.date); err != nil {
+		if err := b.drawInsert(p, idir); err != nil {
 			return nil, err
 		}
 		st.Encoded, st.Whole = 1, "drawn ("+why+")"
@@ -136,16 +136,25 @@ func (b *build) insertInputs(p *feature.Insert, terms []TermHash) string {
 		h.int(y)
 	}
 	h.str(d.Unit)
+	h.int(d.Rolling)
+	h.float(p.Graphic.Output.Band)
+	h.str(string(p.Graphic.Insert.Compare))
 	for _, s := range p.Graphic.Palette.Stops(float64(d.Span.From), float64(d.Span.To), 0) {
 		r := s.Color
 		h.floats([]float64{s.Year, r.R, r.G, r.B})
 	}
 	h.str(fontsSum(p.Graphic.Fonts))
+	if p.Press != nil {
+		h.str("press " + p.Press.Fingerprint())
+	}
 	return h.sum()
 }
 
 // drawInsert draws one insert's files into dir.
-func drawInsert(ctx context.Context, p *feature.Insert, dir string, date time.Time) error {
+func (b *build) drawInsert(p *feature.Insert, dir string) error {
+	if err := b.ctx.Err(); err != nil {
+		return err
+	}
 	w, h := p.Graphic.Size()
 	if p.Output.Kind == specs.Print {
 		// An insert is placed by the article's layout, which adds its
@@ -155,8 +164,8 @@ func drawInsert(ctx context.Context, p *feature.Insert, dir string, date time.Ti
 		box := canvas.Rect{X0: 0, Y0: 0, X1: w, Y1: h}
 		title, _ := p.Graphic.Describe()
 		return WriteAtomic(path, func(wr io.Writer) error {
-			pw := pdf.NewWriter(wr, pdf.Options{Title: title, Version: Version, Date: date})
-			if err := pw.AddPage(pdf.PageSetup{Boxes: pdf.PageBoxes{Media: box, Bleed: box, Trim: box}}, draw); err != nil {
+			pw := pdf.NewWriter(wr, pdf.Options{Title: title, Version: Version, Date: b.date, Press: p.Press})
+			if err := pw.AddPage(pdf.PageSetup{Boxes: pdf.PageBoxes{Media: box, Bleed: box, Trim: box}, Press: p.Press}, draw); err != nil {
 				return err
 			}
 			return pw.Close()
@@ -174,6 +183,9 @@ func drawInsert(ctx context.Context, p *feature.Insert, dir string, date time.Ti
 		if err := p.Graphic.Draw(canvas.NewContext(doc)); err != nil {
 			return err
 		}
+		if err := b.ctx.Err(); err != nil {
+			return err
+		}
 		_, err = doc.WriteTo(wr)
 		return err
 	})
@@ -181,12 +193,14 @@ func drawInsert(ctx context.Context, p *feature.Insert, dir string, date time.Ti
 		return err
 	}
 	for _, s := range screenScales {
-		img, err := raster.Draw(w, h, s.dpi, paper, stoppable(ctx, p.Graphic.Draw))
+		ppath := filepath.Join(dir, p.Spec.Name+s.suffix+".png")
+		img, err := b.rasterize(ppath, func() (*image.RGBA, error) {
+			return raster.DrawContext(b.ctx, w, h, s.dpi, paper, func(ctx *canvas.Context) error { return p.Graphic.Draw(ctx) })
+		})
 		if err != nil {
 			return fmt.Errorf("insert %q: %w", p.Spec.Name, err)
 		}
-		ppath := filepath.Join(dir, p.Spec.Name+s.suffix+".png")
-		if err := WriteAtomic(ppath, func(wr io.Writer) error { return raster.WritePNG(ctxWriter{ctx, wr}, img) }); err != nil {
+		if err := WriteAtomic(ppath, func(wr io.Writer) error { return raster.WritePNGContext(b.ctx, wr, img) }); err != nil {
 			return err
 		}
 	}

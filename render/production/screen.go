@@ -2,17 +2,16 @@ package production
 
 import (
 	"bytes"
+	"context"
 	"fmt"
 	"html"
 	"image"
 	"io"
 	"math"
 	"path/filepath"
-	"runtime"
 	"sort"
 	"strconv"
 	"strings"
-	"sync"
 	"unicode"
 
 	"github.com/tdewolff/canvas"
@@ -47,7 +46,10 @@ const maxRasterPx = 40000
 // It returns the files, sorted.
 func (b *build) buildScreen(p *feature.Output) ([]string, error) {
 	out := p.Spec
-	entry := b.OutputEntry(p, 0)
+	entry, err := b.entryOf(p, 0)
+	if err != nil {
+		return nil, err
+	}
 	entry.Inputs = b.screenInputs(p, entry.Pages)
 	b.outputs = append(b.outputs, entry)
 	st := OutputStats{Output: out.Name, Kind: string(out.Kind), Pages: len(entry.Pages)}
@@ -75,7 +77,7 @@ func (b *build) buildScreen(p *feature.Output) ([]string, error) {
 			return nil, err
 		}
 	}
-	files, err := drawScreen(b.j, p, odir, tasks, b.progress)
+	files, err := b.drawScreen(p, odir, tasks)
 	if err != nil {
 		return nil, err
 	}
@@ -165,7 +167,8 @@ func (b *build) noteScreenFiles(p *feature.Output, pages []PageEntry, odir strin
 
 // drawScreen draws every file of a screen output into odir (see
 // buildScreen) and returns them.
-func drawScreen(j *feature.Job, p *feature.Output, odir string, tasks []pngTask, prog Progress) ([]string, error) {
+func (b *build) drawScreen(p *feature.Output, odir string, tasks []pngTask) ([]string, error) {
+	j, prog := b.j, b.progress
 	out := p.Spec
 	n := len(p.Plan.Pages)
 	var files []string
@@ -185,7 +188,7 @@ func drawScreen(j *feature.Job, p *feature.Output, odir string, tasks []pngTask,
 			opts.Title = fmt.Sprintf("%s (page %d of %d)", opts.Title, i+1, n)
 		}
 		err := WriteAtomic(path, func(w io.Writer) error {
-			return drawSVG(w, pg.Trim, opts, func(ctx *canvas.Context) error { return p.Feature.Draw(ctx, i) })
+			return drawSVG(b.ctx, w, pg.Trim, opts, func(ctx *canvas.Context) error { return p.Feature.Draw(ctx, i) })
 		})
 		if err != nil {
 			return nil, err
@@ -194,7 +197,7 @@ func drawScreen(j *feature.Job, p *feature.Output, odir string, tasks []pngTask,
 		prog.Step()
 	}
 	if out.Spreads && out.Flow == specs.FlowPages {
-		spreads, err := writeSpreads(j, p, odir)
+		spreads, err := b.writeSpreads(p, odir)
 		if err != nil {
 			return nil, err
 		}
@@ -204,14 +207,14 @@ func drawScreen(j *feature.Job, p *feature.Output, odir string, tasks []pngTask,
 			shown = append(shown, proofItem{filepath.Base(spreads[k]), sp.Sheet.W(), sp.Sheet.H()})
 		}
 	}
-	pngs, err := writeScreenPNGs(p, tasks, prog)
+	pngs, err := b.writeScreenPNGs(p, tasks)
 	if err != nil {
 		return nil, err
 	}
 	files = append(files, pngs...)
 	var panels []string
 	if out.PanelFiles {
-		panels, err = writePanelFiles(j, p, filepath.Join(odir, "panels"), prog)
+		panels, err = b.writePanelFiles(p, filepath.Join(odir, "panels"))
 		if err != nil {
 			return nil, err
 		}
@@ -229,7 +232,8 @@ func drawScreen(j *feature.Job, p *feature.Output, odir string, tasks []pngTask,
 // writeSpreads writes one SVG per spread (dir/spread-NNN.svg): a
 // left-hand page and the right-hand page after it side by side, as a
 // reader of a magazine app sees them.
-func writeSpreads(j *feature.Job, p *feature.Output, odir string) ([]string, error) {
+func (b *build) writeSpreads(p *feature.Output, odir string) ([]string, error) {
+	j := b.j
 	var files []string
 	spreads := p.Plan.Spreads()
 	for k, sp := range spreads {
@@ -237,9 +241,9 @@ func writeSpreads(j *feature.Job, p *feature.Output, odir string) ([]string, err
 		opts.Title = fmt.Sprintf("%s (spread %d of %d)", opts.Title, k+1, len(spreads))
 		path := filepath.Join(odir, fmt.Sprintf("spread-%03d.svg", k+1))
 		err := WriteAtomic(path, func(w io.Writer) error {
-			return drawSVG(w, sp.Sheet, opts, func(ctx *canvas.Context) error {
+			return drawSVG(b.ctx, w, sp.Sheet, opts, func(ctx *canvas.Context) error {
 				for _, sg := range sp.Pages {
-					ctx.SetView(canvas.Identity.Translate(sg.Offset.X*25.4/72, sg.Offset.Y*25.4/72))
+					ctx.SetView(canvas.Identity.Translate(sg.Offset.X*specs.MmPerPt, sg.Offset.Y*specs.MmPerPt))
 					if err := p.Feature.Draw(ctx, sg.Page); err != nil {
 						return err
 					}
@@ -268,12 +272,18 @@ func screenSVGOptions(j *feature.Job, p *feature.Output) svg.Options {
 
 // drawSVG draws the part r (points) of a drawing into an SVG document
 // and writes it.
-func drawSVG(w io.Writer, r layout.Rect, opts svg.Options, draw func(ctx *canvas.Context) error) error {
+func drawSVG(ctx context.Context, w io.Writer, r layout.Rect, opts svg.Options, draw func(ctx *canvas.Context) error) error {
+	if err := ctx.Err(); err != nil {
+		return err
+	}
 	doc, err := svg.NewWindow(r.X0, r.Y0, r.X1, r.Y1, opts)
 	if err != nil {
 		return err
 	}
 	if err := draw(canvas.NewContext(doc)); err != nil {
+		return err
+	}
+	if err := ctx.Err(); err != nil {
 		return err
 	}
 	_, err = doc.WriteTo(w)
@@ -312,41 +322,30 @@ func screenPNGTasks(p *feature.Output, odir string) (tasks []pngTask, skipped []
 }
 
 // writeScreenPNGs renders the PNGs tasks lists, in parallel.
-func writeScreenPNGs(p *feature.Output, tasks []pngTask, prog Progress) (files []string, err error) {
-	prog.Begin(p.Spec.Name+": PNGs", len(tasks))
-	errs := make([]error, len(tasks))
-	sem := make(chan struct{}, runtime.GOMAXPROCS(0))
-	var wg sync.WaitGroup
-	for k, t := range tasks {
-		wg.Add(1)
-		sem <- struct{}{}
-		go func() {
-			defer func() { <-sem; wg.Done() }()
-			defer prog.Step()
-			img, err := screenPNG(p, t.page, t.dpi)
-			if err == nil {
-				err = WriteAtomic(t.path, func(w io.Writer) error { return raster.WritePNG(w, img) })
-			}
-			errs[k] = err
-		}()
-	}
-	wg.Wait()
-	for i, t := range tasks {
-		if errs[i] != nil {
-			return nil, errs[i]
+func (b *build) writeScreenPNGs(p *feature.Output, tasks []pngTask) (files []string, err error) {
+	b.progress.Begin(p.Spec.Name+": PNGs", len(tasks))
+	err = each(b.ctx, len(tasks), func(k int) (struct{}, error) {
+		defer b.progress.Step()
+		t := tasks[k]
+		pg := &p.Plan.Pages[t.page]
+		r := raster.RegionOf(pg.Media.H(), t.dpi, pg.Trim.X0, pg.Trim.Y0, pg.Trim.X1, pg.Trim.Y1)
+		img, err := b.rasterize(t.path, func() (*image.RGBA, error) {
+			return raster.DrawRegionContext(b.ctx, pg.Media.H(), t.dpi, r, p.Feature.PaperColor(), func(ctx *canvas.Context) error {
+				return p.Feature.Draw(ctx, t.page)
+			})
+		})
+		if err != nil {
+			return struct{}{}, err
 		}
+		return struct{}{}, WriteAtomic(t.path, func(w io.Writer) error { return raster.WritePNGContext(b.ctx, w, img) })
+	}, nil)
+	if err != nil {
+		return nil, err
+	}
+	for _, t := range tasks {
 		files = append(files, t.path)
 	}
 	return files, nil
-}
-
-// screenPNG renders page i's trim box at dpi on the paper colour.
-func screenPNG(p *feature.Output, i int, dpi float64) (image.Image, error) {
-	pg := &p.Plan.Pages[i]
-	r := raster.RegionOf(pg.Media.H(), dpi, pg.Trim.X0, pg.Trim.Y0, pg.Trim.X1, pg.Trim.Y1)
-	return raster.DrawRegion(pg.Media.H(), dpi, r, p.Feature.PaperColor(), func(ctx *canvas.Context) error {
-		return p.Feature.Draw(ctx, i)
-	})
 }
 
 // panelWindow is the part of a page a panel file shows: the panel, the
@@ -383,7 +382,8 @@ func panelFiles(j *feature.Job, p *feature.Output) []panelFile {
 }
 
 // writePanelFiles writes one SVG per term, named by the term's slug.
-func writePanelFiles(j *feature.Job, p *feature.Output, pdir string, prog Progress) ([]string, error) {
+func (b *build) writePanelFiles(p *feature.Output, pdir string) ([]string, error) {
+	j, prog := b.j, b.progress
 	var files []string
 	pfs := panelFiles(j, p)
 	prog.Begin(p.Spec.Name+": panel files", len(pfs))
@@ -393,7 +393,7 @@ func writePanelFiles(j *feature.Job, p *feature.Output, pdir string, prog Progre
 		opts.Title, opts.Desc = title, desc
 		path := filepath.Join(pdir, pf.name+".svg")
 		err := WriteAtomic(path, func(w io.Writer) error {
-			return drawSVG(w, pf.win, opts, func(ctx *canvas.Context) error { return p.Feature.DrawPanel(ctx, pf.panel) })
+			return drawSVG(b.ctx, w, pf.win, opts, func(ctx *canvas.Context) error { return p.Feature.DrawPanel(ctx, pf.panel) })
 		})
 		if err != nil {
 			return nil, err
@@ -505,7 +505,7 @@ figcaption{padding:6px 12px}
 <body>
 `, esc(title))
 	for i, it := range items {
-		wpx, hpx := it.w*96/72, it.h*96/72
+		wpx, hpx := it.w*specs.PxPerPt, it.h*specs.PxPerPt
 		// HTML's width and height attributes take whole pixels; the
 		// caption keeps the SVG's exact size.
 		ws, hs := strconv.FormatFloat(roundTo(wpx, 1), 'f', -1, 64), strconv.FormatFloat(roundTo(hpx, 1), 'f', -1, 64)

@@ -27,6 +27,7 @@ type stage struct {
 	mode    fs.FileMode // the final folder's permissions, set at commit
 }
 
+// StageMark is in the name of every stage folder: .DIR.stage-PID-RANDOM.
 const StageMark = ".stage-"
 
 // newStage makes a stage beside final, after removing stages left by
