@@ -191,11 +191,12 @@ func TestMountInsideRefused(t *testing.T) {
 }
 
 // TestReadOnlyFolderRefused: a folder inside the output folder that this
-// user may not change is refused before the build (root may change any,
-// so the test runs only for other users).
+// user may not change is refused before the build. Root may change any,
+// so under root the test runs itself again as the user nobody.
 func TestReadOnlyFolderRefused(t *testing.T) {
 	if os.Geteuid() == 0 {
-		t.Skip("root may remove files from a read-only folder: nothing to refuse")
+		asNobody(t)
+		return
 	}
 	j := demoJob(t, "")
 	out := filepath.Join(t.TempDir(), "out")
@@ -279,4 +280,33 @@ func TestBuildDoesNotWaitOnData(t *testing.T) {
 	case <-time.After(20 * time.Second): // a hang check, not a speed one
 		t.Fatal("Build still running after 20 s")
 	}
+}
+
+// asNobody runs the calling test again in a copy of the test binary as
+// the user nobody (uid 65534), in a folder everyone may write, and fails
+// when it fails. It skips when that cannot be arranged.
+func asNobody(t *testing.T) {
+	t.Helper()
+	dir, err := os.MkdirTemp("", "sheaf-nobody-")
+	require.NoError(t, err)
+	defer os.RemoveAll(dir)
+	require.NoError(t, os.Chmod(dir, 0o777))
+	self, err := os.Executable()
+	require.NoError(t, err)
+	bin := filepath.Join(dir, "test.bin")
+	b, err := os.ReadFile(self)
+	require.NoError(t, err)
+	require.NoError(t, os.WriteFile(bin, b, 0o755))
+	wd, err := os.Getwd()
+	require.NoError(t, err)
+	cmd := exec.Command(bin, "-test.run", "^"+t.Name()+"$", "-test.v")
+	cmd.Dir = wd
+	cmd.Env = append(os.Environ(), "TMPDIR="+dir, "HOME="+dir)
+	cmd.SysProcAttr = &syscall.SysProcAttr{Credential: &syscall.Credential{Uid: 65534, Gid: 65534}}
+	out, err := cmd.CombinedOutput()
+	if err != nil && len(out) == 0 {
+		t.Skipf("cannot run the test as nobody: %v", err)
+	}
+	require.NoError(t, err, "as nobody:\n%s", out)
+	require.Contains(t, string(out), "--- PASS: "+t.Name())
 }
