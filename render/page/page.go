@@ -20,6 +20,7 @@ import (
 	"sheaf/layout/fonts"
 	"sheaf/palette"
 	"sheaf/render/curve"
+	"sheaf/render/slug"
 	"sheaf/specs"
 	"sheaf/specs/series"
 )
@@ -37,6 +38,22 @@ type Feature struct {
 
 	labelsOnce sync.Once
 	labels     []Label
+	slugsOnce  sync.Once
+	slugs      []string
+}
+
+// Slug is the name of item's term in ids and file names: slug.Of made
+// unique over the feature's terms in panel order. It does not depend on
+// where the panel is, so a reflow leaves a term's SVG ids alone.
+func (f *Feature) Slug(item int) string {
+	f.slugsOnce.Do(func() {
+		terms := make([]string, len(f.Data.Series))
+		for i := range f.Data.Series {
+			terms[i] = f.Data.Series[i].Term
+		}
+		f.slugs = slug.All(terms)
+	})
+	return f.slugs[item]
 }
 
 // NewFeature computes what all pages share. Labels are fitted when first
@@ -130,7 +147,7 @@ func (f *Feature) groupedPanel(p pen, b *curve.Builder, pn layout.Panel) error {
 	g, grouping := p.ctx.Renderer.(Grouper)
 	if grouping {
 		title, desc := f.Describe(pn.Item)
-		g.BeginGroup(fmt.Sprintf("panel-%d", pn.Item+1), title, desc)
+		g.BeginGroup("panel-"+f.Slug(pn.Item), title, desc)
 	}
 	err := f.panel(p, b, pn)
 	if grouping {

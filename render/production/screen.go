@@ -11,16 +11,14 @@ import (
 	"runtime"
 	"sort"
 	"strconv"
-	"strings"
 	"sync"
-	"unicode"
 
 	"github.com/tdewolff/canvas"
-	"golang.org/x/text/unicode/norm"
 
 	"sheaf/layout"
 	"sheaf/render/feature"
 	"sheaf/render/raster"
+	"sheaf/render/slug"
 	"sheaf/render/svg"
 	"sheaf/specs"
 )
@@ -365,12 +363,11 @@ type panelFile struct {
 // panelFiles lists the panel files of an output in panel order, named.
 func panelFiles(j *feature.Job, p *feature.Output) []panelFile {
 	var out []panelFile
-	used := map[string]bool{}
 	for i := range p.Plan.Pages {
 		for _, pn := range p.Plan.Pages[i].Panels {
 			pn, win := panelWindow(p.Plan, pn)
 			term := j.Data.Series[pn.Item].Term
-			out = append(out, panelFile{name: uniqueSlug(Slug(term), used), term: term, item: pn.Item, panel: pn, win: win})
+			out = append(out, panelFile{name: p.Feature.Slug(pn.Item), term: term, item: pn.Item, panel: pn, win: win})
 		}
 	}
 	return out
@@ -398,77 +395,9 @@ func writePanelFiles(j *feature.Job, p *feature.Output, pdir string, prog Progre
 	return files, nil
 }
 
-// translit spells letters that Unicode decomposition does not split into
-// a base letter and marks.
-var translit = map[rune]string{
-	'ß': "ss", 'æ': "ae", 'Æ': "ae", 'œ': "oe", 'Œ': "oe", 'ø': "o", 'Ø': "o",
-	'ł': "l", 'Ł': "l", 'đ': "d", 'Đ': "d", 'ð': "d", 'Ð': "d", 'þ': "th", 'Þ': "th",
-	'ı': "i", 'ħ': "h", 'Ħ': "h", '&': "and",
-}
-
-// maxSlug bounds a slug's length in bytes, well under every file
-// system's name limit.
-const maxSlug = 64
-
-// Slug turns a term into a file name stem that is safe everywhere: lower
-// case ASCII letters and digits joined by single hyphens. Accents are
-// dropped after Unicode compatibility decomposition (NFKD: "Café" →
-// "cafe"), a few letters are spelled out ("ß" → "ss"), and everything
-// else separates words. A term with no Latin letter or digit at all (say,
-// Greek or CJK) is named by its code points instead ("u3b1-u3b2"), so two
-// such terms never share a name and no percent sign appears.
-func Slug(term string) string {
-	var b strings.Builder
-	dash := false
-	put := func(s string) {
-		if dash && b.Len() > 0 {
-			b.WriteByte('-')
-		}
-		dash = false
-		b.WriteString(s)
-	}
-	for _, r := range norm.NFKD.String(term) {
-		switch {
-		case unicode.Is(unicode.Mn, r):
-			// a combining mark: drop it, keep the base letter
-		case r < 0x80 && (unicode.IsLetter(r) || unicode.IsDigit(r)):
-			put(string(unicode.ToLower(r)))
-		case translit[r] != "":
-			put(translit[r])
-		default:
-			dash = true
-		}
-	}
-	s := b.String()
-	if s == "" {
-		var parts []string
-		for _, r := range term {
-			if !unicode.IsSpace(r) {
-				parts = append(parts, "u"+strconv.FormatInt(int64(r), 16))
-			}
-		}
-		s = strings.Join(parts, "-")
-		if s == "" {
-			s = "term"
-		}
-	}
-	if len(s) > maxSlug {
-		s = strings.TrimRight(s[:maxSlug], "-")
-	}
-	return s
-}
-
-// uniqueSlug returns s, or s-2, s-3, … the first not yet used, and marks
-// it used. Called in panel order, it names colliding terms
-// deterministically.
-func uniqueSlug(s string, used map[string]bool) string {
-	name := s
-	for k := 2; used[name]; k++ {
-		name = s + "-" + strconv.Itoa(k)
-	}
-	used[name] = true
-	return name
-}
+// Slug turns a term into a file name stem that is safe everywhere (see
+// slug.Of).
+func Slug(term string) string { return slug.Of(term) }
 
 // proofItem is one SVG the proof page shows, with its size in points.
 type proofItem struct {

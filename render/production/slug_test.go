@@ -3,6 +3,7 @@ package production
 import (
 	"fmt"
 	"regexp"
+	"sheaf/render/slug"
 	"strings"
 	"testing"
 )
@@ -32,14 +33,14 @@ func TestSlug(t *testing.T) {
 		if got != c.want {
 			t.Errorf("slug(%q) = %q, want %q", c.term, got, c.want)
 		}
-		if !regexp.MustCompile(`^[a-z0-9]+(-[a-z0-9]+)*$`).MatchString(got) || len(got) > maxSlug {
+		if !regexp.MustCompile(`^[a-z0-9]+(-[a-z0-9]+)*$`).MatchString(got) || len(got) > slug.Max {
 			t.Errorf("slug(%q) = %q is not a safe file name stem", c.term, got)
 		}
 	}
 	used := map[string]bool{}
 	var got []string
 	for _, s := range []string{"cafe", "cafe", "cafe-2", "cafe"} {
-		got = append(got, uniqueSlug(s, used))
+		got = append(got, slug.Unique(s, used))
 	}
 	if want := []string{"cafe", "cafe-2", "cafe-2-2", "cafe-3"}; fmt.Sprint(got) != fmt.Sprint(want) {
 		t.Errorf("collisions named %v, want %v", got, want)
