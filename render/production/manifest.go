@@ -62,6 +62,9 @@ type FontHash struct {
 type TermHash struct {
 	Term   string `json:"term"`
 	SHA256 string `json:"sha256"`
+	// Peak is the term's peak year, for the change report ("its peak
+	// moved 1905 → 1880"); 0 where not recorded (an insert's terms).
+	Peak int `json:"peak,omitempty"`
 }
 
 type OutputEntry struct {
@@ -276,7 +279,7 @@ func termHashes(d *series.Set) []TermHash {
 	parallel(len(ts), func(lo, hi int) {
 		h := newHasher(termKind)
 		for i := lo; i < hi; i++ {
-			ts[i] = TermHash{Term: d.Series[i].Term, SHA256: termSumWith(h, &d.Series[i])}
+			ts[i] = TermHash{Term: d.Series[i].Term, SHA256: termSumWith(h, &d.Series[i]), Peak: d.Series[i].PeakYear}
 		}
 	})
 	sort.Slice(ts, func(i, j int) bool { return ts[i].Term < ts[j].Term })

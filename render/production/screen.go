@@ -348,8 +348,24 @@ func panelWindow(plan *layout.Plan, pn layout.Panel) (layout.Panel, layout.Rect)
 	pn.Ticks = layout.Rect{X0: pn.Plot.X0, Y0: pn.Plot.Y0 - plan.TicksH, X1: pn.Plot.X1, Y1: pn.Plot.Y0}
 	pad := plan.Gutter / 4
 	box := pn.Box()
-	return pn, layout.Rect{X0: box.X0 - pad, Y0: pn.Ticks.Y0 - pad, X1: box.X1 + pad, Y1: box.Y1 + pad}
+	win := layout.Rect{X0: box.X0 - pad, Y0: pn.Ticks.Y0 - pad, X1: box.X1 + pad, Y1: box.Y1 + pad}
+	// The file is drawn with its window's corner at the origin and every
+	// length rounded to a millionth of a point: a panel that moved to
+	// another row or page is then drawn from the same numbers, so its file
+	// keeps its bytes (page coordinates differ in their last bits, enough
+	// to flip a 0.1 px rounding).
+	x0, y0 := win.X0, win.Y0
+	at := func(r layout.Rect) layout.Rect {
+		return layout.Rect{X0: canon(r.X0 - x0), Y0: canon(r.Y0 - y0), X1: canon(r.X1 - x0), Y1: canon(r.Y1 - y0)}
+	}
+	pn.Label, pn.Plot, pn.Ticks = at(pn.Label), at(pn.Plot), at(pn.Ticks)
+	pn.LabelBaseline = canon(pn.LabelBaseline - y0)
+	pn.Row, pn.Col = 0, 0
+	return pn, at(win)
 }
+
+// canon rounds a length to a millionth of a point.
+func canon(v float64) float64 { return math.Round(v*1e6) / 1e6 }
 
 // panelFile is one panel file of a screen output.
 type panelFile struct {
