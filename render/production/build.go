@@ -272,6 +272,7 @@ type build struct {
 	termMap      map[string]string
 	sumsMu       sync.Mutex
 	sums         map[string]fileSum // files this build wrote, by slash path relative to the stage
+	stale        []string           // proofs a --no-proofs build did not keep (slash paths in DIR)
 }
 
 // fileMeta is what the manifest says of a file beside its hash: the
@@ -457,6 +458,8 @@ func (b *build) run(preps []*feature.Output) (files []string, err error) {
 	wrote := make(chan error, 1)
 	go func() { wrote <- writeJSONFile(filepath.Join(b.stage.dir, ManifestFile), m) }()
 	b.changes = compareManifests(b.prev, m, b.stats)
+	sort.Strings(b.stale)
+	b.changes.Stale = append(b.changes.Stale, b.stale...)
 	if err := <-wrote; err != nil {
 		return nil, err
 	}
@@ -578,6 +581,13 @@ func (b *build) buildPrint(p *feature.Output) ([]string, error) {
 	}
 	b.note(pdfPath, fileMeta{pages: entry.Pages})
 	files := []string{pdfPath}
+	if b.noProofs {
+		kept, keptDPI := b.keepProofs(p, entry.Pages, odir, &st)
+		files = append(files, kept...)
+		if len(kept) > 0 {
+			entry.Proofs = keptDPI
+		}
+	}
 	if dpi > 0 {
 		proofs, err := b.writeProofs(p, entry.Pages, dpi, odir, &st)
 		if err != nil {
@@ -894,6 +904,69 @@ func (b *build) writeProofs(p *feature.Output, pages []PageEntry, dpi float64, o
 		return nil, err
 	}
 	return files, nil
+}
+
+// keepProofs is --no-proofs: nothing is drawn, but the last build's
+// proofs of pages whose inputs did not change are kept, and its contact
+// sheet when every page is as it was. The others no longer show their
+// pages: they are left out (removed with the swap) and listed as stale.
+// It returns the files kept (stage paths) and their resolution.
+func (b *build) keepProofs(p *feature.Output, pages []PageEntry, odir string, st *OutputStats) ([]string, float64) {
+	prevOut := b.prev.Output(p.Spec.Name)
+	if prevOut == nil || prevOut.Proofs <= 0 || b.full {
+		for _, f := range b.prev.FilesOf(p.Spec.Name, "") {
+			if strings.HasSuffix(f.Path, ".png") {
+				b.stale = append(b.stale, f.Path)
+			}
+		}
+		return nil, 0
+	}
+	dpi := prevOut.Proofs
+	var kept []string
+	keptAll := len(pages) == len(prevOut.Pages)
+	want := map[string]bool{}
+	for i := range pages {
+		path := filepath.Join(odir, "proofs", fmt.Sprintf("page-%03d.png", i+1))
+		relp := rel(b.stage.dir, path)
+		want[relp] = true
+		old := b.prev.File(relp)
+		if old != nil && len(old.Pages) == 1 && old.Pages[0].Inputs == pages[i].Inputs &&
+			b.keep(filepath.Join(b.final, relp), path, old.SHA256) {
+			b.note(path, fileMeta{pages: pages[i : i+1]})
+			kept = append(kept, path)
+			st.ProofsReused++
+			continue
+		}
+		keptAll = false
+	}
+	cpath := filepath.Join(odir, "contact.png")
+	crel := rel(b.stage.dir, cpath)
+	want[crel] = keptAll
+	if old := b.prev.File(crel); keptAll && old != nil && samePages(prevOut.Pages, pages) &&
+		b.keep(filepath.Join(b.final, crel), cpath, old.SHA256) {
+		b.note(cpath, fileMeta{pages: pages})
+		kept = append(kept, cpath)
+		for _, pg := range pages { // the thumbnails, for the next build with proofs
+			name := fmt.Sprintf("%s-%g.thumb.png", pg.Inputs, dpi)
+			linkOrCopy(filepath.Join(b.final, CacheDir, p.Spec.Name, name), filepath.Join(b.stage.dir, CacheDir, p.Spec.Name, name))
+		}
+	} else {
+		want[crel] = false
+	}
+	for _, f := range b.prev.FilesOf(p.Spec.Name, "") {
+		if strings.HasSuffix(f.Path, ".png") && !want[f.Path] || want[f.Path] && !b.stageHas(f.Path) {
+			b.stale = append(b.stale, f.Path)
+		}
+	}
+	return kept, dpi
+}
+
+// stageHas reports whether the stage holds the file (slash path).
+func (b *build) stageHas(relp string) bool {
+	b.sumsMu.Lock()
+	defer b.sumsMu.Unlock()
+	_, ok := b.sums[relp]
+	return ok
 }
 
 // thumbnail returns a page's contact-sheet thumbnail: from the previous
