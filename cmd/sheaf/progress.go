@@ -102,6 +102,18 @@ func (p *progress) Findings(fs []preflight.Finding) {
 	writeFindings(p.w, fs, maxFindingsShown)
 }
 
+// FindingsRepeated says in one line that preflight found what the last
+// build found, instead of printing the same table again.
+func (p *progress) FindingsRepeated(fs []preflight.Finding) {
+	p.mu.Lock()
+	defer p.mu.Unlock()
+	p.clear()
+	if len(fs) == 0 {
+		return
+	}
+	fmt.Fprintf(p.w, "%s, as in the last build (sheaf check lists them)\n", findingsCount(fs))
+}
+
 // clear removes the line, if one is shown, so that text can follow.
 func (p *progress) clear() {
 	if p.on && !p.shown.IsZero() && p.width > 0 {

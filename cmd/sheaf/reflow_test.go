@@ -158,7 +158,7 @@ func TestReflowPeakMoves(t *testing.T) {
 	assert.Equal(t, []string{"reflow"}, why[fromPage], "its old page lost it: reflow")
 
 	// The line read first.
-	want := fmt.Sprintf(`1 term's data changed (%q); its peak moved %d → 1870, so %d panels on print pp.`, term, peakBefore, movedOnPrint-1)
+	want := fmt.Sprintf(`1 term's data changed (%q); its peak moved %d → 1870, so %d panels moved on print pp.`, term, peakBefore, movedOnPrint-1)
 	assert.True(t, strings.HasPrefix(r.Summary, want), "summary %q should start %q", r.Summary, want)
 	assert.Contains(t, r.Summary, "pages to resend: print pp. ")
 	assert.Contains(t, stderr, r.Summary, "the summary is printed")

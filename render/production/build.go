@@ -89,6 +89,30 @@ type Progress interface {
 	Warn(msg string)
 }
 
+// FindingsRepeater is a Progress that can say in one line that
+// preflight found what it found in the last build: Build calls
+// FindingsRepeated instead of Findings then.
+type FindingsRepeater interface {
+	FindingsRepeated(fs []preflight.Finding)
+}
+
+// findingsSum hashes a set of findings, for the manifest.
+func findingsSum(fs []preflight.Finding) string {
+	h := newHasher("sheaf findings v1")
+	h.int(len(fs))
+	for _, f := range fs {
+		h.str(f.ID)
+		h.int(int(f.Severity))
+		h.str(f.Output)
+		h.int(f.Page)
+		h.str(f.Term)
+		h.int(f.Year)
+		h.str(f.At)
+		h.str(f.Message)
+	}
+	return h.sum()
+}
+
 // ErrStrict is returned (wrapped) when strict preflight stopped a build
 // before it wrote anything.
 var ErrStrict = errors.New("strict preflight: stopped before writing anything (fix the warnings and errors found, or build without strictness)")
@@ -101,6 +125,8 @@ type Result struct {
 	Findings []preflight.Finding
 	// Changes says what changed since the last build.
 	Changes *ChangeReport
+	// FindingsSum hashes Findings; the manifest keeps it.
+	FindingsSum string
 }
 
 // Build renders every output of the job (or the one Options.Only names)
@@ -184,12 +210,21 @@ func Build(ctx context.Context, job *feature.Job, opts Options) (*Result, error)
 			widths[p.Spec.Name] = buf.Bytes()
 		}
 	}
-	opts.Progress.Findings(findings)
+	// The findings' table is shown once per set of findings: a rebuild
+	// that finds what the last build found says so instead.
+	res.FindingsSum = findingsSum(findings)
+	<-pre.manifestRead
+	if rep, ok := opts.Progress.(FindingsRepeater); ok && pre.prev != nil && pre.prev.Findings == res.FindingsSum {
+		rep.FindingsRepeated(findings)
+	} else {
+		opts.Progress.Findings(findings)
+	}
 	if (opts.Strict || spec.Preflight.Strict) && preflight.Stops(findings) {
 		return res, ErrStrict
 	}
 	b := &build{ctx: ctx, j: job, final: dir, date: opts.Date, only: opts.Only, noProofs: opts.NoProofs, full: opts.Full,
-		progress: opts.Progress, hooks: opts.Hooks, widths: widths, pre: pre, sums: map[string]fileSum{}, insertPreps: inserts}
+		progress: opts.Progress, hooks: opts.Hooks, widths: widths, pre: pre, sums: map[string]fileSum{}, insertPreps: inserts,
+		findingsSum: res.FindingsSum}
 	files, err := b.run(preps)
 	if err != nil {
 		return res, err
@@ -273,6 +308,7 @@ type build struct {
 	sumsMu       sync.Mutex
 	sums         map[string]fileSum // files this build wrote, by slash path relative to the stage
 	stale        []string           // proofs a --no-proofs build did not keep (slash paths in DIR)
+	findingsSum  string
 }
 
 // fileMeta is what the manifest says of a file beside its hash: the
@@ -755,12 +791,13 @@ func readCachedPage(path string) *pdf.EncodedPage {
 // full, the cached pages the manifest lists, decoded. The data read is one
 // core's work; this is the other's.
 type prefetch struct {
-	done    chan struct{}
-	stopped atomic.Bool
-	prev    *Manifest
-	prevErr error
-	data    map[string]fileSum          // by resolved path
-	pages   map[string]*pdf.EncodedPage // by cache file path; nil for a damaged one
+	done         chan struct{}
+	manifestRead chan struct{} // closed when prev and prevErr are set
+	stopped      atomic.Bool
+	prev         *Manifest
+	prevErr      error
+	data         map[string]fileSum          // by resolved path
+	pages        map[string]*pdf.EncodedPage // by cache file path; nil for a damaged one
 }
 
 type fileSum struct {
@@ -769,10 +806,11 @@ type fileSum struct {
 }
 
 func startPrefetch(dir string, s *specs.Spec, pages bool) *prefetch {
-	p := &prefetch{done: make(chan struct{}), data: map[string]fileSum{}, pages: map[string]*pdf.EncodedPage{}}
+	p := &prefetch{done: make(chan struct{}), manifestRead: make(chan struct{}), data: map[string]fileSum{}, pages: map[string]*pdf.EncodedPage{}}
 	go func() {
 		defer close(p.done)
 		p.prev, p.prevErr = ReadManifest(dir)
+		close(p.manifestRead)
 		if p.stopped.Load() {
 			return
 		}
@@ -1091,7 +1129,7 @@ func (f writerFunc) Write(p []byte) (int, error) { return f(p) }
 // manifest describes the stage as it will be swapped in.
 func (b *build) manifest() (*Manifest, error) {
 	s := b.j.Spec
-	m := &Manifest{Sheaf: Version, Spec: FileHash{Path: filepath.Base(s.File), SHA256: b.specSum}}
+	m := &Manifest{Sheaf: Version, Spec: FileHash{Path: filepath.Base(s.File), SHA256: b.specSum}, Findings: b.findingsSum}
 	for _, d := range []string{s.Data.Counts, s.Data.Totals} {
 		fs, ok := b.pre.data[s.Resolve(d)]
 		if !ok {

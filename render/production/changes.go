@@ -287,6 +287,45 @@ func (r *ChangeReport) WriteSummary(w io.Writer) {
 	io.WriteString(w, b.String())
 }
 
+// WriteBrief writes the few lines a person at a terminal reads after a
+// build: the summary line, what was drawn and reused per output and
+// insert, the count of files by change, and where the full report is
+// (changesPath). A build that changed nothing is one line.
+func (r *ChangeReport) WriteBrief(w io.Writer, changesPath string) error {
+	var b strings.Builder
+	if r.Nothing() {
+		fmt.Fprintf(&b, "nothing changed since the last build (%s unchanged)\n", plural(len(r.Files.Unchanged), "file"))
+		_, err := io.WriteString(w, b.String())
+		return err
+	}
+	fmt.Fprintf(&b, "%s\n", r.Summary)
+	var inserts []string
+	for _, s := range r.Work {
+		switch {
+		case s.Kind == "insert":
+			inserts = append(inserts, s.Insert+" "+strings.Fields(s.Whole)[0])
+		case s.Whole != "":
+			fmt.Fprintf(&b, "  %s: %s, %s\n", s.Output, plural(s.Pages, "page"), s.Whole)
+		default:
+			fmt.Fprintf(&b, "  %s: %s, %d drawn, %d reused", s.Output, plural(s.Pages, "page"), s.Encoded, s.Reused)
+			if s.ProofsDrawn+s.ProofsReused > 0 {
+				fmt.Fprintf(&b, "; proofs %d drawn, %d kept", s.ProofsDrawn, s.ProofsReused)
+			}
+			b.WriteString("\n")
+		}
+	}
+	if len(inserts) > 0 {
+		fmt.Fprintf(&b, "  inserts: %s\n", strings.Join(inserts, ", "))
+	}
+	fmt.Fprintf(&b, "  files: %d changed, %d added, %d removed, %d unchanged", len(r.Files.Changed), len(r.Files.Added), len(r.Files.Removed), len(r.Files.Unchanged))
+	if len(r.Stale) > 0 {
+		fmt.Fprintf(&b, " (%d stale proofs among the removed)", len(r.Stale))
+	}
+	fmt.Fprintf(&b, "; the full report: %s\n", changesPath)
+	_, err := io.WriteString(w, b.String())
+	return err
+}
+
 func (r *ChangeReport) text(b *strings.Builder, short bool) {
 	list := func(title string, xs []string) {
 		if len(xs) == 0 {

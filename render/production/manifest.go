@@ -43,6 +43,9 @@ type Manifest struct {
 	Outputs []OutputEntry `json:"outputs"`
 	Inserts []InsertEntry `json:"inserts,omitempty"` // in the spec's order
 	Files   []FileEntry   `json:"files"`             // every file of every output and insert, sorted by path
+	// Findings hashes preflight's findings, so the next build can say
+	// "as before" instead of printing the same table again.
+	Findings string `json:"findings,omitempty"`
 }
 
 type FileHash struct {

@@ -197,14 +197,14 @@ func (r *ChangeReport) summary(prev, cur *Manifest) string {
 			}
 		}
 		if n > 0 {
-			moved = append(moved, fmt.Sprintf("%s on %s %s", plural(n, "panel"), o.Name, pageList(pages)))
+			moved = append(moved, fmt.Sprintf("%s moved on %s %s", plural(n, "panel"), o.Name, pageList(pages)))
 		}
 	}
 	if len(moved) > 0 {
 		if line != "" {
 			line += ", so "
 		}
-		line += strings.Join(moved, " and ") + " moved"
+		line += strings.Join(moved, " and ")
 	}
 	if line == "" {
 		line = "no term's data changed"
