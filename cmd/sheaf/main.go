@@ -6,7 +6,8 @@
 //
 //	sheaf check SPEC [--json] [--strict]
 //	sheaf palette SPEC [--out DIR]
-//	sheaf build SPEC [--out DIR] [--only OUTPUT] [--strict] [--no-proofs] [--full] [--quiet]
+//	sheaf build SPEC [--out DIR] [--only OUTPUT] [--strict] [--no-proofs] [--full] [--quiet] [--paths]
+//	sheaf terms SPEC [--match TEXT] [--pattern RE] [--sort COLUMN] [--reverse] [--selected] [--limit N] [--json]
 //	sheaf help [COMMAND]
 //
 // Exit status: 0 when all is well, 1 when checks find problems or a build
@@ -44,7 +45,8 @@ func commands() []command {
 	return []command{
 		{"check", "SPEC [--json] [--strict]", "validate the spec and data; print a summary, pages and preflight findings", runCheck},
 		{"palette", "SPEC [--out DIR]", "print the era palette's table and checks; write a swatch sheet", runPalette},
-		{"build", "SPEC [--out DIR] [--only OUTPUT] [--strict] [--no-proofs] [--full] [--quiet]", "render every output: PDF, proofs, SVG, PNG; manifest and change report", runBuild},
+		{"build", "SPEC [--out DIR] [--only OUTPUT] [--strict] [--no-proofs] [--full] [--quiet] [--paths]", "render every output: PDF, proofs, SVG, PNG; manifest and change report", runBuild},
+		{"terms", termsArgs, "list the terms in the data with their counts, peak year and whether the spec selects them", runTerms},
 		{"count", countArgs, "count terms in a dated text archive into the two tables a spec's data reads", runCount},
 
 		{"help", "[COMMAND]", "show help for sheaf or one command", nil},
