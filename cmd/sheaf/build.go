@@ -30,10 +30,10 @@ func runBuild(args []string, stdout, stderr io.Writer) int {
 			"files; DIR/manifest.json records what went in and came out, and\n"+
 			"DIR/changes.txt and changes.json say what changed since the last build. The outputs are written\n"+
 			"beside DIR and swapped in only when all is done: an interrupted build leaves DIR as it was.", stderr)
-	outDir := fs.String("out", "", "folder for the outputs (default: out/ beside the spec)")
-	only := fs.String("only", "", "build only the output with this name; the others' files are kept")
+	outDir := fs.String("out", "", "folder `DIR` for the outputs (default: out/ beside the spec)")
+	only := fs.String("only", "", "build only the output named `OUTPUT`; the others' files are kept")
 	strict := fs.Bool("strict", false, "stop without writing anything when preflight finds warnings or errors")
-	noProofs := fs.Bool("no-proofs", false, "write no PNG proofs or contact sheet for print outputs")
+	noProofs := fs.Bool("no-proofs", false, "draw no PNG proofs or contact sheet for print outputs; those of pages that did not change are kept,\nthose of changed pages removed and listed as stale in changes.txt")
 	full := fs.Bool("full", false, "draw every page, screen output and insert afresh instead of reusing unchanged ones")
 	quiet := fs.Bool("quiet", false, "no progress line")
 	paths := fs.Bool("paths", false, "print the path of every file written on stdout, also on a terminal (without a terminal they are always printed)")

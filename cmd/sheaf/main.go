@@ -94,6 +94,15 @@ func run(args []string, stdout, stderr io.Writer) (code int) {
 	}
 	for _, c := range commands() {
 		if c.name == name && c.run != nil {
+			// "sheaf build -h" is "sheaf help build": the same text, on stdout.
+			for _, a := range args[1:] {
+				if a == "-h" || a == "--help" || a == "-help" {
+					return c.run([]string{"-h"}, stdout, stdout)
+				}
+				if a == "--" {
+					break
+				}
+			}
 			return c.run(args[1:], stdout, stderr)
 		}
 	}
@@ -135,14 +144,32 @@ func newFlags(name, argsHelp, summary string, w io.Writer) *flag.FlagSet {
 	fs.SetOutput(w)
 	fs.Usage = func() {
 		fmt.Fprintf(w, "Usage: sheaf %s %s\n\n%s\n", name, argsHelp, summary)
-		var any bool
-		fs.VisitAll(func(*flag.Flag) { any = true })
-		if any {
-			fmt.Fprintln(w, "\nFlags:")
-			fs.PrintDefaults()
-		}
+		printFlags(w, fs)
 	}
 	return fs
+}
+
+// printFlags lists a command's flags as README writes them, "--name
+// VALUE", with the help and the default: Go's flag package would print
+// "-name".
+func printFlags(w io.Writer, fs *flag.FlagSet) {
+	var lines []string
+	fs.VisitAll(func(f *flag.Flag) {
+		value, usage := flag.UnquoteUsage(f)
+		line := "  --" + f.Name
+		if value != "" {
+			line += " " + strings.ToUpper(value)
+		}
+		line += "\n      " + strings.ReplaceAll(usage, "\n", "\n      ")
+		if d := f.DefValue; d != "" && d != "false" && d != "0" {
+			line += fmt.Sprintf(" (default %s)", d)
+		}
+		lines = append(lines, line)
+	})
+	if len(lines) > 0 {
+		fmt.Fprintln(w, "\nFlags:")
+		fmt.Fprintln(w, strings.Join(lines, "\n"))
+	}
 }
 
 // startCommand parses args for a command taking exactly one SPEC. It

@@ -24,12 +24,12 @@ func runTerms(args []string, stdout, stderr io.Writer) int {
 			"all words printed (per million), its peak year (the year of its highest count per word printed), the\n"+
 			"median of its yearly counts over the years it appears, how many years it appears, and whether the\n"+
 			"spec's terms selection takes it (yes/no).", stderr)
-	match := fs.String("match", "", "only terms containing this text (any case)")
-	pattern := fs.String("pattern", "", "only terms matching this regular expression (Go RE2 syntax; (?i) for any case)")
-	by := fs.String("sort", "share", "sort by a column: "+strings.Join(termColumns, ", ")+" (term and selected A→Z and yes first; numbers largest first)")
+	match := fs.String("match", "", "only terms containing `TEXT` (any case)")
+	pattern := fs.String("pattern", "", "only terms matching the regular expression `RE` (Go RE2 syntax; (?i) for any case)")
+	by := fs.String("sort", "share", "sort by `COLUMN`: "+strings.Join(termColumns, ", ")+" (term and selected A→Z and yes first; numbers largest first)")
 	reverse := fs.Bool("reverse", false, "reverse the order")
 	selected := fs.Bool("selected", false, "only the terms the spec selects")
-	limit := fs.Int("limit", 0, "at most this many terms (0: all)")
+	limit := fs.Int("limit", 0, "at most `N` terms (0: all)")
 	asJSON := fs.Bool("json", false, "print a JSON array on stdout (share as a fraction, not per million)")
 	path, code, ok := startCommand(fs, args, stderr)
 	if !ok {
