@@ -265,10 +265,11 @@ func (r *lineReader) Read(p []byte) (int, error) {
 }
 
 type decoder struct {
-	file  string
-	errs  Errors
-	pos   map[string]Pos
-	nodes int
+	file   string
+	errs   Errors
+	pos    map[string]Pos
+	nodes  int
+	screen bool // decoding a screen output: a unitless length suggests px
 }
 
 func (d *decoder) at(n *yaml.Node) Pos { return Pos{File: d.file, Line: n.Line, Col: n.Column} }
@@ -464,7 +465,7 @@ func (d *decoder) length(dst *Length, allowZero bool) func(*yaml.Node, string) {
 		}
 		l, err := ParseLength(n.Value)
 		if err != nil {
-			d.errorf(n, "%s: %v", path, err)
+			d.errorf(n, "%s: %v", path, forKind(err, d.screen))
 			return
 		}
 		if l > maxLength {
