@@ -107,7 +107,12 @@ func (f *Feature) Rule() float64 {
 
 // Draw draws page index i of the plan.
 // The context's units are canvas's millimetres.
-func (f *Feature) Draw(ctx *canvas.Context, i int) error {
+func (f *Feature) Draw(ctx *canvas.Context, i int) error { return f.DrawSome(ctx, i, nil) }
+
+// DrawSome is Draw with only the panels for which keep is true (all when
+// keep is nil), and everything else on the page: a renderer that shows
+// part of a tall page need not stroke the panels outside it.
+func (f *Feature) DrawSome(ctx *canvas.Context, i int, keep func(layout.Panel) bool) error {
 	p := pen{ctx: ctx, fonts: f.Fonts}
 	if i < 0 || i >= len(f.Plan.Pages) {
 		return fmt.Errorf("page %d does not exist (the output has %d)", i+1, len(f.Plan.Pages))
@@ -123,6 +128,9 @@ func (f *Feature) Draw(ctx *canvas.Context, i int) error {
 	}
 	var b curve.Builder
 	for _, pn := range pg.Panels {
+		if keep != nil && !keep(pn) {
+			continue
+		}
 		if err := f.groupedPanel(p, &b, pn); err != nil {
 			return err
 		}

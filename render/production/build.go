@@ -339,6 +339,12 @@ type OutputStats struct {
 	Reused       int    `json:"reused"`        // pages taken from the cache or the last build
 	ProofsDrawn  int    `json:"proofs_drawn"`  // proofs rasterized
 	ProofsReused int    `json:"proofs_reused"` // proofs kept from the last build
+	// Bands of screen PNGs drawn and taken from the last build (see
+	// bands.go); panel files drawn and reused.
+	BandsDrawn   int `json:"bands_drawn,omitempty"`
+	BandsReused  int `json:"bands_reused,omitempty"`
+	PanelsDrawn  int `json:"panel_files_drawn,omitempty"`
+	PanelsReused int `json:"panel_files_reused,omitempty"`
 	// Whole says, for a screen output or an insert (made or kept whole),
 	// "reused (inputs unchanged)" or "drawn (WHY)".
 	Whole string `json:"whole,omitempty"`

@@ -2,16 +2,20 @@ package production
 
 import (
 	"bytes"
+	"encoding/json"
+	"errors"
 	"fmt"
 	"html"
-	"image"
 	"io"
 	"math"
+	"os"
 	"path/filepath"
 	"runtime"
 	"sort"
 	"strconv"
+	"strings"
 	"sync"
+	"sync/atomic"
 
 	"github.com/tdewolff/canvas"
 
@@ -59,6 +63,7 @@ func (b *build) buildScreen(p *feature.Output) ([]string, error) {
 	why := b.drawReason(prev != nil, prev != nil && prev.Kind == entry.Kind && prev.Inputs == entry.Inputs)
 	if why == "" {
 		if b.keepAll(out.Name+": reusing files", want, b.prev.FilesOf(out.Name, "")) {
+			b.keepScreenCache(out.Name)
 			st.Reused, st.Whole = st.Pages, "reused (inputs unchanged)"
 			b.stats = append(b.stats, st)
 			return want, nil
@@ -73,14 +78,43 @@ func (b *build) buildScreen(p *feature.Output) ([]string, error) {
 			return nil, err
 		}
 	}
-	files, err := drawScreen(b.j, p, odir, tasks, b.progress)
+	if err := os.MkdirAll(filepath.Join(b.stage.dir, CacheDir, out.Name), 0o755); err != nil {
+		return nil, err
+	}
+	files, err := b.drawScreen(p, odir, tasks, &st)
 	if err != nil {
 		return nil, err
 	}
 	sort.Strings(files)
 	st.Encoded, st.Whole = st.Pages, "drawn ("+why+")"
+	if st.BandsDrawn+st.BandsReused > 0 {
+		st.Whole += fmt.Sprintf("; PNG bands %d drawn, %d reused", st.BandsDrawn, st.BandsReused)
+	}
+	if st.PanelsDrawn+st.PanelsReused > 0 {
+		st.Whole += fmt.Sprintf("; panel files %d drawn, %d reused", st.PanelsDrawn, st.PanelsReused)
+	}
 	b.stats = append(b.stats, st)
 	return files, nil
+}
+
+// keepScreenCache carries a screen output's cached PNG bands and panel
+// files into the new cache when the output's files were carried over
+// whole, so a later change still finds them.
+func (b *build) keepScreenCache(name string) {
+	old := filepath.Join(b.final, CacheDir, name)
+	entries, err := os.ReadDir(old)
+	if err != nil {
+		return
+	}
+	dst := filepath.Join(b.stage.dir, CacheDir, name)
+	if os.MkdirAll(dst, 0o755) != nil {
+		return
+	}
+	for _, e := range entries {
+		if n := e.Name(); e.Type().IsRegular() && (strings.HasSuffix(n, ".band") || strings.HasSuffix(n, ".svg")) {
+			linkOrCopy(filepath.Join(old, n), filepath.Join(dst, n))
+		}
+	}
 }
 
 // screenInputs is the hash of everything that decides a screen output's
@@ -163,7 +197,8 @@ func (b *build) noteScreenFiles(p *feature.Output, pages []PageEntry, odir strin
 
 // drawScreen draws every file of a screen output into odir (see
 // buildScreen) and returns them.
-func drawScreen(j *feature.Job, p *feature.Output, odir string, tasks []pngTask, prog Progress) ([]string, error) {
+func (b *build) drawScreen(p *feature.Output, odir string, tasks []pngTask, st *OutputStats) ([]string, error) {
+	j, prog := b.j, b.progress
 	out := p.Spec
 	n := len(p.Plan.Pages)
 	var files []string
@@ -202,14 +237,14 @@ func drawScreen(j *feature.Job, p *feature.Output, odir string, tasks []pngTask,
 			shown = append(shown, proofItem{filepath.Base(spreads[k]), sp.Sheet.W(), sp.Sheet.H()})
 		}
 	}
-	pngs, err := writeScreenPNGs(p, tasks, prog)
+	pngs, err := b.writeScreenPNGs(p, tasks, st)
 	if err != nil {
 		return nil, err
 	}
 	files = append(files, pngs...)
 	var panels []string
 	if out.PanelFiles {
-		panels, err = writePanelFiles(j, p, filepath.Join(odir, "panels"), prog)
+		panels, err = b.writePanelFiles(p, filepath.Join(odir, "panels"), st)
 		if err != nil {
 			return nil, err
 		}
@@ -303,42 +338,75 @@ func screenPNGTasks(p *feature.Output, odir string) (tasks []pngTask, skipped []
 	return tasks, skipped
 }
 
-// writeScreenPNGs renders the PNGs tasks lists, in parallel.
-func writeScreenPNGs(p *feature.Output, tasks []pngTask, prog Progress) (files []string, err error) {
-	prog.Begin(p.Spec.Name+": PNGs", len(tasks))
-	errs := make([]error, len(tasks))
-	sem := make(chan struct{}, runtime.GOMAXPROCS(0))
-	var wg sync.WaitGroup
+// writeScreenPNGs renders the PNGs tasks lists, band by band (see
+// bands.go): bands whose inputs are in the last build's cache are taken
+// from it, the others drawn, in parallel.
+func (b *build) writeScreenPNGs(p *feature.Output, tasks []pngTask, st *OutputStats) (files []string, err error) {
+	fontSum := fontsSum(p.Fonts)
+	pages := map[int]*pageBands{}
+	type job struct {
+		task int
+		band bandTask
+		out  **encodedBand
+	}
+	var jobs []job
+	results := make([][]*encodedBand, len(tasks))
+	sizes := make([]raster.Region, len(tasks))
 	for k, t := range tasks {
+		if pages[t.page] == nil {
+			pages[t.page] = b.newPageBands(p, t.page, fontSum)
+		}
+		pg := &p.Plan.Pages[t.page]
+		r := raster.RegionOf(pg.Media.H(), t.dpi, pg.Trim.X0, pg.Trim.Y0, pg.Trim.X1, pg.Trim.Y1)
+		sizes[k] = r
+		bts := pages[t.page].bands(pg.Media.H(), t.dpi, r)
+		results[k] = make([]*encodedBand, len(bts))
+		for n, bt := range bts {
+			jobs = append(jobs, job{task: k, band: bt, out: &results[k][n]})
+		}
+	}
+	b.progress.Begin(p.Spec.Name+": PNG bands", len(jobs))
+	errs := make([]error, len(jobs))
+	var drawn, reused atomic.Int64
+	next := atomic.Int64{}
+	var wg sync.WaitGroup
+	for range runtime.GOMAXPROCS(0) {
 		wg.Add(1)
-		sem <- struct{}{}
 		go func() {
-			defer func() { <-sem; wg.Done() }()
-			defer prog.Step()
-			img, err := screenPNG(p, t.page, t.dpi)
-			if err == nil {
-				err = WriteAtomic(t.path, func(w io.Writer) error { return raster.WritePNG(w, img) })
+			defer wg.Done()
+			for {
+				n := int(next.Add(1)) - 1
+				if n >= len(jobs) || b.ctx.Err() != nil {
+					return
+				}
+				jb := jobs[n]
+				eb, d, err := b.bandOf(p, tasks[jb.task].page, tasks[jb.task].dpi, jb.band)
+				*jb.out, errs[n] = eb, err
+				if d {
+					drawn.Add(1)
+				} else {
+					reused.Add(1)
+				}
+				b.progress.Step()
 			}
-			errs[k] = err
 		}()
 	}
 	wg.Wait()
-	for i, t := range tasks {
-		if errs[i] != nil {
-			return nil, errs[i]
+	if err := b.ctx.Err(); err != nil {
+		return nil, err
+	}
+	if err := errors.Join(errs...); err != nil {
+		return nil, err
+	}
+	st.BandsDrawn, st.BandsReused = int(drawn.Load()), int(reused.Load())
+	for k, t := range tasks {
+		err := WriteAtomic(t.path, func(w io.Writer) error { return writeBandedPNG(w, sizes[k].W, sizes[k].H, results[k]) })
+		if err != nil {
+			return nil, err
 		}
 		files = append(files, t.path)
 	}
 	return files, nil
-}
-
-// screenPNG renders page i's trim box at dpi on the paper colour.
-func screenPNG(p *feature.Output, i int, dpi float64) (image.Image, error) {
-	pg := &p.Plan.Pages[i]
-	r := raster.RegionOf(pg.Media.H(), dpi, pg.Trim.X0, pg.Trim.Y0, pg.Trim.X1, pg.Trim.Y1)
-	return raster.DrawRegion(pg.Media.H(), dpi, r, p.Feature.PaperColor(), func(ctx *canvas.Context) error {
-		return p.Feature.Draw(ctx, i)
-	})
 }
 
 // panelWindow is the part of a page a panel file shows: the panel, the
@@ -390,25 +458,96 @@ func panelFiles(j *feature.Job, p *feature.Output) []panelFile {
 }
 
 // writePanelFiles writes one SVG per term, named by the term's slug.
-func writePanelFiles(j *feature.Job, p *feature.Output, pdir string, prog Progress) ([]string, error) {
-	var files []string
+// A panel file is cached under the hash of what decides it (panelInputs):
+// the file of a term whose data, label and panel size did not change is
+// the last build's, wherever its panel now lands.
+func (b *build) writePanelFiles(p *feature.Output, pdir string, st *OutputStats) ([]string, error) {
+	j := b.j
 	pfs := panelFiles(j, p)
-	prog.Begin(p.Spec.Name+": panel files", len(pfs))
-	for _, pf := range pfs {
-		title, desc := p.Feature.Describe(pf.item)
-		opts := screenSVGOptions(j, p)
-		opts.Title, opts.Desc = title, desc
-		path := filepath.Join(pdir, pf.name+".svg")
-		err := WriteAtomic(path, func(w io.Writer) error {
-			return drawSVG(w, pf.win, opts, func(ctx *canvas.Context) error { return p.Feature.DrawPanel(ctx, pf.panel) })
-		})
-		if err != nil {
-			return nil, err
+	b.progress.Begin(p.Spec.Name+": panel files", len(pfs))
+	files := make([]string, len(pfs))
+	errs := make([]error, len(pfs))
+	fontSum := fontsSum(p.Fonts)
+	var drawn, reused atomic.Int64
+	parallel(len(pfs), func(lo, hi int) {
+		for k := lo; k < hi && b.ctx.Err() == nil; k++ {
+			pf := pfs[k]
+			title, desc := p.Feature.Describe(pf.item)
+			opts := screenSVGOptions(j, p)
+			opts.Title, opts.Desc = title, desc
+			path := filepath.Join(pdir, pf.name+".svg")
+			files[k] = path
+			name := b.panelInputs(p, pf, opts, fontSum) + ".svg"
+			oldC := filepath.Join(b.final, CacheDir, p.Spec.Name, name)
+			newC := filepath.Join(b.stage.dir, CacheDir, p.Spec.Name, name)
+			if !b.full && linkOrCopy(oldC, newC) == nil {
+				if errs[k] = os.MkdirAll(pdir, 0o755); errs[k] == nil {
+					errs[k] = linkOrCopy(newC, path)
+				}
+				reused.Add(1)
+				b.progress.Step()
+				continue
+			}
+			errs[k] = WriteAtomic(newC, func(w io.Writer) error {
+				return drawSVG(w, pf.win, opts, func(ctx *canvas.Context) error { return p.Feature.DrawPanel(ctx, pf.panel) })
+			})
+			if errs[k] == nil {
+				if errs[k] = os.MkdirAll(pdir, 0o755); errs[k] == nil {
+					errs[k] = linkOrCopy(newC, path)
+				}
+			}
+			drawn.Add(1)
+			b.progress.Step()
 		}
-		files = append(files, path)
-		prog.Step()
+	})
+	if err := b.ctx.Err(); err != nil {
+		return nil, err
 	}
+	if err := errors.Join(errs...); err != nil {
+		return nil, err
+	}
+	st.PanelsDrawn, st.PanelsReused = int(drawn.Load()), int(reused.Load())
 	return files, nil
+}
+
+// panelInputs is the hash of everything that decides a panel file: the
+// drawing code and the spec (as for pages), the fonts, the panel as drawn
+// (its geometry from its window's corner, see panelWindow), the term's
+// data and label, its id, and the document's title and description.
+func (b *build) panelInputs(p *feature.Output, pf panelFile, opts svg.Options, fontSum string) string {
+	h := newHasher("sheaf panel file v1")
+	h.str(Version)
+	h.str(b.specSum)
+	h.str(p.Spec.Name)
+	h.str(fontSum)
+	if s, err := json.Marshal(pf.panel); err == nil {
+		h.str(string(s))
+	}
+	h.floats([]float64{pf.win.X0, pf.win.Y0, pf.win.X1, pf.win.Y1})
+	h.str(pf.name)
+	sr := &b.j.Data.Series[pf.item]
+	h.str(sr.Term)
+	h.floats(sr.Values)
+	h.float(sr.Peak)
+	h.int(sr.PeakYear)
+	h.float(sr.YMax)
+	if l := p.Feature.Labels(); pf.item < len(l) {
+		h.str(l[pf.item].Text)
+		h.float(l[pf.item].Size)
+	}
+	d := b.j.Data
+	h.int(d.Span.From)
+	h.int(d.Span.To)
+	h.floats(d.Years)
+	h.str(d.Unit)
+	h.float(d.YMax)
+	for _, s := range p.Feature.Stops {
+		r := s.Color
+		h.floats([]float64{s.Year, r.R, r.G, r.B})
+	}
+	h.str(opts.Title)
+	h.str(opts.Desc)
+	return h.sum()
 }
 
 // Slug turns a term into a file name stem that is safe everywhere (see
