@@ -520,7 +520,11 @@ func (b *build) panelInputs(p *feature.Output, pf panelFile, opts svg.Options, f
 	h.str(b.specSum)
 	h.str(p.Spec.Name)
 	h.str(fontSum)
-	if s, err := json.Marshal(pf.panel); err == nil {
+	// The item and group index say where the panel is in the order, not
+	// how it looks: the term's data is hashed below.
+	drawn := pf.panel
+	drawn.Item, drawn.Group = 0, 0
+	if s, err := json.Marshal(drawn); err == nil {
 		h.str(string(s))
 	}
 	h.floats([]float64{pf.win.X0, pf.win.Y0, pf.win.X1, pf.win.Y1})
