@@ -50,6 +50,22 @@ type Plan struct {
 
 	Pages    []Page    `json:"pages"`
 	Warnings []Warning `json:"warnings,omitempty"`
+
+	// Banking is set when the panel aspect was chosen from the data
+	// (panel: {aspect: bank}; package layout/bank).
+	Banking *Banking `json:"banking,omitempty"`
+}
+
+// Banking is how a banked panel aspect was chosen.
+type Banking struct {
+	Method string `json:"method"` // "arc-length": Talbot, Gerth & Hanrahan 2011
+	// Aspect is the plot's width ÷ height it chose (the spec's panel aspect).
+	Aspect float64 `json:"aspect"`
+	// MedianOrientation is the median absolute orientation, in degrees,
+	// of the lines' yearly segments drawn at Aspect: 45 means half are
+	// steeper than 45° and half flatter.
+	MedianOrientation float64 `json:"median_orientation_deg"`
+	Segments          int     `json:"segments"` // yearly segments of all panels it weighed
 }
 
 // Page is one page: for a scrolling screen output the whole sheet, or with
@@ -151,6 +167,13 @@ func (p Panel) Box() Rect { return Rect{p.Plot.X0, p.Plot.Y0, p.Label.X1, p.Labe
 // Summary is a one-line description of the plan, such as
 // "print: 8 pages, 6 × 8 panels a page, panel 25 × 21.4 mm".
 func (p *Plan) Summary() string {
+	if b := p.Banking; b != nil {
+		return fmt.Sprintf("%s, banked aspect %s (median orientation %.1f°)", p.summary(), trimNum(b.Aspect, 2), b.MedianOrientation)
+	}
+	return p.summary()
+}
+
+func (p *Plan) summary() string {
 	u := units{screen: p.Kind == specs.Screen}
 	pages := "1 page"
 	if len(p.Pages) != 1 {

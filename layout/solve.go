@@ -11,7 +11,7 @@ import (
 )
 
 const (
-	mm = 72 / 25.4 // points per millimetre: 1 in = 25.4 mm, 1 pt = 1/72 in
+	mm = specs.PtPerMm
 
 	// defaultLeading is the line height when the spec gives none: 120 % of
 	// the type size, the usual setting for text type (common practice).
@@ -513,6 +513,8 @@ func (s *solver) rows() error {
 				fmt.Sprintf("panels %s wide at aspect %g have plots %s tall; the legibility floor is %s (%s)",
 					u.len(s.colW), a, u.len(s.plotH), u.len(s.floorH), s.floorText()), r...)
 		}
+	case o.PanelBank:
+		return s.errorf("panel.aspect", "panel.aspect: bank is chosen from the data: lay the output out with bank.Solve")
 	default:
 		return s.errorf("panel", "set panel.aspect or panel.height")
 	}

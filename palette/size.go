@@ -3,6 +3,8 @@ package palette
 import (
 	"fmt"
 	"math"
+
+	"sheaf/specs"
 )
 
 // Medium says how a chart is looked at, which sets the viewing distance
@@ -47,7 +49,7 @@ func VisualAngle(widthPt float64, m Medium) float64 {
 	if d == 0 {
 		return math.NaN()
 	}
-	w := widthPt * 25.4 / 72
+	w := widthPt * specs.MmPerPt
 	return 2 * math.Atan(w/(2*d)) * 180 / math.Pi
 }
 

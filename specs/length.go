@@ -17,6 +17,10 @@ const (
 	PtPerCm = 720.0 / 25.4
 	PtPerPc = 12.0
 	PtPerPx = 72.0 / 96.0
+
+	// The other way round: canvas draws in millimetres, SVG in px.
+	MmPerPt = 25.4 / 72.0
+	PxPerPt = 96.0 / 72.0
 )
 
 var units = []struct {

@@ -269,7 +269,8 @@ type decoder struct {
 	errs   Errors
 	pos    map[string]Pos
 	nodes  int
-	screen bool // decoding a screen output: a unitless length suggests px
+	desc   *describer // not nil: describe the key tables for Schema instead of decoding
+	screen bool       // decoding a screen output: a unitless length suggests px
 }
 
 func (d *decoder) at(n *yaml.Node) Pos { return Pos{File: d.file, Line: n.Line, Col: n.Column} }
@@ -308,6 +309,10 @@ type field struct {
 // mapping decodes a mapping node by its known keys; unknown keys are errors
 // with a suggestion. required lists keys that must be present.
 func (d *decoder) mapping(n *yaml.Node, path string, fields []field, required ...string) {
+	if d.desc != nil {
+		d.desc.mapping(n, fields, required)
+		return
+	}
 	n = d.resolve(n)
 	if d.overBudget(n) {
 		return
@@ -380,6 +385,10 @@ func kindName(n *yaml.Node) string {
 }
 
 func (d *decoder) scalar(n *yaml.Node, path string) (*yaml.Node, bool) {
+	if d.desc != nil {
+		d.desc.record(n, map[string]any{"type": []any{"string", "number"}})
+		return n, false
+	}
 	n = d.resolve(n)
 	if n.Kind != yaml.ScalarNode || n.Tag == "!!null" {
 		d.errorf(n, "%s must be a single value, not %s", path, kindName(n))
@@ -390,6 +399,10 @@ func (d *decoder) scalar(n *yaml.Node, path string) (*yaml.Node, bool) {
 
 func (d *decoder) str(dst *string) func(*yaml.Node, string) {
 	return func(n *yaml.Node, path string) {
+		if d.desc != nil {
+			d.desc.record(n, schemaString)
+			return
+		}
 		if n, ok := d.scalar(n, path); ok {
 			*dst = n.Value
 		}
@@ -398,6 +411,10 @@ func (d *decoder) str(dst *string) func(*yaml.Node, string) {
 
 func (d *decoder) boolean(dst *bool) func(*yaml.Node, string) {
 	return func(n *yaml.Node, path string) {
+		if d.desc != nil {
+			d.desc.record(n, schemaBool)
+			return
+		}
 		n, ok := d.scalar(n, path)
 		if !ok {
 			return
@@ -415,6 +432,10 @@ func (d *decoder) boolean(dst *bool) func(*yaml.Node, string) {
 
 func (d *decoder) integer(dst *int, lo, hi int) func(*yaml.Node, string) {
 	return func(n *yaml.Node, path string) {
+		if d.desc != nil {
+			d.desc.record(n, schemaInteger(lo, hi))
+			return
+		}
 		n, ok := d.scalar(n, path)
 		if !ok {
 			return
@@ -434,6 +455,10 @@ func (d *decoder) integer(dst *int, lo, hi int) func(*yaml.Node, string) {
 
 func (d *decoder) number(dst *float64, lo, hi float64, loOpen bool) func(*yaml.Node, string) {
 	return func(n *yaml.Node, path string) {
+		if d.desc != nil {
+			d.desc.record(n, schemaNumber(lo, hi, loOpen))
+			return
+		}
 		n, ok := d.scalar(n, path)
 		if !ok {
 			return
@@ -459,6 +484,10 @@ func (d *decoder) number(dst *float64, lo, hi float64, loOpen bool) func(*yaml.N
 // allowZero is set; negative lengths never are.
 func (d *decoder) length(dst *Length, allowZero bool) func(*yaml.Node, string) {
 	return func(n *yaml.Node, path string) {
+		if d.desc != nil {
+			d.desc.record(n, schemaLength)
+			return
+		}
 		n, ok := d.scalar(n, path)
 		if !ok {
 			return
@@ -490,6 +519,10 @@ const maxLength = 14400
 
 func (d *decoder) choice(dst *string, options ...string) func(*yaml.Node, string) {
 	return func(n *yaml.Node, path string) {
+		if d.desc != nil {
+			d.desc.record(n, schemaChoice(options))
+			return
+		}
 		n, ok := d.scalar(n, path)
 		if !ok {
 			return
@@ -507,6 +540,10 @@ func (d *decoder) choice(dst *string, options ...string) func(*yaml.Node, string
 // strings decodes a list of strings; a single string is a list of one.
 func (d *decoder) strings(dst *[]string) func(*yaml.Node, string) {
 	return func(n *yaml.Node, path string) {
+		if d.desc != nil {
+			d.desc.record(n, schemaStrings)
+			return
+		}
 		n = d.resolve(n)
 		if n.Kind == yaml.ScalarNode && n.Tag != "!!null" {
 			*dst = []string{n.Value}
@@ -578,13 +615,14 @@ func (d *decoder) spec(n *yaml.Node, s *Spec) {
 				{"exclude", d.strings(&s.Terms.Exclude)},
 			})
 		}},
-		{"order", d.choice(&order, string(OrderListed), string(OrderAlpha), string(OrderPeakYear))},
-		{"group", d.choice(&group, string(GroupNone), string(GroupPeakDecade))},
+		{"order", d.choice(&order, string(OrderListed), string(OrderAlpha), string(OrderPeakYear), string(OrderSimilarity))},
+		{"group", d.choice(&group, string(GroupNone), string(GroupPeakDecade), string(GroupSimilarity))},
 		{"scale", func(n *yaml.Node, path string) {
 			var mode, yr string
 			d.mapping(n, path, []field{
 				{"values", d.choice(&mode, string(ScaleShare), string(ScaleOwnPeak), string(ScaleRaw))},
 				{"y-range", d.choice(&yr, string(YShared), string(YOwn))},
+				{"rolling", func(n *yaml.Node, path string) { d.rolling(n, path, &s.Scale.Rolling) }},
 			})
 			s.Scale.Mode, s.Scale.YRange = ScaleMode(mode), YRange(yr)
 		}},
@@ -599,6 +637,7 @@ func (d *decoder) spec(n *yaml.Node, s *Spec) {
 				{"min-screen-type", d.length(&p.MinScreenType, true)},
 				{"min-line", d.length(&p.MinLine, true)},
 				{"strict", d.boolean(&p.Strict)},
+				{"min-count", d.number(&p.MinCount, 0, 1e9, false)},
 			})
 		}},
 	}, "data", "years", "outputs")
@@ -628,6 +667,7 @@ func (d *decoder) spec(n *yaml.Node, s *Spec) {
 		d.errs.Add(s.Where("outputs"), "outputs: give at least one output")
 	}
 	d.checkInserts(s)
+	d.checkPress(s)
 	d.palettePaper(&s.Palette)
 	preflightDefaults(&s.Preflight, d.pos)
 }
@@ -649,6 +689,30 @@ func preflightDefaults(p *Preflight, given map[string]Pos) {
 	}
 	if !set("min-line") {
 		p.MinLine = 0.25
+	}
+	if !set("min-count") {
+		// Poisson noise is 1/√k of a count k: 1/√10 ≈ 32 % (common practice).
+		p.MinCount = 10
+	}
+}
+
+// maxRolling bounds the rolling window: wider than a lifetime smooths a
+// history away.
+const maxRolling = 99
+
+// rolling reads scale.rolling: {years: N}, a centred window of an odd
+// number of years (so that it has a middle year); 1 is no smoothing.
+func (d *decoder) rolling(n *yaml.Node, path string, dst *int) {
+	years := 0
+	d.mapping(n, path, []field{
+		{"years", d.integer(&years, 1, maxRolling)},
+	}, "years")
+	if years > 1 && years%2 == 0 {
+		d.errorf(d.resolve(n), "%s.years: a centred window needs an odd number of years (%d or %d), not %d", path, years-1, years+1, years)
+		return
+	}
+	if years > 1 {
+		*dst = years
 	}
 }
 
@@ -741,6 +805,10 @@ var (
 // color reads "#rrggbb", "#rgb", "lab(L a b)" or "oklch(L C h)" (L as
 // 0–1 or a percentage), after CSS Color 4's notations.
 func (d *decoder) color(n *yaml.Node, path string, dst *Color) {
+	if d.desc != nil {
+		d.desc.record(n, schemaString)
+		return
+	}
 	n, ok := d.scalar(n, path)
 	if !ok {
 		return

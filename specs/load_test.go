@@ -92,7 +92,7 @@ func TestParseErrors(t *testing.T) {
 		{"kind missing", head + "outputs:\n  web: {trim: A4}\n", "5:8", "outputs.web.kind is missing"},
 		{"output name", head + "outputs:\n  my output: {kind: print}\n", "5:3", `output name "my output": use letters, digits, - and _`},
 		{"no outputs", head + "outputs: {}\n", "4:1", "outputs: give at least one output"},
-		{"order choice", printOut + "order: alphabetic\n", "7:8", `order must be one of listed, alphabetical, peak-year, not "alphabetic"; did you mean "alphabetical"?`},
+		{"order choice", printOut + "order: alphabetic\n", "7:8", `order must be one of listed, alphabetical, peak-year, similarity, not "alphabetic"; did you mean "alphabetical"?`},
 		{"scale choice", printOut + "scale: {values: per-mille}\n", "7:17", `scale.values must be one of per-million, own-peak, raw, not "per-mille"; did you mean "per-million"?`},
 		{"bad colour", printOut + "palette: {paper: '#ffff'}\n", "7:18", `palette.paper: "#ffff" is not a colour; write #rrggbb, lab(L a b) or oklch(L C h)`},
 		{"lab out of range", printOut + "palette: {paper: 'lab(120 0 0)'}\n", "7:18", "L* must be between 0 and 100"},

@@ -24,7 +24,7 @@ func DefaultOutput(name string, k Kind) Output {
 			MinPanelWidth: px(170),
 			Gutter:        px(20), RowGap: px(18),
 			PanelAspect: 1.6, Slack: SlackSpread,
-			Fonts: Fonts{Family: `"Go", "Helvetica Neue", Arial, sans-serif`},
+			Fonts: Fonts{Family: `"DejaVu Sans Condensed", sans-serif`},
 			Type: TypeSizes{Title: px(34), Dek: px(17), Label: px(14), Ticks: px(11), Key: px(12),
 				Notes: px(12), Folio: px(12), Heading: px(16), Leading: 1.3},
 			Line:  px(1.75),
@@ -155,15 +155,26 @@ func (d *decoder) output(n *yaml.Node, path, name string) Output {
 		{"panel", func(n *yaml.Node, path string) {
 			aspect := math.NaN()
 			var h Length
+			bank := false
 			d.mapping(n, path, []field{
-				{"aspect", d.number(&aspect, 0, 100, true)},
+				{"aspect", func(n *yaml.Node, path string) {
+					// "bank": the aspect is chosen from the data (layout/bank).
+					if v := d.resolve(n); v.Kind == yaml.ScalarNode && v.Value == "bank" {
+						bank, aspect = true, 0
+						return
+					} else if _, err := strconv.ParseFloat(v.Value, 64); v.Kind == yaml.ScalarNode && err != nil {
+						d.errorf(v, "%s must be a number (plot width ÷ height) or bank, not %q%s", path, v.Value, didYouMean(v.Value, []string{"bank"}))
+						return
+					}
+					d.number(&aspect, 0, 100, true)(n, path)
+				}},
 				{"height", d.length(&h, false)},
 			})
 			if !math.IsNaN(aspect) && h > 0 {
 				d.errorf(n, "%s: give aspect or height, not both", path)
 			}
 			if !math.IsNaN(aspect) {
-				o.PanelAspect, o.PanelHeight = aspect, 0
+				o.PanelAspect, o.PanelHeight, o.PanelBank = aspect, 0, bank
 			}
 			if h > 0 {
 				o.PanelHeight = h
@@ -179,8 +190,8 @@ func (d *decoder) output(n *yaml.Node, path, name string) Output {
 		}},
 		{"fonts", func(n *yaml.Node, path string) {
 			d.mapping(n, path, []field{
-				{"regular", d.str(&o.Fonts.Regular)},
-				{"bold", d.str(&o.Fonts.Bold)},
+				{"regular", d.fontFile(&o.Fonts.Regular, &o.Fonts.RegularFace)},
+				{"bold", d.fontFile(&o.Fonts.Bold, &o.Fonts.BoldFace)},
 				{"family", d.str(&o.Fonts.Family)},
 				{"embed", d.boolean(&o.Fonts.Embed)},
 			})
@@ -219,6 +230,8 @@ func (d *decoder) output(n *yaml.Node, path, name string) Output {
 			d.length(&o.KeyEvery, true)(n, path)
 			keyEverySet = true
 		}},
+		{"press", func(n *yaml.Node, path string) { o.Press = d.press(n, path) }},
+		{"band", func(n *yaml.Node, path string) { d.level(n, path, &o.Band) }},
 	}, "kind")
 	at := func(key string) *yaml.Node {
 		if p, ok := d.pos[path+"."+key]; ok {
@@ -259,6 +272,10 @@ func (d *decoder) output(n *yaml.Node, path, name string) Output {
 	if kind == Screen && (o.Bleed > 0 || o.Marks || o.SlugLine) {
 		d.errorf(n, "%s: bleed, marks and slug-line are for print outputs", path)
 	}
+	if kind == Screen && o.Press != nil {
+		d.errorf(at("press"), "%s.press: a printing condition is for print outputs; screen colours are sRGB", path)
+		o.Press = nil
+	}
 	if kind == Print && (o.Spreads || o.PanelFiles || flow != "") {
 		d.errorf(n, "%s: flow, spreads and panel-files are for screen outputs", path)
 	}
@@ -286,10 +303,34 @@ func (d *decoder) output(n *yaml.Node, path, name string) Output {
 	return o
 }
 
+// level reads a confidence level written as a percentage, "95%", or
+// none (no band). Levels from 50 % to 99.9 % are allowed: below, the
+// band says little; above, it is mostly the tail of the distribution.
+func (d *decoder) level(n *yaml.Node, path string, dst *float64) {
+	n, ok := d.scalar(n, path)
+	if !ok {
+		return
+	}
+	v := strings.TrimSpace(n.Value)
+	if v == "none" || v == "false" || v == "off" || v == "no" {
+		*dst = 0
+		return
+	}
+	num, pct := strings.CutSuffix(v, "%")
+	f, err := strconv.ParseFloat(strings.TrimSpace(num), 64)
+	if !pct || err != nil || math.IsNaN(f) {
+		d.errorf(n, "%s must be a confidence level such as 95%% (or none), not %q", path, n.Value)
+		return
+	}
+	if f < 50 || f > 99.9 {
+		d.errorf(n, "%s must be between 50%% and 99.9%%, not %s", path, n.Value)
+		return
+	}
+	*dst = f / 100
+}
+
 // maxProofPixels bounds a proof image's side, as render/raster does.
 const maxProofPixels = 40000
-
-func mmPt(v float64) Length { return Length(v * PtPerMm) }
 
 func (d *decoder) inserts(n *yaml.Node, path string, s *Spec) {
 	n = d.resolve(n)
@@ -305,14 +346,18 @@ func (d *decoder) inserts(n *yaml.Node, path string, s *Spec) {
 			d.errorf(k, "insert name %q: use letters, digits, - and _ (it names a file)", k.Value)
 			continue
 		}
-		in := Insert{Name: k.Value}
-		var size string
+		in := Insert{Name: k.Value, Compare: CompareRows}
+		var size, compare string
 		d.mapping(v, p, []field{
 			{"output", d.str(&in.Output)},
 			{"size", d.str(&size)},
 			{"terms", d.strings(&in.Terms)},
 			{"title", d.str(&in.Title)},
+			{"compare", d.choice(&compare, string(CompareRows), string(CompareOverlay))},
 		}, "output", "size", "terms")
+		if compare != "" {
+			in.Compare = Compare(compare)
+		}
 		if size != "" {
 			sz, err := ParseSize(size, false)
 			if err != nil {
@@ -349,4 +394,38 @@ func (o *Output) Describe(l Length) string {
 		return strconv.FormatFloat(math.Round(l.Px()*100)/100, 'f', -1, 64) + " px"
 	}
 	return fmt.Sprintf("%.1f mm", l.Mm())
+}
+
+// fontFile reads a font as a path, or as {path, face} where face picks a
+// face of a collection by full name (a string) or index (an integer).
+func (d *decoder) fontFile(path *string, face *FaceRef) func(*yaml.Node, string) {
+	return func(n *yaml.Node, p string) {
+		if v := d.resolve(n); v.Kind != yaml.MappingNode {
+			d.str(path)(n, p)
+			return
+		}
+		d.mapping(n, p, []field{
+			{"path", d.str(path)},
+			{"face", func(n *yaml.Node, p string) {
+				v, ok := d.scalar(n, p)
+				if !ok {
+					return
+				}
+				if v.Tag == "!!int" {
+					i, err := strconv.Atoi(v.Value)
+					if err != nil || i < 0 || i > 65535 {
+						d.errorf(v, "%s: a face index is a whole number from 0, not %s", p, v.Value)
+						return
+					}
+					*face = FaceRef{Index: i}
+					return
+				}
+				if v.Value == "" {
+					d.errorf(v, "%s: name the face (its full name) or give its index", p)
+					return
+				}
+				*face = FaceRef{Name: v.Value}
+			}},
+		}, "path")
+	}
 }

@@ -8,6 +8,7 @@ package specs
 import (
 	"fmt"
 	"path/filepath"
+	"strconv"
 	"strings"
 )
 
@@ -36,10 +37,10 @@ type Length float64
 func (l Length) Pt() float64 { return float64(l) }
 
 // Mm returns the length in millimetres.
-func (l Length) Mm() float64 { return float64(l) * 25.4 / 72 }
+func (l Length) Mm() float64 { return float64(l) * MmPerPt }
 
 // Px returns the length in CSS reference pixels (96 per inch).
-func (l Length) Px() float64 { return float64(l) * 96 / 72 }
+func (l Length) Px() float64 { return float64(l) * PxPerPt }
 
 // Size is a width and a height.
 type Size struct{ W, H Length }
@@ -141,6 +142,9 @@ const (
 	OrderListed   Order = "listed"       // as listed, then rule-selected terms by share
 	OrderAlpha    Order = "alphabetical" // by term, Unicode collation-free code point order after case folding
 	OrderPeakYear Order = "peak-year"    // by the year of the term's peak, then name
+	// OrderSimilarity puts panels whose plotted shapes look alike next to
+	// each other (package specs/series/shape).
+	OrderSimilarity Order = "similarity"
 )
 
 // Grouping puts panels into groups with headings.
@@ -149,6 +153,9 @@ type Grouping string
 const (
 	GroupNone       Grouping = "none"
 	GroupPeakDecade Grouping = "peak-decade"
+	// GroupSimilarity makes clusters of alike shapes into groups, each
+	// headed by a description of its mean shape.
+	GroupSimilarity Grouping = "similarity"
 )
 
 // ScaleMode is how yearly counts become the plotted value.
@@ -172,6 +179,9 @@ const (
 type Scale struct {
 	Mode   ScaleMode
 	YRange YRange
+	// Rolling is the length in years of the centred window the counts
+	// are pooled over before scaling (an odd number); 0: no smoothing.
+	Rolling int
 }
 
 // Color is a colour as written in the spec, in one of three spaces.
@@ -220,6 +230,9 @@ type Preflight struct {
 	MinScreenType Length  // smallest type size on screen
 	MinLine       Length  // thinnest rule or line in print
 	Strict        bool    // findings stop the build
+	// MinCount is the median count (yearly, or per rolling window) below
+	// which a term's line is mostly Poisson noise; 0 turns the check off.
+	MinCount float64
 }
 
 // Kind is the medium of an output.
@@ -272,6 +285,17 @@ type Output struct {
 	// colour: a key band goes before the first row that starts more than
 	// this far below the previous key. 0: the key at the top only.
 	KeyEvery Length
+
+	// Press is the printing condition (print): with it the PDF is CMYK
+	// through the printer's profile and a PDF/X-4; nil: an RGB PDF.
+	Press *Press
+	// Band is the confidence level (0.95 for 95 %) of the uncertainty
+	// band drawn behind every line: the exact Poisson interval of each
+	// year's (pooled) count. 0: no band.
+	Band float64
+	// PanelBank is panel aspect "bank": the aspect is chosen from the data
+	// by banking (layout/bank); PanelAspect is 0 until then.
+	PanelBank bool
 }
 
 // Margins are the four margins of a page. On facing pages Inside is the
@@ -289,10 +313,28 @@ const (
 // Fonts are the faces an output uses. Empty paths mean the Go fonts
 // embedded in the binary.
 type Fonts struct {
-	Regular string // TTF/OTF path, resolved against the spec
+	Regular string // TTF/OTF/TTC/OTC path, resolved against the spec
 	Bold    string
 	Family  string // screen: CSS font-family list written into SVG
 	Embed   bool   // screen: embed the font subset in SVG
+
+	// RegularFace and BoldFace pick a face of a collection (.ttc, .otc);
+	// the zero value is the first face.
+	RegularFace, BoldFace FaceRef
+}
+
+// FaceRef names one face of a font file: by its full name (name ID 4)
+// when Name is set, else by its index in a collection, from 0.
+type FaceRef struct {
+	Index int
+	Name  string
+}
+
+func (f FaceRef) String() string {
+	if f.Name != "" {
+		return strconv.Quote(f.Name)
+	}
+	return "#" + strconv.Itoa(f.Index)
 }
 
 // TypeSizes are the type sizes an output uses.
@@ -333,7 +375,21 @@ type Insert struct {
 	Size   Size
 	Terms  []string
 	Title  string
+	// Compare is how a comparison of two to four terms is drawn: in
+	// aligned rows (the default) or overlaid on one plot.
+	Compare Compare
 }
+
+// Compare is how a comparison insert shows its terms.
+type Compare string
+
+const (
+	// CompareRows gives each term a strip of its own, one above the
+	// other, sharing the x axis and the y-range.
+	CompareRows Compare = "rows"
+	// CompareOverlay draws every term on one plot, told apart by stroke.
+	CompareOverlay Compare = "overlay"
+)
 
 // ForInsert returns a copy of the spec that selects exactly the insert's
 // terms, in its order and ungrouped, scaled as the feature is; errors

@@ -61,25 +61,35 @@ func writeSummary(w io.Writer, r feature.Report) {
 		gaps = strings.Trim(fmt.Sprint(r.Years.Gaps), "[]")
 	}
 	fmt.Fprintf(w, "  years:   %d–%d (%d years; gaps: %s)\n", r.Years.From, r.Years.To, r.Years.To-r.Years.From+1, gaps)
-	fmt.Fprintf(w, "  values:  %s (%s), %s y-range\n", r.Scale.Values, r.Scale.Unit, r.Scale.YRange)
+	smoothing := ""
+	if r.Scale.Smoothing != "" {
+		smoothing = ", " + r.Scale.Smoothing
+	}
+	fmt.Fprintf(w, "  values:  %s (%s)%s, %s y-range\n", r.Scale.Values, r.Scale.Unit, smoothing, r.Scale.YRange)
 	for _, o := range r.Outputs {
 		switch {
 		case o.Kind == string(specs.Screen) && o.Layout != nil && o.Layout.Flow == specs.FlowScrollGroups:
-			fmt.Fprintf(w, "  output %s (%s): %.0f px wide, scrolling, a page per group", o.Name, o.Kind, o.TrimPt[0]*96/72)
+			fmt.Fprintf(w, "  output %s (%s): %.0f px wide, scrolling, a page per group", o.Name, o.Kind, o.TrimPt[0]*specs.PxPerPt)
 		case o.Kind == string(specs.Screen) && (o.TrimPt[1] == 0 || o.Layout != nil && o.Layout.Flow.Scrolls()):
-			fmt.Fprintf(w, "  output %s (%s): %.0f px wide, scrolling", o.Name, o.Kind, o.TrimPt[0]*96/72)
+			fmt.Fprintf(w, "  output %s (%s): %.0f px wide, scrolling", o.Name, o.Kind, o.TrimPt[0]*specs.PxPerPt)
 		case o.Kind == string(specs.Screen):
-			fmt.Fprintf(w, "  output %s (%s): %.0f × %.0f px pages", o.Name, o.Kind, o.TrimPt[0]*96/72, o.TrimPt[1]*96/72)
+			fmt.Fprintf(w, "  output %s (%s): %.0f × %.0f px pages", o.Name, o.Kind, o.TrimPt[0]*specs.PxPerPt, o.TrimPt[1]*specs.PxPerPt)
 		default:
-			fmt.Fprintf(w, "  output %s (%s): %.1f × %.1f mm", o.Name, o.Kind, o.TrimPt[0]*25.4/72, o.TrimPt[1]*25.4/72)
+			fmt.Fprintf(w, "  output %s (%s): %.1f × %.1f mm", o.Name, o.Kind, o.TrimPt[0]*specs.MmPerPt, o.TrimPt[1]*specs.MmPerPt)
 		}
 		if o.Bleed > 0 {
-			fmt.Fprintf(w, " + %.1f mm bleed", o.Bleed*25.4/72)
+			fmt.Fprintf(w, " + %.1f mm bleed", o.Bleed*specs.MmPerPt)
 		}
 		fmt.Fprintln(w)
 		// Labels, layout warnings and the palette's findings come in the
 		// preflight table below.
 		fmt.Fprintf(w, "    %s\n", o.Summary)
+		switch {
+		case o.Press != nil:
+			fmt.Fprintf(w, "    %s PDF/X-4 for %q (%s, ink limit %.0f%%)\n", o.Press.Space, o.Press.Condition, o.Press.Intent, o.Press.InkLimit)
+		case o.Kind == string(specs.Print):
+			fmt.Fprintln(w, "    RGB PDF (no printing condition)")
+		}
 	}
 }
 

@@ -4,9 +4,13 @@ import (
 	"bytes"
 	"encoding/json"
 	"path/filepath"
-	"sheaf/render/feature"
 	"strings"
 	"testing"
+
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
+
+	"sheaf/render/feature"
 )
 
 const bad = "../../testdata/bad/"
@@ -78,22 +82,14 @@ func TestCheckBadInput(t *testing.T) {
 			}
 			var out, errb bytes.Buffer
 			code := run([]string{"check", path}, &out, &errb)
-			if code != exitBadInput {
-				t.Errorf("exit %d, want %d", code, exitBadInput)
-			}
-			if out.Len() != 0 {
-				t.Errorf("stdout not empty:\n%s", out.String())
-			}
+			assert.Equal(t, exitBadInput, code, "exit status")
+			assert.Zero(t, out.Len(), "stdout: %s", out.String())
 			stderr := errb.String()
 			for _, trace := range []string{"panic", "goroutine ", "internal error", ".go:"} {
-				if strings.Contains(stderr, trace) {
-					t.Errorf("stderr looks like a crash (%q):\n%s", trace, stderr)
-				}
+				assert.NotContains(t, stderr, trace, "stderr looks like a crash")
 			}
 			lines := strings.Split(strings.TrimRight(stderr, "\n"), "\n")
-			if len(lines) != len(tt.want) {
-				t.Errorf("%d problems, want %d:\n%s", len(lines), len(tt.want), stderr)
-			}
+			assert.Len(t, lines, len(tt.want), "problems:\n%s", stderr)
 			for i, w := range tt.want {
 				if i >= len(lines) {
 					break
@@ -101,9 +97,8 @@ func TestCheckBadInput(t *testing.T) {
 				// Every problem starts with the file as the user can open
 				// it: the spec path as given, or a data path resolved
 				// against the spec's folder.
-				if !strings.HasPrefix(lines[i], strings.TrimSuffix(bad, "/")) || !strings.Contains(lines[i], w) {
-					t.Errorf("problem %d:\n got %s\nwant %s…%s", i+1, lines[i], bad, w)
-				}
+				assert.True(t, strings.HasPrefix(lines[i], strings.TrimSuffix(bad, "/")), "problem %d starts with the file: %s", i+1, lines[i])
+				assert.Contains(t, lines[i], w, "problem %d", i+1)
 			}
 		})
 	}
@@ -111,9 +106,7 @@ func TestCheckBadInput(t *testing.T) {
 
 func TestCheckSmall(t *testing.T) {
 	var out, errb bytes.Buffer
-	if code := run([]string{"check", "../../testdata/small/spec.yaml"}, &out, &errb); code != exitOK {
-		t.Fatalf("exit %d: %s", code, errb.String())
-	}
+	require.Equal(t, exitOK, run([]string{"check", "../../testdata/small/spec.yaml"}, &out, &errb), errb.String())
 	// A5 is 148 × 210 mm (ISO 216); default bleed 3 mm (common practice).
 	for _, w := range []string{
 		`"A small test feature"`,
@@ -121,34 +114,27 @@ func TestCheckSmall(t *testing.T) {
 		"1900–1905 (6 years; gaps: 1903)",
 		"output print (print): 148.0 × 210.0 mm + 3.0 mm bleed",
 	} {
-		if !strings.Contains(out.String(), w) {
-			t.Errorf("summary lacks %q:\n%s", w, out.String())
-		}
+		assert.Contains(t, out.String(), w, "summary")
 	}
 
 	out.Reset()
-	if code := run([]string{"check", "../../testdata/small/spec.yaml", "--json"}, &out, &errb); code != exitOK {
-		t.Fatalf("--json exit %d: %s", code, errb.String())
-	}
+	require.Equal(t, exitOK, run([]string{"check", "../../testdata/small/spec.yaml", "--json"}, &out, &errb), errb.String())
 	var rep feature.Report
-	if err := json.Unmarshal(out.Bytes(), &rep); err != nil {
-		t.Fatalf("--json output is not JSON: %v\n%s", err, out.String())
-	}
+	require.NoError(t, json.Unmarshal(out.Bytes(), &rep), "--json output is JSON")
 	// A5 in points, 419.528 × 595.276 (print-facts.md, ISO 216); the
 	// shared top is not asked for, so y_max is the largest own peak,
 	// boiler's 500 per million (50/100000×1e6, hand-computed).
-	if rep.Terms.Selected != 3 || len(rep.Years.Gaps) != 1 || rep.Years.Gaps[0] != 1903 ||
-		rep.Scale.YMax != 500 || len(rep.Outputs) != 1 ||
-		int(rep.Outputs[0].TrimPt[0]*1000+0.5) != 419528 || int(rep.Outputs[0].TrimPt[1]*1000+0.5) != 595276 {
-		t.Errorf("JSON report %+v", rep)
-	}
+	assert.Equal(t, 3, rep.Terms.Selected, "terms selected")
+	assert.Equal(t, []int{1903}, rep.Years.Gaps, "gaps")
+	assert.Equal(t, 500.0, rep.Scale.YMax, "y_max: boiler's own peak, per million")
+	require.Len(t, rep.Outputs, 1)
+	assert.InDelta(t, 419.528, rep.Outputs[0].TrimPt[0], 0.0005, "A5 width, pt (ISO 216)")
+	assert.InDelta(t, 595.276, rep.Outputs[0].TrimPt[1], 0.0005, "A5 height, pt (ISO 216)")
 }
 
 func TestCheckUsage(t *testing.T) {
 	for _, args := range [][]string{{"check"}, {"check", "a.yaml", "b.yaml"}, {"check", "--no-such-flag", "a.yaml"}} {
 		var out, errb bytes.Buffer
-		if code := run(args, &out, &errb); code != exitBadInput {
-			t.Errorf("%v: exit %d, want %d", args, code, exitBadInput)
-		}
+		assert.Equal(t, exitBadInput, run(args, &out, &errb), "%v", args)
 	}
 }

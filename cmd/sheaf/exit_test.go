@@ -4,7 +4,11 @@ import (
 	"bytes"
 	"errors"
 	"fmt"
+	"os"
 	"path/filepath"
+	"strings"
+	"sync"
+	"syscall"
 	"testing"
 
 	"github.com/stretchr/testify/assert"
@@ -55,4 +59,42 @@ func TestPanicIsInternalError(t *testing.T) {
 		}
 		noStages(t, out) // the stage is removed on the panic's way up
 	}
+}
+
+// TestCtrlCDuringTallPNG: SIGINT (Ctrl-C) sent once the 2× PNG of a
+// scrolling web page has begun ends the build with exit 1 and
+// "interrupted", the output folder as it was. The signal goes to this
+// process while run holds it (signal.NotifyContext), as a terminal's
+// Ctrl-C would. How fast it stops is production's TestCancelDuringTallPNG
+// and raster's TestDrawStopsWhenCancelled.
+func TestCtrlCDuringTallPNG(t *testing.T) {
+	spec := newJob(t, jobSpec("")+"  web:\n    kind: screen\n    trim: 1200px\n")
+	out := filepath.Join(t.TempDir(), "out")
+	var once sync.Once
+	buildHooks.BeforeRaster = func(file string) error {
+		if strings.HasSuffix(file, filepath.Join("web", "page-001@2x.png")) {
+			once.Do(func() { require.NoError(t, syscall.Kill(os.Getpid(), syscall.SIGINT)) })
+		}
+		return nil
+	}
+	t.Cleanup(func() { buildHooks.BeforeRaster = nil })
+	var o, e bytes.Buffer
+	code := run([]string{"build", spec, "--out", out, "--no-proofs", "--quiet"}, &o, &e)
+	assert.Equal(t, exitFindings, code)
+	assert.Contains(t, e.String(), "sheaf build: interrupted; "+out+" is as it was before the build")
+	assert.NoDirExists(t, out, "a first build interrupted leaves no folder")
+	noStages(t, out)
+}
+
+// TestSchemaCommand: `sheaf schema` prints the schema the repository
+// keeps for editors, and takes no arguments.
+func TestSchemaCommand(t *testing.T) {
+	var o, e bytes.Buffer
+	require.Equal(t, exitOK, run([]string{"schema"}, &o, &e), e.String())
+	file, err := os.ReadFile("../../specs/sheaf.schema.json")
+	require.NoError(t, err)
+	assert.Equal(t, string(file), o.String())
+	o.Reset()
+	assert.Equal(t, exitBadInput, run([]string{"schema", "extra"}, &o, &e))
+	assert.Zero(t, o.Len())
 }

@@ -4,6 +4,8 @@ import (
 	"os/exec"
 	"strings"
 	"testing"
+
+	"github.com/stretchr/testify/require"
 )
 
 // TestLayers keeps the pipeline readable top to bottom (DEVELOPERS.md):
@@ -40,9 +42,7 @@ func TestLayers(t *testing.T) {
 		return -1 // examples: the demo's generator stands apart
 	}
 	out, err := exec.Command(goTool, "list", "-f", `{{.ImportPath}}{{range .Imports}} {{.}}{{end}}`, "sheaf/...").Output()
-	if err != nil {
-		t.Fatalf("go list: %v", err)
-	}
+	require.NoError(t, err, "go list")
 	for _, line := range strings.Split(strings.TrimSpace(string(out)), "\n") {
 		f := strings.Fields(line)
 		from := layer(f[0])

@@ -8,6 +8,7 @@
 //	sheaf palette SPEC [--out DIR]
 //	sheaf build SPEC [--out DIR] [--only OUTPUT] [--strict] [--no-proofs] [--full] [--quiet] [--paths]
 //	sheaf terms SPEC [--match TEXT] [--pattern RE] [--sort COLUMN] [--reverse] [--selected] [--limit N] [--json]
+//	sheaf schema
 //	sheaf help [COMMAND]
 //
 // Exit status: 0 when all is well, 1 when checks find problems or a build
@@ -47,7 +48,10 @@ func commands() []command {
 		{"palette", "SPEC [--out DIR]", "print the era palette's table and checks; write a swatch sheet", runPalette},
 		{"build", "SPEC [--out DIR] [--only OUTPUT] [--strict] [--no-proofs] [--full] [--quiet] [--paths]", "render every output: PDF, proofs, SVG, PNG; manifest and change report", runBuild},
 		{"terms", termsArgs, "list the terms in the data with their counts, peak year and whether the spec selects them", runTerms},
+		{"pairs", "SPEC [--top N] [--per-term N] [--output NAME] [--size 'W x H'] [--json] [--out DIR] [--no-sheet]", "find the most alike pairs of terms and the strongest hand-overs; inserts entries and a sheet", runPairs},
 		{"count", countArgs, "count terms in a dated text archive into the two tables a spec's data reads", runCount},
+
+		{"schema", "", "print the JSON Schema of the page spec, for YAML editors", runSchema},
 
 		{"help", "[COMMAND]", "show help for sheaf or one command", nil},
 	}

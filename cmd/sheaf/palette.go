@@ -12,6 +12,7 @@ import (
 	"sheaf/render/pdf"
 	"sheaf/render/production"
 	"sheaf/render/swatch"
+	"sheaf/specs"
 )
 
 func runPalette(args []string, stdout, stderr io.Writer) int {
@@ -50,11 +51,24 @@ func runPalette(args []string, stdout, stderr io.Writer) int {
 			return exitFindings
 		}
 		fmt.Fprintln(stdout)
+		if c.Press != nil {
+			if err := c.Press.WriteTable(stdout, c.PressRows, c.MaxShift); err != nil {
+				fmt.Fprintln(stderr, err)
+				return exitFindings
+			}
+			fmt.Fprintln(stdout)
+		}
 		failed = failed || c.Report.Failed()
 	}
 	first := checks[0]
+	for _, c := range checks {
+		if c.Press != nil { // the swatch shows the press beside the screen
+			first = c
+			break
+		}
+	}
 	png := filepath.Join(dir, "swatch.png")
-	if err := production.WriteAtomic(png, func(w io.Writer) error { return swatch.WritePNG(w, first.Scale, first.Report, 150) }); err != nil {
+	if err := production.WriteAtomic(png, func(w io.Writer) error { return swatch.WritePNGFor(w, first.Scale, first.Report, 150, first.Press) }); err != nil {
 		fmt.Fprintln(stderr, "sheaf palette:", err)
 		return exitFindings
 	}
@@ -64,11 +78,11 @@ func runPalette(args []string, stdout, stderr io.Writer) int {
 	}
 	pdfPath := filepath.Join(dir, "swatch.pdf")
 	err = production.WriteAtomic(pdfPath, func(w io.Writer) error {
-		wmm, hmm := swatch.Size()
+		wmm, hmm := swatch.SizeFor(first.Press)
 		pw := pdf.NewWriter(w, pdf.Options{Title: j.Spec.Title + " — era palette", Version: version, Date: date})
-		r := canvas.Rect{X0: 0, Y0: 0, X1: wmm / pdf.MMPerPt, Y1: hmm / pdf.MMPerPt}
+		r := canvas.Rect{X0: 0, Y0: 0, X1: wmm * specs.PtPerMm, Y1: hmm * specs.PtPerMm}
 		if err := pw.AddPage(pdf.PageSetup{Boxes: pdf.PageBoxes{Media: r, Bleed: r, Trim: r}}, func(c *canvas.Canvas) error {
-			return swatch.Draw(c, first.Scale, first.Report)
+			return swatch.DrawFor(c, first.Scale, first.Report, first.Press)
 		}); err != nil {
 			return err
 		}

@@ -18,6 +18,7 @@ import (
 
 	"github.com/pdfcpu/pdfcpu/pkg/api"
 	"github.com/pdfcpu/pdfcpu/pkg/pdfcpu/model"
+	"github.com/stretchr/testify/require"
 
 	"sheaf/layout"
 	"sheaf/render/curve"
@@ -53,17 +54,11 @@ func demo(t *testing.T) (string, *feature.Output) {
 		t.Skip("builds the demo; skipped with -short")
 	}
 	dir, err := demoBuild()
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	j, err := feature.Load(demoSpec)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	p, err := j.Prepare(j.Spec.Output("print"))
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	return dir, p
 }
 
@@ -76,14 +71,10 @@ func TestDemoPDFBoxes(t *testing.T) {
 	conf := model.NewDefaultConfiguration()
 	conf.ValidationMode = model.ValidationStrict
 	f, err := os.Open(filepath.Join(dir, "print", "print.pdf"))
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	defer f.Close()
 	ctx, err := api.ReadContext(f, conf)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	if ctx.Conf.ValidationMode != model.ValidationStrict {
 		t.Fatal("not reading in strict mode")
 	}
@@ -94,9 +85,7 @@ func TestDemoPDFBoxes(t *testing.T) {
 		t.Fatalf("PDF has %d pages, the plan %d, the demo asks for 8", ctx.PageCount, len(p.Plan.Pages))
 	}
 	pbs, err := ctx.PageBoundaries(nil)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	for i, pb := range pbs {
 		pg := p.Plan.Pages[i]
 		for _, c := range []struct {
@@ -195,17 +184,11 @@ func onLine(w curve.Point, lines [][2]curve.Point) float64 {
 func TestCurvesPassThroughData(t *testing.T) {
 	dir, p := demo(t)
 	ctx, err := api.ReadContextFile(filepath.Join(dir, "print", "print.pdf"))
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	d, _, _, err := ctx.PageDict(1, false)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	content, err := ctx.PageContent(d, 1)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	pts, lines := pathPoints(content)
 	if len(pts) < 1000 {
 		t.Fatalf("only %d path points on page 1", len(pts))
@@ -235,9 +218,7 @@ func TestCurvesPassThroughData(t *testing.T) {
 	for _, pn := range p.Plan.Pages[0].Panels {
 		sr := data.Series[pn.Item]
 		m, err := p.Feature.PlotMap(pn)
-		if err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, err)
 		for i, v := range sr.Values {
 			if math.IsNaN(v) {
 				continue
@@ -294,9 +275,7 @@ func TestProofMatchesPoppler(t *testing.T) {
 	}
 	theirs := tooltest.ReadPNG(t, prefix+".png")
 	ours := tooltest.ReadPNG(t, filepath.Join(dir, "print", "proofs", "page-001.png"))
-	if theirs.Bounds().Size() != ours.Bounds().Size() {
-		t.Fatalf("poppler %v, proof %v", theirs.Bounds().Size(), ours.Bounds().Size())
-	}
+	require.Equal(t, ours.Bounds().Size(), theirs.Bounds().Size(), "poppler %v, proof %v", theirs.Bounds().Size(), ours.Bounds().Size())
 	mean, strong := tooltest.CompareImages(ours, theirs, 64)
 	t.Logf("proof vs pdftoppm: mean |Δ| %.3f/255, %.3f%% of pixels differ by more than 64", mean, strong*100)
 	if mean > 3 || strong > 0.015 {

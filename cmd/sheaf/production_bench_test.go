@@ -8,6 +8,8 @@ import (
 	"sync"
 	"testing"
 
+	"github.com/stretchr/testify/require"
+
 	"sheaf/examples/generate/corpus"
 	"sheaf/render/production"
 )
@@ -19,16 +21,12 @@ import (
 //	go test ./cmd/sheaf -run '^$' -bench Rebuild -benchtime 3x
 func BenchmarkRebuild(b *testing.B) {
 	src, err := catalog()
-	if err != nil {
-		b.Fatal(err)
-	}
+	require.NoError(b, err)
 	// A private copy: the one-term case edits the data.
 	dir := b.TempDir()
 	for _, f := range []string{"catalog.yaml", "data/counts.csv", "data/totals.csv"} {
 		data, err := os.ReadFile(filepath.Join(filepath.Dir(src), f))
-		if err != nil {
-			b.Fatal(err)
-		}
+		require.NoError(b, err)
 		if f == "catalog.yaml" {
 			// The print pages only: BenchmarkDemoRebuild measures
 			// screen outputs and inserts, reused whole.
@@ -37,9 +35,7 @@ func BenchmarkRebuild(b *testing.B) {
 			}
 		}
 		os.MkdirAll(filepath.Join(dir, filepath.Dir(f)), 0o755)
-		if err := os.WriteFile(filepath.Join(dir, f), data, 0o644); err != nil {
-			b.Fatal(err)
-		}
+		require.NoError(b, os.WriteFile(filepath.Join(dir, f), data, 0o644))
 	}
 	spec := filepath.Join(dir, "catalog.yaml")
 	build := func(b *testing.B, out string, flags ...string) {
@@ -87,13 +83,9 @@ func BenchmarkDemoRebuild(b *testing.B) {
 	dir := b.TempDir()
 	for _, f := range []string{"feature.yaml", "data/counts.csv", "data/totals.csv"} {
 		data, err := os.ReadFile(filepath.Join(filepath.Dir(demoSpec), f))
-		if err != nil {
-			b.Fatal(err)
-		}
+		require.NoError(b, err)
 		os.MkdirAll(filepath.Join(dir, filepath.Dir(f)), 0o755)
-		if err := os.WriteFile(filepath.Join(dir, f), data, 0o644); err != nil {
-			b.Fatal(err)
-		}
+		require.NoError(b, os.WriteFile(filepath.Join(dir, f), data, 0o644))
 	}
 	spec := filepath.Join(dir, "feature.yaml")
 	out := filepath.Join(dir, "out")

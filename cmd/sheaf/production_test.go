@@ -18,6 +18,9 @@ import (
 	"testing"
 	"time"
 
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
+
 	"sheaf/render/feature"
 	"sheaf/render/production"
 	"sheaf/render/tooltest"
@@ -60,22 +63,14 @@ var demoData = sync.OnceValues(func() (map[string][]byte, error) {
 func newJob(t testing.TB, spec string) string {
 	t.Helper()
 	data, err := demoData()
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	dir := t.TempDir()
-	if err := os.MkdirAll(filepath.Join(dir, "data"), 0o755); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, os.MkdirAll(filepath.Join(dir, "data"), 0o755))
 	for name, b := range data {
-		if err := os.WriteFile(filepath.Join(dir, "data", name), b, 0o644); err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, os.WriteFile(filepath.Join(dir, "data", name), b, 0o644))
 	}
 	path := filepath.Join(dir, "spec.yaml")
-	if err := os.WriteFile(path, []byte(spec), 0o644); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, os.WriteFile(path, []byte(spec), 0o644))
 	return path
 }
 
@@ -84,31 +79,24 @@ func buildInto(t testing.TB, spec, out string, flags ...string) (stdout, stderr 
 	t.Helper()
 	var o, e bytes.Buffer
 	args := append([]string{"build", spec, "--out", out}, flags...)
-	if code := run(args, &o, &e); code != exitOK {
-		t.Fatalf("sheaf %s: exit %d\n%s", strings.Join(args, " "), code, e.String())
-	}
+	require.Equal(t, exitOK, run(args, &o, &e), "sheaf %s\n%s", strings.Join(args, " "), e.String())
 	return o.String(), e.String()
 }
 
 func loadManifest(t testing.TB, dir string) *production.Manifest {
 	t.Helper()
 	m, err := production.ReadManifest(dir)
-	if err != nil || m == nil {
-		t.Fatalf("manifest in %s: %v", dir, err)
-	}
+	require.NoError(t, err, "manifest in %s", dir)
+	require.NotNil(t, m, "manifest in %s", dir)
 	return m
 }
 
 func loadChanges(t testing.TB, dir string) production.ChangeReport {
 	t.Helper()
 	b, err := os.ReadFile(filepath.Join(dir, production.ChangesJSON))
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	var r production.ChangeReport
-	if err := json.Unmarshal(b, &r); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, json.Unmarshal(b, &r))
 	return r
 }
 
@@ -121,9 +109,7 @@ func nudgeCount(t testing.TB, spec, term string) int {
 	t.Helper()
 	path := filepath.Join(filepath.Dir(spec), "data", "counts.csv")
 	b, err := os.ReadFile(path)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	re := regexp.MustCompile(fmt.Sprintf(`(?m)^%s,(\d+),(\d+)\r?$`, regexp.QuoteMeta(term)))
 	rows := re.FindAllSubmatchIndex(b, -1)
 	top := 0
@@ -133,9 +119,7 @@ func nudgeCount(t testing.TB, spec, term string) int {
 	for _, r := range rows {
 		if n := atoi(b[r[4]:r[5]]); n > 0 && n < top/2 {
 			out := append(append(append([]byte{}, b[:r[4]]...), fmt.Sprint(n+max(1, top/20))...), b[r[5]:]...)
-			if err := os.WriteFile(path, out, 0o644); err != nil {
-				t.Fatal(err)
-			}
+			require.NoError(t, os.WriteFile(path, out, 0o644))
 			return atoi(b[r[2]:r[3]])
 		}
 	}
@@ -181,9 +165,7 @@ func snapshot(t testing.TB, dir string) map[string][]byte {
 		out[r] = b
 		return nil
 	})
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	return out
 }
 
@@ -194,15 +176,13 @@ func sameTree(t testing.TB, a, b map[string][]byte, skip func(string) bool) {
 			continue
 		}
 		y, ok := b[p]
-		if !ok {
-			t.Errorf("%s: missing in the second tree", p)
-		} else if !bytes.Equal(x, y) {
-			t.Errorf("%s: bytes differ", p)
+		if assert.True(t, ok, "%s: missing in the second tree", p) {
+			assert.Equal(t, x, y, "%s: bytes differ", p)
 		}
 	}
 	for p := range b {
-		if _, ok := a[p]; !ok && (skip == nil || !skip(p)) {
-			t.Errorf("%s: only in the second tree", p)
+		if skip == nil || !skip(p) {
+			assert.Contains(t, a, p, "%s: only in the second tree", p)
 		}
 	}
 }
@@ -212,9 +192,7 @@ func noStages(t testing.TB, dir string) {
 	t.Helper()
 	entries, _ := os.ReadDir(filepath.Dir(dir))
 	for _, e := range entries {
-		if strings.Contains(e.Name(), production.StageMark) {
-			t.Errorf("stage left behind: %s", e.Name())
-		}
+		assert.NotContains(t, e.Name(), production.StageMark, "stage left behind: %s", e.Name())
 	}
 }
 
@@ -230,23 +208,20 @@ func TestManifestHashes(t *testing.T) {
 	check := func(path, want string) {
 		t.Helper()
 		b, err := exec.Command(sum, path).Output()
-		if err != nil {
-			t.Fatalf("sha256sum %s: %v", path, err)
-		}
-		if got, _, _ := strings.Cut(string(b), " "); got != want {
-			t.Errorf("%s: manifest %s, sha256sum %s", path, want, got)
-		}
+		require.NoError(t, err, "sha256sum %s: %v", path, err)
+		got, _, _ := strings.Cut(string(b), " ")
+		assert.Equal(t, got, want, "%s: the manifest's hash, and sha256sum's (GNU coreutils)", path)
 	}
 	pages := len(m.Outputs[0].Pages)
-	if m.Sheaf != version || pages < 2 || len(m.Files) != 1+pages+1 { // PDF, proofs, contact sheet
-		t.Fatalf("manifest: sheaf %q, %d files, %d pages", m.Sheaf, len(m.Files), pages)
-	}
+	require.Equal(t, version, m.Sheaf)
+	require.GreaterOrEqual(t, pages, 2)
+	require.Len(t, m.Files, 1+pages+1, "PDF, proofs, contact sheet")
 	for _, f := range m.Files {
 		p := filepath.Join(out, filepath.FromSlash(f.Path))
 		check(p, f.SHA256)
 		fi, err := os.Stat(p)
-		if err != nil || fi.Size() != f.Size {
-			t.Errorf("%s: size %d in the manifest, stat %v %v", f.Path, f.Size, fi.Size(), err)
+		if assert.NoError(t, err, f.Path) {
+			assert.Equal(t, fi.Size(), f.Size, "%s: size in the manifest, and stat's", f.Path)
 		}
 	}
 	check(spec, m.Spec.SHA256)
@@ -254,27 +229,24 @@ func TestManifestHashes(t *testing.T) {
 		check(filepath.Join(filepath.Dir(spec), d.Path), d.SHA256)
 	}
 	pdf := m.File("print/print.pdf")
-	if pdf == nil || len(pdf.Pages) != pages || pdf.Output != "print" {
-		t.Fatalf("PDF entry %+v", pdf)
-	}
+	require.NotNil(t, pdf, "the PDF's entry")
+	require.Len(t, pdf.Pages, pages)
+	require.Equal(t, "print", pdf.Output)
 	n := 0
 	for _, p := range pdf.Pages {
 		n += len(p.Terms)
-		if len(p.Inputs) != 64 {
-			t.Errorf("page %d inputs %q", p.Page, p.Inputs)
-		}
+		assert.Equal(t, 64, len(p.Inputs), "page %d inputs %q", p.Page, p.Inputs)
 	}
-	if n != 60 || len(m.Terms) != 60 {
-		t.Errorf("%d terms on pages, %d in the manifest; want 60", n, len(m.Terms))
-	}
+	assert.Equal(t, 60, n, "terms on pages (terms: {top: 60})")
+	assert.Len(t, m.Terms, 60, "terms in the manifest")
 	// The Go fonts are listed, by hash, with no path.
-	if len(m.Fonts) != 3 || m.Fonts[0].Path != "" || m.Fonts[0].Name == "" {
-		t.Errorf("fonts %+v", m.Fonts)
+	if assert.Len(t, m.Fonts, 3) {
+		assert.Empty(t, m.Fonts[0].Path)
+		assert.NotEmpty(t, m.Fonts[0].Name)
 	}
 	r := loadChanges(t, out)
-	if !r.FirstBuild || len(r.Files.Added) != len(m.Files) {
-		t.Errorf("first build report %+v", r)
-	}
+	assert.True(t, r.FirstBuild, "first build")
+	assert.Len(t, r.Files.Added, len(m.Files), "every file added")
 	noStages(t, out)
 }
 
@@ -293,16 +265,13 @@ func TestIncremental(t *testing.T) {
 	encodes := countEncodes(t)
 	before := snapshot(t, out)
 	_, stderr := buildInto(t, spec, out, "--quiet")
-	if len(*encodes) != 0 {
-		t.Errorf("unchanged rebuild encoded %v", *encodes)
-	}
-	if !strings.Contains(stderr, "nothing changed since the last build") {
-		t.Errorf("stderr:\n%s", stderr)
-	}
+	assert.Empty(t, *encodes, "unchanged rebuild encoded %v", *encodes)
+	assert.Contains(t, stderr, "nothing changed since the last build", "stderr:\n%s", stderr)
 	r := loadChanges(t, out)
-	if r.FirstBuild || len(r.Files.Changed)+len(r.Files.Added)+len(r.Files.Removed)+len(r.Terms)+len(r.Pages) != 0 || r.Work[0].Reused != pages || r.Work[0].ProofsReused != pages {
-		t.Errorf("unchanged rebuild report %+v", r)
-	}
+	assert.False(t, r.FirstBuild)
+	assert.Zero(t, len(r.Files.Changed)+len(r.Files.Added)+len(r.Files.Removed)+len(r.Terms)+len(r.Pages), "changes in %+v", r)
+	assert.Equal(t, pages, r.Work[0].Reused, "pages reused")
+	assert.Equal(t, pages, r.Work[0].ProofsReused, "proofs kept")
 	sameTree(t, before, snapshot(t, out), func(p string) bool { return p == production.ChangesJSON || p == production.ChangesText })
 
 	// Pick a term on page 2 and change one year.
@@ -311,32 +280,31 @@ func TestIncremental(t *testing.T) {
 	nudgeCount(t, spec, term)
 	*encodes = nil
 	_, stderr = buildInto(t, spec, out, "--quiet")
-	if want := []string{"print p. 2"}; fmt.Sprint(*encodes) != fmt.Sprint(want) {
-		t.Errorf("encoded %v, want %v", *encodes, want)
-	}
+	assert.Equal(t, []string{"print p. 2"}, *encodes, "pages encoded")
 	r = loadChanges(t, out)
-	if len(r.Terms) != 1 || r.Terms[0].Term != term || r.Terms[0].Change != "changed" || fmt.Sprint(r.Terms[0].Pages) != "[print p. 2]" {
-		t.Errorf("terms %+v, want %q changed on print p. 2", r.Terms, term)
+	if assert.Len(t, r.Terms, 1) {
+		assert.Equal(t, term, r.Terms[0].Term)
+		assert.Equal(t, "changed", r.Terms[0].Change)
+		assert.Equal(t, []string{"print p. 2"}, r.Terms[0].Pages)
 	}
-	if len(r.Pages) != 1 || r.Pages[0].File != "print/print.pdf" || fmt.Sprint(r.Pages[0].Pages) != "[2]" {
-		t.Errorf("pages %+v", r.Pages)
+	if assert.Len(t, r.Pages, 1) {
+		assert.Equal(t, "print/print.pdf", r.Pages[0].File)
+		assert.Equal(t, []int{2}, r.Pages[0].Pages)
 	}
-	wantChanged := "[print/contact.png print/print.pdf print/proofs/page-002.png]"
-	if fmt.Sprint(r.Files.Changed) != wantChanged || len(r.Files.Unchanged) != pages-1 || r.SpecChanged || fmt.Sprint(r.DataChanged) != "[data/counts.csv]" {
-		t.Errorf("files %+v data %v spec %v", r.Files, r.DataChanged, r.SpecChanged)
-	}
-	if w := r.Work[0]; w.Encoded != 1 || w.Reused != pages-1 || w.ProofsDrawn != 1 || w.ProofsReused != pages-1 {
-		t.Errorf("work %+v", w)
-	}
+	assert.Equal(t, []string{"print/contact.png", "print/print.pdf", "print/proofs/page-002.png"}, r.Files.Changed)
+	assert.Len(t, r.Files.Unchanged, pages-1)
+	assert.False(t, r.SpecChanged)
+	assert.Equal(t, []string{"data/counts.csv"}, r.DataChanged)
+	w := r.Work[0]
+	assert.Equal(t, 1, w.Encoded, "pages encoded")
+	assert.Equal(t, pages-1, w.Reused, "pages reused")
+	assert.Equal(t, 1, w.ProofsDrawn, "proofs drawn")
+	assert.Equal(t, pages-1, w.ProofsReused, "proofs kept")
 	for _, s := range []string{fmt.Sprintf("changed %q: print p. 2", term), fmt.Sprintf("print/print.pdf: pages 2 of %d", pages)} {
-		if !strings.Contains(stderr, s) {
-			t.Errorf("stderr lacks %q:\n%s", s, stderr)
-		}
+		assert.Contains(t, stderr, s, "stderr lacks %q:\n%s", s, stderr)
 	}
 	text, _ := os.ReadFile(filepath.Join(out, production.ChangesText))
-	if !strings.Contains(string(text), fmt.Sprintf("changed %q: print p. 2", term)) {
-		t.Errorf("changes.txt:\n%s", text)
-	}
+	assert.Contains(t, string(text), fmt.Sprintf("changed %q: print p. 2", term), "changes.txt:\n%s", text)
 
 	// A clean full build of the same inputs elsewhere.
 	clean := filepath.Join(t.TempDir(), "clean")
@@ -364,12 +332,10 @@ func TestFailedBuildKeepsPrevious(t *testing.T) {
 	defer func() { buildHooks.BeforeEncode = nil }()
 	var o, e bytes.Buffer
 	code := run([]string{"build", spec, "--out", out, "--full", "--quiet"}, &o, &e)
-	if code != exitFindings || !strings.Contains(e.String(), "page 2: injected failure") || !strings.Contains(e.String(), "nothing was changed in") {
-		t.Errorf("exit %d, stderr:\n%s", code, e.String())
-	}
-	if o.Len() != 0 {
-		t.Errorf("stdout: %s", o.String())
-	}
+	assert.Equal(t, exitFindings, code)
+	assert.Contains(t, e.String(), "page 2: injected failure")
+	assert.Contains(t, e.String(), "nothing was changed in")
+	assert.Zero(t, o.Len(), "stdout: %s", o.String())
 	sameTree(t, before, snapshot(t, out), nil)
 	noStages(t, out)
 
@@ -378,9 +344,7 @@ func TestFailedBuildKeepsPrevious(t *testing.T) {
 	buildHooks.BeforeCommit = func(string) error { return errors.New("injected failure before the swap") }
 	defer func() { buildHooks.BeforeCommit = nil }()
 	nudgeCount(t, spec, loadManifest(t, out).Terms[0].Term)
-	if code := run([]string{"build", spec, "--out", out, "--quiet"}, &o, &e); code != exitFindings {
-		t.Errorf("exit %d", code)
-	}
+	assert.Equal(t, exitFindings, run([]string{"build", spec, "--out", out, "--quiet"}, &o, &e))
 	sameTree(t, before, snapshot(t, out), nil)
 	noStages(t, out)
 }
@@ -408,23 +372,21 @@ func TestOnlyKeepsOtherOutputs(t *testing.T) {
 	after := snapshot(t, out)
 	for p, b := range before {
 		if strings.HasPrefix(p, "second/") || strings.HasPrefix(p, "palette/") || strings.HasPrefix(p, ".cache/second/") {
-			if !bytes.Equal(b, after[p]) {
-				t.Errorf("%s changed or went missing", p)
-			}
+			assert.Equal(t, b, after[p], "%s changed or went missing", p)
 		}
 	}
 	m := loadManifest(t, out)
-	if len(m.Outputs) != 2 || m.Outputs[1].Name != "second" || m.File("second/second.pdf") == nil || m.File("palette/swatch.png") != nil {
-		t.Errorf("manifest outputs %d, files %d", len(m.Outputs), len(m.Files))
-	}
-	if !equalJSON(m.Outputs[1], m0.Outputs[1]) || len(m.File("second/second.pdf").Pages) == 0 {
-		t.Errorf("second's entry changed")
-	}
+	require.Len(t, m.Outputs, 2)
+	assert.Equal(t, "second", m.Outputs[1].Name)
+	require.NotNil(t, m.File("second/second.pdf"), "second's PDF is kept")
+	assert.Nil(t, m.File("palette/swatch.png"), "a file sheaf did not write is not in the manifest")
+	assert.True(t, equalJSON(m.Outputs[1], m0.Outputs[1]), "second's entry is kept")
+	assert.NotEmpty(t, m.File("second/second.pdf").Pages)
 	// A whole build again: the palette folder still stays.
 	buildInto(t, spec, out, "--quiet")
-	if b, err := os.ReadFile(filepath.Join(out, "palette", "swatch.png")); err != nil || string(b) != "not ours" {
-		t.Errorf("foreign file: %q %v", b, err)
-	}
+	b, err := os.ReadFile(filepath.Join(out, "palette", "swatch.png"))
+	require.NoError(t, err, "the foreign file stays")
+	assert.Equal(t, "not ours", string(b))
 }
 
 // TestStrictPreflight: a 4 pt label and a 0.1 pt line are found by
@@ -433,40 +395,27 @@ func TestStrictPreflight(t *testing.T) {
 	spec := newJob(t, strings.Replace(jobSpec(""), "    proofs: 40\n", "    proofs: 40\n    type: {label: 4pt}\n    line: 0.1pt\n", 1))
 	out := filepath.Join(filepath.Dir(spec), "out")
 	var o, e bytes.Buffer
-	if code := run([]string{"build", spec, "--out", out, "--strict"}, &o, &e); code != exitFindings {
-		t.Fatalf("strict build exit %d\n%s", code, e.String())
-	}
+	require.Equal(t, exitFindings, run([]string{"build", spec, "--out", out, "--strict"}, &o, &e), e.String())
 	for _, s := range []string{"warning  type-floor", "warning  line-floor", "strict preflight: stopped"} {
-		if !strings.Contains(e.String(), s) {
-			t.Errorf("stderr lacks %q:\n%s", s, e.String())
-		}
+		assert.Contains(t, e.String(), s, "stderr lacks %q:\n%s", s, e.String())
 	}
-	if _, err := os.Stat(out); !errors.Is(err, os.ErrNotExist) {
-		t.Errorf("strict build wrote %s", out)
-	}
+	assert.NoDirExists(t, out, "a strict build that stopped writes nothing")
 	noStages(t, out)
 
 	o.Reset()
 	e.Reset()
-	if code := run([]string{"check", spec, "--json", "--strict"}, &o, &e); code != exitFindings {
-		t.Errorf("check --strict exit %d", code)
-	}
+	assert.Equal(t, exitFindings, run([]string{"check", spec, "--json", "--strict"}, &o, &e), "check --strict")
 	var rep feature.Report
-	if err := json.Unmarshal(o.Bytes(), &rep); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, json.Unmarshal(o.Bytes(), &rep))
 	ids := map[string]bool{}
 	for _, f := range rep.Preflight {
 		ids[f.ID] = true
 	}
-	if !ids["type-floor"] || !ids["line-floor"] {
-		t.Errorf("check --json preflight ids %v", ids)
-	}
+	assert.True(t, ids["type-floor"], "check --json lists type-floor")
+	assert.True(t, ids["line-floor"], "check --json lists line-floor")
 	// Without strict the build goes ahead, warning.
 	_, stderr := buildInto(t, spec, out, "--quiet")
-	if !strings.Contains(stderr, "type-floor") {
-		t.Errorf("build stderr lacks the finding:\n%s", stderr)
-	}
+	assert.Contains(t, stderr, "type-floor", "build stderr lacks the finding:\n%s", stderr)
 }
 
 // TestInterrupt sends a real SIGINT to a sheaf process in the middle of a
@@ -477,9 +426,8 @@ func TestInterrupt(t *testing.T) {
 		t.Skip("builds the binary; skipped with -short")
 	}
 	bin := filepath.Join(t.TempDir(), "sheaf")
-	if out, err := exec.Command("go", "build", "-o", bin, ".").CombinedOutput(); err != nil {
-		t.Fatalf("go build: %v\n%s", err, out)
-	}
+	out0, err := exec.Command("go", "build", "-o", bin, ".").CombinedOutput()
+	require.NoError(t, err, "go build: %s", out0)
 	// The demo's 384 terms on A4, with proofs: several seconds of work.
 	spec := newJob(t, strings.Replace(jobSpec(""), "top: 60", "top: 384", 1))
 	out := filepath.Join(filepath.Dir(spec), "out")
@@ -489,9 +437,7 @@ func TestInterrupt(t *testing.T) {
 	cmd := exec.Command(bin, "build", spec, "--out", out, "--full")
 	var stderr bytes.Buffer
 	cmd.Stderr = &stderr
-	if err := cmd.Start(); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, cmd.Start())
 	// Wait until the stage holds a cached page: the build is under way.
 	deadline := time.Now().Add(20 * time.Second)
 	for {
@@ -505,17 +451,13 @@ func TestInterrupt(t *testing.T) {
 		}
 		time.Sleep(5 * time.Millisecond)
 	}
-	if err := cmd.Process.Signal(syscall.SIGINT); err != nil {
-		t.Fatal(err)
-	}
-	err := cmd.Wait()
+	require.NoError(t, cmd.Process.Signal(syscall.SIGINT))
+	err = cmd.Wait()
 	var exit *exec.ExitError
-	if !errors.As(err, &exit) || exit.ExitCode() != exitFindings {
-		t.Errorf("exit %v, want status %d; stderr:\n%s", err, exitFindings, stderr.String())
+	if assert.ErrorAs(t, err, &exit, stderr.String()) {
+		assert.Equal(t, exitFindings, exit.ExitCode(), stderr.String())
 	}
-	if !strings.Contains(stderr.String(), "interrupted") {
-		t.Errorf("stderr:\n%s", stderr.String())
-	}
+	assert.Contains(t, stderr.String(), "interrupted", "stderr:\n%s", stderr.String())
 	sameTree(t, before, snapshot(t, out), nil)
 	noStages(t, out)
 }
@@ -528,9 +470,7 @@ func TestProgress(t *testing.T) {
 	p.Begin("print: PDF pages", 3)
 	p.Step()
 	p.done()
-	if buf.Len() != 0 {
-		t.Errorf("not a terminal, yet %q", buf.String())
-	}
+	assert.Zero(t, buf.Len(), "not a terminal, yet %q", buf.String())
 
 	now := time.Unix(0, 0)
 	p = &progress{w: &buf, on: true, start: now, now: func() time.Time { return now }}
@@ -542,9 +482,7 @@ func TestProgress(t *testing.T) {
 	p.Step() // last step: always drawn
 	p.done()
 	want := "\rprint: PDF pages 2/3\rprint: PDF pages 3/3\r                    \r"
-	if buf.String() != want {
-		t.Errorf("progress wrote %q, want %q", buf.String(), want)
-	}
+	assert.Equal(t, want, buf.String(), "progress wrote %q, want %q", buf.String(), want)
 }
 
 // equalJSON compares two values by their JSON.

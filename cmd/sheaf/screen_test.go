@@ -19,6 +19,9 @@ import (
 	"strings"
 	"testing"
 
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
+
 	"sheaf/render/feature"
 	"sheaf/render/tooltest"
 )
@@ -28,9 +31,7 @@ import (
 func screenSpec(t testing.TB, terms int, outputs, inserts string) string {
 	t.Helper()
 	data, err := filepath.Abs("../../examples/quillmere/data")
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	spec := fmt.Sprintf(`title: Screen test
 dek: Invented terms from the demo data, for the screen tests.
 source: "Source: invented demonstration data."
@@ -46,9 +47,7 @@ outputs:
 %s
 %s`, filepath.Join(data, "counts.csv"), filepath.Join(data, "totals.csv"), terms, outputs, inserts)
 	path := filepath.Join(t.TempDir(), "spec.yaml")
-	if err := os.WriteFile(path, []byte(spec), 0o644); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, os.WriteFile(path, []byte(spec), 0o644))
 	return path
 }
 
@@ -67,9 +66,7 @@ func TestReflowColumns(t *testing.T) {
     trim: 1200px
 `, "")
 	j, err := feature.Load(path)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	for _, c := range []struct {
 		name    string
 		columns int
@@ -81,18 +78,11 @@ func TestReflowColumns(t *testing.T) {
 		{"desk", 6, 14},
 	} {
 		p, err := j.Prepare(j.Spec.Output(c.name))
-		if err != nil {
-			t.Fatal(err)
-		}
-		if p.Plan.Columns != c.columns {
-			t.Errorf("%s: %d columns, want %d", c.name, p.Plan.Columns, c.columns)
-		}
-		if got := p.Spec.Type.Label.Px(); math.Abs(got-c.label) > 1e-9 {
-			t.Errorf("%s: label size %v px, want %v", c.name, got, c.label)
-		}
-		if p.Plan.Flow != "scroll" || len(p.Plan.Pages) != 1 {
-			t.Errorf("%s: flow %q with %d pages; a width alone scrolls on one page", c.name, p.Plan.Flow, len(p.Plan.Pages))
-		}
+		require.NoError(t, err)
+		assert.Equal(t, c.columns, p.Plan.Columns, "%s: %d columns, want %d", c.name, p.Plan.Columns, c.columns)
+		assert.InDelta(t, c.label, p.Spec.Type.Label.Px(), 1e-9, "%s: label size, px", c.name)
+		assert.EqualValues(t, "scroll", p.Plan.Flow, "%s: a width alone scrolls", c.name)
+		assert.Len(t, p.Plan.Pages, 1, "%s: a width alone scrolls on one page", c.name)
 	}
 }
 
@@ -126,9 +116,7 @@ const screenInserts = `inserts:
 func buildTo(t testing.TB, spec, dir string) []string {
 	t.Helper()
 	var out, errb bytes.Buffer
-	if code := run([]string{"build", spec, "--out", dir, "--quiet"}, &out, &errb); code != exitOK {
-		t.Fatalf("build exit %d:\n%s", code, errb.String())
-	}
+	require.Equal(t, exitOK, run([]string{"build", spec, "--out", dir, "--quiet"}, &out, &errb), errb.String())
 	return strings.Fields(out.String())
 }
 
@@ -157,14 +145,10 @@ func TestScreenBuild(t *testing.T) {
 		"tall/spread-001.svg", "tall/spread-002.svg",
 		"inserts/one.svg", "inserts/four.svg", "inserts/four.png", "inserts/four@2x.png", "inserts/column.pdf",
 	} {
-		if !has[want] {
-			t.Errorf("%s not written; wrote %d files", want, len(files))
-		}
+		assert.True(t, has[want], "%s not written; wrote %d files", want, len(files))
 	}
 	panels, _ := filepath.Glob(filepath.Join(dir, "web", "panels", "*.svg"))
-	if len(panels) != 30 {
-		t.Errorf("%d panel files, want 30 (one per term)", len(panels))
-	}
+	assert.Equal(t, 30, len(panels), "%d panel files, want 30 (one per term)", len(panels))
 
 	// Every SVG parses as XML (encoding/xml), has px sizes matching its
 	// viewBox, one titled group per panel it shows.
@@ -172,47 +156,31 @@ func TestScreenBuild(t *testing.T) {
 	svgs = append(svgs, panels...)
 	for _, f := range svgs {
 		b, err := os.ReadFile(f)
-		if err != nil {
-			t.Fatal(err)
-		}
-		if err := wellFormed(b); err != nil {
-			t.Errorf("%s: %v", f, err)
-		}
+		require.NoError(t, err)
+		assert.NoError(t, wellFormed(b), f)
 		m := regexp.MustCompile(`^<svg [^>]*width="([\d.]+)" height="([\d.]+)" viewBox="0 0 ([\d.]+) ([\d.]+)"`).FindSubmatch(b)
-		if m == nil || string(m[1]) != string(m[3]) || string(m[2]) != string(m[4]) {
-			t.Errorf("%s: width/height and viewBox disagree", f)
+		if assert.NotNil(t, m, "%s: no width, height and viewBox", f) {
+			assert.Equal(t, string(m[1]), string(m[3]), "%s: width and viewBox width", f)
+			assert.Equal(t, string(m[2]), string(m[4]), "%s: height and viewBox height", f)
 		}
 	}
 	web, _ := os.ReadFile(filepath.Join(dir, "web", "page-001.svg"))
-	if n := bytes.Count(web, []byte(`role="img"><title>`)); n != 30 {
-		t.Errorf("scroll page has %d titled panel groups, want 30", n)
-	}
-	if !bytes.Contains(web, []byte(`<title id="doc-title">Screen test</title>`)) {
-		t.Error("scroll page lacks the document title")
-	}
+	assert.Equal(t, 30, bytes.Count(web, []byte(`role="img"><title>`)), "titled panel groups on the scroll page")
+	assert.Contains(t, string(web), `<title id="doc-title">Screen test</title>`, "the scroll page's document title")
 	// 1200 px wide (CSS Values and Units L3: 1 px = 0.75 pt, 900 pt).
-	if !bytes.HasPrefix(web, []byte(`<svg xmlns="http://www.w3.org/2000/svg" width="1200" `)) {
-		t.Errorf("scroll page is not 1200 px wide: %.120s", web)
-	}
+	assert.True(t, bytes.HasPrefix(web, []byte(`<svg xmlns="http://www.w3.org/2000/svg" width="1200" `)), "scroll page is not 1200 px wide: %.120s", web)
 	png1 := tooltest.ReadPNG(t, filepath.Join(dir, "tall", "page-001.png"))
 	png2 := tooltest.ReadPNG(t, filepath.Join(dir, "tall", "page-001@2x.png"))
-	if png1.Bounds().Size() != image.Pt(900, 700) || png2.Bounds().Size() != image.Pt(1800, 1400) {
-		t.Errorf("PNG sizes %v and %v, want 900×700 at 1× (96 dpi) and 1800×1400 at 2×", png1.Bounds().Size(), png2.Bounds().Size())
-	}
+	assert.Equal(t, image.Pt(900, 700), png1.Bounds().Size(), "1× (96 dpi)")
+	assert.Equal(t, image.Pt(1800, 1400), png2.Bounds().Size(), "2× (192 dpi)")
 	// Page 1 is a right-hand page alone; pages 2 and 3 face each other on
 	// one 1800 px sheet, both pages' panels in it.
 	spread, _ := os.ReadFile(filepath.Join(dir, "tall", "spread-002.svg"))
-	if !bytes.Contains(spread, []byte(`width="1800" height="700"`)) {
-		t.Errorf("spread 2 is not two 900 × 700 px pages side by side: %.160s", spread)
-	}
+	assert.Contains(t, string(spread), `width="1800" height="700"`, "spread 2: two 900 × 700 px pages side by side")
 	index, _ := os.ReadFile(filepath.Join(dir, "tall", "index.html"))
-	if !bytes.Contains(index, []byte(`<img src="spread-002.svg" width="1800" height="700"`)) {
-		t.Error("the proof page of a spreads output should show the spreads")
-	}
+	assert.Contains(t, string(index), `<img src="spread-002.svg" width="1800" height="700"`, "the proof page of a spreads output shows the spreads")
 	tall, _ := os.ReadFile(filepath.Join(dir, "tall", "page-001.svg"))
-	if !bytes.Contains(tall, []byte("@font-face{font-family:\"sheaf-subset-")) {
-		t.Error("fonts.embed: true should embed the font subset")
-	}
+	assert.Contains(t, string(tall), "@font-face{font-family:\"sheaf-subset-", "fonts.embed: true embeds the font subset")
 
 	// Determinism: a second build into another folder is byte-identical.
 	dir2 := t.TempDir()
@@ -221,9 +189,8 @@ func TestScreenBuild(t *testing.T) {
 		rel, _ := filepath.Rel(dir, f)
 		a, _ := os.ReadFile(f)
 		b, err := os.ReadFile(filepath.Join(dir2, rel))
-		if err != nil || !bytes.Equal(a, b) {
-			t.Errorf("%s differs between two builds", rel)
-		}
+		assert.NoError(t, err, rel)
+		assert.Equal(t, a, b, "%s differs between two builds", rel)
 	}
 
 	// librsvg (rsvg-convert, Debian librsvg2-bin) renders every SVG.
@@ -234,9 +201,8 @@ func TestScreenBuild(t *testing.T) {
 			break // a dozen panel files are enough
 		}
 		out, err := exec.Command(rsvg, "-o", filepath.Join(t.TempDir(), "x.png"), f).CombinedOutput()
-		if err != nil || len(out) > 0 {
-			t.Errorf("rsvg-convert %s: %v\n%s", f, err, out)
-		}
+		assert.NoError(t, err, "rsvg-convert %s: %s", f, out)
+		assert.Empty(t, out, "rsvg-convert %s", f)
 	}
 }
 
@@ -281,20 +247,15 @@ func TestChromiumMatchesPNG(t *testing.T) {
 		"--disable-component-update", "--disable-sync", "--no-first-run", "--user-data-dir="+t.TempDir(),
 		"--hide-scrollbars", "--force-device-scale-factor=1", "--window-size=900,700",
 		"--screenshot="+shot, "file://"+index)
-	if out, err := cmd.CombinedOutput(); err != nil {
-		t.Fatalf("chromium: %v\n%s", err, out)
-	}
+	out, err := cmd.CombinedOutput()
+	require.NoError(t, err, "chromium: %s", out)
 	theirs := tooltest.ReadPNG(t, shot)
 	ours := tooltest.ReadPNG(t, filepath.Join(dir, "web", "page-001.png"))
-	if theirs.Bounds().Size() != ours.Bounds().Size() {
-		t.Fatalf("screenshot %v, our PNG %v", theirs.Bounds().Size(), ours.Bounds().Size())
-	}
+	require.Equal(t, ours.Bounds().Size(), theirs.Bounds().Size(), "screenshot %v, our PNG %v", theirs.Bounds().Size(), ours.Bounds().Size())
 	mean, strong := tooltest.CompareImages(ours, theirs, 64)
 	t.Logf("Chromium vs our PNG: mean channel difference %.2f, strongly different pixels %.2f%%", mean, strong*100)
-	if mean > chromeMeanLimit || strong > chromeStrongLimit {
-		t.Errorf("Chromium's rendering differs from our PNG: mean %.2f (limit %.1f), strong %.2f%% (limit %.1f%%)",
-			mean, chromeMeanLimit, strong*100, chromeStrongLimit*100)
-	}
+	assert.LessOrEqual(t, mean, chromeMeanLimit, "mean channel difference from Chromium's rendering")
+	assert.LessOrEqual(t, strong, chromeStrongLimit, "share of strongly different pixels")
 	// Per panel: a panel drawn in the wrong place or with a wrong curve
 	// stands out even when the page mean is small.
 	j, _ := feature.Load(spec)
@@ -306,10 +267,7 @@ func TestChromiumMatchesPNG(t *testing.T) {
 		r := image.Rect(px(pn.Plot.X0), px(pg.Media.H()-pn.Plot.Y1), px(pn.Plot.X1), px(pg.Media.H()-pn.Plot.Y0))
 		_, s := tooltest.CompareImages(tooltest.SubImage(ours, r), tooltest.SubImage(theirs, r), 64)
 		worst = max(worst, s)
-		if s > chromePanelLimit {
-			t.Errorf("panel %q: %.1f%% of its plot's pixels differ strongly from Chromium's (limit %.1f%%)",
-				p.Feature.Data.Series[pn.Item].Term, s*100, chromePanelLimit*100)
-		}
+		assert.LessOrEqual(t, s, chromePanelLimit, "panel %q: share of its plot's pixels that differ strongly from Chromium's", p.Feature.Data.Series[pn.Item].Term)
 	}
 	t.Logf("worst panel: %.2f%% strongly different pixels", worst*100)
 }
@@ -336,8 +294,7 @@ func TestInsertBadInput(t *testing.T) {
 		line := strings.Count(string(b[:bytes.Index(b, []byte("  x:"))]), "\n") + 1
 		var out, errb bytes.Buffer
 		code := run([]string{"build", spec, "--out", t.TempDir(), "--quiet"}, &out, &errb)
-		if code == exitOK || !strings.Contains(errb.String(), fmt.Sprintf(c.want, line)) {
-			t.Errorf("exit %d, stderr:\n%s\nwant it to contain %q", code, errb.String(), fmt.Sprintf(c.want, line))
-		}
+		assert.NotEqual(t, exitOK, code)
+		assert.Contains(t, errb.String(), fmt.Sprintf(c.want, line))
 	}
 }

@@ -12,6 +12,9 @@ import (
 	"strings"
 	"testing"
 
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
+
 	"sheaf/render/feature"
 	"sheaf/render/tooltest"
 	"sheaf/specs"
@@ -33,17 +36,11 @@ func TestScreenScrollGroups(t *testing.T) {
     flow: scroll-groups
 `, "")
 	b, err := os.ReadFile(path)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	b = bytes.Replace(b, []byte("order: peak-year\n"), []byte("order: peak-year\ngroup: peak-decade\n"), 1)
-	if err := os.WriteFile(path, b, 0o644); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, os.WriteFile(path, b, 0o644))
 	j, err := feature.Load(path)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	var counts []int // panels of each group that has some, in order
 	var heads []string
 	for _, g := range j.Data.Groups {
@@ -52,99 +49,65 @@ func TestScreenScrollGroups(t *testing.T) {
 			heads = append(heads, g.Heading)
 		}
 	}
-	if len(counts) < 3 {
-		t.Fatalf("the demo's top 24 terms fall in %d peak decades; the test needs 3 or more", len(counts))
-	}
+	require.GreaterOrEqual(t, len(counts), 3, "the demo's top 24 terms fall in this many peak decades; the test needs 3 or more")
 
 	dir := t.TempDir()
 	buildTo(t, path, dir)
 	svgs, _ := filepath.Glob(filepath.Join(dir, "web", "page-*.svg"))
-	if len(svgs) != len(counts) {
-		t.Fatalf("%d SVG pages for %d groups", len(svgs), len(counts))
-	}
+	require.Equal(t, len(counts), len(svgs), "%d SVG pages for %d groups", len(svgs), len(counts))
 	size := regexp.MustCompile(`^<svg [^>]*width="([\d.]+)" height="([\d.]+)" viewBox="0 0 ([\d.]+) ([\d.]+)"`)
 	index, err := os.ReadFile(filepath.Join(dir, "web", "index.html"))
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	heights := map[string]bool{}
 	for i, f := range svgs {
 		name := fmt.Sprintf("page-%03d", i+1)
-		if filepath.Base(f) != name+".svg" {
-			t.Fatalf("page %d is %s", i+1, f)
-		}
+		require.Equal(t, name+".svg", filepath.Base(f), "page %d is %s", i+1, f)
 		b, err := os.ReadFile(f)
-		if err != nil {
-			t.Fatal(err)
-		}
-		if err := wellFormed(b); err != nil {
-			t.Errorf("%s: %v", name, err)
-		}
+		require.NoError(t, err)
+		assert.NoError(t, wellFormed(b), name)
 		m := size.FindSubmatch(b)
-		if m == nil || string(m[1]) != string(m[3]) || string(m[2]) != string(m[4]) {
-			t.Fatalf("%s: width/height and viewBox disagree: %.200s", name, b)
-		}
-		if string(m[1]) != "1200" {
-			t.Errorf("%s is %s px wide, want 1200", name, m[1])
-		}
+		require.NotNil(t, m, "%s: no width, height and viewBox: %.200s", name, b)
+		require.Equal(t, string(m[1]), string(m[3]), "%s: width and viewBox width", name)
+		require.Equal(t, string(m[2]), string(m[4]), "%s: height and viewBox height", name)
+		assert.Equal(t, "1200", string(m[1]), "%s is %s px wide, want 1200", name, m[1])
 		heights[string(m[2])] = true
 		h, _ := strconv.ParseFloat(string(m[2]), 64)
-		if n := bytes.Count(b, []byte(`role="img"><title>`)); n != counts[i] {
-			t.Errorf("%s shows %d panels; its group %q has %d", name, n, heads[i], counts[i])
-		}
+		assert.Equal(t, counts[i], bytes.Count(b, []byte(`role="img"><title>`)), "%s: panels shown, those of its group %q", name, heads[i])
 		// Every page is titled with its group and carries the key; only the
 		// first has the dek.
-		if want := fmt.Sprintf(`<title id="doc-title">Screen test: %s</title>`, heads[i]); !bytes.Contains(b, []byte(want)) {
-			t.Errorf("%s lacks %s", name, want)
-		}
-		for _, s := range [][]byte{[]byte(">Screen test<"), []byte("Source: invented demonstration data.")} {
-			if !bytes.Contains(b, s) {
-				t.Errorf("%s lacks the running head or source %q", name, s)
-			}
+		assert.Contains(t, string(b), fmt.Sprintf(`<title id="doc-title">Screen test: %s</title>`, heads[i]), name)
+		for _, s := range []string{">Screen test<", "Source: invented demonstration data."} {
+			assert.Contains(t, string(b), s, "%s: the running head or source", name)
 		}
 		// The dek is every SVG's <desc>; only the first page also sets it.
-		if n, want := bytes.Count(b, []byte(">Invented terms from the demo data")), 1+btoi(i == 0); n != want {
-			t.Errorf("%s has the dek %d times, want %d", name, n, want)
-		}
+		assert.Equal(t, 1+btoi(i == 0), bytes.Count(b, []byte(">Invented terms from the demo data")), "%s: times the dek is there", name)
 		// PNGs at 1× (96 dpi: one pixel per px) and 2×, the SVG's size
 		// rounded to whole pixels.
 		for k, suffix := range []string{"", "@2x"} {
 			img := tooltest.ReadPNG(t, filepath.Join(dir, "web", name+suffix+".png"))
 			s := float64(k + 1)
-			if w, ht := img.Bounds().Dx(), img.Bounds().Dy(); w != int(1200*s) || math.Abs(float64(ht)-h*s) > 1 {
-				t.Errorf("%s%s.png is %d × %d, want %g × %.2f", name, suffix, w, ht, 1200*s, h*s)
-			}
+			assert.Equal(t, int(1200*s), img.Bounds().Dx(), "%s%s.png width", name, suffix)
+			assert.InDelta(t, h*s, float64(img.Bounds().Dy()), 1, "%s%s.png height", name, suffix)
 		}
-		if !bytes.Contains(index, []byte(fmt.Sprintf(`<img src="%s.svg" width="1200" height="%d"`, name, int(math.Ceil(h-0.05))))) {
-			t.Errorf("the proof page does not show %s at 1200 × %.2f px", name, h)
-		}
+		assert.Contains(t, string(index), fmt.Sprintf(`<img src="%s.svg" width="1200" height="%d"`, name, int(math.Ceil(h-0.05))), "the proof page shows %s at its size", name)
 	}
-	if len(heights) < 2 {
-		t.Errorf("every page is %v px tall; groups of %v panels should differ", heights, counts)
-	}
-	if strings.Count(string(index), "<figure>") != len(counts) {
-		t.Errorf("the proof page shows %d figures, want %d", strings.Count(string(index), "<figure>"), len(counts))
-	}
-	if s := j.Spec.Output("web"); s.Flow != specs.FlowScrollGroups {
-		t.Errorf("flow %q", s.Flow)
-	}
+	assert.GreaterOrEqual(t, len(heights), 2, "pages %v px tall; groups of %v panels should differ", heights, counts)
+	assert.Equal(t, len(counts), strings.Count(string(index), "<figure>"), "figures on the proof page")
+	assert.Equal(t, specs.FlowScrollGroups, j.Spec.Output("web").Flow)
 	var out, errb bytes.Buffer
 	run([]string{"check", path}, &out, &errb)
-	if want := fmt.Sprintf("web: %d scrolling pages, one a group, 1200 × ", len(counts)); !strings.Contains(out.String(), "1200 px wide, scrolling, a page per group") || !strings.Contains(out.String(), want) {
-		t.Errorf("check does not describe the flow (%q):\n%s%s", want, out.String(), errb.String())
-	}
+	assert.Contains(t, out.String(), "1200 px wide, scrolling, a page per group", errb.String())
+	assert.Contains(t, out.String(), fmt.Sprintf("web: %d scrolling pages, one a group, 1200 × ", len(counts)), errb.String())
 	// librsvg (rsvg-convert, Debian librsvg2-bin) draws each page at its
 	// own size.
 	rsvg := tooltest.Require(t, "rsvg-convert", "librsvg2-bin")
 	for _, f := range svgs {
 		png := filepath.Join(t.TempDir(), "x.png")
-		if out, err := exec.Command(rsvg, "-o", png, f).CombinedOutput(); err != nil || len(out) > 0 {
-			t.Errorf("rsvg-convert %s: %v\n%s", f, err, out)
+		out, err := exec.Command(rsvg, "-o", png, f).CombinedOutput()
+		if !assert.NoError(t, err, "rsvg-convert %s: %s", f, out) || !assert.Empty(t, out, "rsvg-convert %s", f) {
 			continue
 		}
-		if img := tooltest.ReadPNG(t, png); img.Bounds().Dx() != 1200 {
-			t.Errorf("librsvg draws %s %d px wide, want 1200", filepath.Base(f), img.Bounds().Dx())
-		}
+		assert.Equal(t, 1200, tooltest.ReadPNG(t, png).Bounds().Dx(), "librsvg's width of %s", filepath.Base(f))
 	}
 }
 

@@ -8,15 +8,17 @@
 package fonts
 
 import (
+	"errors"
 	"fmt"
+	"io"
 	"os"
 	"strings"
 	"sync"
 
+	"github.com/go-fonts/dejavu/dejavusanscondensed"
+	"github.com/go-fonts/dejavu/dejavusanscondensedbold"
+	"github.com/go-fonts/dejavu/dejavusanscondensedoblique"
 	"github.com/tdewolff/canvas"
-	"golang.org/x/image/font/gofont/gobold"
-	"golang.org/x/image/font/gofont/goitalic"
-	"golang.org/x/image/font/gofont/goregular"
 
 	"sheaf/specs"
 )
@@ -32,6 +34,10 @@ const (
 	Regular Style = iota
 	Bold
 	Italic
+	// Figures is the regular face shaped with tabular lining figures
+	// (OpenType lnum and tnum), for tick labels and columns of numbers;
+	// in a face without those features it is the regular face.
+	Figures
 	numStyles
 )
 
@@ -43,6 +49,8 @@ func (s Style) String() string {
 		return "bold"
 	case Italic:
 		return "italic"
+	case Figures:
+		return "figures"
 	}
 	return fmt.Sprintf("Style(%d)", int(s))
 }
@@ -66,8 +74,10 @@ func (s *Style) UnmarshalText(b []byte) error {
 // parsed fonts.
 type Set struct {
 	raw   [numStyles][]byte
-	path  [numStyles]string // resolved path; "" for a built-in Go font
+	path  [numStyles]string // resolved path; "" for a built-in face
+	face  [numStyles]int    // index of the face in a collection
 	fonts [numStyles]*canvas.Font
+	emb   [numStyles]Embedding
 
 	// The shaper behind canvas.FontFace.TextWidth is not documented as safe
 	// for concurrent use, so measuring goes through one lock per Set.
@@ -93,70 +103,154 @@ type widthKey struct {
 // maxCached bounds the width cache; past it, widths are measured afresh.
 const maxCached = 1 << 14
 
-// Load returns the fonts of out: the TTF/OTF files named in out.Fonts,
-// resolved against the spec's folder, or the Go fonts embedded in the binary
-// where a path is empty. The italic face is Go Italic when the regular face
-// is built in; with a custom regular face it is that face (the spec names
-// no italic file).
+// Load returns the fonts of out: the font files named in out.Fonts
+// (TrueType or OpenType with TrueType or CFF outlines, single fonts or
+// collections with the face the spec picks), resolved against the spec's
+// folder, or the built-in DejaVu Sans Condensed faces where a path is
+// empty. The italic face is DejaVu Sans Condensed Oblique when the regular
+// face is built in; with a custom regular face it is that face (the spec
+// names no italic file).
+//
+// A face whose licence (OS/2 fsType) forbids embedding is an error for an
+// output that embeds its fonts: every print output, and a screen output
+// with fonts.embed. Errors name the spec's place of the font.
 func Load(spec *specs.Spec, out *specs.Output) (*Set, error) {
 	if spec == nil || out == nil {
 		return nil, fmt.Errorf("fonts: Load needs a spec and an output")
 	}
 	s := &Set{}
-	load := func(st Style, written, key string, builtin []byte) error {
+	embeds := out.Kind == specs.Print || out.Fonts.Embed
+	load := func(st Style, written string, ref specs.FaceRef, key string, builtin []byte) error {
 		if written == "" {
-			return s.set(st, builtin, "")
+			return s.set(st, builtin, "", 0)
 		}
 		resolved := spec.Resolve(written)
 		where := fmt.Sprintf("%s: output %q: fonts.%s", spec.Where("outputs."+out.Name+".fonts."+key), out.Name, key)
-		b, err := os.ReadFile(resolved)
+		b, err := readFont(resolved)
 		if err != nil {
 			return fmt.Errorf("%s: cannot read font %q (resolved to %q): %w", where, written, resolved, err)
 		}
-		if err := s.set(st, b, resolved); err != nil {
+		face, err := pickFace(b, ref)
+		if err == nil {
+			b, err = extractFace(b, face)
+		}
+		if err != nil {
+			var fe *FaceError
+			if errors.As(err, &fe) {
+				where = fmt.Sprintf("%s: output %q: fonts.%s.face", spec.Where("outputs."+out.Name+".fonts."+key+".face"), out.Name, key)
+				return fmt.Errorf("%s: %q (resolved to %q): %w", where, written, resolved, err)
+			}
 			return fmt.Errorf("%s: %q (resolved to %q) is not a usable TrueType/OpenType font: %w", where, written, resolved, err)
+		}
+		if err := s.set(st, b, resolved, 0); err != nil {
+			return fmt.Errorf("%s: %q (resolved to %q) is not a usable TrueType/OpenType font: %w", where, written, resolved, err)
+		}
+		s.face[st] = face
+		if why := s.emb[st].Licence.Refusal(); why != "" && embeds {
+			return fmt.Errorf("%s: font %q (%s, resolved to %q): %s; output %q embeds its fonts (%s); choose another font or one licensed for embedding",
+				where, s.fonts[st].Name(), written, resolved, why, out.Name, embedsWhy(out))
 		}
 		return nil
 	}
-	if err := load(Regular, out.Fonts.Regular, "regular", goregular.TTF); err != nil {
+	if err := load(Regular, out.Fonts.Regular, out.Fonts.RegularFace, "regular", dejavusanscondensed.TTF); err != nil {
 		return nil, err
 	}
-	if err := load(Bold, out.Fonts.Bold, "bold", gobold.TTF); err != nil {
+	if err := load(Bold, out.Fonts.Bold, out.Fonts.BoldFace, "bold", dejavusanscondensedbold.TTF); err != nil {
 		return nil, err
 	}
 	if out.Fonts.Regular == "" {
-		if err := s.set(Italic, goitalic.TTF, ""); err != nil {
+		if err := s.set(Italic, dejavusanscondensedoblique.TTF, "", 0); err != nil {
 			return nil, err
 		}
 	} else {
-		s.raw[Italic], s.path[Italic], s.fonts[Italic] = s.raw[Regular], s.path[Regular], s.fonts[Regular]
+		s.raw[Italic], s.path[Italic], s.face[Italic], s.fonts[Italic], s.emb[Italic] =
+			s.raw[Regular], s.path[Regular], s.face[Regular], s.fonts[Regular], s.emb[Regular]
 	}
+	// The same bytes parsed again: canvas keeps features per font.
+	if err := s.set(Figures, s.raw[Regular], s.path[Regular], 0); err != nil {
+		return nil, err
+	}
+	s.face[Figures] = s.face[Regular]
+	s.fonts[Figures].SetFeatures(figureFeatures)
 	return s, nil
 }
 
-// Default returns a Set of the built-in Go fonts.
+func embedsWhy(out *specs.Output) string {
+	if out.Kind == specs.Print {
+		return "a print PDF carries its fonts"
+	}
+	return "fonts.embed is on"
+}
+
+// maxFontFile bounds the font files read: the largest CJK collections
+// are a few tens of megabytes.
+const maxFontFile = 256 << 20
+
+func readFont(path string) ([]byte, error) {
+	f, err := os.Open(path)
+	if err != nil {
+		return nil, err
+	}
+	defer f.Close()
+	b, err := io.ReadAll(io.LimitReader(f, maxFontFile+1))
+	if err != nil {
+		return nil, err
+	}
+	if len(b) > maxFontFile {
+		return nil, fmt.Errorf("file is larger than %d MB", maxFontFile>>20)
+	}
+	return b, nil
+}
+
+// Default returns a Set of the built-in faces (DejaVu Sans Condensed).
 func Default() (*Set, error) {
 	return Load(&specs.Spec{}, &specs.Output{})
 }
 
-// set parses b. Font files come from users, so a panic inside the parser is
-// turned into an error rather than taking the program down.
-func (s *Set) set(st Style, b []byte, path string) (err error) {
+// features are the OpenType features every face is shaped with: lining
+// figures (lnum), so years and counts stand on the baseline at cap height
+// in faces whose default figures are old-style. Faces without the feature
+// keep their own figures.
+const features = "lnum"
+
+// figureFeatures add tabular figures (tnum): every digit one advance
+// wide, so numbers in a column or under ticks line up.
+const figureFeatures = "lnum,tnum"
+
+// set parses face i of b. Font files come from users, so a panic inside
+// the parser is turned into an error rather than taking the program down.
+func (s *Set) set(st Style, b []byte, path string, face int) (err error) {
 	defer func() {
 		if r := recover(); r != nil {
 			err = fmt.Errorf("font parser failed: %v", r)
 		}
 	}()
-	f, err := canvas.LoadFont(b, 0, canvas.FontRegular)
+	f, err := canvas.LoadFont(b, face, canvas.FontRegular)
 	if err != nil {
 		return err
 	}
 	if f.Head == nil || f.Head.UnitsPerEm == 0 {
 		return fmt.Errorf("font has no units per em")
 	}
-	s.raw[st], s.path[st], s.fonts[st] = b, path, f
+	if f.Hmtx == nil || f.Maxp == nil || f.NumGlyphs() == 0 {
+		return fmt.Errorf("font has no glyphs or no horizontal metrics")
+	}
+	emb, err := embeddingOf(f.SFNT)
+	if err != nil {
+		return err
+	}
+	f.SetFeatures(features)
+	s.raw[st], s.path[st], s.face[st], s.fonts[st], s.emb[st] = b, path, face, f, emb
 	return nil
 }
+
+// Embedding returns how the face for st goes into a document: its outline
+// format, whether it is drawn as outlines and why, and its licence.
+func (s *Set) Embedding(st Style) Embedding { return s.emb[s.valid(st)] }
+
+// FaceIndex returns the index of the face for st within its file (0 for
+// a single font).
+func (s *Set) FaceIndex(st Style) int { return s.face[s.valid(st)] }
 
 // Regular returns the raw bytes of the regular font file, for embedding.
 func (s *Set) Regular() []byte { return s.raw[Regular] }
@@ -171,7 +265,7 @@ func (s *Set) Italic() []byte { return s.raw[Italic] }
 func (s *Set) Bytes(st Style) []byte { return s.raw[s.valid(st)] }
 
 // Path returns the resolved file path of the font for st, or "" for a
-// built-in Go font.
+// built-in face.
 func (s *Set) Path(st Style) string { return s.path[s.valid(st)] }
 
 // Font returns the parsed canvas font for st.

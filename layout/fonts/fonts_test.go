@@ -1,6 +1,7 @@
 package fonts
 
 import (
+	"bytes"
 	"errors"
 	"math"
 	"os"
@@ -9,6 +10,9 @@ import (
 	"sync"
 	"testing"
 
+	"github.com/go-fonts/dejavu/dejavusanscondensed"
+	"github.com/go-fonts/dejavu/dejavusanscondensedbold"
+	"github.com/stretchr/testify/assert"
 	"golang.org/x/image/font"
 	"golang.org/x/image/font/gofont/gobold"
 	"golang.org/x/image/font/gofont/goregular"
@@ -63,8 +67,26 @@ func refWidth(t *testing.T, ttf []byte, size float64, text string) float64 {
 	return float64(sum) / 64 / float64(upem) * size
 }
 
+// goSet loads the Go fonts from files, as a spec naming them would: the
+// reference widths below were checked on them.
+func goSet(t *testing.T) *Set {
+	t.Helper()
+	dir := t.TempDir()
+	for name, b := range map[string][]byte{"Go-Regular.ttf": goregular.TTF, "Go-Bold.ttf": gobold.TTF} {
+		if err := os.WriteFile(filepath.Join(dir, name), b, 0o644); err != nil {
+			t.Fatal(err)
+		}
+	}
+	spec := &specs.Spec{File: filepath.Join(dir, "feature.yaml"), Dir: dir}
+	s, err := Load(spec, &specs.Output{Name: "print", Fonts: specs.Fonts{Regular: "Go-Regular.ttf", Bold: "Go-Bold.ttf"}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	return s
+}
+
 func TestWidthAgainstSfnt(t *testing.T) {
-	s := mustDefault(t)
+	s := goSet(t)
 	// Reference: golang.org/x/image/font/sfnt (general-purpose library),
 	// Go fonts v2.008 as embedded in golang.org/x/image/font/gofont.
 	tests := []struct {
@@ -118,9 +140,32 @@ func TestMetricsGoRegular(t *testing.T) {
 	size := 10.0
 	wantAsc := float64(fm.Ascent) / 64 / upem * size
 	wantDesc := float64(fm.Descent) / 64 / upem * size
-	m := mustDefault(t).Metrics(Regular, size)
+	m := goSet(t).Metrics(Regular, size)
 	if math.Abs(m.Ascent-wantAsc) > 1e-6 || math.Abs(m.Descent-wantDesc) > 1e-6 {
 		t.Errorf("metrics %+v, sfnt ascent %.6f descent %.6f", m, wantAsc, wantDesc)
+	}
+}
+
+func TestMetricsDefaultFace(t *testing.T) {
+	// The default face's vertical metrics, read with
+	// golang.org/x/image/font/sfnt (an independent reader).
+	f, err := sfnt.Parse(dejavusanscondensed.TTF)
+	if err != nil {
+		t.Fatal(err)
+	}
+	var b sfnt.Buffer
+	fm, err := f.Metrics(&b, fixed.I(int(f.UnitsPerEm())), font.HintingNone)
+	if err != nil {
+		t.Fatal(err)
+	}
+	upem := float64(f.UnitsPerEm())
+	size := 7.0
+	m := mustDefault(t).Metrics(Regular, size)
+	if want := float64(fm.Ascent) / 64 / upem * size; math.Abs(m.Ascent-want) > 1e-6 {
+		t.Errorf("ascent %.6f, sfnt says %.6f", m.Ascent, want)
+	}
+	if want := float64(fm.Descent) / 64 / upem * size; math.Abs(m.Descent-want) > 1e-6 {
+		t.Errorf("descent %.6f, sfnt says %.6f", m.Descent, want)
 	}
 }
 
@@ -207,11 +252,15 @@ func TestLoadFiles(t *testing.T) {
 	}
 }
 
-func TestDefaultBytesAreGoFonts(t *testing.T) {
+func TestDefaultBytesAreDejaVuSansCondensed(t *testing.T) {
 	s := mustDefault(t)
-	if len(s.Regular()) != len(goregular.TTF) || len(s.Bold()) != len(gobold.TTF) || len(s.Italic()) == 0 {
-		t.Error("default set does not hold the Go fonts")
+	if !bytes.Equal(s.Regular(), dejavusanscondensed.TTF) || !bytes.Equal(s.Bold(), dejavusanscondensedbold.TTF) || len(s.Italic()) == 0 {
+		t.Error("default set does not hold DejaVu Sans Condensed")
 	}
+	// Full names (name ID 4) as the DejaVu 2.37 files in
+	// github.com/go-fonts/dejavu v0.3.2 carry them.
+	assert.Equal(t, "DejaVuSansCondensed", s.Name(Regular))
+	assert.Equal(t, "DejaVuSansCondensed-Bold", s.Name(Bold))
 	if s.Name(Bold) == s.Name(Regular) {
 		t.Errorf("bold and regular share the name %q", s.Name(Bold))
 	}

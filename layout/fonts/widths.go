@@ -15,7 +15,7 @@ import (
 
 // widthsMagic starts a widths file. Change the version whenever Width
 // measures differently, so that old files are refused.
-const widthsMagic = "sheaf text widths v1\n"
+const widthsMagic = "sheaf text widths v2\n"
 
 // maxWidthsFile bounds what LoadWidths reads: a full cache of long
 // strings is well under it.
@@ -144,7 +144,9 @@ func (s *Set) identity() [sha256.Size]byte {
 	for st := Style(0); st < numStyles; st++ {
 		sum := sha256.Sum256(s.raw[st])
 		h.Write(sum[:])
+		fmt.Fprintf(h, "face %d\n", s.face[st])
 	}
+	h.Write([]byte(features + "\n" + figureFeatures + "\n"))
 	if bi, ok := debug.ReadBuildInfo(); ok {
 		for _, d := range bi.Deps {
 			if strings.HasPrefix(d.Path, "github.com/tdewolff/") || strings.HasPrefix(d.Path, "github.com/go-text/") {

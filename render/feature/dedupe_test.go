@@ -3,6 +3,9 @@ package feature
 import (
 	"testing"
 
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
+
 	"sheaf/render/preflight"
 )
 
@@ -18,13 +21,22 @@ func TestDedupeData(t *testing.T) {
 		{ID: preflight.IDSpike, Output: "web", Page: 1, Term: "tool", Year: 1924, Message: "n"},
 	}
 	got := dedupeData(in)
-	if len(got) != 4 {
-		t.Fatalf("%d findings, want 4: %v", len(got), got)
+	require.Len(t, got, 4)
+	assert.Equal(t, "m; also web p. 1", got[0].Message, "the first spike names the other place")
+	assert.Equal(t, "tool", got[3].Term, "the other spike")
+	assert.Equal(t, "n", got[3].Message, "the other spike")
+}
+
+// TestDedupeSparse: sparse-counts is a fact about a term's data, listed
+// once however many outputs show the term (invented findings).
+func TestDedupeSparse(t *testing.T) {
+	in := []preflight.Finding{
+		{ID: preflight.IDSparse, Output: "print", Page: 3, Term: "rivet", Message: "median 3"},
+		{ID: preflight.IDSparse, Output: "web", Page: 1, Term: "rivet", Message: "median 3"},
+		{ID: preflight.IDSparse, Output: "web", Page: 1, Term: "gear", Message: "median 4"},
 	}
-	if got[0].Message != "m; also web p. 1" {
-		t.Errorf("first spike says %q", got[0].Message)
-	}
-	if got[3].Term != "tool" || got[3].Message != "n" {
-		t.Errorf("other spike %v", got[3])
-	}
+	got := dedupeData(in)
+	require.Len(t, got, 2)
+	assert.Equal(t, "median 3; also web p. 1", got[0].Message)
+	assert.Equal(t, "gear", got[1].Term)
 }

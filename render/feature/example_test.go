@@ -30,7 +30,9 @@ func Example() {
 	}
 	// Output:
 	// print: 1 page(s), 3 panels
+	// review sparse-counts
 	// info palette
+	// info rgb-output
 }
 
 // Summarize is the report `sheaf check --json` prints.

@@ -14,8 +14,10 @@ import (
 	"time"
 
 	"sheaf/layout"
+	"sheaf/layout/bank"
 	"sheaf/layout/fonts"
 	"sheaf/palette"
+	"sheaf/palette/press"
 	"sheaf/render/page"
 	"sheaf/specs"
 	"sheaf/specs/series"
@@ -91,6 +93,9 @@ type Output struct {
 	Fonts   *fonts.Set
 	Plan    *layout.Plan
 	Feature *page.Feature
+	// Press is the printing condition of a print output with a press
+	// profile (spec press); nil: RGB.
+	Press *press.Condition
 }
 
 // Name is the output's name.
@@ -103,7 +108,7 @@ func (j *Job) Prepare(out *specs.Output) (*Output, error) {
 	if err != nil {
 		return nil, specs.BadInput(err)
 	}
-	plan, err := layout.Solve(j.Spec, out, fs, j.Groups())
+	plan, err := bank.Solve(j.Spec, out, fs, j.Groups(), j.Data) // layout.Solve, banking the aspect when asked
 	if err != nil {
 		return nil, specs.BadInput(err)
 	}
@@ -111,7 +116,11 @@ func (j *Job) Prepare(out *specs.Output) (*Output, error) {
 	if err != nil {
 		return nil, err
 	}
-	return &Output{Spec: out, Fonts: fs, Plan: plan,
+	cond, err := press.ForOutput(j.Spec, out)
+	if err != nil {
+		return nil, specs.BadInput(err)
+	}
+	return &Output{Spec: out, Fonts: fs, Plan: plan, Press: cond,
 		Feature: page.NewFeature(j.Spec, out, plan, j.Data, sc, fs)}, nil
 }
 

@@ -1,6 +1,8 @@
 package feature
 
 import (
+	"sheaf/palette/press"
+
 	"errors"
 	"fmt"
 
@@ -15,6 +17,9 @@ type Insert struct {
 	Spec    *specs.Insert
 	Output  *specs.Output // the output whose kind, fonts and type it borrows
 	Graphic *insert.Graphic
+	// Press is the borrowed print output's printing condition (nil: RGB):
+	// a print insert is converted as the feature's pages are.
+	Press *press.Condition
 }
 
 // Name is the insert's name.
@@ -44,7 +49,11 @@ func (j *Job) PrepareInsert(in *specs.Insert) (*Insert, error) {
 	if err != nil {
 		return nil, specs.BadInput(err)
 	}
-	return &Insert{Spec: in, Output: out, Graphic: g}, nil
+	cond, err := press.ForOutput(j.Spec, out)
+	if err != nil {
+		return nil, specs.BadInput(err)
+	}
+	return &Insert{Spec: in, Output: out, Graphic: g, Press: cond}, nil
 }
 
 // PrepareInserts lays out every insert of the spec, in the spec's order.

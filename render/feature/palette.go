@@ -4,6 +4,7 @@ import (
 	"fmt"
 
 	"sheaf/palette"
+	"sheaf/palette/press"
 	"sheaf/render/page"
 	"sheaf/specs"
 )
@@ -14,6 +15,11 @@ type PaletteCheck struct {
 	Output string
 	Scale  palette.Scale
 	Report palette.Report
+	// Press is the output's printing condition (nil: none) and PressRows
+	// the report's rows as that press prints them.
+	Press     *press.Condition
+	PressRows []press.Row
+	MaxShift  float64 // ΔE00 above which a press row moves visibly
 }
 
 // Thresholds turns the spec's palette checks into the palette package's.
@@ -55,7 +61,16 @@ func (j *Job) CheckPalette() ([]PaletteCheck, error) {
 		if err != nil {
 			return nil, specs.BadInput(fmt.Errorf("%s: %v", j.Spec.Where("palette"), err))
 		}
-		out = append(out, PaletteCheck{Output: o.Name, Scale: sc, Report: r})
+		pc := PaletteCheck{Output: o.Name, Scale: sc, Report: r}
+		if o.Kind == specs.Print && o.Press != nil {
+			cond, err := press.ForOutput(j.Spec, &o)
+			if err != nil {
+				return nil, specs.BadInput(err)
+			}
+			pc.Press, pc.MaxShift = cond, o.Press.MaxShift
+			pc.PressRows = cond.Rows(r, o.Press.MaxShift)
+		}
+		out = append(out, pc)
 	}
 	return out, nil
 }

@@ -17,13 +17,7 @@ func (j *Job) Preflight(outs []*Output) ([]preflight.Finding, error) {
 	}
 	var all []preflight.Finding
 	for _, o := range outs {
-		in := preflight.Input{Spec: j.Spec, Output: o.Spec, Plan: o.Plan, Data: j.Data, Fonts: o.Fonts, Labels: o.Feature.Labels()}
-		for i := range pal {
-			if pal[i].Output == o.Spec.Name {
-				in.Palette = &pal[i].Report
-			}
-		}
-		fs, err := preflight.Check(in)
+		fs, err := preflight.Check(j.PreflightInput(o, pal))
 		if err != nil {
 			return nil, specs.BadInput(err)
 		}
@@ -32,8 +26,22 @@ func (j *Job) Preflight(outs []*Output) ([]preflight.Finding, error) {
 	return dedupeData(all), nil
 }
 
+// PreflightInput is what preflight checks for one prepared output, with
+// its palette report from pal (CheckPalette).
+func (j *Job) PreflightInput(o *Output, pal []PaletteCheck) preflight.Input {
+	in := preflight.Input{Spec: j.Spec, Output: o.Spec, Plan: o.Plan, Data: j.Data, Fonts: o.Fonts, Labels: o.Feature.Labels(),
+		Scale: &o.Feature.Palette, Press: o.Press}
+	for i := range pal {
+		if pal[i].Output == o.Spec.Name {
+			in.Palette = &pal[i].Report
+		}
+	}
+	return in
+}
+
 // dedupeData keeps one finding about the data itself (a spike, an empty
-// panel) however many outputs show the term, and says where else it sits.
+// panel, a sparse term) however many outputs show the term, and says
+// where else it sits.
 func dedupeData(fs []preflight.Finding) []preflight.Finding {
 	type key struct {
 		id, term string
@@ -42,7 +50,7 @@ func dedupeData(fs []preflight.Finding) []preflight.Finding {
 	first := map[key]int{}
 	var out []preflight.Finding
 	for _, f := range fs {
-		if f.ID != preflight.IDSpike && f.ID != preflight.IDNoData {
+		if f.ID != preflight.IDSpike && f.ID != preflight.IDNoData && f.ID != preflight.IDSparse {
 			out = append(out, f)
 			continue
 		}

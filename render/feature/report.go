@@ -45,6 +45,11 @@ type ScaleReport struct {
 	Unit   string  `json:"unit"`
 	YRange string  `json:"y_range"`
 	YMax   float64 `json:"y_max"`
+	// RollingYears is the centred window the counts are pooled over
+	// (scale.rolling), and Smoothing says it as the key does ("5-year
+	// rolling share"); both absent without smoothing.
+	RollingYears int    `json:"rolling_years,omitempty"`
+	Smoothing    string `json:"smoothing,omitempty"`
 }
 
 // OutputReport is one output: its size, its plan, the labels that had to
@@ -56,10 +61,25 @@ type OutputReport struct {
 	Bleed    float64        `json:"bleed_pt"`
 	Summary  string         `json:"summary"`
 	Pages    int            `json:"pages"`
+	Band     float64        `json:"band,omitempty"` // the uncertainty band's level (0.95); absent: none
 	Labels   []page.Label   `json:"labels_shortened,omitempty"`
 	Warnings []string       `json:"warnings,omitempty"`
 	Palette  PaletteSummary `json:"palette"`
-	Layout   *layout.Plan   `json:"layout"`
+	// Press is the printing condition of a print output (the PDF is a
+	// CMYK PDF/X-4 for it); absent: the PDF is RGB.
+	Press  *PressReport `json:"press,omitempty"`
+	Layout *layout.Plan `json:"layout"`
+}
+
+// PressReport is an output's printing condition in brief.
+type PressReport struct {
+	Condition string  `json:"condition"` // OutputConditionIdentifier
+	Registry  string  `json:"registry"`
+	Profile   string  `json:"profile"`     // the path as the spec gives it
+	Describes string  `json:"description"` // the profile's own description
+	Space     string  `json:"space"`       // CMYK, GRAY or RGB
+	Intent    string  `json:"intent"`
+	InkLimit  float64 `json:"ink_limit"` // percent
 }
 
 // PaletteSummary is the palette check of one output in brief.
@@ -84,7 +104,8 @@ func (j *Job) Summarize() (Report, error) {
 		r.Terms.List = append(r.Terms.List, sr.Term)
 	}
 	r.Years = YearsReport{From: d.Span.From, To: d.Span.To, Gaps: append([]int{}, d.Gaps...)}
-	r.Scale = ScaleReport{Values: string(s.Scale.Mode), Unit: d.Unit, YRange: string(s.Scale.YRange), YMax: d.YMax}
+	r.Scale = ScaleReport{Values: string(s.Scale.Mode), Unit: d.Unit, YRange: string(s.Scale.YRange), YMax: d.YMax,
+		RollingYears: d.Rolling, Smoothing: d.Note()}
 	pal, err := j.CheckPalette()
 	if err != nil {
 		return r, err
@@ -99,7 +120,7 @@ func (j *Job) Summarize() (Report, error) {
 		outs = append(outs, p)
 		or := OutputReport{Name: o.Name, Kind: string(o.Kind),
 			TrimPt: [2]float64{o.Trim.W.Pt(), o.Trim.H.Pt()}, Bleed: o.Bleed.Pt(),
-			Summary: p.Plan.Summary(), Pages: len(p.Plan.Pages), Layout: p.Plan}
+			Summary: p.Plan.Summary(), Pages: len(p.Plan.Pages), Layout: p.Plan, Band: o.Band}
 		for _, l := range p.Feature.Labels() {
 			if l.Shrunk || l.Truncated || l.NoPeak {
 				or.Labels = append(or.Labels, l)
@@ -112,6 +133,10 @@ func (j *Job) Summarize() (Report, error) {
 		or.Palette = PaletteSummary{Name: pal[i].Scale.Name(), Failed: pc.Failed(), Findings: []string{}}
 		for _, f := range pc.Findings {
 			or.Palette.Findings = append(or.Palette.Findings, f.String())
+		}
+		if c := p.Press; c != nil {
+			or.Press = &PressReport{Condition: c.Identifier, Registry: c.Registry, Profile: o.Press.Profile,
+				Describes: c.Profile.Description, Space: c.Profile.Space.String(), Intent: string(o.Press.Intent), InkLimit: c.InkLimit}
 		}
 		r.Outputs = append(r.Outputs, or)
 	}

@@ -1,10 +1,13 @@
 // Package insert draws an insert: a single graphic of one to four terms,
 // at its own size, for an article page. With two or more terms it is a
-// comparison panel: the terms share both axes (one y-range over all of
-// them), each line keeps the era palette along its length — colour still
-// means time — and the lines are told apart by their stroke (solid,
-// dashed, dotted, dash-dot) and by a label at each line's end. Labels that
-// would collide are moved apart along the y axis by Spread.
+// comparison panel, and every line keeps the era palette along its length
+// — colour still means time. By default the terms stand in aligned rows,
+// one strip per term under one shared x axis and one y-range, named at
+// the left, so each line reads alone and the eye compares heights and
+// years straight down the rows. Overlaid (specs.CompareOverlay) the terms
+// share one plot and are told apart by their stroke (solid, dashed,
+// dotted, dash-dot) and by a label at each line's end; labels that would
+// collide are moved apart along the y axis by Spread.
 //
 // Like the page composer it draws in points with y up, converting to
 // canvas's millimetres at the last moment, so the same drawing goes to
@@ -23,13 +26,14 @@ import (
 	"sheaf/layout/fonts"
 	"sheaf/palette"
 	"sheaf/render/curve"
+	"sheaf/render/draw"
 	"sheaf/render/page"
 	"sheaf/specs"
 	"sheaf/specs/series"
 )
 
 // mm is millimetres per point.
-const mm = 25.4 / 72
+const mm = specs.MmPerPt
 
 // LineStyle is how one term's line is stroked in a comparison.
 type LineStyle struct {
@@ -80,6 +84,19 @@ type Graphic struct {
 	labels []Label
 	m      curve.Map
 	stops  []palette.Stop
+
+	rows      []Row             // aligned rows, top first (rows style only)
+	scaleNote string            // what the values are, above the plot
+	intervals *series.Intervals // the band's intervals; nil: no band
+}
+
+// Row is one term's strip in the aligned-rows style.
+type Row struct {
+	Term     string
+	Plot     rectPt    // the strip: baseline at Y0, the y-range top at Y1
+	Map      curve.Map // years and values to the strip
+	Baseline float64   // of the term label at the left
+	PeakLine float64   // baseline of the "peak YEAR" line under it; 0: none
 }
 
 type rectPt struct{ X0, Y0, X1, Y1 float64 }
@@ -131,6 +148,16 @@ func (g *Graphic) Labels() []Label { return g.labels }
 // YMax is the top of the shared y-range.
 func (g *Graphic) YMax() float64 { return g.yMax }
 
+// Rows returns the strips of the aligned-rows style, top first; nil when
+// the terms are overlaid or alone.
+func (g *Graphic) Rows() []Row { return g.rows }
+
+// Rowed reports whether the insert shows its terms in aligned rows: two or
+// more terms, unless the spec asks for them overlaid.
+func (g *Graphic) Rowed() bool {
+	return len(g.Data.Series) > 1 && g.Insert.Compare != specs.CompareOverlay
+}
+
 func (g *Graphic) leading() float64 {
 	if l := g.Output.Type.Leading; l > 0 {
 		return l
@@ -173,11 +200,23 @@ func (g *Graphic) Describe() (title, desc string) {
 	}
 	var parts, peaks []string
 	for i, sr := range d.Series {
-		parts = append(parts, fmt.Sprintf("%q (%s line)", sr.Term, Styles[i].Name))
+		if g.Rowed() {
+			parts = append(parts, fmt.Sprintf("%q", sr.Term))
+		} else {
+			parts = append(parts, fmt.Sprintf("%q (%s line)", sr.Term, Styles[i].Name))
+		}
 		peaks = append(peaks, fmt.Sprintf("%q in %d", sr.Term, sr.PeakYear))
 	}
-	fmt.Fprintf(&b, "How often %s were used each year, %d–%d, on one scale (%s, 0 to %s). Highest: %s.",
-		listing(parts), d.Span.From, d.Span.To, d.Unit, formatValue(g.yMax), listing(peaks))
+	how := "on one scale"
+	if g.Rowed() {
+		how = "one row each, top to bottom, on one scale"
+	}
+	unit := d.Unit
+	if n := d.Note(); n != "" {
+		unit += ", " + n
+	}
+	fmt.Fprintf(&b, "How often %s were used each year, %d–%d, %s (%s, 0 to %s). Highest: %s.",
+		listing(parts), d.Span.From, d.Span.To, how, unit, formatValue(g.yMax), listing(peaks))
 	return g.Title(), b.String()
 }
 
@@ -223,11 +262,21 @@ func (g *Graphic) layout() error {
 		peak = 1
 	}
 	g.yTicks, g.yMax = niceTicks(peak, 4)
+	// Overlaid bands would hide each other: a band in rows or alone.
+	band := ""
+	if g.Output.Band > 0 && (g.Rowed() || len(g.Data.Series) == 1) {
+		g.intervals = series.NewIntervals(g.Output.Band)
+		band = "tint: " + strconv.FormatFloat(g.Output.Band*100, 'f', -1, 64) + "% interval"
+	}
+	g.scaleNote = g.fitNote(inner, band)
+	if g.Rowed() {
+		return g.layoutRows(top, bottom)
+	}
 
 	// Left: the y labels; right: the line-end labels.
 	left := 0.0
 	for _, v := range g.yTicks {
-		left = math.Max(left, fs.Width(fonts.Regular, ts, formatValue(v)))
+		left = math.Max(left, fs.Width(fonts.Figures, ts, formatValue(v)))
 	}
 	ls := t.Label.Pt()
 	right := 0.0
@@ -291,6 +340,95 @@ func (g *Graphic) layout() error {
 	return nil
 }
 
+// layoutRows places one strip per term between top and bottom: term
+// labels in a column at the left, the shared y-range's top and zero at the
+// right of the first strip, the year ticks under the last.
+func (g *Graphic) layoutRows(top, bottom float64) error {
+	t := g.Output.Type
+	fs := g.Fonts
+	lead := g.leading()
+	ls, ts := t.Label.Pt(), t.Ticks.Pt()
+	left := 0.0
+	for _, sr := range g.Data.Series {
+		left = math.Max(left, fs.Width(fonts.Bold, ls, sr.Term))
+		left = math.Max(left, fs.Width(fonts.Regular, ts, peakText(sr.PeakYear)))
+	}
+	right := 0.0
+	for _, v := range []float64{0, g.yMax} {
+		right = math.Max(right, fs.Width(fonts.Regular, ts, formatValue(v)))
+	}
+	x0 := g.pad + left + ls*0.8
+	x1 := g.w - g.pad - right - ts*0.5
+	y1 := top - ts*lead - ts*0.7 // room for the scale note above
+	n := len(g.Data.Series)
+	gap := math.Max(ls*0.6, (y1-bottom)*0.06)
+	stripH := (y1 - bottom - float64(n-1)*gap) / float64(n)
+	floorW, floorH := 6*ls, 2.2*ls
+	if x1-x0 < floorW || stripH < floorH {
+		needH := math.Max(0, floorH*float64(n)+float64(n-1)*gap-(y1-bottom))
+		return fmt.Errorf("the plot would be %s × %s, %d rows %s tall each; make the insert larger (at least about %s wider and %s taller) or its title shorter",
+			g.Output.Describe(specs.Length(math.Max(x1-x0, 0))), g.Output.Describe(specs.Length(math.Max(y1-bottom, 0))), n,
+			g.Output.Describe(specs.Length(math.Max(stripH, 0))),
+			g.Output.Describe(specs.Length(math.Max(0, floorW-(x1-x0)))), g.Output.Describe(specs.Length(needH)))
+	}
+	g.plot = rectPt{X0: x0, Y0: bottom, X1: x1, Y1: y1}
+	lw := g.Output.Line.Pt()
+	years := g.Data.Years
+	capH := fs.Metrics(fonts.Bold, ls).CapHeight
+	g.rows = nil
+	for i, sr := range g.Data.Series {
+		ry1 := y1 - float64(i)*(stripH+gap)
+		r := rectPt{X0: x0, Y0: ry1 - stripH, X1: x1, Y1: ry1}
+		m, err := curve.NewMap(years[0], years[len(years)-1], 0, g.yMax, x0, x1, r.Y0+lw/2, r.Y1-g.dotRadius())
+		if err != nil {
+			return err
+		}
+		row := Row{Term: sr.Term, Plot: r, Map: m}
+		// The term sits level with the middle of its strip; the peak year
+		// under it when the strip has room for both lines.
+		mid := (r.Y0 + r.Y1) / 2
+		row.Baseline = mid - capH/2
+		if stripH >= ls*lead+ts*lead {
+			row.Baseline = mid + (ls*lead-ts*lead)/2 - capH/2 + ts*lead/2
+			row.PeakLine = row.Baseline - ts*lead - ts*0.1
+		}
+		g.rows = append(g.rows, row)
+	}
+	g.m = g.rows[0].Map // every row maps years alike (colorAt uses it)
+	return nil
+}
+
+// fitNote is the line above the plot that says what the values are: the
+// unit, the smoothing, the band and (in rows) that every row has one
+// scale — the longest of those wordings, dropping parts from the end,
+// that fits width.
+func (g *Graphic) fitNote(width float64, band string) string {
+	ts := g.Output.Type.Ticks.Pt()
+	unit := g.Data.Unit
+	if g.Data.Rolling > 1 {
+		unit += fmt.Sprintf(", %d-year rolling", g.Data.Rolling)
+	}
+	parts := []string{unit}
+	if band != "" {
+		parts = append(parts, band)
+	}
+	if g.Rowed() {
+		parts = append(parts, "the same scale in every row")
+	}
+	for n := len(parts); n > 1; n-- {
+		if note := strings.Join(parts[:n], "; "); g.Fonts.Width(fonts.Regular, ts, note) <= width {
+			return note
+		}
+	}
+	return unit
+}
+
+// dotRadius is the radius of the dot that marks a row's peak, as on the
+// pages: a little wider than the line.
+func (g *Graphic) dotRadius() float64 { return math.Max(g.Output.Line.Pt()*1.1, 1.0) }
+
+func peakText(year int) string { return "peak " + strconv.Itoa(year) }
+
 // sampleLen is the length of the line-style sample before a label: long
 // enough to show a whole dash-dot period.
 func (g *Graphic) sampleLen() float64 {
@@ -346,6 +484,13 @@ func (g *Graphic) Draw(ctx *canvas.Context) error {
 		y -= g.titleS * lead
 	}
 	g.key(ctx)
+	if g.Rowed() {
+		if err := g.drawRows(ctx); err != nil {
+			return err
+		}
+		g.source(ctx)
+		return nil
+	}
 
 	// Grid: a rule at every y tick, labelled on the left.
 	ts := t.Ticks.Pt()
@@ -358,10 +503,10 @@ func (g *Graphic) Draw(ctx *canvas.Context) error {
 		}
 		line(ctx, pr.X0, yy, pr.X1, yy, g.rule, col, nil)
 		mt := fs.Metrics(fonts.Regular, ts)
-		text(ctx, fs, fonts.Regular, ts, inkSoft, pr.X0-ts*0.6, yy-mt.CapHeight/2, canvas.Right, formatValue(v))
+		text(ctx, fs, fonts.Figures, ts, inkSoft, pr.X0-ts*0.6, yy-mt.CapHeight/2, canvas.Right, formatValue(v))
 	}
 	// What the values are, above the y labels.
-	text(ctx, fs, fonts.Regular, ts, inkSoft, g.pad, pr.Y1+ts*1.1, canvas.Left, g.Data.Unit)
+	text(ctx, fs, fonts.Regular, ts, inkSoft, g.pad, pr.Y1+ts*1.1, canvas.Left, g.scaleNote)
 
 	// Year ticks.
 	tick := ts * 0.35
@@ -369,45 +514,27 @@ func (g *Graphic) Draw(ctx *canvas.Context) error {
 	for _, yr := range tickYears(fs, g.Data.Span, pr.W(), ts) {
 		x := g.m.X(float64(yr))
 		line(ctx, x, pr.Y0, x, pr.Y0-tick, g.rule, axisGrey, nil)
-		text(ctx, fs, fonts.Regular, ts, inkSoft, x, base, canvas.Center, strconv.Itoa(yr))
+		text(ctx, fs, fonts.Figures, ts, inkSoft, x, base, canvas.Center, strconv.Itoa(yr))
 	}
 
-	// The lines, first term on top: drawn last.
-	lw := g.Output.Line.Pt()
+	// The lines, first term on top: drawn last; a single term's band
+	// behind its line.
 	var b curve.Builder
+	if g.intervals != nil {
+		if err := g.band(ctx, &b, &g.Data.Series[0], g.m, g.plot.Y0); err != nil {
+			return err
+		}
+	}
 	for i := len(g.Data.Series) - 1; i >= 0; i-- {
-		sr := &g.Data.Series[i]
 		b.Reset()
-		runs, err := b.Build(g.Data.Years, sr.Values, g.m, nil)
-		if err != nil {
-			return fmt.Errorf("insert %q, term %q: %w", g.Insert.Name, sr.Term, err)
-		}
-		path := &canvas.Path{}
-		for _, r := range runs {
-			if r.IsDot() {
-				c := g.colorAt(r.Start.X)
-				circle(ctx, r.Start.X, r.Start.Y, lw/2, c)
-				continue
-			}
-			path.MoveTo(r.Start.X*mm, r.Start.Y*mm)
-			for _, z := range r.Beziers {
-				path.CubeTo(z.P1.X*mm, z.P1.Y*mm, z.P2.X*mm, z.P2.Y*mm, z.P3.X*mm, z.P3.Y*mm)
-			}
-		}
-		if !path.Empty() {
-			ctx.ResetStyle()
-			ctx.SetFillColor(canvas.Transparent)
-			ctx.SetStrokeGradient(g.gradient(pr.X0, pr.X1, pr.Y0))
-			ctx.SetStrokeWidth(lw * mm)
-			ctx.SetStrokeCapper(canvas.RoundCap)
-			ctx.SetStrokeJoiner(canvas.RoundJoin)
-			ctx.SetDashes(0, Styles[i].Dashes...)
-			ctx.DrawPath(0, 0, path)
+		if err := g.stroke(ctx, &b, &g.Data.Series[i], g.m, &Styles[i]); err != nil {
+			return err
 		}
 	}
 
 	// Labels at the line ends, with a leader where a label had to move.
 	ls := t.Label.Pt()
+	lw := g.Output.Line.Pt()
 	sample := g.sampleLen()
 	for _, l := range g.labels {
 		if math.Abs(l.Y-l.EndY) > ls*0.25 {
@@ -417,15 +544,138 @@ func (g *Graphic) Draw(ctx *canvas.Context) error {
 		text(ctx, fs, fonts.Bold, ls, ink, l.X+sample+ls*0.4, l.Baseline, canvas.Left, l.Term)
 	}
 
-	// Source.
-	if g.Spec.Source != "" {
-		ns := t.Notes.Pt()
-		lines := fs.Wrap(fonts.Regular, ns, g.Spec.Source, g.w-2*g.pad)
-		for i, s := range lines {
-			by := g.pad + float64(len(lines)-1-i)*ns*lead + fs.Metrics(fonts.Regular, ns).Descent
-			text(ctx, fs, fonts.Regular, ns, inkSoft, g.pad, by, canvas.Left, s)
+	g.source(ctx)
+	return nil
+}
+
+// source draws the source line at the foot.
+func (g *Graphic) source(ctx *canvas.Context) {
+	if g.Spec.Source == "" {
+		return
+	}
+	fs, lead := g.Fonts, g.leading()
+	ns := g.Output.Type.Notes.Pt()
+	lines := fs.Wrap(fonts.Regular, ns, g.Spec.Source, g.w-2*g.pad)
+	for i, s := range lines {
+		by := g.pad + float64(len(lines)-1-i)*ns*lead + fs.Metrics(fonts.Regular, ns).Descent
+		text(ctx, fs, fonts.Regular, ns, inkSoft, g.pad, by, canvas.Left, s)
+	}
+}
+
+// drawRows draws the aligned rows: faint year rules through every strip
+// (so an event lines up down the rows), each strip's baseline and a faint
+// rule at the shared top, the band, the line in the era palette and its
+// peak dot, the term and its peak year at the left, the scale at the
+// right of the first strip, the year ticks under the last.
+func (g *Graphic) drawRows(ctx *canvas.Context) error {
+	fs := g.Fonts
+	t := g.Output.Type
+	ls, ts := t.Label.Pt(), t.Ticks.Pt()
+	pr := g.plot
+	// What the values are, above the rows, at the left edge.
+	text(ctx, fs, fonts.Regular, ts, inkSoft, g.pad, pr.Y1+ts*1.1, canvas.Left, g.scaleNote)
+	years := tickYears(fs, g.Data.Span, pr.W(), ts)
+	first, last := g.rows[0], g.rows[len(g.rows)-1]
+	for _, yr := range years {
+		x := first.Map.X(float64(yr))
+		line(ctx, x, last.Plot.Y0, x, first.Plot.Y1, g.rule, ruleGrey, nil)
+	}
+	mt := fs.Metrics(fonts.Regular, ts)
+	text(ctx, fs, fonts.Regular, ts, inkSoft, pr.X1+ts*0.5, first.Map.Y(g.yMax)-mt.CapHeight/2, canvas.Left, formatValue(g.yMax))
+	text(ctx, fs, fonts.Regular, ts, inkSoft, pr.X1+ts*0.5, first.Map.Y(0)-mt.CapHeight/2, canvas.Left, "0")
+	var b curve.Builder
+	for i, r := range g.rows {
+		sr := &g.Data.Series[i]
+		line(ctx, r.Plot.X0, r.Map.Y(g.yMax), r.Plot.X1, r.Map.Y(g.yMax), g.rule, ruleGrey, nil)
+		line(ctx, r.Plot.X0, r.Plot.Y0, r.Plot.X1, r.Plot.Y0, g.rule, axisGrey, nil)
+		b.Reset()
+		if g.intervals != nil {
+			if err := g.band(ctx, &b, sr, r.Map, r.Plot.Y0); err != nil {
+				return err
+			}
+		}
+		if err := g.stroke(ctx, &b, sr, r.Map, nil); err != nil {
+			return err
+		}
+		if sr.Peak > 0 {
+			pk := r.Map.Apply(float64(sr.PeakYear), sr.Peak)
+			ctx.ResetStyle()
+			ctx.SetFillColor(g.colorAt(pk.X))
+			ctx.SetStrokeColor(g.Paper())
+			ctx.SetStrokeWidth(g.rule * mm)
+			ctx.DrawPath(pk.X*mm, pk.Y*mm, canvas.Circle(g.dotRadius()*mm))
+		}
+		text(ctx, fs, fonts.Bold, ls, ink, r.Plot.X0-ls*0.8, r.Baseline, canvas.Right, sr.Term)
+		if r.PeakLine != 0 {
+			text(ctx, fs, fonts.Regular, ts, inkSoft, r.Plot.X0-ls*0.8, r.PeakLine, canvas.Right, peakText(sr.PeakYear))
 		}
 	}
+	tick := ts * 0.35
+	base := last.Plot.Y0 - tick - mt.Ascent - ts*0.15
+	for _, yr := range years {
+		x := last.Map.X(float64(yr))
+		line(ctx, x, last.Plot.Y0, x, last.Plot.Y0-tick, g.rule, axisGrey, nil)
+		text(ctx, fs, fonts.Regular, ts, inkSoft, x, base, canvas.Center, strconv.Itoa(yr))
+	}
+	return nil
+}
+
+// band fills a term's uncertainty band through m with a tint of the era
+// palette (as the pages do, page.BandPath).
+func (g *Graphic) band(ctx *canvas.Context, b *curve.Builder, sr *series.Series, m curve.Map, y float64) error {
+	lo, hi := g.Data.Band(sr, g.intervals)
+	if lo == nil {
+		return nil
+	}
+	path, err := page.BandPath(b, g.Data.Years, lo, hi, g.yMax, m, g.Output.Line.Pt()*2)
+	if err != nil {
+		return fmt.Errorf("insert %q, term %q: band: %w", g.Insert.Name, sr.Term, err)
+	}
+	if path.Empty() {
+		return nil
+	}
+	gr := canvas.NewLinearGradient(canvas.Point{X: g.plot.X0 * mm, Y: y * mm}, canvas.Point{X: g.plot.X1 * mm, Y: y * mm})
+	page.AddStops(gr, page.TintStops(g.stops, page.ColorOf(g.Spec.Palette.Paper).RGB(), page.BandStrength),
+		float64(g.Data.Span.From), float64(g.Data.Span.To))
+	ctx.ResetStyle()
+	ctx.SetStrokeColor(canvas.Transparent)
+	ctx.SetFillGradient(gr)
+	ctx.DrawPath(0, 0, path)
+	return nil
+}
+
+// stroke draws one term's line through m in the era palette, with a
+// dash pattern when st is not nil; isolated years become dots.
+func (g *Graphic) stroke(ctx *canvas.Context, b *curve.Builder, sr *series.Series, m curve.Map, st *LineStyle) error {
+	lw := g.Output.Line.Pt()
+	runs, err := b.Build(g.Data.Years, sr.Values, m, nil)
+	if err != nil {
+		return fmt.Errorf("insert %q, term %q: %w", g.Insert.Name, sr.Term, err)
+	}
+	path := &canvas.Path{}
+	for _, r := range runs {
+		if r.IsDot() {
+			circle(ctx, r.Start.X, r.Start.Y, lw/2, g.colorAt(r.Start.X))
+			continue
+		}
+		path.MoveTo(r.Start.X*mm, r.Start.Y*mm)
+		for _, z := range r.Beziers {
+			path.CubeTo(z.P1.X*mm, z.P1.Y*mm, z.P2.X*mm, z.P2.Y*mm, z.P3.X*mm, z.P3.Y*mm)
+		}
+	}
+	if path.Empty() {
+		return nil
+	}
+	ctx.ResetStyle()
+	ctx.SetFillColor(canvas.Transparent)
+	ctx.SetStrokeGradient(g.gradient(g.plot.X0, g.plot.X1, g.plot.Y0))
+	ctx.SetStrokeWidth(lw * mm)
+	ctx.SetStrokeCapper(canvas.RoundCap)
+	ctx.SetStrokeJoiner(canvas.RoundJoin)
+	if st != nil {
+		ctx.SetDashes(0, st.Dashes...)
+	}
+	ctx.DrawPath(0, 0, path)
 	return nil
 }
 
@@ -464,60 +714,30 @@ func (g *Graphic) colorAt(x float64) color.RGBA {
 
 // tickYears picks round years whose labels leave an em between them.
 func tickYears(fs *fonts.Set, span specs.Span, width, size float64) []int {
-	label := fs.Width(fonts.Regular, size, "0000") + size
-	perYear := width / float64(span.To-span.From)
-	for _, s := range []int{5, 10, 20, 25, 50, 100, 200, 250, 500, 1000} {
-		if float64(s)*perYear >= label {
-			var ys []int
-			for y := (span.From + s - 1) / s * s; y <= span.To; y += s {
-				ys = append(ys, y)
-			}
-			return ys
-		}
-	}
-	return nil
+	return draw.TickYears(fs, span, width, size)
 }
 
-func rgba(c palette.RGB) color.RGBA {
-	r, g, b := c.Clip().RGB8()
-	return color.RGBA{r, g, b, 0xff}
-}
+func rgba(c palette.RGB) color.RGBA { return draw.RGBA(c) }
+
+// The drawing helpers of package draw, with the context and fonts passed.
 
 func text(ctx *canvas.Context, fs *fonts.Set, st fonts.Style, size float64, col color.Color, x, y float64, align canvas.TextAlign, s string) {
-	if s == "" {
-		return
-	}
-	ctx.DrawText(x*mm, y*mm, canvas.NewTextLine(fs.Font(st).Face(size, col), s, align))
+	draw.Pen{Ctx: ctx, Fonts: fs}.Text(st, size, col, x, y, align, s)
 }
 
 // line strokes a straight line; with a style, dashed and round-capped.
 func line(ctx *canvas.Context, x0, y0, x1, y1, width float64, col color.Color, st *LineStyle) {
-	ctx.ResetStyle()
-	ctx.SetFillColor(canvas.Transparent)
-	ctx.SetStrokeColor(col)
-	ctx.SetStrokeWidth(width * mm)
-	ctx.SetStrokeCapper(canvas.ButtCap)
 	if st != nil {
-		ctx.SetStrokeCapper(canvas.RoundCap)
-		ctx.SetDashes(0, st.Dashes...)
+		draw.Pen{Ctx: ctx}.StyledLine(x0, y0, x1, y1, width, col, st.Dashes...)
+		return
 	}
-	ctx.DrawPath(0, 0, canvas.Line((x1-x0)*mm, (y1-y0)*mm).Translate(x0*mm, y0*mm))
+	draw.Pen{Ctx: ctx}.Line(x0, y0, x1, y1, width, col)
 }
 
 func fillRect(ctx *canvas.Context, x0, y0, x1, y1 float64, col color.Color, g *canvas.LinearGradient) {
-	ctx.ResetStyle()
-	ctx.SetStrokeColor(canvas.Transparent)
-	if g != nil {
-		ctx.SetFillGradient(g)
-	} else {
-		ctx.SetFillColor(col)
-	}
-	ctx.DrawPath(0, 0, canvas.Rectangle((x1-x0)*mm, (y1-y0)*mm).Translate(x0*mm, y0*mm))
+	draw.Pen{Ctx: ctx}.FillRect(x0, y0, x1, y1, col, g)
 }
 
 func circle(ctx *canvas.Context, x, y, r float64, col color.Color) {
-	ctx.ResetStyle()
-	ctx.SetStrokeColor(canvas.Transparent)
-	ctx.SetFillColor(col)
-	ctx.DrawPath(x*mm, y*mm, canvas.Circle(r*mm))
+	draw.Pen{Ctx: ctx}.Dot(x, y, r, col, nil, 0)
 }

@@ -172,11 +172,15 @@ func testSet() *series.Set {
 }
 
 func testInsert(t testing.TB, kind specs.Kind, w, h specs.Length) *Graphic {
+	return testInsertAs(t, kind, w, h, specs.CompareOverlay)
+}
+
+func testInsertAs(t testing.TB, kind specs.Kind, w, h specs.Length, compare specs.Compare) *Graphic {
 	t.Helper()
 	out := specs.DefaultOutput("web", kind)
 	s := &specs.Spec{Title: "T", Source: "Source: invented test data."}
 	s.Palette.Paper = specs.Color{Space: specs.SpaceSRGB, V: [3]float64{1, 1, 1}}
-	in := &specs.Insert{Name: "cmp", Output: "web", Size: specs.Size{W: w, H: h}}
+	in := &specs.Insert{Name: "cmp", Output: "web", Size: specs.Size{W: w, H: h}, Compare: compare}
 	fs, err := fonts.Load(s, &out)
 	if err != nil {
 		t.Fatal(err)
@@ -244,7 +248,7 @@ func TestNiceTicks(t *testing.T) {
 func TestTooSmall(t *testing.T) {
 	out := specs.DefaultOutput("web", specs.Screen)
 	s := &specs.Spec{Title: "T"}
-	in := &specs.Insert{Name: "tiny", Output: "web", Size: specs.Size{W: 60, H: 40}}
+	in := &specs.Insert{Name: "tiny", Output: "web", Size: specs.Size{W: 60, H: 40}, Compare: specs.CompareOverlay}
 	fs, _ := fonts.Load(s, &out)
 	pal, _ := palette.NewScale("test", palette.DefaultAnchors(1900, 1905), nil)
 	_, err := New(s, in, &out, testSet(), pal, fs)

@@ -2,6 +2,7 @@ package page
 
 import (
 	"strconv"
+	"strings"
 
 	"github.com/tdewolff/canvas"
 
@@ -47,7 +48,7 @@ func (f *Feature) key(p pen, k layout.KeyBand) {
 	for _, y := range years {
 		x := x0 + (float64(y)-from)/(to-from)*(x1-x0)
 		p.line(x, strip.Y0, x, strip.Y0-tick, f.Rule(), ruleGrey)
-		p.text(fonts.Regular, tsize, inkSoft, x, base, canvas.Center, strconv.Itoa(y))
+		p.text(fonts.Figures, tsize, inkSoft, x, base, canvas.Center, strconv.Itoa(y))
 	}
 	// What the height means, right-aligned in the band beside the strip:
 	// on one line level with the strip, or on two (strip and tick row),
@@ -67,7 +68,7 @@ func (f *Feature) key(p pen, k layout.KeyBand) {
 // out where a label would collide with the one before.
 func (f *Feature) eraTicks(width, size float64) []int {
 	from, to := f.Data.Span.From, f.Data.Span.To
-	gap := f.Fonts.Width(fonts.Regular, size, "0000") + size
+	gap := f.Fonts.Width(fonts.Figures, size, "0000") + size
 	perYear := width / float64(to-from)
 	years := []int{from}
 	for _, e := range f.Spec.Palette.Eras {
@@ -102,8 +103,31 @@ func (f *Feature) noteLines(size, width float64) []string {
 }
 
 // scaleNotes says what a panel's height means, in a full and a short
-// wording.
+// wording; with smoothing it says so first ("5-year rolling share"), and
+// with a band what the tint is.
 func (f *Feature) scaleNotes() []string {
+	notes := f.heightNotes()
+	roll := f.Data.Note()
+	band := ""
+	if f.Output.Band > 0 {
+		band = "; tint: " + strconv.FormatFloat(f.Output.Band*100, 'f', -1, 64) + "% interval"
+	}
+	if roll == "" && band == "" {
+		return notes
+	}
+	lead := ""
+	if roll != "" {
+		lead = strings.ToUpper(roll[:1]) + roll[1:] + ". "
+	}
+	out := []string{lead + notes[0] + band, lead + notes[1] + band}
+	if roll != "" {
+		// The shortest says the smoothing and leaves out the rest.
+		out = append(out, lead+notes[1], strings.TrimSuffix(lead, ". "))
+	}
+	return out
+}
+
+func (f *Feature) heightNotes() []string {
 	s := f.Spec.Scale
 	switch {
 	case s.Mode == specs.ScaleOwnPeak && f.Output.PeakDot:

@@ -21,6 +21,7 @@ import (
 	"sheaf/palette"
 	"sheaf/render/curve"
 	"sheaf/render/slug"
+	"sheaf/render/draw"
 	"sheaf/specs"
 	"sheaf/specs/series"
 )
@@ -38,6 +39,9 @@ type Feature struct {
 
 	labelsOnce sync.Once
 	labels     []Label
+
+	// intervals memoizes the band's Poisson intervals (nil: no band).
+	intervals *series.Intervals
 	slugsOnce  sync.Once
 	slugs      []string
 }
@@ -59,8 +63,47 @@ func (f *Feature) Slug(item int) string {
 // NewFeature computes what all pages share. Labels are fitted when first
 // asked for, so that a caller can fill the fonts' width cache first.
 func NewFeature(s *specs.Spec, out *specs.Output, plan *layout.Plan, data *series.Set, pal palette.Scale, fs *fonts.Set) *Feature {
-	return &Feature{Spec: s, Output: out, Plan: plan, Data: data, Palette: pal, Fonts: fs,
+	f := &Feature{Spec: s, Output: out, Plan: plan, Data: data, Palette: pal, Fonts: fs,
 		Stops: pal.Stops(float64(data.Span.From), float64(data.Span.To), 0)}
+	if out.Band > 0 {
+		f.intervals = series.NewIntervals(out.Band)
+	}
+	return f
+}
+
+// Band returns the limits of a panel's uncertainty band (see
+// series.Set.Band), or nil when the output draws none.
+func (f *Feature) Band(item int) (lo, hi []float64) {
+	if f.intervals == nil || item < 0 || item >= len(f.Data.Series) {
+		return nil, nil
+	}
+	return f.Data.Band(&f.Data.Series[item], f.intervals)
+}
+
+// band fills the uncertainty band behind a panel's line with a tint of
+// the era palette.
+func (f *Feature) band(p pen, b *curve.Builder, pn layout.Panel, m curve.Map) error {
+	lo, hi := f.Band(pn.Item)
+	if lo == nil {
+		return nil
+	}
+	sr := &f.Data.Series[pn.Item]
+	path, err := BandPath(b, f.Data.Years, lo, hi, sr.YMax, m, f.Output.Line.Pt()*2)
+	if err != nil {
+		return fmt.Errorf("panel %q: band: %w", sr.Term, err)
+	}
+	if path.Empty() {
+		return nil
+	}
+	pr := pn.Plot
+	g := p.gradient(pr.X0, pr.X1, pr.Y0)
+	from, to := float64(f.Data.Span.From), float64(f.Data.Span.To)
+	AddStops(g, TintStops(f.Stops, ColorOf(f.Spec.Palette.Paper).RGB(), BandStrength), from, to)
+	p.ctx.ResetStyle()
+	p.ctx.SetStrokeColor(canvas.Transparent)
+	p.ctx.SetFillGradient(g)
+	p.ctx.DrawPath(0, 0, path)
+	return nil
 }
 
 // Grouper is implemented by renderers that keep structure, such as SVG:
@@ -75,8 +118,12 @@ type Grouper interface {
 // and the peak.
 func (f *Feature) Describe(item int) (title, desc string) {
 	sr := &f.Data.Series[item]
+	unit := f.Data.Unit
+	if n := f.Data.Note(); n != "" {
+		unit += ", " + n
+	}
 	return sr.Term, fmt.Sprintf("How often %q was used each year, %d–%d (%s); highest in %d.",
-		sr.Term, f.Data.Span.From, f.Data.Span.To, f.Data.Unit, sr.PeakYear)
+		sr.Term, f.Data.Span.From, f.Data.Span.To, unit, sr.PeakYear)
 }
 
 // Ink colours of the furniture. Text and rules are one ink (black or a
@@ -190,17 +237,7 @@ func ColorOf(c specs.Color) palette.Color {
 	return palette.FromRGB(palette.RGB{R: c.V[0], G: c.V[1], B: c.V[2]})
 }
 
-func rgba(c palette.RGB) color.RGBA {
-	r, g, b := c.Clip().RGB8()
-	return color.RGBA{r, g, b, 0xff}
-}
-
-func (f *Feature) leading() float64 {
-	if l := f.Output.Type.Leading; l > 0 {
-		return l
-	}
-	return 1.2
-}
+func rgba(c palette.RGB) color.RGBA { return draw.RGBA(c) }
 
 // placed draws the text lines the layout measured and placed: title, dek,
 // running head, source, notes, folio.
@@ -241,28 +278,10 @@ func AddStops(g *canvas.LinearGradient, stops []palette.Stop, from, to float64) 
 	}
 }
 
-// tickYears chooses year ticks whose labels never collide: the smallest
-// round step whose spacing leaves a label's width plus an em between
-// labels.
+// tickYears chooses year ticks whose labels never collide (see
+// draw.TickYears).
 func (f *Feature) tickYears(width, size float64) []int {
-	span := f.Data.Span
-	label := f.Fonts.Width(fonts.Regular, size, "0000") + size
-	perYear := width / float64(span.To-span.From)
-	step := 0
-	for _, s := range []int{5, 10, 20, 25, 50, 100, 200, 250, 500, 1000} {
-		if float64(s)*perYear >= label {
-			step = s
-			break
-		}
-	}
-	if step == 0 {
-		return nil
-	}
-	var ys []int
-	for y := (span.From + step - 1) / step * step; y <= span.To; y += step {
-		ys = append(ys, y)
-	}
-	return ys
+	return draw.TickYears(f.Fonts, f.Data.Span, width, size)
 }
 
 func (f *Feature) panel(p pen, b *curve.Builder, pn layout.Panel) error {
@@ -293,6 +312,9 @@ func (f *Feature) panel(p pen, b *curve.Builder, pn layout.Panel) error {
 		return err
 	}
 	b.Reset()
+	if err := f.band(p, b, pn, m); err != nil {
+		return err
+	}
 	runs, err := b.Build(f.Data.Years, sr.Values, m, nil)
 	if err != nil {
 		return fmt.Errorf("panel %q: %w", sr.Term, err)
@@ -366,7 +388,7 @@ func (f *Feature) ticks(p pen, pn layout.Panel) {
 	}
 	for _, y := range years {
 		x := pr.X0 + (float64(y)-from)/(to-from)*pr.W()
-		p.text(fonts.Regular, size, inkSoft, x, base, canvas.Center, strconv.Itoa(y))
+		p.text(fonts.Figures, size, inkSoft, x, base, canvas.Center, strconv.Itoa(y))
 	}
 }
 

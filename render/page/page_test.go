@@ -72,14 +72,6 @@ func proof(t testing.TB, f *Feature, i int, dpi float64) *image.RGBA {
 	return img
 }
 
-// at returns the pixel under page point (x, y) (points, y up) of a
-// whole-page proof.
-func at(img *image.RGBA, pageH, dpi, x, y float64) palette.Color {
-	k := dpi / 72
-	c := img.RGBAAt(int(x*k), int((pageH-y)*k))
-	return palette.FromRGB(palette.RGB{R: float64(c.R) / 255, G: float64(c.G) / 255, B: float64(c.B) / 255})
-}
-
 // TestTickYearsNeverCollide is a property test over plot widths from 20
 // to 1000 pt, spans from 20 to 300 years and tick sizes from 5 to 9 pt:
 // adjacent year labels, centred on their ticks, are at least one em apart

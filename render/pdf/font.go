@@ -6,10 +6,13 @@ import (
 	"errors"
 	"fmt"
 	"sort"
+	"strconv"
 	"strings"
 	"sync"
 
 	"github.com/tdewolff/font"
+
+	"sheaf/layout/fonts/cff"
 )
 
 // FontKey identifies a font by a SHA-256 digest of its tables, so equal
@@ -25,9 +28,15 @@ type fontData struct {
 	sfnt       *font.SFNT
 	unitsPerEm uint16
 	numGlyphs  int
-	embeddable bool // TrueType outlines (glyf/loca) that FontFile2 can carry
+	embeddable bool // outlines a font file can carry: TrueType (FontFile2) or CFF (FontFile3)
 	loca       []uint32
+	cff        *cff.Font // CFF outlines; nil for TrueType
 	psName     string
+	// whole: the licence forbids subsetting (OS/2 fsType bit 8), so every
+	// glyph is embedded and the name carries no subset tag.
+	whole bool
+	// refusal, when not "", is why the licence forbids embedding.
+	refusal string
 }
 
 func (d *fontData) advance(id uint16) uint16 {
@@ -94,8 +103,61 @@ func newFontData(s *font.SFNT) (*fontData, error) {
 			d.loca = loca
 			d.embeddable = true
 		}
+	} else if s.IsCFF && s.Tables["CFF "] != nil {
+		if f, err := cff.Parse(s.Tables["CFF "]); err == nil && f.NumGlyphs() == d.numGlyphs {
+			d.cff = f
+			d.embeddable = true
+		}
+	}
+	if s.OS2 != nil {
+		// OpenType OS/2 fsType: 0x0002 Restricted License embedding
+		// (unless 0x0004 Preview & Print or 0x0008 Editable is set too:
+		// the least restrictive applies), 0x0200 Bitmap embedding only,
+		// 0x0100 No subsetting. A font with no OS/2 table is treated as
+		// installable (common practice).
+		t := s.OS2.FsType
+		switch {
+		case t&0x0002 != 0 && t&0x000C == 0:
+			d.refusal = fmt.Sprintf("its licence forbids embedding (OS/2 fsType 0x%04X: Restricted License embedding)", t)
+		case t&0x0200 != 0:
+			d.refusal = fmt.Sprintf("its licence allows only bitmaps to be embedded (OS/2 fsType 0x%04X: Bitmap embedding only)", t)
+		}
+		d.whole = t&0x0100 != 0
 	}
 	return d, nil
+}
+
+// program returns the font program to embed for the used glyphs: the
+// bytes, the font file key of the FontDescriptor and the stream's own
+// dictionary entries, and the CIDFont's subtype with its extra entries.
+func (d *fontData) program(used map[uint16]bool) (file []byte, key, streamDict, subtype, cidExtra string, err error) {
+	if d.whole {
+		for id := 0; id < d.numGlyphs; id++ {
+			used[uint16(id)] = true
+		}
+	}
+	if d.cff != nil {
+		ids := make([]uint16, 0, len(used))
+		for id := range used {
+			ids = append(ids, id)
+		}
+		file, err = d.cff.Subset(d.psName, ids)
+		// CID-keyed CFF whose charset maps CID n to glyph n (ISO 32000-1
+		// §9.7.4.2: a CIDFontType0's CIDs select glyphs through the
+		// charset; Table 126: FontFile3 /CIDFontType0C).
+		return file, "FontFile3", " /Subtype /CIDFontType0C", "CIDFontType0", "", err
+	}
+	file, err = d.subset(used)
+	return file, "FontFile2", " /Length1 " + strconv.Itoa(len(file)), "CIDFontType2", " /CIDToGIDMap /Identity", err
+}
+
+// baseName is the font's name in the document: the subset tag and the
+// PostScript name, or the name alone for a font embedded whole.
+func (d *fontData) baseName(used map[uint16]bool) string {
+	if d.whole {
+		return d.psName
+	}
+	return subsetTag(d.key, used) + "+" + d.psName
 }
 
 // postScriptName is name ID 6, reduced to the characters a PDF name and

@@ -1,6 +1,9 @@
 package pdf
 
 import (
+	"sheaf/palette"
+	"sheaf/palette/press"
+
 	"bytes"
 	"compress/zlib"
 	"fmt"
@@ -36,6 +39,12 @@ type PageSetup struct {
 	// Slug is one line of job information printed in the slug area,
 	// between the bleed and the media edge; empty for none.
 	Slug string
+	// Press, when not nil, turns every colour into the printer's device
+	// colours (DeviceCMYK, DeviceGray or DeviceRGB): chart colours through
+	// its profile, greys as black ink alone, black type overprinting. The
+	// document's Options.Press must be the same condition. Nil: colours
+	// stay sRGB (ICCBased).
+	Press *press.Condition `json:"-"`
 }
 
 // EncodedPage is a page turned into PDF: a compressed content stream plus
@@ -58,6 +67,9 @@ type EncodedPage struct {
 	// Transparent is true when the page uses opacity below 1, so the page
 	// gets a transparency group (PDF/X-4 permits live transparency).
 	Transparent bool
+	// Device is the number of device colour components the page was drawn
+	// in (4 CMYK, 3 RGB, 1 gray; see PageSetup.Press); 0: sRGB (ICCBased).
+	Device int
 }
 
 // PageFont is a font as one page uses it.
@@ -78,6 +90,9 @@ type GlyphUse struct {
 // page points, extended at both ends.
 type Shading struct {
 	Radial bool
+	// Device is the number of components of the stops' Ink (DeviceCMYK:
+	// 4); 0: the stops are sRGB (R, G, B) in the ICC-based space.
+	Device int
 	// Coords are x0 y0 x1 y1 (axial) or x0 y0 r0 x1 y1 r1 (radial).
 	Coords []float64
 	Stops  []Stop
@@ -88,11 +103,16 @@ type Shading struct {
 type Stop struct {
 	Offset  float64
 	R, G, B float64
+	Ink     []float64 // device values when the shading's Device is set
 }
 
 // Alpha is a constant opacity for fills (ca) and strokes (CA).
 type Alpha struct {
 	Fill, Stroke float64
+	// Overprint sets /OP and /op true with /OPM 1 (ISO 32000-1 §8.6.7):
+	// black type over colour leaves the colour under it, so a slight
+	// misregistration shows no white edge (common practice).
+	Overprint bool
 }
 
 // validate checks the box nesting of ISO 32000-1 §14.11.2.
@@ -182,6 +202,7 @@ func encodePage(setup PageSetup, draw func(c *canvas.Canvas) error, level int, k
 		}
 	}
 	e := newEncoder(setup.Boxes.Media, keys)
+	e.press = setup.Press
 	e.buf = pl.buf()
 	defer func() { pl.putBuf(e.buf) }()
 	c.RenderTo(e)
@@ -214,13 +235,16 @@ type encoder struct {
 	gstates      []Alpha
 	gstateIndex  map[Alpha]int
 	transparent  bool
+
+	press  *press.Condition // nil: sRGB
+	inText bool             // painting glyphs (black type overprints)
 }
 
 // gstate mirrors the parts of the PDF graphics state the encoder sets, so
 // that unchanged parameters are not written again.
 type gstate struct {
-	fillCS, strokeCS   int // 0 unset, csICC, csPattern, csReg
-	fill, stroke       [3]float64
+	fillCS, strokeCS   int // 0 unset, csICC, csPattern, csReg, csDevice
+	fill, stroke       [4]float64
 	fillPat, strokePat int
 	lineWidth, miter   float64
 	cap, join          int
@@ -235,6 +259,7 @@ const (
 	csICC = 1 + iota
 	csPattern
 	csReg
+	csDevice
 )
 
 func newEncoder(media canvas.Rect, keys *fontKeys) *encoder {
@@ -256,7 +281,7 @@ func newEncoder(media canvas.Rect, keys *fontKeys) *encoder {
 // with the colour spaces marked unset because a colour space is always
 // chosen explicitly here.
 func initialState() gstate {
-	return gstate{lineWidth: 1, miter: 10, alpha: Alpha{1, 1}, font: -1}
+	return gstate{lineWidth: 1, miter: 10, alpha: Alpha{Fill: 1, Stroke: 1}, font: -1}
 }
 
 func (e *encoder) fail(format string, args ...any) {
@@ -567,6 +592,14 @@ func (e *encoder) setPaint(p canvas.Paint, stroke bool) bool {
 	} else {
 		want.Fill = round3(alpha)
 	}
+	var ink []float64
+	want.Overprint = false
+	if e.press != nil && !p.IsGradient() {
+		c := unpremultiply(p.Color)
+		var black bool
+		ink, black = e.press.Ink(palette.RGB{R: c[0], G: c[1], B: c[2]})
+		want.Overprint = e.inText && black && alpha == 1 && solidBlack(ink)
+	}
 	e.setAlpha(want)
 
 	if p.IsGradient() {
@@ -575,6 +608,9 @@ func (e *encoder) setPaint(p canvas.Paint, stroke bool) bool {
 			return false
 		}
 		if len(sh.Stops) == 1 {
+			if sh.Device > 0 {
+				return e.setInk(sh.Stops[0].Ink, stroke)
+			}
 			return e.setColor([3]float64{sh.Stops[0].R, sh.Stops[0].G, sh.Stops[0].B}, stroke)
 		}
 		idx := e.pattern(sh)
@@ -598,8 +634,64 @@ func (e *encoder) setPaint(p canvas.Paint, stroke bool) bool {
 		}
 		return true
 	}
+	if ink != nil {
+		return e.setInk(ink, stroke)
+	}
 	return e.setColor(unpremultiply(p.Color), stroke)
 }
+
+// solidBlack is 100 % black ink and nothing else (or the darkest of a
+// gray press).
+func solidBlack(ink []float64) bool {
+	switch len(ink) {
+	case 4:
+		return ink[0] == 0 && ink[1] == 0 && ink[2] == 0 && ink[3] == 1
+	case 1:
+		return ink[0] == 0
+	}
+	return false
+}
+
+// deviceSpace names the device colour space of n components.
+func deviceSpace(n int) string {
+	switch n {
+	case 1:
+		return "/DeviceGray"
+	case 3:
+		return "/DeviceRGB"
+	}
+	return "/DeviceCMYK"
+}
+
+// setInk sets device colour values (the press's colour space).
+func (e *encoder) setInk(ink []float64, stroke bool) bool {
+	var c [4]float64
+	for i := range ink {
+		c[i] = round4(ink[i])
+	}
+	cs, cur := &e.st.fillCS, &e.st.fill
+	csOp, scOp := " cs\n", " sc\n"
+	if stroke {
+		cs, cur = &e.st.strokeCS, &e.st.stroke
+		csOp, scOp = " CS\n", " SC\n"
+	}
+	if *cs != csDevice {
+		e.buf = append(e.buf, deviceSpace(len(ink))...)
+		e.buf = append(e.buf, csOp...)
+		*cs = csDevice
+		*cur = [4]float64{-1, -1, -1, -1}
+	}
+	if *cur != c {
+		e.buf = appendNums(e.buf, c[:len(ink)]...)
+		e.buf = append(e.buf, scOp...)
+		*cur = c
+	}
+	return true
+}
+
+// round4 keeps ink values to 0.01 % (1/10,000), finer than any press
+// reproduces and fine enough that a matched black tint stays matched.
+func round4(v float64) float64 { return math.Round(v*10000) / 10000 }
 
 func round3(v float64) float64 { return math.Round(v*1000) / 1000 }
 
@@ -618,12 +710,12 @@ func (e *encoder) setColor(c [3]float64, stroke bool) bool {
 		e.buf = append(e.buf, "/CS0"...)
 		e.buf = append(e.buf, csOp...)
 		*cs = csICC
-		*cur = [3]float64{-1, -1, -1}
+		*cur = [4]float64{-1, -1, -1, -1}
 	}
-	if *cur != c {
+	if c4 := [4]float64{c[0], c[1], c[2], 0}; *cur != c4 {
 		e.buf = appendNums(e.buf, c[0], c[1], c[2])
 		e.buf = append(e.buf, scOp...)
-		*cur = c
+		*cur = c4
 	}
 	return true
 }
@@ -699,6 +791,22 @@ func (e *encoder) shading(g canvas.Gradient) (Shading, bool) {
 		sh.Stops = append(sh.Stops, Stop{Offset: round3(math.Min(1, math.Max(0, s.Offset))), R: round3(c[0]), G: round3(c[1]), B: round3(c[2])})
 	}
 	sort.SliceStable(sh.Stops, func(i, j int) bool { return sh.Stops[i].Offset < sh.Stops[j].Offset })
+	if e.press != nil {
+		in := make([]press.RGBStop, len(sh.Stops))
+		for i, st := range sh.Stops {
+			in[i] = press.RGBStop{Offset: st.Offset, RGB: palette.RGB{R: st.R, G: st.G, B: st.B}}
+		}
+		ramp := e.press.Ramp(in)
+		sh.Device = e.press.Components()
+		sh.Stops = sh.Stops[:0]
+		for _, st := range ramp {
+			ink := make([]float64, len(st.Ink))
+			for k, v := range st.Ink {
+				ink[k] = round4(v)
+			}
+			sh.Stops = append(sh.Stops, Stop{Offset: round4(st.Offset), Ink: ink})
+		}
+	}
 	for i := range sh.Coords {
 		sh.Coords[i] = round3(sh.Coords[i])
 	}
@@ -722,9 +830,17 @@ func shadingKey(sh Shading) string {
 		b = append(b, 'r')
 	}
 	b = appendNums(b, sh.Coords...)
+	if sh.Device > 0 {
+		b = append(b, 'd')
+		b = strconv.AppendInt(b, int64(sh.Device), 10)
+	}
 	for _, s := range sh.Stops {
 		b = append(b, ';')
 		b = appendNums(b, s.Offset, s.R, s.G, s.B)
+		if len(s.Ink) > 0 {
+			b = append(b, ',')
+			b = appendNums(b, s.Ink...)
+		}
 	}
 	return string(b)
 }
@@ -813,6 +929,7 @@ func (e *encoder) finish(boxes PageBoxes, level int, pl *pools) (*EncodedPage, e
 		Patterns:    e.patterns,
 		GStates:     e.gstates,
 		Transparent: e.transparent,
+		Device:      e.deviceComponents(),
 	}
 	for _, f := range e.fonts {
 		p.Fonts = append(p.Fonts, f.pageFont())
@@ -848,4 +965,11 @@ func (e *encoder) finish(boxes PageBoxes, level int, pl *pools) (*EncodedPage, e
 	p.Content = out.Bytes()
 	p.Compressed = true
 	return p, nil
+}
+
+func (e *encoder) deviceComponents() int {
+	if e.press == nil {
+		return 0
+	}
+	return e.press.Components()
 }

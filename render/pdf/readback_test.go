@@ -24,11 +24,17 @@ func TestXMPMatchesInfo(t *testing.T) {
 		"/CreationDate (D:20240517093000Z00'00')", "/ModDate (D:20240517093000Z00'00')", "/Trapped /False",
 		"<xmp:CreateDate>2024-05-17T09:30:00Z</xmp:CreateDate>", "<xmp:ModifyDate>2024-05-17T09:30:00Z</xmp:ModifyDate>",
 		"<pdf:Producer>sheaf 2.0</pdf:Producer>", "/Producer (sheaf 2.0)", "<pdf:Trapped>False</pdf:Trapped>",
-		"<pdfxid:GTS_PDFXVersion>PDF/X-4</pdfxid:GTS_PDFXVersion>",
 		`<rdf:li xml:lang="x-default">Words &amp; &lt;years&gt;</rdf:li>`, "/Title (Words & <years>)",
 	} {
 		if !strings.Contains(s, want) {
 			t.Errorf("document lacks %q", want)
+		}
+	}
+	// Without a printing condition the file is honest RGB: no PDF/X claim
+	// (ISO 15930-7 needs a printing condition's output intent).
+	for _, not := range []string{"pdfxid", "GTS_PDFX", "/OutputIntents"} {
+		if strings.Contains(s, not) {
+			t.Errorf("an RGB document has %q", not)
 		}
 	}
 }

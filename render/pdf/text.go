@@ -33,10 +33,11 @@ func (e *encoder) useFont(d *fontData) int {
 	return i
 }
 
-// RenderText writes horizontal text as real text (embedded TrueType font,
-// searchable through ToUnicode). What PDF text cannot say as canvas means
-// it — vertical writing, rotated glyphs, CFF outlines, mark offsets — is
-// drawn as glyph outlines instead.
+// RenderText writes horizontal text as real text (embedded TrueType or
+// CFF font, searchable through ToUnicode). What PDF text cannot say as
+// canvas means it — vertical writing, rotated glyphs, outlines that
+// cannot be embedded — is drawn as glyph outlines instead. A font whose licence
+// forbids embedding is an error: its outlines may not go into the file.
 func (e *encoder) RenderText(t *canvas.Text, m canvas.Matrix) {
 	e.op++
 	if e.err != nil || t == nil || t.Empty() {
@@ -69,6 +70,10 @@ func (e *encoder) RenderText(t *canvas.Text, m canvas.Matrix) {
 			return
 		}
 		d, err := e.keys.get(span.Face.Font.SFNT)
+		if err == nil && d.refusal != "" {
+			e.fail("font %s: %s", d.psName, d.refusal)
+			return
+		}
 		if err != nil || !d.embeddable || !spanIsPlain(span) {
 			e.spanOutlines(x, y, span, m)
 			return
@@ -77,14 +82,14 @@ func (e *encoder) RenderText(t *canvas.Text, m canvas.Matrix) {
 	})
 }
 
-// spanIsPlain reports whether a span can be shown with one TJ: no rotated
-// or vertical glyphs and no glyph offsets.
+// spanIsPlain reports whether a span can be shown as PDF text: no
+// rotated or vertical glyphs (glyph offsets are shown, see spanText).
 func spanIsPlain(span canvas.TextSpan) bool {
 	if span.Rotation != canvastext.NoRotation {
 		return false
 	}
 	for _, g := range span.Glyphs {
-		if g.Vertical || g.XOffset != 0 || g.YOffset != 0 || g.YAdvance != 0 {
+		if g.Vertical {
 			return false
 		}
 	}
@@ -120,6 +125,8 @@ func glyphTexts(span canvas.TextSpan) []string {
 
 func (e *encoder) spanText(x, y float64, span canvas.TextSpan, m canvas.Matrix, d *fontData) {
 	face := span.Face
+	e.inText = true
+	defer func() { e.inText = false }()
 	if !e.setPaint(face.Fill, false) {
 		return
 	}
@@ -169,16 +176,50 @@ func (e *encoder) spanText(x, y float64, span canvas.TextSpan, m canvas.Matrix, 
 		e.buf = append(e.buf, " Tf\n"...)
 		e.st.font, e.st.fontSize = fi, round3(size)
 	}
-	e.buf = appendNums(e.buf, mat[:]...)
-	e.buf = append(e.buf, " Tm\n["...)
-
-	// Glyph codes are the original glyph IDs (Identity-H with
-	// CIDToGIDMap Identity); the subsetter keeps IDs unchanged. A TJ
-	// number moves the next glyph by -n/1000 text-space units, so a
-	// shaped advance that differs from the font's own becomes one.
+	// Glyph codes are the original glyph IDs (Identity-H; CIDToGIDMap
+	// Identity for TrueType, an identity charset for CFF); subsets keep
+	// IDs unchanged. A TJ number moves the next glyph by -n/1000
+	// text-space units, so a shaped advance that differs from the font's
+	// own becomes one. A glyph the shaper moved off the pen (a mark set
+	// on its base, GPOS) or that moves the pen vertically is shown alone
+	// at its own text matrix; the run after it starts a new one.
 	upem := float64(d.unitsPerEm)
-	open := false
+	scale := face.Size / upem
+	var penX, penY int32
+	startRun := func(dx, dy int32) {
+		at := mat
+		if dx != 0 || dy != 0 {
+			at = pdfMatrix(tm.Translate(float64(dx)*scale, float64(dy)*scale), ptPerMM)
+		}
+		e.buf = appendNums(e.buf, at[:]...)
+		e.buf = append(e.buf, " Tm\n["...)
+	}
+	inRun, open := false, false
+	endRun := func() {
+		if open {
+			e.buf = append(e.buf, '>')
+			open = false
+		}
+		if inRun {
+			e.buf = append(e.buf, "] TJ\n"...)
+			inRun = false
+		}
+	}
 	for _, g := range span.Glyphs {
+		if g.XOffset != 0 || g.YOffset != 0 || g.YAdvance != 0 {
+			endRun()
+			startRun(penX+g.XOffset, penY+g.YOffset)
+			e.buf = append(e.buf, '<')
+			e.buf = appendHex4(e.buf, g.ID)
+			e.buf = append(e.buf, ">] TJ\n"...)
+			penX += g.XAdvance
+			penY += g.YAdvance
+			continue
+		}
+		if !inRun {
+			startRun(penX, penY)
+			inRun = true
+		}
 		if !open {
 			e.buf = append(e.buf, '<')
 			open = true
@@ -190,11 +231,10 @@ func (e *encoder) spanText(x, y float64, span canvas.TextSpan, m canvas.Matrix, 
 			e.buf = append(e.buf, ' ')
 			open = false
 		}
+		penX += g.XAdvance
 	}
-	if open {
-		e.buf = append(e.buf, '>')
-	}
-	e.buf = append(e.buf, "] TJ\nET\n"...)
+	endRun()
+	e.buf = append(e.buf, "ET\n"...)
 }
 
 func appendHex4(b []byte, v uint16) []byte {

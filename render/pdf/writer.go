@@ -2,16 +2,18 @@
 //
 // A Writer implements the document side (ISO 32000-1, PDF 1.6, with the
 // structure PDF/X-4 asks for, ISO 15930-7): page boxes (MediaBox = CropBox,
-// BleedBox, TrimBox), every colour in one embedded ICC sRGB profile that is
-// also the document's GTS_PDFX output intent, TrueType fonts embedded as
+// BleedBox, TrimBox), colours either in one embedded ICC sRGB profile (an
+// RGB file: no output intent, no PDF/X claim) or, with a printing condition
+// (Options.Press), in the press's device colours with its profile as the
+// GTS_PDFX output intent (PDF/X-4), TrueType and CFF fonts embedded as
 // subset CID fonts with ToUnicode maps, Info and XMP metadata that agree,
 // a trailer /ID, and printer's marks in a registration colour. Drawing
 // stays canvas code: each page is drawn on a *canvas.Canvas and rendered
 // through this package's canvas.Renderer.
 //
-// Output is deterministic: no clock is read (dates come from Options.Date,
-// see DateFromEnv), objects are written in a fixed order, font subset tags
-// come from a hash of the glyph set, and the /ID is a hash of the bytes.
+// Output is deterministic: no clock is read (dates come from Options.Date;
+// sheaf's is feature.DocumentDate), objects are written in a fixed order,
+// font subset tags come from a hash of the glyph set, and the /ID is a hash of the bytes.
 //
 // Pages are encoded and compressed in parallel (bounded by GOMAXPROCS)
 // and written in the order added, with a bounded window of pages in
@@ -28,24 +30,26 @@
 // can be encoded before the document knows all glyphs. An EncodedPage names
 // fonts by FontKey (SHA-256 of the font tables); pages made by EncodePage
 // carry the font, pages restored from a cache need Writer.RegisterFont.
-// The slug font, Go Regular, is always registered.
+// The slug font, DejaVu Sans Condensed, is always registered.
 //
 // Limits, each reported or handled rather than written wrong: raster
-// images and hatch patterns are errors; CFF-outline fonts, vertical text,
-// rotated glyphs and glyph offsets are drawn as outlines (not searchable);
+// images and hatch patterns are errors; fonts whose outlines cannot be
+// embedded, vertical text and rotated glyphs are drawn as outlines (not
+// searchable);
 // miter-clip and arcs joins are stroked into outlines by canvas; a
 // gradient's opacity is its first stop's (PDF shadings have no alpha
 // without soft masks).
 package pdf
 
 import (
+	"sheaf/palette/press"
+
 	"bufio"
 	"crypto/sha256"
 	"errors"
 	"fmt"
 	"hash"
 	"io"
-	"os"
 	"runtime"
 	"sort"
 	"strconv"
@@ -74,31 +78,19 @@ type Options struct {
 	// Version is the sheaf version; the Producer is "sheaf <Version>".
 	Version string
 	// Date is both CreationDate and ModDate. It is never taken from the
-	// clock: pass DateFromEnv's result or a fixed time. The zero Time
+	// clock: pass a fixed time (sheaf: feature.DocumentDate). The zero Time
 	// means the Unix epoch, 1970-01-01T00:00:00Z.
 	Date time.Time
 	// Compression is the zlib level (1–9) of content streams and font
 	// files; 0 means DefaultCompression, Uncompressed means none.
 	Compression int
-}
-
-// DateFromEnv returns the time in SOURCE_DATE_EPOCH (seconds since the
-// Unix epoch, reproducible-builds.org specification) or fallback when the
-// variable is unset or empty. A malformed value is an error.
-func DateFromEnv(fallback time.Time) (time.Time, error) {
-	s := os.Getenv("SOURCE_DATE_EPOCH")
-	if s == "" {
-		return fallback, nil
-	}
-	n, err := strconv.ParseInt(s, 10, 64)
-	if err != nil {
-		return time.Time{}, fmt.Errorf("SOURCE_DATE_EPOCH=%q is not an integer number of seconds", s)
-	}
-	// PDF dates have four-digit years (ISO 32000-1 §7.9.4): 0000–9999.
-	if n < 0 || n > 253402300799 {
-		return time.Time{}, fmt.Errorf("SOURCE_DATE_EPOCH=%q is outside 0 (1970-01-01) … 253402300799 (9999-12-31), the years a PDF date can hold", s)
-	}
-	return time.Unix(n, 0).UTC(), nil
+	// Press is the printing condition. With it the document is a PDF/X-4
+	// (ISO 15930-7): its output intent carries the press's profile and
+	// every page must have been drawn for the same condition
+	// (PageSetup.Press). Without it the document is plain RGB — colours
+	// in the embedded sRGB profile, no output intent, no PDF/X claim —
+	// and the printer converts it.
+	Press *press.Condition
 }
 
 // Object numbers fixed by the writer.
@@ -367,6 +359,23 @@ func (w *Writer) start() {
 	// The comment line of bytes ≥ 128 tells transfer programs the file
 	// is binary (ISO 32000-1 §7.5.2).
 	w.write([]byte("%PDF-1.6\n%\xE2\xE3\xCF\xD3\n"))
+	if pc := w.opts.Press; pc != nil {
+		// The press profile is both the output intent's DestOutputProfile
+		// and the alternate space of the registration colour.
+		n := pc.Components()
+		data, filter := w.compress(pc.Profile.Bytes())
+		w.stream(objICC, " /N "+strconv.Itoa(n)+" /Alternate "+deviceSpace(n)+filter, data)
+		w.obj(objICCSpace, []byte("[/ICCBased "+ref(objICC)+"]"))
+		// Registration: colourant All marks every separation (§8.6.6.4);
+		// its alternate puts tint t on every device component.
+		c0, c1 := strings.Repeat("0 ", n), strings.Repeat("1 ", n)
+		if n != 4 {
+			c0, c1 = strings.Repeat("1 ", n), strings.Repeat("0 ", n) // additive: 0 is black
+		}
+		w.obj(objRegSpace, []byte("[/Separation /All "+ref(objICCSpace)+
+			" << /FunctionType 2 /Domain [0 1] /C0 ["+strings.TrimSpace(c0)+"] /C1 ["+strings.TrimSpace(c1)+"] /N 1 >>]"))
+		return
+	}
 	icc := SRGBProfile()
 	data, filter := w.compress(icc)
 	w.stream(objICC, " /N 3 /Alternate /DeviceRGB"+filter, data)
@@ -387,6 +396,13 @@ func rectArray(b []byte, r canvas.Rect) []byte {
 
 func (w *Writer) writePage(p *EncodedPage) error {
 	w.start()
+	want := 0
+	if w.opts.Press != nil {
+		want = w.opts.Press.Components()
+	}
+	if p.Device != want {
+		return fmt.Errorf("a page drawn in %s does not belong in a document in %s", spaceName(p.Device), spaceName(want))
+	}
 	var res []byte
 	res = append(res, "<< /ColorSpace << /CS0 "...)
 	res = append(res, ref(objICCSpace)...)
@@ -406,7 +422,10 @@ func (w *Writer) writePage(p *EncodedPage) error {
 					return fmt.Errorf("font %v is not registered", pf.Key)
 				}
 				if !d.embeddable {
-					return fmt.Errorf("font %s has no TrueType outlines to embed", d.psName)
+					return fmt.Errorf("font %s has no TrueType or CFF outlines to embed", d.psName)
+				}
+				if d.refusal != "" {
+					return fmt.Errorf("font %s: %s", d.psName, d.refusal)
 				}
 				df = &docFont{ref: w.alloc(), data: d, used: map[uint16]string{}}
 				w.fonts[pf.Key] = df
@@ -456,6 +475,9 @@ func (w *Writer) writePage(p *EncodedPage) error {
 				b = appendNum(b, a.Fill)
 				b = append(b, " /CA "...)
 				b = appendNum(b, a.Stroke)
+				if a.Overprint {
+					b = append(b, " /OP true /op true /OPM 1"...)
+				}
 				b = append(b, " >>"...)
 				w.obj(num, b)
 			}
@@ -491,7 +513,11 @@ func (w *Writer) writePage(p *EncodedPage) error {
 	b = append(b, res...)
 	if p.Transparent {
 		b = append(b, " /Group << /Type /Group /S /Transparency /CS "...)
-		b = append(b, ref(objICCSpace)...)
+		if p.Device > 0 {
+			b = append(b, deviceSpace(p.Device)...)
+		} else {
+			b = append(b, ref(objICCSpace)...)
+		}
 		b = append(b, " >>"...)
 	}
 	b = append(b, " /Contents "...)
@@ -539,7 +565,11 @@ func (w *Writer) pattern(sh Shading) (int, error) {
 		b = append(b, '2')
 	}
 	b = append(b, " /ColorSpace "...)
-	b = append(b, ref(objICCSpace)...)
+	if sh.Device > 0 {
+		b = append(b, deviceSpace(sh.Device)...)
+	} else {
+		b = append(b, ref(objICCSpace)...)
+	}
 	b = append(b, " /Coords ["...)
 	b = appendNums(b, sh.Coords...)
 	b = append(b, "] /Function "...)
@@ -554,7 +584,7 @@ func (w *Writer) pattern(sh Shading) (int, error) {
 // Stops.At); coincident stops make a hard edge.
 func stitching(stops []Stop) ([]byte, error) {
 	for i, s := range stops {
-		if !finite(s.Offset, s.R, s.G, s.B) || s.Offset < 0 || s.Offset > 1 || i > 0 && s.Offset < stops[i-1].Offset {
+		if !finite(s.Offset, s.R, s.G, s.B) || !finite(s.Ink...) || len(s.Ink) != len(stops[0].Ink) || s.Offset < 0 || s.Offset > 1 || i > 0 && s.Offset < stops[i-1].Offset {
 			return nil, fmt.Errorf("gradient stop %d %+v is out of range or order", i, s)
 		}
 	}
@@ -579,9 +609,9 @@ func stitching(stops []Stop) ([]byte, error) {
 	b = append(b, "<< /FunctionType 3 /Domain [0 1] /Functions ["...)
 	for _, p := range pieces {
 		b = append(b, " << /FunctionType 2 /Domain [0 1] /C0 ["...)
-		b = appendNums(b, p.c0.R, p.c0.G, p.c0.B)
+		b = appendNums(b, p.c0.components()...)
 		b = append(b, "] /C1 ["...)
-		b = appendNums(b, p.c1.R, p.c1.G, p.c1.B)
+		b = appendNums(b, p.c1.components()...)
 		b = append(b, "] /N 1 >>"...)
 	}
 	b = append(b, " ] /Bounds ["...)
@@ -637,10 +667,17 @@ func (w *Writer) Close() error {
 	b = append(b, " >>"...)
 	w.obj(objPages, b)
 
-	w.obj(objCatalog, []byte("<< /Type /Catalog /Pages "+ref(objPages)+" /Metadata "+ref(objMetadata)+
-		" /OutputIntents [<< /Type /OutputIntent /S /GTS_PDFX /OutputConditionIdentifier (sRGB IEC61966-2.1)"+
-		" /OutputCondition (sRGB IEC61966-2.1) /RegistryName (http://www.color.org) /Info (sRGB IEC61966-2.1) /DestOutputProfile "+
-		ref(objICC)+" >>] >>"))
+	catalog := "<< /Type /Catalog /Pages " + ref(objPages) + " /Metadata " + ref(objMetadata)
+	pdfx := ""
+	if pc := w.opts.Press; pc != nil {
+		// ISO 15930-7 §6.2.4: a GTS_PDFX output intent whose
+		// DestOutputProfile characterises the printing condition.
+		catalog += " /OutputIntents [<< /Type /OutputIntent /S /GTS_PDFX /OutputConditionIdentifier " + pdfText(pc.Identifier) +
+			" /OutputCondition " + pdfText(pc.Identifier) + " /RegistryName " + pdfText(pc.Registry) +
+			" /Info " + pdfText(pc.Profile.Description) + " /DestOutputProfile " + ref(objICC) + " >>]"
+		pdfx = " /GTS_PDFXVersion (PDF/X-4)"
+	}
+	w.obj(objCatalog, []byte(catalog+" >>"))
 
 	date := w.opts.Date
 	if date.IsZero() {
@@ -653,8 +690,8 @@ func (w *Writer) Close() error {
 	}
 	pdfDate := date.Format("D:20060102150405Z00'00'")
 	w.obj(objInfo, []byte("<< /Title "+pdfText(w.opts.Title)+" /Producer "+pdfText(producer)+" /Creator "+pdfText(producer)+
-		" /CreationDate ("+pdfDate+") /ModDate ("+pdfDate+") /Trapped /False >>"))
-	w.stream(objMetadata, " /Type /Metadata /Subtype /XML", xmp(w.opts.Title, producer, date))
+		" /CreationDate ("+pdfDate+") /ModDate ("+pdfDate+") /Trapped /False"+pdfx+" >>"))
+	w.stream(objMetadata, " /Type /Metadata /Subtype /XML", xmp(w.opts.Title, producer, date, pdfx != ""))
 
 	// cross-reference table (§7.5.4): 20-byte entries
 	xref := w.n
@@ -690,26 +727,26 @@ func (w *Writer) Close() error {
 	return w.err
 }
 
-// writeFont embeds a TrueType font as a Type 0 font with a CIDFontType2
-// descendant (ISO 32000-1 §9.7): Identity-H encoding, CIDToGIDMap
-// Identity, widths, FontFile2 and a ToUnicode CMap.
+// writeFont embeds a font as a Type 0 font (ISO 32000-1 §9.7) with
+// Identity-H encoding, widths and a ToUnicode CMap: TrueType as a
+// CIDFontType2 descendant (CIDToGIDMap Identity, FontFile2), CFF as a
+// CIDFontType0 (FontFile3 /CIDFontType0C); see fontData.program.
 func (w *Writer) writeFont(f *docFont) error {
 	d := f.data
 	used := map[uint16]bool{}
 	for id := range f.used {
 		used[id] = true
 	}
-	tag := subsetTag(d.key, used)
-	file, err := d.subset(used)
+	name := d.baseName(used)
+	file, fileKey, fileDict, subtype, cidExtra, err := d.program(used)
 	if err != nil {
 		return err
 	}
-	name := tag + "+" + d.psName
 	scale := 1000 / float64(d.unitsPerEm)
 
 	fileData, filter := w.compress(file)
 	fontFile := w.alloc()
-	w.stream(fontFile, " /Length1 "+strconv.Itoa(len(file))+filter, fileData)
+	w.stream(fontFile, fileDict+filter, fileData)
 
 	s := d.sfnt
 	ascent, descent := 0.0, 0.0
@@ -745,7 +782,7 @@ func (w *Writer) writeFont(f *docFont) error {
 	b = appendNum(b, capHeight)
 	// StemV is required but fonts do not store it; 80 is the customary
 	// value for a regular weight (no standard gives one).
-	b = append(b, " /StemV 80 /FontFile2 "...)
+	b = append(b, " /StemV 80 /"+fileKey+" "...)
 	b = append(b, ref(fontFile)...)
 	b = append(b, " >>"...)
 	desc := w.alloc()
@@ -757,11 +794,11 @@ func (w *Writer) writeFont(f *docFont) error {
 	}
 	sort.Ints(ids)
 	b = b[:0]
-	b = append(b, "<< /Type /Font /Subtype /CIDFontType2 /BaseFont /"...)
+	b = append(b, "<< /Type /Font /Subtype /"+subtype+" /BaseFont /"...)
 	b = append(b, name...)
 	b = append(b, " /CIDSystemInfo << /Registry (Adobe) /Ordering (Identity) /Supplement 0 >> /FontDescriptor "...)
 	b = append(b, ref(desc)...)
-	b = append(b, " /CIDToGIDMap /Identity /W ["...)
+	b = append(b, cidExtra+" /W ["...)
 	for i := 0; i < len(ids); {
 		j := i
 		for j+1 < len(ids) && ids[j+1] == ids[j]+1 {
@@ -822,12 +859,19 @@ func pdfText(s string) string {
 
 // xmp is the document's XMP packet (ISO 16684-1) with the properties
 // PDF/X-4 wants to agree with the Info dictionary.
-func xmp(title, producer string, date time.Time) []byte {
+func xmp(title, producer string, date time.Time, pdfx bool) []byte {
 	d := date.Format("2006-01-02T15:04:05Z")
 	sum := sha256.Sum256([]byte(title + "\x00" + d))
 	uuid := fmt.Sprintf("uuid:%x-%x-%x-%x-%x", sum[0:4], sum[4:6], sum[6:8], sum[8:10], sum[10:16])
 	esc := func(s string) string {
 		return strings.NewReplacer("&", "&amp;", "<", "&lt;", ">", "&gt;", `"`, "&quot;").Replace(s)
+	}
+	// PDF/X-4 identification (ISO 15930-7 §6.7.5): only for a document
+	// with a printing condition.
+	pdfxNS, pdfxID := "", ""
+	if pdfx {
+		pdfxNS = "\n xmlns:pdfxid=\"http://www.npes.org/pdfx/ns/id/\""
+		pdfxID = "<pdfxid:GTS_PDFXVersion>PDF/X-4</pdfxid:GTS_PDFXVersion>\n"
 	}
 	return []byte(`<?xpacket begin="` + "\uFEFF" + `" id="W5M0MpCehiHzreSzNTczkc9d"?>
 <x:xmpmeta xmlns:x="adobe:ns:meta/">
@@ -836,8 +880,7 @@ func xmp(title, producer string, date time.Time) []byte {
  xmlns:dc="http://purl.org/dc/elements/1.1/"
  xmlns:xmp="http://ns.adobe.com/xap/1.0/"
  xmlns:pdf="http://ns.adobe.com/pdf/1.3/"
- xmlns:xmpMM="http://ns.adobe.com/xap/1.0/mm/"
- xmlns:pdfxid="http://www.npes.org/pdfx/ns/id/">
+ xmlns:xmpMM="http://ns.adobe.com/xap/1.0/mm/"` + pdfxNS + `>
 <dc:format>application/pdf</dc:format>
 <dc:title><rdf:Alt><rdf:li xml:lang="x-default">` + esc(title) + `</rdf:li></rdf:Alt></dc:title>
 <xmp:CreateDate>` + d + `</xmp:CreateDate>
@@ -850,9 +893,23 @@ func xmp(title, producer string, date time.Time) []byte {
 <xmpMM:InstanceID>` + uuid + `</xmpMM:InstanceID>
 <xmpMM:VersionID>1</xmpMM:VersionID>
 <xmpMM:RenditionClass>default</xmpMM:RenditionClass>
-<pdfxid:GTS_PDFXVersion>PDF/X-4</pdfxid:GTS_PDFXVersion>
-</rdf:Description>
+` + pdfxID + `</rdf:Description>
 </rdf:RDF>
 </x:xmpmeta>
 <?xpacket end="w"?>`)
+}
+
+func spaceName(device int) string {
+	if device == 0 {
+		return "sRGB"
+	}
+	return strings.TrimPrefix(deviceSpace(device), "/")
+}
+
+// components are the stop's colour values: device values or sRGB.
+func (s Stop) components() []float64 {
+	if len(s.Ink) > 0 {
+		return s.Ink
+	}
+	return []float64{s.R, s.G, s.B}
 }

@@ -21,7 +21,7 @@ func TestAppendNum(t *testing.T) {
 		in   float64
 		want string
 	}{
-		{0, "0"}, {-0.0, "0"}, {1, "1"}, {-1, "-1"}, {0.5, "0.5"}, {0.1 + 0.2, "0.3"},
+		{0, "0"}, {math.Copysign(0, -1), "0"}, {1, "1"}, {-1, "-1"}, {0.5, "0.5"}, {0.1 + 0.2, "0.3"},
 		{1.23456, "1.235"}, {-1.23449, "-1.234"}, {0.0004, "0"}, {-0.0004, "0"}, {0.0005, "0.001"},
 		{595.2756, "595.276"}, {841.8898, "841.89"}, {1e-9, "0"}, {123456.7891, "123456.789"}, {10.01, "10.01"},
 	}
@@ -58,34 +58,6 @@ func TestDeterministic(t *testing.T) {
 	idc := regexp.MustCompile(`/ID \[<([0-9A-F]+)>`).FindSubmatch(c)
 	if ida == nil || idc == nil || bytes.Equal(ida[1], idc[1]) {
 		t.Error("/ID does not depend on the content")
-	}
-}
-
-func TestDateFromEnv(t *testing.T) {
-	fallback := time.Date(2001, 2, 3, 4, 5, 6, 0, time.UTC)
-	// SOURCE_DATE_EPOCH spec (reproducible-builds.org): decimal seconds
-	// since 1970-01-01T00:00:00Z.
-	cases := []struct {
-		env     string
-		want    time.Time
-		wantErr bool
-	}{
-		{"", fallback, false},
-		{"0", time.Unix(0, 0).UTC(), false},
-		{"1715938200", time.Date(2024, 5, 17, 9, 30, 0, 0, time.UTC), false},
-		{"yesterday", time.Time{}, true},
-		{"1.5", time.Time{}, true},
-		// A PDF date has a four-digit year (ISO 32000-1 §7.9.4).
-		{"-1", time.Time{}, true},
-		{"253402300799", time.Date(9999, 12, 31, 23, 59, 59, 0, time.UTC), false},
-		{"253402300800", time.Time{}, true},
-	}
-	for _, c := range cases {
-		t.Setenv("SOURCE_DATE_EPOCH", c.env)
-		got, err := DateFromEnv(fallback)
-		if (err != nil) != c.wantErr || !c.wantErr && !got.Equal(c.want) {
-			t.Errorf("SOURCE_DATE_EPOCH=%q: %v, %v; want %v (error %v)", c.env, got, err, c.want, c.wantErr)
-		}
 	}
 }
 
@@ -248,10 +220,10 @@ func TestStitchingFunction(t *testing.T) {
 		stops []Stop
 		want  string
 	}{
-		{[]Stop{{0, 0, 0, 0}, {1, 1, 1, 1}}, "/Functions [ << /FunctionType 2 /Domain [0 1] /C0 [0 0 0] /C1 [1 1 1] /N 1 >> ] /Bounds [] /Encode [0 1]"},
-		{[]Stop{{0.25, 1, 0, 0}, {0.75, 0, 0, 1}}, "/Bounds [0.25 0.75] /Encode [0 1 0 1 0 1]"},
-		{[]Stop{{0, 1, 0, 0}, {0.5, 0, 1, 0}, {0.5, 0, 0, 1}, {1, 1, 1, 1}}, "/Bounds [0.5] /Encode [0 1 0 1]"},
-		{[]Stop{{0.4, 0.2, 0.2, 0.2}}, "/Bounds [0.4] /Encode [0 1 0 1]"},
+		{[]Stop{{0, 0, 0, 0, nil}, {1, 1, 1, 1, nil}}, "/Functions [ << /FunctionType 2 /Domain [0 1] /C0 [0 0 0] /C1 [1 1 1] /N 1 >> ] /Bounds [] /Encode [0 1]"},
+		{[]Stop{{0.25, 1, 0, 0, nil}, {0.75, 0, 0, 1, nil}}, "/Bounds [0.25 0.75] /Encode [0 1 0 1 0 1]"},
+		{[]Stop{{0, 1, 0, 0, nil}, {0.5, 0, 1, 0, nil}, {0.5, 0, 0, 1, nil}, {1, 1, 1, 1, nil}}, "/Bounds [0.5] /Encode [0 1 0 1]"},
+		{[]Stop{{0.4, 0.2, 0.2, 0.2, nil}}, "/Bounds [0.4] /Encode [0 1 0 1]"},
 	}
 	for _, c := range cases {
 		b, err := stitching(c.stops)
@@ -259,7 +231,7 @@ func TestStitchingFunction(t *testing.T) {
 			t.Errorf("stitching(%v) = %s (%v), want it to contain %q", c.stops, b, err, c.want)
 		}
 	}
-	if _, err := stitching([]Stop{{0.5, 0, 0, 0}, {0.2, 0, 0, 0}}); err == nil {
+	if _, err := stitching([]Stop{{0.5, 0, 0, 0, nil}, {0.2, 0, 0, 0, nil}}); err == nil {
 		t.Error("stops out of order accepted")
 	}
 }

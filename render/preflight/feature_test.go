@@ -23,7 +23,6 @@ func init() {
 		if err != nil {
 			return preflight.Input{}, err
 		}
-		return preflight.Input{Spec: j.Spec, Output: out, Plan: o.Plan, Data: j.Data, Fonts: o.Fonts,
-			Labels: o.Feature.Labels(), Palette: &pal[0].Report}, nil
+		return j.PreflightInput(o, pal), nil
 	}
 }

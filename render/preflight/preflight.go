@@ -21,6 +21,7 @@ import (
 	"sheaf/layout"
 	"sheaf/layout/fonts"
 	"sheaf/palette"
+	"sheaf/palette/press"
 	"sheaf/render/page"
 	"sheaf/specs"
 	"sheaf/specs/series"
@@ -78,6 +79,9 @@ const (
 	IDGamut       = "palette-gamut"  // palette colours outside sRGB
 	IDPalette     = "palette"        // the palette check's verdict and findings
 	IDPaperTint   = "paper-tint"     // a non-white paper colour printed over the whole page
+	IDSparse      = "sparse-counts"  // a term whose line rests on counts too small to read
+	IDOutlined    = "text-outlined"  // text drawn as glyph outlines, not embedded as a font
+	IDLicence     = "font-licence"   // what a font's licence allows the files it goes into
 )
 
 // Finding is one result.
@@ -126,6 +130,11 @@ type Input struct {
 	Fonts   *fonts.Set
 	Labels  []page.Label // as page.Feature.Labels returns them
 	Palette *palette.Report
+	// Scale is the era palette drawn (page.Feature.Palette) and Press the
+	// printing condition of a print output (nil: RGB); both for the press
+	// checks.
+	Scale *palette.Scale
+	Press *press.Condition
 }
 
 // Check runs every check on in with the spec's thresholds
@@ -144,6 +153,8 @@ func Check(in Input) ([]Finding, error) {
 	c.panels()
 	c.palette()
 	c.paperTint()
+	c.press()
+	c.fontFiles()
 	sort.SliceStable(c.found, func(i, j int) bool {
 		a, b := c.found[i], c.found[j]
 		if a.Severity != b.Severity {
@@ -171,6 +182,48 @@ func (c *checker) paperTint() {
 	}
 	c.add(Finding{ID: IDPaperTint, Severity: Warning, At: c.in.Spec.Where("palette.paper").String(),
 		Message: fmt.Sprintf("paper %s is printed as a tint of ink over every page, bleed included; if the stock has that colour, set paper to #ffffff for print, or check the tint on a press proof", p.Text)})
+}
+
+// fontFiles reports, for each face an output draws with, text that
+// cannot go into its files as a font (drawn as outlines: not searchable,
+// heavier, no hinting) and what the face's licence (OS/2 fsType) says
+// where it shapes the files. A licence that forbids embedding is refused
+// when the fonts are loaded (bad input), before preflight runs.
+func (c *checker) fontFiles() {
+	embeds := c.in.Output.Kind == specs.Print || c.in.Output.Fonts.Embed
+	seen := map[string]bool{}
+	for _, st := range []fonts.Style{fonts.Regular, fonts.Bold, fonts.Italic} {
+		name := c.in.Fonts.Name(st)
+		if seen[name] {
+			continue
+		}
+		seen[name] = true
+		key := "regular"
+		if st == fonts.Bold {
+			key = "bold"
+		}
+		at := c.in.Spec.Where(c.path("fonts." + key)).String()
+		e := c.in.Fonts.Embedding(st)
+		if e.Outlined != "" && c.in.Output.Kind == specs.Print {
+			c.add(Finding{ID: IDOutlined, Severity: Warning, At: at,
+				Message: fmt.Sprintf("text in %s (%s) is drawn as outlines, not as a font: %s; it will not be searchable and may print heavier at small sizes — use a TrueType or CFF OpenType font", name, st, e.Outlined)})
+		}
+		if !embeds {
+			continue
+		}
+		l := e.Licence
+		switch {
+		case !l.HasOS2:
+			c.add(Finding{ID: IDLicence, Severity: Info, At: at,
+				Message: fmt.Sprintf("%s has no OS/2 table, so its embedding permission is not stated; embedded as installable (common practice) — check the font's licence", name)})
+		case l.NoSubsetting():
+			c.add(Finding{ID: IDLicence, Severity: Info, At: at,
+				Message: fmt.Sprintf("%s: its licence forbids subsetting (%s), so the whole font is embedded in every file that uses it", name, l)})
+		case l.PreviewPrint():
+			c.add(Finding{ID: IDLicence, Severity: Info, At: at,
+				Message: fmt.Sprintf("%s is licensed for preview & print embedding (%s): the files may be viewed and printed, not edited with the font", name, l)})
+		}
+	}
 }
 
 // Errs reports whether any finding is an error: something that will print
@@ -222,7 +275,7 @@ func pagesOf(p *layout.Plan) map[int]int {
 // units prints a length in the output's own unit.
 func (c *checker) units(l float64) string {
 	if c.in.Output.Kind == specs.Screen {
-		return strconv.FormatFloat(l*96/72, 'g', 4, 64) + " px"
+		return strconv.FormatFloat(l*specs.PxPerPt, 'g', 4, 64) + " px"
 	}
 	return strconv.FormatFloat(l, 'g', 4, 64) + " pt"
 }
@@ -373,20 +426,25 @@ func clip(s string, n int) string {
 	return string(r[:n-1]) + "…"
 }
 
-// panels reports panels with nothing to draw and one-year spikes: a year
-// whose value is more than spike-ratio times the term's next-highest
-// year, because one long article can make a word look like a trend. It
-// compares the plotted values, since that is the line the reader sees.
+// panels reports panels with nothing to draw, one-year spikes and lines
+// that rest on too few occurrences.
+//
+// A spike is a year whose value is more than spike-ratio times the
+// term's next-highest year, because one long article can make a word look
+// like a trend. It is a property of the yearly counts, so it is found on
+// the values before any rolling window (count ÷ the year's total, or the
+// count itself), which smoothing would hide.
 func (c *checker) panels() {
 	k := c.th.SpikeRatio
 	for i := range c.in.Data.Series {
 		sr := &c.in.Data.Series[i]
-		top, second, year := Spike(sr.Values)
+		top, second, year := Spike(c.in.Data.Yearly(sr))
 		if top <= 0 {
 			c.add(Finding{ID: IDNoData, Severity: Warning, Page: c.pageOf[i], Term: sr.Term,
 				Message: fmt.Sprintf("no data in %d–%d: every year is zero or a gap; the panel is empty", c.in.Data.Span.From, c.in.Data.Span.To)})
 			continue
 		}
+		c.sparse(i, sr)
 		if k <= 0 || top <= k*second {
 			continue
 		}
@@ -398,6 +456,73 @@ func (c *checker) panels() {
 		c.add(Finding{ID: IDSpike, Severity: Review, Page: c.pageOf[i], Term: sr.Term, Year: y,
 			Message: fmt.Sprintf("%d stands alone: %s (over %g×); check it is not one long article", y, ratio, k)})
 	}
+}
+
+// sparse reports a term whose typical count is so small that its line is
+// mostly Poisson noise: a count k scatters by about √k, 1/√k of itself —
+// 32 % at the default min-count of 10 (common practice). The count is the
+// one each plotted value rests on: the year's, or the rolling window's
+// pooled count; typical is the median over the years from the term's
+// first occurrence to its last (gap years left out), so years before a
+// word existed do not count against it.
+func (c *checker) sparse(i int, sr *series.Series) {
+	floor := c.th.MinCount
+	if floor <= 0 {
+		return
+	}
+	pooled, _ := c.in.Data.Pooled(sr)
+	med, ok := MedianActive(sr.Counts, pooled)
+	if !ok || med >= floor {
+		return
+	}
+	noise := 100.0
+	if med > 0 {
+		noise = 100 / math.Sqrt(med)
+	}
+	var msg string
+	if w := c.in.Data.Rolling; w > 1 {
+		msg = fmt.Sprintf("even pooled over %d years its median count is %s (under %g): the line is mostly noise (about ±%.0f %%); widen scale.rolling or leave the term out",
+			w, formatCount(med), floor, noise)
+	} else {
+		msg = fmt.Sprintf("its median yearly count is %s (under %g): the line is mostly noise (about ±%.0f %% a year); smooth it with scale.rolling, e.g. {years: 5}",
+			formatCount(med), floor, noise)
+	}
+	c.add(Finding{ID: IDSparse, Severity: Review, Page: c.pageOf[i], Term: sr.Term,
+		At: c.in.Spec.Where("preflight.min-count").String(), Message: msg})
+}
+
+// MedianActive returns the median of values over the years from the
+// first to the last in which counts is above zero, gap years (NaN in
+// either) left out; false when counts has no such year.
+func MedianActive(counts, values []float64) (float64, bool) {
+	first, last := -1, -1
+	for j, c := range counts {
+		if c > 0 {
+			if first < 0 {
+				first = j
+			}
+			last = j
+		}
+	}
+	if first < 0 {
+		return 0, false
+	}
+	var xs []float64
+	for j := first; j <= last; j++ {
+		if !math.IsNaN(counts[j]) && !math.IsNaN(values[j]) {
+			xs = append(xs, values[j])
+		}
+	}
+	sort.Float64s(xs)
+	n := len(xs)
+	if n%2 == 1 {
+		return xs[n/2], true
+	}
+	return (xs[n/2-1] + xs[n/2]) / 2, true
+}
+
+func formatCount(v float64) string {
+	return strconv.FormatFloat(math.Round(v*10)/10, 'f', -1, 64)
 }
 
 // Spike returns the highest of values, the highest of the other years,

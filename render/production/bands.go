@@ -2,6 +2,7 @@ package production
 
 import (
 	"bytes"
+	"context"
 	"compress/flate"
 	"encoding/binary"
 	"encoding/json"
@@ -322,21 +323,21 @@ func (pb *pageBands) bands(pageH, dpi float64, r raster.Region) []bandTask {
 
 // drawBand draws the band's pixels: everything on the page but the
 // panels it does not meet.
-func drawBand(p *feature.Output, i int, dpi float64, t bandTask) (*image.RGBA, error) {
+func drawBand(ctx context.Context, p *feature.Output, i int, dpi float64, t bandTask) (*image.RGBA, error) {
 	pg := &p.Plan.Pages[i]
 	in := map[int]bool{}
 	for _, pn := range t.panels {
 		in[pn.Item] = true
 	}
-	return raster.DrawRegion(pg.Media.H(), dpi, t.region, p.Feature.PaperColor(), func(ctx *canvas.Context) error {
+	return raster.DrawRegionContext(ctx, pg.Media.H(), dpi, t.region, p.Feature.PaperColor(), func(ctx *canvas.Context) error {
 		return p.Feature.DrawSome(ctx, i, func(pn layout.Panel) bool { return in[pn.Item] })
 	})
 }
 
-// bandOf returns a band from the last build's cache, or draws and
-// encodes it; either way it is in this build's cache after. drawn says
-// which.
-func (b *build) bandOf(p *feature.Output, i int, dpi float64, t bandTask) (eb *encodedBand, drawn bool, err error) {
+// bandOf returns a band of the PNG file from the last build's cache, or
+// draws and encodes it; either way it is in this build's cache after.
+// drawn says which.
+func (b *build) bandOf(p *feature.Output, i int, dpi float64, t bandTask, file string) (eb *encodedBand, drawn bool, err error) {
 	name := t.key + ".band"
 	oldPath := filepath.Join(b.final, CacheDir, p.Spec.Name, name)
 	newPath := filepath.Join(b.stage.dir, CacheDir, p.Spec.Name, name)
@@ -345,7 +346,7 @@ func (b *build) bandOf(p *feature.Output, i int, dpi float64, t bandTask) (eb *e
 			return eb, false, nil
 		}
 	}
-	img, err := drawBand(p, i, dpi, t)
+	img, err := b.rasterize(file, func() (*image.RGBA, error) { return drawBand(b.ctx, p, i, dpi, t) })
 	if err != nil {
 		return nil, true, err
 	}

@@ -12,7 +12,6 @@ import (
 	"io"
 	"os"
 	"path/filepath"
-	"runtime"
 	"sort"
 	"strings"
 	"sync"
@@ -70,6 +69,9 @@ type Hooks struct {
 	// BeforeDraw runs before a screen output ("web") or an insert
 	// ("insert NAME") is drawn (not when its files are carried over).
 	BeforeDraw func(unit string) error
+	// BeforeRaster runs before a PNG is drawn (a proof, a screen page at
+	// a scale, an insert), with the path it will have in the stage.
+	BeforeRaster func(file string) error
 	// BeforeCommit runs just before the stage folder is swapped in.
 	BeforeCommit func(stage string) error
 }
@@ -390,14 +392,16 @@ func (b *build) keepAll(label string, want []string, old []*FileEntry) bool {
 		b.progress.Begin(label, len(old))
 	}
 	ok := make([]bool, len(old))
-	parallel(len(old), func(lo, hi int) {
-		for i := lo; i < hi && b.ctx.Err() == nil; i++ {
-			p := filepath.FromSlash(old[i].Path)
-			ok[i] = b.keep(filepath.Join(b.final, p), filepath.Join(b.stage.dir, p), old[i].SHA256)
-			if label != "" {
-				b.progress.Step()
-			}
+	each(b.ctx, len(old), func(i int) (bool, error) {
+		p := filepath.FromSlash(old[i].Path)
+		kept := b.keep(filepath.Join(b.final, p), filepath.Join(b.stage.dir, p), old[i].SHA256)
+		if label != "" {
+			b.progress.Step()
 		}
+		return kept, nil
+	}, func(i int, kept bool) error {
+		ok[i] = kept
+		return nil
 	})
 	all := true
 	for _, k := range ok {
@@ -447,7 +451,7 @@ func (b *build) run(preps []*feature.Output) (files []string, err error) {
 	b.termsDone = make(chan struct{})
 	go func() {
 		defer close(b.termsDone)
-		b.termList = termHashes(b.j.Data)
+		b.termList = termHashes(b.ctx, b.j.Data)
 		b.termMap = make(map[string]string, len(b.termList))
 		for _, t := range b.termList {
 			b.termMap[t.Term] = t.SHA256
@@ -531,21 +535,22 @@ func (b *build) run(preps []*feature.Output) (files []string, err error) {
 	return files, nil
 }
 
-// OutputEntry lists an output's pages with their terms and input hashes.
-func (b *build) OutputEntry(p *feature.Output, dpi float64) OutputEntry {
+// entryOf lists an output's pages with their terms and input hashes.
+func (b *build) entryOf(p *feature.Output, dpi float64) (OutputEntry, error) {
 	e := OutputEntry{Name: p.Spec.Name, Kind: string(p.Spec.Kind), Proofs: dpi}
 	if len(p.Plan.Pages) == 0 {
-		return e
+		return e, nil
 	}
 	fontSum := fontsSum(p.Fonts)
 	e.Pages = make([]PageEntry, len(p.Plan.Pages))
-	parallel(len(e.Pages), func(lo, hi int) {
-		for i := lo; i < hi; i++ {
-			e.Pages[i] = PageEntry{Page: i + 1, Terms: pageTerms(b.j, p, i),
-				Inputs: pageInputs(b.j, p, i, b.setup(p, i), b.specSum, fontSum)}
-		}
+	err := each(b.ctx, len(e.Pages), func(i int) (PageEntry, error) {
+		return PageEntry{Page: i + 1, Terms: pageTerms(b.j, p, i),
+			Inputs: pageInputs(b.j, p, i, b.setup(p, i), b.specSum, fontSum)}, nil
+	}, func(i int, pe PageEntry) error {
+		e.Pages[i] = pe
+		return nil
 	})
-	return e
+	return e, err
 }
 
 // PageBoxes converts a layout page's boxes for the PDF writer.
@@ -561,7 +566,7 @@ func (b *build) setup(p *feature.Output, i int) pdf.PageSetup {
 	}
 	out := p.Spec
 	pg := &p.Plan.Pages[i]
-	setup := pdf.PageSetup{Boxes: PageBoxes(pg)}
+	setup := pdf.PageSetup{Boxes: PageBoxes(pg), Press: p.Press}
 	if out.Marks {
 		// The layout's crop-mark geometry (layout.CropMarks), which
 		// `sheaf check --json` reports: what the PDF draws.
@@ -587,31 +592,26 @@ func (b *build) buildPrint(p *feature.Output) ([]string, error) {
 			dpi = 100
 		}
 	}
-	entry := b.OutputEntry(p, dpi)
+	entry, err := b.entryOf(p, dpi)
+	if err != nil {
+		return nil, err
+	}
 	st := OutputStats{Output: out.Name, Kind: string(out.Kind), Pages: len(entry.Pages)}
 	odir := filepath.Join(b.stage.dir, out.Name)
 	pdfPath := filepath.Join(odir, out.Name+".pdf")
 	// Pages go into the PDF as they are ready, in order, while later ones
 	// are still being drawn.
 	var encErr error
-	err := b.writeHashed(pdfPath, func(w io.Writer) error {
-		pw := pdf.NewWriter(w, pdf.Options{Title: b.j.Spec.Title, Version: Version, Date: b.date})
+	err = b.writeHashed(pdfPath, func(w io.Writer) error {
+		pw := pdf.NewWriter(w, pdf.Options{Title: b.j.Spec.Title, Version: Version, Date: b.date, Press: p.Press})
 		// Pages from the cache name their fonts by hash only.
 		for _, st := range []fonts.Style{fonts.Regular, fonts.Bold, fonts.Italic} {
 			if _, err := pw.RegisterFont(p.Fonts.Font(st)); err != nil {
 				return err
 			}
 		}
-		var addErr error
-		encErr = b.encodePages(p, entry.Pages, &st, func(e *pdf.EncodedPage) bool {
-			addErr = pw.AddEncoded(e)
-			return addErr == nil
-		})
-		switch {
-		case encErr != nil:
+		if encErr = b.encodePages(p, entry.Pages, &st, pw.AddEncoded); encErr != nil {
 			return encErr
-		case addErr != nil:
-			return addErr
 		}
 		return pw.Close()
 	})
@@ -654,86 +654,37 @@ func rel(root, path string) string {
 // as soon as it and the pages before it are ready; pages are drawn in
 // parallel. A page whose inputs hash is in the previous build's cache is
 // taken from it; the others are drawn and encoded and go into the new
-// cache. It stops when add reports false.
-func (b *build) encodePages(p *feature.Output, pages []PageEntry, st *OutputStats, add func(*pdf.EncodedPage) bool) error {
+// cache. It stops at add's first error and returns it.
+func (b *build) encodePages(p *feature.Output, pages []PageEntry, st *OutputStats, add func(*pdf.EncodedPage) error) error {
 	out := p.Spec.Name
 	oldCache := filepath.Join(b.final, CacheDir, out)
 	newCache := filepath.Join(b.stage.dir, CacheDir, out)
 	if err := os.MkdirAll(newCache, 0o755); err != nil {
 		return err
 	}
-	n := len(pages)
-	res := make([]*pdf.EncodedPage, n)
-	errs := make([]error, n)
-	done := make([]chan struct{}, n)
-	for i := range done {
-		done[i] = make(chan struct{})
-	}
 	var encodedN, reusedN atomic.Int64
-	var stop atomic.Bool
-	b.progress.Begin(out+": PDF pages", n)
-	work := make(chan int, n)
-	for i := range n {
-		work <- i
-	}
-	close(work)
-	var wg sync.WaitGroup
-	for range runtime.GOMAXPROCS(0) {
-		wg.Add(1)
-		go func() {
-			defer wg.Done()
-			for i := range work {
-				b.encodeOne(p, i, pages[i].Inputs+".page", oldCache, newCache, &stop, &encodedN, &reusedN, &res[i], &errs[i])
-				close(done[i])
+	b.progress.Begin(out+": PDF pages", len(pages))
+	err := each(b.ctx, len(pages), func(i int) (*pdf.EncodedPage, error) {
+		defer b.progress.Step()
+		name := pages[i].Inputs + ".page"
+		if !b.full {
+			if e, ok := b.reuse(filepath.Join(oldCache, name), filepath.Join(newCache, name)); ok {
+				reusedN.Add(1)
+				return e, nil
 			}
-		}()
-	}
-	var first error // the first page in order that failed
-	for i := range n {
-		<-done[i]
-		if errs[i] != nil {
-			first = fmt.Errorf("page %d: %w", i+1, errs[i])
-			break
 		}
-		if !add(res[i]) {
-			break
+		encodedN.Add(1)
+		e, err := b.encode(p, i)
+		if err == nil {
+			err = WriteAtomic(filepath.Join(newCache, name), func(w io.Writer) error { return writeCachedPage(w, e) })
 		}
-		res[i] = nil // the writer has it
-	}
-	stop.Store(true)
-	wg.Wait()
-	if err := b.ctx.Err(); err != nil {
-		return err
-	}
+		if err != nil {
+			return nil, fmt.Errorf("page %d: %w", i+1, err)
+		}
+		return e, nil
+	}, func(_ int, e *pdf.EncodedPage) error { return add(e) })
 	st.Encoded, st.Reused = int(encodedN.Load()), int(reusedN.Load())
-	return first
-}
-
-// encodeOne takes page i from the old cache or draws and encodes it.
-func (b *build) encodeOne(p *feature.Output, i int, name, oldCache, newCache string, stop *atomic.Bool, encodedN, reusedN *atomic.Int64, res **pdf.EncodedPage, errp *error) {
-	if stop.Load() {
-		*errp = errors.New("stopped")
-		return
-	}
-	if err := b.ctx.Err(); err != nil {
-		*errp = err
-		return
-	}
-	if !b.full {
-		if e, ok := b.reuse(filepath.Join(oldCache, name), filepath.Join(newCache, name)); ok {
-			*res = e
-			reusedN.Add(1)
-			b.progress.Step()
-			return
-		}
-	}
-	e, err := b.encode(p, i)
-	if err == nil {
-		err = WriteAtomic(filepath.Join(newCache, name), func(w io.Writer) error { return writeCachedPage(w, e) })
-	}
-	*res, *errp = e, err
-	encodedN.Add(1)
-	b.progress.Step()
+	return err
 }
 
 // encode draws and encodes page i.
@@ -862,15 +813,9 @@ func (b *build) writeProofs(p *feature.Output, pages []PageEntry, dpi float64, o
 	prevOut := b.prev.Output(p.Spec.Name)
 	files := make([]string, n)
 	fresh := make([]image.Image, n) // drawn this build; nil when kept
-	errs := make([]error, n)
-	kept := make([]bool, n)
 	b.progress.Begin(p.Spec.Name+": proofs", n)
-	sem := make(chan struct{}, runtime.GOMAXPROCS(0))
-	var wg sync.WaitGroup
+	var draw []int // pages whose proof is drawn
 	for i := range n {
-		if b.ctx.Err() != nil {
-			break
-		}
 		path := filepath.Join(odir, "proofs", fmt.Sprintf("page-%03d.png", i+1))
 		files[i] = path
 		relp := rel(b.stage.dir, path)
@@ -878,40 +823,37 @@ func (b *build) writeProofs(p *feature.Output, pages []PageEntry, dpi float64, o
 		if !b.full && prevOut != nil && prevOut.Proofs == dpi {
 			if old := b.prev.File(relp); old != nil && len(old.Pages) == 1 && old.Pages[0].Inputs == pages[i].Inputs {
 				if b.keep(filepath.Join(b.final, relp), path, old.SHA256) {
-					kept[i] = true
 					st.ProofsReused++
 					b.progress.Step()
 					continue
 				}
 			}
 		}
-		st.ProofsDrawn++
-		wg.Add(1)
-		sem <- struct{}{}
-		go func(i int) {
-			defer func() { <-sem; wg.Done() }()
-			defer b.progress.Step()
-			pg := &p.Plan.Pages[i]
-			region := raster.RegionOf(pg.Media.H(), dpi, pg.Trim.X0, pg.Trim.Y0, pg.Trim.X1, pg.Trim.Y1)
-			trim, err := raster.DrawRegion(pg.Media.H(), dpi, region, p.Feature.PaperColor(), func(ctx *canvas.Context) error {
+		draw = append(draw, i)
+	}
+	st.ProofsDrawn = len(draw)
+	err := each(b.ctx, len(draw), func(k int) (struct{}, error) {
+		defer b.progress.Step()
+		i := draw[k]
+		pg := &p.Plan.Pages[i]
+		region := raster.RegionOf(pg.Media.H(), dpi, pg.Trim.X0, pg.Trim.Y0, pg.Trim.X1, pg.Trim.Y1)
+		trim, err := b.rasterize(files[i], func() (*image.RGBA, error) {
+			// With a printing condition the proof is a soft proof: colours
+			// as the press prints them.
+			return raster.ProofRegionContext(b.ctx, pg.Media.H(), dpi, region, p.Feature.PaperColor(), p.Press, func(ctx *canvas.Context) error {
 				return p.Feature.Draw(ctx, i)
 			})
-			if err != nil {
-				errs[i] = err
-				return
-			}
-			if err := b.writeHashed(files[i], func(w io.Writer) error { return raster.WritePNG(w, trim) }); err != nil {
-				errs[i] = err
-				return
-			}
-			fresh[i] = trim
-		}(i)
-	}
-	wg.Wait()
-	if err := b.ctx.Err(); err != nil {
-		return nil, err
-	}
-	if err := errors.Join(errs...); err != nil {
+		})
+		if err != nil {
+			return struct{}{}, err
+		}
+		if err := b.writeHashed(files[i], func(w io.Writer) error { return raster.WritePNGContext(b.ctx, w, trim) }); err != nil {
+			return struct{}{}, err
+		}
+		fresh[i] = trim
+		return struct{}{}, nil
+	}, nil)
+	if err != nil {
 		return nil, err
 	}
 	cpath := filepath.Join(odir, "contact.png")
@@ -930,21 +872,17 @@ func (b *build) writeProofs(p *feature.Output, pages []PageEntry, dpi float64, o
 	// Thumbnails are cached beside the pages: scaling 84 proofs down costs
 	// more than the one page that changed.
 	thumbs := make([]image.Image, n)
-	errs = make([]error, n)
-	for i := range n {
-		wg.Add(1)
-		sem <- struct{}{}
-		go func(i int) {
-			defer func() { <-sem; wg.Done() }()
-			thumbs[i], errs[i] = b.thumbnail(p.Spec.Name, pages[i].Inputs, dpi, fresh[i], files[i])
-		}(i)
-	}
-	wg.Wait()
-	if err := errors.Join(errs...); err != nil {
+	err = each(b.ctx, n, func(i int) (image.Image, error) {
+		return b.thumbnail(p.Spec.Name, pages[i].Inputs, dpi, fresh[i], files[i])
+	}, func(i int, t image.Image) error {
+		thumbs[i] = t
+		return nil
+	})
+	if err != nil {
 		return nil, err
 	}
 	sheet := contact.Sheet(thumbs, 4)
-	if err := b.writeHashed(cpath, func(w io.Writer) error { return raster.WritePNG(w, sheet) }); err != nil {
+	if err := b.writeHashed(cpath, func(w io.Writer) error { return raster.WritePNGContext(b.ctx, w, sheet) }); err != nil {
 		return nil, err
 	}
 	return files, nil
@@ -1011,6 +949,16 @@ func (b *build) stageHas(relp string) bool {
 	defer b.sumsMu.Unlock()
 	_, ok := b.sums[relp]
 	return ok
+}
+
+// rasterize runs the BeforeRaster hook for file, then draw.
+func (b *build) rasterize(file string, draw func() (*image.RGBA, error)) (*image.RGBA, error) {
+	if h := b.hooks.BeforeRaster; h != nil {
+		if err := h(file); err != nil {
+			return nil, err
+		}
+	}
+	return draw()
 }
 
 // thumbnail returns a page's contact-sheet thumbnail: from the previous

@@ -41,6 +41,7 @@ type GraphicDrawn struct {
 	Why    string `json:"why"`
 }
 
+// FileChanges sorts the files of a build by what happened to them.
 type FileChanges struct {
 	Added     []string `json:"added"`
 	Removed   []string `json:"removed"`

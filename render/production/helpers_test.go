@@ -5,6 +5,8 @@ import (
 	"path/filepath"
 	"testing"
 
+	"github.com/stretchr/testify/require"
+
 	"sheaf/render/feature"
 )
 
@@ -14,9 +16,7 @@ import (
 func demoJob(t testing.TB, extra string) *feature.Job {
 	t.Helper()
 	data, err := filepath.Abs("../../examples/quillmere/data")
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	spec := `title: Production test
 date: 2026-01-15
 data: {counts: ` + filepath.Join(data, "counts.csv") + `, totals: ` + filepath.Join(data, "totals.csv") + `}
@@ -32,12 +32,8 @@ outputs:
     proofs: 40
 ` + extra
 	path := filepath.Join(t.TempDir(), "spec.yaml")
-	if err := os.WriteFile(path, []byte(spec), 0o644); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, os.WriteFile(path, []byte(spec), 0o644))
 	j, err := feature.Load(path)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	return j
 }

@@ -2,6 +2,7 @@ package production
 
 import (
 	"fmt"
+	"image"
 	"io"
 	"path/filepath"
 	"sort"
@@ -61,7 +62,7 @@ func (b *build) buildInserts(preps []*feature.Insert) ([]string, error) {
 				return nil, err
 			}
 		}
-		if err := drawInsert(p, idir, b.date); err != nil {
+		if err := b.drawInsert(p, idir); err != nil {
 			return nil, err
 		}
 		st.Encoded, st.Whole = 1, "drawn ("+why+")"
@@ -135,16 +136,25 @@ func (b *build) insertInputs(p *feature.Insert, terms []TermHash) string {
 		h.int(y)
 	}
 	h.str(d.Unit)
+	h.int(d.Rolling)
+	h.float(p.Graphic.Output.Band)
+	h.str(string(p.Graphic.Insert.Compare))
 	for _, s := range p.Graphic.Palette.Stops(float64(d.Span.From), float64(d.Span.To), 0) {
 		r := s.Color
 		h.floats([]float64{s.Year, r.R, r.G, r.B})
 	}
 	h.str(fontsSum(p.Graphic.Fonts))
+	if p.Press != nil {
+		h.str("press " + p.Press.Fingerprint())
+	}
 	return h.sum()
 }
 
 // drawInsert draws one insert's files into dir.
-func drawInsert(p *feature.Insert, dir string, date time.Time) error {
+func (b *build) drawInsert(p *feature.Insert, dir string) error {
+	if err := b.ctx.Err(); err != nil {
+		return err
+	}
 	w, h := p.Graphic.Size()
 	if p.Output.Kind == specs.Print {
 		// An insert is placed by the article's layout, which adds its
@@ -154,8 +164,8 @@ func drawInsert(p *feature.Insert, dir string, date time.Time) error {
 		box := canvas.Rect{X0: 0, Y0: 0, X1: w, Y1: h}
 		title, _ := p.Graphic.Describe()
 		return WriteAtomic(path, func(wr io.Writer) error {
-			pw := pdf.NewWriter(wr, pdf.Options{Title: title, Version: Version, Date: date})
-			if err := pw.AddPage(pdf.PageSetup{Boxes: pdf.PageBoxes{Media: box, Bleed: box, Trim: box}}, draw); err != nil {
+			pw := pdf.NewWriter(wr, pdf.Options{Title: title, Version: Version, Date: b.date, Press: p.Press})
+			if err := pw.AddPage(pdf.PageSetup{Boxes: pdf.PageBoxes{Media: box, Bleed: box, Trim: box}, Press: p.Press}, draw); err != nil {
 				return err
 			}
 			return pw.Close()
@@ -173,6 +183,9 @@ func drawInsert(p *feature.Insert, dir string, date time.Time) error {
 		if err := p.Graphic.Draw(canvas.NewContext(doc)); err != nil {
 			return err
 		}
+		if err := b.ctx.Err(); err != nil {
+			return err
+		}
 		_, err = doc.WriteTo(wr)
 		return err
 	})
@@ -180,12 +193,14 @@ func drawInsert(p *feature.Insert, dir string, date time.Time) error {
 		return err
 	}
 	for _, s := range screenScales {
-		img, err := raster.Draw(w, h, s.dpi, paper, func(ctx *canvas.Context) error { return p.Graphic.Draw(ctx) })
+		ppath := filepath.Join(dir, p.Spec.Name+s.suffix+".png")
+		img, err := b.rasterize(ppath, func() (*image.RGBA, error) {
+			return raster.DrawContext(b.ctx, w, h, s.dpi, paper, func(ctx *canvas.Context) error { return p.Graphic.Draw(ctx) })
+		})
 		if err != nil {
 			return fmt.Errorf("insert %q: %w", p.Spec.Name, err)
 		}
-		ppath := filepath.Join(dir, p.Spec.Name+s.suffix+".png")
-		if err := WriteAtomic(ppath, func(wr io.Writer) error { return raster.WritePNG(wr, img) }); err != nil {
+		if err := WriteAtomic(ppath, func(wr io.Writer) error { return raster.WritePNGContext(b.ctx, wr, img) }); err != nil {
 			return err
 		}
 	}

@@ -1,6 +1,7 @@
 package production
 
 import (
+	"context"
 	"crypto/sha256"
 	"encoding/binary"
 	"encoding/hex"
@@ -13,10 +14,8 @@ import (
 	"math"
 	"os"
 	"path/filepath"
-	"runtime"
 	"sort"
 	"strings"
-	"sync"
 
 	"sheaf/layout/fonts"
 	"sheaf/specs/series"
@@ -48,11 +47,13 @@ type Manifest struct {
 	Findings string `json:"findings,omitempty"`
 }
 
+// FileHash is a file that went into a build, with its SHA-256.
 type FileHash struct {
 	Path   string `json:"path"`
 	SHA256 string `json:"sha256"`
 }
 
+// FontHash is one font of an output, with the SHA-256 of its bytes.
 type FontHash struct {
 	Output string `json:"output"`
 	Style  string `json:"style"`
@@ -70,6 +71,8 @@ type TermHash struct {
 	Peak int `json:"peak,omitempty"`
 }
 
+// OutputEntry is one output of a build: its pages, and for a screen
+// output the hash of its inputs.
 type OutputEntry struct {
 	Name   string  `json:"name"`
 	Kind   string  `json:"kind"`
@@ -99,6 +102,7 @@ type PageEntry struct {
 	Inputs string   `json:"inputs"`
 }
 
+// FileEntry is one file of a build: its hash and size, and what it shows.
 type FileEntry struct {
 	Path   string      `json:"path"` // relative to DIR, with forward slashes
 	Output string      `json:"output,omitempty"`
@@ -134,6 +138,7 @@ func encodeJSON(w io.Writer, v any) error {
 	return enc.Encode(v)
 }
 
+// Output returns the output named name, or nil (also for a nil manifest).
 func (m *Manifest) Output(name string) *OutputEntry {
 	if m == nil {
 		return nil
@@ -146,6 +151,7 @@ func (m *Manifest) Output(name string) *OutputEntry {
 	return nil
 }
 
+// Insert returns the insert named name, or nil.
 func (m *Manifest) Insert(name string) *InsertEntry {
 	if m == nil {
 		return nil
@@ -173,6 +179,8 @@ func (m *Manifest) FilesOf(output, insert string) []*FileEntry {
 	return out
 }
 
+// File returns the file at path (relative to the build folder, with
+// forward slashes), or nil.
 func (m *Manifest) File(path string) *FileEntry {
 	if m == nil {
 		return nil
@@ -276,35 +284,18 @@ func termSumWith(h *hasher, sr *series.Series) string {
 }
 
 // termHashes hashes every term, on all cores: ten thousand terms of two
-// hundred years are megabytes of SHA-256.
-func termHashes(d *series.Set) []TermHash {
+// hundred years are megabytes of SHA-256. Cancelled, it returns what it
+// has (the build is stopping).
+func termHashes(ctx context.Context, d *series.Set) []TermHash {
 	ts := make([]TermHash, len(d.Series))
-	parallel(len(ts), func(lo, hi int) {
-		h := newHasher(termKind)
-		for i := lo; i < hi; i++ {
-			ts[i] = TermHash{Term: d.Series[i].Term, SHA256: termSumWith(h, &d.Series[i]), Peak: d.Series[i].PeakYear}
-		}
+	each(ctx, len(ts), func(i int) (TermHash, error) {
+		return TermHash{Term: d.Series[i].Term, SHA256: termSum(&d.Series[i]), Peak: d.Series[i].PeakYear}, nil
+	}, func(i int, t TermHash) error {
+		ts[i] = t
+		return nil
 	})
 	sort.Slice(ts, func(i, j int) bool { return ts[i].Term < ts[j].Term })
 	return ts
-}
-
-// parallel runs f over [0, n) cut into one range per core, and waits.
-func parallel(n int, f func(lo, hi int)) {
-	k := min(runtime.GOMAXPROCS(0), n)
-	if k <= 1 {
-		f(0, n)
-		return
-	}
-	var wg sync.WaitGroup
-	for c := range k {
-		wg.Add(1)
-		go func() {
-			defer wg.Done()
-			f(c*n/k, (c+1)*n/k)
-		}()
-	}
-	wg.Wait()
 }
 
 // fontHashes lists the fonts of an output with the hash of their raw

@@ -18,20 +18,22 @@ import (
 // gob costs ten times more than the bytes. Little-endian throughout;
 // counts and lengths are uvarints, floats their IEEE 754 bits:
 //
-//	magic "sheaf page v1\n"
+//	magic "sheaf page v2\n"
 //	boxes       12 × float64 (media, bleed, trim: x0 y0 x1 y1)
 //	content     length, bytes; compressed: 1 byte
 //	fonts       count; each: key (32 bytes), glyph count, each glyph:
 //	            id uint16, text length, text
-//	patterns    count; each: radial byte, coord count, coords,
-//	            stop count, stops (offset r g b)
-//	gstates     count; each: fill, stroke
+//	patterns    count; each: radial byte, device components (1 byte),
+//	            coord count, coords, stop count, stops (offset r g b,
+//	            ink count, inks)
+//	gstates     count; each: fill, stroke, overprint byte
 //	transparent 1 byte
+//	device      device components of the page (1 byte; 0 = sRGB)
 //	CRC-32C of all the above, 4 bytes
 //
 // TestPageCacheCoversEncodedPage fails when pdf.EncodedPage gains a field
 // this layout does not carry.
-const pageMagic = "sheaf page v1\n"
+const pageMagic = "sheaf page v2\n"
 
 var castagnoli = crc32.MakeTable(crc32.Castagnoli)
 
@@ -70,6 +72,7 @@ func writeCachedPage(w io.Writer, e *pdf.EncodedPage) error {
 	n(len(e.Patterns))
 	for _, s := range e.Patterns {
 		flag(s.Radial)
+		b = append(b, byte(s.Device))
 		n(len(s.Coords))
 		for _, c := range s.Coords {
 			f64(c)
@@ -80,14 +83,20 @@ func writeCachedPage(w io.Writer, e *pdf.EncodedPage) error {
 			f64(st.R)
 			f64(st.G)
 			f64(st.B)
+			n(len(st.Ink))
+			for _, v := range st.Ink {
+				f64(v)
+			}
 		}
 	}
 	n(len(e.GStates))
 	for _, g := range e.GStates {
 		f64(g.Fill)
 		f64(g.Stroke)
+		flag(g.Overprint)
 	}
 	flag(e.Transparent)
+	b = append(b, byte(e.Device))
 	b = binary.LittleEndian.AppendUint32(b, crc32.Checksum(b, castagnoli))
 	_, err := w.Write(b)
 	return err
@@ -133,6 +142,20 @@ func (r *pageReader) f64(what string) float64 {
 	if b := r.bytes(8, what); b != nil {
 		return math.Float64frombits(binary.LittleEndian.Uint64(b))
 	}
+	return 0
+}
+
+// device reads a colour space's component count: 0 (sRGB), 1, 3 or 4.
+func (r *pageReader) device(what string) int {
+	b := r.bytes(1, what)
+	if b == nil {
+		return 0
+	}
+	switch b[0] {
+	case 0, 1, 3, 4:
+		return int(b[0])
+	}
+	r.fail(what)
 	return 0
 }
 
@@ -184,6 +207,7 @@ func decodeCachedPage(data []byte) (*pdf.EncodedPage, error) {
 		for i := range e.Patterns {
 			s := &e.Patterns[i]
 			s.Radial = r.flag("pattern")
+			s.Device = r.device("pattern device")
 			if c := r.count("coords"); c > 0 {
 				s.Coords = make([]float64, c)
 				for j := range s.Coords {
@@ -194,6 +218,12 @@ func decodeCachedPage(data []byte) (*pdf.EncodedPage, error) {
 				s.Stops = make([]pdf.Stop, c)
 				for j := range s.Stops {
 					s.Stops[j] = pdf.Stop{Offset: r.f64("stops"), R: r.f64("stops"), G: r.f64("stops"), B: r.f64("stops")}
+					if k := r.count("inks"); k > 0 {
+						s.Stops[j].Ink = make([]float64, k)
+						for m := range s.Stops[j].Ink {
+							s.Stops[j].Ink[m] = r.f64("inks")
+						}
+					}
 				}
 			}
 		}
@@ -201,10 +231,11 @@ func decodeCachedPage(data []byte) (*pdf.EncodedPage, error) {
 	if n := r.count("gstates"); n > 0 {
 		e.GStates = make([]pdf.Alpha, n)
 		for i := range e.GStates {
-			e.GStates[i] = pdf.Alpha{Fill: r.f64("gstates"), Stroke: r.f64("gstates")}
+			e.GStates[i] = pdf.Alpha{Fill: r.f64("gstates"), Stroke: r.f64("gstates"), Overprint: r.flag("overprint")}
 		}
 	}
 	e.Transparent = r.flag("transparent")
+	e.Device = r.device("device")
 	if r.err == nil && len(r.b) != 0 {
 		r.fail("the end")
 	}

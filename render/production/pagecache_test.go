@@ -4,11 +4,14 @@ import (
 	"bytes"
 	"encoding/gob"
 	"fmt"
+	"math"
 	"reflect"
 	"strings"
 	"testing"
 	"time"
 
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
 	"github.com/tdewolff/canvas"
 
 	"sheaf/layout/fonts"
@@ -22,15 +25,15 @@ import (
 // key (see pdf.EncodedPage).
 func TestPageCacheCoversEncodedPage(t *testing.T) {
 	want := map[string]string{
-		"pdf.EncodedPage": "Boxes pdf.PageBoxes; Content []uint8; Compressed bool; Fonts []pdf.PageFont; Patterns []pdf.Shading; GStates []pdf.Alpha; Transparent bool",
+		"pdf.EncodedPage": "Boxes pdf.PageBoxes; Content []uint8; Compressed bool; Fonts []pdf.PageFont; Patterns []pdf.Shading; GStates []pdf.Alpha; Transparent bool; Device int",
 		"pdf.PageBoxes":   "Media canvas.Rect; Bleed canvas.Rect; Trim canvas.Rect",
 		"canvas.Rect":     "X0 float64; Y0 float64; X1 float64; Y1 float64",
 		"pdf.PageFont":    "Key pdf.FontKey; Glyphs []pdf.GlyphUse; font *pdf.fontData",
 		"pdf.FontKey":     "[32]uint8",
 		"pdf.GlyphUse":    "ID uint16; Text string",
-		"pdf.Shading":     "Radial bool; Coords []float64; Stops []pdf.Stop",
-		"pdf.Stop":        "Offset float64; R float64; G float64; B float64",
-		"pdf.Alpha":       "Fill float64; Stroke float64",
+		"pdf.Shading":     "Radial bool; Device int; Coords []float64; Stops []pdf.Stop",
+		"pdf.Stop":        "Offset float64; R float64; G float64; B float64; Ink []float64",
+		"pdf.Alpha":       "Fill float64; Stroke float64; Overprint bool",
 	}
 	for _, v := range []any{pdf.EncodedPage{}, pdf.PageBoxes{}, canvas.Rect{}, pdf.PageFont{}, pdf.FontKey{}, pdf.GlyphUse{}, pdf.Shading{}, pdf.Stop{}, pdf.Alpha{}} {
 		typ := reflect.TypeOf(v)
@@ -56,14 +59,10 @@ func cachePages(t *testing.T) []*pdf.EncodedPage {
 	t.Helper()
 	j := demoJob(t, "")
 	p, err := j.Prepare(j.Spec.Output("print"))
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	drawn, err := pdf.EncodePage(pdf.PageSetup{Boxes: PageBoxes(&p.Plan.Pages[0]), Marks: &pdf.MarkOptions{}},
 		func(c *canvas.Canvas) error { return p.Feature.Draw(canvas.NewContext(c), 0) })
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	full := &pdf.EncodedPage{
 		Boxes:      pdf.PageBoxes{Media: canvas.Rect{X1: 300, Y1: 400}, Bleed: canvas.Rect{X0: 10, Y0: 10, X1: 290, Y1: 390}, Trim: canvas.Rect{X0: 19.5, Y0: 19.25, X1: 280.125, Y1: 380}},
 		Content:    []byte("q 1 0 0 1 0 0 cm /P0 sh Q\n"),
@@ -72,10 +71,12 @@ func cachePages(t *testing.T) []*pdf.EncodedPage {
 			{Key: pdf.FontKey{7}}},
 		Patterns: []pdf.Shading{
 			{Radial: true, Coords: []float64{1, 2, 0, 3, 4, 5.5}, Stops: []pdf.Stop{{Offset: 0, R: 1}, {Offset: 1, G: 0.5, B: 1}}},
-			{Coords: []float64{0, 0, 100, -0.0}},
+			{Coords: []float64{0, 0, 100, math.Copysign(0, -1)}},
+			{Device: 4, Coords: []float64{0, 0, 10, 0}, Stops: []pdf.Stop{{Offset: 0, Ink: []float64{0.1, 0.2, 0.3, 0.4}}, {Offset: 1, Ink: []float64{1, 0, 0.5, 0}}}},
 		},
-		GStates:     []pdf.Alpha{{Fill: 0.5, Stroke: 1}, {}},
+		GStates:     []pdf.Alpha{{Fill: 0.5, Stroke: 1}, {}, {Fill: 1, Stroke: 1, Overprint: true}},
 		Transparent: true,
+		Device:      4,
 	}
 	return []*pdf.EncodedPage{drawn, full}
 }
@@ -86,29 +87,19 @@ func cachePages(t *testing.T) []*pdf.EncodedPage {
 func TestPageCacheRoundTrip(t *testing.T) {
 	for i, e := range cachePages(t) {
 		var b bytes.Buffer
-		if err := writeCachedPage(&b, e); err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, writeCachedPage(&b, e))
 		got, err := decodeCachedPage(bytes.Clone(b.Bytes()))
-		if err != nil {
-			t.Fatalf("page %d: %v", i, err)
-		}
+		require.NoError(t, err, "page %d", i)
 		var g bytes.Buffer
-		if err := gob.NewEncoder(&g).Encode(e); err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, gob.NewEncoder(&g).Encode(e))
 		var viaGob pdf.EncodedPage
-		if err := gob.NewDecoder(&g).Decode(&viaGob); err != nil {
-			t.Fatal(err)
-		}
-		if !reflect.DeepEqual(got, &viaGob) {
-			t.Errorf("page %d: read back\n%+v\nwant (gob round trip)\n%+v", i, got, &viaGob)
+		require.NoError(t, gob.NewDecoder(&g).Decode(&viaGob))
+		assert.Equal(t, &viaGob, got, "page %d: read back, want the gob round trip", i)
+		if i == 1 { // DeepEqual takes -0 for 0: the bits must survive (IEEE 754 sign bit)
+			assert.True(t, math.Signbit(got.Patterns[1].Coords[3]), "negative zero read back as +0")
 		}
 		if i == 0 {
-			a, b := pdfOf(t, e), pdfOf(t, got)
-			if !bytes.Equal(a, b) {
-				t.Errorf("page %d: the PDF of the page read back differs from the original's", i)
-			}
+			assert.Equal(t, pdfOf(t, e), pdfOf(t, got), "page %d: the PDF of the page read back is the original's", i)
 		}
 	}
 }
@@ -116,22 +107,15 @@ func TestPageCacheRoundTrip(t *testing.T) {
 func pdfOf(t *testing.T, e *pdf.EncodedPage) []byte {
 	t.Helper()
 	fs, err := fonts.Default()
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	var out bytes.Buffer
 	w := pdf.NewWriter(&out, pdf.Options{Title: "cache", Version: Version, Date: time.Unix(0, 0).UTC()})
 	for _, st := range []fonts.Style{fonts.Regular, fonts.Bold, fonts.Italic} {
-		if _, err := w.RegisterFont(fs.Font(st)); err != nil {
-			t.Fatal(err)
-		}
+		_, err := w.RegisterFont(fs.Font(st))
+		require.NoError(t, err)
 	}
-	if err := w.AddEncoded(e); err != nil {
-		t.Fatal(err)
-	}
-	if err := w.Close(); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, w.AddEncoded(e))
+	require.NoError(t, w.Close())
 	return out.Bytes()
 }
 
@@ -139,19 +123,15 @@ func pdfOf(t *testing.T, e *pdf.EncodedPage) []byte {
 // (and never panics), so the page is drawn again.
 func TestPageCacheDamage(t *testing.T) {
 	var b bytes.Buffer
-	if err := writeCachedPage(&b, cachePages(t)[1]); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, writeCachedPage(&b, cachePages(t)[1]))
 	data := b.Bytes()
 	for i := range data {
 		d := bytes.Clone(data)
 		d[i] ^= 0x10
-		if _, err := decodeCachedPage(d); err == nil {
-			t.Errorf("byte %d flipped: read without error", i)
-		}
-		if _, err := decodeCachedPage(bytes.Clone(data[:i])); err == nil {
-			t.Errorf("cut after %d bytes: read without error", i)
-		}
+		_, err := decodeCachedPage(d)
+		assert.Error(t, err, "byte %d flipped", i)
+		_, err = decodeCachedPage(bytes.Clone(data[:i]))
+		assert.Error(t, err, "cut after %d bytes", i)
 	}
 	if _, err := decodeCachedPage(append(bytes.Clone(data), 0)); err == nil {
 		t.Error("a byte appended: read without error")

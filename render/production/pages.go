@@ -25,7 +25,9 @@ import (
 //   - the span, the years, the unit and the shared y-range top (the key
 //     prints it);
 //   - the palette as gradient stops;
-//   - the SHA-256 of each font's bytes.
+//   - the SHA-256 of each font's bytes;
+//   - the printing condition's fingerprint (profile bytes and settings),
+//     since the profile file can change with the spec unchanged.
 func pageInputs(j *feature.Job, p *feature.Output, i int, setup pdf.PageSetup, specSum, fontSum string) string {
 	h := newHasher("sheaf page v1")
 	h.str(Version)
@@ -60,11 +62,16 @@ func pageInputs(j *feature.Job, p *feature.Output, i int, setup pdf.PageSetup, s
 	h.floats(d.Years)
 	h.str(d.Unit)
 	h.float(d.YMax)
+	h.int(d.Rolling)     // the window the values were pooled over (the key's note says it)
+	h.float(p.Spec.Band) // the band's level: the tint and the key's note
 	for _, s := range p.Feature.Stops {
 		r := s.Color
 		h.floats([]float64{s.Year, r.R, r.G, r.B})
 	}
 	h.str(fontSum)
+	if p.Press != nil {
+		h.str("press " + p.Press.Fingerprint())
+	}
 	return h.sum()
 }
 

@@ -2,19 +2,17 @@ package production
 
 import (
 	"bytes"
+	"context"
 	"encoding/json"
-	"errors"
 	"fmt"
 	"html"
 	"io"
 	"math"
 	"os"
 	"path/filepath"
-	"runtime"
 	"sort"
 	"strconv"
 	"strings"
-	"sync"
 	"sync/atomic"
 
 	"github.com/tdewolff/canvas"
@@ -49,7 +47,10 @@ const maxRasterPx = 40000
 // It returns the files, sorted.
 func (b *build) buildScreen(p *feature.Output) ([]string, error) {
 	out := p.Spec
-	entry := b.OutputEntry(p, 0)
+	entry, err := b.entryOf(p, 0)
+	if err != nil {
+		return nil, err
+	}
 	entry.Inputs = b.screenInputs(p, entry.Pages)
 	b.outputs = append(b.outputs, entry)
 	st := OutputStats{Output: out.Name, Kind: string(out.Kind), Pages: len(entry.Pages)}
@@ -218,7 +219,7 @@ func (b *build) drawScreen(p *feature.Output, odir string, tasks []pngTask, st *
 			opts.Title = fmt.Sprintf("%s (page %d of %d)", opts.Title, i+1, n)
 		}
 		err := WriteAtomic(path, func(w io.Writer) error {
-			return drawSVG(w, pg.Trim, opts, func(ctx *canvas.Context) error { return p.Feature.Draw(ctx, i) })
+			return drawSVG(b.ctx, w, pg.Trim, opts, func(ctx *canvas.Context) error { return p.Feature.Draw(ctx, i) })
 		})
 		if err != nil {
 			return nil, err
@@ -227,7 +228,7 @@ func (b *build) drawScreen(p *feature.Output, odir string, tasks []pngTask, st *
 		prog.Step()
 	}
 	if out.Spreads && out.Flow == specs.FlowPages {
-		spreads, err := writeSpreads(j, p, odir)
+		spreads, err := b.writeSpreads(p, odir)
 		if err != nil {
 			return nil, err
 		}
@@ -262,7 +263,8 @@ func (b *build) drawScreen(p *feature.Output, odir string, tasks []pngTask, st *
 // writeSpreads writes one SVG per spread (dir/spread-NNN.svg): a
 // left-hand page and the right-hand page after it side by side, as a
 // reader of a magazine app sees them.
-func writeSpreads(j *feature.Job, p *feature.Output, odir string) ([]string, error) {
+func (b *build) writeSpreads(p *feature.Output, odir string) ([]string, error) {
+	j := b.j
 	var files []string
 	spreads := p.Plan.Spreads()
 	for k, sp := range spreads {
@@ -270,9 +272,9 @@ func writeSpreads(j *feature.Job, p *feature.Output, odir string) ([]string, err
 		opts.Title = fmt.Sprintf("%s (spread %d of %d)", opts.Title, k+1, len(spreads))
 		path := filepath.Join(odir, fmt.Sprintf("spread-%03d.svg", k+1))
 		err := WriteAtomic(path, func(w io.Writer) error {
-			return drawSVG(w, sp.Sheet, opts, func(ctx *canvas.Context) error {
+			return drawSVG(b.ctx, w, sp.Sheet, opts, func(ctx *canvas.Context) error {
 				for _, sg := range sp.Pages {
-					ctx.SetView(canvas.Identity.Translate(sg.Offset.X*25.4/72, sg.Offset.Y*25.4/72))
+					ctx.SetView(canvas.Identity.Translate(sg.Offset.X*specs.MmPerPt, sg.Offset.Y*specs.MmPerPt))
 					if err := p.Feature.Draw(ctx, sg.Page); err != nil {
 						return err
 					}
@@ -301,12 +303,18 @@ func screenSVGOptions(j *feature.Job, p *feature.Output) svg.Options {
 
 // drawSVG draws the part r (points) of a drawing into an SVG document
 // and writes it.
-func drawSVG(w io.Writer, r layout.Rect, opts svg.Options, draw func(ctx *canvas.Context) error) error {
+func drawSVG(ctx context.Context, w io.Writer, r layout.Rect, opts svg.Options, draw func(ctx *canvas.Context) error) error {
+	if err := ctx.Err(); err != nil {
+		return err
+	}
 	doc, err := svg.NewWindow(r.X0, r.Y0, r.X1, r.Y1, opts)
 	if err != nil {
 		return err
 	}
 	if err := draw(canvas.NewContext(doc)); err != nil {
+		return err
+	}
+	if err := ctx.Err(); err != nil {
 		return err
 	}
 	_, err = doc.WriteTo(w)
@@ -366,36 +374,21 @@ func (b *build) writeScreenPNGs(p *feature.Output, tasks []pngTask, st *OutputSt
 		}
 	}
 	b.progress.Begin(p.Spec.Name+": PNG bands", len(jobs))
-	errs := make([]error, len(jobs))
 	var drawn, reused atomic.Int64
-	next := atomic.Int64{}
-	var wg sync.WaitGroup
-	for range runtime.GOMAXPROCS(0) {
-		wg.Add(1)
-		go func() {
-			defer wg.Done()
-			for {
-				n := int(next.Add(1)) - 1
-				if n >= len(jobs) || b.ctx.Err() != nil {
-					return
-				}
-				jb := jobs[n]
-				eb, d, err := b.bandOf(p, tasks[jb.task].page, tasks[jb.task].dpi, jb.band)
-				*jb.out, errs[n] = eb, err
-				if d {
-					drawn.Add(1)
-				} else {
-					reused.Add(1)
-				}
-				b.progress.Step()
-			}
-		}()
-	}
-	wg.Wait()
-	if err := b.ctx.Err(); err != nil {
-		return nil, err
-	}
-	if err := errors.Join(errs...); err != nil {
+	err = each(b.ctx, len(jobs), func(n int) (struct{}, error) {
+		defer b.progress.Step()
+		jb := jobs[n]
+		t := tasks[jb.task]
+		eb, d, err := b.bandOf(p, t.page, t.dpi, jb.band, t.path)
+		*jb.out = eb
+		if d {
+			drawn.Add(1)
+		} else {
+			reused.Add(1)
+		}
+		return struct{}{}, err
+	}, nil)
+	if err != nil {
 		return nil, err
 	}
 	st.BandsDrawn, st.BandsReused = int(drawn.Load()), int(reused.Load())
@@ -466,44 +459,36 @@ func (b *build) writePanelFiles(p *feature.Output, pdir string, st *OutputStats)
 	pfs := panelFiles(j, p)
 	b.progress.Begin(p.Spec.Name+": panel files", len(pfs))
 	files := make([]string, len(pfs))
-	errs := make([]error, len(pfs))
 	fontSum := fontsSum(p.Fonts)
 	var drawn, reused atomic.Int64
-	parallel(len(pfs), func(lo, hi int) {
-		for k := lo; k < hi && b.ctx.Err() == nil; k++ {
-			pf := pfs[k]
-			title, desc := p.Feature.Describe(pf.item)
-			opts := screenSVGOptions(j, p)
-			opts.Title, opts.Desc = title, desc
-			path := filepath.Join(pdir, pf.name+".svg")
-			files[k] = path
-			name := b.panelInputs(p, pf, opts, fontSum) + ".svg"
-			oldC := filepath.Join(b.final, CacheDir, p.Spec.Name, name)
-			newC := filepath.Join(b.stage.dir, CacheDir, p.Spec.Name, name)
-			if !b.full && linkOrCopy(oldC, newC) == nil {
-				if errs[k] = os.MkdirAll(pdir, 0o755); errs[k] == nil {
-					errs[k] = linkOrCopy(newC, path)
-				}
-				reused.Add(1)
-				b.progress.Step()
-				continue
-			}
-			errs[k] = WriteAtomic(newC, func(w io.Writer) error {
-				return drawSVG(w, pf.win, opts, func(ctx *canvas.Context) error { return p.Feature.DrawPanel(ctx, pf.panel) })
+	err := each(b.ctx, len(pfs), func(k int) (struct{}, error) {
+		defer b.progress.Step()
+		pf := pfs[k]
+		title, desc := p.Feature.Describe(pf.item)
+		opts := screenSVGOptions(j, p)
+		opts.Title, opts.Desc = title, desc
+		path := filepath.Join(pdir, pf.name+".svg")
+		files[k] = path
+		name := b.panelInputs(p, pf, opts, fontSum) + ".svg"
+		oldC := filepath.Join(b.final, CacheDir, p.Spec.Name, name)
+		newC := filepath.Join(b.stage.dir, CacheDir, p.Spec.Name, name)
+		if b.full || linkOrCopy(oldC, newC) != nil {
+			err := WriteAtomic(newC, func(w io.Writer) error {
+				return drawSVG(b.ctx, w, pf.win, opts, func(ctx *canvas.Context) error { return p.Feature.DrawPanel(ctx, pf.panel) })
 			})
-			if errs[k] == nil {
-				if errs[k] = os.MkdirAll(pdir, 0o755); errs[k] == nil {
-					errs[k] = linkOrCopy(newC, path)
-				}
+			if err != nil {
+				return struct{}{}, err
 			}
 			drawn.Add(1)
-			b.progress.Step()
+		} else {
+			reused.Add(1)
 		}
-	})
-	if err := b.ctx.Err(); err != nil {
-		return nil, err
-	}
-	if err := errors.Join(errs...); err != nil {
+		if err := os.MkdirAll(pdir, 0o755); err != nil {
+			return struct{}{}, err
+		}
+		return struct{}{}, linkOrCopy(newC, path)
+	}, nil)
+	if err != nil {
 		return nil, err
 	}
 	st.PanelsDrawn, st.PanelsReused = int(drawn.Load()), int(reused.Load())
@@ -587,7 +572,7 @@ figcaption{padding:6px 12px}
 <body>
 `, esc(title))
 	for i, it := range items {
-		wpx, hpx := it.w*96/72, it.h*96/72
+		wpx, hpx := it.w*specs.PxPerPt, it.h*specs.PxPerPt
 		// HTML's width and height attributes take whole pixels; the
 		// caption keeps the SVG's exact size.
 		ws, hs := strconv.FormatFloat(roundTo(wpx, 1), 'f', -1, 64), strconv.FormatFloat(roundTo(hpx, 1), 'f', -1, 64)

@@ -1,11 +1,11 @@
 package production
 
 import (
-	"fmt"
-	"regexp"
 	"sheaf/render/slug"
 	"strings"
 	"testing"
+
+	"github.com/stretchr/testify/assert"
 )
 
 // TestSlug names panel files safely. The folding follows Unicode NFKD
@@ -30,19 +30,14 @@ func TestSlug(t *testing.T) {
 		{strings.Repeat("word ", 30), strings.TrimRight(strings.Repeat("word-", 13), "-")}, // 64-byte cap
 	} {
 		got := Slug(c.term)
-		if got != c.want {
-			t.Errorf("slug(%q) = %q, want %q", c.term, got, c.want)
-		}
-		if !regexp.MustCompile(`^[a-z0-9]+(-[a-z0-9]+)*$`).MatchString(got) || len(got) > slug.Max {
-			t.Errorf("slug(%q) = %q is not a safe file name stem", c.term, got)
-		}
+		assert.Equal(t, c.want, got, "Slug(%q)", c.term)
+		assert.Regexp(t, `^[a-z0-9]+(-[a-z0-9]+)*$`, got, "Slug(%q) is a safe file name stem", c.term)
+		assert.LessOrEqual(t, len(got), slug.Max, "Slug(%q)", c.term)
 	}
 	used := map[string]bool{}
 	var got []string
 	for _, s := range []string{"cafe", "cafe", "cafe-2", "cafe"} {
 		got = append(got, slug.Unique(s, used))
 	}
-	if want := []string{"cafe", "cafe-2", "cafe-2-2", "cafe-3"}; fmt.Sprint(got) != fmt.Sprint(want) {
-		t.Errorf("collisions named %v, want %v", got, want)
-	}
+	assert.Equal(t, []string{"cafe", "cafe-2", "cafe-2-2", "cafe-3"}, got, "collisions named in panel order")
 }

@@ -26,6 +26,7 @@ type stage struct {
 	foreign map[string]bool
 }
 
+// StageMark is in the name of every stage folder: .DIR.stage-PID-RANDOM.
 const StageMark = ".stage-"
 
 // newStage makes a stage beside final, after removing stages left by

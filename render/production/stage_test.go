@@ -1,12 +1,14 @@
 package production
 
 import (
-	"errors"
 	"fmt"
 	"os"
 	"os/exec"
 	"path/filepath"
 	"testing"
+
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
 )
 
 // TestStaleStageRemoved: a stage left by a process that no longer exists
@@ -24,14 +26,8 @@ func TestStaleStageRemoved(t *testing.T) {
 	os.MkdirAll(stale, 0o755)
 	os.MkdirAll(live, 0o755)
 	s, err := newStage(out)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	defer s.abort()
-	if _, err := os.Stat(stale); !errors.Is(err, os.ErrNotExist) {
-		t.Errorf("stale stage kept")
-	}
-	if _, err := os.Stat(live); err != nil {
-		t.Errorf("live stage removed: %v", err)
-	}
+	assert.NoDirExists(t, stale, "the stale stage is removed")
+	assert.DirExists(t, live, "a live build's stage is kept")
 }

@@ -30,6 +30,7 @@ import (
 	"sort"
 	"strconv"
 	"strings"
+	"unicode/utf8"
 
 	"github.com/tdewolff/canvas"
 	"github.com/tdewolff/font"
@@ -54,11 +55,11 @@ type Options struct {
 	Desc  string // the document's <desc>: a sentence or two
 
 	// FontFamily is the CSS font-family list every text uses, such as
-	// `"Go", Arial, sans-serif`. Empty: sans-serif.
+	// `"DejaVu Sans Condensed", sans-serif`. Empty: sans-serif.
 	FontFamily string
 	// EmbedFonts embeds a subset of every font drawn with (only the glyphs
-	// used) as a base64 TrueType @font-face, so the document looks the same
-	// wherever it is opened.
+	// used) as a base64 @font-face — TrueType outlines as font/ttf, CFF
+	// as font/otf — so the document looks the same wherever it is opened.
 	EmbedFonts bool
 
 	// Background, when not nil, fills the whole document first (the
@@ -86,6 +87,42 @@ type Document struct {
 type fontUse struct {
 	font   *canvas.Font
 	glyphs map[uint16]bool
+	// cmap is the glyph each character was drawn with where shaping chose
+	// another than the font's cmap (lining figures, lnum): the subset's
+	// cmap then maps the character there, since a browser shapes the text
+	// again from the cmap alone (the subset keeps no GSUB).
+	cmap  map[rune]uint16
+	runes map[rune]bool // every character drawn
+	// variant counts the fonts of the same weight and slant used before
+	// this one (the same face shaped with other features, such as tabular
+	// figures): a variant gets a family of its own, named by a class on
+	// its text, since one family holds one font per weight and slant.
+	variant int
+}
+
+// slot is a font's weight and slant, as CSS selects @font-face rules.
+func slot(f *canvas.Font) [2]bool {
+	if h := f.SFNT.Head; h != nil {
+		return [2]bool{h.MacStyle[0], h.MacStyle[1]}
+	}
+	return [2]bool{}
+}
+
+// use returns the record of font f, made on its first use.
+func (d *Document) use(f *canvas.Font) *fontUse {
+	for _, u := range d.fonts {
+		if u.font == f {
+			return u
+		}
+	}
+	u := &fontUse{font: f, glyphs: map[uint16]bool{}, cmap: map[rune]uint16{}, runes: map[rune]bool{}}
+	for _, o := range d.fonts {
+		if slot(o.font) == slot(f) {
+			u.variant++
+		}
+	}
+	d.fonts = append(d.fonts, u)
+	return u
 }
 
 // New returns a document of w × h points; the drawing's origin is the
@@ -370,6 +407,11 @@ func (d *Document) textElem(mp canvas.Matrix, scale, x, y float64, anchor string
 	if anchor != "" {
 		b.WriteString(` text-anchor="` + anchor + `"`)
 	}
+	if d.opts.EmbedFonts {
+		if v := d.use(face.Font).variant; v > 0 {
+			b.WriteString(` class="sheaf-v` + strconv.Itoa(v) + `"`)
+		}
+	}
 	if !(face.Fill.IsColor() && face.Fill.Color == canvas.Black) {
 		d.paint(b, "fill", face.Fill, mp)
 	}
@@ -386,23 +428,29 @@ func (d *Document) useGlyphs(s canvas.TextSpan) {
 	if !d.opts.EmbedFonts {
 		return
 	}
-	var u *fontUse
-	for _, f := range d.fonts {
-		if f.font == s.Face.Font {
-			u = f
-		}
-	}
-	if u == nil {
-		u = &fontUse{font: s.Face.Font, glyphs: map[uint16]bool{}}
-		d.fonts = append(d.fonts, u)
-	}
-	for _, g := range s.Glyphs {
+	u := d.use(s.Face.Font)
+	for i, g := range s.Glyphs {
 		u.glyphs[g.ID] = true
+		// a cluster of one character drawn with one glyph
+		single := (i == 0 || s.Glyphs[i-1].Cluster != g.Cluster) && (i+1 == len(s.Glyphs) || s.Glyphs[i+1].Cluster != g.Cluster)
+		if c := int(g.Cluster); single && c < len(s.Text) {
+			r, n := utf8.DecodeRuneInString(s.Text[c:])
+			end := len(s.Text)
+			for _, h := range s.Glyphs {
+				if int(h.Cluster) > c && int(h.Cluster) < end {
+					end = int(h.Cluster)
+				}
+			}
+			if _, seen := u.cmap[r]; !seen && c+n == end && g.ID != s.Face.Font.SFNT.GlyphIndex(r) {
+				u.cmap[r] = g.ID
+			}
+		}
 	}
 	// A browser shapes the string again from the font's cmap: every
 	// character must map to a glyph in the subset.
 	for _, r := range s.Text {
 		u.glyphs[s.Face.Font.SFNT.GlyphIndex(r)] = true
+		u.runes[r] = true
 	}
 }
 
@@ -511,6 +559,7 @@ func (d *Document) embeddedFamily() string {
 	h := sha256.New()
 	for _, u := range d.fonts {
 		io.WriteString(h, u.font.Name())
+		fmt.Fprintf(h, "/%d", u.variant)
 		ids := make([]int, 0, len(u.glyphs))
 		for id := range u.glyphs {
 			ids = append(ids, int(id))
@@ -536,9 +585,25 @@ func (d *Document) writeFonts(h *bytes.Buffer) error {
 			}
 		}
 		sort.Slice(ids[1:], func(i, j int) bool { return ids[1+i] < ids[1+j] })
-		sub, err := u.font.SFNT.Subset(ids, font.SubsetOptions{Tables: font.KeepMinTables})
+		sub, err := subset(u.font.SFNT, ids)
 		if err != nil {
 			return fmt.Errorf("svg: subsetting font %q: %w", u.font.Name(), err)
+		}
+		if len(u.cmap) > 0 {
+			// The subset's glyph i is ids[i] (tdewolff/font's Subset keeps
+			// the order given).
+			at := make(map[uint16]uint16, len(ids))
+			for i, id := range ids {
+				at[id] = uint16(i)
+			}
+			m := map[rune]uint16{}
+			for r := range u.runes {
+				m[r] = at[u.font.SFNT.GlyphIndex(r)]
+			}
+			for r, g := range u.cmap {
+				m[r] = at[g]
+			}
+			sub.Tables["cmap"] = cmapTable(m)
 		}
 		weight, style := "normal", "normal"
 		if hd := u.font.SFNT.Head; hd != nil {
@@ -549,13 +614,29 @@ func (d *Document) writeFonts(h *bytes.Buffer) error {
 				style = "italic"
 			}
 		}
-		fmt.Fprintf(h, "@font-face{font-family:%q;font-weight:%s;font-style:%s;src:url(data:font/ttf;base64,", d.embeddedFamily(), weight, style)
+		// The media type and format name of the outlines (RFC 8081;
+		// CSS Fonts 4 §4.3.1): glyf outlines "truetype", CFF "opentype".
+		mime, format := "font/ttf", "truetype"
+		if sub.IsCFF {
+			mime, format = "font/otf", "opentype"
+		}
+		family := d.embeddedFamily()
+		if u.variant > 0 {
+			family += "-v" + strconv.Itoa(u.variant)
+			rest := d.opts.FontFamily
+			if strings.TrimSpace(rest) == "" {
+				rest = "sans-serif"
+			}
+			// quotes stay as they are (CSS); < and & are escaped for XML
+			h.WriteString(strings.NewReplacer("&", "&amp;", "<", "&lt;").Replace(fmt.Sprintf(".sheaf-v%d{font-family:%q, %s}\n", u.variant, family, rest)))
+		}
+		fmt.Fprintf(h, "@font-face{font-family:%q;font-weight:%s;font-style:%s;src:url(data:%s;base64,", family, weight, style, mime)
 		prog, err := stableWrite(sub)
 		if err != nil {
 			return fmt.Errorf("svg: writing the subset of font %q: %w", u.font.Name(), err)
 		}
 		h.WriteString(base64.StdEncoding.EncodeToString(prog))
-		h.WriteString(") format(\"truetype\")}\n")
+		fmt.Fprintf(h, ") format(%q)}\n", format)
 	}
 	h.WriteString("</style>\n")
 	return nil
@@ -630,4 +711,142 @@ func checksum(b []byte) uint32 {
 		sum += binary.BigEndian.Uint32(w[:])
 	}
 	return sum
+}
+
+// subset makes a web font of the glyphs ids from its own parse of s's
+// tables: tdewolff/font's Subset writes into the font it subsets (maxp,
+// hhea, head and a CFF table's subroutines), and s is shared with the
+// renderers drawing the same pages.
+func subset(s *font.SFNT, ids []uint16) (sub *font.SFNT, err error) {
+	defer func() {
+		if r := recover(); r != nil {
+			sub, err = nil, fmt.Errorf("font subsetter failed: %v", r)
+		}
+	}()
+	own, err := font.ParseSFNT(assemble(s.Tables), 0)
+	if err != nil {
+		return nil, err
+	}
+	return own.Subset(ids, font.SubsetOptions{Tables: font.KeepMinTables})
+}
+
+// assemble writes tables as an sfnt file (OpenType spec, "Organization of
+// an OpenType Font"), for parsing again; checksums are not needed there.
+func assemble(tables map[string][]byte) []byte {
+	tags := make([]string, 0, len(tables))
+	for t := range tables {
+		tags = append(tags, t)
+	}
+	sort.Strings(tags)
+	n := len(tags)
+	es := 0
+	for 1<<(es+1) <= n {
+		es++
+	}
+	version := uint32(0x00010000)
+	if tables["CFF "] != nil || tables["CFF2"] != nil {
+		version = 0x4F54544F // "OTTO"
+	}
+	be := binary.BigEndian
+	out := be.AppendUint32(nil, version)
+	out = be.AppendUint16(out, uint16(n))
+	out = be.AppendUint16(out, uint16(16<<es))
+	out = be.AppendUint16(out, uint16(es))
+	out = be.AppendUint16(out, uint16(16*n-16<<es))
+	off := 12 + 16*n
+	var body []byte
+	for _, tag := range tags {
+		b := tables[tag]
+		out = append(out, tag...)
+		out = be.AppendUint32(out, checksum(b))
+		out = be.AppendUint32(out, uint32(off+len(body)))
+		out = be.AppendUint32(out, uint32(len(b)))
+		body = append(body, b...)
+		for len(body)%4 != 0 {
+			body = append(body, 0)
+		}
+	}
+	return append(out, body...)
+}
+
+// cmapTable writes a cmap (OpenType spec, "cmap — Character to Glyph
+// Index Mapping Table") with a format 4 subtable (Windows, BMP) and, when
+// a character lies beyond the BMP, a format 12 one (Windows, full
+// repertoire): one segment or group per character.
+func cmapTable(m map[rune]uint16) []byte {
+	rs := make([]rune, 0, len(m))
+	astral := false
+	for r := range m {
+		if r >= 0 && r <= 0x10FFFF {
+			rs = append(rs, r)
+			astral = astral || r > 0xFFFF
+		}
+	}
+	sort.Slice(rs, func(i, j int) bool { return rs[i] < rs[j] })
+	be := binary.BigEndian
+	// format 4
+	var bmp []rune
+	for _, r := range rs {
+		if r < 0xFFFF {
+			bmp = append(bmp, r)
+		}
+	}
+	seg := len(bmp) + 1
+	es := 0
+	for 1<<(es+1) <= seg {
+		es++
+	}
+	f4 := be.AppendUint16(nil, 4)
+	f4 = be.AppendUint16(f4, uint16(16+8*seg))
+	f4 = be.AppendUint16(f4, 0) // language
+	f4 = be.AppendUint16(f4, uint16(2*seg))
+	f4 = be.AppendUint16(f4, uint16(2<<es))
+	f4 = be.AppendUint16(f4, uint16(es))
+	f4 = be.AppendUint16(f4, uint16(2*seg-2<<es))
+	for _, r := range bmp {
+		f4 = be.AppendUint16(f4, uint16(r)) // endCode
+	}
+	f4 = be.AppendUint16(f4, 0xFFFF)
+	f4 = be.AppendUint16(f4, 0) // reservedPad
+	for _, r := range bmp {
+		f4 = be.AppendUint16(f4, uint16(r)) // startCode
+	}
+	f4 = be.AppendUint16(f4, 0xFFFF)
+	for _, r := range bmp {
+		f4 = be.AppendUint16(f4, m[r]-uint16(r)) // idDelta, modulo 65536
+	}
+	f4 = be.AppendUint16(f4, 1)
+	for range seg {
+		f4 = be.AppendUint16(f4, 0) // idRangeOffset
+	}
+	var f12 []byte
+	if astral {
+		f12 = be.AppendUint16(nil, 12)
+		f12 = be.AppendUint16(f12, 0)
+		f12 = be.AppendUint32(f12, uint32(16+12*len(rs)))
+		f12 = be.AppendUint32(f12, 0) // language
+		f12 = be.AppendUint32(f12, uint32(len(rs)))
+		for _, r := range rs {
+			f12 = be.AppendUint32(f12, uint32(r))
+			f12 = be.AppendUint32(f12, uint32(r))
+			f12 = be.AppendUint32(f12, uint32(m[r]))
+		}
+	}
+	n := 1
+	if f12 != nil {
+		n = 2
+	}
+	out := be.AppendUint16(nil, 0)
+	out = be.AppendUint16(out, uint16(n))
+	off := 4 + 8*n
+	out = be.AppendUint16(out, 3)
+	out = be.AppendUint16(out, 1)
+	out = be.AppendUint32(out, uint32(off))
+	if f12 != nil {
+		out = be.AppendUint16(out, 3)
+		out = be.AppendUint16(out, 10)
+		out = be.AppendUint32(out, uint32(off+len(f4)))
+	}
+	out = append(out, f4...)
+	return append(out, f12...)
 }

@@ -41,6 +41,11 @@ func goFonts(t testing.TB) (*canvas.Font, *canvas.Font) {
 func sample(t testing.TB, opts Options) []byte {
 	t.Helper()
 	reg, bold := goFonts(t)
+	return sampleWith(t, opts, reg, bold)
+}
+
+func sampleWith(t testing.TB, opts Options, reg, bold *canvas.Font) []byte {
+	t.Helper()
 	d, err := New(300, 150, opts)
 	if err != nil {
 		t.Fatal(err)
@@ -89,7 +94,7 @@ func sample(t testing.TB, opts Options) []byte {
 // 400 × 200 px at 1 px = 0.75 pt (CSS Values and Units Level 3 §5.2).
 func TestWellFormed(t *testing.T) {
 	for _, embed := range []bool{false, true} {
-		b := sample(t, Options{Title: "A & B", Desc: "d", FontFamily: `"Go", Arial, sans-serif`, EmbedFonts: embed, Background: color.White})
+		b := sample(t, Options{Title: "A & B", Desc: "d", FontFamily: `"DejaVu Sans Condensed", sans-serif`, EmbedFonts: embed, Background: color.White})
 		dec := xml.NewDecoder(bytes.NewReader(b))
 		var root struct {
 			XMLName xml.Name

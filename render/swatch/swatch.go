@@ -15,15 +15,17 @@ import (
 	"io"
 	"math"
 
+	"github.com/go-fonts/dejavu/dejavusanscondensed"
+	"github.com/go-fonts/dejavu/dejavusanscondensedbold"
 	"github.com/tdewolff/canvas"
 	"github.com/tdewolff/canvas/renderers/rasterizer"
-	"golang.org/x/image/font/gofont/gobold"
-	"golang.org/x/image/font/gofont/goregular"
 
 	"sheaf/palette"
+	"sheaf/palette/press"
+	"sheaf/specs"
 )
 
-const mmPerPt = 25.4 / 72
+const mmPerPt = specs.MmPerPt
 
 // Sheet geometry, mm.
 const (
@@ -36,13 +38,29 @@ const (
 	colWidth = (inner - 2*gap) / 3 // one deficiency column
 )
 
+// PressBand is how much taller the sheet is with a printing condition:
+// the room for the screen and soft-proof colours side by side.
+const PressBand = 44.0
+
 // Size returns the sheet's width and height in millimetres.
 func Size() (w, h float64) { return Width, Height }
 
+// SizeFor is the sheet's size with a printing condition (nil: Size).
+func SizeFor(cond *press.Condition) (w, h float64) {
+	if cond == nil {
+		return Size()
+	}
+	return Width, Height + PressBand
+}
+
 // New returns a canvas of Size with the sheet drawn on it.
-func New(s palette.Scale, r palette.Report) (*canvas.Canvas, error) {
-	c := canvas.New(Width, Height)
-	if err := Draw(c, s, r); err != nil {
+func New(s palette.Scale, r palette.Report) (*canvas.Canvas, error) { return NewFor(s, r, nil) }
+
+// NewFor is New with a printing condition (see DrawFor).
+func NewFor(s palette.Scale, r palette.Report, cond *press.Condition) (*canvas.Canvas, error) {
+	w, h := SizeFor(cond)
+	c := canvas.New(w, h)
+	if err := DrawFor(c, s, r, cond); err != nil {
 		return nil, err
 	}
 	return c, nil
@@ -53,10 +71,15 @@ func New(s palette.Scale, r palette.Report) (*canvas.Canvas, error) {
 // LinearColorSpace), as PDF viewers and browsers do, and flat colours come
 // out with exactly the palette's 8-bit values.
 func WritePNG(w io.Writer, s palette.Scale, r palette.Report, dpi float64) error {
+	return WritePNGFor(w, s, r, dpi, nil)
+}
+
+// WritePNGFor is WritePNG with a printing condition (see DrawFor).
+func WritePNGFor(w io.Writer, s palette.Scale, r palette.Report, dpi float64, cond *press.Condition) error {
 	if !(dpi >= 10 && dpi <= 2400) {
 		return fmt.Errorf("swatch: resolution %v dpi: want 10 to 2400", dpi)
 	}
-	c, err := New(s, r)
+	c, err := NewFor(s, r, cond)
 	if err != nil {
 		return err
 	}
@@ -71,9 +94,17 @@ func WritePNG(w io.Writer, s palette.Scale, r palette.Report, dpi float64) error
 // which also gives the paper colour and line width) onto c, whose size
 // must be at least Size. It returns an error, drawing nothing, when c is
 // too small or the report does not belong to a usable scale.
-func Draw(c *canvas.Canvas, s palette.Scale, r palette.Report) error {
-	if c.W < Width-1e-9 || c.H < Height-1e-9 {
-		return fmt.Errorf("swatch: canvas %.1f × %.1f mm is smaller than the sheet's %.0f × %.0f mm", c.W, c.H, Width, Height)
+func Draw(c *canvas.Canvas, s palette.Scale, r palette.Report) error { return DrawFor(c, s, r, nil) }
+
+// DrawFor is Draw with a printing condition: the sheet (SizeFor tall) has
+// a band more, the strip and sample curves as on screen and, beside them,
+// as the press prints them (soft proof: each colour through the profile
+// and back, press.Condition.Proof), so a designer sees what the printer
+// sees.
+func DrawFor(c *canvas.Canvas, s palette.Scale, r palette.Report, cond *press.Condition) error {
+	wantW, wantH := SizeFor(cond)
+	if c.W < wantW-1e-9 || c.H < wantH-1e-9 {
+		return fmt.Errorf("swatch: canvas %.1f × %.1f mm is smaller than the sheet's %.0f × %.0f mm", c.W, c.H, wantW, wantH)
 	}
 	from, to := s.Span()
 	if len(s.Anchors()) == 0 || !(to > from) {
@@ -88,7 +119,7 @@ func Draw(c *canvas.Canvas, s palette.Scale, r palette.Report) error {
 	}
 	ctx := canvas.NewContext(c)
 	ctx.SetCoordSystem(canvas.CartesianIV) // y grows downwards, like the layout
-	d := drawer{ctx: ctx, f: f, s: s, r: r, from: from, to: to,
+	d := drawer{ctx: ctx, f: f, s: s, r: r, from: from, to: to, height: wantH,
 		ink: rgba(contrasting(r.Paper)), soft: rgba(mix(contrasting(r.Paper), r.Paper, 0.45))}
 
 	d.fill(rgba(r.Paper), 0, 0, c.W, c.H)
@@ -128,6 +159,10 @@ func Draw(c *canvas.Canvas, s palette.Scale, r palette.Report) error {
 	}
 	y += 22 + 10
 
+	if cond != nil {
+		y = d.press(cond, y)
+	}
+
 	// The three deficiencies side by side.
 	for i, def := range palette.Deficiencies() {
 		sim := func(c palette.Color) palette.Color { return palette.Simulate(c, def) }
@@ -145,13 +180,15 @@ func Draw(c *canvas.Canvas, s palette.Scale, r palette.Report) error {
 type fonts struct{ regular, bold *canvas.FontFamily }
 
 func loadFonts() (fonts, error) {
-	reg := canvas.NewFontFamily("Go")
-	if err := reg.LoadFont(goregular.TTF, 0, canvas.FontRegular); err != nil {
-		return fonts{}, fmt.Errorf("swatch: loading Go Regular: %w", err)
+	// The built-in face of every output (layout/fonts): DejaVu Sans
+	// Condensed.
+	reg := canvas.NewFontFamily("DejaVu Sans Condensed")
+	if err := reg.LoadFont(dejavusanscondensed.TTF, 0, canvas.FontRegular); err != nil {
+		return fonts{}, fmt.Errorf("swatch: loading DejaVu Sans Condensed: %w", err)
 	}
-	bold := canvas.NewFontFamily("Go Bold")
-	if err := bold.LoadFont(gobold.TTF, 0, canvas.FontRegular); err != nil {
-		return fonts{}, fmt.Errorf("swatch: loading Go Bold: %w", err)
+	bold := canvas.NewFontFamily("DejaVu Sans Condensed Bold")
+	if err := bold.LoadFont(dejavusanscondensedbold.TTF, 0, canvas.FontRegular); err != nil {
+		return fonts{}, fmt.Errorf("swatch: loading DejaVu Sans Condensed Bold: %w", err)
 	}
 	return fonts{reg, bold}, nil
 }
@@ -162,7 +199,37 @@ type drawer struct {
 	s         palette.Scale
 	r         palette.Report
 	from, to  float64
+	height    float64
 	ink, soft color.RGBA
+}
+
+// press draws the screen and soft-proof colours side by side from y and
+// returns the y below them.
+func (d drawer) press(cond *press.Condition, y float64) float64 {
+	screen := func(c palette.Color) palette.Color { return c }
+	proof := func(c palette.Color) palette.Color {
+		ink, _ := cond.Ink(c.RGB())
+		return palette.FromRGB(cond.Proof(ink))
+	}
+	half := (inner - gap) / 2
+	for i, side := range []struct {
+		title string
+		see   func(palette.Color) palette.Color
+	}{{"On screen (sRGB)", screen}, {"On press (soft proof): " + cond.Identifier, proof}} {
+		x := margin + float64(i)*(half+gap)
+		d.text(d.f.bold, 9, d.ink, x, y, canvas.Left, clip(side.title, 58))
+		d.strip(side.see, x, y+2.5, half, 7, 4)
+		d.chart(side.see, x, y+2.5+7+6, half, 20, []int{0, 2})
+	}
+	return y + 2.5 + 7 + 6 + 20 + 8.5
+}
+
+func clip(s string, n int) string {
+	r := []rune(s)
+	if len(r) <= n {
+		return s
+	}
+	return string(r[:n-1]) + "…"
 }
 
 func (d drawer) fill(col color.RGBA, x, y, w, h float64) {
@@ -284,7 +351,7 @@ func (d drawer) findings(y float64) {
 	for i, f := range lines {
 		box := canvas.NewTextBox(face, f.String(), inner, 0, canvas.Left, canvas.Top, nil)
 		_, h := box.Size()
-		if y+h > Height-margin/2 {
+		if y+h > d.height-margin/2 {
 			d.text(d.f.regular, 6.5, d.soft, margin, y+3, canvas.Left, fmt.Sprintf("… and %d more: see the table", len(lines)-i))
 			return
 		}

@@ -12,6 +12,7 @@ import (
 	"io"
 	"os"
 	"os/exec"
+	"path/filepath"
 	"sort"
 	"strings"
 	"sync"
@@ -139,3 +140,21 @@ func RequireFile(t testing.TB, path, debianPackage string) string {
 }
 
 var errNotRegular = errors.New("not a regular file")
+
+// ICCProfile returns the path of one of the ICC profiles Debian's
+// ghostscript installs (package libgs-common: default_cmyk.icc,
+// ps_cmyk.icc, …; not ours to commit), or skips (fails under
+// SHEAF_REQUIRE_TOOLS=1) when it is missing.
+func ICCProfile(t testing.TB, name string) string {
+	t.Helper()
+	candidates := []string{"/usr/share/color/icc/ghostscript/" + name}
+	if m, _ := filepath.Glob("/usr/share/ghostscript/*/iccprofiles/" + name); len(m) > 0 {
+		candidates = append(candidates, m...)
+	}
+	for _, p := range candidates {
+		if st, err := os.Stat(p); err == nil && st.Mode().IsRegular() {
+			return p
+		}
+	}
+	return RequireFile(t, candidates[0], "libgs-common (comes with ghostscript)")
+}

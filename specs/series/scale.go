@@ -10,6 +10,18 @@ import (
 	"sheaf/specs"
 )
 
+// Note says how the values were smoothed, for the key: "5-year rolling
+// share" (or "mean" of raw counts), or "" without smoothing.
+func (set *Set) Note() string {
+	if set.Rolling < 2 {
+		return ""
+	}
+	if set.totals == nil {
+		return fmt.Sprintf("%d-year rolling mean", set.Rolling)
+	}
+	return fmt.Sprintf("%d-year rolling share", set.Rolling)
+}
+
 // Units of the plotted values, for the key and the check summary.
 var units = map[specs.ScaleMode]string{
 	specs.ScaleShare:   "per million words",
@@ -18,23 +30,31 @@ var units = map[specs.ScaleMode]string{
 }
 
 // scale turns the raw counts into plotted values; totals are by year of
-// the span from its first (see reader.spanTotals).
+// the span from its first (see reader.spanTotals). Counts are pooled over
+// the spec's rolling window first (Pool): with none, each year alone.
 func scale(s *specs.Spec, totals []float64, aggs map[string]*agg, selected []string, set *Set) []Series {
 	span := s.Years.Len()
 	out := make([]Series, len(selected))
 	set.Unit = units[s.Scale.Mode]
+	set.unitFactor = 1e6
+	if s.Scale.Mode == specs.ScaleRaw {
+		set.unitFactor = 1
+	} else {
+		set.totals = totals
+	}
 	for i, k := range selected {
 		a := aggs[k]
 		sr := Series{Term: a.term, Total: a.total, Share: a.share,
-			Counts: set.counts[i], Values: make([]float64, span), PeakYear: s.Years.From}
-		for j, c := range sr.Counts {
+			Counts: set.counts[i], Values: make([]float64, span), PeakYear: s.Years.From, Factor: set.unitFactor}
+		pooled, exposure := set.Pooled(&sr)
+		for j, c := range pooled {
 			switch {
 			case math.IsNaN(c):
 				sr.Values[j] = math.NaN()
-			case s.Scale.Mode == specs.ScaleRaw:
+			case s.Scale.Mode == specs.ScaleRaw && set.Rolling == 0:
 				sr.Values[j] = c
 			default:
-				sr.Values[j] = c / totals[j] * 1e6
+				sr.Values[j] = c / exposure[j] * set.unitFactor
 			}
 		}
 		sr.Peak, sr.PeakYear = peak(sr.Values, s.Years.From)
@@ -42,6 +62,7 @@ func scale(s *specs.Spec, totals []float64, aggs map[string]*agg, selected []str
 			for j := range sr.Values {
 				sr.Values[j] /= sr.Peak
 			}
+			sr.Factor /= sr.Peak
 			sr.Peak = 1
 		}
 		sr.YMax = sr.Peak
@@ -90,6 +111,13 @@ func arrange(s *specs.Spec, set *Set) {
 			}
 			return strings.Compare(x.Term, y.Term)
 		})
+	}
+	if s.Group == specs.GroupSimilarity {
+		bySimilarity(s, set)
+		return
+	}
+	if s.Order == specs.OrderSimilarity {
+		seriate(set) // then grouped by decade below, if asked, keeping this order within
 	}
 	if s.Group != specs.GroupPeakDecade {
 		set.Groups = []Group{{Start: 0, Count: len(ser)}}

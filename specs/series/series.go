@@ -44,6 +44,10 @@ type Series struct {
 	Peak     float64   // highest value
 	PeakYear int       // first year reaching Peak
 	YMax     float64   // top of this panel's y-range (shared or own)
+	// Factor turns a pooled rate (pooled count ÷ exposure, see
+	// Set.Pooled) into a plotted value: 10⁶ for per-million shares, 10⁶
+	// ÷ the share at the peak for own-peak, 1 for raw counts.
+	Factor float64
 }
 
 // Group is a run of consecutive series under one heading.
@@ -55,15 +59,22 @@ type Group struct {
 // Set is the data of a feature, ready to plot.
 type Set struct {
 	Span   specs.Span
-	Years  []float64   // x values, one per year of the span
-	Gaps   []int       // years of the span the totals table lacks
-	Series []Series    // selected terms, in panel order
-	Groups []Group     // one group with an empty heading when not grouping
-	Unit   string      // what a value means, for the key
-	YMax   float64     // the shared y-range top (largest YMax)
-	Terms  int         // distinct terms in the counts table
-	Rows   int         // data rows read from the counts table
-	counts [][]float64 // raw counts of the selected terms, selection order
+	Years  []float64 // x values, one per year of the span
+	Gaps   []int     // years of the span the totals table lacks
+	Series []Series  // selected terms, in panel order
+	Groups []Group   // one group with an empty heading when not grouping
+	Unit   string    // what a value means, for the key
+	YMax   float64   // the shared y-range top (largest YMax)
+	Terms  int       // distinct terms in the counts table
+	Rows   int       // data rows read from the counts table
+	// Rolling is the centred window, in years, the counts are pooled
+	// over before scaling (see Pool); 0: every year alone.
+	Rolling int
+	counts  [][]float64 // raw counts of the selected terms, selection order
+	// totals are the words of each year of the span (NaN in a gap), or
+	// nil with raw counts; unitFactor is 10⁶ for shares, 1 for raw.
+	totals     []float64
+	unitFactor float64
 }
 
 // Load reads and scales the data a spec names. Problems come back as
@@ -86,7 +97,7 @@ func Load(s *specs.Spec) (*Set, error) {
 	if len(errs) > 0 {
 		return nil, errs
 	}
-	set := &Set{Span: s.Years, Terms: len(order), Rows: r.rows}
+	set := &Set{Span: s.Years, Terms: len(order), Rows: r.rows, Rolling: s.Scale.Rolling}
 	for y := s.Years.From; y <= s.Years.To; y++ {
 		set.Years = append(set.Years, float64(y))
 		if _, ok := totals[y]; !ok {
@@ -95,6 +106,14 @@ func Load(s *specs.Spec) (*Set, error) {
 	}
 	if len(selected) == 0 {
 		errs.Add(s.Where("terms"), "no terms are selected: the data has %d terms and none pass the spec's selection", len(order))
+		return nil, errs
+	}
+	if n := len(selected); n > MaxSimilar && (s.Order == specs.OrderSimilarity || s.Group == specs.GroupSimilarity) {
+		key := "order"
+		if s.Order != specs.OrderSimilarity {
+			key = "group"
+		}
+		errs.Add(s.Where(key), "%s: similarity compares every two panels and takes at most %d; the spec selects %d terms: select fewer (terms.top) or choose another %s", key, MaxSimilar, n, key)
 		return nil, errs
 	}
 	if r.keep {

@@ -7,6 +7,7 @@ package pdfcpucheck
 import (
 	"bytes"
 	"math"
+	"os"
 	"testing"
 	"time"
 
@@ -17,7 +18,10 @@ import (
 	"golang.org/x/image/font/gofont/gobold"
 	"golang.org/x/image/font/gofont/goregular"
 
+	"sheaf/palette/icc"
+	"sheaf/palette/press"
 	"sheaf/render/pdf"
+	"sheaf/render/tooltest"
 )
 
 var testDate = time.Date(2024, 5, 17, 9, 30, 0, 0, time.UTC)
@@ -71,12 +75,15 @@ func drawing(reg, bold *canvas.Font) func(c *canvas.Canvas) error {
 	}
 }
 
-func document(t *testing.T, pages int) []byte {
+func document(t *testing.T, pages int) []byte { return documentFor(t, pages, nil) }
+
+// documentFor is document drawn for a printing condition (nil: RGB).
+func documentFor(t *testing.T, pages int, cond *press.Condition) []byte {
 	reg, bold := font(t, goregular.TTF), font(t, gobold.TTF)
 	var buf bytes.Buffer
-	w := pdf.NewWriter(&buf, pdf.Options{Title: "Read back", Version: "0.0.1", Date: testDate})
+	w := pdf.NewWriter(&buf, pdf.Options{Title: "Read back", Version: "0.0.1", Date: testDate, Press: cond})
 	for i := 0; i < pages; i++ {
-		if err := w.AddPage(pdf.PageSetup{Boxes: boxes(), Marks: &pdf.MarkOptions{}, Slug: "read-back test"}, drawing(reg, bold)); err != nil {
+		if err := w.AddPage(pdf.PageSetup{Boxes: boxes(), Marks: &pdf.MarkOptions{}, Slug: "read-back test", Press: cond}, drawing(reg, bold)); err != nil {
 			t.Fatal(err)
 		}
 	}
@@ -112,8 +119,23 @@ func dict(t *testing.T, ctx *model.Context, o types.Object) types.Dict {
 }
 
 func TestPDFCPUReadBack(t *testing.T) {
+	t.Run("RGB", func(t *testing.T) { readBack(t, nil) })
+	t.Run("CMYK", func(t *testing.T) {
+		b, err := os.ReadFile(tooltest.ICCProfile(t, "default_cmyk.icc"))
+		if err != nil {
+			t.Fatal(err)
+		}
+		cond, err := press.New(b, press.Settings{Registry: "http://www.color.org", InkLimit: 300, Intent: icc.RelativeColorimetric})
+		if err != nil {
+			t.Fatal(err)
+		}
+		readBack(t, cond)
+	})
+}
+
+func readBack(t *testing.T, cond *press.Condition) {
 	const pages = 3
-	doc := document(t, pages)
+	doc := documentFor(t, pages, cond)
 	ctx := readStrict(t, doc)
 
 	if ctx.PageCount != pages {
@@ -180,16 +202,26 @@ func TestPDFCPUReadBack(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	ois, err := ctx.DereferenceArray(root["OutputIntents"])
-	if err != nil || len(ois) != 1 {
-		t.Fatalf("OutputIntents %v (%v); PDF/X-4 wants exactly one", ois, err)
-	}
-	oi := dict(t, ctx, ois[0])
-	if s := oi.NameEntry("S"); s == nil || *s != "GTS_PDFX" {
-		t.Errorf("output intent S = %v, want GTS_PDFX", s)
-	}
-	if _, ok := oi.Find("DestOutputProfile"); !ok {
-		t.Error("output intent has no DestOutputProfile")
+	if cond == nil {
+		// An RGB file makes no PDF/X claim: no output intent.
+		if _, ok := root.Find("OutputIntents"); ok {
+			t.Error("an RGB document has OutputIntents")
+		}
+	} else {
+		ois, err := ctx.DereferenceArray(root["OutputIntents"])
+		if err != nil || len(ois) != 1 {
+			t.Fatalf("OutputIntents %v (%v); PDF/X-4 wants exactly one", ois, err)
+		}
+		oi := dict(t, ctx, ois[0])
+		if s := oi.NameEntry("S"); s == nil || *s != "GTS_PDFX" {
+			t.Errorf("output intent S = %v, want GTS_PDFX", s)
+		}
+		if _, ok := oi.Find("DestOutputProfile"); !ok {
+			t.Error("output intent has no DestOutputProfile")
+		}
+		if id := oi.StringEntry("OutputConditionIdentifier"); id == nil || *id == "" {
+			t.Error("output intent has no OutputConditionIdentifier")
+		}
 	}
 	if _, ok := root.Find("Metadata"); !ok {
 		t.Error("catalog has no Metadata (XMP)")

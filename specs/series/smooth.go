@@ -1,0 +1,141 @@
+package series
+
+import (
+	"math"
+	"sync"
+)
+
+// Pool sums counts and exposure over a centred window of years years
+// around each year: the pooled estimate of year j is counts ÷ exposure
+// over its window (a ratio of sums, not a mean of yearly ratios, so a
+// year with a small total weighs as little as its words). A window is cut
+// where the run of years it sits in ends — at the span's ends and at a gap
+// year (NaN count or exposure) —, so it shrinks there and never reaches
+// across a gap. Gap years stay NaN. years of 0 or 1 pools nothing: each
+// year alone.
+func Pool(counts, exposure []float64, years int) (pooled, pooledExposure []float64) {
+	n := len(counts)
+	pooled = make([]float64, n)
+	pooledExposure = make([]float64, n)
+	half := 0
+	if years > 1 {
+		half = years / 2
+	}
+	gap := func(j int) bool { return math.IsNaN(counts[j]) || math.IsNaN(exposure[j]) }
+	for j := 0; j < n; {
+		if gap(j) {
+			pooled[j], pooledExposure[j] = math.NaN(), math.NaN()
+			j++
+			continue
+		}
+		// The run of years with data that j starts: [start, end).
+		start, end := j, j
+		for end < n && !gap(end) {
+			end++
+		}
+		for i := start; i < end; i++ {
+			lo, hi := max(start, i-half), min(end-1, i+half)
+			var c, e float64
+			for k := lo; k <= hi; k++ {
+				c += counts[k]
+				e += exposure[k]
+			}
+			pooled[i], pooledExposure[i] = c, e
+		}
+		j = end
+	}
+	return pooled, pooledExposure
+}
+
+// exposure is what a count is divided by in each year: the year's total
+// words for shares, one year for raw counts (so that a pooled raw count
+// is a mean per year). NaN where the year is a gap.
+func (set *Set) exposure(sr *Series) []float64 {
+	if set.totals != nil {
+		return set.totals
+	}
+	e := make([]float64, len(sr.Counts))
+	for j := range e {
+		e[j] = 1
+	}
+	return e
+}
+
+// Pooled returns a series' counts summed over each year's rolling window
+// and what they are divided by (the window's total words, or its number
+// of years with raw counts); without smoothing, each year's own. The
+// plotted value is pooled ÷ exposure × sr.Factor.
+func (set *Set) Pooled(sr *Series) (pooled, exposure []float64) {
+	return Pool(sr.Counts, set.exposure(sr), set.Rolling)
+}
+
+// Yearly returns a series' values year by year before any smoothing, in
+// the unit of the feature before own-peak scaling: per million words (or
+// raw counts). A one-year spike is a property of these.
+// A series built by hand without counts has only its values.
+func (set *Set) Yearly(sr *Series) []float64 {
+	if len(sr.Counts) == 0 {
+		return sr.Values
+	}
+	e := set.exposure(sr)
+	f := set.unitFactor
+	if f == 0 {
+		f = 1
+	}
+	v := make([]float64, len(sr.Counts))
+	for j, c := range sr.Counts {
+		v[j] = c / e[j] * f
+	}
+	return v
+}
+
+// Band returns the limits of the exact Poisson interval at iv's level
+// around every plotted value of sr: each year's pooled count's interval
+// (PoissonInterval), divided by its exposure and scaled as the line is.
+// NaN in gap years; nil for a series without counts.
+func (set *Set) Band(sr *Series, iv *Intervals) (lo, hi []float64) {
+	if len(sr.Counts) == 0 || iv == nil {
+		return nil, nil // built by hand without counts: no band
+	}
+	pooled, exposure := set.Pooled(sr)
+	lo, hi = make([]float64, len(pooled)), make([]float64, len(pooled))
+	for j, k := range pooled {
+		if math.IsNaN(k) {
+			lo[j], hi[j] = math.NaN(), math.NaN()
+			continue
+		}
+		l, u := iv.Of(k)
+		lo[j] = l / exposure[j] * sr.Factor
+		hi[j] = u / exposure[j] * sr.Factor
+	}
+	return lo, hi
+}
+
+// Intervals remembers PoissonInterval at one confidence level by count:
+// counts repeat across thousands of terms (most are small whole
+// numbers), so each is solved once. It is safe for concurrent use.
+type Intervals struct {
+	Level float64
+	mu    sync.Mutex
+	known map[float64][2]float64
+}
+
+// NewIntervals returns an empty memo for level (0.95 for 95 %).
+func NewIntervals(level float64) *Intervals {
+	return &Intervals{Level: level, known: map[float64][2]float64{}}
+}
+
+// Of returns the interval of count k.
+func (iv *Intervals) Of(k float64) (lo, hi float64) {
+	iv.mu.Lock()
+	v, ok := iv.known[k]
+	iv.mu.Unlock()
+	if ok {
+		return v[0], v[1]
+	}
+	lo, hi = PoissonInterval(k, iv.Level)
+	iv.mu.Lock()
+	iv.known[k] = [2]float64{lo, hi}
+	iv.mu.Unlock()
+	return lo, hi
+}
