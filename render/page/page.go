@@ -20,8 +20,8 @@ import (
 	"sheaf/layout/fonts"
 	"sheaf/palette"
 	"sheaf/render/curve"
-	"sheaf/render/slug"
 	"sheaf/render/draw"
+	"sheaf/render/slug"
 	"sheaf/specs"
 	"sheaf/specs/series"
 )
@@ -42,8 +42,8 @@ type Feature struct {
 
 	// intervals memoizes the band's Poisson intervals (nil: no band).
 	intervals *series.Intervals
-	slugsOnce  sync.Once
-	slugs      []string
+	slugsOnce sync.Once
+	slugs     []string
 }
 
 // Slug is the name of item's term in ids and file names: slug.Of made

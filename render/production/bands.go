@@ -2,8 +2,8 @@ package production
 
 import (
 	"bytes"
-	"context"
 	"compress/flate"
+	"context"
 	"encoding/binary"
 	"encoding/json"
 	"errors"
