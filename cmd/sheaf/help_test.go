@@ -3,6 +3,7 @@ package main
 import (
 	"bytes"
 	"regexp"
+	"strings"
 	"testing"
 
 	"github.com/stretchr/testify/assert"
@@ -26,7 +27,9 @@ func TestHelpSame(t *testing.T) {
 			assert.Equal(t, o1.String(), o2.String(), "sheaf %s %s", c.name, h)
 			assert.Empty(t, e2.String(), "sheaf %s %s: nothing on stderr", c.name, h)
 		}
-		assert.Regexp(t, `(?m)^  --[a-z]`, o1.String(), c.name)
+		if strings.Contains(o1.String(), "\nFlags:") {
+			assert.Regexp(t, `(?m)^  --[a-z]`, o1.String(), c.name)
+		}
 		assert.NotRegexp(t, regexp.MustCompile(`(?m)^\s+-[a-z]`), o1.String(), "%s: no single-dash flags", c.name)
 	}
 }
