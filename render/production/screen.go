@@ -82,7 +82,7 @@ func (b *build) buildScreen(p *feature.Output) ([]string, error) {
 	if err := os.MkdirAll(filepath.Join(b.stage.dir, CacheDir, out.Name), 0o755); err != nil {
 		return nil, err
 	}
-	files, err := b.drawScreen(p, odir, tasks, &st)
+	files, err := b.drawScreen(p, entry.Pages, odir, tasks, &st)
 	if err != nil {
 		return nil, err
 	}
@@ -96,6 +96,24 @@ func (b *build) buildScreen(p *feature.Output) ([]string, error) {
 	}
 	b.stats = append(b.stats, st)
 	return files, nil
+}
+
+// cachedFile writes path from the cache of output: the file named name
+// (a hash of its inputs) is linked from the last build's cache when it
+// is there, else written into this build's cache by fill; either way
+// path is linked to it.
+func (b *build) cachedFile(output, name, path string, fill func(w io.Writer) error) error {
+	oldC := filepath.Join(b.final, CacheDir, output, name)
+	newC := filepath.Join(b.stage.dir, CacheDir, output, name)
+	if b.full || linkOrCopy(oldC, newC) != nil {
+		if err := WriteAtomic(newC, fill); err != nil {
+			return err
+		}
+	}
+	if err := os.MkdirAll(filepath.Dir(path), 0o755); err != nil {
+		return err
+	}
+	return linkOrCopy(newC, path)
 }
 
 // keepScreenCache carries a screen output's cached PNG bands and panel
@@ -198,7 +216,7 @@ func (b *build) noteScreenFiles(p *feature.Output, pages []PageEntry, odir strin
 
 // drawScreen draws every file of a screen output into odir (see
 // buildScreen) and returns them.
-func (b *build) drawScreen(p *feature.Output, odir string, tasks []pngTask, st *OutputStats) ([]string, error) {
+func (b *build) drawScreen(p *feature.Output, pages []PageEntry, odir string, tasks []pngTask, st *OutputStats) ([]string, error) {
 	j, prog := b.j, b.progress
 	out := p.Spec
 	n := len(p.Plan.Pages)
@@ -218,7 +236,16 @@ func (b *build) drawScreen(p *feature.Output, odir string, tasks []pngTask, st *
 		case n > 1:
 			opts.Title = fmt.Sprintf("%s (page %d of %d)", opts.Title, i+1, n)
 		}
-		err := WriteAtomic(path, func(w io.Writer) error {
+		// A page is cached under its inputs (pageInputs) and its title:
+		// a page of a paged output whose panels did not change is the
+		// last build's file.
+		h := newHasher("sheaf page svg v1")
+		h.str(pages[i].Inputs)
+		h.str(opts.Title)
+		for _, pn := range pg.Panels { // the SVG ids
+			h.str(p.Feature.Slug(pn.Item))
+		}
+		err := b.cachedFile(out.Name, h.sum()+".svg", path, func(w io.Writer) error {
 			return drawSVG(b.ctx, w, pg.Trim, opts, func(ctx *canvas.Context) error { return p.Feature.Draw(ctx, i) })
 		})
 		if err != nil {
