@@ -12,7 +12,7 @@ import (
 
 // Sources cited in the tables below.
 const (
-	srcWorked = "print-facts.md [COMPUTED with gonum FritschButland, agreed to 12 digits by an independent implementation]"
+	srcWorked = "testdata/print-facts.md, Monotone cubic interpolation [COMPUTED with gonum FritschButland, agreed to 12 digits by an independent implementation]"
 	srcGonum  = "gonum.org/v1/gonum/interp v0.17.0 FritschButland Fit/Predict/PredictDerivative [LIB]"
 	srcFC     = "Fritsch & Carlson (1980) SIAM J. Numer. Anal. 17(2):238–246"
 	srcFB     = "Fritsch & Butland (1984) SIAM J. Sci. Stat. Comput. 5(2):300–304"
