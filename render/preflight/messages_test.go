@@ -220,11 +220,13 @@ func TestPaletteVerdicts(t *testing.T) {
 		{"warns", []palette.Finding{
 			{Check: palette.CheckGamut, Label: "1903", Year: 1903, Severity: palette.Warn, Message: "colour is outside sRGB"},
 			{Check: palette.CheckStep, Year: math.NaN(), Severity: palette.Warn, Message: "steps too small"},
+			{Check: palette.CheckLightness, Year: 1900, Severity: palette.Warn, Message: "whole scale"}, // no label: about the whole scale
 			{Check: palette.CheckSize, Year: math.NaN(), Severity: palette.Info, Message: "for the record"},
-		}, "palette S fails no check but has 2 warning(s); 4 distinguishable classes at the line width, the key labels 5 eras",
+		}, "palette S fails no check but has 3 warning(s); 4 distinguishable classes at the line width, the key labels 5 eras",
 			[]Finding{
 				{ID: IDGamut, Severity: Warning, Year: 1903, Message: "gamut: colour is outside sRGB"},
 				{ID: IDPalette, Severity: Warning, Message: "step: steps too small"},
+				{ID: IDPalette, Severity: Warning, Message: "lightness: whole scale"},
 			}},
 		{"fails", []palette.Finding{{Check: palette.CheckSpan, Year: math.NaN(), Severity: palette.Fail, Message: "span too small"}},
 			"palette S fails a check (run sheaf palette for the table)",
