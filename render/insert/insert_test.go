@@ -9,6 +9,8 @@ import (
 	"sort"
 	"testing"
 
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
 	"github.com/tdewolff/canvas"
 
 	"sheaf/layout/fonts"
@@ -244,18 +246,19 @@ func TestNiceTicks(t *testing.T) {
 }
 
 // TestTooSmall: an insert with no room for a plot is an error that says
-// how much more it needs.
+// how much more it needs (README, Inserts); TestTooSmallSaysHowMuchMore
+// checks the amounts are the real shortfall.
 func TestTooSmall(t *testing.T) {
 	out := specs.DefaultOutput("web", specs.Screen)
 	s := &specs.Spec{Title: "T"}
 	in := &specs.Insert{Name: "tiny", Output: "web", Size: specs.Size{W: 60, H: 40}, Compare: specs.CompareOverlay}
-	fs, _ := fonts.Load(s, &out)
-	pal, _ := palette.NewScale("test", palette.DefaultAnchors(1900, 1905), nil)
-	_, err := New(s, in, &out, testSet(), pal, fs)
-	if err == nil {
-		t.Fatal("a 80 × 53 px comparison should not fit")
-	}
-	t.Log(err)
+	fs, err := fonts.Load(s, &out)
+	require.NoError(t, err)
+	pal, err := palette.NewScale("test", palette.DefaultAnchors(1900, 1905), nil)
+	require.NoError(t, err)
+	_, err = New(s, in, &out, testSet(), pal, fs)
+	require.Error(t, err, "a 80 × 53 px comparison should not fit")
+	assert.Regexp(t, `insert "tiny": the plot would be 0 px × 0 px; make the insert larger \(at least about [0-9.]+ px × [0-9.]+ px more\) or its title shorter$`, err.Error())
 }
 
 // TestDrawSVGAndRaster draws the comparison into the SVG writer and the
