@@ -32,13 +32,7 @@ import (
 
 func moduleFile(t testing.TB, module, rel string) []byte {
 	t.Helper()
-	out, err := exec.Command("go", "list", "-m", "-f", "{{.Dir}}", module).Output()
-	if err != nil || strings.TrimSpace(string(out)) == "" {
-		t.Skipf("module %s not in the module cache: %v", module, err)
-	}
-	b, err := os.ReadFile(filepath.Join(strings.TrimSpace(string(out)), rel))
-	require.NoError(t, err)
-	return b
+	return tooltest.ModuleFile(t, module, rel)
 }
 
 func debianFile(t testing.TB, path, pkg string) []byte {
