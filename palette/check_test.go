@@ -27,13 +27,9 @@ func TestDefaultPassesEveryCheck(t *testing.T) {
 		{1900, 2000, []float64{1900, 1914, 1939, 1945, 1970, 1989, 2000}, 1, Print},
 	} {
 		s, err := NewScale(DefaultName, DefaultAnchors(tc.from, tc.to), tc.eras)
-		if err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, err)
 		r, err := Check(s, white, tc.width, tc.m, DefaultThresholds())
-		if err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, err)
 		for _, f := range r.Findings {
 			if f.Severity == Fail {
 				t.Errorf("%v–%v eras %v: %v", tc.from, tc.to, tc.eras, f)
@@ -111,17 +107,13 @@ func TestBadPalettesFail(t *testing.T) {
 	} {
 		t.Run(tc.name, func(t *testing.T) {
 			s, err := NewScale(tc.name, tc.anchors, tc.eras)
-			if err != nil {
-				t.Fatal(err)
-			}
+			require.NoError(t, err)
 			th := th
 			if tc.th != nil {
 				tc.th(&th)
 			}
 			r, err := Check(s, white, 0.75, Print, th)
-			if err != nil {
-				t.Fatal(err)
-			}
+			require.NoError(t, err)
 			var found *Finding
 			for i, f := range r.Findings {
 				if f.Check == tc.check && f.Severity == tc.severity && (tc.label == "" || f.Label == tc.label) {
@@ -189,9 +181,7 @@ func TestSizeGuidance(t *testing.T) {
 		{20, Warn}, // 1.16°: inside 1/3°–6°, ND50 L* ≈ 5.7 > 3
 	} {
 		r, err := Check(s, white, tc.width, Print, th)
-		if err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, err)
 		var got []Finding
 		for _, f := range r.Findings {
 			if f.Check == CheckSize {
@@ -240,13 +230,9 @@ func TestWriteTable(t *testing.T) {
 	white := mustHex(t, "#ffffff")
 	s, _ := Default(1868, 2025)
 	r, err := Check(s, white, 0.75, Print, DefaultThresholds())
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	var a, b bytes.Buffer
-	if err := r.WriteTable(&a); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, r.WriteTable(&a))
 	r2, _ := Check(s, white, 0.75, Print, DefaultThresholds())
 	r2.WriteTable(&b)
 	if !bytes.Equal(a.Bytes(), b.Bytes()) {
@@ -295,13 +281,9 @@ func TestSweepFindsColoursBetweenSamples(t *testing.T) {
 	s, err := NewScale("bright insert", []Anchor{
 		{1868, mustHex(t, "#b84ca2")}, {1899, mid}, {1901, mustHex(t, "#ffff00")}, {1903, mid}, {2025, mustHex(t, "#105564")},
 	}, nil)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	r, err := Check(s, white, 0.75, Print, DefaultThresholds())
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	var found *Finding
 	for i, f := range r.Findings {
 		if f.Check == CheckContrast {

@@ -36,9 +36,7 @@ func TestLabD50AgainstLittleCMS(t *testing.T) {
 	cmd := exec.Command(transicc, "-i", "*sRGB", "-o", "*Lab", "-n")
 	cmd.Stdin = strings.NewReader(in.String())
 	out, err := cmd.Output()
-	if err != nil {
-		t.Fatalf("transicc: %v", err)
-	}
+	require.NoError(t, err, "transicc")
 	var got []Lab
 	for _, line := range strings.Split(string(out), "\n") {
 		var l Lab

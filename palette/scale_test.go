@@ -4,6 +4,8 @@ import (
 	"math"
 	"strings"
 	"testing"
+
+	"github.com/stretchr/testify/require"
 )
 
 func anchorsHex(t testing.TB, pairs ...any) []Anchor {
@@ -44,9 +46,7 @@ func TestNewScaleErrors(t *testing.T) {
 func TestAtInterpolatesInOKLab(t *testing.T) {
 	a := anchorsHex(t, 1900, "#e96163", 1950, "#4752bb", 2000, "#073b0f")
 	s, err := NewScale("t", a, nil)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	for _, x := range a {
 		if got := s.At(x.Year); got != x.Color {
 			t.Errorf("At(%v) = %v, want the anchor %v", x.Year, got, x.Color)
@@ -77,9 +77,7 @@ func TestEras(t *testing.T) {
 	a := anchorsHex(t, 1900, "#e96163", 2000, "#073b0f")
 	cont, _ := NewScale("c", a, nil)
 	s, err := NewScale("e", a, []float64{1900, 1925, 1960, 2000})
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	eras := s.Eras()
 	if len(eras) != 3 || !s.Discrete() || cont.Discrete() {
 		t.Fatalf("eras = %v", eras)
@@ -140,9 +138,7 @@ func TestStopsStayWithinTolerance(t *testing.T) {
 		{1960, FromOKLCh(OKLCh{0.7, 0.3, 140})},
 		{2000, mustHex(t, "#0000ff")},
 	}, nil)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	for _, tc := range []struct {
 		s        Scale
 		from, to float64
@@ -187,9 +183,7 @@ func hasStop(stops []Stop, y float64) bool {
 
 func TestStopsDiscrete(t *testing.T) {
 	s, err := NewScale("e", DefaultAnchors(1900, 2000), []float64{1900, 1930, 1960, 2000})
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	eras := s.Eras()
 	stops := s.Stops(1910, 2000, 0)
 	want := []Stop{

@@ -13,6 +13,7 @@ import (
 	"github.com/go-fonts/dejavu/dejavusanscondensed"
 	"github.com/go-fonts/dejavu/dejavusanscondensedbold"
 	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
 	"golang.org/x/image/font"
 	"golang.org/x/image/font/gofont/gobold"
 	"golang.org/x/image/font/gofont/goregular"
@@ -25,9 +26,7 @@ import (
 func mustDefault(t testing.TB) *Set {
 	t.Helper()
 	s, err := Default()
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	return s
 }
 
@@ -37,9 +36,7 @@ func mustDefault(t testing.TB) *Set {
 func refWidth(t *testing.T, ttf []byte, size float64, text string) float64 {
 	t.Helper()
 	f, err := sfnt.Parse(ttf)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	var b sfnt.Buffer
 	upem := f.UnitsPerEm()
 	ppem := fixed.I(int(upem)) // one unit per font unit: exact integers
@@ -47,9 +44,7 @@ func refWidth(t *testing.T, ttf []byte, size float64, text string) float64 {
 	prev := sfnt.GlyphIndex(0)
 	for i, r := range text {
 		g, err := f.GlyphIndex(&b, r)
-		if err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, err)
 		if i > 0 {
 			k, err := f.Kern(&b, prev, g, ppem, font.HintingNone)
 			if err != nil && !errors.Is(err, sfnt.ErrNotFound) {
@@ -58,9 +53,7 @@ func refWidth(t *testing.T, ttf []byte, size float64, text string) float64 {
 			sum += k
 		}
 		a, err := f.GlyphAdvance(&b, g, ppem, font.HintingNone)
-		if err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, err)
 		sum += a
 		prev = g
 	}
@@ -73,15 +66,11 @@ func goSet(t *testing.T) *Set {
 	t.Helper()
 	dir := t.TempDir()
 	for name, b := range map[string][]byte{"Go-Regular.ttf": goregular.TTF, "Go-Bold.ttf": gobold.TTF} {
-		if err := os.WriteFile(filepath.Join(dir, name), b, 0o644); err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, os.WriteFile(filepath.Join(dir, name), b, 0o644))
 	}
 	spec := &specs.Spec{File: filepath.Join(dir, "feature.yaml"), Dir: dir}
 	s, err := Load(spec, &specs.Output{Name: "print", Fonts: specs.Fonts{Regular: "Go-Regular.ttf", Bold: "Go-Bold.ttf"}})
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	return s
 }
 
@@ -128,14 +117,10 @@ func TestMetricsGoRegular(t *testing.T) {
 	// lineGap 67 — read with golang.org/x/image/font/sfnt below rather than
 	// taken from memory.
 	f, err := sfnt.Parse(goregular.TTF)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	var b sfnt.Buffer
 	fm, err := f.Metrics(&b, fixed.I(int(f.UnitsPerEm())), font.HintingNone)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	upem := float64(f.UnitsPerEm())
 	size := 10.0
 	wantAsc := float64(fm.Ascent) / 64 / upem * size
@@ -150,14 +135,10 @@ func TestMetricsDefaultFace(t *testing.T) {
 	// The default face's vertical metrics, read with
 	// golang.org/x/image/font/sfnt (an independent reader).
 	f, err := sfnt.Parse(dejavusanscondensed.TTF)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	var b sfnt.Buffer
 	fm, err := f.Metrics(&b, fixed.I(int(f.UnitsPerEm())), font.HintingNone)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	upem := float64(f.UnitsPerEm())
 	size := 7.0
 	m := mustDefault(t).Metrics(Regular, size)
@@ -217,19 +198,13 @@ func TestWrap(t *testing.T) {
 
 func TestLoadFiles(t *testing.T) {
 	dir := t.TempDir()
-	if err := os.WriteFile(filepath.Join(dir, "Face-Bold.ttf"), gobold.TTF, 0o644); err != nil {
-		t.Fatal(err)
-	}
-	if err := os.WriteFile(filepath.Join(dir, "notafont.ttf"), []byte("plain text, not a font"), 0o644); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, os.WriteFile(filepath.Join(dir, "Face-Bold.ttf"), gobold.TTF, 0o644))
+	require.NoError(t, os.WriteFile(filepath.Join(dir, "notafont.ttf"), []byte("plain text, not a font"), 0o644))
 	spec := &specs.Spec{File: filepath.Join(dir, "feature.yaml"), Dir: dir}
 
 	out := &specs.Output{Name: "print", Fonts: specs.Fonts{Regular: "Face-Bold.ttf"}}
 	s, err := Load(spec, out)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	if &s.Regular()[0] == &goregular.TTF[0] || len(s.Regular()) != len(gobold.TTF) {
 		t.Error("regular face not read from the file")
 	}

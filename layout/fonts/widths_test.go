@@ -7,6 +7,7 @@ import (
 	"path/filepath"
 	"testing"
 
+	"github.com/stretchr/testify/require"
 	"golang.org/x/image/font/gofont/gobold"
 
 	"sheaf/specs"
@@ -48,9 +49,7 @@ func measured(t *testing.T, reverse bool) (*Set, []float64) {
 func saved(t *testing.T, s *Set) []byte {
 	t.Helper()
 	var b bytes.Buffer
-	if err := s.SaveWidths(&b); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, s.SaveWidths(&b))
 	return b.Bytes()
 }
 
@@ -58,9 +57,7 @@ func TestWidthsRoundTrip(t *testing.T) {
 	a, want := measured(t, false)
 	data := saved(t, a)
 	b := mustDefault(t)
-	if err := b.LoadWidths(bytes.NewReader(data)); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, b.LoadWidths(bytes.NewReader(data)))
 	if len(b.saved) != len(widthTexts) {
 		t.Fatalf("%d widths read back, want %d", len(b.saved), len(widthTexts))
 	}
@@ -97,14 +94,10 @@ func TestWidthsRefused(t *testing.T) {
 	data := saved(t, a)
 
 	dir := t.TempDir()
-	if err := os.WriteFile(filepath.Join(dir, "Other.ttf"), gobold.TTF, 0o644); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, os.WriteFile(filepath.Join(dir, "Other.ttf"), gobold.TTF, 0o644))
 	other, err := Load(&specs.Spec{File: filepath.Join(dir, "f.yaml"), Dir: dir},
 		&specs.Output{Name: "print", Fonts: specs.Fonts{Regular: "Other.ttf"}})
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	flipped := bytes.Clone(data)
 	flipped[len(flipped)/2] ^= 1
 	for _, tc := range []struct {

@@ -7,6 +7,8 @@ import (
 	"strings"
 	"testing"
 
+	"github.com/stretchr/testify/require"
+
 	"sheaf/render/curve"
 )
 
@@ -35,9 +37,7 @@ func TestEndPointsExact(t *testing.T) {
 		}
 		for _, m := range maps {
 			runs, err := curve.Build(xs, ys, m, nil)
-			if err != nil {
-				t.Fatal(err)
-			}
+			require.NoError(t, err)
 			for _, run := range runs {
 				if !same(run.Start, m.Apply(xs[run.First], ys[run.First])) {
 					t.Fatalf("run at %d starts at %v, want %v", run.First, run.Start, m.Apply(xs[run.First], ys[run.First]))
@@ -88,9 +88,7 @@ func TestGaps(t *testing.T) {
 				xs[i] = 1900 + float64(i)
 			}
 			runs, err := curve.Build(xs, tt.ys, m, nil)
-			if err != nil {
-				t.Fatal(err)
-			}
+			require.NoError(t, err)
 			var got []shape
 			for _, r := range runs {
 				got = append(got, shape{r.First, r.Points()})
@@ -108,9 +106,7 @@ func TestGaps(t *testing.T) {
 			// same bit for bit (local rule, srcFB).
 			for _, r := range runs {
 				alone, err := curve.Build(xs[r.First:r.First+r.Points()], tt.ys[r.First:r.First+r.Points()], m, nil)
-				if err != nil {
-					t.Fatal(err)
-				}
+				require.NoError(t, err)
 				if len(alone) != 1 || !reflect.DeepEqual(alone[0].Beziers, r.Beziers) || !same(alone[0].Start, r.Start) {
 					t.Errorf("run at %d differs from the same points built alone", r.First)
 				}
@@ -124,9 +120,7 @@ func TestTwoPointsStraight(t *testing.T) {
 	// its thirds (srcGonum n = 2 branch: both slopes are the secant).
 	m := mustMap(t, 1950, 1960, 0, 40, 10, 110, 90, 10)
 	runs, err := curve.Build([]float64{1951, 1957}, []float64{3, 29}, m, nil)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	bz := runs[0].Beziers[0]
 	third := curve.Point{X: bz.P0.X + (bz.P3.X-bz.P0.X)/3, Y: bz.P0.Y + (bz.P3.Y-bz.P0.Y)/3}
 	twoThirds := curve.Point{X: bz.P3.X - (bz.P3.X-bz.P0.X)/3, Y: bz.P3.Y - (bz.P3.Y-bz.P0.Y)/3}
@@ -155,9 +149,7 @@ func TestFlatStaysFlat(t *testing.T) {
 		mustMap(t, 1800, 1810, 0, 6, 0, 90, 30.3, 0.7),
 	} {
 		runs, err := curve.Build(xs, ys, m, nil)
-		if err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, err)
 		for k, bz := range runs[0].Beziers {
 			if ys[k] != ys[k+1] {
 				continue
@@ -184,13 +176,9 @@ func TestMirror(t *testing.T) {
 	for trial := range 50 {
 		xs, ys := randomSeries(r, 2+r.IntN(80), trial%2 == 0)
 		ru, err := curve.Build(xs, ys, up, nil)
-		if err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, err)
 		rd, err := curve.Build(xs, ys, down, nil)
-		if err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, err)
 		for k := range ru[0].Beziers {
 			bu, bd := ru[0].Beziers[k], rd[0].Beziers[k]
 			pu := [4]curve.Point{bu.P0, bu.P1, bu.P2, bu.P3}
@@ -218,9 +206,7 @@ func TestSplit(t *testing.T) {
 	xs := []float64{1800, 1803, 1810, 1811, 1830}
 	ys := []float64{1, 4, 2, 9, 9.5}
 	runs, err := curve.Build(xs, ys, m, nil)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	for k, bz := range runs[0].Beziers {
 		for _, s := range []float64{0.2, 0.5, 0.71} {
 			l, r := bz.Split(s)
@@ -367,17 +353,13 @@ func TestBuilderReuse(t *testing.T) {
 			ys[r.IntN(len(ys))] = nan
 		}
 		runs, err := b.Build(xs, ys, m, nil)
-		if err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, err)
 		all = append(all, runs)
 		series = append(series, [2][]float64{xs, ys})
 	}
 	for i, s := range series {
 		want, err := curve.Build(s[0], s[1], m, nil)
-		if err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, err)
 		if !reflect.DeepEqual(all[i], want) {
 			t.Fatalf("series %d: runs changed after later builds", i)
 		}

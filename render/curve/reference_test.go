@@ -5,6 +5,7 @@ import (
 	"math/rand/v2"
 	"testing"
 
+	"github.com/stretchr/testify/require"
 	"gonum.org/v1/gonum/interp"
 
 	"sheaf/render/curve"
@@ -21,9 +22,7 @@ const (
 func mustMap(t testing.TB, dx0, dx1, dy0, dy1, px0, px1, py0, py1 float64) curve.Map {
 	t.Helper()
 	m, err := curve.NewMap(dx0, dx1, dy0, dy1, px0, px1, py0, py1)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	return m
 }
 
@@ -54,9 +53,7 @@ func TestSlopesWorked(t *testing.T) {
 	for _, tt := range tests {
 		t.Run(tt.name, func(t *testing.T) {
 			got, err := curve.Slopes(tt.xs, tt.ys, nil)
-			if err != nil {
-				t.Fatal(err)
-			}
+			require.NoError(t, err)
 			if len(got) != len(tt.want) {
 				t.Fatalf("len = %d, want %d", len(got), len(tt.want))
 			}
@@ -96,9 +93,7 @@ func TestYAtWorked(t *testing.T) {
 	for name, m := range maps {
 		for _, tt := range tests {
 			runs, err := curve.Build(tt.xs, tt.ys, m, nil)
-			if err != nil {
-				t.Fatal(err)
-			}
+			require.NoError(t, err)
 			if len(runs) != 1 {
 				t.Fatalf("%s: %d runs, want 1", name, len(runs))
 			}
@@ -142,13 +137,9 @@ func TestAgainstGonum(t *testing.T) {
 		n := 2 + r.IntN(60)
 		xs, ys := randomSeries(r, n, trial%2 == 0)
 		var ref interp.FritschButland
-		if err := ref.Fit(xs, ys); err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, ref.Fit(xs, ys))
 		d, err := curve.Slopes(xs, ys, nil)
-		if err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, err)
 		for i, x := range xs {
 			want := ref.PredictDerivative(x)
 			if math.Abs(d[i]-want) > tol*max(1, math.Abs(want)) {
@@ -157,9 +148,7 @@ func TestAgainstGonum(t *testing.T) {
 		}
 		b.Reset()
 		runs, err := b.Build(xs, ys, m, nil)
-		if err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, err)
 		if len(runs) != 1 || runs[0].Points() != n {
 			t.Fatalf("trial %d: runs %+v, want one run of %d points", trial, runs, n)
 		}
@@ -231,9 +220,7 @@ func TestMonotoneOnMonotoneData(t *testing.T) {
 			}
 		}
 		d, err := curve.Slopes(xs, ys, nil)
-		if err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, err)
 		for k := 0; k+1 < n; k++ {
 			delta := (ys[k+1] - ys[k]) / (xs[k+1] - xs[k])
 			if delta == 0 {
@@ -255,9 +242,7 @@ func TestMonotoneOnMonotoneData(t *testing.T) {
 		// Independently of the region test: sampled values must move
 		// one way only.
 		runs, err := curve.Build(xs, ys, m, nil)
-		if err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, err)
 		for k, bz := range runs[0].Beziers {
 			prev := bz.P0.Y
 			for j := 1; j <= 64; j++ {
@@ -285,9 +270,7 @@ func TestStaysBetweenKnots(t *testing.T) {
 		xs, ys := randomSeries(r, 2+r.IntN(100), trial%3 != 0)
 		for mi, m := range maps {
 			runs, err := curve.Build(xs, ys, m, nil)
-			if err != nil {
-				t.Fatal(err)
-			}
+			require.NoError(t, err)
 			for k, bz := range runs[0].Beziers {
 				lo, hi := min(bz.P0.Y, bz.P3.Y), max(bz.P0.Y, bz.P3.Y)
 				slack := 4 * ulp(max(math.Abs(lo), math.Abs(hi))) // rounding in At
@@ -312,13 +295,9 @@ func TestNaturalCubicOvershoots(t *testing.T) {
 	xs := []float64{1, 2, 3, 4, 5}
 	ys := []float64{0, 0, 1, 4, 4}
 	var nc interp.NaturalCubic
-	if err := nc.Fit(xs, ys); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, nc.Fit(xs, ys))
 	runs, err := curve.Build(xs, ys, identity(t), nil)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	lowNC, highNC := math.Inf(1), math.Inf(-1)
 	for k := 0; k+1 < len(xs); k++ {
 		lo, hi := min(ys[k], ys[k+1]), max(ys[k], ys[k+1])

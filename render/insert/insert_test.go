@@ -81,9 +81,7 @@ func TestSpreadProperties(t *testing.T) {
 			want[i] = lo - 10 + rnd()*(hi-lo+20)
 		}
 		got, err := Spread(want, gap, lo, hi)
-		if err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, err)
 		idx := make([]int, n)
 		for i := range idx {
 			idx[i] = i
@@ -184,17 +182,11 @@ func testInsertAs(t testing.TB, kind specs.Kind, w, h specs.Length, compare spec
 	s.Palette.Paper = specs.Color{Space: specs.SpaceSRGB, V: [3]float64{1, 1, 1}}
 	in := &specs.Insert{Name: "cmp", Output: "web", Size: specs.Size{W: w, H: h}, Compare: compare}
 	fs, err := fonts.Load(s, &out)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	pal, err := palette.NewScale("test", palette.DefaultAnchors(1900, 1905), nil)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	g, err := New(s, in, &out, testSet(), pal, fs)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	return g
 }
 
@@ -267,12 +259,8 @@ func TestDrawSVGAndRaster(t *testing.T) {
 	g := testInsert(t, specs.Screen, specs.Length(600*0.75), specs.Length(360*0.75))
 	w, h := g.Size()
 	doc, err := svg.New(w, h, svg.Options{Title: "t"})
-	if err != nil {
-		t.Fatal(err)
-	}
-	if err := g.Draw(canvas.NewContext(doc)); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
+	require.NoError(t, g.Draw(canvas.NewContext(doc)))
 	var buf bytes.Buffer
 	if _, err := doc.WriteTo(&buf); err != nil {
 		t.Fatal(err)
@@ -285,9 +273,7 @@ func TestDrawSVGAndRaster(t *testing.T) {
 		}
 	}
 	img, err := raster.Draw(w, h, 96, g.Paper(), func(ctx *canvas.Context) error { return g.Draw(ctx) })
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	if dir := os.Getenv("SHEAF_KEEP"); dir != "" {
 		os.WriteFile(filepath.Join(dir, "insert.svg"), buf.Bytes(), 0o644)
 		f, _ := os.Create(filepath.Join(dir, "insert.png"))

@@ -12,6 +12,8 @@ import (
 	"strings"
 	"testing"
 
+	"github.com/stretchr/testify/require"
+
 	"sheaf/render/tooltest"
 )
 
@@ -27,9 +29,7 @@ type labRef struct {
 func loadLabRefs(t *testing.T) []labRef {
 	t.Helper()
 	raw, err := os.ReadFile("testdata/srgb_reference_d50.csv")
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	var lines []string
 	for _, l := range strings.Split(string(raw), "\n") {
 		if l != "" && !strings.HasPrefix(l, "#") {
@@ -37,18 +37,14 @@ func loadLabRefs(t *testing.T) []labRef {
 		}
 	}
 	recs, err := csv.NewReader(strings.NewReader(strings.Join(lines, "\n"))).ReadAll()
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	col := map[string]int{}
 	for i, h := range recs[0] {
 		col[h] = i
 	}
 	f := func(r []string, k string) float64 {
 		v, err := strconv.ParseFloat(r[col[k]], 64)
-		if err != nil {
-			t.Fatalf("%s in %v: %v", k, r, err)
-		}
+		require.NoError(t, err, "%s in %v", k, r)
 		return v
 	}
 	var out []labRef
@@ -107,9 +103,7 @@ func TestICCProfileWithLittleCMS(t *testing.T) {
 		}
 		for j, want := range []float64{r.L, r.a, r.b} {
 			got, err := strconv.ParseFloat(fields[3*i+j], 64)
-			if err != nil {
-				t.Fatal(err)
-			}
+			require.NoError(t, err)
 			if math.Abs(got-want) > tol {
 				t.Errorf("%s %s (%s): Lab[%d] = %.4f, want %.4f ± %g", r.name, r.hex, r.source, j, got, want, tol)
 			}

@@ -9,6 +9,7 @@ import (
 	"strconv"
 	"testing"
 
+	"github.com/stretchr/testify/require"
 	"github.com/tdewolff/canvas"
 )
 
@@ -18,13 +19,9 @@ func pageContent(t *testing.T, p *EncodedPage) string {
 		return string(p.Content)
 	}
 	r, err := zlib.NewReader(bytes.NewReader(p.Content))
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	b, err := io.ReadAll(r)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	return string(b)
 }
 
@@ -36,9 +33,7 @@ func pageContent(t *testing.T, p *EncodedPage) string {
 func TestCropMarks(t *testing.T) {
 	b := a5Boxes()
 	p, err := EncodePage(PageSetup{Boxes: b, Marks: &MarkOptions{}, Slug: "job 7 · page 1/1"}, nil)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	c := pageContent(t, p)
 	if !regexp.MustCompile(`/CS1 CS 1 SC`).MatchString(c) || !regexp.MustCompile(`/CS1 cs 1 sc`).MatchString(c) {
 		t.Error("marks are not in the registration colour /CS1 at tint 1")

@@ -10,6 +10,7 @@ import (
 	"strings"
 	"testing"
 
+	"github.com/stretchr/testify/require"
 	"github.com/tdewolff/canvas"
 
 	"sheaf/render/tooltest"
@@ -42,9 +43,7 @@ func TestXMPMatchesInfo(t *testing.T) {
 func writeTemp(t *testing.T, name string, b []byte) string {
 	t.Helper()
 	p := filepath.Join(t.TempDir(), name)
-	if err := os.WriteFile(p, b, 0o644); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, os.WriteFile(p, b, 0o644))
 	return p
 }
 

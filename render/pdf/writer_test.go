@@ -10,6 +10,7 @@ import (
 	"testing"
 	"time"
 
+	"github.com/stretchr/testify/require"
 	"github.com/tdewolff/canvas"
 	"golang.org/x/image/font/gofont/gobold"
 )
@@ -174,25 +175,15 @@ func TestEncodedPageRoundTrip(t *testing.T) {
 
 	var direct bytes.Buffer
 	w := NewWriter(&direct, opts)
-	if err := w.AddPage(setup, draw); err != nil {
-		t.Fatal(err)
-	}
-	if err := w.Close(); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, w.AddPage(setup, draw))
+	require.NoError(t, w.Close())
 
 	page, err := EncodePage(setup, draw)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	var store bytes.Buffer
-	if err := gob.NewEncoder(&store).Encode(page); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, gob.NewEncoder(&store).Encode(page))
 	var back EncodedPage
-	if err := gob.NewDecoder(&store).Decode(&back); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, gob.NewDecoder(&store).Decode(&back))
 
 	var cached bytes.Buffer
 	w = NewWriter(&cached, opts)
@@ -202,12 +193,8 @@ func TestEncodedPageRoundTrip(t *testing.T) {
 	if _, err := w.RegisterFont(reg); err != nil {
 		t.Fatal(err)
 	}
-	if err := w.AddEncoded(&back); err != nil {
-		t.Fatal(err)
-	}
-	if err := w.Close(); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, w.AddEncoded(&back))
+	require.NoError(t, w.Close())
 	if !bytes.Equal(direct.Bytes(), cached.Bytes()) {
 		t.Error("a cached page gives other bytes than drawing it")
 	}

@@ -6,6 +6,7 @@ import (
 	"sheaf/render/tooltest"
 	"testing"
 
+	"github.com/stretchr/testify/require"
 	"github.com/tdewolff/canvas"
 
 	"sheaf/render/curve"
@@ -27,13 +28,9 @@ func walk(t testing.TB, seed uint64) (*canvas.Path, float64) {
 		ys[i], top = v, max(top, v)
 	}
 	m, err := curve.NewMap(1800, 1974, 0, top, 10, 130, 10, 50)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	runs, err := curve.Build(xs, ys, m, nil)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	p := &canvas.Path{}
 	length := 0.0
 	for _, run := range runs {
@@ -100,9 +97,7 @@ func TestStrokesAreFlattened(t *testing.T) {
 			stroke(ctx, p, walkLine)
 			return nil
 		})
-		if err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, err)
 		ratio := ink(img) / strokedArea(length, walkLine, walkDPI)
 		lo, hi = min(lo, ratio), max(hi, ratio)
 		if ratio < 0.85 || ratio > 1.10 {
@@ -134,9 +129,7 @@ func TestStrokesMatchPoppler(t *testing.T) {
 	}
 	for i, seed := range seeds {
 		ours, err := raster.Draw(walkW, walkH, walkDPI, white, pages[i].draw)
-		if err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, err)
 		// pdftoppm rounds the page's pixel size up, Draw to the nearest;
 		// both put the page's top-left corner at pixel (0, 0).
 		if !ours.Bounds().In(theirs[i].Bounds()) {

@@ -6,6 +6,7 @@ import (
 	"math"
 	"testing"
 
+	"github.com/stretchr/testify/require"
 	"github.com/tdewolff/canvas"
 
 	"sheaf/render/raster"
@@ -95,9 +96,7 @@ func TestRectLandsOnPixels(t *testing.T) {
 			} else {
 				img, err = raster.DrawRegion(tc.h, tc.dpi, *tc.region, white, draw)
 			}
-			if err != nil {
-				t.Fatal(err)
-			}
+			require.NoError(t, err)
 			if img.Bounds() != tc.wantBounds {
 				t.Fatalf("image bounds %v, want %v", img.Bounds(), tc.wantBounds)
 			}

@@ -14,6 +14,7 @@ import (
 	"strings"
 	"testing"
 
+	"github.com/stretchr/testify/require"
 	"github.com/tdewolff/canvas"
 	"github.com/tdewolff/font"
 	"golang.org/x/image/font/gofont/gobold"
@@ -27,13 +28,9 @@ const mm = 25.4 / 72 // millimetres per point
 func goFonts(t testing.TB) (*canvas.Font, *canvas.Font) {
 	t.Helper()
 	r, err := canvas.LoadFont(goregular.TTF, 0, canvas.FontRegular)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	b, err := canvas.LoadFont(gobold.TTF, 0, canvas.FontRegular)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	return r, b
 }
 
@@ -47,9 +44,7 @@ func sample(t testing.TB, opts Options) []byte {
 func sampleWith(t testing.TB, opts Options, reg, bold *canvas.Font) []byte {
 	t.Helper()
 	d, err := New(300, 150, opts)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	ctx := canvas.NewContext(d)
 	d.BeginGroup("panel-1", "boiler", `How often "boiler" was used & when`)
 	g := canvas.NewLinearGradient(canvas.Point{X: 10 * mm, Y: 20 * mm}, canvas.Point{X: 140 * mm, Y: 20 * mm})
@@ -105,9 +100,7 @@ func TestWellFormed(t *testing.T) {
 			Title   string `xml:"title"`
 			Desc    string `xml:"desc"`
 		}
-		if err := dec.Decode(&root); err != nil {
-			t.Fatalf("embed=%v: not well-formed XML: %v", embed, err)
-		}
+		require.NoError(t, dec.Decode(&root), "embed=%v: not well-formed XML", embed)
 		if root.XMLName.Space != "http://www.w3.org/2000/svg" || root.XMLName.Local != "svg" {
 			t.Errorf("root is %v", root.XMLName)
 		}
@@ -127,9 +120,7 @@ func TestWellFormed(t *testing.T) {
 // top.
 func TestUnits(t *testing.T) {
 	d, err := New(4*72, 3*72, Options{})
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	ctx := canvas.NewContext(d)
 	ctx.SetFillColor(canvas.Black)
 	ctx.DrawPath(25.4, 25.4, canvas.Rectangle(25.4, 25.4))
@@ -168,9 +159,7 @@ func pathPoints(t testing.TB, d string) [][2]float64 {
 	toks := tok.FindAllString(d, -1)
 	num := func(i *int) float64 {
 		v, err := strconv.ParseFloat(toks[*i], 64)
-		if err != nil {
-			t.Fatalf("path data %q: %v", d, err)
-		}
+		require.NoError(t, err, "path data %q", d)
 		*i++
 		return v
 	}
@@ -220,9 +209,7 @@ func pathPoints(t testing.TB, d string) [][2]float64 {
 // accumulating along the line).
 func TestPathDataRoundTrip(t *testing.T) {
 	d, err := New(900, 200, Options{})
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	p := &canvas.Path{}
 	var ends [][2]float64 // in px, y down
 	y := 100.0
@@ -339,13 +326,9 @@ func TestEmbeddedSubset(t *testing.T) {
 	used := map[string]string{"bold": "Maßstab & <co>", "normal": "18681900"}
 	for _, mm := range m {
 		raw, err := base64.StdEncoding.DecodeString(mm[2])
-		if err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, err)
 		f, err := font.ParseSFNT(raw, 0)
-		if err != nil {
-			t.Fatalf("%s subset does not parse: %v", mm[1], err)
-		}
+		require.NoError(t, err, "%s subset does not parse", mm[1])
 		for _, r := range used[mm[1]] {
 			if f.GlyphIndex(r) == 0 {
 				t.Errorf("%s subset lacks %q", mm[1], r)
@@ -394,9 +377,7 @@ func TestRsvgRenders(t *testing.T) {
 	rsvg := tooltest.Require(t, "rsvg-convert", "librsvg2-bin")
 	dir := t.TempDir()
 	in := filepath.Join(dir, "s.svg")
-	if err := os.WriteFile(in, sample(t, Options{EmbedFonts: true}), 0o644); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, os.WriteFile(in, sample(t, Options{EmbedFonts: true}), 0o644))
 	out, err := exec.Command(rsvg, "-o", filepath.Join(dir, "s.png"), in).CombinedOutput()
 	if err != nil || len(out) > 0 {
 		t.Fatalf("rsvg-convert: %v\n%s", err, out)

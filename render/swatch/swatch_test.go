@@ -11,6 +11,7 @@ import (
 	"strings"
 	"testing"
 
+	"github.com/stretchr/testify/require"
 	"github.com/tdewolff/canvas"
 
 	"sheaf/palette"
@@ -21,30 +22,20 @@ var look = flag.String("look", "", "also write the default sheet as PNG to this 
 func sheet(t testing.TB, eras []float64, paperHex string, width float64) (palette.Scale, palette.Report) {
 	t.Helper()
 	s, err := palette.NewScale(palette.DefaultName, palette.DefaultAnchors(1868, 2025), eras)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	paper, err := palette.ParseHex(paperHex)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	r, err := palette.Check(s, paper, width, palette.Print, palette.DefaultThresholds())
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	return s, r
 }
 
 func render(t testing.TB, s palette.Scale, r palette.Report, dpi float64) (image.Image, []byte) {
 	t.Helper()
 	var buf bytes.Buffer
-	if err := WritePNG(&buf, s, r, dpi); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, WritePNG(&buf, s, r, dpi))
 	img, err := png.Decode(bytes.NewReader(buf.Bytes()))
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	return img, buf.Bytes()
 }
 
@@ -74,9 +65,7 @@ func TestSheetShowsThePalette(t *testing.T) {
 		t.Errorf("image %d × %d px", w, h)
 	}
 	if *look != "" {
-		if err := os.WriteFile(*look, data, 0o644); err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, os.WriteFile(*look, data, 0o644))
 	}
 	// Paper colour in the corner, exactly.
 	if got := px(img, dpi, 2, 2).Hex(); got != "#fbf8f1" {
@@ -178,8 +167,6 @@ func BenchmarkWritePNG150(b *testing.B) {
 	s, r := sheet(b, nil, "#ffffff", 0.75)
 	for b.Loop() {
 		var buf bytes.Buffer
-		if err := WritePNG(&buf, s, r, 150); err != nil {
-			b.Fatal(err)
-		}
+		require.NoError(b, WritePNG(&buf, s, r, 150))
 	}
 }

@@ -34,30 +34,22 @@ var demo = sync.OnceValues(func() (Corpus, error) { return Generate(DefaultConfi
 func mustDemo(t testing.TB) Corpus {
 	t.Helper()
 	c, err := demo()
-	if err != nil {
-		t.Fatalf("Generate(DefaultConfig()): %v", err)
-	}
+	require.NoError(t, err, "Generate(DefaultConfig())")
 	return c
 }
 
 func render(t testing.TB, c Corpus) (counts, totals []byte) {
 	t.Helper()
 	var cb, tb bytes.Buffer
-	if err := c.WriteCounts(&cb); err != nil {
-		t.Fatal(err)
-	}
-	if err := c.WriteTotals(&tb); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, c.WriteCounts(&cb))
+	require.NoError(t, c.WriteTotals(&tb))
 	return cb.Bytes(), tb.Bytes()
 }
 
 func TestDeterministic(t *testing.T) {
 	a := mustDemo(t)
 	b, err := Generate(DefaultConfig())
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	ac, at := render(t, a)
 	bc, bt := render(t, b)
 	if !bytes.Equal(ac, bc) || !bytes.Equal(at, bt) {
@@ -66,9 +58,7 @@ func TestDeterministic(t *testing.T) {
 	cfg := DefaultConfig()
 	cfg.Seed++
 	d, err := Generate(cfg)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	if dc, _ := render(t, d); bytes.Equal(ac, dc) {
 		t.Fatal("a different seed gave the same counts")
 	}
@@ -502,9 +492,7 @@ func TestTopTermsVaried(t *testing.T) {
 func parse(t testing.TB, b []byte) [][]string {
 	t.Helper()
 	rows, err := csv.NewReader(bytes.NewReader(b)).ReadAll()
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	return rows
 }
 
@@ -597,9 +585,7 @@ func TestOtherSizes(t *testing.T) {
 		{Terms: 300, Seed: 2, From: 1800, To: 1900, Missing: WarYears()},
 	} {
 		c, err := Generate(cfg)
-		if err != nil {
-			t.Fatalf("%+v: %v", cfg, err)
-		}
+		require.NoError(t, err, "%+v", cfg)
 		if len(c.Terms) != cfg.Terms || len(c.Years) != cfg.To-cfg.From+1-countIn(cfg.Missing, cfg.From, cfg.To) {
 			t.Errorf("%+v: %d terms over %d years", cfg, len(c.Terms), len(c.Years))
 		}
@@ -622,13 +608,9 @@ func countIn(ys []int, from, to int) int {
 func TestWriteDir(t *testing.T) {
 	dir := t.TempDir()
 	cfg := Config{Terms: 50, Seed: 3, From: 1900, To: 1960, Missing: WarYears()}
-	if err := WriteDir(filepath.Join(dir, "sub"), cfg); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, WriteDir(filepath.Join(dir, "sub"), cfg))
 	c, err := Generate(cfg)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	counts, totals := render(t, c)
 	for name, want := range map[string][]byte{CountsFile: counts, TotalsFile: totals} {
 		got, err := os.ReadFile(filepath.Join(dir, "sub", name))
@@ -660,9 +642,7 @@ func BenchmarkWriteDir4000(b *testing.B) {
 	cfg.Terms = 4000
 	dir := b.TempDir()
 	for b.Loop() {
-		if err := WriteDir(dir, cfg); err != nil {
-			b.Fatal(err)
-		}
+		require.NoError(b, WriteDir(dir, cfg))
 	}
 }
 

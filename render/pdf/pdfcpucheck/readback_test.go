@@ -14,6 +14,7 @@ import (
 	"github.com/pdfcpu/pdfcpu/pkg/api"
 	"github.com/pdfcpu/pdfcpu/pkg/pdfcpu/model"
 	"github.com/pdfcpu/pdfcpu/pkg/pdfcpu/types"
+	"github.com/stretchr/testify/require"
 	"github.com/tdewolff/canvas"
 	"golang.org/x/image/font/gofont/gobold"
 	"golang.org/x/image/font/gofont/goregular"
@@ -41,9 +42,7 @@ func boxes() pdf.PageBoxes {
 
 func font(t *testing.T, b []byte) *canvas.Font {
 	f, err := canvas.LoadFont(b, 0, canvas.FontRegular)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	return f
 }
 
@@ -83,13 +82,9 @@ func documentFor(t *testing.T, pages int, cond *press.Condition) []byte {
 	var buf bytes.Buffer
 	w := pdf.NewWriter(&buf, pdf.Options{Title: "Read back", Version: "0.0.1", Date: testDate, Press: cond})
 	for i := 0; i < pages; i++ {
-		if err := w.AddPage(pdf.PageSetup{Boxes: boxes(), Marks: &pdf.MarkOptions{}, Slug: "read-back test", Press: cond}, drawing(reg, bold)); err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, w.AddPage(pdf.PageSetup{Boxes: boxes(), Marks: &pdf.MarkOptions{}, Slug: "read-back test", Press: cond}, drawing(reg, bold)))
 	}
-	if err := w.Close(); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, w.Close())
 	return buf.Bytes()
 }
 
@@ -100,12 +95,8 @@ func readStrict(t *testing.T, b []byte) *model.Context {
 	conf := model.NewDefaultConfiguration()
 	conf.ValidationMode = model.ValidationStrict
 	ctx, err := api.ReadContext(bytes.NewReader(b), conf)
-	if err != nil {
-		t.Fatalf("pdfcpu read: %v", err)
-	}
-	if err := api.ValidateContext(ctx); err != nil {
-		t.Fatalf("pdfcpu strict validation: %v", err)
-	}
+	require.NoError(t, err, "pdfcpu read")
+	require.NoError(t, api.ValidateContext(ctx), "pdfcpu strict validation")
 	return ctx
 }
 
@@ -122,13 +113,9 @@ func TestPDFCPUReadBack(t *testing.T) {
 	t.Run("RGB", func(t *testing.T) { readBack(t, nil) })
 	t.Run("CMYK", func(t *testing.T) {
 		b, err := os.ReadFile(tooltest.ICCProfile(t, "default_cmyk.icc"))
-		if err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, err)
 		cond, err := press.New(b, press.Settings{Registry: "http://www.color.org", InkLimit: 300, Intent: icc.RelativeColorimetric})
-		if err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, err)
 		readBack(t, cond)
 	})
 }
@@ -143,9 +130,7 @@ func readBack(t *testing.T, cond *press.Condition) {
 	}
 	want := boxes()
 	pbs, err := ctx.PageBoundaries(nil)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	near := func(r *types.Rectangle, w canvas.Rect) bool {
 		return r != nil && math.Abs(r.LL.X-w.X0) < 0.01 && math.Abs(r.LL.Y-w.Y0) < 0.01 &&
 			math.Abs(r.UR.X-w.X1) < 0.01 && math.Abs(r.UR.Y-w.Y1) < 0.01
@@ -163,9 +148,7 @@ func readBack(t *testing.T, cond *press.Condition) {
 		}
 		// PDF/X: TrimBox or ArtBox, not both (print-facts.md, PDF/X-4).
 		d, _, _, err := ctx.PageDict(i+1, false)
-		if err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, err)
 		if _, ok := d.Find("ArtBox"); ok {
 			t.Errorf("page %d has an ArtBox besides its TrimBox", i+1)
 		}
@@ -199,9 +182,7 @@ func readBack(t *testing.T, cond *press.Condition) {
 	}
 
 	root, err := ctx.Catalog()
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	if cond == nil {
 		// An RGB file makes no PDF/X claim: no output intent.
 		if _, ok := root.Find("OutputIntents"); ok {
@@ -245,16 +226,10 @@ func readBack(t *testing.T, cond *press.Condition) {
 func TestCachedPageValidates(t *testing.T) {
 	bold := font(t, gobold.TTF)
 	page, err := pdf.EncodePage(pdf.PageSetup{Boxes: boxes()}, drawing(font(t, goregular.TTF), bold))
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	var buf bytes.Buffer
 	w := pdf.NewWriter(&buf, pdf.Options{Date: testDate})
-	if err := w.AddEncoded(page); err != nil {
-		t.Fatal(err)
-	}
-	if err := w.Close(); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, w.AddEncoded(page))
+	require.NoError(t, w.Close())
 	readStrict(t, buf.Bytes())
 }
