@@ -44,9 +44,7 @@ func TestLabD50AgainstLittleCMS(t *testing.T) {
 			got = append(got, l)
 		}
 	}
-	if len(got) != len(colours) {
-		t.Fatalf("transicc gave %d colours for %d:\n%s", len(got), len(colours), out)
-	}
+	require.False(t, len(got) != len(colours), "transicc gave %d colours for %d:\n%s", len(got), len(colours), out)
 	for i, c := range colours {
 		ours := c.LabD50()
 		if d := math.Max(math.Abs(ours.L-got[i].L), math.Max(math.Abs(ours.A-got[i].A), math.Abs(ours.B-got[i].B))); d > 0.03 {
@@ -69,9 +67,7 @@ func requireFile(t *testing.T, path, debianPackage string) {
 		return
 	}
 	msg := path + " not found; install Debian package " + debianPackage
-	if os.Getenv(tooltest.EnvRequire) == "1" {
-		t.Fatalf("%s (required because %s=1)", msg, tooltest.EnvRequire)
-	}
+	require.False(t, os.Getenv(tooltest.EnvRequire) == "1", "%s (required because %s=1)", msg, tooltest.EnvRequire)
 	t.Skip(msg)
 }
 

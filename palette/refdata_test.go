@@ -39,9 +39,7 @@ func refRows(t *testing.T, name string, sep string) []map[string]string {
 		rows = append(rows, row)
 	}
 	require.NoError(t, sc.Err())
-	if len(rows) == 0 {
-		t.Fatalf("%s: no rows", name)
-	}
+	require.False(t, len(rows) == 0, "%s: no rows", name)
 	return rows
 }
 

@@ -36,9 +36,7 @@ func requireFile(t testing.TB, path, debianPackage string) []byte {
 		return b
 	}
 	msg := path + " not found; install Debian package " + debianPackage
-	if os.Getenv("SHEAF_REQUIRE_TOOLS") == "1" {
-		t.Fatalf("%s (required because SHEAF_REQUIRE_TOOLS=1)", msg)
-	}
+	require.False(t, os.Getenv("SHEAF_REQUIRE_TOOLS") == "1", "%s (required because SHEAF_REQUIRE_TOOLS=1)", msg)
 	t.Skip(msg)
 	return nil
 }
@@ -49,9 +47,7 @@ func moduleFile(t testing.TB, module, rel string) []byte {
 	out, err := exec.Command("go", "list", "-m", "-f", "{{.Dir}}", module).Output()
 	if err != nil || strings.TrimSpace(string(out)) == "" {
 		msg := fmt.Sprintf("module %s not in the module cache: %v", module, err)
-		if os.Getenv("SHEAF_REQUIRE_TOOLS") == "1" {
-			t.Fatalf("%s (required because SHEAF_REQUIRE_TOOLS=1)", msg)
-		}
+		require.False(t, os.Getenv("SHEAF_REQUIRE_TOOLS") == "1", "%s (required because SHEAF_REQUIRE_TOOLS=1)", msg)
 		t.Skip(msg)
 	}
 	b, err := os.ReadFile(filepath.Join(strings.TrimSpace(string(out)), rel))

@@ -7,6 +7,7 @@ import (
 	"path/filepath"
 	"testing"
 
+	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
 	"golang.org/x/image/font/gofont/gobold"
 
@@ -58,12 +59,8 @@ func TestWidthsRoundTrip(t *testing.T) {
 	data := saved(t, a)
 	b := mustDefault(t)
 	require.NoError(t, b.LoadWidths(bytes.NewReader(data)))
-	if len(b.saved) != len(widthTexts) {
-		t.Fatalf("%d widths read back, want %d", len(b.saved), len(widthTexts))
-	}
-	if len(saved(t, b)) >= len(data) {
-		t.Error("widths loaded but not used are saved again")
-	}
+	require.False(t, len(b.saved) != len(widthTexts), "%d widths read back, want %d", len(b.saved), len(widthTexts))
+	assert.False(t, len(saved(t, b)) >= len(data), "widths loaded but not used are saved again")
 	for i, w := range widthTexts {
 		got, ok := b.saved[widthKey{w.st, w.size, w.text}]
 		if !ok || math.Float64bits(got) != math.Float64bits(want[i]) {
@@ -73,9 +70,7 @@ func TestWidthsRoundTrip(t *testing.T) {
 			t.Errorf("%v %g %q: Width %v after loading, want %v", w.st, w.size, w.text, got, want[i])
 		}
 	}
-	if !bytes.Equal(saved(t, b), data) {
-		t.Error("widths used from a loaded file do not save to the same bytes")
-	}
+	assert.True(t, bytes.Equal(saved(t, b), data), "widths used from a loaded file do not save to the same bytes")
 	// One width more than the file had: saved with the rest.
 	b.Width(Regular, 9, "one more")
 	more := mustDefault(t)
@@ -84,9 +79,7 @@ func TestWidthsRoundTrip(t *testing.T) {
 	}
 	// Sorted entries: the order of measuring does not show in the bytes.
 	c, _ := measured(t, true)
-	if !bytes.Equal(saved(t, c), data) {
-		t.Error("the same widths measured in another order save to other bytes")
-	}
+	assert.True(t, bytes.Equal(saved(t, c), data), "the same widths measured in another order save to other bytes")
 }
 
 func TestWidthsRefused(t *testing.T) {
@@ -114,8 +107,6 @@ func TestWidthsRefused(t *testing.T) {
 		if err := tc.set.LoadWidths(bytes.NewReader(tc.data)); err == nil {
 			t.Errorf("%s: no error", tc.name)
 		}
-		if len(tc.set.saved) != 0 {
-			t.Errorf("%s: %d widths added", tc.name, len(tc.set.saved))
-		}
+		assert.False(t, len(tc.set.saved) != 0, "%s: %d widths added", tc.name, len(tc.set.saved))
 	}
 }

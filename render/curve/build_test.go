@@ -7,6 +7,7 @@ import (
 	"strings"
 	"testing"
 
+	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
 
 	"sheaf/render/curve"
@@ -39,9 +40,7 @@ func TestEndPointsExact(t *testing.T) {
 			runs, err := curve.Build(xs, ys, m, nil)
 			require.NoError(t, err)
 			for _, run := range runs {
-				if !same(run.Start, m.Apply(xs[run.First], ys[run.First])) {
-					t.Fatalf("run at %d starts at %v, want %v", run.First, run.Start, m.Apply(xs[run.First], ys[run.First]))
-				}
+				require.True(t, same(run.Start, m.Apply(xs[run.First], ys[run.First])), "run at %d starts at %v, want %v", run.First, run.Start, m.Apply(xs[run.First], ys[run.First]))
 				for k, bz := range run.Beziers {
 					i := run.First + k
 					if !same(bz.P0, m.Apply(xs[i], ys[i])) || !same(bz.P3, m.Apply(xs[i+1], ys[i+1])) {
@@ -92,24 +91,18 @@ func TestGaps(t *testing.T) {
 			var got []shape
 			for _, r := range runs {
 				got = append(got, shape{r.First, r.Points()})
-				if r.IsDot() != (r.Points() == 1) {
-					t.Errorf("run at %d: IsDot %v with %d points", r.First, r.IsDot(), r.Points())
-				}
+				assert.False(t, r.IsDot() != (r.Points() == 1), "run at %d: IsDot %v with %d points", r.First, r.IsDot(), r.Points())
 				if r.IsDot() && !same(r.Start, m.Apply(xs[r.First], tt.ys[r.First])) {
 					t.Errorf("dot at %v, want %v", r.Start, m.Apply(xs[r.First], tt.ys[r.First]))
 				}
 			}
-			if !reflect.DeepEqual(got, tt.want) {
-				t.Errorf("runs (first, points) = %v, want %v (%s)", got, tt.want, tt.source)
-			}
+			assert.Equal(t, tt.want, got, "runs (first, points) = %v, want %v (%s)", got, tt.want, tt.source)
 			// A run ignores the data across a gap: built alone, it is the
 			// same bit for bit (local rule, srcFB).
 			for _, r := range runs {
 				alone, err := curve.Build(xs[r.First:r.First+r.Points()], tt.ys[r.First:r.First+r.Points()], m, nil)
 				require.NoError(t, err)
-				if len(alone) != 1 || !reflect.DeepEqual(alone[0].Beziers, r.Beziers) || !same(alone[0].Start, r.Start) {
-					t.Errorf("run at %d differs from the same points built alone", r.First)
-				}
+				assert.False(t, len(alone) != 1 || !reflect.DeepEqual(alone[0].Beziers, r.Beziers) || !same(alone[0].Start, r.Start), "run at %d differs from the same points built alone", r.First)
 			}
 		})
 	}
@@ -154,9 +147,7 @@ func TestFlatStaysFlat(t *testing.T) {
 			if ys[k] != ys[k+1] {
 				continue
 			}
-			if bz.P1.Y != bz.P0.Y || bz.P2.Y != bz.P0.Y || bz.P3.Y != bz.P0.Y {
-				t.Errorf("flat interval %d: heights %v %v %v %v", k, bz.P0.Y, bz.P1.Y, bz.P2.Y, bz.P3.Y)
-			}
+			assert.False(t, bz.P1.Y != bz.P0.Y || bz.P2.Y != bz.P0.Y || bz.P3.Y != bz.P0.Y, "flat interval %d: heights %v %v %v %v", k, bz.P0.Y, bz.P1.Y, bz.P2.Y, bz.P3.Y)
 			for j := 0; j <= 20; j++ {
 				if y := bz.At(float64(j) / 20).Y; y != bz.P0.Y {
 					t.Errorf("flat interval %d: y(t=%v) = %v, want %v", k, float64(j)/20, y, bz.P0.Y)
@@ -190,9 +181,7 @@ func TestMirror(t *testing.T) {
 			}
 			for _, tt := range []float64{0.25, 0.5, 0.8} {
 				a, b := bu.At(tt), bd.At(tt)
-				if a.X != b.X || math.Abs(a.Y+b.Y-280) > 1e-10 {
-					t.Fatalf("trial %d segment %d: At(%v) up %v, down %v", trial, k, tt, a, b)
-				}
+				require.False(t, a.X != b.X || math.Abs(a.Y+b.Y-280) > 1e-10, "trial %d segment %d: At(%v) up %v, down %v", trial, k, tt, a, b)
 			}
 		}
 	}
@@ -210,9 +199,7 @@ func TestSplit(t *testing.T) {
 	for k, bz := range runs[0].Beziers {
 		for _, s := range []float64{0.2, 0.5, 0.71} {
 			l, r := bz.Split(s)
-			if !same(l.P3, r.P0) || !same(l.P0, bz.P0) || !same(r.P3, bz.P3) {
-				t.Errorf("segment %d Split(%v): parts do not join or keep the ends", k, s)
-			}
+			assert.False(t, !same(l.P3, r.P0) || !same(l.P0, bz.P0) || !same(r.P3, bz.P3), "segment %d Split(%v): parts do not join or keep the ends", k, s)
 			for _, u := range []float64{0, 0.3, 0.6, 1} {
 				if d := dist(l.At(u), bz.At(s*u)); d > 1e-10 {
 					t.Errorf("segment %d Split(%v): left.At(%v) off by %g", k, s, u, d)
@@ -227,18 +214,14 @@ func TestSplit(t *testing.T) {
 		year := (xs[k] + xs[k+1]) / 2
 		x := m.X(year)
 		l, r := bz.SplitAtX(x)
-		if l.P3.X != x || r.P0.X != x || !same(l.P3, r.P0) {
-			t.Errorf("segment %d SplitAtX(%v): cut at %v / %v", k, x, l.P3, r.P0)
-		}
+		assert.False(t, l.P3.X != x || r.P0.X != x || !same(l.P3, r.P0), "segment %d SplitAtX(%v): cut at %v / %v", k, x, l.P3, r.P0)
 		if y, _ := runs[0].YAt(x); math.Abs(l.P3.Y-y) > 1e-10 {
 			t.Errorf("segment %d SplitAtX(%v): cut y %v, curve y %v", k, x, l.P3.Y, y)
 		}
 		// x stays linear in t on both parts, so they can be cut again.
 		for _, part := range []curve.Bezier{l, r} {
 			h := part.P3.X - part.P0.X
-			if math.Abs(part.P1.X-(part.P0.X+h/3)) > 1e-10 || math.Abs(part.P2.X-(part.P3.X-h/3)) > 1e-10 {
-				t.Errorf("segment %d: part %+v is not linear in x", k, part)
-			}
+			assert.False(t, math.Abs(part.P1.X-(part.P0.X+h/3)) > 1e-10 || math.Abs(part.P2.X-(part.P3.X-h/3)) > 1e-10, "segment %d: part %+v is not linear in x", k, part)
 		}
 		// Outside the segment: clamped to an end.
 		if l, r := bz.SplitAtX(bz.P0.X - 5); !same(l.P0, bz.P0) || !same(l.P3, bz.P0) || !same(r.P3, bz.P3) {
@@ -281,9 +264,7 @@ func TestErrors(t *testing.T) {
 			if err == nil || !strings.Contains(err.Error(), tt.want) {
 				t.Fatalf("err = %v, want one containing %q", err, tt.want)
 			}
-			if len(got) != 1 || got[0].First != 42 {
-				t.Errorf("dst changed on error: %+v", got)
-			}
+			assert.False(t, len(got) != 1 || got[0].First != 42, "dst changed on error: %+v", got)
 		})
 	}
 
@@ -360,9 +341,7 @@ func TestBuilderReuse(t *testing.T) {
 	for i, s := range series {
 		want, err := curve.Build(s[0], s[1], m, nil)
 		require.NoError(t, err)
-		if !reflect.DeepEqual(all[i], want) {
-			t.Fatalf("series %d: runs changed after later builds", i)
-		}
+		require.Equal(t, want, all[i], "series %d: runs changed after later builds", i)
 	}
 
 	xs, ys := randomSeries(r, 175, true)
@@ -375,9 +354,7 @@ func TestBuilderReuse(t *testing.T) {
 			t.Fatal(err)
 		}
 	})
-	if allocs != 0 {
-		t.Errorf("warm Builder: %v allocations per series, want 0", allocs)
-	}
+	assert.False(t, allocs != 0, "warm Builder: %v allocations per series, want 0", allocs)
 }
 
 // BenchmarkBuild: one op is a page-sized job, 4,000 series of 175 yearly

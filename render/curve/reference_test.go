@@ -5,6 +5,7 @@ import (
 	"math/rand/v2"
 	"testing"
 
+	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
 	"gonum.org/v1/gonum/interp"
 
@@ -54,9 +55,7 @@ func TestSlopesWorked(t *testing.T) {
 		t.Run(tt.name, func(t *testing.T) {
 			got, err := curve.Slopes(tt.xs, tt.ys, nil)
 			require.NoError(t, err)
-			if len(got) != len(tt.want) {
-				t.Fatalf("len = %d, want %d", len(got), len(tt.want))
-			}
+			require.False(t, len(got) != len(tt.want), "len = %d, want %d", len(got), len(tt.want))
 			for i := range got {
 				if math.Abs(got[i]-tt.want[i]) > tt.tol {
 					t.Errorf("d[%d] = %.9g, want %.9g ± %g (%s)", i, got[i], tt.want[i], tt.tol, tt.source)
@@ -94,14 +93,10 @@ func TestYAtWorked(t *testing.T) {
 		for _, tt := range tests {
 			runs, err := curve.Build(tt.xs, tt.ys, m, nil)
 			require.NoError(t, err)
-			if len(runs) != 1 {
-				t.Fatalf("%s: %d runs, want 1", name, len(runs))
-			}
+			require.False(t, len(runs) != 1, "%s: %d runs, want 1", name, len(runs))
 			got, ok := runs[0].YAt(m.X(tt.x))
 			_, sy := m.Scale()
-			if !ok || math.Abs(got-m.Y(tt.want)) > tt.tol*math.Abs(sy) {
-				t.Errorf("%s: y(%v) = %.9g (plot), want %.9g (%s)", name, tt.x, got, m.Y(tt.want), tt.source)
-			}
+			assert.False(t, !ok || math.Abs(got-m.Y(tt.want)) > tt.tol*math.Abs(sy), "%s: y(%v) = %.9g (plot), want %.9g (%s)", name, tt.x, got, m.Y(tt.want), tt.source)
 		}
 	}
 }
@@ -149,18 +144,14 @@ func TestAgainstGonum(t *testing.T) {
 		b.Reset()
 		runs, err := b.Build(xs, ys, m, nil)
 		require.NoError(t, err)
-		if len(runs) != 1 || runs[0].Points() != n {
-			t.Fatalf("trial %d: runs %+v, want one run of %d points", trial, runs, n)
-		}
+		require.False(t, len(runs) != 1 || runs[0].Points() != n, "trial %d: runs %+v, want one run of %d points", trial, runs, n)
 		for k := 0; k+1 < n; k++ {
 			h := xs[k+1] - xs[k]
 			for j := 1; j <= 9; j++ {
 				x := xs[k] + float64(j)*h/10
 				got, ok := runs[0].YAt(m.X(x))
 				want := m.Y(ref.Predict(x))
-				if !ok || math.Abs(got-want) > tol*math.Abs(sy)*max(1, math.Abs(ref.Predict(x))) {
-					t.Fatalf("trial %d: y(%v) = %.17g, gonum %.17g (%s)", trial, x, got, want, srcGonum)
-				}
+				require.False(t, !ok || math.Abs(got-want) > tol*math.Abs(sy)*max(1, math.Abs(ref.Predict(x))), "trial %d: y(%v) = %.17g, gonum %.17g (%s)", trial, x, got, want, srcGonum)
 			}
 		}
 	}
@@ -230,9 +221,7 @@ func TestMonotoneOnMonotoneData(t *testing.T) {
 				continue
 			}
 			a, b := d[k]/delta, d[k+1]/delta
-			if !(a*a+b*b <= 9 || inRegionM(a, b)) {
-				t.Fatalf("trial %d: interval %d: (α, β) = (%v, %v) outside M (%s)", trial, k, a, b, srcFC)
-			}
+			require.True(t, (a*a+b*b <= 9 || inRegionM(a, b)), "trial %d: interval %d: (α, β) = (%v, %v) outside M (%s)", trial, k, a, b, srcFC)
 			// Fritsch–Butland slopes lie in [0, 3] × [0, 3], which puts the
 			// Bézier control points between the end heights.
 			if a < 0 || b < 0 || a > 3+1e-12 || b > 3+1e-12 {
@@ -247,9 +236,7 @@ func TestMonotoneOnMonotoneData(t *testing.T) {
 			prev := bz.P0.Y
 			for j := 1; j <= 64; j++ {
 				y := bz.At(float64(j) / 64).Y
-				if dir*(y-prev) < -1e-12*max(1, math.Abs(y)) {
-					t.Fatalf("trial %d: segment %d turns back at t=%v: %v after %v (%s)", trial, k, float64(j)/64, y, prev, srcFC)
-				}
+				require.False(t, dir*(y-prev) < -1e-12*max(1, math.Abs(y)), "trial %d: segment %d turns back at t=%v: %v after %v (%s)", trial, k, float64(j)/64, y, prev, srcFC)
 				prev = y
 			}
 		}

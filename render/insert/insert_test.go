@@ -92,9 +92,7 @@ func TestSpreadProperties(t *testing.T) {
 			if y < lo-1e-9 || y > hi+1e-9 {
 				t.Fatalf("case %d: %v placed outside [%v, %v]: %v", k, want, lo, hi, got)
 			}
-			if j > 0 && y-got[idx[j-1]] < gap-1e-9 {
-				t.Fatalf("case %d: labels %v closer than %v (or out of order): %v", k, want, gap, got)
-			}
+			require.False(t, j > 0 && y-got[idx[j-1]] < gap-1e-9, "case %d: labels %v closer than %v (or out of order): %v", k, want, gap, got)
 		}
 		cost := func(ys []float64) float64 {
 			s := 0.0
@@ -121,9 +119,7 @@ func TestSpreadProperties(t *testing.T) {
 						ok = false
 					}
 				}
-				if ok && cost(alt) < best-1e-9 {
-					t.Fatalf("case %d: want %v gap %v: %v costs %v, moving gives %v at %v", k, want, gap, got, best, cost(alt), alt)
-				}
+				require.False(t, ok && cost(alt) < best-1e-9, "case %d: want %v gap %v: %v costs %v, moving gives %v at %v", k, want, gap, got, best, cost(alt), alt)
 			}
 		}
 	}
@@ -195,31 +191,19 @@ func testInsertAs(t testing.TB, kind specs.Kind, w, h specs.Length, compare spec
 func TestComparisonLabels(t *testing.T) {
 	g := testInsert(t, specs.Screen, specs.Length(600*0.75), specs.Length(360*0.75))
 	ls := g.Labels()
-	if len(ls) != 4 {
-		t.Fatalf("%d labels, want 4", len(ls))
-	}
+	require.False(t, len(ls) != 4, "%d labels, want 4", len(ls))
 	styles := map[string]bool{}
 	for i, a := range ls {
 		styles[a.Style.Name] = true
-		if a.Y < g.plot.Y0 || a.Y > g.plot.Y1 {
-			t.Errorf("label %q at %v, outside the plot %v–%v", a.Term, a.Y, g.plot.Y0, g.plot.Y1)
-		}
+		assert.False(t, a.Y < g.plot.Y0 || a.Y > g.plot.Y1, "label %q at %v, outside the plot %v–%v", a.Term, a.Y, g.plot.Y0, g.plot.Y1)
 		for _, b := range ls[i+1:] {
-			if math.Abs(a.Y-b.Y) < a.Height-1e-9 {
-				t.Errorf("labels %q and %q overlap: centres %v and %v, line height %v", a.Term, b.Term, a.Y, b.Y, a.Height)
-			}
+			assert.False(t, math.Abs(a.Y-b.Y) < a.Height-1e-9, "labels %q and %q overlap: centres %v and %v, line height %v", a.Term, b.Term, a.Y, b.Y, a.Height)
 		}
 	}
-	if len(styles) != 4 {
-		t.Errorf("line styles %v; want four different", styles)
-	}
-	if g.YMax() != 4 {
-		t.Errorf("shared y-range top %v, want 4 (the largest value of any term, a round number)", g.YMax())
-	}
+	assert.False(t, len(styles) != 4, "line styles %v; want four different", styles)
+	assert.False(t, g.YMax() != 4, "shared y-range top %v, want 4 (the largest value of any term, a round number)", g.YMax())
 	title, desc := g.Describe()
-	if title != "telegraph, telephone, wireless and Maßstab" || !bytes.Contains([]byte(desc), []byte(`"wireless" (dotted line)`)) {
-		t.Errorf("Describe() = %q, %q", title, desc)
-	}
+	assert.False(t, title != "telegraph, telephone, wireless and Maßstab" || !bytes.Contains([]byte(desc), []byte(`"wireless" (dotted line)`)), "Describe() = %q, %q", title, desc)
 }
 
 // TestNiceTicks: steps of 1, 2, 2.5 or 5 × 10^k (common practice for
@@ -231,9 +215,7 @@ func TestNiceTicks(t *testing.T) {
 		n    int
 	}{{1, 1, 5}, {4, 4, 5}, {0.37, 0.4, 5}, {137, 150, 4}, {9.5, 10, 5}} {
 		ticks, top := niceTicks(c.peak, 4)
-		if math.Abs(top-c.top) > 1e-9 || len(ticks) != c.n {
-			t.Errorf("niceTicks(%v) = %v, top %v; want top %v and %d ticks", c.peak, ticks, top, c.top, c.n)
-		}
+		assert.False(t, math.Abs(top-c.top) > 1e-9 || len(ticks) != c.n, "niceTicks(%v) = %v, top %v; want top %v and %d ticks", c.peak, ticks, top, c.top, c.n)
 	}
 }
 

@@ -39,9 +39,7 @@ func debianFile(t testing.TB, path, pkg string) []byte {
 	t.Helper()
 	b, err := os.ReadFile(path)
 	if err != nil {
-		if os.Getenv(tooltest.EnvRequire) == "1" {
-			t.Fatalf("%s not found; install Debian package %s (required because %s=1)", path, pkg, tooltest.EnvRequire)
-		}
+		require.False(t, os.Getenv(tooltest.EnvRequire) == "1", "%s not found; install Debian package %s (required because %s=1)", path, pkg, tooltest.EnvRequire)
 		t.Skipf("%s not found; install Debian package %s", path, pkg)
 	}
 	return b

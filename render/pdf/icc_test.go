@@ -12,6 +12,7 @@ import (
 	"strings"
 	"testing"
 
+	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
 
 	"sheaf/render/tooltest"
@@ -70,9 +71,7 @@ func TestICCProfileWithLittleCMS(t *testing.T) {
 	tooltest.Require(t, "transicc", "liblcms2-utils")
 	path := writeTemp(t, "sheaf-srgb.icc", SRGBProfile())
 	refs := loadLabRefs(t)
-	if len(refs) < 8 {
-		t.Fatalf("only %d reference rows", len(refs))
-	}
+	require.False(t, len(refs) < 8, "only %d reference rows", len(refs))
 	var in bytes.Buffer
 	for _, r := range refs {
 		var c [3]uint64
@@ -93,9 +92,7 @@ func TestICCProfileWithLittleCMS(t *testing.T) {
 	// transicc prints its banner on stderr and may leave the last line
 	// without a newline; take every run of three numbers in order.
 	fields := strings.Fields(out.String())
-	if len(fields) != 3*len(refs) {
-		t.Fatalf("transicc gave %d numbers for %d colours:\n%s", len(fields), len(refs), out.String())
-	}
+	require.False(t, len(fields) != 3*len(refs), "transicc gave %d numbers for %d colours:\n%s", len(fields), len(refs), out.String())
 	for i, r := range refs {
 		tol := r.tol
 		if r.source == "neutral" {
@@ -115,9 +112,7 @@ func TestICCProfileWithLittleCMS(t *testing.T) {
 // defines, and that the profile is the same bytes every time.
 func TestICCProfileStructure(t *testing.T) {
 	p := SRGBProfile()
-	if !bytes.Equal(p, SRGBProfile()) {
-		t.Fatal("profile bytes differ between calls")
-	}
+	require.True(t, bytes.Equal(p, SRGBProfile()), "profile bytes differ between calls")
 	be := binary.BigEndian
 	checks := []struct {
 		what string
@@ -132,9 +127,7 @@ func TestICCProfileStructure(t *testing.T) {
 		{"length multiple of 4 (§7.1.2)", len(p)%4 == 0},
 	}
 	for _, c := range checks {
-		if !c.ok {
-			t.Errorf("ICC header: %s", c.what)
-		}
+		assert.True(t, c.ok, "ICC header: %s", c.what)
 	}
 	q := append([]byte(nil), p...)
 	clear(q[44:48])

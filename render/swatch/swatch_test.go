@@ -11,6 +11,7 @@ import (
 	"strings"
 	"testing"
 
+	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
 	"github.com/tdewolff/canvas"
 
@@ -108,9 +109,7 @@ func TestDeterministic(t *testing.T) {
 	s, r := sheet(t, nil, "#ffffff", 0.5)
 	_, a := render(t, s, r, 72)
 	_, b := render(t, s, r, 72)
-	if !bytes.Equal(a, b) {
-		t.Error("two renders differ")
-	}
+	assert.True(t, bytes.Equal(a, b), "two renders differ")
 }
 
 // The sample curves are stroked at the report's line width: at 600 dpi
@@ -139,9 +138,7 @@ func TestCurveLineWidth(t *testing.T) {
 		t.Logf("%v pt: %d px solid, nominal %.1f", width, best, want)
 		// Solid core of an anti-aliased, slightly sloped stroke: within 2 px
 		// below and 15% above the nominal width.
-		if float64(best) < want-2 || float64(best) > want*1.15+0.5 {
-			t.Errorf("%v pt line: %d px of solid ink, want about %.1f", width, best, want)
-		}
+		assert.False(t, float64(best) < want-2 || float64(best) > want*1.15+0.5, "%v pt line: %d px of solid ink, want about %.1f", width, best, want)
 	}
 }
 

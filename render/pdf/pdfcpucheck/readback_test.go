@@ -14,6 +14,7 @@ import (
 	"github.com/pdfcpu/pdfcpu/pkg/api"
 	"github.com/pdfcpu/pdfcpu/pkg/pdfcpu/model"
 	"github.com/pdfcpu/pdfcpu/pkg/pdfcpu/types"
+	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
 	"github.com/tdewolff/canvas"
 	"golang.org/x/image/font/gofont/gobold"
@@ -103,9 +104,7 @@ func readStrict(t *testing.T, b []byte) *model.Context {
 func dict(t *testing.T, ctx *model.Context, o types.Object) types.Dict {
 	t.Helper()
 	d, err := ctx.DereferenceDict(o)
-	if err != nil || d == nil {
-		t.Fatalf("dereference %v: %v", o, err)
-	}
+	require.False(t, err != nil || d == nil, "dereference %v: %v", o, err)
 	return d
 }
 
@@ -125,9 +124,7 @@ func readBack(t *testing.T, cond *press.Condition) {
 	doc := documentFor(t, pages, cond)
 	ctx := readStrict(t, doc)
 
-	if ctx.PageCount != pages {
-		t.Errorf("page count %d, want %d", ctx.PageCount, pages)
-	}
+	assert.False(t, ctx.PageCount != pages, "page count %d, want %d", ctx.PageCount, pages)
 	want := boxes()
 	pbs, err := ctx.PageBoundaries(nil)
 	require.NoError(t, err)
@@ -155,9 +152,7 @@ func readBack(t *testing.T, cond *press.Condition) {
 		// every font embedded (PDF/X-4, print-facts.md)
 		res := dict(t, ctx, d["Resources"])
 		fonts := dict(t, ctx, res["Font"])
-		if len(fonts) < 2 {
-			t.Errorf("page %d has %d fonts, want the two test fonts", i+1, len(fonts))
-		}
+		assert.False(t, len(fonts) < 2, "page %d has %d fonts, want the two test fonts", i+1, len(fonts))
 		for name, f := range fonts {
 			fd := dict(t, ctx, f)
 			if st := fd.NameEntry("Subtype"); st == nil || *st != "Type0" {
@@ -167,9 +162,7 @@ func readBack(t *testing.T, cond *press.Condition) {
 				t.Errorf("font %s has no ToUnicode", name)
 			}
 			arr, err := ctx.DereferenceArray(fd["DescendantFonts"])
-			if err != nil || len(arr) != 1 {
-				t.Fatalf("font %s descendants: %v", name, err)
-			}
+			require.False(t, err != nil || len(arr) != 1, "font %s descendants: %v", name, err)
 			cid := dict(t, ctx, arr[0])
 			if st := cid.NameEntry("Subtype"); st == nil || *st != "CIDFontType2" {
 				t.Errorf("font %s descendant %v, want CIDFontType2", name, st)
@@ -190,9 +183,7 @@ func readBack(t *testing.T, cond *press.Condition) {
 		}
 	} else {
 		ois, err := ctx.DereferenceArray(root["OutputIntents"])
-		if err != nil || len(ois) != 1 {
-			t.Fatalf("OutputIntents %v (%v); PDF/X-4 wants exactly one", ois, err)
-		}
+		require.False(t, err != nil || len(ois) != 1, "OutputIntents %v (%v); PDF/X-4 wants exactly one", ois, err)
 		oi := dict(t, ctx, ois[0])
 		if s := oi.NameEntry("S"); s == nil || *s != "GTS_PDFX" {
 			t.Errorf("output intent S = %v, want GTS_PDFX", s)
@@ -216,9 +207,7 @@ func readBack(t *testing.T, cond *press.Condition) {
 			t.Errorf("Info has no %s", k)
 		}
 	}
-	if len(ctx.ID) != 2 {
-		t.Errorf("trailer /ID = %v, want two strings (required by PDF/X)", ctx.ID)
-	}
+	assert.False(t, len(ctx.ID) != 2, "trailer /ID = %v, want two strings (required by PDF/X)", ctx.ID)
 }
 
 // TestCachedPageValidates: a page that went through encoding/gob and
