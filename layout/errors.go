@@ -108,6 +108,18 @@ func (u units) step() float64 { // one display step, in points
 }
 
 func (u units) len(pt float64) string {
+	// A length from an absurd value (aspect: 1e-300) is written short:
+	// three significant digits and an exponent, not 300 digits.
+	if v := pt * 25.4 / 72; math.Abs(v) >= 1e9 || math.IsInf(v, 0) {
+		if u.screen {
+			v = pt / 0.75
+		}
+		unit := " mm"
+		if u.screen {
+			unit = " px"
+		}
+		return strconv.FormatFloat(v, 'e', 2, 64) + unit
+	}
 	if u.screen {
 		return trimNum(pt/0.75, 0) + " px"
 	}

@@ -35,9 +35,14 @@ func Load(path string) (*Spec, error) {
 	if info.IsDir() {
 		return nil, Errors{{Pos: Pos{File: path}, Msg: "is a directory; give the spec's YAML file"}}
 	}
-	data, err := os.ReadFile(path)
+	data, err := ReadRegular(path, MaxSpecSize)
 	if err != nil {
-		return nil, Errors{{Pos: Pos{File: path}, Msg: err.Error()}}
+		msg := err.Error()
+		var pe *fs.PathError
+		if errors.As(err, &pe) {
+			msg = pe.Err.Error() // the position names the path
+		}
+		return nil, Errors{{Pos: Pos{File: path}, Msg: msg}}
 	}
 	return Parse(path, data)
 }
@@ -70,7 +75,7 @@ func Parse(file string, data []byte) (*Spec, error) {
 	if e := checkAliases(file, doc); e != nil {
 		return nil, Errors{e}
 	}
-	d := &decoder{file: file, pos: map[string]Pos{}}
+	d := &decoder{file: file, pos: map[string]Pos{}, plain: !hasAlias(doc)}
 	s := &Spec{File: file, Dir: filepath.Dir(file), positions: d.pos}
 	d.spec(doc, s)
 	if len(d.errs) > 0 {
@@ -146,7 +151,11 @@ func checkAliases(file string, root *yaml.Node) *Error {
 			}
 		}
 		if total > maxNodes && bad == nil {
-			bad = &Error{Pos: Pos{File: file, Line: n.Line, Col: n.Column}, Msg: aliasMsg}
+			msg := aliasMsg
+			if !hasAlias(root) {
+				msg = tooManyMsg
+			}
+			bad = &Error{Pos: Pos{File: file, Line: n.Line, Col: n.Column}, Msg: msg}
 		}
 		size[n] = total
 		return total
@@ -269,6 +278,7 @@ type decoder struct {
 	errs  Errors
 	pos   map[string]Pos
 	nodes int
+	plain bool       // the document has no alias: too many values is its length
 	desc  *describer // not nil: describe the key tables for Schema instead of decoding
 }
 
@@ -289,8 +299,12 @@ func (d *decoder) resolve(n *yaml.Node) *yaml.Node {
 
 func (d *decoder) overBudget(n *yaml.Node) bool {
 	if d.nodes > maxNodes {
-		if len(d.errs) == 0 || d.errs[len(d.errs)-1].Msg != aliasMsg {
-			d.errorf(n, aliasMsg)
+		msg := aliasMsg
+		if d.plain {
+			msg = tooManyMsg
+		}
+		if len(d.errs) == 0 || d.errs[len(d.errs)-1].Msg != msg {
+			d.errorf(n, "%s", msg)
 		}
 		return true
 	}
@@ -298,6 +312,22 @@ func (d *decoder) overBudget(n *yaml.Node) bool {
 }
 
 const aliasMsg = "the spec expands to too many values (YAML aliases that multiply); write it out plainly"
+
+// tooManyMsg is for a spec with no aliases that is simply that long.
+var tooManyMsg = fmt.Sprintf("the spec has more than %d values (keys, list items); sheaf reads specs up to that size: shorten the lists", maxNodes)
+
+// hasAlias reports whether the document under n uses a YAML alias.
+func hasAlias(n *yaml.Node) bool {
+	if n.Kind == yaml.AliasNode {
+		return true
+	}
+	for _, c := range n.Content {
+		if hasAlias(c) {
+			return true
+		}
+	}
+	return false
+}
 
 // field is one key a mapping accepts.
 type field struct {
@@ -608,7 +638,13 @@ func (d *decoder) spec(n *yaml.Node, s *Spec) {
 		}},
 		{"terms", func(n *yaml.Node, path string) {
 			d.mapping(n, path, []field{
-				{"list", d.strings(&s.Terms.List)},
+				{"list", func(n *yaml.Node, path string) {
+					d.strings(&s.Terms.List)(n, path)
+					// An empty list would silently mean "every term".
+					if v := d.resolve(n); v.Kind == yaml.SequenceNode && len(v.Content) == 0 {
+						d.errorf(v, "terms.list is empty; list the terms to show, or leave the key out to choose them by top and min-total")
+					}
+				}},
 				{"top", d.integer(&s.Terms.Top, 1, 1_000_000)},
 				{"min-total", d.number(&s.Terms.MinTotal, 0, 1e15, false)},
 				{"exclude", d.strings(&s.Terms.Exclude)},

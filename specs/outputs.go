@@ -110,6 +110,13 @@ func (d *decoder) output(n *yaml.Node, path, name string) Output {
 				d.errorf(n, "%s: width and height must be greater than zero", path)
 				return
 			}
+			// A screen page is bounded as a PDF page is (print pages are
+			// checked with bleed and slug below): a width of 1e20px would
+			// overflow every integer it meets.
+			if kind == Screen && (sz.W > maxLength || sz.H > maxLength) {
+				d.errorf(n, "%s: %s is larger than a screen page may be (19200 px, 14400 pt)", path, n.Value)
+				return
+			}
 			o.Trim, trimSet = sz, true
 		}},
 		{"bleed", d.length(&o.Bleed, true)},
@@ -272,6 +279,8 @@ func (d *decoder) output(n *yaml.Node, path, name string) Output {
 			d.errorf(at("trim"), "%s: with bleed and slug the page is %.0f × %.0f pt; PDF pages stop at 14400 pt (200 in, ISO 32000-1 Annex C.2)", path, mw.Pt(), mh.Pt())
 		} else if px := max(mw, mh).Pt() * o.Proofs / 72; px > maxProofPixels {
 			d.errorf(at("proofs"), "%s: proofs at %g dpi would be %.0f pixels across; the most is %d — lower proofs", path, o.Proofs, px, maxProofPixels)
+		} else if area := o.Trim.W.Pt() * o.Trim.H.Pt() * (o.Proofs / 72) * (o.Proofs / 72); area > MaxRasterPixels {
+			d.errorf(at("proofs"), "%s: proofs at %g dpi would be %.0f million pixels; the most sheaf draws in one image is %d million — lower proofs", path, o.Proofs, area/1e6, MaxRasterPixels/1_000_000)
 		}
 	}
 	if w := o.Margins.Inside + o.Margins.Outside; w >= o.Trim.W-eps {
@@ -312,15 +321,34 @@ func (d *decoder) level(n *yaml.Node, path string, dst *float64) {
 // maxProofPixels bounds a proof image's side, as render/raster does.
 const maxProofPixels = 40000
 
+// MaxRasterPixels bounds the pixels of any one image sheaf draws (a
+// proof, a screen PNG, an insert's PNG), so that the memory of one
+// graphic is bounded: 4 bytes a pixel, about 400 MB, and the
+// rasterizer's coverage buffer beside it.
+const MaxRasterPixels = 100_000_000
+
+func mmPt(v float64) Length { return Length(v * PtPerMm) }
+
+// InsertsFolder is the folder of the output folder that inserts are
+// written to.
+const InsertsFolder = "inserts"
+
 func (d *decoder) inserts(n *yaml.Node, path string, s *Spec) {
 	n = d.resolve(n)
 	if n.Kind != yaml.MappingNode {
 		d.errorf(n, "inserts must be a mapping of insert names to settings")
 		return
 	}
+	seen := map[string]*yaml.Node{}
 	for i := 0; i+1 < len(n.Content); i += 2 {
 		k, v := n.Content[i], n.Content[i+1]
 		p := joinPath(path, k.Value)
+		if first, dup := seen[k.Value]; dup {
+			// The second would overwrite the first's files.
+			d.errorf(k, "insert %q is given twice (first at line %d)", k.Value, first.Line)
+			continue
+		}
+		seen[k.Value] = k
 		d.pos[p] = d.at(k)
 		if !outputName.MatchString(k.Value) {
 			d.errorf(k, "insert name %q: use letters, digits, - and _ (it names a file)", k.Value)
@@ -340,9 +368,15 @@ func (d *decoder) inserts(n *yaml.Node, path string, s *Spec) {
 		}
 		if size != "" {
 			sz, err := ParseSize(size, false)
-			if err != nil {
+			switch {
+			case err != nil:
 				d.errs.Add(s.Where(p+".size"), "%s.size: %v", p, err)
-			} else {
+			case sz.W > maxLength || sz.H > maxLength:
+				// One limit for both kinds: a PDF page (ISO 32000-1 Annex
+				// C.2); a screen insert is further bounded by its PNG's
+				// pixels (checkInserts).
+				d.errs.Add(s.Where(p+".size"), "%s.size: %s is larger than the largest PDF page (14400 pt, 200 in; ISO 32000-1 Annex C.2)", p, size)
+			default:
 				in.Size = sz
 			}
 		}
@@ -357,7 +391,19 @@ func (d *decoder) inserts(n *yaml.Node, path string, s *Spec) {
 }
 
 func (d *decoder) checkInserts(s *Spec) {
+	// Inserts are written to the folder "inserts" beside the outputs'
+	// folders: an output of that name would share it, and an insert could
+	// overwrite its pages.
+	if o := s.Output(InsertsFolder); o != nil && len(s.Inserts) > 0 {
+		d.errs.Add(s.Where("outputs."+o.Name), "output %q: the spec has inserts, which are written to the folder %q; give the output another name", o.Name, InsertsFolder)
+	}
 	for _, in := range s.Inserts {
+		if o := s.Output(in.Output); o != nil && o.Kind == Screen {
+			// The 2× PNG (192 dpi) is the largest raster of an insert.
+			if px := in.Size.W.Pt() * in.Size.H.Pt() * (192.0 / 72) * (192.0 / 72); px > MaxRasterPixels {
+				d.errs.Add(s.Where("inserts."+in.Name+".size"), "inserts.%s.size: its 2× PNG would be %.0f million pixels; the most sheaf draws in one image is %d million (about %d MiB): make it smaller", in.Name, px/1e6, MaxRasterPixels/1_000_000, MaxRasterPixels*4>>20)
+			}
+		}
 		if in.Output != "" && s.Output(in.Output) == nil {
 			var names []string
 			for _, o := range s.Outputs {

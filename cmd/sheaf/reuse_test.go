@@ -123,18 +123,16 @@ func TestWholeOutputReuse(t *testing.T) {
 	draws := countDraws(t)
 	stderrDrawing(t)
 	_, stderr := buildInto(t, spec, out)
-	if want := "[web insert col insert pair insert other insert outside]"; fmt.Sprint(*draws) != want {
-		t.Errorf("first build drew %v, want %s", *draws, want)
-	}
+	assert.Equal(t, []string{"web", "insert col", "insert pair", "insert other", "insert outside"}, *draws, "the first build draws")
 	// Progress covers the screen output and the inserts (done of total,
 	// the current output).
 	for _, s := range []string{"\rweb: SVG pages 1/1", "\rweb: PNGs 2/2", "\rweb: panel files 60/60", "\rinserts 4/4", "\rprint: PDF pages"} {
 		assert.Contains(t, stderr, s, "progress lacks %q:\n%q", s, stderr)
 	}
 	first := loadManifest(t, out)
-	if o := first.Output("web"); o == nil || len(o.Inputs) != 64 || len(first.Inserts) != 4 {
-		t.Fatalf("manifest: web %+v, inserts %+v", o, first.Inserts)
-	}
+	require.NotNil(t, first.Output("web"), "the web output's entry")
+	require.Len(t, first.Output("web").Inputs, 64, "a SHA-256 in hex")
+	require.Len(t, first.Inserts, 4)
 
 	// Unchanged: nothing drawn, every file as it was, carried by link.
 	*draws = nil
@@ -144,17 +142,19 @@ func TestWholeOutputReuse(t *testing.T) {
 	_, stderr = buildInto(t, spec, out)
 	assert.Equal(t, 0, len(*draws)+len(*encodes), "unchanged rebuild drew %v and encoded %v", *draws, *encodes)
 	sameTree(t, before, snapshot(t, out), func(p string) bool { return p == production.ChangesJSON || p == production.ChangesText })
-	if afterInfo, err := os.Stat(filepath.Join(out, "web", "page-001@2x.png")); err != nil || !os.SameFile(beforeInfo, afterInfo) {
-		t.Errorf("the 2× PNG was written again, not carried over (%v)", err)
-	}
+	afterInfo, err := os.Stat(filepath.Join(out, "web", "page-001@2x.png"))
+	require.NoError(t, err)
+	assert.True(t, os.SameFile(beforeInfo, afterInfo), "the 2× PNG is carried over (the same file), not written again")
 	for _, s := range []string{"nothing changed since the last build", "web: 1 page, reused (inputs unchanged)",
 		"insert col: reused (inputs unchanged)", "insert outside: reused (inputs unchanged)", "\rweb: reusing files"} {
 		assert.Contains(t, stderr, s, "stderr lacks %q:\n%s", s, stderr)
 	}
 	r := loadChanges(t, out)
 	for _, w := range r.Work {
-		if w.ProofsDrawn != 0 || w.Encoded != 0 || w.Kind != "print" && w.Whole != "reused (inputs unchanged)" {
-			t.Errorf("unchanged rebuild work %+v", w)
+		assert.Zero(t, w.ProofsDrawn, "%+v", w)
+		assert.Zero(t, w.Encoded, "%+v", w)
+		if w.Kind != "print" {
+			assert.Equal(t, "reused (inputs unchanged)", w.Whole, "%+v", w)
 		}
 	}
 	assert.Equal(t, 6, len(r.Work), "work has %d entries, want 6 (print, web, four inserts)", len(r.Work))
@@ -164,9 +164,7 @@ func TestWholeOutputReuse(t *testing.T) {
 	nudgeCount(t, spec, t1)
 	*draws, *encodes = nil, nil
 	_, stderr = buildInto(t, spec, out, "--quiet")
-	if want := "[web insert col insert pair]"; fmt.Sprint(*draws) != want {
-		t.Errorf("drew %v, want %s", *draws, want)
-	}
+	assert.Equal(t, []string{"web", "insert col", "insert pair"}, *draws, "drawn again")
 	assert.Equal(t, 1, len(*encodes), "encoded %v, want the one print page", *encodes)
 	m := loadManifest(t, out)
 	var at []string
@@ -182,36 +180,38 @@ func TestWholeOutputReuse(t *testing.T) {
 		"insert col: drawn (inputs changed)", "insert other: reused (inputs unchanged)"} {
 		assert.Contains(t, string(text), s, "changes.txt lacks %q:\n%s", s, text)
 	}
-	if bytes.Contains(text, []byte(" of 0\n")) || bytes.Contains(text, []byte("inserts/other.svg: redrawn")) {
-		t.Errorf("changes.txt:\n%s", text)
-	}
+	assert.NotContains(t, string(text), " of 0\n", "changes.txt")
+	assert.NotContains(t, string(text), "inserts/other.svg: redrawn", "changes.txt")
 	assert.Contains(t, stderr, place, "stderr lacks %q:\n%s", place, stderr)
 	r = loadChanges(t, out)
-	if len(r.Graphics) != 4 || r.Graphics[0].Insert != "col" || len(r.Pages) != 1 || r.Pages[0].File != "print/print.pdf" {
-		t.Errorf("graphics %+v, pages %+v", r.Graphics, r.Pages)
+	if assert.Len(t, r.Graphics, 4) {
+		assert.Equal(t, "col", r.Graphics[0].Insert)
+	}
+	if assert.Len(t, r.Pages, 1) {
+		assert.Equal(t, "print/print.pdf", r.Pages[0].File)
 	}
 	// Files carry their terms: a screen page its page, an insert its
 	// terms, a panel file its term.
-	if f := m.File("web/page-001@2x.png"); f == nil || len(f.Pages) != 1 || len(f.Pages[0].Terms) != 60 {
-		t.Errorf("web 2× PNG entry %+v", f)
+	if f := m.File("web/page-001@2x.png"); assert.NotNil(t, f, "web 2× PNG entry") && assert.Len(t, f.Pages, 1) {
+		assert.Len(t, f.Pages[0].Terms, 60)
 	}
-	if f := m.File("inserts/pair.png"); f == nil || f.Insert != "pair" || fmt.Sprint(f.Terms) != fmt.Sprint([]string{t1, t2}) {
-		t.Errorf("pair PNG entry %+v", f)
+	if f := m.File("inserts/pair.png"); assert.NotNil(t, f, "pair PNG entry") {
+		assert.Equal(t, "pair", f.Insert)
+		assert.Equal(t, []string{t1, t2}, f.Terms)
 	}
-	if f := m.File("web/panels/" + production.Slug(t1) + ".svg"); f == nil || fmt.Sprint(f.Terms) != fmt.Sprint([]string{t1}) {
-		t.Errorf("panel file entry %+v", f)
+	if f := m.File("web/panels/" + production.Slug(t1) + ".svg"); assert.NotNil(t, f, "panel file entry") {
+		assert.Equal(t, []string{t1}, f.Terms)
 	}
 
 	// A term only an insert shows: listed with that insert.
 	nudgeCount(t, spec, u)
 	*draws = nil
 	buildInto(t, spec, out, "--quiet")
-	if want := "[insert outside]"; fmt.Sprint(*draws) != want {
-		t.Errorf("drew %v, want %s", *draws, want)
-	}
+	assert.Equal(t, []string{"insert outside"}, *draws, "drawn again")
 	r = loadChanges(t, out)
-	if len(r.Terms) != 1 || r.Terms[0].Term != u || fmt.Sprint(r.Terms[0].Pages) != "[insert outside]" {
-		t.Errorf("terms %+v, want %q on insert outside", r.Terms, u)
+	if assert.Len(t, r.Terms, 1) {
+		assert.Equal(t, u, r.Terms[0].Term)
+		assert.Equal(t, []string{"insert outside"}, r.Terms[0].Pages)
 	}
 
 	// The same bytes as a clean full build.
@@ -224,18 +224,17 @@ func TestWholeOutputReuse(t *testing.T) {
 	require.NoError(t, os.WriteFile(filepath.Join(out, "web", "page-001.png"), []byte("edited"), 0o644))
 	*draws = nil
 	_, stderr = buildInto(t, spec, out)
-	if want := "[web]"; fmt.Sprint(*draws) != want || !strings.Contains(stderr, "web: 1 page, drawn (a file of the last build is missing or altered)") {
-		t.Errorf("drew %v; stderr:\n%s", *draws, stderr)
-	}
+	assert.Equal(t, []string{"web"}, *draws, "drawn again")
+	assert.Contains(t, stderr, "web: 1 page, drawn (a file of the last build is missing or altered)")
 	sameTree(t, snapshot(t, clean), snapshot(t, out), skip)
 
 	// --full draws everything.
 	*draws = nil
 	buildInto(t, spec, out, "--quiet", "--full")
 	assert.Equal(t, 5, len(*draws), "--full drew %v", *draws)
-	if r := loadChanges(t, out); !r.Nothing() || r.Work[1].Whole != "drawn (--full)" {
-		t.Errorf("--full rebuild report %+v", r)
-	}
+	r = loadChanges(t, out)
+	assert.True(t, r.Nothing(), "a --full rebuild changes no file")
+	assert.Equal(t, "drawn (--full)", r.Work[1].Whole)
 	noStages(t, out)
 }
 
@@ -251,11 +250,10 @@ func TestOutIsFile(t *testing.T) {
 	} {
 		var o, e bytes.Buffer
 		code := run([]string{"build", spec, "--out", c.out, "--quiet"}, &o, &e)
-		if code != exitBadInput || e.String() != c.want || o.Len() != 0 {
-			t.Errorf("--out %s: exit %d, stderr %q, want exit %d and %q", c.out, code, e.String(), exitBadInput, c.want)
-		}
+		assert.Equal(t, exitBadInput, code, "--out %s", c.out)
+		assert.Equal(t, c.want, e.String(), "--out %s", c.out)
+		assert.Zero(t, o.Len(), "--out %s", c.out)
 	}
-	if b, _ := os.ReadFile(file); string(b) != "x" {
-		t.Errorf("the file was touched: %q", b)
-	}
+	b, _ := os.ReadFile(file)
+	assert.Equal(t, "x", string(b), "the file is untouched")
 }

@@ -284,6 +284,8 @@ func embeddingOf(s *font.SFNT) (Embedding, error) {
 		e.Outlines = TrueType
 		if why := locaProblem(s); why != "" {
 			e.Outlined = why
+		} else if err := compositeProblem(s); err != nil {
+			return e, err
 		}
 	case s.Tables["CFF2"] != nil:
 		e.Outlines = CFF2
@@ -304,6 +306,56 @@ func embeddingOf(s *font.SFNT) (Embedding, error) {
 		return e, errors.New("font has neither TrueType nor CFF outlines")
 	}
 	return e, nil
+}
+
+// compositeProblem walks every composite glyph (OpenType glyf table,
+// "Composite glyph description") as the PDF writer does when it closes a
+// subset over the glyphs' components, so a damaged record is refused when
+// the font is loaded (by check too) rather than when a page is written.
+// It assumes locaProblem found nothing.
+func compositeProblem(s *font.SFNT) error {
+	head, loca, glyf := s.Tables["head"], s.Tables["loca"], s.Tables["glyf"]
+	long := binary.BigEndian.Uint16(head[50:]) == 1
+	n := int(s.NumGlyphs())
+	at := func(i int) uint32 {
+		if long {
+			return binary.BigEndian.Uint32(loca[4*i:])
+		}
+		return 2 * uint32(binary.BigEndian.Uint16(loca[2*i:]))
+	}
+	for id := 0; id < n; id++ {
+		g := glyf[at(id):at(id+1)]
+		if len(g) < 10 || int16(binary.BigEndian.Uint16(g)) >= 0 {
+			continue // empty or simple
+		}
+		for p := 10; ; {
+			if p+4 > len(g) {
+				return fmt.Errorf("glyph %d: a truncated composite glyph record (glyf table damaged)", id)
+			}
+			flags := binary.BigEndian.Uint16(g[p:])
+			if comp := int(binary.BigEndian.Uint16(g[p+2:])); comp >= n {
+				return fmt.Errorf("glyph %d: a component refers to glyph %d, beyond the font's %d glyphs (glyf table damaged)", id, comp, n)
+			}
+			p += 4
+			if flags&0x0001 != 0 { // ARG_1_AND_2_ARE_WORDS
+				p += 4
+			} else {
+				p += 2
+			}
+			switch {
+			case flags&0x0008 != 0: // WE_HAVE_A_SCALE
+				p += 2
+			case flags&0x0040 != 0: // WE_HAVE_AN_X_AND_Y_SCALE
+				p += 4
+			case flags&0x0080 != 0: // WE_HAVE_A_TWO_BY_TWO
+				p += 8
+			}
+			if flags&0x0020 == 0 { // MORE_COMPONENTS
+				break
+			}
+		}
+	}
+	return nil
 }
 
 // locaProblem says why a TrueType font's glyph locations (OpenType 'loca'

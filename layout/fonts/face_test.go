@@ -11,6 +11,7 @@ import (
 	"strings"
 	"testing"
 
+	"github.com/go-fonts/dejavu/dejavusanscondensed"
 	"github.com/go-fonts/latin-modern/lmsans10bold"
 	"github.com/go-fonts/latin-modern/lmsans10regular"
 	"github.com/stretchr/testify/assert"
@@ -440,4 +441,77 @@ func TestEmbeddingOf(t *testing.T) {
 	require.NoError(t, err)
 	assert.Equal(t, CFF2, e.Outlines)
 	assert.Contains(t, e.Outlined, "CFF2")
+}
+
+// TestDamagedCompositeGlyphs: a composite glyph record cut short or naming
+// a glyph past the font's count (OpenType glyf table, "Composite glyph
+// description") is refused when the font loads, so `check` refuses what
+// the PDF writer would fail on (issue 20).
+func TestDamagedCompositeGlyphs(t *testing.T) {
+	face, err := parseSFNT(dejavusanscondensed.TTF, 0)
+	require.NoError(t, err)
+	head, loca := face.Tables["head"], face.Tables["loca"]
+	long := binary.BigEndian.Uint16(head[50:]) == 1
+	at := func(i int) uint32 {
+		if long {
+			return binary.BigEndian.Uint32(loca[4*i:])
+		}
+		return 2 * uint32(binary.BigEndian.Uint16(loca[2*i:]))
+	}
+	// The first composite glyph of the default face (an accented letter).
+	comp := -1
+	for id := 0; id < int(face.NumGlyphs()); id++ {
+		g := face.Tables["glyf"][at(id):at(id+1)]
+		if len(g) >= 14 && int16(binary.BigEndian.Uint16(g)) < 0 {
+			comp = id
+			break
+		}
+	}
+	require.GreaterOrEqual(t, comp, 0, "DejaVu Sans Condensed has composite glyphs")
+	start := at(comp)
+	cases := []struct {
+		name  string
+		patch func(glyf []byte)
+		want  string
+	}{
+		{"component past the glyph count", func(g []byte) { binary.BigEndian.PutUint16(g[start+12:], 0xffff) }, "beyond the font's"},
+		{"more components promised than recorded", func(g []byte) {
+			// MORE_COMPONENTS on the last record: the walk runs off the glyph.
+			for p := start + 10; ; {
+				flags := binary.BigEndian.Uint16(g[p:])
+				size := uint32(4 + 2)
+				if flags&1 != 0 {
+					size = 4 + 4
+				}
+				switch {
+				case flags&0x08 != 0:
+					size += 2
+				case flags&0x40 != 0:
+					size += 4
+				case flags&0x80 != 0:
+					size += 8
+				}
+				if flags&0x20 == 0 {
+					binary.BigEndian.PutUint16(g[p:], flags|0x20)
+					return
+				}
+				p += size
+			}
+		}, "truncated composite"},
+	}
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) {
+			bad := *face
+			bad.Tables = map[string][]byte{}
+			for k, v := range face.Tables {
+				bad.Tables[k] = v
+			}
+			glyf := append([]byte(nil), face.Tables["glyf"]...)
+			c.patch(glyf)
+			bad.Tables["glyf"] = glyf
+			_, err := embeddingOf(&bad)
+			require.Error(t, err)
+			assert.Contains(t, err.Error(), c.want)
+		})
+	}
 }

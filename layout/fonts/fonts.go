@@ -10,8 +10,6 @@ package fonts
 import (
 	"errors"
 	"fmt"
-	"io"
-	"os"
 	"strings"
 	"sync"
 
@@ -182,24 +180,11 @@ func embedsWhy(out *specs.Output) string {
 	return "fonts.embed is on"
 }
 
-// maxFontFile bounds the font files read: the largest CJK collections
-// are a few tens of megabytes.
-const maxFontFile = 256 << 20
-
+// readFont reads a font file: a regular file (a FIFO or a device is
+// refused at once, never waited on) of at most specs.MaxFontSize bytes —
+// the largest CJK collections are a few tens of megabytes.
 func readFont(path string) ([]byte, error) {
-	f, err := os.Open(path)
-	if err != nil {
-		return nil, err
-	}
-	defer f.Close()
-	b, err := io.ReadAll(io.LimitReader(f, maxFontFile+1))
-	if err != nil {
-		return nil, err
-	}
-	if len(b) > maxFontFile {
-		return nil, fmt.Errorf("file is larger than %d MB", maxFontFile>>20)
-	}
-	return b, nil
+	return specs.ReadRegular(path, specs.MaxFontSize)
 }
 
 // Default returns a Set of the built-in faces (DejaVu Sans Condensed).

@@ -12,6 +12,7 @@ import (
 	"io"
 	"os"
 	"path/filepath"
+	"slices"
 	"sort"
 	"strings"
 	"sync"
@@ -103,6 +104,9 @@ type Result struct {
 	Findings []preflight.Finding
 	// Changes says what changed since the last build.
 	Changes *ChangeReport
+	// Left is set when the build is in place but what was left of the
+	// previous one could not be removed whole: the build succeeded.
+	Left *LeftError
 }
 
 // Build renders every output of the job (or the one Options.Only names)
@@ -125,11 +129,19 @@ func Build(ctx context.Context, job *feature.Job, opts Options) (*Result, error)
 	if err := checkOutDir(dir); err != nil {
 		return nil, specs.BadInput(err)
 	}
+	// The folder itself, and what could stop the swap or the clean-up
+	// after it, are checked before anything is read or drawn.
+	final, err := resolveOut(dir)
+	if err != nil {
+		return nil, err
+	}
+	if err := checkTree(final); err != nil {
+		return nil, err
+	}
 	spec := job.Spec
-	pre := startPrefetch(dir, spec, !opts.Full)
+	pre := startPrefetch(final, spec, !opts.Full)
 	defer pre.stop() // no reading left running after the build
 	if job.Data == nil {
-		var err error
 		if job, err = feature.LoadData(spec); err != nil {
 			return nil, err
 		}
@@ -162,7 +174,7 @@ func Build(ctx context.Context, job *feature.Job, opts Options) (*Result, error)
 	// otherwise most of a small rebuild's layout time.
 	if !opts.Full {
 		for _, p := range preps {
-			loadWidths(dir, p)
+			loadWidths(final, p)
 		}
 	}
 	// Inserts too: a missing term or a graphic too small is bad input.
@@ -190,13 +202,13 @@ func Build(ctx context.Context, job *feature.Job, opts Options) (*Result, error)
 	if (opts.Strict || spec.Preflight.Strict) && preflight.Stops(findings) {
 		return res, ErrStrict
 	}
-	b := &build{ctx: ctx, j: job, final: dir, date: opts.Date, only: opts.Only, noProofs: opts.NoProofs, full: opts.Full,
+	b := &build{ctx: ctx, j: job, final: final, shown: dir, date: opts.Date, only: opts.Only, noProofs: opts.NoProofs, full: opts.Full,
 		progress: opts.Progress, hooks: opts.Hooks, widths: widths, pre: pre, sums: map[string]fileSum{}, insertPreps: inserts}
 	files, err := b.run(preps)
 	if err != nil {
 		return res, err
 	}
-	res.Files, res.Changes = files, b.changes
+	res.Files, res.Changes, res.Left = files, b.changes, b.left
 	return res, nil
 }
 
@@ -248,7 +260,9 @@ func checkOutDir(dir string) error {
 type build struct {
 	ctx      context.Context
 	j        *feature.Job
-	final    string // DIR
+	final    string // DIR, absolute, a symbolic link followed
+	shown    string // DIR as given, for the paths Build returns
+	left     *LeftError
 	stage    *stage
 	date     time.Time
 	only     string
@@ -393,6 +407,13 @@ func (b *build) run(preps []*feature.Output) (files []string, err error) {
 		b.progress.Warn(fmt.Sprintf("ignoring the previous manifest: %v", err))
 		b.prev = nil
 	}
+	outs := make([]*specs.Output, len(preps))
+	for i, p := range preps {
+		outs[i] = p.Spec
+	}
+	if err := b.checkCollisions(outs); err != nil {
+		return nil, err
+	}
 	b.stage, err = newStage(b.final)
 	if err != nil {
 		return nil, err
@@ -457,6 +478,11 @@ func (b *build) run(preps []*feature.Output) (files []string, err error) {
 	if err != nil {
 		return nil, err
 	}
+	// What is not sheaf's inside its folders, after the manifest: it is
+	// never listed as sheaf's.
+	if err := b.carryInside(); err != nil {
+		return nil, err
+	}
 	// The manifest is written while the change report is made from it.
 	wrote := make(chan error, 1)
 	go func() { wrote <- writeJSONFile(filepath.Join(b.stage.dir, ManifestFile), m) }()
@@ -478,13 +504,18 @@ func (b *build) run(preps []*feature.Output) (files []string, err error) {
 			return nil, err
 		}
 	}
-	if err := b.stage.commit(); err != nil {
+	left, err := b.stage.commit()
+	if err != nil {
 		return nil, err
 	}
 	committed = true
+	if left != nil {
+		b.left = left
+		b.progress.Warn(left.Error())
+	}
 	for i, f := range files {
 		if rel, err := filepath.Rel(b.stage.dir, f); err == nil && !strings.HasPrefix(rel, "..") {
-			files[i] = filepath.Join(b.final, rel)
+			files[i] = filepath.Join(b.shown, rel)
 		}
 	}
 	return files, nil
@@ -719,6 +750,11 @@ func startPrefetch(dir string, s *specs.Spec, pages bool) *prefetch {
 		}
 		for _, d := range []string{s.Data.Counts, s.Data.Totals} {
 			path := s.Resolve(d)
+			// Only a regular file: a FIFO or a device would keep this
+			// reading after the data loader has refused it.
+			if fi, err := os.Stat(path); err != nil || !fi.Mode().IsRegular() {
+				continue
+			}
 			if sum, size, err := sumFile(path); err == nil {
 				p.data[path] = fileSum{sum, size}
 			}
@@ -1034,9 +1070,12 @@ func (b *build) manifest() (*Manifest, error) {
 			} else if !built[output] {
 				if old := b.prev.File(fs[i].Path); old != nil {
 					fs[i].Pages, fs[i].Terms, fs[i].Insert = old.Pages, old.Terms, old.Insert
+				} else {
+					fs[i].Path = "" // carried with an output kept (--only), not sheaf's
 				}
 			}
 		}
+		fs = slices.DeleteFunc(fs, func(f FileEntry) bool { return f.Path == "" })
 		m.Files = append(m.Files, fs...)
 	}
 	sort.Slice(m.Files, func(i, j int) bool { return m.Files[i].Path < m.Files[j].Path })

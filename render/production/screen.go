@@ -308,6 +308,12 @@ func screenPNGTasks(p *feature.Output, odir string) (tasks []pngTask, skipped []
 					p.Spec.Name, i+1, pg.Trim.H()*s.dpi/72, s.dpi, maxRasterPx, s.suffix))
 				continue
 			}
+			// One image's memory is bounded (specs.MaxRasterPixels).
+			if px := pg.Trim.H() * pg.Trim.W() * (s.dpi / 72) * (s.dpi / 72); px > specs.MaxRasterPixels {
+				skipped = append(skipped, fmt.Sprintf("output %q page %d: %.0f million pixels at %g dpi is past the %d million pixel limit of one image; no PNG%s written (the SVG has it all)",
+					p.Spec.Name, i+1, px/1e6, s.dpi, specs.MaxRasterPixels/1_000_000, s.suffix))
+				continue
+			}
 			tasks = append(tasks, pngTask{page: i, dpi: s.dpi,
 				path: filepath.Join(odir, fmt.Sprintf("page-%03d%s.png", i+1, s.suffix))})
 		}

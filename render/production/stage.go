@@ -24,6 +24,7 @@ type stage struct {
 	// foreign, files sheaf did not write (a palette swatch folder, notes).
 	carried map[string]bool
 	foreign map[string]bool
+	mode    fs.FileMode // the final folder's permissions, set at commit
 }
 
 // StageMark is in the name of every stage folder: .DIR.stage-PID-RANDOM.
@@ -48,11 +49,15 @@ func newStage(final string) (*stage, error) {
 	if err != nil {
 		return nil, err
 	}
-	if err := os.Chmod(dir, 0o755); err != nil {
+	mode := fs.FileMode(0o755)
+	if fi, err := os.Stat(abs); err == nil {
+		mode = fi.Mode().Perm() // the folder keeps the mode it had
+	}
+	if err := os.Chmod(dir, mode|0o700); err != nil {
 		os.RemoveAll(dir)
 		return nil, err
 	}
-	return &stage{dir: dir, final: abs, carried: map[string]bool{}, foreign: map[string]bool{}}, nil
+	return &stage{dir: dir, final: abs, mode: mode, carried: map[string]bool{}, foreign: map[string]bool{}}, nil
 }
 
 // removeStaleStages removes .BASE.stage-PID-* folders whose process no
@@ -83,27 +88,49 @@ func (s *stage) abort() { os.RemoveAll(s.dir) }
 
 // commit puts the stage in place of the final folder: an atomic exchange
 // where the system has one, else the old folder is renamed aside first.
-// The old folder is removed afterwards.
-func (s *stage) commit() error {
+// The old folder is removed afterwards. err is set only when the swap
+// failed and the final folder is as it was; left is set when the new
+// build is in place but the previous one could not be removed whole (what
+// checkTree looks for before the build should make that rare).
+func (s *stage) commit() (left *LeftError, err error) {
+	if err := os.Chmod(s.dir, s.mode); err != nil {
+		return nil, err
+	}
 	if _, err := os.Lstat(s.final); errors.Is(err, fs.ErrNotExist) {
-		return os.Rename(s.dir, s.final)
+		return nil, os.Rename(s.dir, s.final)
 	}
-	if err := exchange(s.dir, s.final); err == nil {
-		// s.dir now holds the previous build.
-		return os.RemoveAll(s.dir)
-	}
-	aside := s.dir + "-old"
-	if err := os.Rename(s.final, aside); err != nil {
-		return fmt.Errorf("moving the previous %s aside: %w", s.final, err)
-	}
-	if err := os.Rename(s.dir, s.final); err != nil {
-		// Put the old one back: DIR must never be left missing.
-		if rerr := os.Rename(aside, s.final); rerr != nil {
-			return fmt.Errorf("moving the new build in: %v; the previous build is at %s", err, aside)
+	old := s.dir
+	if err := exchange(s.dir, s.final); err != nil {
+		old = s.dir + "-old"
+		if err := os.Rename(s.final, old); err != nil {
+			return nil, fmt.Errorf("moving the previous %s aside: %w", s.final, err)
 		}
-		return fmt.Errorf("moving the new build in: %w", err)
+		if err := os.Rename(s.dir, s.final); err != nil {
+			// Put the old one back: DIR must never be left missing.
+			if rerr := os.Rename(old, s.final); rerr != nil {
+				return &LeftError{Dir: s.final, Left: old, Err: rerr}, fmt.Errorf("moving the new build in: %v; the previous build is at %s", err, old)
+			}
+			return nil, fmt.Errorf("moving the new build in: %w", err)
+		}
 	}
-	return os.RemoveAll(aside)
+	// old now holds the previous build: the new one is in place.
+	if err := os.RemoveAll(old); err != nil {
+		return &LeftError{Dir: s.final, Left: old, Err: err}, nil
+	}
+	return nil, nil
+}
+
+// LeftError says that a build is in place but the previous build's
+// folder could not be removed after the swap. Build reports it in
+// Result.Left, not as its error: the build succeeded.
+type LeftError struct {
+	Dir  string // the output folder, holding the new build
+	Left string // what is left of the previous build
+	Err  error  // why it could not be removed
+}
+
+func (e *LeftError) Error() string {
+	return fmt.Sprintf("the new build is in place in %s, but the previous build could not be removed whole: %s is left (%v); remove it by hand (the next build also tries)", e.Dir, e.Left, e.Err)
 }
 
 // carry links into the stage what the final folder has and this build
@@ -183,9 +210,12 @@ func (b *build) carryCache() error {
 }
 
 // linkTree recreates the tree at src under dst with hard links (copies
-// where links fail). Symbolic links are recreated as they are.
+// where links fail), folders with their modes. Symbolic links are
+// recreated as they are; named pipes, sockets and devices are hard-linked
+// (the same file, so exactly as they were).
 func linkTree(src, dst string) error {
-	return filepath.WalkDir(src, func(p string, d fs.DirEntry, err error) error {
+	var dirs []string // relative, parents first
+	err := filepath.WalkDir(src, func(p string, d fs.DirEntry, err error) error {
 		if err != nil {
 			return err
 		}
@@ -194,20 +224,62 @@ func linkTree(src, dst string) error {
 			return err
 		}
 		target := filepath.Join(dst, r)
-		switch {
-		case d.IsDir():
-			return os.MkdirAll(target, 0o755)
-		case d.Type()&fs.ModeSymlink != 0:
-			to, err := os.Readlink(p)
-			if err != nil {
-				return err
-			}
-			return os.Symlink(to, target)
-		case d.Type().IsRegular():
-			return linkOrCopy(p, target)
+		if d.IsDir() {
+			dirs = append(dirs, r)
+			return os.MkdirAll(target, 0o700)
 		}
-		return nil // sockets, devices: not ours to carry
+		return linkOne(p, target, d.Type())
 	})
+	if err != nil {
+		return err
+	}
+	// Modes last, deepest first: a read-only folder is filled before it
+	// becomes read-only.
+	for i := len(dirs) - 1; i >= 0; i-- {
+		fi, err := os.Stat(filepath.Join(src, dirs[i]))
+		if err != nil {
+			return err
+		}
+		if err := os.Chmod(filepath.Join(dst, dirs[i]), fi.Mode().Perm()|fi.Mode()&(fs.ModeSticky|fs.ModeSetgid|fs.ModeSetuid)); err != nil {
+			return err
+		}
+	}
+	return nil
+}
+
+// linkOne carries one entry that is not a folder from src to dst.
+func linkOne(src, dst string, t fs.FileMode) error {
+	switch {
+	case t&fs.ModeSymlink != 0:
+		to, err := os.Readlink(src)
+		if err != nil {
+			return err
+		}
+		return os.Symlink(to, dst)
+	case t.IsRegular():
+		return linkOrCopy(src, dst)
+	}
+	if err := os.Link(src, dst); err != nil {
+		return fmt.Errorf("carrying %s (not sheaf's, %s) over: %w", src, kindName(t), err)
+	}
+	return nil
+}
+
+// kindName names a file type for messages.
+func kindName(t fs.FileMode) string {
+	switch {
+	case t&fs.ModeNamedPipe != 0:
+		return "a named pipe"
+	case t&fs.ModeSocket != 0:
+		return "a socket"
+	case t&fs.ModeDevice != 0:
+		return "a device"
+	case t&fs.ModeSymlink != 0:
+		return "a symbolic link"
+	case t.IsDir():
+		return "a folder"
+	}
+	return "a file"
 }
 
 // linkOrCopy makes dst the same file as src: a hard link, or a copy
@@ -222,8 +294,15 @@ func linkOrCopy(src, dst string) error {
 		return err
 	}
 	defer in.Close()
-	return WriteAtomic(dst, func(w io.Writer) error {
+	fi, err := in.Stat()
+	if err != nil {
+		return err
+	}
+	if err := WriteAtomic(dst, func(w io.Writer) error {
 		_, err := io.Copy(w, in)
 		return err
-	})
+	}); err != nil {
+		return err
+	}
+	return os.Chmod(dst, fi.Mode().Perm()) // the copy keeps the mode
 }

@@ -2,6 +2,7 @@ package production
 
 import (
 	"errors"
+	"os"
 	"syscall"
 
 	"golang.org/x/sys/unix"
@@ -18,4 +19,20 @@ func exchange(a, b string) error {
 func processAlive(pid int) bool {
 	err := syscall.Kill(pid, 0)
 	return err == nil || errors.Is(err, syscall.EPERM)
+}
+
+// writable reports whether this process may create and remove entries
+// in the folder at path (write and search permission, as the kernel
+// decides for this user: root passes).
+func writable(path string) bool {
+	return unix.Faccessat(unix.AT_FDCWD, path, unix.W_OK|unix.X_OK, unix.AT_EACCESS) == nil
+}
+
+// device is the file system a file lies on.
+func device(fi os.FileInfo) (uint64, bool) {
+	st, ok := fi.Sys().(*syscall.Stat_t)
+	if !ok {
+		return 0, false
+	}
+	return uint64(st.Dev), true
 }

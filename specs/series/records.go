@@ -4,8 +4,17 @@ import (
 	"bufio"
 	"bytes"
 	"encoding/csv"
+	"errors"
+	"fmt"
 	"io"
+
+	"sheaf/specs"
 )
+
+// errRecordTooLong ends reading a table with a record (a line, or lines
+// of one quoted value) longer than specs.MaxRecordSize: an endless line
+// must not grow memory without bound.
+var errRecordTooLong = fmt.Errorf("the record is longer than %d KiB, the most sheaf reads in one row (a file that is not a table?)", specs.MaxRecordSize>>10)
 
 // records reads a CSV or TSV table record by record with the results of
 // encoding/csv (RFC 4180 as csv.Reader reads it: CRLF taken as LF, blank
@@ -131,10 +140,15 @@ func (r *records) slow(line []byte, err error) ([][]byte, error) {
 		r.csv.ReuseRecord = true
 	}
 	r.feed.pending = line
+	r.feed.taken = 0
+	start := r.fast + r.feed.lines + 1
 	if err == io.EOF {
 		r.feed.err = io.EOF
 	}
 	rec, err := r.csv.Read()
+	if errors.Is(err, errRecordTooLong) {
+		return nil, &csv.ParseError{StartLine: start, Line: start, Column: 1, Err: errRecordTooLong}
+	}
 	if pe, ok := err.(*csv.ParseError); ok {
 		e := *pe
 		e.StartLine += r.fast
@@ -181,9 +195,13 @@ type feeder struct {
 	pending []byte // bytes of br's buffer not yet handed on
 	err     error  // to return once pending is empty
 	lines   int    // line ends handed on
+	taken   int    // bytes handed on for the record being read
 }
 
 func (f *feeder) Read(p []byte) (int, error) {
+	if f.taken > specs.MaxRecordSize {
+		return 0, errRecordTooLong
+	}
 	if len(f.pending) == 0 {
 		if f.err != nil {
 			err := f.err
@@ -201,6 +219,7 @@ func (f *feeder) Read(p []byte) (int, error) {
 	}
 	n := copy(p, f.pending)
 	f.pending = f.pending[n:]
+	f.taken += n
 	if n > 0 && p[n-1] == '\n' {
 		f.lines++
 	}

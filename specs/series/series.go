@@ -105,7 +105,7 @@ func Load(s *specs.Spec) (*Set, error) {
 		}
 	}
 	if len(selected) == 0 {
-		errs.Add(s.Where("terms"), "no terms are selected: the data has %d terms and none pass the spec's selection", len(order))
+		errs.Add(whereSelection(s), "no terms are selected: the data has %d terms and none pass the spec's selection", len(order))
 		return nil, errs
 	}
 	if n := len(selected); n > MaxSimilar && (s.Order == specs.OrderSimilarity || s.Group == specs.GroupSimilarity) {
@@ -187,27 +187,32 @@ func (r *reader) normKey(term string) string {
 
 // table opens a CSV or TSV file (by extension) and maps its header.
 type table struct {
-	name  string // resolved path, for positions in messages
-	f     *os.File
-	csv   *records
-	cols  map[string]int
-	width int
+	name   string // resolved path, for positions in messages
+	f      *os.File
+	csv    *records
+	cols   map[string]int
+	width  int
+	fields int // in the header: a row may have no more
 }
 
 func openTable(s *specs.Spec, key, name string, want []string, errs *specs.Errors) *table {
 	path := s.Resolve(name)
-	f, err := os.Open(path)
-	if err != nil {
-		what := err.Error()
-		if errors.Is(err, fs.ErrNotExist) {
-			what = "does not exist"
-		}
-		errs.Add(s.Where("data."+key), "data.%s: %q (resolved to %s) %s", key, name, path, what)
+	if st, err := os.Stat(path); err == nil && st.IsDir() {
+		errs.Add(s.Where("data."+key), "data.%s: %q (resolved to %s) is a directory, not a table", key, name, path)
 		return nil
 	}
-	if st, err := f.Stat(); err == nil && st.IsDir() {
-		f.Close()
-		errs.Add(s.Where("data."+key), "data.%s: %q (resolved to %s) is a directory, not a table", key, name, path)
+	// Only a regular file: a FIFO or a device would block or never end.
+	f, err := specs.OpenRegular(path)
+	if err != nil {
+		what := err.Error()
+		var pe *fs.PathError
+		switch {
+		case errors.Is(err, fs.ErrNotExist):
+			what = "does not exist"
+		case errors.As(err, &pe):
+			what = pe.Err.Error()
+		}
+		errs.Add(s.Where("data."+key), "data.%s: %q (resolved to %s) %s", key, name, path, what)
 		return nil
 	}
 	br := bufio.NewReaderSize(f, 1<<16)
@@ -255,6 +260,7 @@ func openTable(s *specs.Spec, key, name string, want []string, errs *specs.Error
 		}
 		t.cols[col] = i
 	}
+	t.fields = len(head)
 	var missing []string
 	for _, w := range want {
 		if _, ok := t.cols[w]; !ok {
@@ -310,7 +316,9 @@ func (t *table) next(errs *specs.Errors) ([][]byte, int, bool) {
 			return nil, 0, false
 		}
 		if err != nil {
-			if !errs.Add(csvPos(t.name, err), "%s", csvMsg(err)) {
+			if !errs.Add(csvPos(t.name, err), "%s", csvMsg(err)) || errors.Is(err, errRecordTooLong) {
+				// After a record too long, where the next one starts is
+				// not known: stop reading.
 				return nil, 0, false
 			}
 			continue
@@ -321,6 +329,14 @@ func (t *table) next(errs *specs.Errors) ([][]byte, int, bool) {
 		}
 		if len(rec) < t.width {
 			if !errs.Add(specs.Pos{File: t.name, Line: line, Col: 1}, "the row has %d fields; the header asks for at least %d", len(rec), t.width) {
+				return nil, 0, false
+			}
+			continue
+		}
+		if len(rec) > t.fields {
+			// A field too many is a misplaced separator (a count of
+			// "1,250"): reading the row by its first fields would be wrong.
+			if !errs.Add(t.at(t.fields), "the row has %d fields; the header has %d (a separator inside a value? quote the value)", len(rec), t.fields) {
 				return nil, 0, false
 			}
 			continue
@@ -421,7 +437,7 @@ func readTotals(s *specs.Spec, errs *specs.Errors) (map[int]float64, bool) {
 		}
 	}
 	if len(*errs) == 0 && len(totals) == 0 {
-		errs.Add(specs.Pos{File: t.name}, "no totals fall inside the span %d–%d", s.Years.From, s.Years.To)
+		errs.Add(s.Where("years"), "no totals in %s fall inside the span %d–%d", t.name, s.Years.From, s.Years.To)
 	}
 	return totals, len(*errs) == 0
 }
@@ -470,11 +486,13 @@ func (r *reader) pass1() (map[string]*agg, []string) {
 		}
 		// A term is checked once a run: the row before's term (the key
 		// cache's) was valid.
-		if (string(term) != r.lastRaw || r.lastKey == "") && !utf8.Valid(term) {
-			if !r.errs.Add(t.at(tc), "the term %q is not valid UTF-8 text; save the table as UTF-8", term) {
-				break
+		if string(term) != r.lastRaw || r.lastKey == "" {
+			if msg := checkTerm(term); msg != "" {
+				if !r.errs.Add(t.at(tc), "%s", msg) {
+					break
+				}
+				continue
 			}
-			continue
 		}
 		field := yc // the field a problem is in
 		y, msg := parseYear(rec[yc])
@@ -725,4 +743,40 @@ func (r *reader) pass2(aggs map[string]*agg, selected []string) {
 			*c += v
 		}
 	}
+}
+
+// checkTerm says what is wrong with a term as read from the counts table,
+// or "": it must be UTF-8 text of at most specs.MaxTermSize bytes with no
+// control character or byte order mark, which would make a term that
+// looks like another one, or none.
+func checkTerm(term []byte) string {
+	if len(term) > specs.MaxTermSize {
+		return fmt.Sprintf("the term %.40q… is %d bytes long; a term is at most %d bytes", term, len(term), specs.MaxTermSize)
+	}
+	if !utf8.Valid(term) {
+		return fmt.Sprintf("the term %q is not valid UTF-8 text; save the table as UTF-8", term)
+	}
+	for i, c := range string(term) {
+		switch {
+		case c == 0:
+			return fmt.Sprintf("the term %q has a NUL byte at byte %d", term, i+1)
+		case c == '\ufeff':
+			return fmt.Sprintf("the term %q has a byte order mark (U+FEFF) at byte %d; remove it", term, i+1)
+		case c < 0x20 || c == 0x7f || c >= 0x80 && c < 0xa0:
+			return fmt.Sprintf("the term %q has the control character U+%04X at byte %d", term, c, i+1)
+		}
+	}
+	return ""
+}
+
+// whereSelection is the spec line that decides which terms are shown:
+// terms (or a key under it), else data.counts, whose every term is a
+// candidate when the spec has no terms key.
+func whereSelection(s *specs.Spec) specs.Pos {
+	for _, k := range []string{"terms", "data.counts"} {
+		if p := s.Where(k); p.Line > 0 {
+			return p
+		}
+	}
+	return specs.Pos{File: s.File}
 }

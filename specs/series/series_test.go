@@ -335,7 +335,22 @@ func TestDataErrors(t *testing.T) {
 		{"total duplicate", "counts.csv", hdr, "year,total\n1900,5\n1900,6\n", "", "totals.csv:3:1", "year 1900 is given twice (first on line 2)"},
 		{"total zero", "counts.csv", hdr, "year,total\n1900,0\n", "", "totals.csv:2:6", "total for 1900 is 0"},
 		{"total negative", "counts.csv", hdr, "year,total\n1900,-1\n", "", "totals.csv:2:6", "total for 1900: -1 is negative"},
-		{"totals outside span", "counts.csv", hdr, "year,total\n1800,5\n", "", "totals.csv", "no totals fall inside the span 1900–1905"},
+		{"totals outside span", "counts.csv", hdr, "year,total\n1800,5\n", "", "spec.yaml:5:1", "no totals in "},
+		// Issue 20 (this project's own rules): a row with more fields than
+		// the header, a NUL, a byte order mark (U+FEFF, Unicode §23.8) or
+		// a control character inside a term, a term or a record too long,
+		// and nothing selected by a spec without terms are errors at
+		// their place.
+		{"extra field", "counts.csv", hdr + "steam,1900,1,250\n", "", "", "counts.csv:2:14", "the row has 4 fields; the header has 3"},
+		{"extra field in totals", "counts.csv", hdr, "year,total\n1900,100,000\n", "", "totals.csv:2:10", "the row has 3 fields; the header has 2"},
+		{"NUL in term", "counts.csv", hdr + "ste\x00am,1900,1\n", "", "", "counts.csv:2:1", "has a NUL byte at byte 4"},
+		{"BOM in term", "counts.csv", hdr + "\ufeffsteam,1900,1\nboiler,1900,1\n", "", "", "counts.csv:2:1", "has a byte order mark (U+FEFF) at byte 1"},
+		{"BOM inside a term after a good run", "counts.csv", hdr + "steam,1900,1\nst\ufeffeam,1901,1\n", "", "", "counts.csv:3:1", "has a byte order mark (U+FEFF) at byte 3"},
+		{"control character in term", "counts.csv", hdr + "\"ste\ram\",1900,1\n", "", "", "counts.csv:2:1", "has the control character U+000D at byte 4"},
+		{"term too long", "counts.csv", hdr + strings.Repeat("w", 257) + ",1900,1\n", "", "", "counts.csv:2:1", "is 257 bytes long; a term is at most 256 bytes"},
+		{"record too long", "counts.csv", hdr + "steam,1900,1\n" + strings.Repeat("w", 70<<10) + ",1900,1\n", "", "", "counts.csv:3:1", "the record is longer than 64 KiB"},
+		{"quoted record too long", "counts.csv", hdr + "\"" + strings.Repeat("w\n", 40<<10) + "\",1900,1\n", "", "", "counts.csv:2:1", "the record is longer than 64 KiB"},
+		{"nothing selected, no terms key", "counts.csv", hdr, "", "", "spec.yaml:3:3", "no terms are selected: the data has 0 terms"},
 		// Counts are decimal (this project's own rule): strconv.ParseFloat's
 		// hexadecimal and underscored forms are refused.
 		{"hexadecimal count", "counts.csv", hdr + "boiler,1900,0x1p3\n", "", "", "counts.csv:2:13", `count for "boiler" in 1900: "0x1p3" is not a number`},

@@ -1,0 +1,80 @@
+package series
+
+import (
+	"bufio"
+	"encoding/csv"
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+
+	"sheaf/specs"
+)
+
+// FuzzRecords: the record reader returns what encoding/csv returns (the
+// reference, see recordCases) for any text: the same records, field
+// positions and errors, through a small buffer so that line ends and
+// quotes fall everywhere. Records over specs.MaxRecordSize are this
+// reader's own error and are left out.
+func FuzzRecords(f *testing.F) {
+	for _, tc := range recordCases {
+		f.Add(tc.text, false)
+		f.Add(tc.text, true)
+	}
+	f.Fuzz(func(t *testing.T, text string, tsv bool) {
+		if len(text) > specs.MaxRecordSize {
+			return
+		}
+		comma := byte(',')
+		if tsv {
+			comma = '\t'
+		}
+		ref := csv.NewReader(strings.NewReader(text))
+		ref.Comma, ref.LazyQuotes, ref.FieldsPerRecord, ref.ReuseRecord = rune(comma), tsv, -1, true
+		want := readAll(ref.Read, ref.FieldPos)
+		r := newRecords(bufio.NewReaderSize(strings.NewReader(text), 16), comma, tsv)
+		got := readAll(func() ([]string, error) {
+			rec, err := r.Read()
+			out := make([]string, len(rec))
+			for i, f := range rec {
+				out[i] = string(f)
+			}
+			return out, err
+		}, r.FieldPos)
+		if got != want {
+			t.Errorf("text %q:\ngot\n%s\nwant (encoding/csv)\n%s", text, got, want)
+		}
+	})
+}
+
+// FuzzLoad: any counts and totals tables load or fail with an error;
+// never a panic or a hang. A loaded set is consistent: one value per year
+// of the span for every series.
+func FuzzLoad(f *testing.F) {
+	f.Add("term,year,count\nboiler,1900,5\nsteam,1901,7\n", "year,total\n1900,100\n1901,200\n", false)
+	f.Add("term,year,count\n\"a,b\",1900,5\n", "year,total\n1900,100\n", true)
+	f.Add("term,year,count\nx,1900,1,2\n", "year,total\n1900,0\n", false)
+	f.Fuzz(func(t *testing.T, counts, totals string, fold bool) {
+		dir := t.TempDir()
+		write(t, filepath.Join(dir, "counts.csv"), counts)
+		write(t, filepath.Join(dir, "totals.csv"), totals)
+		spec := "title: T\ndata: {counts: counts.csv, totals: totals.csv, fold-case: " + map[bool]string{true: "true", false: "false"}[fold] + "}\nyears: {from: 1900, to: 1903}\noutputs: {print: {kind: print}}\n"
+		path := filepath.Join(dir, "spec.yaml")
+		if err := os.WriteFile(path, []byte(spec), 0o644); err != nil {
+			t.Fatal(err)
+		}
+		s, err := specs.Load(path)
+		if err != nil {
+			t.Fatal(err)
+		}
+		set, err := Load(s)
+		if err != nil {
+			return
+		}
+		for _, sr := range set.Series {
+			if len(sr.Values) != 4 {
+				t.Fatalf("series %q has %d values for 4 years", sr.Term, len(sr.Values))
+			}
+		}
+	})
+}
