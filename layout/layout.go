@@ -124,6 +124,7 @@ const (
 	RoleSource  TextRole = "source"
 	RoleNote    TextRole = "note"
 	RoleFolio   TextRole = "folio"
+	RoleGapNote TextRole = "gap-note" // the note on years without data (text.gap-note-on)
 )
 
 // TextLine is one measured line of text, ready to draw: start it at (X,
@@ -142,7 +143,7 @@ type TextLine struct {
 // Heading is a group heading above the first row of a group's block.
 type Heading struct {
 	Group     int     `json:"group"`
-	Text      string  `json:"text"` // ends in " (continued)" when Continued
+	Text      string  `json:"text"` // text.continued filled in when Continued
 	Continued bool    `json:"continued,omitempty"`
 	Box       Rect    `json:"box"`
 	Baseline  float64 `json:"baseline"`

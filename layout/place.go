@@ -156,9 +156,11 @@ func (s *solver) placePage(pg *Page, i int, trimH float64, f pageFill, extra flo
 				fy = s.lines(pg, RoleNote, fonts.Regular, s.notes, nl, fy, false)
 			}
 		}
+		fy = s.lines(pg, RoleGapNote, fonts.Regular, s.notes, s.gapLines, fy, false)
 		if !s.scroll {
 			// The folio sits on the outside edge of the page.
-			s.lines(pg, RoleFolio, fonts.Regular, s.folio, []string{strconv.Itoa(pg.Number)}, fy, !o.Facing || pg.Right)
+			folio := specs.Fill(s.spec.Phrase(specs.PhraseFolio), "page", strconv.Itoa(pg.Number))
+			s.lines(pg, RoleFolio, fonts.Regular, s.folio, []string{folio}, fy, !o.Facing || pg.Right)
 		}
 	}
 	pg.Grid = Rect{x0, gridBottom, x1, gridTop}
@@ -199,7 +201,7 @@ func (s *solver) placePage(pg *Page, i int, trimH float64, f pageFill, extra flo
 			top := gridTop - below()
 			text := groups[b.group].Heading
 			if b.continued {
-				text += " (continued)"
+				text = specs.Fill(s.spec.Phrase(specs.PhraseContinued), "heading", text)
 			}
 			pg.Headings = append(pg.Headings, Heading{
 				Group: b.group, Text: text, Continued: b.continued,

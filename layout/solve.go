@@ -90,6 +90,7 @@ type solver struct {
 
 	titleLines, dekLines, runLines, sourceLines  []string
 	noteLines                                    [][]string
+	gapLines                                     []string // the gap note on every page (text.gap-note-on)
 	headerH1, headerHn, keyH, footerH1, footerHn float64
 	gridH1, gridHn                               float64
 
@@ -210,7 +211,7 @@ func (s *solver) readOutput() error {
 		{"folio", s.folio, !s.scroll},
 		{"title", s.title, s.spec.Title != ""},
 		{"dek", s.dek, s.spec.Dek != ""},
-		{"notes", s.notes, s.spec.Source != "" || len(s.spec.Notes) > 0},
+		{"notes", s.notes, s.spec.Source != "" || len(s.spec.Notes) > 0 || s.spec.GapNoteText() != ""},
 		{"heading", s.heading, true},
 	}
 	for _, n := range need {
@@ -333,8 +334,12 @@ func (s *solver) headFootMargins(deficit float64) Remedy {
 // bands measures the header, running head, key band and footer.
 func (s *solver) bands() error {
 	sp, o := s.spec, s.out
-	wrap := func(st fonts.Style, size float64, text, key string) []string {
-		lines := s.fs.Wrap(st, size, text, s.liveW)
+	wrap := func(st fonts.Style, size float64, text, key string, measure ...float64) []string {
+		width := s.liveW
+		if len(measure) > 0 {
+			width = measure[0]
+		}
+		lines := s.fs.Wrap(st, size, text, width)
 		for _, l := range lines {
 			if s.fs.Width(st, size, l) > s.liveW+eps {
 				s.warn(key, "%q is wider than the live area (%s) and will run past it", l, s.u.len(s.liveW))
@@ -343,7 +348,7 @@ func (s *solver) bands() error {
 		return lines
 	}
 	s.titleLines = wrap(fonts.Bold, s.title, sp.Title, "title")
-	s.dekLines = wrap(fonts.Regular, s.dek, sp.Dek, "dek")
+	s.dekLines = s.wrapDek(wrap)
 	s.headerH1 = float64(len(s.titleLines))*s.title*s.lead + float64(len(s.dekLines))*s.dek*s.lead
 	run := o.Running
 	if run == "" {
@@ -353,6 +358,9 @@ func (s *solver) bands() error {
 	s.headerHn = float64(len(s.runLines)) * s.heading * s.lead
 
 	s.keyH = keyStripFactor*s.key + s.key*s.lead
+	if len(sp.Periods) > 0 {
+		s.keyH += PeriodRow(s.ticks, s.lead) // a row for the labelled periods
+	}
 
 	s.sourceLines = wrap(fonts.Regular, s.notes, sp.Source, "source")
 	nl := len(s.sourceLines)
@@ -362,12 +370,25 @@ func (s *solver) bands() error {
 		s.noteLines = append(s.noteLines, ls)
 		nl += len(ls)
 	}
+	s.gapLines = nil
+	if g := sp.GapNoteText(); g != "" {
+		ls := wrap(fonts.Regular, s.notes, g, "text.gap-note")
+		if sp.Text.GapNoteOn == specs.GapNoteFirstPage {
+			s.noteLines = append(s.noteLines, ls)
+			nl += len(ls)
+		} else {
+			s.gapLines = ls
+		}
+	}
 	folioH := s.folio * s.lead
 	if s.scroll {
 		folioH = 0 // a scrolling page is read alone: no folio
 	}
 	s.footerH1 = float64(nl)*s.notes*s.lead + folioH
 	s.footerHn = folioH
+	gapH := float64(len(s.gapLines)) * s.notes * s.lead
+	s.footerH1 += gapH
+	s.footerHn += gapH
 	if s.perGroup {
 		// A group's page may be shown alone in an article, so it says
 		// where its data comes from; the notes stay with the first page.

@@ -664,6 +664,12 @@ func (d *decoder) spec(n *yaml.Node, s *Spec) {
 		{"palette", func(n *yaml.Node, path string) { d.palette(n, path, &s.Palette) }},
 		{"outputs", func(n *yaml.Node, path string) { outputsSeen = true; d.outputs(n, path, s) }},
 		{"inserts", func(n *yaml.Node, path string) { d.inserts(n, path, s) }},
+		{"language", d.language(&s.Language)},
+		{"text", func(n *yaml.Node, path string) { d.text(n, path, &s.Text) }},
+		{"annotations", func(n *yaml.Node, path string) { d.annotations(n, path, s) }},
+		{"highlights", d.strings(&s.Highlights)},
+		{"periods", func(n *yaml.Node, path string) { d.periods(n, path, s) }},
+		{"period-bands", d.boolean(&s.PeriodBands)},
 		{"preflight", func(n *yaml.Node, path string) {
 			p := &s.Preflight
 			d.mapping(n, path, []field{
@@ -702,6 +708,7 @@ func (d *decoder) spec(n *yaml.Node, s *Spec) {
 		d.errs.Add(s.Where("outputs"), "outputs: give at least one output")
 	}
 	d.checkInserts(s)
+	d.checkEditorial(s)
 	d.checkPress(s)
 	d.palettePaper(&s.Palette)
 	preflightDefaults(&s.Preflight, d.pos)

@@ -50,7 +50,7 @@ func DefaultOutput(name string, k Kind) Output {
 			Notes: 6, Folio: 7, Heading: 8, Leading: 1.25},
 		Line:  0.75,
 		Ticks: TicksBottomRow, PeakDot: true,
-		Marks: true, Proofs: 100,
+		Marks: true, Proofs: 150,
 	}
 }
 

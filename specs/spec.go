@@ -68,6 +68,19 @@ type Spec struct {
 
 	Preflight Preflight
 
+	// The editor's layer (text.go): the language of words and numbers,
+	// every phrase, annotations, highlighted terms, labelled periods.
+	Language    Language
+	Text        Text
+	Annotations []Annotation
+	Highlights  []string
+	Periods     []Period
+	PeriodBands bool // light bands behind every plot for the periods
+
+	// DataGaps are the years of the span the data has no total for, set
+	// when the data is loaded (render/feature), for the gap note.
+	DataGaps []int
+
 	positions map[string]Pos
 }
 

@@ -223,6 +223,14 @@ func TestCurvesPassThroughData(t *testing.T) {
 			if math.IsNaN(v) {
 				continue
 			}
+			// A zero with no non-zero neighbour is not drawn: it lies on
+			// the baseline (README, "Absence").
+			nonzero := func(j int) bool {
+				return j >= 0 && j < len(sr.Values) && !math.IsNaN(sr.Values[j]) && sr.Values[j] != 0
+			}
+			if v == 0 && !nonzero(i-1) && !nonzero(i+1) {
+				continue
+			}
 			// An isolated year between gaps is a dot, not a path point.
 			prevGap := i == 0 || math.IsNaN(sr.Values[i-1])
 			nextGap := i == len(sr.Values)-1 || math.IsNaN(sr.Values[i+1])

@@ -44,6 +44,10 @@ func LoadData(s *specs.Spec) (*Job, error) {
 	if err != nil {
 		return nil, specs.BadInput(err)
 	}
+	s.DataGaps = append([]int(nil), d.Gaps...)
+	if err := checkEditorialTerms(s, d); err != nil {
+		return nil, specs.BadInput(err)
+	}
 	return &Job{Spec: s, Data: d}, nil
 }
 
@@ -120,8 +124,12 @@ func (j *Job) Prepare(out *specs.Output) (*Output, error) {
 	if err != nil {
 		return nil, specs.BadInput(err)
 	}
-	return &Output{Spec: out, Fonts: fs, Plan: plan, Press: cond,
-		Feature: page.NewFeature(j.Spec, out, plan, j.Data, sc, fs)}, nil
+	o := &Output{Spec: out, Fonts: fs, Plan: plan, Press: cond,
+		Feature: page.NewFeature(j.Spec, out, plan, j.Data, sc, fs)}
+	if err := checkNoteRoom(j.Spec, o); err != nil {
+		return nil, specs.BadInput(err)
+	}
+	return o, nil
 }
 
 // PrepareAll prepares every output of the spec, in the spec's order.

@@ -2,6 +2,7 @@ package feature
 
 import (
 	"fmt"
+	"sort"
 
 	"sheaf/render/preflight"
 	"sheaf/specs"
@@ -22,7 +23,10 @@ func (j *Job) Preflight(outs []*Output) ([]preflight.Finding, error) {
 			return nil, specs.BadInput(err)
 		}
 		all = append(all, fs...)
+		all = append(all, noteFindings(j.Spec, o)...)
 	}
+	// Worst first, as preflight.Check orders its own.
+	sort.SliceStable(all, func(a, b int) bool { return all[a].Severity > all[b].Severity })
 	return dedupeData(all), nil
 }
 

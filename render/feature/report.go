@@ -55,14 +55,17 @@ type ScaleReport struct {
 // OutputReport is one output: its size, its plan, the labels that had to
 // be shortened and the palette's verdict.
 type OutputReport struct {
-	Name     string         `json:"name"`
-	Kind     string         `json:"kind"`
-	TrimPt   [2]float64     `json:"trim_pt"`
-	Bleed    float64        `json:"bleed_pt"`
-	Summary  string         `json:"summary"`
-	Pages    int            `json:"pages"`
-	Band     float64        `json:"band,omitempty"` // the uncertainty band's level (0.95); absent: none
-	Labels   []page.Label   `json:"labels_shortened,omitempty"`
+	Name    string       `json:"name"`
+	Kind    string       `json:"kind"`
+	TrimPt  [2]float64   `json:"trim_pt"`
+	Bleed   float64      `json:"bleed_pt"`
+	Summary string       `json:"summary"`
+	Pages   int          `json:"pages"`
+	Band    float64      `json:"band,omitempty"` // the uncertainty band's level (0.95); absent: none
+	Labels  []page.Label `json:"labels_shortened,omitempty"`
+	// Notes is where every annotation landed on every panel showing its
+	// term (placed or not, with why).
+	Notes    []page.Note    `json:"annotations,omitempty"`
 	Warnings []string       `json:"warnings,omitempty"`
 	Palette  PaletteSummary `json:"palette"`
 	// Press is the printing condition of a print output (the PDF is a
@@ -126,6 +129,7 @@ func (j *Job) Summarize() (Report, error) {
 				or.Labels = append(or.Labels, l)
 			}
 		}
+		or.Notes = p.Feature.Notes()
 		for _, w := range p.Plan.Warnings {
 			or.Warnings = append(or.Warnings, w.String())
 		}

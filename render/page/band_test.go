@@ -108,7 +108,7 @@ func TestBandClippedToPlot(t *testing.T) {
 func TestKeyNoteSaysRolling(t *testing.T) {
 	f := rollingFeature(t, 0.95)
 	notes := f.scaleNotes()
-	assert.Equal(t, "3-year rolling share. Each panel runs from 0 to its own peak (per million words; the value stands beside the peak year); tint: 95% interval", notes[0])
+	assert.Equal(t, "3-year rolling share. Each panel runs from 0 to its own peak (per million words), printed beside the peak year; tint: 95% interval", notes[0])
 	assert.Equal(t, "3-year rolling share", notes[len(notes)-1])
 	plain := rollingFeature(t, 0)
 	plain.Data.Rolling = 0

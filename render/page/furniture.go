@@ -21,7 +21,7 @@ func (f *Feature) key(p pen, k layout.KeyBand) {
 		return
 	}
 	size := f.Output.Type.Key.Pt()
-	caption := "Colour shows the year"
+	caption := f.Spec.Phrase(specs.PhraseKeyTitle)
 	capW := f.Fonts.Width(fonts.Bold, size, caption)
 	x0 := strip.X0 + capW + size*0.8
 	x1 := strip.X1
@@ -50,6 +50,7 @@ func (f *Feature) key(p pen, k layout.KeyBand) {
 		p.line(x, strip.Y0, x, strip.Y0-tick, f.Rule(), ruleGrey)
 		p.text(fonts.Figures, tsize, inkSoft, x, base, canvas.Center, strconv.Itoa(y))
 	}
+	f.periodsRow(p, r, ticks, x0, x1)
 	// What the height means, right-aligned in the band beside the strip:
 	// on one line level with the strip, or on two (strip and tick row),
 	// in the longest wording that fits, never over the strip.
@@ -107,10 +108,17 @@ func (f *Feature) noteLines(size, width float64) []string {
 // with a band what the tint is.
 func (f *Feature) scaleNotes() []string {
 	notes := f.heightNotes()
-	roll := f.Data.Note()
+	roll := ""
+	if f.Data.Rolling >= 2 { // the language's "5-year rolling share" (Data.Note's wording in English)
+		id := specs.PhraseRollingShare
+		if f.Spec.Scale.Mode == specs.ScaleRaw {
+			id = specs.PhraseRollingMean
+		}
+		roll = specs.Fill(f.Spec.Phrase(id), "years", strconv.Itoa(f.Data.Rolling))
+	}
 	band := ""
 	if f.Output.Band > 0 {
-		band = "; tint: " + strconv.FormatFloat(f.Output.Band*100, 'f', -1, 64) + "% interval"
+		band = "; " + specs.Fill(f.Spec.Phrase(specs.PhraseBandTint), "level", f.Spec.FormatSignificant(f.Output.Band*100))
 	}
 	if roll == "" && band == "" {
 		return notes
@@ -129,16 +137,23 @@ func (f *Feature) scaleNotes() []string {
 
 func (f *Feature) heightNotes() []string {
 	s := f.Spec.Scale
+	ph := func(id specs.PhraseID) string {
+		return specs.Fill(f.Spec.Phrase(id), "max", f.Spec.FormatSignificant(f.Data.YMax), "unit", f.Data.Unit)
+	}
+	pair := func(full, short specs.PhraseID) []string {
+		if f.Spec.Text.KeyNote != "" { // the spec's own wording, for both
+			return []string{ph(full), ph(full)}
+		}
+		return []string{ph(full), ph(short)}
+	}
 	switch {
 	case s.Mode == specs.ScaleOwnPeak && f.Output.PeakDot:
-		return []string{"Each line rises to its own highest year, marked with a dot", "Each line to its own peak (dot)"}
+		return pair(specs.PhraseNoteOwnPeakDot, specs.PhraseNoteOwnPeakDotShort)
 	case s.Mode == specs.ScaleOwnPeak:
-		return []string{"Each line rises to its own highest year", "Each line to its own peak"}
+		return pair(specs.PhraseNoteOwnPeak, specs.PhraseNoteOwnPeakShort)
 	case s.YRange == specs.YShared:
-		return []string{"Panel height: 0 to " + formatValue(f.Data.YMax) + " " + f.Data.Unit + ", the same on every panel",
-			"0 to " + formatValue(f.Data.YMax) + " " + f.Data.Unit}
+		return pair(specs.PhraseNoteShared, specs.PhraseNoteSharedShort)
 	default:
-		return []string{"Each panel runs from 0 to its own peak (" + f.Data.Unit + "; the value stands beside the peak year)",
-			"0 to each panel's own peak (" + f.Data.Unit + ")"}
+		return pair(specs.PhraseNoteOwn, specs.PhraseNoteOwnShort)
 	}
 }

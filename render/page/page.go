@@ -220,7 +220,7 @@ func (f *Feature) placed(p pen, pg *layout.Page) {
 	for _, t := range pg.Text {
 		col := ink
 		switch t.Role {
-		case layout.RoleSource, layout.RoleNote, layout.RoleRunning:
+		case layout.RoleSource, layout.RoleNote, layout.RoleRunning, layout.RoleGapNote:
 			col = inkSoft
 		}
 		p.text(t.Style, t.Size, col, t.X, t.Baseline, canvas.Left, t.Text)
@@ -274,23 +274,25 @@ func (f *Feature) panel(p pen, b *curve.Builder, pn layout.Panel) error {
 	}
 
 	pr := pn.Plot
-	// Baseline: the zero line, a hairline.
-	p.line(pr.X0, pr.Y0, pr.X1, pr.Y0, f.Rule(), ruleGrey)
-
-	if pn.ShowTicks {
-		f.ticks(p, pn)
-	}
-	// The curve: monotone cubic through every year.
 	lw := out.Line.Pt()
 	m, err := f.PlotMap(pn)
 	if err != nil {
 		return err
 	}
+	f.underPlot(p, pn, m)
+	// Baseline: the zero line, a hairline, broken at gap years.
+	f.baseline(p, pn, m)
+
+	if pn.ShowTicks {
+		f.ticks(p, pn)
+	}
+	// The curve: monotone cubic through every year; runs of zeros lie on
+	// the baseline (plotted).
 	b.Reset()
 	if err := f.band(p, b, pn, m); err != nil {
 		return err
 	}
-	runs, err := b.Build(f.Data.Years, sr.Values, m, nil)
+	runs, err := b.Build(f.Data.Years, f.plotted(sr), m, nil)
 	if err != nil {
 		return fmt.Errorf("panel %q: %w", sr.Term, err)
 	}
@@ -307,7 +309,7 @@ func (f *Feature) panel(p pen, b *curve.Builder, pn layout.Panel) error {
 		}
 	}
 	if !path.Empty() {
-		p.strokeGradient(path, f.gradient(p, pr.X0, pr.X1, pr.Y0), lw)
+		p.strokeGradient(path, f.gradient(p, m.X(f.Data.Years[0]), m.X(f.Data.Years[len(f.Data.Years)-1]), pr.Y0), lw)
 	}
 	for _, d := range dots {
 		p.dot(d.X, d.Y, lw/2, f.colorAt(m, d.X), nil, 0)
@@ -316,6 +318,7 @@ func (f *Feature) panel(p pen, b *curve.Builder, pn layout.Panel) error {
 		pk := m.Apply(float64(sr.PeakYear), sr.Peak)
 		p.dot(pk.X, pk.Y, f.peakRadius(), f.colorAt(m, pk.X), f.PaperColor(), f.Rule())
 	}
+	f.drawNotes(p, pn)
 	return nil
 }
 
@@ -324,8 +327,8 @@ func (f *Feature) peakRadius() float64 { return math.Max(f.Output.Line.Pt()*1.1,
 
 // PlotMap is the map from a panel's data (years, 0 to its y-range top) to
 // its plot rectangle. The rectangle is inset by half the line width, and
-// at the top by the peak dot's radius, so neither stroke nor dot leaves
-// the plot and touches the label above it.
+// at the top and the sides by the peak dot's radius, so neither stroke nor
+// dot leaves the plot and touches the label above it.
 func (f *Feature) PlotMap(pn layout.Panel) (curve.Map, error) {
 	sr := &f.Data.Series[pn.Item]
 	pr := pn.Plot
@@ -334,8 +337,9 @@ func (f *Feature) PlotMap(pn layout.Panel) (curve.Map, error) {
 	if f.Output.PeakDot {
 		top = math.Max(top, f.peakRadius()+f.Rule())
 	}
+	in := f.peakInset()
 	m, err := curve.NewMap(f.Data.Years[0], f.Data.Years[len(f.Data.Years)-1], 0, sr.YMax,
-		pr.X0, pr.X1, pr.Y0+lw/2, pr.Y1-top)
+		pr.X0+in, pr.X1-in, pr.Y0+lw/2, pr.Y1-top)
 	if err != nil {
 		return m, fmt.Errorf("panel %q: %w", sr.Term, err)
 	}
@@ -354,17 +358,58 @@ func (f *Feature) ticks(p pen, pn layout.Panel) {
 	size := f.Output.Type.Ticks.Pt()
 	pr := pn.Plot
 	years := f.tickYears(pr.W(), size)
-	from, to := float64(f.Data.Span.From), float64(f.Data.Span.To)
+	m, err := f.PlotMap(pn)
+	if err != nil {
+		return
+	}
 	tick := size * 0.35
 	base := pn.Ticks.Y1 - tick - f.Fonts.Metrics(fonts.Regular, size).Ascent - size*0.15
 	for _, y := range years {
-		x := pr.X0 + (float64(y)-from)/(to-from)*pr.W()
+		x := m.X(float64(y))
 		p.line(x, pr.Y0, x, pr.Y0-tick, f.Rule(), ruleGrey)
 	}
-	for _, y := range years {
-		x := pr.X0 + (float64(y)-from)/(to-from)*pr.W()
-		p.text(fonts.Figures, size, inkSoft, x, base, canvas.Center, strconv.Itoa(y))
+	for _, l := range f.tickLabels(pn, m) {
+		p.text(fonts.Figures, size, inkSoft, (l.X0+l.X1)/2, base, canvas.Center, l.Text)
 	}
+}
+
+// tickLabel is a year label under a panel, centred on its tick.
+type tickLabel struct {
+	Text   string
+	X0, X1 float64
+}
+
+// tickLabels are the year labels a panel shows: every tick's, less those
+// that would reach past tickLabelRoom, where they could run into the
+// neighbouring panel's.
+func (f *Feature) tickLabels(pn layout.Panel, m curve.Map) []tickLabel {
+	size := f.Output.Type.Ticks.Pt()
+	lo, hi := f.tickLabelRoom(pn.Plot)
+	var out []tickLabel
+	for _, y := range f.tickYears(pn.Plot.W(), size) {
+		x := m.X(float64(y))
+		t := strconv.Itoa(y)
+		w := f.Fonts.Width(fonts.Figures, size, t)
+		if x-w/2 < lo || x+w/2 > hi {
+			continue
+		}
+		out = append(out, tickLabel{t, x - w/2, x + w/2})
+	}
+	return out
+}
+
+// tickLabelRoom is how far a panel's tick labels may reach: into half the
+// gutter on each side less half an em, so labels of neighbouring panels
+// always keep at least an em of clear space between them (common
+// practice: word space or more between separate numbers).
+func (f *Feature) tickLabelRoom(pr layout.Rect) (lo, hi float64) {
+	size := f.Output.Type.Ticks.Pt()
+	g := 0.0
+	if f.Plan != nil {
+		g = f.Plan.Gutter
+	}
+	reach := math.Max(0, g/2-size/2)
+	return pr.X0 - reach, pr.X1 + reach
 }
 
 // Label is how a panel's term is set: at its size beside the peak text,
@@ -398,7 +443,7 @@ func (f *Feature) labelFloor() float64 {
 func (f *Feature) peakText(sr *series.Series) string {
 	peak := strconv.Itoa(sr.PeakYear)
 	if f.Spec.Scale.YRange == specs.YOwn && f.Spec.Scale.Mode != specs.ScaleOwnPeak {
-		peak += " · " + formatValue(sr.Peak)
+		peak += " · " + f.Spec.FormatSignificant(sr.Peak)
 	}
 	return peak
 }
@@ -442,6 +487,7 @@ func (f *Feature) fitLabels() {
 		}
 		f.labels[i] = l
 	}
+	f.evenRows()
 }
 
 // Labels returns how every term's label is set; the ones shrunk or cut
@@ -449,15 +495,4 @@ func (f *Feature) fitLabels() {
 func (f *Feature) Labels() []Label {
 	f.labelsOnce.Do(f.fitLabels)
 	return f.labels
-}
-
-// formatValue prints a value with three significant digits.
-func formatValue(v float64) string {
-	switch {
-	case v >= 100:
-		return strconv.FormatFloat(v, 'f', 0, 64)
-	case v >= 10:
-		return strconv.FormatFloat(v, 'f', 1, 64)
-	}
-	return strconv.FormatFloat(v, 'g', 3, 64)
 }

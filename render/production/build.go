@@ -863,7 +863,11 @@ func (b *build) writeProofs(p *feature.Output, pages []PageEntry, dpi float64, o
 	if err != nil {
 		return nil, err
 	}
-	sheet := contact.Sheet(thumbs, 4)
+	right := make([]bool, len(p.Plan.Pages))
+	for i := range p.Plan.Pages {
+		right[i] = p.Plan.Pages[i].Right
+	}
+	sheet := contact.Spreads(thumbs, right, 2) // facing pages as the reader sees them
 	if err := b.writeHashed(cpath, func(w io.Writer) error { return raster.WritePNGContext(b.ctx, w, sheet) }); err != nil {
 		return nil, err
 	}

@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"math"
 	"slices"
+	"strconv"
 	"strings"
 
 	"sheaf/specs"
@@ -22,11 +23,12 @@ func (set *Set) Note() string {
 	return fmt.Sprintf("%d-year rolling share", set.Rolling)
 }
 
-// Units of the plotted values, for the key and the check summary.
-var units = map[specs.ScaleMode]string{
-	specs.ScaleShare:   "per million words",
-	specs.ScaleOwnPeak: "share of the term's own peak",
-	specs.ScaleRaw:     "occurrences a year",
+// Units of the plotted values, for the key and the check summary: the
+// spec's phrase (text.unit) or its language's.
+var unitPhrases = map[specs.ScaleMode]specs.PhraseID{
+	specs.ScaleShare:   specs.PhraseUnitShare,
+	specs.ScaleOwnPeak: specs.PhraseUnitOwnPeak,
+	specs.ScaleRaw:     specs.PhraseUnitRaw,
 }
 
 // scale turns the raw counts into plotted values; totals are by year of
@@ -35,7 +37,7 @@ var units = map[specs.ScaleMode]string{
 func scale(s *specs.Spec, totals []float64, aggs map[string]*agg, selected []string, set *Set) []Series {
 	span := s.Years.Len()
 	out := make([]Series, len(selected))
-	set.Unit = units[s.Scale.Mode]
+	set.Unit = s.Phrase(unitPhrases[s.Scale.Mode])
 	set.unitFactor = 1e6
 	if s.Scale.Mode == specs.ScaleRaw {
 		set.unitFactor = 1
@@ -130,7 +132,7 @@ func arrange(s *specs.Spec, set *Set) {
 		for j < len(ser) && ser[j].PeakYear/10*10 == dec {
 			j++
 		}
-		set.Groups = append(set.Groups, Group{Heading: fmt.Sprintf("Peak in the %ds", dec), Start: i, Count: j - i})
+		set.Groups = append(set.Groups, Group{Heading: specs.Fill(s.Phrase(specs.PhraseGroupHeading), "decade", strconv.Itoa(dec)), Start: i, Count: j - i})
 		i = j
 	}
 }
