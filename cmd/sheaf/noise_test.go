@@ -26,23 +26,25 @@ type pageDiff struct {
 // page 1 at the proofs' 100 dpi, cropped to the trim box: Ghostscript
 // 10.00.0 (png16m, -dTextAlphaBits=4 -dGraphicsAlphaBits=4) against
 // poppler 22.12.0's pdftoppm, measured by TestRendererNoiseFloor on
-// 2026-12-02. Our proof then measured mean 2.157/255, 1.259 % and worst
-// panel 1.13 % against pdftoppm (about half the floor on each measure).
-// Aligning Ghostscript's raster one pixel down lowers its mean to 3.17:
-// the two place edges by different pixel conventions, which is part of
-// the floor, as it is of our proof's difference.
+// 2026-12-02 (after the page-layout merge of that day; before it, page 1
+// gave 4.007/255, 2.577 %, 2.51 %). Our proof then measured mean
+// 1.946/255, 1.013 % and worst panel 0.01 % against pdftoppm. Aligning
+// Ghostscript's raster one pixel down lowers its mean (4.0 → 3.2 on the
+// earlier page): the two place edges by different pixel conventions,
+// which is part of the floor, as it is of our proof's difference.
 const (
-	gsPopplerMean   = 4.007  // mean |Δ| of 255
-	gsPopplerStrong = 0.0258 // share of pixels off by more than 64 (2.577 %)
-	gsPopplerPanel  = 0.0251 // worst panel's plot: share off by more than 64 ("mill race")
-	// proofNoiseMultiple: our proof may differ from pdftoppm as much as
-	// Ghostscript does, and no more (1×): a renderer no further from
-	// poppler than another correct one. Measured once: with every chart
-	// line filled as a blob (render/raster mutated), the worst panel had
-	// 20.1 % of its pixels off — caught by the panel limit; the page-wide
-	// measures (3.09/255, 2.10 %) stay under theirs, which is why the
-	// panels are checked one by one.
-	proofNoiseMultiple = 1.0
+	gsPopplerMean   = 2.420  // mean |Δ| of 255
+	gsPopplerStrong = 0.0166 // share of pixels off by more than 64 (1.662 %)
+	gsPopplerPanel  = 0.0295 // worst panel's plot: share off by more than 64 ("valve")
+	// proofNoiseMultiple: our proof may differ from pdftoppm by at most
+	// 1.5 × what Ghostscript does: the floor moves with the page's content
+	// (4.0 → 2.4 when page 1 changed), and half again keeps a correct
+	// renderer inside it. Measured once: with every chart line filled as
+	// a blob (render/raster mutated), the worst panel had 19.3 % of its
+	// pixels off — far over 1.5 × 2.95 %; the page-wide measures
+	// (2.77/255, 1.71 %) stay under 1.5 × theirs, which is why the panels
+	// are checked one by one.
+	proofNoiseMultiple = 1.5
 )
 
 // TestRendererNoiseFloor renders page 1 of the demo PDF with two

@@ -264,7 +264,7 @@ func TestCurvesPassThroughData(t *testing.T) {
 // from canvas's rasterizer with our flattening and gradient fixes, so a
 // blob-filled curve or a missing gradient shows up as a large difference.
 // Thresholds: antialiasing, hinting and pixel conventions differ between
-// renderers, so the limits are proofNoiseMultiple (1) × the difference
+// renderers, so the limits are proofNoiseMultiple (1.5) × the difference
 // between two independent renderers, Ghostscript and pdftoppm, on this
 // page (gsPopplerMean, gsPopplerStrong, gsPopplerPanel: noise_test.go,
 // which also checks today's floor).
