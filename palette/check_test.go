@@ -27,21 +27,13 @@ func TestDefaultPassesEveryCheck(t *testing.T) {
 		{1900, 2000, []float64{1900, 1914, 1939, 1945, 1970, 1989, 2000}, 1, Print},
 	} {
 		s, err := NewScale(DefaultName, DefaultAnchors(tc.from, tc.to), tc.eras)
-		if err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, err)
 		r, err := Check(s, white, tc.width, tc.m, DefaultThresholds())
-		if err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, err)
 		for _, f := range r.Findings {
-			if f.Severity == Fail {
-				t.Errorf("%v–%v eras %v: %v", tc.from, tc.to, tc.eras, f)
-			}
+			assert.False(t, f.Severity == Fail, "%v–%v eras %v: %v", tc.from, tc.to, tc.eras, f)
 		}
-		if r.Failed() {
-			t.Errorf("%v–%v: report failed", tc.from, tc.to)
-		}
+		assert.False(t, r.Failed(), "%v–%v: report failed", tc.from, tc.to)
 	}
 }
 
@@ -111,17 +103,13 @@ func TestBadPalettesFail(t *testing.T) {
 	} {
 		t.Run(tc.name, func(t *testing.T) {
 			s, err := NewScale(tc.name, tc.anchors, tc.eras)
-			if err != nil {
-				t.Fatal(err)
-			}
+			require.NoError(t, err)
 			th := th
 			if tc.th != nil {
 				tc.th(&th)
 			}
 			r, err := Check(s, white, 0.75, Print, th)
-			if err != nil {
-				t.Fatal(err)
-			}
+			require.NoError(t, err)
 			var found *Finding
 			for i, f := range r.Findings {
 				if f.Check == tc.check && f.Severity == tc.severity && (tc.label == "" || f.Label == tc.label) {
@@ -135,16 +123,10 @@ func TestBadPalettesFail(t *testing.T) {
 				t.Fatalf("no %v %s finding at %q:\n%s", tc.severity, tc.check, tc.label, buf.String())
 			}
 			for _, w := range tc.want {
-				if !strings.Contains(found.Message, w) {
-					t.Errorf("message %q lacks %q", found.Message, w)
-				}
+				assert.True(t, strings.Contains(found.Message, w), "message %q lacks %q", found.Message, w)
 			}
-			if !strings.ContainsAny(found.Message, "0123456789") {
-				t.Errorf("message %q has no numbers", found.Message)
-			}
-			if tc.severity == Fail && !r.Failed() {
-				t.Error("report not failed")
-			}
+			assert.True(t, strings.ContainsAny(found.Message, "0123456789"), "message %q has no numbers", found.Message)
+			assert.False(t, tc.severity == Fail && !r.Failed(), "report not failed")
 		})
 	}
 }
@@ -157,17 +139,13 @@ func deuteranConfusion(t *testing.T, greys []float64) []Anchor {
 	m := machado[Deuteranopia]
 	r0, r1 := m[0], m[1]
 	n := [3]float64{r0[1]*r1[2] - r0[2]*r1[1], r0[2]*r1[0] - r0[0]*r1[2], r0[0]*r1[1] - r0[1]*r1[0]}
-	if math.Abs(m[2][0]*n[0]+m[2][1]*n[1]+m[2][2]*n[2]) > 1e-3*math.Hypot(n[0], math.Hypot(n[1], n[2])) {
-		t.Fatal("deuteranopia matrix is not of rank 2")
-	}
+	require.False(t, math.Abs(m[2][0]*n[0]+m[2][1]*n[1]+m[2][2]*n[2]) > 1e-3*math.Hypot(n[0], math.Hypot(n[1], n[2])), "deuteranopia matrix is not of rank 2")
 	k := 0.12 / math.Max(math.Abs(n[0]), math.Max(math.Abs(n[1]), math.Abs(n[2])))
 	var out []Anchor
 	for i, g := range greys {
 		sign := float64(1 - 2*(i%2))
 		c := FromRGB(LinearRGB{g + sign*k*n[0], g + sign*k*n[1], g + sign*k*n[2]}.RGB())
-		if !c.InGamut() {
-			t.Fatalf("confusion colour %d outside sRGB", i)
-		}
+		require.True(t, c.InGamut(), "confusion colour %d outside sRGB", i)
 		out = append(out, Anchor{1900 + 20*float64(i), c})
 	}
 	return out
@@ -189,18 +167,14 @@ func TestSizeGuidance(t *testing.T) {
 		{20, Warn}, // 1.16°: inside 1/3°–6°, ND50 L* ≈ 5.7 > 3
 	} {
 		r, err := Check(s, white, tc.width, Print, th)
-		if err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, err)
 		var got []Finding
 		for _, f := range r.Findings {
 			if f.Check == CheckSize {
 				got = append(got, f)
 			}
 		}
-		if len(got) != 1 || got[0].Severity != tc.sev || !strings.Contains(got[0].Message, "does not") {
-			t.Errorf("%v pt: size findings %v, want one %v", tc.width, got, tc.sev)
-		}
+		assert.False(t, len(got) != 1 || got[0].Severity != tc.sev || !strings.Contains(got[0].Message, "does not"), "%v pt: size findings %v, want one %v", tc.width, got, tc.sev)
 	}
 }
 
@@ -240,25 +214,17 @@ func TestWriteTable(t *testing.T) {
 	white := mustHex(t, "#ffffff")
 	s, _ := Default(1868, 2025)
 	r, err := Check(s, white, 0.75, Print, DefaultThresholds())
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	var a, b bytes.Buffer
-	if err := r.WriteTable(&a); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, r.WriteTable(&a))
 	r2, _ := Check(s, white, 0.75, Print, DefaultThresholds())
 	r2.WriteTable(&b)
-	if !bytes.Equal(a.Bytes(), b.Bytes()) {
-		t.Error("table not deterministic")
-	}
+	assert.True(t, bytes.Equal(a.Bytes(), b.Bytes()), "table not deterministic")
 	out := a.String()
 	first, last := s.At(1868).Clip().Hex(), s.At(2025).Clip().Hex()
 	for _, w := range []string{"palette " + DefaultName + ", 1868–2025, paper #ffffff, print, line 0.75 pt", "ΔE00", "contrast", "1868", first, "2025", last,
 		"distinguishable classes at 0.75 pt: 2 (", "the key labels 8 eras", "WARN size", "\nWARN (no check fails, but 1 warning: see above)\n"} {
-		if !strings.Contains(out, w) {
-			t.Errorf("table lacks %q:\n%s", w, out)
-		}
+		assert.True(t, strings.Contains(out, w), "table lacks %q:\n%s", w, out)
 	}
 	if n := len(r.Rows); n != 17 { // 157 years → 16 steps of 9.8 years
 		t.Errorf("%d rows", n)
@@ -295,13 +261,9 @@ func TestSweepFindsColoursBetweenSamples(t *testing.T) {
 	s, err := NewScale("bright insert", []Anchor{
 		{1868, mustHex(t, "#b84ca2")}, {1899, mid}, {1901, mustHex(t, "#ffff00")}, {1903, mid}, {2025, mustHex(t, "#105564")},
 	}, nil)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	r, err := Check(s, white, 0.75, Print, DefaultThresholds())
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	var found *Finding
 	for i, f := range r.Findings {
 		if f.Check == CheckContrast {
@@ -311,13 +273,9 @@ func TestSweepFindsColoursBetweenSamples(t *testing.T) {
 	if found == nil {
 		t.Fatalf("no contrast finding; findings: %v", r.Findings)
 	}
-	if found.Severity != Fail || found.Year != 1901 || !strings.Contains(found.Message, "1.07:1") {
-		t.Errorf("contrast finding %v, want a failure at 1901 naming 1.07:1", found)
-	}
+	assert.False(t, found.Severity != Fail || found.Year != 1901 || !strings.Contains(found.Message, "1.07:1"), "contrast finding %v, want a failure at 1901 naming 1.07:1", found)
 	for _, row := range r.Rows {
-		if row.Year > 1899 && row.Year < 1903 {
-			t.Fatalf("a table row at %v: the test must put the anchor between samples", row.Year)
-		}
+		require.False(t, row.Year > 1899 && row.Year < 1903, "a table row at %v: the test must put the anchor between samples", row.Year)
 	}
 }
 

@@ -6,6 +6,7 @@ import (
 	"testing"
 
 	"github.com/lucasb-eyer/go-colorful"
+	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
 )
 
@@ -15,9 +16,7 @@ import (
 // Res. Appl. 30(1):21–30, 2005, Table 1 (34 pairs, ΔE00 to 4 decimals).
 func TestDeltaE00Sharma2005(t *testing.T) {
 	rows := refRows(t, "ciede2000_sharma2005.csv", ",")
-	if len(rows) != 34 {
-		t.Fatalf("%d pairs, want 34", len(rows))
-	}
+	require.False(t, len(rows) != 34, "%d pairs, want 34", len(rows))
 	for _, r := range rows {
 		x := Lab{num(t, r["L1"]), num(t, r["a1"]), num(t, r["b1"])}
 		y := Lab{num(t, r["L2"]), num(t, r["a2"]), num(t, r["b2"])}
@@ -133,9 +132,7 @@ func TestDeltaE00AgainstGoColorful(t *testing.T) {
 	for _, p := range pairs {
 		counts[branch(p.x, p.y)]++
 		got, want := DeltaE00(p.x, p.y), colorfulDE(p.x, p.y)
-		if math.Abs(got-want) > 1e-4 {
-			t.Errorf("%s pair %v %v: ours %.6f, go-colorful %.6f", p.kind, p.x, p.y, got, want)
-		}
+		assert.InDelta(t, want, got, 1e-4, "%s pair %v %v: ours %.6f, go-colorful %.6f", p.kind, p.x, p.y, got, want)
 		counts[p.kind]++
 	}
 	require.GreaterOrEqual(t, len(pairs), 8000)

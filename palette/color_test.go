@@ -6,6 +6,8 @@ import (
 	"testing"
 
 	"github.com/lucasb-eyer/go-colorful"
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
 )
 
 // Reference: testdata/srgb_reference.csv (IEC 61966-2-1:1999 matrices;
@@ -35,9 +37,7 @@ func TestSRGBMatrixAgainstReference(t *testing.T) {
 		}
 		n++
 	}
-	if n != 27 {
-		t.Fatalf("checked %d matrix entries, want 27", n)
-	}
+	require.False(t, n != 27, "checked %d matrix entries, want 27", n)
 }
 
 func TestXYZInverseMatrix(t *testing.T) {
@@ -75,9 +75,7 @@ func TestXYZAndLabAgainstReference(t *testing.T) {
 			if col == "h" {
 				d = math.Abs(math.Remainder(got-want, 360))
 			}
-			if d > tol {
-				t.Errorf("%s %s: got %.6f want %.6f ±%g", name, what, got, want, tol)
-			}
+			assert.False(t, d > tol, "%s %s: got %.6f want %.6f ±%g", name, what, got, want, tol)
 			n++
 		}
 		switch {
@@ -102,9 +100,7 @@ func TestXYZAndLabAgainstReference(t *testing.T) {
 			check("h", lab.LCh().H, "h")
 		}
 	}
-	if n < 60 {
-		t.Fatalf("only %d values checked", n)
-	}
+	require.False(t, n < 60, "only %d values checked", n)
 }
 
 // Why CIELAB is ours: go-colorful's ASTM white leaves sRGB white with
@@ -113,9 +109,7 @@ func TestXYZAndLabAgainstReference(t *testing.T) {
 // says so and the package doc needs revisiting.
 func TestGoColorfulLabWhiteIsOff(t *testing.T) {
 	_, _, b := colorful.Color{R: 1, G: 1, B: 1}.Lab()
-	if math.Abs(b*100) < 1e-3 {
-		t.Errorf("go-colorful white b* = %g: its Lab now looks usable; reconsider our own", b*100)
-	}
+	assert.False(t, math.Abs(b*100) < 1e-3, "go-colorful white b* = %g: its Lab now looks usable; reconsider our own", b*100)
 	// Our colours pass through OKLab (10-decimal matrices), so 1e-4 as in
 	// the file's neutral rows.
 	if lab := mustHex(t, "#ffffff").Lab(); math.Abs(lab.A) > 1e-4 || math.Abs(lab.B) > 1e-4 {
@@ -129,9 +123,7 @@ func TestRoundTrips(t *testing.T) {
 		if got := c.Hex(); got != hex {
 			t.Errorf("%s → OKLab → %s", hex, got)
 		}
-		if !c.InGamut() {
-			t.Errorf("%s reported out of gamut: %+v", hex, c.RGB())
-		}
+		assert.True(t, c.InGamut(), "%s reported out of gamut: %+v", hex, c.RGB())
 		if got := FromLab(c.Lab()).Hex(); got != hex {
 			t.Errorf("%s → Lab → %s", hex, got)
 		}
@@ -162,13 +154,9 @@ func TestParseHex(t *testing.T) {
 func TestGamutAndClip(t *testing.T) {
 	// OKLCh(0.7, 0.3, 140) is a green far outside sRGB.
 	c := FromOKLCh(OKLCh{0.7, 0.3, 140})
-	if c.InGamut() {
-		t.Fatalf("%+v should be outside sRGB", c.RGB())
-	}
+	require.False(t, c.InGamut(), "%+v should be outside sRGB", c.RGB())
 	k := c.Clip()
-	if !k.InGamut() {
-		t.Errorf("clipped colour %+v still outside", k.RGB())
-	}
+	assert.True(t, k.InGamut(), "clipped colour %+v still outside", k.RGB())
 	if rgb := (RGB{-0.5, 2, math.NaN()}).Clip(); rgb != (RGB{0, 1, 0}) {
 		t.Errorf("Clip = %+v", rgb)
 	}

@@ -3,6 +3,9 @@ package palette
 import (
 	"math"
 	"testing"
+
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
 )
 
 // Reference: testdata/machado2009_cvd_matrices.tsv — G. M. Machado,
@@ -26,17 +29,13 @@ func machadoRef(t *testing.T) map[Deficiency][3][3]float64 {
 		}
 		out[d] = m
 	}
-	if len(out) != 3 {
-		t.Fatalf("found %d severity-1.0 matrices, want 3", len(out))
-	}
+	require.False(t, len(out) != 3, "found %d severity-1.0 matrices, want 3", len(out))
 	return out
 }
 
 func TestMachadoMatrices(t *testing.T) {
 	for d, want := range machadoRef(t) {
-		if machado[d] != want {
-			t.Errorf("%v matrix = %v, Machado et al. (2009) give %v", d, machado[d], want)
-		}
+		assert.False(t, machado[d] != want, "%v matrix = %v, Machado et al. (2009) give %v", d, machado[d], want)
 	}
 }
 

@@ -36,9 +36,7 @@ func TestLabD50AgainstLittleCMS(t *testing.T) {
 	cmd := exec.Command(transicc, "-i", "*sRGB", "-o", "*Lab", "-n")
 	cmd.Stdin = strings.NewReader(in.String())
 	out, err := cmd.Output()
-	if err != nil {
-		t.Fatalf("transicc: %v", err)
-	}
+	require.NoError(t, err, "transicc")
 	var got []Lab
 	for _, line := range strings.Split(string(out), "\n") {
 		var l Lab
@@ -46,9 +44,7 @@ func TestLabD50AgainstLittleCMS(t *testing.T) {
 			got = append(got, l)
 		}
 	}
-	if len(got) != len(colours) {
-		t.Fatalf("transicc gave %d colours for %d:\n%s", len(got), len(colours), out)
-	}
+	require.False(t, len(got) != len(colours), "transicc gave %d colours for %d:\n%s", len(got), len(colours), out)
 	for i, c := range colours {
 		ours := c.LabD50()
 		if d := math.Max(math.Abs(ours.L-got[i].L), math.Max(math.Abs(ours.A-got[i].A), math.Abs(ours.B-got[i].B))); d > 0.03 {
@@ -71,9 +67,7 @@ func requireFile(t *testing.T, path, debianPackage string) {
 		return
 	}
 	msg := path + " not found; install Debian package " + debianPackage
-	if os.Getenv(tooltest.EnvRequire) == "1" {
-		t.Fatalf("%s (required because %s=1)", msg, tooltest.EnvRequire)
-	}
+	require.False(t, os.Getenv(tooltest.EnvRequire) == "1", "%s (required because %s=1)", msg, tooltest.EnvRequire)
 	t.Skip(msg)
 }
 

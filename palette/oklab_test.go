@@ -3,6 +3,9 @@ package palette
 import (
 	"math"
 	"testing"
+
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
 )
 
 // Reference: testdata/oklab_reference.csv — B. Ottosson, "A perceptual
@@ -29,9 +32,7 @@ func TestOKLabMatrices(t *testing.T) {
 		}
 		n++
 	}
-	if n != 36 {
-		t.Fatalf("checked %d entries, want 36", n)
-	}
+	require.False(t, n != 36, "checked %d entries, want 36", n)
 }
 
 func TestOKLabAgainstReference(t *testing.T) {
@@ -57,9 +58,7 @@ func TestOKLabAgainstReference(t *testing.T) {
 		}
 		n++
 	}
-	if n != 12 {
-		t.Fatalf("checked %d colours, want 12", n)
-	}
+	require.False(t, n != 12, "checked %d colours, want 12", n)
 }
 
 func TestOKLChPolar(t *testing.T) {
@@ -74,12 +73,8 @@ func TestOKLChPolar(t *testing.T) {
 		{OKLab{0.5, 0, -0.1}, OKLCh{0.5, 0.1, 270}},
 	} {
 		got := tc.lab.OKLCh()
-		if math.Abs(got.C-tc.lch.C) > 1e-12 || math.Abs(got.H-tc.lch.H) > 1e-9 {
-			t.Errorf("%+v → %+v, want %+v", tc.lab, got, tc.lch)
-		}
+		assert.False(t, math.Abs(got.C-tc.lch.C) > 1e-12 || math.Abs(got.H-tc.lch.H) > 1e-9, "%+v → %+v, want %+v", tc.lab, got, tc.lch)
 		back := got.OKLab()
-		if math.Abs(back.A-tc.lab.A) > 1e-12 || math.Abs(back.B-tc.lab.B) > 1e-12 {
-			t.Errorf("%+v → %+v → %+v", tc.lab, got, back)
-		}
+		assert.False(t, math.Abs(back.A-tc.lab.A) > 1e-12 || math.Abs(back.B-tc.lab.B) > 1e-12, "%+v → %+v → %+v", tc.lab, got, back)
 	}
 }

@@ -6,6 +6,8 @@ import (
 	"strconv"
 	"strings"
 	"testing"
+
+	"github.com/stretchr/testify/require"
 )
 
 // refRows reads a reference file from testdata: lines starting with # are
@@ -13,9 +15,7 @@ import (
 func refRows(t *testing.T, name string, sep string) []map[string]string {
 	t.Helper()
 	f, err := os.Open("testdata/" + name)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	defer f.Close()
 	var cols []string
 	var rows []map[string]string
@@ -38,12 +38,8 @@ func refRows(t *testing.T, name string, sep string) []map[string]string {
 		}
 		rows = append(rows, row)
 	}
-	if err := sc.Err(); err != nil {
-		t.Fatal(err)
-	}
-	if len(rows) == 0 {
-		t.Fatalf("%s: no rows", name)
-	}
+	require.NoError(t, sc.Err())
+	require.False(t, len(rows) == 0, "%s: no rows", name)
 	return rows
 }
 
@@ -54,17 +50,13 @@ func num(t *testing.T, s string) float64 {
 		return num(t, p) / num(t, q)
 	}
 	v, err := strconv.ParseFloat(strings.TrimSpace(s), 64)
-	if err != nil {
-		t.Fatalf("parse %q: %v", s, err)
-	}
+	require.NoError(t, err, "parse %q", s)
 	return v
 }
 
 func mustHex(t testing.TB, s string) Color {
 	t.Helper()
 	c, err := ParseHex(s)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	return c
 }

@@ -4,6 +4,9 @@ import (
 	"math"
 	"strings"
 	"testing"
+
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
 )
 
 func anchorsHex(t testing.TB, pairs ...any) []Anchor {
@@ -44,9 +47,7 @@ func TestNewScaleErrors(t *testing.T) {
 func TestAtInterpolatesInOKLab(t *testing.T) {
 	a := anchorsHex(t, 1900, "#e96163", 1950, "#4752bb", 2000, "#073b0f")
 	s, err := NewScale("t", a, nil)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	for _, x := range a {
 		if got := s.At(x.Year); got != x.Color {
 			t.Errorf("At(%v) = %v, want the anchor %v", x.Year, got, x.Color)
@@ -77,13 +78,9 @@ func TestEras(t *testing.T) {
 	a := anchorsHex(t, 1900, "#e96163", 2000, "#073b0f")
 	cont, _ := NewScale("c", a, nil)
 	s, err := NewScale("e", a, []float64{1900, 1925, 1960, 2000})
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	eras := s.Eras()
-	if len(eras) != 3 || !s.Discrete() || cont.Discrete() {
-		t.Fatalf("eras = %v", eras)
-	}
+	require.False(t, len(eras) != 3 || !s.Discrete() || cont.Discrete(), "eras = %v", eras)
 	for _, e := range eras {
 		if want := cont.At((e.From + e.To) / 2); e.Color != want {
 			t.Errorf("era %s colour %v, want the mid-year colour %v", e.Label(), e.Color, want)
@@ -140,9 +137,7 @@ func TestStopsStayWithinTolerance(t *testing.T) {
 		{1960, FromOKLCh(OKLCh{0.7, 0.3, 140})},
 		{2000, mustHex(t, "#0000ff")},
 	}, nil)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	for _, tc := range []struct {
 		s        Scale
 		from, to float64
@@ -155,23 +150,15 @@ func TestStopsStayWithinTolerance(t *testing.T) {
 		{harsh, 1890, 2010, 0.3},
 	} {
 		stops := tc.s.Stops(tc.from, tc.to, tc.maxErr)
-		if len(stops) < 2 || stops[0].Year != tc.from || stops[len(stops)-1].Year != tc.to {
-			t.Fatalf("%s %v–%v: stops %v", tc.s.Name(), tc.from, tc.to, stops)
-		}
+		require.False(t, len(stops) < 2 || stops[0].Year != tc.from || stops[len(stops)-1].Year != tc.to, "%s %v–%v: stops %v", tc.s.Name(), tc.from, tc.to, stops)
 		for i := 1; i < len(stops); i++ {
-			if !(stops[i].Year > stops[i-1].Year) {
-				t.Fatalf("%s: stop years not increasing at %d", tc.s.Name(), i)
-			}
+			require.True(t, (stops[i].Year > stops[i-1].Year), "%s: stop years not increasing at %d", tc.s.Name(), i)
 		}
 		for _, a := range tc.s.Anchors() {
-			if a.Year > tc.from && a.Year < tc.to && !hasStop(stops, a.Year) {
-				t.Errorf("%s: no stop at anchor year %v", tc.s.Name(), a.Year)
-			}
+			assert.False(t, a.Year > tc.from && a.Year < tc.to && !hasStop(stops, a.Year), "%s: no stop at anchor year %v", tc.s.Name(), a.Year)
 		}
 		worst, at := stopsError(t, tc.s, stops, tc.from, tc.to)
-		if worst > tc.maxErr {
-			t.Errorf("%s %v–%v maxErr %v: %d stops, worst ΔE00 %.3f at %.2f", tc.s.Name(), tc.from, tc.to, tc.maxErr, len(stops), worst, at)
-		}
+		assert.False(t, worst > tc.maxErr, "%s %v–%v maxErr %v: %d stops, worst ΔE00 %.3f at %.2f", tc.s.Name(), tc.from, tc.to, tc.maxErr, len(stops), worst, at)
 		t.Logf("%s %v–%v maxErr %v: %d stops, worst ΔE00 %.3f", tc.s.Name(), tc.from, tc.to, tc.maxErr, len(stops), worst)
 	}
 }
@@ -187,9 +174,7 @@ func hasStop(stops []Stop, y float64) bool {
 
 func TestStopsDiscrete(t *testing.T) {
 	s, err := NewScale("e", DefaultAnchors(1900, 2000), []float64{1900, 1930, 1960, 2000})
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	eras := s.Eras()
 	stops := s.Stops(1910, 2000, 0)
 	want := []Stop{
@@ -202,13 +187,9 @@ func TestStopsDiscrete(t *testing.T) {
 	if end := s.Stops(1900, 1960, 0); end[len(end)-1] != (Stop{1960, eras[1].Color.RGB().Clip()}) {
 		t.Errorf("stops ending at a boundary: %v", end)
 	}
-	if len(stops) != len(want) {
-		t.Fatalf("stops %v, want %v", stops, want)
-	}
+	require.False(t, len(stops) != len(want), "stops %v, want %v", stops, want)
 	for i := range want {
-		if stops[i] != want[i] {
-			t.Errorf("stop %d = %v, want %v", i, stops[i], want[i])
-		}
+		assert.False(t, stops[i] != want[i], "stop %d = %v, want %v", i, stops[i], want[i])
 	}
 }
 

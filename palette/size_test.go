@@ -70,9 +70,7 @@ func TestVisualAngle(t *testing.T) {
 			t.Errorf("%g pt on %v: %.5f°, want %.4f° (%s)", tc.widthPt, tc.m, got, tc.want, tc.src)
 		}
 	}
-	if !math.IsNaN(VisualAngle(1, Medium(9))) {
-		t.Error("unknown medium should give NaN")
-	}
+	assert.True(t, math.IsNaN(VisualAngle(1, Medium(9))), "unknown medium should give NaN")
 }
 
 func TestNoticeable(t *testing.T) {

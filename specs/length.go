@@ -1,6 +1,7 @@
 package specs
 
 import (
+	"errors"
 	"fmt"
 	"math"
 	"strconv"
@@ -44,7 +45,7 @@ func ParseLength(s string) (Length, error) {
 	num, unit := strings.TrimSpace(t[:i]), strings.ToLower(t[i:])
 	if unit == "" {
 		if _, err := strconv.ParseFloat(num, 64); err == nil {
-			return 0, fmt.Errorf("%q has no unit; write it with one, like %smm or %spt", s, num, num)
+			return 0, &UnitlessError{Text: s, Num: num}
 		}
 		return 0, fmt.Errorf("%q is not a length; write a number with a unit (mm, cm, in, pt, pc, px), like 3mm", s)
 	}
@@ -58,6 +59,32 @@ func ParseLength(s string) (Length, error) {
 		}
 	}
 	return 0, fmt.Errorf("unknown unit %q in %q; use mm, cm, in, pt, pc or px", unit, s)
+}
+
+// UnitlessError is a length written without a unit. Its message suggests
+// print units; Screen gives the one for a screen output (px).
+type UnitlessError struct {
+	Text, Num string
+	Screen    bool
+}
+
+func (e *UnitlessError) Error() string {
+	if e.Screen {
+		return fmt.Sprintf("%q has no unit; write it with one, like %spx (CSS px, 96 to the inch)", e.Text, e.Num)
+	}
+	return fmt.Sprintf("%q has no unit; write it with one, like %smm or %spt", e.Text, e.Num, e.Num)
+}
+
+// forKind returns err with a unitless length's suggestion fitted to the
+// output kind.
+func forKind(err error, screen bool) error {
+	var ue *UnitlessError
+	if screen && errors.As(err, &ue) {
+		c := *ue
+		c.Screen = true
+		return &c
+	}
+	return err
 }
 
 // Named trim sizes. ISO 216 sizes in mm; US sizes in inches (ANSI).
@@ -99,7 +126,7 @@ func ParseSize(s string, heightOptional bool) (Size, error) {
 	if len(parts) == 1 && heightOptional {
 		w, err := ParseLength(parts[0])
 		if err != nil {
-			return Size{}, err
+			return Size{}, forKind(err, true)
 		}
 		return Size{W: w}, nil
 	}

@@ -274,12 +274,13 @@ func (r *lineReader) Read(p []byte) (int, error) {
 }
 
 type decoder struct {
-	file  string
-	errs  Errors
-	pos   map[string]Pos
-	nodes int
-	plain bool       // the document has no alias: too many values is its length
-	desc  *describer // not nil: describe the key tables for Schema instead of decoding
+	file   string
+	errs   Errors
+	pos    map[string]Pos
+	nodes  int
+	plain  bool       // the document has no alias: too many values is its length
+	desc   *describer // not nil: describe the key tables for Schema instead of decoding
+	screen bool       // decoding a screen output: a unitless length suggests px
 }
 
 func (d *decoder) at(n *yaml.Node) Pos { return Pos{File: d.file, Line: n.Line, Col: n.Column} }
@@ -523,7 +524,7 @@ func (d *decoder) length(dst *Length, allowZero bool) func(*yaml.Node, string) {
 		}
 		l, err := ParseLength(n.Value)
 		if err != nil {
-			d.errorf(n, "%s: %v", path, err)
+			d.errorf(n, "%s: %v", path, forKind(err, d.screen))
 			return
 		}
 		if l > maxLength {

@@ -85,7 +85,7 @@ func TestParseErrors(t *testing.T) {
 		{"key-every 0 on print", printOut + "    key-every: 0\n", "7:5", "outputs.print.key-every: the colour key repeats down scrolling screen pages"},
 		{"key-every on pages", head + "outputs:\n  web:\n    kind: screen\n    trim: 1200px x 1600px\n    key-every: 1600px\n", "8:5", "outputs.web.key-every: the colour key repeats down scrolling pages; with flow pages every page carries its own key"},
 		{"key-every on explicit pages", head + "outputs:\n  web:\n    kind: screen\n    key-every: 0\n    flow: pages\n    trim: 1200px x 1600px\n", "7:5", "with flow pages every page carries its own key"},
-		{"key-every without unit", head + "outputs:\n  web:\n    kind: screen\n    key-every: 1600\n", "7:16", `outputs.web.key-every: "1600" has no unit; write it with one, like 1600mm or 1600pt`},
+		{"key-every without unit", head + "outputs:\n  web:\n    kind: screen\n    key-every: 1600\n", "7:16", `outputs.web.key-every: "1600" has no unit; write it with one, like 1600px (CSS px, 96 to the inch)`},
 		{"key-every negative", head + "outputs:\n  web:\n    kind: screen\n    key-every: -10px\n", "7:16", "outputs.web.key-every must not be negative, not -10px"},
 		{"key-every a list", head + "outputs:\n  web:\n    kind: screen\n    key-every: [1, 2]\n", "7:16", "outputs.web.key-every must be a single value, not a list"},
 		{"kind unknown", head + "outputs:\n  web: {kind: scren}\n", "5:15", `outputs.web.kind must be one of print, screen, not "scren"; did you mean "screen"?`},

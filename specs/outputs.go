@@ -54,6 +54,19 @@ func DefaultOutput(name string, k Kind) Output {
 	}
 }
 
+// usBleed is the bleed a US trim gets when none is given: North American
+// printers usually ask 0.125 in (common practice), European ones 3 mm.
+const usBleed = Length(0.125 * PtPerIn)
+
+// usTrimText reports whether a trim is a US one: Letter, Tabloid, or
+// given in inches.
+func usTrimText(t string) bool {
+	t = strings.ToLower(t)
+	return strings.HasPrefix(strings.TrimSpace(t), "letter") || strings.HasPrefix(strings.TrimSpace(t), "tabloid") || inches.MatchString(t)
+}
+
+var inches = regexp.MustCompile(`[0-9.]\s*in\b`)
+
 var outputName = regexp.MustCompile(`^[A-Za-z0-9][A-Za-z0-9_-]{0,63}$`)
 
 func (d *decoder) outputs(n *yaml.Node, path string, s *Spec) {
@@ -94,6 +107,9 @@ func (d *decoder) output(n *yaml.Node, path, name string) Output {
 	o := DefaultOutput(name, kind)
 	var kindText, firstPage, slack, ticks, flow string
 	trimSet, keyEverySet := false, false
+	d.screen = kind == Screen
+	defer func() { d.screen = false }()
+	bleedSet, usTrim := false, false
 	d.mapping(n, path, []field{
 		{"kind", d.choice(&kindText, string(Print), string(Screen))},
 		{"trim", func(n *yaml.Node, path string) {
@@ -101,6 +117,7 @@ func (d *decoder) output(n *yaml.Node, path, name string) Output {
 			if !ok {
 				return
 			}
+			usTrim = usTrimText(n.Value)
 			sz, err := ParseSize(n.Value, kind == Screen)
 			if err != nil {
 				d.errorf(n, "%s: %v", path, err)
@@ -119,7 +136,7 @@ func (d *decoder) output(n *yaml.Node, path, name string) Output {
 			}
 			o.Trim, trimSet = sz, true
 		}},
-		{"bleed", d.length(&o.Bleed, true)},
+		{"bleed", func(n *yaml.Node, path string) { bleedSet = true; d.length(&o.Bleed, true)(n, path) }},
 		{"slug", d.length(&o.Slug, true)},
 		{"margins", func(n *yaml.Node, path string) {
 			n = d.resolve(n)
@@ -230,6 +247,9 @@ func (d *decoder) output(n *yaml.Node, path, name string) Output {
 		return n
 	}
 	o.FirstPageLeft = firstPage == "left"
+	if kind == Print && usTrim && !bleedSet {
+		o.Bleed = usBleed
+	}
 	if slack != "" {
 		o.Slack = Slack(slack)
 	}

@@ -18,20 +18,25 @@ import (
 // buildHooks are production's test hooks; tests set them.
 var buildHooks production.Hooks
 
+// stdoutIsTerminal decides between the brief report and the list of
+// paths; a test may pretend.
+var stdoutIsTerminal = isTerminal
+
 func runBuild(args []string, stdout, stderr io.Writer) int {
-	fs := newFlags("build", "SPEC [--out DIR] [--only OUTPUT] [--strict] [--no-proofs] [--full] [--quiet]",
+	fs := newFlags("build", "SPEC [--out DIR] [--only OUTPUT] [--strict] [--no-proofs] [--full] [--quiet] [--paths]",
 		"Render every output of the spec: for print, one PDF with bleed and crop marks, a PNG proof per page\n"+
 			"and a contact sheet. Preflight runs first. Pages whose inputs did not change since the last build\n"+
 			"are reused from DIR/.cache, and screen outputs and inserts whose inputs did not change keep their\n"+
 			"files; DIR/manifest.json records what went in and came out, and\n"+
 			"DIR/changes.txt and changes.json say what changed since the last build. The outputs are written\n"+
 			"beside DIR and swapped in only when all is done: an interrupted build leaves DIR as it was.", stderr)
-	outDir := fs.String("out", "", "folder for the outputs (default: out/ beside the spec)")
-	only := fs.String("only", "", "build only the output with this name; the others' files are kept")
+	outDir := fs.String("out", "", "folder `DIR` for the outputs (default: out/ beside the spec)")
+	only := fs.String("only", "", "build only the output named `OUTPUT`; the others' files are kept")
 	strict := fs.Bool("strict", false, "stop without writing anything when preflight finds warnings or errors")
-	noProofs := fs.Bool("no-proofs", false, "write no PNG proofs or contact sheet for print outputs")
+	noProofs := fs.Bool("no-proofs", false, "draw no PNG proofs or contact sheet for print outputs; those of pages that did not change are kept,\nthose of changed pages removed and listed as stale in changes.txt")
 	full := fs.Bool("full", false, "draw every page, screen output and insert afresh instead of reusing unchanged ones")
 	quiet := fs.Bool("quiet", false, "no progress line")
+	paths := fs.Bool("paths", false, "print the path of every file written on stdout, also on a terminal (without a terminal they are always printed)")
 	path, code, ok := startCommand(fs, args, stderr)
 	if !ok {
 		return code
@@ -79,6 +84,13 @@ func runBuild(args []string, stdout, stderr io.Writer) int {
 		fmt.Fprintf(stderr, "sheaf build: %v\n", err)
 		fmt.Fprintf(stderr, "sheaf build: nothing was changed in %s\n", dir)
 		return exitFindings
+	}
+	// On a terminal, a few lines for a person; for a script (stdout
+	// piped or redirected) or with --paths, every path on stdout and the
+	// change report on stderr.
+	if stdoutIsTerminal(stdout) && !*paths {
+		res.Changes.WriteBrief(stdout, filepath.Join(dir, production.ChangesText))
+		return exitOK
 	}
 	for _, f := range res.Files {
 		fmt.Fprintln(stdout, f)

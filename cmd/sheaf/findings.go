@@ -18,12 +18,7 @@ func writeFindings(w io.Writer, fs []preflight.Finding, limit int) {
 	if len(fs) == 0 {
 		return
 	}
-	counts := map[preflight.Severity]int{}
-	for _, f := range fs {
-		counts[f.Severity]++
-	}
-	fmt.Fprintf(w, "preflight: %d errors, %d warnings, %d for review, %d notes\n",
-		counts[preflight.Error], counts[preflight.Warning], counts[preflight.Review], counts[preflight.Info])
+	fmt.Fprintln(w, findingsCount(fs))
 	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', 0)
 	for k, f := range fs {
 		if limit > 0 && k == limit {
@@ -37,4 +32,15 @@ func writeFindings(w io.Writer, fs []preflight.Finding, limit int) {
 		fmt.Fprintf(tw, "  %s\t%s\t%s\t%s\n", f.Severity, f.ID, f.Where(), msg)
 	}
 	tw.Flush()
+}
+
+// findingsCount is the table's first line: "preflight: 0 errors, 2
+// warnings, 6 for review, 7 notes".
+func findingsCount(fs []preflight.Finding) string {
+	counts := map[preflight.Severity]int{}
+	for _, f := range fs {
+		counts[f.Severity]++
+	}
+	return fmt.Sprintf("preflight: %d errors, %d warnings, %d for review, %d notes",
+		counts[preflight.Error], counts[preflight.Warning], counts[preflight.Review], counts[preflight.Info])
 }

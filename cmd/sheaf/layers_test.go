@@ -6,6 +6,8 @@ import (
 	"testing"
 
 	"github.com/stretchr/testify/require"
+
+	"sheaf/render/tooltest"
 )
 
 // TestLayers keeps the pipeline readable top to bottom (DEVELOPERS.md):
@@ -17,10 +19,7 @@ func TestLayers(t *testing.T) {
 	if testing.Short() {
 		t.Skip("runs go list; skipped with -short")
 	}
-	goTool, err := exec.LookPath("go")
-	if err != nil {
-		t.Skip("the go tool is not on PATH")
-	}
+	goTool := tooltest.Require(t, "go", "golang-go")
 	layer := func(pkg string) int {
 		p := strings.TrimPrefix(pkg, "sheaf/")
 		switch {

@@ -6,7 +6,8 @@
 //
 //	sheaf check SPEC [--json] [--strict]
 //	sheaf palette SPEC [--out DIR]
-//	sheaf build SPEC [--out DIR] [--only OUTPUT] [--strict] [--no-proofs] [--full] [--quiet]
+//	sheaf build SPEC [--out DIR] [--only OUTPUT] [--strict] [--no-proofs] [--full] [--quiet] [--paths]
+//	sheaf terms SPEC [--match TEXT] [--pattern RE] [--sort COLUMN] [--reverse] [--selected] [--limit N] [--json]
 //	sheaf schema
 //	sheaf help [COMMAND]
 //
@@ -45,7 +46,8 @@ func commands() []command {
 	return []command{
 		{"check", "SPEC [--json] [--strict]", "validate the spec and data; print a summary, pages and preflight findings", runCheck},
 		{"palette", "SPEC [--out DIR]", "print the era palette's table and checks; write a swatch sheet", runPalette},
-		{"build", "SPEC [--out DIR] [--only OUTPUT] [--strict] [--no-proofs] [--full] [--quiet]", "render every output: PDF, proofs, SVG, PNG; manifest and change report", runBuild},
+		{"build", "SPEC [--out DIR] [--only OUTPUT] [--strict] [--no-proofs] [--full] [--quiet] [--paths]", "render every output: PDF, proofs, SVG, PNG; manifest and change report", runBuild},
+		{"terms", termsArgs, "list the terms in the data with their counts, peak year and whether the spec selects them", runTerms},
 		{"pairs", "SPEC [--top N] [--per-term N] [--output NAME] [--size 'W x H'] [--json] [--out DIR] [--no-sheet]", "find the most alike pairs of terms and the strongest hand-overs; inserts entries and a sheet", runPairs},
 		{"count", countArgs, "count terms in a dated text archive into the two tables a spec's data reads", runCount},
 
@@ -99,6 +101,15 @@ func run(args []string, stdout, stderr io.Writer) (code int) {
 	}
 	for _, c := range commands() {
 		if c.name == name && c.run != nil {
+			// "sheaf build -h" is "sheaf help build": the same text, on stdout.
+			for _, a := range args[1:] {
+				if a == "-h" || a == "--help" || a == "-help" {
+					return c.run([]string{"-h"}, stdout, stdout)
+				}
+				if a == "--" {
+					break
+				}
+			}
 			return c.run(args[1:], stdout, stderr)
 		}
 	}
@@ -140,14 +151,32 @@ func newFlags(name, argsHelp, summary string, w io.Writer) *flag.FlagSet {
 	fs.SetOutput(w)
 	fs.Usage = func() {
 		fmt.Fprintf(w, "Usage: sheaf %s %s\n\n%s\n", name, argsHelp, summary)
-		var any bool
-		fs.VisitAll(func(*flag.Flag) { any = true })
-		if any {
-			fmt.Fprintln(w, "\nFlags:")
-			fs.PrintDefaults()
-		}
+		printFlags(w, fs)
 	}
 	return fs
+}
+
+// printFlags lists a command's flags as README writes them, "--name
+// VALUE", with the help and the default: Go's flag package would print
+// "-name".
+func printFlags(w io.Writer, fs *flag.FlagSet) {
+	var lines []string
+	fs.VisitAll(func(f *flag.Flag) {
+		value, usage := flag.UnquoteUsage(f)
+		line := "  --" + f.Name
+		if value != "" {
+			line += " " + strings.ToUpper(value)
+		}
+		line += "\n      " + strings.ReplaceAll(usage, "\n", "\n      ")
+		if d := f.DefValue; d != "" && d != "false" && d != "0" {
+			line += fmt.Sprintf(" (default %s)", d)
+		}
+		lines = append(lines, line)
+	})
+	if len(lines) > 0 {
+		fmt.Fprintln(w, "\nFlags:")
+		fmt.Fprintln(w, strings.Join(lines, "\n"))
+	}
 }
 
 // startCommand parses args for a command taking exactly one SPEC. It

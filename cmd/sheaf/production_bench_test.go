@@ -146,3 +146,20 @@ var catalog = sync.OnceValues(func() (string, error) {
 	path := filepath.Join(dir, "catalog.yaml")
 	return path, os.WriteFile(path, []byte(spec), 0o644)
 })
+
+// BenchmarkTerms: `sheaf terms` on the 4,000-term catalog (700,000 rows),
+// JSON to a buffer. The issue's target: at most 300 ms.
+//
+//	go test ./cmd/sheaf -run '^$' -bench Terms -benchtime 5x
+func BenchmarkTerms(b *testing.B) {
+	spec, err := catalog()
+	if err != nil {
+		b.Fatal(err)
+	}
+	for b.Loop() {
+		var o, e bytes.Buffer
+		if code := run([]string{"terms", spec, "--json"}, &o, &e); code != exitOK {
+			b.Fatalf("exit %d: %s", code, e.String())
+		}
+	}
+}

@@ -14,7 +14,6 @@ import (
 	"regexp"
 	"strings"
 	"sync"
-	"syscall"
 	"testing"
 	"time"
 
@@ -420,50 +419,6 @@ func TestStrictPreflight(t *testing.T) {
 	// Without strict the build goes ahead, warning.
 	_, stderr := buildInto(t, spec, out, "--quiet")
 	assert.Contains(t, stderr, "type-floor", "build stderr lacks the finding:\n%s", stderr)
-}
-
-// TestInterrupt sends a real SIGINT to a sheaf process in the middle of a
-// build: it exits non-zero, removes its stage, and the previous build is
-// intact.
-func TestInterrupt(t *testing.T) {
-	if testing.Short() {
-		t.Skip("builds the binary; skipped with -short")
-	}
-	bin := filepath.Join(t.TempDir(), "sheaf")
-	out0, err := exec.Command("go", "build", "-o", bin, ".").CombinedOutput()
-	require.NoError(t, err, "go build: %s", out0)
-	// The demo's 384 terms on A4, with proofs: several seconds of work.
-	spec := newJob(t, strings.Replace(jobSpec(""), "top: 60", "top: 384", 1))
-	out := filepath.Join(filepath.Dir(spec), "out")
-	buildInto(t, spec, out, "--quiet", "--no-proofs")
-	before := snapshot(t, out)
-
-	cmd := exec.Command(bin, "build", spec, "--out", out, "--full")
-	var stderr bytes.Buffer
-	cmd.Stderr = &stderr
-	require.NoError(t, cmd.Start())
-	// Wait until the stage holds a cached page: the build is under way.
-	deadline := time.Now().Add(20 * time.Second)
-	for {
-		m, _ := filepath.Glob(filepath.Join(filepath.Dir(out), ".out"+production.StageMark+"*", production.CacheDir, "print", "*.page"))
-		if len(m) > 0 {
-			break
-		}
-		if time.Now().After(deadline) {
-			cmd.Process.Kill()
-			t.Fatalf("no stage appeared; stderr:\n%s", stderr.String())
-		}
-		time.Sleep(5 * time.Millisecond)
-	}
-	require.NoError(t, cmd.Process.Signal(syscall.SIGINT))
-	err = cmd.Wait()
-	var exit *exec.ExitError
-	if assert.ErrorAs(t, err, &exit, stderr.String()) {
-		assert.Equal(t, exitFindings, exit.ExitCode(), stderr.String())
-	}
-	assert.Contains(t, stderr.String(), "interrupted", "stderr:\n%s", stderr.String())
-	sameTree(t, before, snapshot(t, out), nil)
-	noStages(t, out)
 }
 
 // TestProgress: silent when not a terminal; on a terminal, a line after

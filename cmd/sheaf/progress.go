@@ -51,7 +51,14 @@ func isTerminal(w io.Writer) bool {
 		return false
 	}
 	fi, err := f.Stat()
-	return err == nil && fi.Mode()&os.ModeCharDevice != 0
+	if err != nil || fi.Mode()&os.ModeCharDevice == 0 {
+		return false
+	}
+	// The null device is a character device too, but no one reads it.
+	if null, err := os.Stat(os.DevNull); err == nil && os.SameFile(fi, null) {
+		return false
+	}
+	return true
 }
 
 // Begin starts counting a stage of total steps.
@@ -100,6 +107,18 @@ func (p *progress) Findings(fs []preflight.Finding) {
 	defer p.mu.Unlock()
 	p.clear()
 	writeFindings(p.w, fs, maxFindingsShown)
+}
+
+// FindingsRepeated says in one line that preflight found what the last
+// build found, instead of printing the same table again.
+func (p *progress) FindingsRepeated(fs []preflight.Finding) {
+	p.mu.Lock()
+	defer p.mu.Unlock()
+	p.clear()
+	if len(fs) == 0 {
+		return
+	}
+	fmt.Fprintf(p.w, "%s, as in the last build (sheaf check lists them)\n", findingsCount(fs))
 }
 
 // clear removes the line, if one is shown, so that text can follow.

@@ -16,6 +16,8 @@ import (
 
 	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
+
+	"sheaf/render/tooltest"
 )
 
 func sheaf(t *testing.T, args ...string) (code int, stdout, stderr string) {
@@ -85,9 +87,7 @@ func TestCheckRefusesWhatBuildCannotDraw(t *testing.T) {
 // stdout, a warning naming what was left, never "nothing was changed".
 // Needs chattr +i (e2fsprogs, an ext4/xfs/btrfs temporary folder, root).
 func TestLeftoverAfterSwapIsSuccess(t *testing.T) {
-	if _, err := exec.LookPath("chattr"); err != nil {
-		t.Skip("chattr (e2fsprogs) missing")
-	}
+	tooltest.Require(t, "chattr", "e2fsprogs")
 	spec := newJob(t, jobSpec(""))
 	out := filepath.Join(filepath.Dir(spec), "out")
 	code, _, stderr := sheaf(t, "build", spec, "--out", out, "--quiet", "--no-proofs")

@@ -13,6 +13,7 @@ import (
 	"github.com/go-fonts/dejavu/dejavusanscondensed"
 	"github.com/go-fonts/dejavu/dejavusanscondensedbold"
 	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
 	"golang.org/x/image/font"
 	"golang.org/x/image/font/gofont/gobold"
 	"golang.org/x/image/font/gofont/goregular"
@@ -25,9 +26,7 @@ import (
 func mustDefault(t testing.TB) *Set {
 	t.Helper()
 	s, err := Default()
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	return s
 }
 
@@ -37,9 +36,7 @@ func mustDefault(t testing.TB) *Set {
 func refWidth(t *testing.T, ttf []byte, size float64, text string) float64 {
 	t.Helper()
 	f, err := sfnt.Parse(ttf)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	var b sfnt.Buffer
 	upem := f.UnitsPerEm()
 	ppem := fixed.I(int(upem)) // one unit per font unit: exact integers
@@ -47,20 +44,14 @@ func refWidth(t *testing.T, ttf []byte, size float64, text string) float64 {
 	prev := sfnt.GlyphIndex(0)
 	for i, r := range text {
 		g, err := f.GlyphIndex(&b, r)
-		if err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, err)
 		if i > 0 {
 			k, err := f.Kern(&b, prev, g, ppem, font.HintingNone)
-			if err != nil && !errors.Is(err, sfnt.ErrNotFound) {
-				t.Fatal(err)
-			}
+			require.False(t, err != nil && !errors.Is(err, sfnt.ErrNotFound), err)
 			sum += k
 		}
 		a, err := f.GlyphAdvance(&b, g, ppem, font.HintingNone)
-		if err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, err)
 		sum += a
 		prev = g
 	}
@@ -73,15 +64,11 @@ func goSet(t *testing.T) *Set {
 	t.Helper()
 	dir := t.TempDir()
 	for name, b := range map[string][]byte{"Go-Regular.ttf": goregular.TTF, "Go-Bold.ttf": gobold.TTF} {
-		if err := os.WriteFile(filepath.Join(dir, name), b, 0o644); err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, os.WriteFile(filepath.Join(dir, name), b, 0o644))
 	}
 	spec := &specs.Spec{File: filepath.Join(dir, "feature.yaml"), Dir: dir}
 	s, err := Load(spec, &specs.Output{Name: "print", Fonts: specs.Fonts{Regular: "Go-Regular.ttf", Bold: "Go-Bold.ttf"}})
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	return s
 }
 
@@ -106,9 +93,7 @@ func TestWidthAgainstSfnt(t *testing.T) {
 		want := refWidth(t, tc.ttf, tc.size, tc.text)
 		// HarfBuzz rounds positions to font units; allow 0.5 unit a glyph.
 		tol := 0.5 / 2048 * tc.size * float64(len([]rune(tc.text)))
-		if math.Abs(got-want) > tol || got <= 0 {
-			t.Errorf("%v %g pt %q: width %.4f pt, sfnt says %.4f pt", tc.style, tc.size, tc.text, got, want)
-		}
+		assert.False(t, math.Abs(got-want) > tol || got <= 0, "%v %g pt %q: width %.4f pt, sfnt says %.4f pt", tc.style, tc.size, tc.text, got, want)
 	}
 }
 
@@ -118,9 +103,7 @@ func TestWidthScalesWithSize(t *testing.T) {
 	s := mustDefault(t)
 	w7 := s.Width(Regular, 7, "proportional")
 	w14 := s.Width(Regular, 14, "proportional")
-	if math.Abs(w14-2*w7) > 1e-9 {
-		t.Errorf("width at 14 pt %.6f, want twice %.6f", w14, w7)
-	}
+	assert.InDelta(t, 2*w7, w14, 1e-9, "width at 14 pt %.6f, want twice %.6f", w14, w7)
 }
 
 func TestMetricsGoRegular(t *testing.T) {
@@ -128,36 +111,26 @@ func TestMetricsGoRegular(t *testing.T) {
 	// lineGap 67 — read with golang.org/x/image/font/sfnt below rather than
 	// taken from memory.
 	f, err := sfnt.Parse(goregular.TTF)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	var b sfnt.Buffer
 	fm, err := f.Metrics(&b, fixed.I(int(f.UnitsPerEm())), font.HintingNone)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	upem := float64(f.UnitsPerEm())
 	size := 10.0
 	wantAsc := float64(fm.Ascent) / 64 / upem * size
 	wantDesc := float64(fm.Descent) / 64 / upem * size
 	m := goSet(t).Metrics(Regular, size)
-	if math.Abs(m.Ascent-wantAsc) > 1e-6 || math.Abs(m.Descent-wantDesc) > 1e-6 {
-		t.Errorf("metrics %+v, sfnt ascent %.6f descent %.6f", m, wantAsc, wantDesc)
-	}
+	assert.False(t, math.Abs(m.Ascent-wantAsc) > 1e-6 || math.Abs(m.Descent-wantDesc) > 1e-6, "metrics %+v, sfnt ascent %.6f descent %.6f", m, wantAsc, wantDesc)
 }
 
 func TestMetricsDefaultFace(t *testing.T) {
 	// The default face's vertical metrics, read with
 	// golang.org/x/image/font/sfnt (an independent reader).
 	f, err := sfnt.Parse(dejavusanscondensed.TTF)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	var b sfnt.Buffer
 	fm, err := f.Metrics(&b, fixed.I(int(f.UnitsPerEm())), font.HintingNone)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	upem := float64(f.UnitsPerEm())
 	size := 7.0
 	m := mustDefault(t).Metrics(Regular, size)
@@ -178,9 +151,7 @@ func TestBaselineCentresGlyphsInLineBox(t *testing.T) {
 	base := s.Baseline(Regular, size, leading, top)
 	above := top - (base + m.Ascent)
 	below := (base - m.Descent) - (top - size*leading)
-	if math.Abs(above-below) > 1e-9 || above < 0 {
-		t.Errorf("space above %.6f, below %.6f", above, below)
-	}
+	assert.False(t, math.Abs(above-below) > 1e-9 || above < 0, "space above %.6f, below %.6f", above, below)
 }
 
 func TestWrap(t *testing.T) {
@@ -217,28 +188,16 @@ func TestWrap(t *testing.T) {
 
 func TestLoadFiles(t *testing.T) {
 	dir := t.TempDir()
-	if err := os.WriteFile(filepath.Join(dir, "Face-Bold.ttf"), gobold.TTF, 0o644); err != nil {
-		t.Fatal(err)
-	}
-	if err := os.WriteFile(filepath.Join(dir, "notafont.ttf"), []byte("plain text, not a font"), 0o644); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, os.WriteFile(filepath.Join(dir, "Face-Bold.ttf"), gobold.TTF, 0o644))
+	require.NoError(t, os.WriteFile(filepath.Join(dir, "notafont.ttf"), []byte("plain text, not a font"), 0o644))
 	spec := &specs.Spec{File: filepath.Join(dir, "feature.yaml"), Dir: dir}
 
 	out := &specs.Output{Name: "print", Fonts: specs.Fonts{Regular: "Face-Bold.ttf"}}
 	s, err := Load(spec, out)
-	if err != nil {
-		t.Fatal(err)
-	}
-	if &s.Regular()[0] == &goregular.TTF[0] || len(s.Regular()) != len(gobold.TTF) {
-		t.Error("regular face not read from the file")
-	}
-	if s.Path(Regular) != filepath.Join(dir, "Face-Bold.ttf") || s.Path(Bold) != "" {
-		t.Errorf("paths %q %q", s.Path(Regular), s.Path(Bold))
-	}
-	if len(s.Italic()) != len(s.Regular()) {
-		t.Error("italic should fall back to the custom regular face")
-	}
+	require.NoError(t, err)
+	assert.False(t, &s.Regular()[0] == &goregular.TTF[0] || len(s.Regular()) != len(gobold.TTF), "regular face not read from the file")
+	assert.False(t, s.Path(Regular) != filepath.Join(dir, "Face-Bold.ttf") || s.Path(Bold) != "", "paths %q %q", s.Path(Regular), s.Path(Bold))
+	assert.False(t, len(s.Italic()) != len(s.Regular()), "italic should fall back to the custom regular face")
 
 	for _, tc := range []struct{ file, want string }{
 		{"missing.ttf", "cannot read font \"missing.ttf\""},
@@ -254,16 +213,12 @@ func TestLoadFiles(t *testing.T) {
 
 func TestDefaultBytesAreDejaVuSansCondensed(t *testing.T) {
 	s := mustDefault(t)
-	if !bytes.Equal(s.Regular(), dejavusanscondensed.TTF) || !bytes.Equal(s.Bold(), dejavusanscondensedbold.TTF) || len(s.Italic()) == 0 {
-		t.Error("default set does not hold DejaVu Sans Condensed")
-	}
+	assert.False(t, !bytes.Equal(s.Regular(), dejavusanscondensed.TTF) || !bytes.Equal(s.Bold(), dejavusanscondensedbold.TTF) || len(s.Italic()) == 0, "default set does not hold DejaVu Sans Condensed")
 	// Full names (name ID 4) as the DejaVu 2.37 files in
 	// github.com/go-fonts/dejavu v0.3.2 carry them.
 	assert.Equal(t, "DejaVuSansCondensed", s.Name(Regular))
 	assert.Equal(t, "DejaVuSansCondensed-Bold", s.Name(Bold))
-	if s.Name(Bold) == s.Name(Regular) {
-		t.Errorf("bold and regular share the name %q", s.Name(Bold))
-	}
+	assert.False(t, s.Name(Bold) == s.Name(Regular), "bold and regular share the name %q", s.Name(Bold))
 }
 
 func TestConcurrentMeasuring(t *testing.T) {

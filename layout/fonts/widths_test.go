@@ -7,6 +7,8 @@ import (
 	"path/filepath"
 	"testing"
 
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
 	"golang.org/x/image/font/gofont/gobold"
 
 	"sheaf/specs"
@@ -48,9 +50,7 @@ func measured(t *testing.T, reverse bool) (*Set, []float64) {
 func saved(t *testing.T, s *Set) []byte {
 	t.Helper()
 	var b bytes.Buffer
-	if err := s.SaveWidths(&b); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, s.SaveWidths(&b))
 	return b.Bytes()
 }
 
@@ -58,15 +58,9 @@ func TestWidthsRoundTrip(t *testing.T) {
 	a, want := measured(t, false)
 	data := saved(t, a)
 	b := mustDefault(t)
-	if err := b.LoadWidths(bytes.NewReader(data)); err != nil {
-		t.Fatal(err)
-	}
-	if len(b.saved) != len(widthTexts) {
-		t.Fatalf("%d widths read back, want %d", len(b.saved), len(widthTexts))
-	}
-	if len(saved(t, b)) >= len(data) {
-		t.Error("widths loaded but not used are saved again")
-	}
+	require.NoError(t, b.LoadWidths(bytes.NewReader(data)))
+	require.False(t, len(b.saved) != len(widthTexts), "%d widths read back, want %d", len(b.saved), len(widthTexts))
+	assert.False(t, len(saved(t, b)) >= len(data), "widths loaded but not used are saved again")
 	for i, w := range widthTexts {
 		got, ok := b.saved[widthKey{w.st, w.size, w.text}]
 		if !ok || math.Float64bits(got) != math.Float64bits(want[i]) {
@@ -76,9 +70,7 @@ func TestWidthsRoundTrip(t *testing.T) {
 			t.Errorf("%v %g %q: Width %v after loading, want %v", w.st, w.size, w.text, got, want[i])
 		}
 	}
-	if !bytes.Equal(saved(t, b), data) {
-		t.Error("widths used from a loaded file do not save to the same bytes")
-	}
+	assert.True(t, bytes.Equal(saved(t, b), data), "widths used from a loaded file do not save to the same bytes")
 	// One width more than the file had: saved with the rest.
 	b.Width(Regular, 9, "one more")
 	more := mustDefault(t)
@@ -87,9 +79,7 @@ func TestWidthsRoundTrip(t *testing.T) {
 	}
 	// Sorted entries: the order of measuring does not show in the bytes.
 	c, _ := measured(t, true)
-	if !bytes.Equal(saved(t, c), data) {
-		t.Error("the same widths measured in another order save to other bytes")
-	}
+	assert.True(t, bytes.Equal(saved(t, c), data), "the same widths measured in another order save to other bytes")
 }
 
 func TestWidthsRefused(t *testing.T) {
@@ -97,14 +87,10 @@ func TestWidthsRefused(t *testing.T) {
 	data := saved(t, a)
 
 	dir := t.TempDir()
-	if err := os.WriteFile(filepath.Join(dir, "Other.ttf"), gobold.TTF, 0o644); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, os.WriteFile(filepath.Join(dir, "Other.ttf"), gobold.TTF, 0o644))
 	other, err := Load(&specs.Spec{File: filepath.Join(dir, "f.yaml"), Dir: dir},
 		&specs.Output{Name: "print", Fonts: specs.Fonts{Regular: "Other.ttf"}})
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	flipped := bytes.Clone(data)
 	flipped[len(flipped)/2] ^= 1
 	for _, tc := range []struct {
@@ -121,8 +107,6 @@ func TestWidthsRefused(t *testing.T) {
 		if err := tc.set.LoadWidths(bytes.NewReader(tc.data)); err == nil {
 			t.Errorf("%s: no error", tc.name)
 		}
-		if len(tc.set.saved) != 0 {
-			t.Errorf("%s: %d widths added", tc.name, len(tc.set.saved))
-		}
+		assert.False(t, len(tc.set.saved) != 0, "%s: %d widths added", tc.name, len(tc.set.saved))
 	}
 }

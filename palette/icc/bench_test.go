@@ -3,6 +3,8 @@ package icc_test
 import (
 	"testing"
 
+	"github.com/stretchr/testify/require"
+
 	"sheaf/palette/icc"
 )
 
@@ -11,13 +13,9 @@ import (
 // (cache hit).
 func BenchmarkConvert(b *testing.B) {
 	dst, err := icc.Parse(inventedCMYK())
-	if err != nil {
-		b.Fatal(err)
-	}
+	require.NoError(b, err)
 	xf, err := icc.NewTransform(icc.SRGB(), dst, icc.RelativeColorimetric, true)
-	if err != nil {
-		b.Fatal(err)
-	}
+	require.NoError(b, err)
 	b.Run("new", func(b *testing.B) {
 		for i := 0; b.Loop(); i++ {
 			v := float64(i%1000003) / 1000003
@@ -34,9 +32,7 @@ func BenchmarkConvert(b *testing.B) {
 // BenchmarkNewTransform includes black-point detection (256 round trips).
 func BenchmarkNewTransform(b *testing.B) {
 	dst, err := icc.Parse(inventedCMYK())
-	if err != nil {
-		b.Fatal(err)
-	}
+	require.NoError(b, err)
 	src := icc.SRGB()
 	for b.Loop() {
 		if _, err := icc.NewTransform(src, dst, icc.RelativeColorimetric, true); err != nil {

@@ -180,9 +180,7 @@ func FuzzParse(f *testing.F) {
 		p, err := icc.Parse(b)
 		if err != nil {
 			var fe *icc.FormatError
-			if !errors.As(err, &fe) {
-				t.Fatalf("error %v is not a *FormatError", err)
-			}
+			require.True(t, errors.As(err, &fe), "error %v is not a *FormatError", err)
 			return
 		}
 		dev := make([]float64, p.Channels())

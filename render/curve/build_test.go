@@ -7,6 +7,9 @@ import (
 	"strings"
 	"testing"
 
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
+
 	"sheaf/render/curve"
 )
 
@@ -35,13 +38,9 @@ func TestEndPointsExact(t *testing.T) {
 		}
 		for _, m := range maps {
 			runs, err := curve.Build(xs, ys, m, nil)
-			if err != nil {
-				t.Fatal(err)
-			}
+			require.NoError(t, err)
 			for _, run := range runs {
-				if !same(run.Start, m.Apply(xs[run.First], ys[run.First])) {
-					t.Fatalf("run at %d starts at %v, want %v", run.First, run.Start, m.Apply(xs[run.First], ys[run.First]))
-				}
+				require.True(t, same(run.Start, m.Apply(xs[run.First], ys[run.First])), "run at %d starts at %v, want %v", run.First, run.Start, m.Apply(xs[run.First], ys[run.First]))
 				for k, bz := range run.Beziers {
 					i := run.First + k
 					if !same(bz.P0, m.Apply(xs[i], ys[i])) || !same(bz.P3, m.Apply(xs[i+1], ys[i+1])) {
@@ -88,32 +87,22 @@ func TestGaps(t *testing.T) {
 				xs[i] = 1900 + float64(i)
 			}
 			runs, err := curve.Build(xs, tt.ys, m, nil)
-			if err != nil {
-				t.Fatal(err)
-			}
+			require.NoError(t, err)
 			var got []shape
 			for _, r := range runs {
 				got = append(got, shape{r.First, r.Points()})
-				if r.IsDot() != (r.Points() == 1) {
-					t.Errorf("run at %d: IsDot %v with %d points", r.First, r.IsDot(), r.Points())
-				}
+				assert.False(t, r.IsDot() != (r.Points() == 1), "run at %d: IsDot %v with %d points", r.First, r.IsDot(), r.Points())
 				if r.IsDot() && !same(r.Start, m.Apply(xs[r.First], tt.ys[r.First])) {
 					t.Errorf("dot at %v, want %v", r.Start, m.Apply(xs[r.First], tt.ys[r.First]))
 				}
 			}
-			if !reflect.DeepEqual(got, tt.want) {
-				t.Errorf("runs (first, points) = %v, want %v (%s)", got, tt.want, tt.source)
-			}
+			assert.Equal(t, tt.want, got, "runs (first, points) = %v, want %v (%s)", got, tt.want, tt.source)
 			// A run ignores the data across a gap: built alone, it is the
 			// same bit for bit (local rule, srcFB).
 			for _, r := range runs {
 				alone, err := curve.Build(xs[r.First:r.First+r.Points()], tt.ys[r.First:r.First+r.Points()], m, nil)
-				if err != nil {
-					t.Fatal(err)
-				}
-				if len(alone) != 1 || !reflect.DeepEqual(alone[0].Beziers, r.Beziers) || !same(alone[0].Start, r.Start) {
-					t.Errorf("run at %d differs from the same points built alone", r.First)
-				}
+				require.NoError(t, err)
+				assert.False(t, len(alone) != 1 || !reflect.DeepEqual(alone[0].Beziers, r.Beziers) || !same(alone[0].Start, r.Start), "run at %d differs from the same points built alone", r.First)
 			}
 		})
 	}
@@ -124,9 +113,7 @@ func TestTwoPointsStraight(t *testing.T) {
 	// its thirds (srcGonum n = 2 branch: both slopes are the secant).
 	m := mustMap(t, 1950, 1960, 0, 40, 10, 110, 90, 10)
 	runs, err := curve.Build([]float64{1951, 1957}, []float64{3, 29}, m, nil)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	bz := runs[0].Beziers[0]
 	third := curve.Point{X: bz.P0.X + (bz.P3.X-bz.P0.X)/3, Y: bz.P0.Y + (bz.P3.Y-bz.P0.Y)/3}
 	twoThirds := curve.Point{X: bz.P3.X - (bz.P3.X-bz.P0.X)/3, Y: bz.P3.Y - (bz.P3.Y-bz.P0.Y)/3}
@@ -155,16 +142,12 @@ func TestFlatStaysFlat(t *testing.T) {
 		mustMap(t, 1800, 1810, 0, 6, 0, 90, 30.3, 0.7),
 	} {
 		runs, err := curve.Build(xs, ys, m, nil)
-		if err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, err)
 		for k, bz := range runs[0].Beziers {
 			if ys[k] != ys[k+1] {
 				continue
 			}
-			if bz.P1.Y != bz.P0.Y || bz.P2.Y != bz.P0.Y || bz.P3.Y != bz.P0.Y {
-				t.Errorf("flat interval %d: heights %v %v %v %v", k, bz.P0.Y, bz.P1.Y, bz.P2.Y, bz.P3.Y)
-			}
+			assert.False(t, bz.P1.Y != bz.P0.Y || bz.P2.Y != bz.P0.Y || bz.P3.Y != bz.P0.Y, "flat interval %d: heights %v %v %v %v", k, bz.P0.Y, bz.P1.Y, bz.P2.Y, bz.P3.Y)
 			for j := 0; j <= 20; j++ {
 				if y := bz.At(float64(j) / 20).Y; y != bz.P0.Y {
 					t.Errorf("flat interval %d: y(t=%v) = %v, want %v", k, float64(j)/20, y, bz.P0.Y)
@@ -184,13 +167,9 @@ func TestMirror(t *testing.T) {
 	for trial := range 50 {
 		xs, ys := randomSeries(r, 2+r.IntN(80), trial%2 == 0)
 		ru, err := curve.Build(xs, ys, up, nil)
-		if err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, err)
 		rd, err := curve.Build(xs, ys, down, nil)
-		if err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, err)
 		for k := range ru[0].Beziers {
 			bu, bd := ru[0].Beziers[k], rd[0].Beziers[k]
 			pu := [4]curve.Point{bu.P0, bu.P1, bu.P2, bu.P3}
@@ -202,9 +181,7 @@ func TestMirror(t *testing.T) {
 			}
 			for _, tt := range []float64{0.25, 0.5, 0.8} {
 				a, b := bu.At(tt), bd.At(tt)
-				if a.X != b.X || math.Abs(a.Y+b.Y-280) > 1e-10 {
-					t.Fatalf("trial %d segment %d: At(%v) up %v, down %v", trial, k, tt, a, b)
-				}
+				require.False(t, a.X != b.X || math.Abs(a.Y+b.Y-280) > 1e-10, "trial %d segment %d: At(%v) up %v, down %v", trial, k, tt, a, b)
 			}
 		}
 	}
@@ -218,15 +195,11 @@ func TestSplit(t *testing.T) {
 	xs := []float64{1800, 1803, 1810, 1811, 1830}
 	ys := []float64{1, 4, 2, 9, 9.5}
 	runs, err := curve.Build(xs, ys, m, nil)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	for k, bz := range runs[0].Beziers {
 		for _, s := range []float64{0.2, 0.5, 0.71} {
 			l, r := bz.Split(s)
-			if !same(l.P3, r.P0) || !same(l.P0, bz.P0) || !same(r.P3, bz.P3) {
-				t.Errorf("segment %d Split(%v): parts do not join or keep the ends", k, s)
-			}
+			assert.False(t, !same(l.P3, r.P0) || !same(l.P0, bz.P0) || !same(r.P3, bz.P3), "segment %d Split(%v): parts do not join or keep the ends", k, s)
 			for _, u := range []float64{0, 0.3, 0.6, 1} {
 				if d := dist(l.At(u), bz.At(s*u)); d > 1e-10 {
 					t.Errorf("segment %d Split(%v): left.At(%v) off by %g", k, s, u, d)
@@ -241,18 +214,14 @@ func TestSplit(t *testing.T) {
 		year := (xs[k] + xs[k+1]) / 2
 		x := m.X(year)
 		l, r := bz.SplitAtX(x)
-		if l.P3.X != x || r.P0.X != x || !same(l.P3, r.P0) {
-			t.Errorf("segment %d SplitAtX(%v): cut at %v / %v", k, x, l.P3, r.P0)
-		}
+		assert.False(t, l.P3.X != x || r.P0.X != x || !same(l.P3, r.P0), "segment %d SplitAtX(%v): cut at %v / %v", k, x, l.P3, r.P0)
 		if y, _ := runs[0].YAt(x); math.Abs(l.P3.Y-y) > 1e-10 {
 			t.Errorf("segment %d SplitAtX(%v): cut y %v, curve y %v", k, x, l.P3.Y, y)
 		}
 		// x stays linear in t on both parts, so they can be cut again.
 		for _, part := range []curve.Bezier{l, r} {
 			h := part.P3.X - part.P0.X
-			if math.Abs(part.P1.X-(part.P0.X+h/3)) > 1e-10 || math.Abs(part.P2.X-(part.P3.X-h/3)) > 1e-10 {
-				t.Errorf("segment %d: part %+v is not linear in x", k, part)
-			}
+			assert.False(t, math.Abs(part.P1.X-(part.P0.X+h/3)) > 1e-10 || math.Abs(part.P2.X-(part.P3.X-h/3)) > 1e-10, "segment %d: part %+v is not linear in x", k, part)
 		}
 		// Outside the segment: clamped to an end.
 		if l, r := bz.SplitAtX(bz.P0.X - 5); !same(l.P0, bz.P0) || !same(l.P3, bz.P0) || !same(r.P3, bz.P3) {
@@ -295,9 +264,7 @@ func TestErrors(t *testing.T) {
 			if err == nil || !strings.Contains(err.Error(), tt.want) {
 				t.Fatalf("err = %v, want one containing %q", err, tt.want)
 			}
-			if len(got) != 1 || got[0].First != 42 {
-				t.Errorf("dst changed on error: %+v", got)
-			}
+			assert.False(t, len(got) != 1 || got[0].First != 42, "dst changed on error: %+v", got)
 		})
 	}
 
@@ -367,20 +334,14 @@ func TestBuilderReuse(t *testing.T) {
 			ys[r.IntN(len(ys))] = nan
 		}
 		runs, err := b.Build(xs, ys, m, nil)
-		if err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, err)
 		all = append(all, runs)
 		series = append(series, [2][]float64{xs, ys})
 	}
 	for i, s := range series {
 		want, err := curve.Build(s[0], s[1], m, nil)
-		if err != nil {
-			t.Fatal(err)
-		}
-		if !reflect.DeepEqual(all[i], want) {
-			t.Fatalf("series %d: runs changed after later builds", i)
-		}
+		require.NoError(t, err)
+		require.Equal(t, want, all[i], "series %d: runs changed after later builds", i)
 	}
 
 	xs, ys := randomSeries(r, 175, true)
@@ -393,9 +354,7 @@ func TestBuilderReuse(t *testing.T) {
 			t.Fatal(err)
 		}
 	})
-	if allocs != 0 {
-		t.Errorf("warm Builder: %v allocations per series, want 0", allocs)
-	}
+	assert.False(t, allocs != 0, "warm Builder: %v allocations per series, want 0", allocs)
 }
 
 // BenchmarkBuild: one op is a page-sized job, 4,000 series of 175 yearly

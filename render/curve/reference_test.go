@@ -5,6 +5,8 @@ import (
 	"math/rand/v2"
 	"testing"
 
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
 	"gonum.org/v1/gonum/interp"
 
 	"sheaf/render/curve"
@@ -12,7 +14,7 @@ import (
 
 // Sources cited in the tables below.
 const (
-	srcWorked = "print-facts.md [COMPUTED with gonum FritschButland, agreed to 12 digits by an independent implementation]"
+	srcWorked = "testdata/print-facts.md, Monotone cubic interpolation [COMPUTED with gonum FritschButland, agreed to 12 digits by an independent implementation]"
 	srcGonum  = "gonum.org/v1/gonum/interp v0.17.0 FritschButland Fit/Predict/PredictDerivative [LIB]"
 	srcFC     = "Fritsch & Carlson (1980) SIAM J. Numer. Anal. 17(2):238–246"
 	srcFB     = "Fritsch & Butland (1984) SIAM J. Sci. Stat. Comput. 5(2):300–304"
@@ -21,9 +23,7 @@ const (
 func mustMap(t testing.TB, dx0, dx1, dy0, dy1, px0, px1, py0, py1 float64) curve.Map {
 	t.Helper()
 	m, err := curve.NewMap(dx0, dx1, dy0, dy1, px0, px1, py0, py1)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	return m
 }
 
@@ -54,12 +54,8 @@ func TestSlopesWorked(t *testing.T) {
 	for _, tt := range tests {
 		t.Run(tt.name, func(t *testing.T) {
 			got, err := curve.Slopes(tt.xs, tt.ys, nil)
-			if err != nil {
-				t.Fatal(err)
-			}
-			if len(got) != len(tt.want) {
-				t.Fatalf("len = %d, want %d", len(got), len(tt.want))
-			}
+			require.NoError(t, err)
+			require.False(t, len(got) != len(tt.want), "len = %d, want %d", len(got), len(tt.want))
 			for i := range got {
 				if math.Abs(got[i]-tt.want[i]) > tt.tol {
 					t.Errorf("d[%d] = %.9g, want %.9g ± %g (%s)", i, got[i], tt.want[i], tt.tol, tt.source)
@@ -96,17 +92,11 @@ func TestYAtWorked(t *testing.T) {
 	for name, m := range maps {
 		for _, tt := range tests {
 			runs, err := curve.Build(tt.xs, tt.ys, m, nil)
-			if err != nil {
-				t.Fatal(err)
-			}
-			if len(runs) != 1 {
-				t.Fatalf("%s: %d runs, want 1", name, len(runs))
-			}
+			require.NoError(t, err)
+			require.False(t, len(runs) != 1, "%s: %d runs, want 1", name, len(runs))
 			got, ok := runs[0].YAt(m.X(tt.x))
 			_, sy := m.Scale()
-			if !ok || math.Abs(got-m.Y(tt.want)) > tt.tol*math.Abs(sy) {
-				t.Errorf("%s: y(%v) = %.9g (plot), want %.9g (%s)", name, tt.x, got, m.Y(tt.want), tt.source)
-			}
+			assert.False(t, !ok || math.Abs(got-m.Y(tt.want)) > tt.tol*math.Abs(sy), "%s: y(%v) = %.9g (plot), want %.9g (%s)", name, tt.x, got, m.Y(tt.want), tt.source)
 		}
 	}
 }
@@ -142,13 +132,9 @@ func TestAgainstGonum(t *testing.T) {
 		n := 2 + r.IntN(60)
 		xs, ys := randomSeries(r, n, trial%2 == 0)
 		var ref interp.FritschButland
-		if err := ref.Fit(xs, ys); err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, ref.Fit(xs, ys))
 		d, err := curve.Slopes(xs, ys, nil)
-		if err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, err)
 		for i, x := range xs {
 			want := ref.PredictDerivative(x)
 			if math.Abs(d[i]-want) > tol*max(1, math.Abs(want)) {
@@ -157,21 +143,15 @@ func TestAgainstGonum(t *testing.T) {
 		}
 		b.Reset()
 		runs, err := b.Build(xs, ys, m, nil)
-		if err != nil {
-			t.Fatal(err)
-		}
-		if len(runs) != 1 || runs[0].Points() != n {
-			t.Fatalf("trial %d: runs %+v, want one run of %d points", trial, runs, n)
-		}
+		require.NoError(t, err)
+		require.False(t, len(runs) != 1 || runs[0].Points() != n, "trial %d: runs %+v, want one run of %d points", trial, runs, n)
 		for k := 0; k+1 < n; k++ {
 			h := xs[k+1] - xs[k]
 			for j := 1; j <= 9; j++ {
 				x := xs[k] + float64(j)*h/10
 				got, ok := runs[0].YAt(m.X(x))
 				want := m.Y(ref.Predict(x))
-				if !ok || math.Abs(got-want) > tol*math.Abs(sy)*max(1, math.Abs(ref.Predict(x))) {
-					t.Fatalf("trial %d: y(%v) = %.17g, gonum %.17g (%s)", trial, x, got, want, srcGonum)
-				}
+				require.False(t, !ok || math.Abs(got-want) > tol*math.Abs(sy)*max(1, math.Abs(ref.Predict(x))), "trial %d: y(%v) = %.17g, gonum %.17g (%s)", trial, x, got, want, srcGonum)
 			}
 		}
 	}
@@ -231,9 +211,7 @@ func TestMonotoneOnMonotoneData(t *testing.T) {
 			}
 		}
 		d, err := curve.Slopes(xs, ys, nil)
-		if err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, err)
 		for k := 0; k+1 < n; k++ {
 			delta := (ys[k+1] - ys[k]) / (xs[k+1] - xs[k])
 			if delta == 0 {
@@ -243,9 +221,7 @@ func TestMonotoneOnMonotoneData(t *testing.T) {
 				continue
 			}
 			a, b := d[k]/delta, d[k+1]/delta
-			if !(a*a+b*b <= 9 || inRegionM(a, b)) {
-				t.Fatalf("trial %d: interval %d: (α, β) = (%v, %v) outside M (%s)", trial, k, a, b, srcFC)
-			}
+			require.True(t, (a*a+b*b <= 9 || inRegionM(a, b)), "trial %d: interval %d: (α, β) = (%v, %v) outside M (%s)", trial, k, a, b, srcFC)
 			// Fritsch–Butland slopes lie in [0, 3] × [0, 3], which puts the
 			// Bézier control points between the end heights.
 			if a < 0 || b < 0 || a > 3+1e-12 || b > 3+1e-12 {
@@ -255,16 +231,12 @@ func TestMonotoneOnMonotoneData(t *testing.T) {
 		// Independently of the region test: sampled values must move
 		// one way only.
 		runs, err := curve.Build(xs, ys, m, nil)
-		if err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, err)
 		for k, bz := range runs[0].Beziers {
 			prev := bz.P0.Y
 			for j := 1; j <= 64; j++ {
 				y := bz.At(float64(j) / 64).Y
-				if dir*(y-prev) < -1e-12*max(1, math.Abs(y)) {
-					t.Fatalf("trial %d: segment %d turns back at t=%v: %v after %v (%s)", trial, k, float64(j)/64, y, prev, srcFC)
-				}
+				require.False(t, dir*(y-prev) < -1e-12*max(1, math.Abs(y)), "trial %d: segment %d turns back at t=%v: %v after %v (%s)", trial, k, float64(j)/64, y, prev, srcFC)
 				prev = y
 			}
 		}
@@ -285,9 +257,7 @@ func TestStaysBetweenKnots(t *testing.T) {
 		xs, ys := randomSeries(r, 2+r.IntN(100), trial%3 != 0)
 		for mi, m := range maps {
 			runs, err := curve.Build(xs, ys, m, nil)
-			if err != nil {
-				t.Fatal(err)
-			}
+			require.NoError(t, err)
 			for k, bz := range runs[0].Beziers {
 				lo, hi := min(bz.P0.Y, bz.P3.Y), max(bz.P0.Y, bz.P3.Y)
 				slack := 4 * ulp(max(math.Abs(lo), math.Abs(hi))) // rounding in At
@@ -312,13 +282,9 @@ func TestNaturalCubicOvershoots(t *testing.T) {
 	xs := []float64{1, 2, 3, 4, 5}
 	ys := []float64{0, 0, 1, 4, 4}
 	var nc interp.NaturalCubic
-	if err := nc.Fit(xs, ys); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, nc.Fit(xs, ys))
 	runs, err := curve.Build(xs, ys, identity(t), nil)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	lowNC, highNC := math.Inf(1), math.Inf(-1)
 	for k := 0; k+1 < len(xs); k++ {
 		lo, hi := min(ys[k], ys[k+1]), max(ys[k], ys[k+1])

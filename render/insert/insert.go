@@ -15,6 +15,7 @@
 package insert
 
 import (
+	"errors"
 	"fmt"
 	"image/color"
 	"math"
@@ -134,9 +135,66 @@ func New(s *specs.Spec, in *specs.Insert, out *specs.Output, data *series.Set, p
 	from, to := float64(data.Span.From), float64(data.Span.To)
 	g.stops = pal.Stops(from, to, 0)
 	if err := g.layout(); err != nil {
+		var nr *noRoom
+		if errors.As(err, &nr) {
+			return nil, fmt.Errorf("%s: %s", where(), nr.advice(g))
+		}
 		return nil, fmt.Errorf("%s: %v", where(), err)
 	}
 	return g, nil
+}
+
+// noRoom is layout's error when the plot is under its floor; New then
+// measures how much more room the insert needs (README promises it).
+type noRoom struct {
+	plot string // "the plot would be W × H[, n rows h tall each]"
+	rows bool
+}
+
+func (e *noRoom) Error() string { return e.plot + "; make the insert larger or its title shorter" }
+
+// advice says how much wider and taller g must be for its layout to fit.
+// The shortfall is not the plot's: the padding grows with the size and
+// the title and notes rewrap with the width, so it is measured by laying
+// the insert out again, bisecting first the width (with room to spare in
+// height), then the height at that width.
+func (e *noRoom) advice(g *Graphic) string {
+	fits := func(w, h float64) bool {
+		c := *g // layout writes only g's own fields
+		c.w, c.h = w, h
+		return c.layout() == nil
+	}
+	tall := 4*(g.w+g.h) + 1000
+	least := func(ok func(extra float64) bool) (float64, bool) {
+		if ok(0) {
+			return 0, true
+		}
+		lo, hi := 0.0, 1.0
+		for !ok(hi) {
+			if hi > 1e5 { // 35 m: something other than room is wrong
+				return 0, false
+			}
+			lo, hi = hi, hi*2
+		}
+		for hi-lo > 0.005 { // 0.005 pt: under the 0.01 px the message shows
+			if mid := (lo + hi) / 2; ok(mid) {
+				hi = mid
+			} else {
+				lo = mid
+			}
+		}
+		return hi, true
+	}
+	dw, okW := least(func(x float64) bool { return fits(g.w+x, g.h+tall) })
+	dh, okH := least(func(x float64) bool { return fits(g.w+dw, g.h+x) })
+	if !okW || !okH {
+		return e.Error()
+	}
+	more := g.Output.Describe(specs.Length(dw)) + " × " + g.Output.Describe(specs.Length(dh)) + " more"
+	if e.rows {
+		more = g.Output.Describe(specs.Length(dw)) + " wider and " + g.Output.Describe(specs.Length(dh)) + " taller"
+	}
+	return e.plot + "; make the insert larger (at least about " + more + ") or its title shorter"
 }
 
 // Size is the insert's size in points.
@@ -292,9 +350,8 @@ func (g *Graphic) layout() error {
 	g.plot = rectPt{X0: g.pad + left + ts*0.6, Y0: bottom, X1: g.w - g.pad - right, Y1: top - ts*lead - ts*0.7}
 	floorW, floorH := 6*ls, 4*ls
 	if g.plot.W() < floorW || g.plot.H() < floorH {
-		return fmt.Errorf("the plot would be %s × %s; make the insert larger (at least about %s × %s more) or its title shorter",
-			g.Output.Describe(specs.Length(math.Max(g.plot.W(), 0))), g.Output.Describe(specs.Length(math.Max(g.plot.H(), 0))),
-			g.Output.Describe(specs.Length(math.Max(0, floorW-g.plot.W()))), g.Output.Describe(specs.Length(math.Max(0, floorH-g.plot.H()))))
+		return &noRoom{plot: fmt.Sprintf("the plot would be %s × %s",
+			g.Output.Describe(specs.Length(math.Max(g.plot.W(), 0))), g.Output.Describe(specs.Length(math.Max(g.plot.H(), 0))))}
 	}
 
 	lw := g.Output.Line.Pt()
@@ -365,11 +422,9 @@ func (g *Graphic) layoutRows(top, bottom float64) error {
 	stripH := (y1 - bottom - float64(n-1)*gap) / float64(n)
 	floorW, floorH := 6*ls, 2.2*ls
 	if x1-x0 < floorW || stripH < floorH {
-		needH := math.Max(0, floorH*float64(n)+float64(n-1)*gap-(y1-bottom))
-		return fmt.Errorf("the plot would be %s × %s, %d rows %s tall each; make the insert larger (at least about %s wider and %s taller) or its title shorter",
+		return &noRoom{rows: true, plot: fmt.Sprintf("the plot would be %s × %s, %d rows %s tall each",
 			g.Output.Describe(specs.Length(math.Max(x1-x0, 0))), g.Output.Describe(specs.Length(math.Max(y1-bottom, 0))), n,
-			g.Output.Describe(specs.Length(math.Max(stripH, 0))),
-			g.Output.Describe(specs.Length(math.Max(0, floorW-(x1-x0)))), g.Output.Describe(specs.Length(needH)))
+			g.Output.Describe(specs.Length(math.Max(stripH, 0))))}
 	}
 	g.plot = rectPt{X0: x0, Y0: bottom, X1: x1, Y1: y1}
 	lw := g.Output.Line.Pt()

@@ -9,6 +9,8 @@ import (
 	"sort"
 	"testing"
 
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
 	"github.com/tdewolff/canvas"
 
 	"sheaf/layout/fonts"
@@ -79,9 +81,7 @@ func TestSpreadProperties(t *testing.T) {
 			want[i] = lo - 10 + rnd()*(hi-lo+20)
 		}
 		got, err := Spread(want, gap, lo, hi)
-		if err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, err)
 		idx := make([]int, n)
 		for i := range idx {
 			idx[i] = i
@@ -92,9 +92,7 @@ func TestSpreadProperties(t *testing.T) {
 			if y < lo-1e-9 || y > hi+1e-9 {
 				t.Fatalf("case %d: %v placed outside [%v, %v]: %v", k, want, lo, hi, got)
 			}
-			if j > 0 && y-got[idx[j-1]] < gap-1e-9 {
-				t.Fatalf("case %d: labels %v closer than %v (or out of order): %v", k, want, gap, got)
-			}
+			require.False(t, j > 0 && y-got[idx[j-1]] < gap-1e-9, "case %d: labels %v closer than %v (or out of order): %v", k, want, gap, got)
 		}
 		cost := func(ys []float64) float64 {
 			s := 0.0
@@ -121,9 +119,7 @@ func TestSpreadProperties(t *testing.T) {
 						ok = false
 					}
 				}
-				if ok && cost(alt) < best-1e-9 {
-					t.Fatalf("case %d: want %v gap %v: %v costs %v, moving gives %v at %v", k, want, gap, got, best, cost(alt), alt)
-				}
+				require.False(t, ok && cost(alt) < best-1e-9, "case %d: want %v gap %v: %v costs %v, moving gives %v at %v", k, want, gap, got, best, cost(alt), alt)
 			}
 		}
 	}
@@ -182,17 +178,11 @@ func testInsertAs(t testing.TB, kind specs.Kind, w, h specs.Length, compare spec
 	s.Palette.Paper = specs.Color{Space: specs.SpaceSRGB, V: [3]float64{1, 1, 1}}
 	in := &specs.Insert{Name: "cmp", Output: "web", Size: specs.Size{W: w, H: h}, Compare: compare}
 	fs, err := fonts.Load(s, &out)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	pal, err := palette.NewScale("test", palette.DefaultAnchors(1900, 1905), nil)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	g, err := New(s, in, &out, testSet(), pal, fs)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	return g
 }
 
@@ -201,31 +191,19 @@ func testInsertAs(t testing.TB, kind specs.Kind, w, h specs.Length, compare spec
 func TestComparisonLabels(t *testing.T) {
 	g := testInsert(t, specs.Screen, specs.Length(600*0.75), specs.Length(360*0.75))
 	ls := g.Labels()
-	if len(ls) != 4 {
-		t.Fatalf("%d labels, want 4", len(ls))
-	}
+	require.False(t, len(ls) != 4, "%d labels, want 4", len(ls))
 	styles := map[string]bool{}
 	for i, a := range ls {
 		styles[a.Style.Name] = true
-		if a.Y < g.plot.Y0 || a.Y > g.plot.Y1 {
-			t.Errorf("label %q at %v, outside the plot %v–%v", a.Term, a.Y, g.plot.Y0, g.plot.Y1)
-		}
+		assert.False(t, a.Y < g.plot.Y0 || a.Y > g.plot.Y1, "label %q at %v, outside the plot %v–%v", a.Term, a.Y, g.plot.Y0, g.plot.Y1)
 		for _, b := range ls[i+1:] {
-			if math.Abs(a.Y-b.Y) < a.Height-1e-9 {
-				t.Errorf("labels %q and %q overlap: centres %v and %v, line height %v", a.Term, b.Term, a.Y, b.Y, a.Height)
-			}
+			assert.False(t, math.Abs(a.Y-b.Y) < a.Height-1e-9, "labels %q and %q overlap: centres %v and %v, line height %v", a.Term, b.Term, a.Y, b.Y, a.Height)
 		}
 	}
-	if len(styles) != 4 {
-		t.Errorf("line styles %v; want four different", styles)
-	}
-	if g.YMax() != 4 {
-		t.Errorf("shared y-range top %v, want 4 (the largest value of any term, a round number)", g.YMax())
-	}
+	assert.False(t, len(styles) != 4, "line styles %v; want four different", styles)
+	assert.False(t, g.YMax() != 4, "shared y-range top %v, want 4 (the largest value of any term, a round number)", g.YMax())
 	title, desc := g.Describe()
-	if title != "telegraph, telephone, wireless and Maßstab" || !bytes.Contains([]byte(desc), []byte(`"wireless" (dotted line)`)) {
-		t.Errorf("Describe() = %q, %q", title, desc)
-	}
+	assert.False(t, title != "telegraph, telephone, wireless and Maßstab" || !bytes.Contains([]byte(desc), []byte(`"wireless" (dotted line)`)), "Describe() = %q, %q", title, desc)
 }
 
 // TestNiceTicks: steps of 1, 2, 2.5 or 5 × 10^k (common practice for
@@ -237,25 +215,24 @@ func TestNiceTicks(t *testing.T) {
 		n    int
 	}{{1, 1, 5}, {4, 4, 5}, {0.37, 0.4, 5}, {137, 150, 4}, {9.5, 10, 5}} {
 		ticks, top := niceTicks(c.peak, 4)
-		if math.Abs(top-c.top) > 1e-9 || len(ticks) != c.n {
-			t.Errorf("niceTicks(%v) = %v, top %v; want top %v and %d ticks", c.peak, ticks, top, c.top, c.n)
-		}
+		assert.False(t, math.Abs(top-c.top) > 1e-9 || len(ticks) != c.n, "niceTicks(%v) = %v, top %v; want top %v and %d ticks", c.peak, ticks, top, c.top, c.n)
 	}
 }
 
 // TestTooSmall: an insert with no room for a plot is an error that says
-// how much more it needs.
+// how much more it needs (README, Inserts); TestTooSmallSaysHowMuchMore
+// checks the amounts are the real shortfall.
 func TestTooSmall(t *testing.T) {
 	out := specs.DefaultOutput("web", specs.Screen)
 	s := &specs.Spec{Title: "T"}
 	in := &specs.Insert{Name: "tiny", Output: "web", Size: specs.Size{W: 60, H: 40}, Compare: specs.CompareOverlay}
-	fs, _ := fonts.Load(s, &out)
-	pal, _ := palette.NewScale("test", palette.DefaultAnchors(1900, 1905), nil)
-	_, err := New(s, in, &out, testSet(), pal, fs)
-	if err == nil {
-		t.Fatal("a 80 × 53 px comparison should not fit")
-	}
-	t.Log(err)
+	fs, err := fonts.Load(s, &out)
+	require.NoError(t, err)
+	pal, err := palette.NewScale("test", palette.DefaultAnchors(1900, 1905), nil)
+	require.NoError(t, err)
+	_, err = New(s, in, &out, testSet(), pal, fs)
+	require.Error(t, err, "a 80 × 53 px comparison should not fit")
+	assert.Regexp(t, `insert "tiny": the plot would be 0 px × 0 px; make the insert larger \(at least about [0-9.]+ px × [0-9.]+ px more\) or its title shorter$`, err.Error())
 }
 
 // TestDrawSVGAndRaster draws the comparison into the SVG writer and the
@@ -264,12 +241,8 @@ func TestDrawSVGAndRaster(t *testing.T) {
 	g := testInsert(t, specs.Screen, specs.Length(600*0.75), specs.Length(360*0.75))
 	w, h := g.Size()
 	doc, err := svg.New(w, h, svg.Options{Title: "t"})
-	if err != nil {
-		t.Fatal(err)
-	}
-	if err := g.Draw(canvas.NewContext(doc)); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
+	require.NoError(t, g.Draw(canvas.NewContext(doc)))
 	var buf bytes.Buffer
 	if _, err := doc.WriteTo(&buf); err != nil {
 		t.Fatal(err)
@@ -282,9 +255,7 @@ func TestDrawSVGAndRaster(t *testing.T) {
 		}
 	}
 	img, err := raster.Draw(w, h, 96, g.Paper(), func(ctx *canvas.Context) error { return g.Draw(ctx) })
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	if dir := os.Getenv("SHEAF_KEEP"); dir != "" {
 		os.WriteFile(filepath.Join(dir, "insert.svg"), buf.Bytes(), 0o644)
 		f, _ := os.Create(filepath.Join(dir, "insert.png"))

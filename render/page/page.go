@@ -21,6 +21,7 @@ import (
 	"sheaf/palette"
 	"sheaf/render/curve"
 	"sheaf/render/draw"
+	"sheaf/render/slug"
 	"sheaf/specs"
 	"sheaf/specs/series"
 )
@@ -41,6 +42,22 @@ type Feature struct {
 
 	// intervals memoizes the band's Poisson intervals (nil: no band).
 	intervals *series.Intervals
+	slugsOnce sync.Once
+	slugs     []string
+}
+
+// Slug is the name of item's term in ids and file names: slug.Of made
+// unique over the feature's terms in panel order. It does not depend on
+// where the panel is, so a reflow leaves a term's SVG ids alone.
+func (f *Feature) Slug(item int) string {
+	f.slugsOnce.Do(func() {
+		terms := make([]string, len(f.Data.Series))
+		for i := range f.Data.Series {
+			terms[i] = f.Data.Series[i].Term
+		}
+		f.slugs = slug.All(terms)
+	})
+	return f.slugs[item]
 }
 
 // NewFeature computes what all pages share. Labels are fitted when first
@@ -137,7 +154,12 @@ func (f *Feature) Rule() float64 {
 
 // Draw draws page index i of the plan.
 // The context's units are canvas's millimetres.
-func (f *Feature) Draw(ctx *canvas.Context, i int) error {
+func (f *Feature) Draw(ctx *canvas.Context, i int) error { return f.DrawSome(ctx, i, nil) }
+
+// DrawSome is Draw with only the panels for which keep is true (all when
+// keep is nil), and everything else on the page: a renderer that shows
+// part of a tall page need not stroke the panels outside it.
+func (f *Feature) DrawSome(ctx *canvas.Context, i int, keep func(layout.Panel) bool) error {
 	p := pen{ctx: ctx, fonts: f.Fonts}
 	if i < 0 || i >= len(f.Plan.Pages) {
 		return fmt.Errorf("page %d does not exist (the output has %d)", i+1, len(f.Plan.Pages))
@@ -153,6 +175,9 @@ func (f *Feature) Draw(ctx *canvas.Context, i int) error {
 	}
 	var b curve.Builder
 	for _, pn := range pg.Panels {
+		if keep != nil && !keep(pn) {
+			continue
+		}
 		if err := f.groupedPanel(p, &b, pn); err != nil {
 			return err
 		}
@@ -177,7 +202,7 @@ func (f *Feature) groupedPanel(p pen, b *curve.Builder, pn layout.Panel) error {
 	g, grouping := p.ctx.Renderer.(Grouper)
 	if grouping {
 		title, desc := f.Describe(pn.Item)
-		g.BeginGroup(fmt.Sprintf("panel-%d", pn.Item+1), title, desc)
+		g.BeginGroup("panel-"+f.Slug(pn.Item), title, desc)
 	}
 	err := f.panel(p, b, pn)
 	if grouping {

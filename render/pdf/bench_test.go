@@ -6,6 +6,7 @@ import (
 	"math/rand"
 	"testing"
 
+	"github.com/stretchr/testify/require"
 	"github.com/tdewolff/canvas"
 	canvaspdf "github.com/tdewolff/canvas/renderers/pdf"
 	"golang.org/x/image/font/gofont/goregular"
@@ -106,13 +107,9 @@ func BenchmarkDocument(b *testing.B) {
 		for b.Loop() {
 			w := NewWriter(io.Discard, Options{Title: "bench", Date: testDate})
 			for p := 0; p < pagesNeeded(); p++ {
-				if err := w.AddPage(PageSetup{Boxes: benchBoxes, Marks: &MarkOptions{}}, d.drawBenchPage(p*benchPerPage)); err != nil {
-					b.Fatal(err)
-				}
+				require.NoError(b, w.AddPage(PageSetup{Boxes: benchBoxes, Marks: &MarkOptions{}}, d.drawBenchPage(p*benchPerPage)))
 			}
-			if err := w.Close(); err != nil {
-				b.Fatal(err)
-			}
+			require.NoError(b, w.Close())
 		}
 	})
 	b.Run("canvas", func(b *testing.B) {
@@ -125,14 +122,10 @@ func BenchmarkDocument(b *testing.B) {
 					r.NewPage(W, H)
 				}
 				c := canvas.New(W, H)
-				if err := d.drawBenchPage(p * benchPerPage)(c); err != nil {
-					b.Fatal(err)
-				}
+				require.NoError(b, d.drawBenchPage(p*benchPerPage)(c))
 				c.RenderTo(r)
 			}
-			if err := r.Close(); err != nil {
-				b.Fatal(err)
-			}
+			require.NoError(b, r.Close())
 		}
 	})
 }

@@ -6,6 +6,7 @@ import (
 
 	"github.com/go-fonts/dejavu/dejavusanscondensed"
 	"github.com/go-fonts/latin-modern/lmsans10regular"
+	"github.com/stretchr/testify/require"
 )
 
 // BenchmarkDocumentFonts is BenchmarkDocument's 4,000-chart document set
@@ -25,13 +26,9 @@ func BenchmarkDocumentFonts(b *testing.B) {
 				var buf bytes.Buffer
 				w := NewWriter(&buf, Options{Title: "bench", Date: testDate})
 				for p := 0; p < pagesNeeded(); p++ {
-					if err := w.AddPage(PageSetup{Boxes: benchBoxes, Marks: &MarkOptions{}}, d.drawBenchPage(p*benchPerPage)); err != nil {
-						b.Fatal(err)
-					}
+					require.NoError(b, w.AddPage(PageSetup{Boxes: benchBoxes, Marks: &MarkOptions{}}, d.drawBenchPage(p*benchPerPage)))
 				}
-				if err := w.Close(); err != nil {
-					b.Fatal(err)
-				}
+				require.NoError(b, w.Close())
 				size = buf.Len()
 			}
 			b.ReportMetric(float64(size)/float64(pagesNeeded()), "bytes/page")

@@ -32,22 +32,14 @@ import (
 
 func moduleFile(t testing.TB, module, rel string) []byte {
 	t.Helper()
-	out, err := exec.Command("go", "list", "-m", "-f", "{{.Dir}}", module).Output()
-	if err != nil || strings.TrimSpace(string(out)) == "" {
-		t.Skipf("module %s not in the module cache: %v", module, err)
-	}
-	b, err := os.ReadFile(filepath.Join(strings.TrimSpace(string(out)), rel))
-	require.NoError(t, err)
-	return b
+	return tooltest.ModuleFile(t, module, rel)
 }
 
 func debianFile(t testing.TB, path, pkg string) []byte {
 	t.Helper()
 	b, err := os.ReadFile(path)
 	if err != nil {
-		if os.Getenv(tooltest.EnvRequire) == "1" {
-			t.Fatalf("%s not found; install Debian package %s (required because %s=1)", path, pkg, tooltest.EnvRequire)
-		}
+		require.False(t, os.Getenv(tooltest.EnvRequire) == "1", "%s not found; install Debian package %s (required because %s=1)", path, pkg, tooltest.EnvRequire)
 		t.Skipf("%s not found; install Debian package %s", path, pkg)
 	}
 	return b

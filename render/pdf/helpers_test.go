@@ -6,6 +6,7 @@ import (
 	"testing"
 	"time"
 
+	"github.com/stretchr/testify/require"
 	"github.com/tdewolff/canvas"
 	"golang.org/x/image/font/gofont/gobold"
 	"golang.org/x/image/font/gofont/goregular"
@@ -18,9 +19,7 @@ var testDate = time.Date(2024, 5, 17, 9, 30, 0, 0, time.UTC)
 func loadFont(t testing.TB, b []byte) *canvas.Font {
 	t.Helper()
 	f, err := canvas.LoadFont(b, 0, canvas.FontRegular)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	return f
 }
 
@@ -162,12 +161,8 @@ func writeDoc(t testing.TB, opts Options, pages int) []byte {
 	w := NewWriter(&buf, opts)
 	for i := 0; i < pages; i++ {
 		setup := PageSetup{Boxes: a5Boxes(), Marks: &MarkOptions{}, Slug: "job demo · sheet.pdf · page " + string(rune('1'+i)) + " · 2024-05-17"}
-		if err := w.AddPage(setup, testDrawing(reg, bold)); err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, w.AddPage(setup, testDrawing(reg, bold)))
 	}
-	if err := w.Close(); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, w.Close())
 	return buf.Bytes()
 }

@@ -12,6 +12,9 @@ import (
 	"strings"
 	"testing"
 
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
+
 	"sheaf/render/tooltest"
 )
 
@@ -27,9 +30,7 @@ type labRef struct {
 func loadLabRefs(t *testing.T) []labRef {
 	t.Helper()
 	raw, err := os.ReadFile("testdata/srgb_reference_d50.csv")
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	var lines []string
 	for _, l := range strings.Split(string(raw), "\n") {
 		if l != "" && !strings.HasPrefix(l, "#") {
@@ -37,18 +38,14 @@ func loadLabRefs(t *testing.T) []labRef {
 		}
 	}
 	recs, err := csv.NewReader(strings.NewReader(strings.Join(lines, "\n"))).ReadAll()
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	col := map[string]int{}
 	for i, h := range recs[0] {
 		col[h] = i
 	}
 	f := func(r []string, k string) float64 {
 		v, err := strconv.ParseFloat(r[col[k]], 64)
-		if err != nil {
-			t.Fatalf("%s in %v: %v", k, r, err)
-		}
+		require.NoError(t, err, "%s in %v", k, r)
 		return v
 	}
 	var out []labRef
@@ -74,9 +71,7 @@ func TestICCProfileWithLittleCMS(t *testing.T) {
 	tooltest.Require(t, "transicc", "liblcms2-utils")
 	path := writeTemp(t, "sheaf-srgb.icc", SRGBProfile())
 	refs := loadLabRefs(t)
-	if len(refs) < 8 {
-		t.Fatalf("only %d reference rows", len(refs))
-	}
+	require.False(t, len(refs) < 8, "only %d reference rows", len(refs))
 	var in bytes.Buffer
 	for _, r := range refs {
 		var c [3]uint64
@@ -97,9 +92,7 @@ func TestICCProfileWithLittleCMS(t *testing.T) {
 	// transicc prints its banner on stderr and may leave the last line
 	// without a newline; take every run of three numbers in order.
 	fields := strings.Fields(out.String())
-	if len(fields) != 3*len(refs) {
-		t.Fatalf("transicc gave %d numbers for %d colours:\n%s", len(fields), len(refs), out.String())
-	}
+	require.False(t, len(fields) != 3*len(refs), "transicc gave %d numbers for %d colours:\n%s", len(fields), len(refs), out.String())
 	for i, r := range refs {
 		tol := r.tol
 		if r.source == "neutral" {
@@ -107,9 +100,7 @@ func TestICCProfileWithLittleCMS(t *testing.T) {
 		}
 		for j, want := range []float64{r.L, r.a, r.b} {
 			got, err := strconv.ParseFloat(fields[3*i+j], 64)
-			if err != nil {
-				t.Fatal(err)
-			}
+			require.NoError(t, err)
 			if math.Abs(got-want) > tol {
 				t.Errorf("%s %s (%s): Lab[%d] = %.4f, want %.4f ± %g", r.name, r.hex, r.source, j, got, want, tol)
 			}
@@ -121,9 +112,7 @@ func TestICCProfileWithLittleCMS(t *testing.T) {
 // defines, and that the profile is the same bytes every time.
 func TestICCProfileStructure(t *testing.T) {
 	p := SRGBProfile()
-	if !bytes.Equal(p, SRGBProfile()) {
-		t.Fatal("profile bytes differ between calls")
-	}
+	require.True(t, bytes.Equal(p, SRGBProfile()), "profile bytes differ between calls")
 	be := binary.BigEndian
 	checks := []struct {
 		what string
@@ -138,9 +127,7 @@ func TestICCProfileStructure(t *testing.T) {
 		{"length multiple of 4 (§7.1.2)", len(p)%4 == 0},
 	}
 	for _, c := range checks {
-		if !c.ok {
-			t.Errorf("ICC header: %s", c.what)
-		}
+		assert.True(t, c.ok, "ICC header: %s", c.what)
 	}
 	q := append([]byte(nil), p...)
 	clear(q[44:48])

@@ -9,6 +9,8 @@ import (
 	"strconv"
 	"testing"
 
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
 	"github.com/tdewolff/canvas"
 )
 
@@ -18,13 +20,9 @@ func pageContent(t *testing.T, p *EncodedPage) string {
 		return string(p.Content)
 	}
 	r, err := zlib.NewReader(bytes.NewReader(p.Content))
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	b, err := io.ReadAll(r)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	return string(b)
 }
 
@@ -36,21 +34,13 @@ func pageContent(t *testing.T, p *EncodedPage) string {
 func TestCropMarks(t *testing.T) {
 	b := a5Boxes()
 	p, err := EncodePage(PageSetup{Boxes: b, Marks: &MarkOptions{}, Slug: "job 7 · page 1/1"}, nil)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	c := pageContent(t, p)
-	if !regexp.MustCompile(`/CS1 CS 1 SC`).MatchString(c) || !regexp.MustCompile(`/CS1 cs 1 sc`).MatchString(c) {
-		t.Error("marks are not in the registration colour /CS1 at tint 1")
-	}
-	if !regexp.MustCompile(`(?m)^0\.25 w 0 J`).MatchString(c) {
-		t.Error("marks are not 0.25 pt with butt caps")
-	}
+	assert.False(t, !regexp.MustCompile(`/CS1 CS 1 SC`).MatchString(c) || !regexp.MustCompile(`/CS1 cs 1 sc`).MatchString(c), "marks are not in the registration colour /CS1 at tint 1")
+	assert.True(t, regexp.MustCompile(`(?m)^0\.25 w 0 J`).MatchString(c), "marks are not 0.25 pt with butt caps")
 	seg := regexp.MustCompile(`([-\d.]+) ([-\d.]+) m ([-\d.]+) ([-\d.]+) l S`)
 	ms := seg.FindAllStringSubmatch(c, -1)
-	if len(ms) != 8 {
-		t.Fatalf("%d mark segments, want 8 (two per trim corner)", len(ms))
-	}
+	require.False(t, len(ms) != 8, "%d mark segments, want 8 (two per trim corner)", len(ms))
 	const mm = 72 / 25.4
 	onTrimLine := map[float64]bool{}
 	for _, m := range ms {
@@ -60,9 +50,7 @@ func TestCropMarks(t *testing.T) {
 		}
 		x0, y0, x1, y1 := v[0], v[1], v[2], v[3]
 		length := math.Hypot(x1-x0, y1-y0)
-		if math.Abs(length-6*mm) > 0.002 {
-			t.Errorf("mark %v is %.3f pt long, want 6 mm = %.3f pt", v, length, 6*mm)
-		}
+		assert.InDelta(t, 6*mm, length, 0.002, "mark %v is %.3f pt long, want 6 mm = %.3f pt", v, length, 6*mm)
 		// a mark lies on a trim line and wholly outside the bleed
 		outside := func(x, y float64) bool {
 			return x < b.Bleed.X0 || x > b.Bleed.X1 || y < b.Bleed.Y0 || y > b.Bleed.Y1
@@ -70,13 +58,9 @@ func TestCropMarks(t *testing.T) {
 		inside := func(x, y float64) bool {
 			return x >= b.Media.X0 && x <= b.Media.X1 && y >= b.Media.Y0 && y <= b.Media.Y1
 		}
-		if !outside(x0, y0) || !outside(x1, y1) || !inside(x0, y0) || !inside(x1, y1) {
-			t.Errorf("mark %v is not between BleedBox and MediaBox", v)
-		}
+		assert.False(t, !outside(x0, y0) || !outside(x1, y1) || !inside(x0, y0) || !inside(x1, y1), "mark %v is not between BleedBox and MediaBox", v)
 		near := math.Min(dist(x0, y0, b.Bleed), dist(x1, y1, b.Bleed))
-		if math.Abs(near-1*mm) > 0.002 {
-			t.Errorf("mark %v starts %.3f pt from the bleed, want 1 mm", v, near)
-		}
+		assert.InDelta(t, 1*mm, near, 0.002, "mark %v starts %.3f pt from the bleed, want 1 mm", v, near)
 		if x0 == x1 {
 			onTrimLine[x0] = true
 		} else {
@@ -84,13 +68,9 @@ func TestCropMarks(t *testing.T) {
 		}
 	}
 	for _, v := range []float64{b.Trim.X0, b.Trim.X1, b.Trim.Y0, b.Trim.Y1} {
-		if !onTrimLine[round3(v)] {
-			t.Errorf("no mark on the trim line at %.3f", v)
-		}
+		assert.True(t, onTrimLine[round3(v)], "no mark on the trim line at %.3f", v)
 	}
-	if !regexp.MustCompile(`> Tj`).MatchString(c) {
-		t.Error("no slug text")
-	}
+	assert.True(t, regexp.MustCompile(`> Tj`).MatchString(c), "no slug text")
 }
 
 // dist is the distance from a point outside r to r.
@@ -104,13 +84,7 @@ func dist(x, y float64, r canvas.Rect) float64 {
 // /All over the ICC space (ISO 32000-1 §8.6.6.4).
 func TestRegistrationColourSpace(t *testing.T) {
 	doc := writeDoc(t, Options{Date: testDate}, 1)
-	if !regexp.MustCompile(`\[/Separation /All \d+ 0 R << /FunctionType 2 /Domain \[0 1\] /C0 \[1 1 1\] /C1 \[0 0 0\] /N 1 >>\]`).Match(doc) {
-		t.Error("no registration colour space Separation /All")
-	}
-	if !regexp.MustCompile(`\[/ICCBased \d+ 0 R\]`).Match(doc) {
-		t.Error("no ICCBased colour space")
-	}
-	if bytes.Contains(doc, []byte("DeviceRGB cs")) || bytes.Contains(doc, []byte(" rg\n")) {
-		t.Error("device colour used")
-	}
+	assert.True(t, regexp.MustCompile(`\[/Separation /All \d+ 0 R << /FunctionType 2 /Domain \[0 1\] /C0 \[1 1 1\] /C1 \[0 0 0\] /N 1 >>\]`).Match(doc), "no registration colour space Separation /All")
+	assert.True(t, regexp.MustCompile(`\[/ICCBased \d+ 0 R\]`).Match(doc), "no ICCBased colour space")
+	assert.False(t, bytes.Contains(doc, []byte("DeviceRGB cs")) || bytes.Contains(doc, []byte(" rg\n")), "device colour used")
 }

@@ -8,6 +8,7 @@ import (
 	"path/filepath"
 	"testing"
 
+	"github.com/stretchr/testify/require"
 	"github.com/tdewolff/canvas"
 	"github.com/tdewolff/canvas/renderers/rasterizer"
 	"golang.org/x/image/font/gofont/gobold"
@@ -36,12 +37,8 @@ func TestPixelsMatchCanvasRasterizer(t *testing.T) {
 
 	var buf bytes.Buffer
 	w := NewWriter(&buf, Options{Title: "pixels", Date: testDate})
-	if err := w.AddPage(PageSetup{Boxes: a5Boxes()}, testDrawing(reg, bold)); err != nil {
-		t.Fatal(err)
-	}
-	if err := w.Close(); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, w.AddPage(PageSetup{Boxes: a5Boxes()}, testDrawing(reg, bold)))
+	require.NoError(t, w.Close())
 	dir := t.TempDir()
 	pdfPath := filepath.Join(dir, "p.pdf")
 	os.WriteFile(pdfPath, buf.Bytes(), 0o644)
@@ -49,23 +46,17 @@ func TestPixelsMatchCanvasRasterizer(t *testing.T) {
 		t.Fatalf("pdftoppm: %v\n%s", err, out)
 	}
 	f, err := os.Open(filepath.Join(dir, "p.png"))
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	got, err := png.Decode(f)
 	f.Close()
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 
 	b := a5Boxes()
 	c := canvas.New(b.Media.W()*MMPerPt, b.Media.H()*MMPerPt)
 	toPixels := func(c *canvas.Canvas, p canvas.Point) canvas.Point {
 		return canvas.Point{X: p.X * res.DPMM(), Y: (c.H - p.Y) * res.DPMM()}
 	}
-	if err := testDrawingWith(reg, bold, toPixels)(c); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, testDrawingWith(reg, bold, toPixels)(c))
 	want := rasterizer.Draw(c, res, canvas.LinearColorSpace{})
 
 	// ISO 32000-1 §8.5.3.3.3: under the even-odd rule the inner circle
@@ -75,9 +66,7 @@ func TestPixelsMatchCanvasRasterizer(t *testing.T) {
 	if r, g, bl, _ := hole.RGBA(); r>>8 != 0xf4 || g>>8 != 0xef || bl>>8 != 0xe4 {
 		t.Errorf("even-odd ring centre is %v, want the background #f4efe4", hole)
 	}
-	if got.Bounds().Size() != want.Bounds().Size() {
-		t.Fatalf("sizes differ: pdftoppm %v, canvas %v", got.Bounds().Size(), want.Bounds().Size())
-	}
+	require.False(t, got.Bounds().Size() != want.Bounds().Size(), "sizes differ: pdftoppm %v, canvas %v", got.Bounds().Size(), want.Bounds().Size())
 	mean, share := tooltest.CompareImages(got, want, 48)
 	t.Logf("mean abs diff %.3f/255, pixels off by > 48: %.3f %%", mean, 100*share)
 	if mean > 1 || share > 0.01 || os.Getenv("SHEAF_KEEP_PIXELS") == "always" {
@@ -91,9 +80,7 @@ func TestPixelsMatchCanvasRasterizer(t *testing.T) {
 
 func mustCreate(t *testing.T, p string) *os.File {
 	f, err := os.Create(p)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	t.Cleanup(func() { f.Close() })
 	return f
 }

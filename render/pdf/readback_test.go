@@ -10,6 +10,8 @@ import (
 	"strings"
 	"testing"
 
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
 	"github.com/tdewolff/canvas"
 
 	"sheaf/render/tooltest"
@@ -26,34 +28,26 @@ func TestXMPMatchesInfo(t *testing.T) {
 		"<pdf:Producer>sheaf 2.0</pdf:Producer>", "/Producer (sheaf 2.0)", "<pdf:Trapped>False</pdf:Trapped>",
 		`<rdf:li xml:lang="x-default">Words &amp; &lt;years&gt;</rdf:li>`, "/Title (Words & <years>)",
 	} {
-		if !strings.Contains(s, want) {
-			t.Errorf("document lacks %q", want)
-		}
+		assert.True(t, strings.Contains(s, want), "document lacks %q", want)
 	}
 	// Without a printing condition the file is honest RGB: no PDF/X claim
 	// (ISO 15930-7 needs a printing condition's output intent).
 	for _, not := range []string{"pdfxid", "GTS_PDFX", "/OutputIntents"} {
-		if strings.Contains(s, not) {
-			t.Errorf("an RGB document has %q", not)
-		}
+		assert.False(t, strings.Contains(s, not), "an RGB document has %q", not)
 	}
 }
 
 func writeTemp(t *testing.T, name string, b []byte) string {
 	t.Helper()
 	p := filepath.Join(t.TempDir(), name)
-	if err := os.WriteFile(p, b, 0o644); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, os.WriteFile(p, b, 0o644))
 	return p
 }
 
 func run(t *testing.T, name string, args ...string) string {
 	t.Helper()
 	out, err := exec.Command(name, args...).CombinedOutput()
-	if err != nil {
-		t.Fatalf("%s %v: %v\n%s", name, args, err, out)
-	}
+	require.False(t, err != nil, "%s %v: %v\n%s", name, args, err, out)
 	return string(out)
 }
 
@@ -66,9 +60,7 @@ func TestOutsideTools(t *testing.T) {
 	t.Run("qpdf --check", func(t *testing.T) {
 		tooltest.Require(t, "qpdf", "qpdf")
 		out := run(t, "qpdf", "--check", path)
-		if !strings.Contains(out, "No syntax or stream encoding errors") {
-			t.Errorf("qpdf --check:\n%s", out)
-		}
+		assert.True(t, strings.Contains(out, "No syntax or stream encoding errors"), "qpdf --check:\n%s", out)
 	})
 	t.Run("pdfinfo -box", func(t *testing.T) {
 		tooltest.Require(t, "pdfinfo", "poppler-utils")
@@ -91,43 +83,31 @@ func TestOutsideTools(t *testing.T) {
 				}
 			}
 		}
-		if !strings.Contains(out, "Pages:           2") {
-			t.Errorf("pdfinfo pages:\n%s", out)
-		}
+		assert.True(t, strings.Contains(out, "Pages:           2"), "pdfinfo pages:\n%s", out)
 	})
 	t.Run("pdffonts", func(t *testing.T) {
 		tooltest.Require(t, "pdffonts", "poppler-utils")
 		out := run(t, "pdffonts", path)
 		lines := strings.Split(strings.TrimSpace(out), "\n")
-		if len(lines) < 4 {
-			t.Fatalf("pdffonts lists too few fonts:\n%s", out)
-		}
+		require.False(t, len(lines) < 4, "pdffonts lists too few fonts:\n%s", out)
 		tag := regexp.MustCompile(`^[A-Z]{6}\+`)
 		for _, l := range lines[2:] {
 			f := strings.Fields(l)
 			// name type(2 words) encoding emb sub uni object ID
-			if len(f) < 8 || f[len(f)-5] != "yes" || f[len(f)-4] != "yes" || f[len(f)-3] != "yes" {
-				t.Errorf("font not embedded+subset+ToUnicode: %q", l)
-			}
-			if !tag.MatchString(f[0]) {
-				t.Errorf("font name %q lacks a subset tag", f[0])
-			}
+			assert.False(t, len(f) < 8 || f[len(f)-5] != "yes" || f[len(f)-4] != "yes" || f[len(f)-3] != "yes", "font not embedded+subset+ToUnicode: %q", l)
+			assert.True(t, tag.MatchString(f[0]), "font name %q lacks a subset tag", f[0])
 		}
 	})
 	t.Run("gs renders", func(t *testing.T) {
 		tooltest.Require(t, "gs", "ghostscript")
 		out := run(t, "gs", "-q", "-dNOPAUSE", "-dBATCH", "-dSAFER", "-sDEVICE=nullpage", path)
-		if strings.Contains(strings.ToLower(out), "error") || strings.Contains(out, "****") {
-			t.Errorf("ghostscript complained:\n%s", out)
-		}
+		assert.False(t, strings.Contains(strings.ToLower(out), "error") || strings.Contains(out, "****"), "ghostscript complained:\n%s", out)
 	})
 	t.Run("pdftotext", func(t *testing.T) {
 		tooltest.Require(t, "pdftotext", "poppler-utils")
 		out := run(t, "pdftotext", path, "-")
 		for _, want := range []string{"Sheaf of words 1820–2020", "office affine AVATAR", "job demo · sheet.pdf · page 2"} {
-			if !strings.Contains(out, want) {
-				t.Errorf("pdftotext lacks %q:\n%s", want, out)
-			}
+			assert.True(t, strings.Contains(out, want), "pdftotext lacks %q:\n%s", want, out)
 		}
 	})
 }

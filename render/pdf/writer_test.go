@@ -10,6 +10,8 @@ import (
 	"testing"
 	"time"
 
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
 	"github.com/tdewolff/canvas"
 	"golang.org/x/image/font/gofont/gobold"
 )
@@ -39,26 +41,18 @@ func TestDeterministic(t *testing.T) {
 	opts := Options{Title: "Same", Version: "1.0", Date: testDate}
 	a := writeDoc(t, opts, 3)
 	b := writeDoc(t, opts, 3)
-	if !bytes.Equal(a, b) {
-		t.Fatal("two writes of the same drawing differ")
-	}
+	require.True(t, bytes.Equal(a, b), "two writes of the same drawing differ")
 	// A different date changes only the dates and the /ID (and the XMP
 	// document ID derived from the date).
 	opts.Date = testDate.Add(36*time.Hour + 17*time.Minute)
 	c := writeDoc(t, opts, 3)
-	if bytes.Equal(a, c) {
-		t.Fatal("the date does not reach the file")
-	}
+	require.False(t, bytes.Equal(a, c), "the date does not reach the file")
 	mask := regexp.MustCompile(`D:\d{14}Z00'00'|\d{4}-\d\d-\d\dT\d\d:\d\d:\d\dZ|uuid:[0-9a-f-]+|/ID \[<[0-9A-F]+> <[0-9A-F]+>\]`)
 	ma, mc := mask.ReplaceAll(a, []byte("X")), mask.ReplaceAll(c, []byte("X"))
-	if !bytes.Equal(ma, mc) {
-		t.Error("a different date changed more than dates and /ID")
-	}
+	assert.True(t, bytes.Equal(ma, mc), "a different date changed more than dates and /ID")
 	ida := regexp.MustCompile(`/ID \[<([0-9A-F]+)>`).FindSubmatch(a)
 	idc := regexp.MustCompile(`/ID \[<([0-9A-F]+)>`).FindSubmatch(c)
-	if ida == nil || idc == nil || bytes.Equal(ida[1], idc[1]) {
-		t.Error("/ID does not depend on the content")
-	}
+	assert.False(t, ida == nil || idc == nil || bytes.Equal(ida[1], idc[1]), "/ID does not depend on the content")
 }
 
 func TestBadInput(t *testing.T) {
@@ -123,9 +117,7 @@ func TestBadInput(t *testing.T) {
 			if err == nil || !strings.Contains(err.Error(), c.want) || !strings.Contains(err.Error(), "page 1") {
 				t.Errorf("Writer error %v, want one naming page 1 and containing %q", err, c.want)
 			}
-			if bytes.Contains(buf.Bytes(), []byte("%%EOF")) {
-				t.Error("a failed document was finished anyway")
-			}
+			assert.False(t, bytes.Contains(buf.Bytes(), []byte("%%EOF")), "a failed document was finished anyway")
 		})
 	}
 }
@@ -174,25 +166,15 @@ func TestEncodedPageRoundTrip(t *testing.T) {
 
 	var direct bytes.Buffer
 	w := NewWriter(&direct, opts)
-	if err := w.AddPage(setup, draw); err != nil {
-		t.Fatal(err)
-	}
-	if err := w.Close(); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, w.AddPage(setup, draw))
+	require.NoError(t, w.Close())
 
 	page, err := EncodePage(setup, draw)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	var store bytes.Buffer
-	if err := gob.NewEncoder(&store).Encode(page); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, gob.NewEncoder(&store).Encode(page))
 	var back EncodedPage
-	if err := gob.NewDecoder(&store).Decode(&back); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, gob.NewDecoder(&store).Decode(&back))
 
 	var cached bytes.Buffer
 	w = NewWriter(&cached, opts)
@@ -202,15 +184,9 @@ func TestEncodedPageRoundTrip(t *testing.T) {
 	if _, err := w.RegisterFont(reg); err != nil {
 		t.Fatal(err)
 	}
-	if err := w.AddEncoded(&back); err != nil {
-		t.Fatal(err)
-	}
-	if err := w.Close(); err != nil {
-		t.Fatal(err)
-	}
-	if !bytes.Equal(direct.Bytes(), cached.Bytes()) {
-		t.Error("a cached page gives other bytes than drawing it")
-	}
+	require.NoError(t, w.AddEncoded(&back))
+	require.NoError(t, w.Close())
+	assert.True(t, bytes.Equal(direct.Bytes(), cached.Bytes()), "a cached page gives other bytes than drawing it")
 }
 
 func TestStitchingFunction(t *testing.T) {

@@ -77,7 +77,7 @@ func has(fs []Finding, id, term string, year int) (Finding, bool) {
 
 // TestFindings runs Check over small specs, each made to trip (or not)
 // one check. Floors: 5 pt type and 0.25 pt rules in print are common
-// practice (print-facts.md in testdata of layout; no standard sets them);
+// practice (testdata/print-facts.md, "Rules, type, ink"; no standard sets them);
 // the spike ratios are hand-computed in testdata/README.md.
 func TestFindings(t *testing.T) {
 	tests := []struct {

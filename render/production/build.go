@@ -92,6 +92,30 @@ type Progress interface {
 	Warn(msg string)
 }
 
+// FindingsRepeater is a Progress that can say in one line that
+// preflight found what it found in the last build: Build calls
+// FindingsRepeated instead of Findings then.
+type FindingsRepeater interface {
+	FindingsRepeated(fs []preflight.Finding)
+}
+
+// findingsSum hashes a set of findings, for the manifest.
+func findingsSum(fs []preflight.Finding) string {
+	h := newHasher("sheaf findings v1")
+	h.int(len(fs))
+	for _, f := range fs {
+		h.str(f.ID)
+		h.int(int(f.Severity))
+		h.str(f.Output)
+		h.int(f.Page)
+		h.str(f.Term)
+		h.int(f.Year)
+		h.str(f.At)
+		h.str(f.Message)
+	}
+	return h.sum()
+}
+
 // ErrStrict is returned (wrapped) when strict preflight stopped a build
 // before it wrote anything.
 var ErrStrict = errors.New("strict preflight: stopped before writing anything (fix the warnings and errors found, or build without strictness)")
@@ -104,6 +128,8 @@ type Result struct {
 	Findings []preflight.Finding
 	// Changes says what changed since the last build.
 	Changes *ChangeReport
+	// FindingsSum hashes Findings; the manifest keeps it.
+	FindingsSum string
 	// Left is set when the build is in place but what was left of the
 	// previous one could not be removed whole: the build succeeded.
 	Left *LeftError
@@ -198,12 +224,21 @@ func Build(ctx context.Context, job *feature.Job, opts Options) (*Result, error)
 			widths[p.Spec.Name] = buf.Bytes()
 		}
 	}
-	opts.Progress.Findings(findings)
+	// The findings' table is shown once per set of findings: a rebuild
+	// that finds what the last build found says so instead.
+	res.FindingsSum = findingsSum(findings)
+	<-pre.manifestRead
+	if rep, ok := opts.Progress.(FindingsRepeater); ok && pre.prev != nil && pre.prev.Findings == res.FindingsSum {
+		rep.FindingsRepeated(findings)
+	} else {
+		opts.Progress.Findings(findings)
+	}
 	if (opts.Strict || spec.Preflight.Strict) && preflight.Stops(findings) {
 		return res, ErrStrict
 	}
 	b := &build{ctx: ctx, j: job, final: final, shown: dir, date: opts.Date, only: opts.Only, noProofs: opts.NoProofs, full: opts.Full,
-		progress: opts.Progress, hooks: opts.Hooks, widths: widths, pre: pre, sums: map[string]fileSum{}, insertPreps: inserts}
+		progress: opts.Progress, hooks: opts.Hooks, widths: widths, pre: pre, sums: map[string]fileSum{}, insertPreps: inserts,
+		findingsSum: res.FindingsSum}
 	files, err := b.run(preps)
 	if err != nil {
 		return res, err
@@ -288,6 +323,8 @@ type build struct {
 	termMap      map[string]string
 	sumsMu       sync.Mutex
 	sums         map[string]fileSum // files this build wrote, by slash path relative to the stage
+	stale        []string           // proofs a --no-proofs build did not keep (slash paths in DIR)
+	findingsSum  string
 }
 
 // fileMeta is what the manifest says of a file beside its hash: the
@@ -318,6 +355,12 @@ type OutputStats struct {
 	Reused       int    `json:"reused"`        // pages taken from the cache or the last build
 	ProofsDrawn  int    `json:"proofs_drawn"`  // proofs rasterized
 	ProofsReused int    `json:"proofs_reused"` // proofs kept from the last build
+	// Bands of screen PNGs drawn and taken from the last build (see
+	// bands.go); panel files drawn and reused.
+	BandsDrawn   int `json:"bands_drawn,omitempty"`
+	BandsReused  int `json:"bands_reused,omitempty"`
+	PanelsDrawn  int `json:"panel_files_drawn,omitempty"`
+	PanelsReused int `json:"panel_files_reused,omitempty"`
 	// Whole says, for a screen output or an insert (made or kept whole),
 	// "reused (inputs unchanged)" or "drawn (WHY)".
 	Whole string `json:"whole,omitempty"`
@@ -487,6 +530,8 @@ func (b *build) run(preps []*feature.Output) (files []string, err error) {
 	wrote := make(chan error, 1)
 	go func() { wrote <- writeJSONFile(filepath.Join(b.stage.dir, ManifestFile), m) }()
 	b.changes = compareManifests(b.prev, m, b.stats)
+	sort.Strings(b.stale)
+	b.changes.Stale = append(b.changes.Stale, b.stale...)
 	if err := <-wrote; err != nil {
 		return nil, err
 	}
@@ -609,6 +654,13 @@ func (b *build) buildPrint(p *feature.Output) ([]string, error) {
 	}
 	b.note(pdfPath, fileMeta{pages: entry.Pages})
 	files := []string{pdfPath}
+	if b.noProofs {
+		kept, keptDPI := b.keepProofs(p, entry.Pages, odir, &st)
+		files = append(files, kept...)
+		if len(kept) > 0 {
+			entry.Proofs = keptDPI
+		}
+	}
 	if dpi > 0 {
 		proofs, err := b.writeProofs(p, entry.Pages, dpi, odir, &st)
 		if err != nil {
@@ -727,12 +779,13 @@ func readCachedPage(path string) *pdf.EncodedPage {
 // full, the cached pages the manifest lists, decoded. The data read is one
 // core's work; this is the other's.
 type prefetch struct {
-	done    chan struct{}
-	stopped atomic.Bool
-	prev    *Manifest
-	prevErr error
-	data    map[string]fileSum          // by resolved path
-	pages   map[string]*pdf.EncodedPage // by cache file path; nil for a damaged one
+	done         chan struct{}
+	manifestRead chan struct{} // closed when prev and prevErr are set
+	stopped      atomic.Bool
+	prev         *Manifest
+	prevErr      error
+	data         map[string]fileSum          // by resolved path
+	pages        map[string]*pdf.EncodedPage // by cache file path; nil for a damaged one
 }
 
 type fileSum struct {
@@ -741,10 +794,11 @@ type fileSum struct {
 }
 
 func startPrefetch(dir string, s *specs.Spec, pages bool) *prefetch {
-	p := &prefetch{done: make(chan struct{}), data: map[string]fileSum{}, pages: map[string]*pdf.EncodedPage{}}
+	p := &prefetch{done: make(chan struct{}), manifestRead: make(chan struct{}), data: map[string]fileSum{}, pages: map[string]*pdf.EncodedPage{}}
 	go func() {
 		defer close(p.done)
 		p.prev, p.prevErr = ReadManifest(dir)
+		close(p.manifestRead)
 		if p.stopped.Load() {
 			return
 		}
@@ -872,6 +926,69 @@ func (b *build) writeProofs(p *feature.Output, pages []PageEntry, dpi float64, o
 		return nil, err
 	}
 	return files, nil
+}
+
+// keepProofs is --no-proofs: nothing is drawn, but the last build's
+// proofs of pages whose inputs did not change are kept, and its contact
+// sheet when every page is as it was. The others no longer show their
+// pages: they are left out (removed with the swap) and listed as stale.
+// It returns the files kept (stage paths) and their resolution.
+func (b *build) keepProofs(p *feature.Output, pages []PageEntry, odir string, st *OutputStats) ([]string, float64) {
+	prevOut := b.prev.Output(p.Spec.Name)
+	if prevOut == nil || prevOut.Proofs <= 0 || b.full {
+		for _, f := range b.prev.FilesOf(p.Spec.Name, "") {
+			if strings.HasSuffix(f.Path, ".png") {
+				b.stale = append(b.stale, f.Path)
+			}
+		}
+		return nil, 0
+	}
+	dpi := prevOut.Proofs
+	var kept []string
+	keptAll := len(pages) == len(prevOut.Pages)
+	want := map[string]bool{}
+	for i := range pages {
+		path := filepath.Join(odir, "proofs", fmt.Sprintf("page-%03d.png", i+1))
+		relp := rel(b.stage.dir, path)
+		want[relp] = true
+		old := b.prev.File(relp)
+		if old != nil && len(old.Pages) == 1 && old.Pages[0].Inputs == pages[i].Inputs &&
+			b.keep(filepath.Join(b.final, relp), path, old.SHA256) {
+			b.note(path, fileMeta{pages: pages[i : i+1]})
+			kept = append(kept, path)
+			st.ProofsReused++
+			continue
+		}
+		keptAll = false
+	}
+	cpath := filepath.Join(odir, "contact.png")
+	crel := rel(b.stage.dir, cpath)
+	want[crel] = keptAll
+	if old := b.prev.File(crel); keptAll && old != nil && samePages(prevOut.Pages, pages) &&
+		b.keep(filepath.Join(b.final, crel), cpath, old.SHA256) {
+		b.note(cpath, fileMeta{pages: pages})
+		kept = append(kept, cpath)
+		for _, pg := range pages { // the thumbnails, for the next build with proofs
+			name := fmt.Sprintf("%s-%g.thumb.png", pg.Inputs, dpi)
+			linkOrCopy(filepath.Join(b.final, CacheDir, p.Spec.Name, name), filepath.Join(b.stage.dir, CacheDir, p.Spec.Name, name))
+		}
+	} else {
+		want[crel] = false
+	}
+	for _, f := range b.prev.FilesOf(p.Spec.Name, "") {
+		if strings.HasSuffix(f.Path, ".png") && !want[f.Path] || want[f.Path] && !b.stageHas(f.Path) {
+			b.stale = append(b.stale, f.Path)
+		}
+	}
+	return kept, dpi
+}
+
+// stageHas reports whether the stage holds the file (slash path).
+func (b *build) stageHas(relp string) bool {
+	b.sumsMu.Lock()
+	defer b.sumsMu.Unlock()
+	_, ok := b.sums[relp]
+	return ok
 }
 
 // rasterize runs the BeforeRaster hook for file, then draw.
@@ -1006,7 +1123,7 @@ func (f writerFunc) Write(p []byte) (int, error) { return f(p) }
 // manifest describes the stage as it will be swapped in.
 func (b *build) manifest() (*Manifest, error) {
 	s := b.j.Spec
-	m := &Manifest{Sheaf: Version, Spec: FileHash{Path: filepath.Base(s.File), SHA256: b.specSum}}
+	m := &Manifest{Sheaf: Version, Spec: FileHash{Path: filepath.Base(s.File), SHA256: b.specSum}, Findings: b.findingsSum}
 	for _, d := range []string{s.Data.Counts, s.Data.Totals} {
 		fs, ok := b.pre.data[s.Resolve(d)]
 		if !ok {

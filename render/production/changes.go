@@ -12,6 +12,9 @@ import (
 // this one: DIR/changes.json, DIR/changes.txt and the summary on stderr.
 // README documents it.
 type ChangeReport struct {
+	// Summary is the one line to read first: what changed in the data,
+	// what moved because of it, which pages to send again.
+	Summary      string         `json:"summary"`
 	FirstBuild   bool           `json:"first_build"`
 	SheafChanged bool           `json:"sheaf_changed"` // another sheaf version
 	SpecChanged  bool           `json:"spec_changed"`
@@ -21,7 +24,13 @@ type ChangeReport struct {
 	Pages        []PagesChanged `json:"pages"`    // per changed PDF of pages
 	Graphics     []GraphicDrawn `json:"graphics"` // per changed file of an insert
 	Terms        []TermChange   `json:"terms"`    // terms whose data changed, came or went
-	Work         []OutputStats  `json:"work"`     // what was drawn and reused, per output and insert built
+	Moves        []PanelMove    `json:"moves"`    // panels that moved, came or went, per output with pages
+	PageReasons  []PageReason   `json:"page_reasons"`
+	// Stale lists the proofs and contact sheets of a --no-proofs build
+	// that no longer showed their pages and were removed (proofs of
+	// unchanged pages are kept).
+	Stale []string      `json:"stale"`
+	Work  []OutputStats `json:"work"` // what was drawn and reused, per output and insert built
 }
 
 // GraphicDrawn is a changed file of an insert, a single graphic: it has
@@ -56,17 +65,23 @@ type TermChange struct {
 	Term   string   `json:"term"`
 	Change string   `json:"change"`
 	Pages  []string `json:"pages"`
+	// PeakFrom and PeakTo are a changed term's peak year before and
+	// after, when it moved.
+	PeakFrom int `json:"peak_from,omitempty"`
+	PeakTo   int `json:"peak_to,omitempty"`
 }
 
 // compareManifests builds the report. prev is nil on a first build.
 func compareManifests(prev, cur *Manifest, work []OutputStats) *ChangeReport {
-	r := &ChangeReport{Work: work, DataChanged: []string{}, FontsChanged: []string{}, Pages: []PagesChanged{}, Graphics: []GraphicDrawn{}, Terms: []TermChange{}}
+	r := &ChangeReport{Work: work, DataChanged: []string{}, FontsChanged: []string{}, Pages: []PagesChanged{}, Graphics: []GraphicDrawn{}, Terms: []TermChange{},
+		Moves: []PanelMove{}, PageReasons: []PageReason{}, Stale: []string{}}
 	r.Files = FileChanges{Added: []string{}, Removed: []string{}, Changed: []string{}, Unchanged: []string{}}
 	if prev == nil {
 		r.FirstBuild = true
 		for _, f := range cur.Files {
 			r.Files.Added = append(r.Files.Added, f.Path)
 		}
+		r.Summary = fmt.Sprintf("first build: %s written", plural(len(r.Files.Added), "file"))
 		return r
 	}
 	r.SheafChanged = prev.Sheaf != cur.Sheaf
@@ -163,6 +178,15 @@ func compareManifests(prev, cur *Manifest, work []OutputStats) *ChangeReport {
 		if r.Terms[i].Pages == nil {
 			r.Terms[i].Pages = []string{}
 		}
+		if r.Terms[i].Change == "changed" {
+			if a, b := peakOf(prev, r.Terms[i].Term), peakOf(cur, r.Terms[i].Term); a != b {
+				r.Terms[i].PeakFrom, r.Terms[i].PeakTo = a, b
+			}
+		}
+	}
+	r.reflow(prev, cur)
+	if r.Nothing() {
+		r.Summary = fmt.Sprintf("nothing changed since the last build (%s unchanged)", plural(len(r.Files.Unchanged), "file"))
 	}
 	return r
 }
@@ -264,6 +288,45 @@ func (r *ChangeReport) WriteSummary(w io.Writer) {
 	io.WriteString(w, b.String())
 }
 
+// WriteBrief writes the few lines a person at a terminal reads after a
+// build: the summary line, what was drawn and reused per output and
+// insert, the count of files by change, and where the full report is
+// (changesPath). A build that changed nothing is one line.
+func (r *ChangeReport) WriteBrief(w io.Writer, changesPath string) error {
+	var b strings.Builder
+	if r.Nothing() {
+		fmt.Fprintf(&b, "nothing changed since the last build (%s unchanged)\n", plural(len(r.Files.Unchanged), "file"))
+		_, err := io.WriteString(w, b.String())
+		return err
+	}
+	fmt.Fprintf(&b, "%s\n", r.Summary)
+	var inserts []string
+	for _, s := range r.Work {
+		switch {
+		case s.Kind == "insert":
+			inserts = append(inserts, s.Insert+" "+strings.Fields(s.Whole)[0])
+		case s.Whole != "":
+			fmt.Fprintf(&b, "  %s: %s, %s\n", s.Output, plural(s.Pages, "page"), s.Whole)
+		default:
+			fmt.Fprintf(&b, "  %s: %s, %d drawn, %d reused", s.Output, plural(s.Pages, "page"), s.Encoded, s.Reused)
+			if s.ProofsDrawn+s.ProofsReused > 0 {
+				fmt.Fprintf(&b, "; proofs %d drawn, %d kept", s.ProofsDrawn, s.ProofsReused)
+			}
+			b.WriteString("\n")
+		}
+	}
+	if len(inserts) > 0 {
+		fmt.Fprintf(&b, "  inserts: %s\n", strings.Join(inserts, ", "))
+	}
+	fmt.Fprintf(&b, "  files: %d changed, %d added, %d removed, %d unchanged", len(r.Files.Changed), len(r.Files.Added), len(r.Files.Removed), len(r.Files.Unchanged))
+	if len(r.Stale) > 0 {
+		fmt.Fprintf(&b, " (%d stale proofs among the removed)", len(r.Stale))
+	}
+	fmt.Fprintf(&b, "; the full report: %s\n", changesPath)
+	_, err := io.WriteString(w, b.String())
+	return err
+}
+
 func (r *ChangeReport) text(b *strings.Builder, short bool) {
 	list := func(title string, xs []string) {
 		if len(xs) == 0 {
@@ -297,6 +360,9 @@ func (r *ChangeReport) text(b *strings.Builder, short bool) {
 	switch {
 	case r.FirstBuild:
 		fmt.Fprintf(b, "first build: no earlier manifest to compare with; %d files written\n", len(r.Files.Added))
+		if len(r.Stale) > 0 {
+			list("stale proofs removed (--no-proofs)", r.Stale)
+		}
 		if !short {
 			list("added", r.Files.Added)
 		}
@@ -307,6 +373,7 @@ func (r *ChangeReport) text(b *strings.Builder, short bool) {
 		work()
 		return
 	}
+	fmt.Fprintf(b, "summary: %s\n", r.Summary)
 	var why []string
 	if r.SheafChanged {
 		why = append(why, "sheaf version")
@@ -329,9 +396,34 @@ func (r *ChangeReport) text(b *strings.Builder, short bool) {
 		if len(t.Pages) > 0 {
 			where = strings.Join(t.Pages, ", ")
 		}
-		terms = append(terms, fmt.Sprintf("%s %q: %s", t.Change, t.Term, where))
+		peak := ""
+		if t.PeakFrom != 0 && t.PeakTo != 0 {
+			peak = fmt.Sprintf(" (peak %d → %d)", t.PeakFrom, t.PeakTo)
+		}
+		terms = append(terms, fmt.Sprintf("%s %q%s: %s", t.Change, t.Term, peak, where))
 	}
 	list("terms", terms)
+	var reasons []string
+	for _, p := range r.PageReasons {
+		line := fmt.Sprintf("%s p. %d: %s", p.Output, p.Page, strings.Join(p.Why, " and "))
+		if len(p.Terms) > 0 {
+			line += " (" + quoteAll(p.Terms) + ")"
+		}
+		reasons = append(reasons, line)
+	}
+	list("pages changed, and why (data: a term on the page changed; reflow: panels moved onto, off or within it)", reasons)
+	var moves []string
+	for _, m := range r.Moves {
+		switch {
+		case m.From == nil:
+			moves = append(moves, fmt.Sprintf("%q: new at %s", m.Term, m.To))
+		case m.To == nil:
+			moves = append(moves, fmt.Sprintf("%q: gone from %s", m.Term, m.From))
+		default:
+			moves = append(moves, fmt.Sprintf("%q: %s → p. %d slot %d", m.Term, m.From, m.To.Page, m.To.Slot))
+		}
+	}
+	list("panels moved", moves)
 	var pages []string
 	for _, p := range r.Pages {
 		ps := make([]string, len(p.Pages))
@@ -344,7 +436,7 @@ func (r *ChangeReport) text(b *strings.Builder, short bool) {
 		}
 		pages = append(pages, line)
 	}
-	list("changed pages", pages)
+	list("PDFs with changed pages", pages)
 	var graphics []string
 	for _, g := range r.Graphics {
 		graphics = append(graphics, fmt.Sprintf("%s: redrawn (%s)", g.File, g.Why))
@@ -353,12 +445,22 @@ func (r *ChangeReport) text(b *strings.Builder, short bool) {
 	list("changed files", r.Files.Changed)
 	list("added files", r.Files.Added)
 	list("removed files", r.Files.Removed)
+	list("stale proofs removed (--no-proofs; proofs of unchanged pages kept)", r.Stale)
 	if short {
 		fmt.Fprintf(b, "unchanged files: %d\n", len(r.Files.Unchanged))
 	} else {
 		list("unchanged files", r.Files.Unchanged)
 	}
 	work()
+}
+
+// quoteAll writes terms quoted, comma-separated.
+func quoteAll(ts []string) string {
+	q := make([]string, len(ts))
+	for i, t := range ts {
+		q[i] = strconv.Quote(t)
+	}
+	return strings.Join(q, ", ")
 }
 
 // plural writes a count with its noun, "1 page", "2 pages".

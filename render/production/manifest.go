@@ -42,6 +42,9 @@ type Manifest struct {
 	Outputs []OutputEntry `json:"outputs"`
 	Inserts []InsertEntry `json:"inserts,omitempty"` // in the spec's order
 	Files   []FileEntry   `json:"files"`             // every file of every output and insert, sorted by path
+	// Findings hashes preflight's findings, so the next build can say
+	// "as before" instead of printing the same table again.
+	Findings string `json:"findings,omitempty"`
 }
 
 // FileHash is a file that went into a build, with its SHA-256.
@@ -63,6 +66,9 @@ type FontHash struct {
 type TermHash struct {
 	Term   string `json:"term"`
 	SHA256 string `json:"sha256"`
+	// Peak is the term's peak year, for the change report ("its peak
+	// moved 1905 → 1880"); 0 where not recorded (an insert's terms).
+	Peak int `json:"peak,omitempty"`
 }
 
 // OutputEntry is one output of a build: its pages, and for a screen
@@ -283,7 +289,7 @@ func termSumWith(h *hasher, sr *series.Series) string {
 func termHashes(ctx context.Context, d *series.Set) []TermHash {
 	ts := make([]TermHash, len(d.Series))
 	each(ctx, len(ts), func(i int) (TermHash, error) {
-		return TermHash{Term: d.Series[i].Term, SHA256: termSum(&d.Series[i])}, nil
+		return TermHash{Term: d.Series[i].Term, SHA256: termSum(&d.Series[i]), Peak: d.Series[i].PeakYear}, nil
 	}, func(i int, t TermHash) error {
 		ts[i] = t
 		return nil

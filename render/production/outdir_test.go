@@ -14,6 +14,7 @@ import (
 	"github.com/stretchr/testify/require"
 
 	"sheaf/render/feature"
+	"sheaf/render/tooltest"
 	"sheaf/specs"
 )
 
@@ -219,9 +220,7 @@ func TestReadOnlyFolderRefused(t *testing.T) {
 // what is left, and the output folder holds the new build. Needs chattr
 // and a file system with the immutable flag (ext4, xfs, btrfs).
 func TestCleanupFailureAfterSwap(t *testing.T) {
-	if _, err := exec.LookPath("chattr"); err != nil {
-		t.Skip("chattr (e2fsprogs) missing")
-	}
+	tooltest.Require(t, "chattr", "e2fsprogs")
 	j := demoJob(t, "")
 	out := filepath.Join(t.TempDir(), "out")
 	_, err := quickBuild(t, j, out, Options{})

@@ -3,23 +3,24 @@ package production
 import (
 	"bytes"
 	"context"
+	"encoding/json"
 	"fmt"
 	"html"
-	"image"
 	"io"
 	"math"
+	"os"
 	"path/filepath"
 	"sort"
 	"strconv"
 	"strings"
-	"unicode"
+	"sync/atomic"
 
 	"github.com/tdewolff/canvas"
-	"golang.org/x/text/unicode/norm"
 
 	"sheaf/layout"
 	"sheaf/render/feature"
 	"sheaf/render/raster"
+	"sheaf/render/slug"
 	"sheaf/render/svg"
 	"sheaf/specs"
 )
@@ -63,6 +64,7 @@ func (b *build) buildScreen(p *feature.Output) ([]string, error) {
 	why := b.drawReason(prev != nil, prev != nil && prev.Kind == entry.Kind && prev.Inputs == entry.Inputs)
 	if why == "" {
 		if b.keepAll(out.Name+": reusing files", want, b.prev.FilesOf(out.Name, "")) {
+			b.keepScreenCache(out.Name)
 			st.Reused, st.Whole = st.Pages, "reused (inputs unchanged)"
 			b.stats = append(b.stats, st)
 			return want, nil
@@ -77,14 +79,61 @@ func (b *build) buildScreen(p *feature.Output) ([]string, error) {
 			return nil, err
 		}
 	}
-	files, err := b.drawScreen(p, odir, tasks)
+	if err := os.MkdirAll(filepath.Join(b.stage.dir, CacheDir, out.Name), 0o755); err != nil {
+		return nil, err
+	}
+	files, err := b.drawScreen(p, entry.Pages, odir, tasks, &st)
 	if err != nil {
 		return nil, err
 	}
 	sort.Strings(files)
 	st.Encoded, st.Whole = st.Pages, "drawn ("+why+")"
+	if st.BandsDrawn+st.BandsReused > 0 {
+		st.Whole += fmt.Sprintf("; PNG bands %d drawn, %d reused", st.BandsDrawn, st.BandsReused)
+	}
+	if st.PanelsDrawn+st.PanelsReused > 0 {
+		st.Whole += fmt.Sprintf("; panel files %d drawn, %d reused", st.PanelsDrawn, st.PanelsReused)
+	}
 	b.stats = append(b.stats, st)
 	return files, nil
+}
+
+// cachedFile writes path from the cache of output: the file named name
+// (a hash of its inputs) is linked from the last build's cache when it
+// is there, else written into this build's cache by fill; either way
+// path is linked to it.
+func (b *build) cachedFile(output, name, path string, fill func(w io.Writer) error) error {
+	oldC := filepath.Join(b.final, CacheDir, output, name)
+	newC := filepath.Join(b.stage.dir, CacheDir, output, name)
+	if b.full || linkOrCopy(oldC, newC) != nil {
+		if err := WriteAtomic(newC, fill); err != nil {
+			return err
+		}
+	}
+	if err := os.MkdirAll(filepath.Dir(path), 0o755); err != nil {
+		return err
+	}
+	return linkOrCopy(newC, path)
+}
+
+// keepScreenCache carries a screen output's cached PNG bands and panel
+// files into the new cache when the output's files were carried over
+// whole, so a later change still finds them.
+func (b *build) keepScreenCache(name string) {
+	old := filepath.Join(b.final, CacheDir, name)
+	entries, err := os.ReadDir(old)
+	if err != nil {
+		return
+	}
+	dst := filepath.Join(b.stage.dir, CacheDir, name)
+	if os.MkdirAll(dst, 0o755) != nil {
+		return
+	}
+	for _, e := range entries {
+		if n := e.Name(); e.Type().IsRegular() && (strings.HasSuffix(n, ".band") || strings.HasSuffix(n, ".svg")) {
+			linkOrCopy(filepath.Join(old, n), filepath.Join(dst, n))
+		}
+	}
 }
 
 // screenInputs is the hash of everything that decides a screen output's
@@ -167,7 +216,7 @@ func (b *build) noteScreenFiles(p *feature.Output, pages []PageEntry, odir strin
 
 // drawScreen draws every file of a screen output into odir (see
 // buildScreen) and returns them.
-func (b *build) drawScreen(p *feature.Output, odir string, tasks []pngTask) ([]string, error) {
+func (b *build) drawScreen(p *feature.Output, pages []PageEntry, odir string, tasks []pngTask, st *OutputStats) ([]string, error) {
 	j, prog := b.j, b.progress
 	out := p.Spec
 	n := len(p.Plan.Pages)
@@ -187,7 +236,16 @@ func (b *build) drawScreen(p *feature.Output, odir string, tasks []pngTask) ([]s
 		case n > 1:
 			opts.Title = fmt.Sprintf("%s (page %d of %d)", opts.Title, i+1, n)
 		}
-		err := WriteAtomic(path, func(w io.Writer) error {
+		// A page is cached under its inputs (pageInputs) and its title:
+		// a page of a paged output whose panels did not change is the
+		// last build's file.
+		h := newHasher("sheaf page svg v1")
+		h.str(pages[i].Inputs)
+		h.str(opts.Title)
+		for _, pn := range pg.Panels { // the SVG ids
+			h.str(p.Feature.Slug(pn.Item))
+		}
+		err := b.cachedFile(out.Name, h.sum()+".svg", path, func(w io.Writer) error {
 			return drawSVG(b.ctx, w, pg.Trim, opts, func(ctx *canvas.Context) error { return p.Feature.Draw(ctx, i) })
 		})
 		if err != nil {
@@ -207,14 +265,14 @@ func (b *build) drawScreen(p *feature.Output, odir string, tasks []pngTask) ([]s
 			shown = append(shown, proofItem{filepath.Base(spreads[k]), sp.Sheet.W(), sp.Sheet.H()})
 		}
 	}
-	pngs, err := b.writeScreenPNGs(p, tasks)
+	pngs, err := b.writeScreenPNGs(p, tasks, st)
 	if err != nil {
 		return nil, err
 	}
 	files = append(files, pngs...)
 	var panels []string
 	if out.PanelFiles {
-		panels, err = b.writePanelFiles(p, filepath.Join(odir, "panels"))
+		panels, err = b.writePanelFiles(p, filepath.Join(odir, "panels"), st)
 		if err != nil {
 			return nil, err
 		}
@@ -321,28 +379,57 @@ func screenPNGTasks(p *feature.Output, odir string) (tasks []pngTask, skipped []
 	return tasks, skipped
 }
 
-// writeScreenPNGs renders the PNGs tasks lists, in parallel.
-func (b *build) writeScreenPNGs(p *feature.Output, tasks []pngTask) (files []string, err error) {
-	b.progress.Begin(p.Spec.Name+": PNGs", len(tasks))
-	err = each(b.ctx, len(tasks), func(k int) (struct{}, error) {
-		defer b.progress.Step()
-		t := tasks[k]
+// writeScreenPNGs renders the PNGs tasks lists, band by band (see
+// bands.go): bands whose inputs are in the last build's cache are taken
+// from it, the others drawn, in parallel.
+func (b *build) writeScreenPNGs(p *feature.Output, tasks []pngTask, st *OutputStats) (files []string, err error) {
+	fontSum := fontsSum(p.Fonts)
+	pages := map[int]*pageBands{}
+	type job struct {
+		task int
+		band bandTask
+		out  **encodedBand
+	}
+	var jobs []job
+	results := make([][]*encodedBand, len(tasks))
+	sizes := make([]raster.Region, len(tasks))
+	for k, t := range tasks {
+		if pages[t.page] == nil {
+			pages[t.page] = b.newPageBands(p, t.page, fontSum)
+		}
 		pg := &p.Plan.Pages[t.page]
 		r := raster.RegionOf(pg.Media.H(), t.dpi, pg.Trim.X0, pg.Trim.Y0, pg.Trim.X1, pg.Trim.Y1)
-		img, err := b.rasterize(t.path, func() (*image.RGBA, error) {
-			return raster.DrawRegionContext(b.ctx, pg.Media.H(), t.dpi, r, p.Feature.PaperColor(), func(ctx *canvas.Context) error {
-				return p.Feature.Draw(ctx, t.page)
-			})
-		})
-		if err != nil {
-			return struct{}{}, err
+		sizes[k] = r
+		bts := pages[t.page].bands(pg.Media.H(), t.dpi, r)
+		results[k] = make([]*encodedBand, len(bts))
+		for n, bt := range bts {
+			jobs = append(jobs, job{task: k, band: bt, out: &results[k][n]})
 		}
-		return struct{}{}, WriteAtomic(t.path, func(w io.Writer) error { return raster.WritePNGContext(b.ctx, w, img) })
+	}
+	b.progress.Begin(p.Spec.Name+": PNG bands", len(jobs))
+	var drawn, reused atomic.Int64
+	err = each(b.ctx, len(jobs), func(n int) (struct{}, error) {
+		defer b.progress.Step()
+		jb := jobs[n]
+		t := tasks[jb.task]
+		eb, d, err := b.bandOf(p, t.page, t.dpi, jb.band, t.path)
+		*jb.out = eb
+		if d {
+			drawn.Add(1)
+		} else {
+			reused.Add(1)
+		}
+		return struct{}{}, err
 	}, nil)
 	if err != nil {
 		return nil, err
 	}
-	for _, t := range tasks {
+	st.BandsDrawn, st.BandsReused = int(drawn.Load()), int(reused.Load())
+	for k, t := range tasks {
+		err := WriteAtomic(t.path, func(w io.Writer) error { return writeBandedPNG(w, sizes[k].W, sizes[k].H, results[k]) })
+		if err != nil {
+			return nil, err
+		}
 		files = append(files, t.path)
 	}
 	return files, nil
@@ -355,8 +442,24 @@ func panelWindow(plan *layout.Plan, pn layout.Panel) (layout.Panel, layout.Rect)
 	pn.Ticks = layout.Rect{X0: pn.Plot.X0, Y0: pn.Plot.Y0 - plan.TicksH, X1: pn.Plot.X1, Y1: pn.Plot.Y0}
 	pad := plan.Gutter / 4
 	box := pn.Box()
-	return pn, layout.Rect{X0: box.X0 - pad, Y0: pn.Ticks.Y0 - pad, X1: box.X1 + pad, Y1: box.Y1 + pad}
+	win := layout.Rect{X0: box.X0 - pad, Y0: pn.Ticks.Y0 - pad, X1: box.X1 + pad, Y1: box.Y1 + pad}
+	// The file is drawn with its window's corner at the origin and every
+	// length rounded to a millionth of a point: a panel that moved to
+	// another row or page is then drawn from the same numbers, so its file
+	// keeps its bytes (page coordinates differ in their last bits, enough
+	// to flip a 0.1 px rounding).
+	x0, y0 := win.X0, win.Y0
+	at := func(r layout.Rect) layout.Rect {
+		return layout.Rect{X0: canon(r.X0 - x0), Y0: canon(r.Y0 - y0), X1: canon(r.X1 - x0), Y1: canon(r.Y1 - y0)}
+	}
+	pn.Label, pn.Plot, pn.Ticks = at(pn.Label), at(pn.Plot), at(pn.Ticks)
+	pn.LabelBaseline = canon(pn.LabelBaseline - y0)
+	pn.Row, pn.Col = 0, 0
+	return pn, at(win)
 }
+
+// canon rounds a length to a millionth of a point.
+func canon(v float64) float64 { return math.Round(v*1e6) / 1e6 }
 
 // panelFile is one panel file of a screen output.
 type panelFile struct {
@@ -370,111 +473,108 @@ type panelFile struct {
 // panelFiles lists the panel files of an output in panel order, named.
 func panelFiles(j *feature.Job, p *feature.Output) []panelFile {
 	var out []panelFile
-	used := map[string]bool{}
 	for i := range p.Plan.Pages {
 		for _, pn := range p.Plan.Pages[i].Panels {
 			pn, win := panelWindow(p.Plan, pn)
 			term := j.Data.Series[pn.Item].Term
-			out = append(out, panelFile{name: uniqueSlug(Slug(term), used), term: term, item: pn.Item, panel: pn, win: win})
+			out = append(out, panelFile{name: p.Feature.Slug(pn.Item), term: term, item: pn.Item, panel: pn, win: win})
 		}
 	}
 	return out
 }
 
 // writePanelFiles writes one SVG per term, named by the term's slug.
-func (b *build) writePanelFiles(p *feature.Output, pdir string) ([]string, error) {
-	j, prog := b.j, b.progress
-	var files []string
+// A panel file is cached under the hash of what decides it (panelInputs):
+// the file of a term whose data, label and panel size did not change is
+// the last build's, wherever its panel now lands.
+func (b *build) writePanelFiles(p *feature.Output, pdir string, st *OutputStats) ([]string, error) {
+	j := b.j
 	pfs := panelFiles(j, p)
-	prog.Begin(p.Spec.Name+": panel files", len(pfs))
-	for _, pf := range pfs {
+	b.progress.Begin(p.Spec.Name+": panel files", len(pfs))
+	files := make([]string, len(pfs))
+	fontSum := fontsSum(p.Fonts)
+	var drawn, reused atomic.Int64
+	err := each(b.ctx, len(pfs), func(k int) (struct{}, error) {
+		defer b.progress.Step()
+		pf := pfs[k]
 		title, desc := p.Feature.Describe(pf.item)
 		opts := screenSVGOptions(j, p)
 		opts.Title, opts.Desc = title, desc
 		path := filepath.Join(pdir, pf.name+".svg")
-		err := WriteAtomic(path, func(w io.Writer) error {
-			return drawSVG(b.ctx, w, pf.win, opts, func(ctx *canvas.Context) error { return p.Feature.DrawPanel(ctx, pf.panel) })
-		})
-		if err != nil {
-			return nil, err
+		files[k] = path
+		name := b.panelInputs(p, pf, opts, fontSum) + ".svg"
+		oldC := filepath.Join(b.final, CacheDir, p.Spec.Name, name)
+		newC := filepath.Join(b.stage.dir, CacheDir, p.Spec.Name, name)
+		if b.full || linkOrCopy(oldC, newC) != nil {
+			err := WriteAtomic(newC, func(w io.Writer) error {
+				return drawSVG(b.ctx, w, pf.win, opts, func(ctx *canvas.Context) error { return p.Feature.DrawPanel(ctx, pf.panel) })
+			})
+			if err != nil {
+				return struct{}{}, err
+			}
+			drawn.Add(1)
+		} else {
+			reused.Add(1)
 		}
-		files = append(files, path)
-		prog.Step()
+		if err := os.MkdirAll(pdir, 0o755); err != nil {
+			return struct{}{}, err
+		}
+		return struct{}{}, linkOrCopy(newC, path)
+	}, nil)
+	if err != nil {
+		return nil, err
 	}
+	st.PanelsDrawn, st.PanelsReused = int(drawn.Load()), int(reused.Load())
 	return files, nil
 }
 
-// translit spells letters that Unicode decomposition does not split into
-// a base letter and marks.
-var translit = map[rune]string{
-	'ß': "ss", 'æ': "ae", 'Æ': "ae", 'œ': "oe", 'Œ': "oe", 'ø': "o", 'Ø': "o",
-	'ł': "l", 'Ł': "l", 'đ': "d", 'Đ': "d", 'ð': "d", 'Ð': "d", 'þ': "th", 'Þ': "th",
-	'ı': "i", 'ħ': "h", 'Ħ': "h", '&': "and",
+// panelInputs is the hash of everything that decides a panel file: the
+// drawing code and the spec (as for pages), the fonts, the panel as drawn
+// (its geometry from its window's corner, see panelWindow), the term's
+// data and label, its id, and the document's title and description.
+func (b *build) panelInputs(p *feature.Output, pf panelFile, opts svg.Options, fontSum string) string {
+	h := newHasher("sheaf panel file v1")
+	h.str(Version)
+	h.str(b.specSum)
+	h.str(p.Spec.Name)
+	h.str(fontSum)
+	// The item and group index say where the panel is in the order, not
+	// how it looks: the term's data is hashed below.
+	drawn := pf.panel
+	drawn.Item, drawn.Group = 0, 0
+	if s, err := json.Marshal(drawn); err == nil {
+		h.str(string(s))
+	}
+	h.floats([]float64{pf.win.X0, pf.win.Y0, pf.win.X1, pf.win.Y1})
+	h.str(pf.name)
+	sr := &b.j.Data.Series[pf.item]
+	h.str(sr.Term)
+	h.floats(sr.Values)
+	h.float(sr.Peak)
+	h.int(sr.PeakYear)
+	h.float(sr.YMax)
+	if l := p.Feature.Labels(); pf.item < len(l) {
+		h.str(l[pf.item].Text)
+		h.float(l[pf.item].Size)
+	}
+	d := b.j.Data
+	h.int(d.Span.From)
+	h.int(d.Span.To)
+	h.floats(d.Years)
+	h.str(d.Unit)
+	h.float(d.YMax)
+	for _, s := range p.Feature.Stops {
+		r := s.Color
+		h.floats([]float64{s.Year, r.R, r.G, r.B})
+	}
+	h.str(opts.Title)
+	h.str(opts.Desc)
+	return h.sum()
 }
 
-// maxSlug bounds a slug's length in bytes, well under every file
-// system's name limit.
-const maxSlug = 64
-
-// Slug turns a term into a file name stem that is safe everywhere: lower
-// case ASCII letters and digits joined by single hyphens. Accents are
-// dropped after Unicode compatibility decomposition (NFKD: "Café" →
-// "cafe"), a few letters are spelled out ("ß" → "ss"), and everything
-// else separates words. A term with no Latin letter or digit at all (say,
-// Greek or CJK) is named by its code points instead ("u3b1-u3b2"), so two
-// such terms never share a name and no percent sign appears.
-func Slug(term string) string {
-	var b strings.Builder
-	dash := false
-	put := func(s string) {
-		if dash && b.Len() > 0 {
-			b.WriteByte('-')
-		}
-		dash = false
-		b.WriteString(s)
-	}
-	for _, r := range norm.NFKD.String(term) {
-		switch {
-		case unicode.Is(unicode.Mn, r):
-			// a combining mark: drop it, keep the base letter
-		case r < 0x80 && (unicode.IsLetter(r) || unicode.IsDigit(r)):
-			put(string(unicode.ToLower(r)))
-		case translit[r] != "":
-			put(translit[r])
-		default:
-			dash = true
-		}
-	}
-	s := b.String()
-	if s == "" {
-		var parts []string
-		for _, r := range term {
-			if !unicode.IsSpace(r) {
-				parts = append(parts, "u"+strconv.FormatInt(int64(r), 16))
-			}
-		}
-		s = strings.Join(parts, "-")
-		if s == "" {
-			s = "term"
-		}
-	}
-	if len(s) > maxSlug {
-		s = strings.TrimRight(s[:maxSlug], "-")
-	}
-	return s
-}
-
-// uniqueSlug returns s, or s-2, s-3, … the first not yet used, and marks
-// it used. Called in panel order, it names colliding terms
-// deterministically.
-func uniqueSlug(s string, used map[string]bool) string {
-	name := s
-	for k := 2; used[name]; k++ {
-		name = s + "-" + strconv.Itoa(k)
-	}
-	used[name] = true
-	return name
-}
+// Slug turns a term into a file name stem that is safe everywhere (see
+// slug.Of).
+func Slug(term string) string { return slug.Of(term) }
 
 // proofItem is one SVG the proof page shows, with its size in points.
 type proofItem struct {

@@ -1,6 +1,7 @@
 package production
 
 import (
+	"sheaf/render/slug"
 	"strings"
 	"testing"
 
@@ -31,12 +32,12 @@ func TestSlug(t *testing.T) {
 		got := Slug(c.term)
 		assert.Equal(t, c.want, got, "Slug(%q)", c.term)
 		assert.Regexp(t, `^[a-z0-9]+(-[a-z0-9]+)*$`, got, "Slug(%q) is a safe file name stem", c.term)
-		assert.LessOrEqual(t, len(got), maxSlug, "Slug(%q)", c.term)
+		assert.LessOrEqual(t, len(got), slug.Max, "Slug(%q)", c.term)
 	}
 	used := map[string]bool{}
 	var got []string
 	for _, s := range []string{"cafe", "cafe", "cafe-2", "cafe"} {
-		got = append(got, uniqueSlug(s, used))
+		got = append(got, slug.Unique(s, used))
 	}
 	assert.Equal(t, []string{"cafe", "cafe-2", "cafe-2-2", "cafe-3"}, got, "collisions named in panel order")
 }

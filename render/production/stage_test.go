@@ -9,6 +9,8 @@ import (
 
 	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
+
+	"sheaf/render/tooltest"
 )
 
 // TestStaleStageRemoved: a stage left by a process that no longer exists
@@ -17,10 +19,8 @@ import (
 func TestStaleStageRemoved(t *testing.T) {
 	parent := t.TempDir()
 	out := filepath.Join(parent, "out")
-	dead := exec.Command("true")
-	if err := dead.Run(); err != nil {
-		t.Skip("cannot run true:", err)
-	}
+	dead := exec.Command(tooltest.Require(t, "true", "coreutils"))
+	require.NoError(t, dead.Run())
 	stale := filepath.Join(parent, ".out"+StageMark+fmt.Sprint(dead.Process.Pid)+"-1")
 	live := filepath.Join(parent, ".out"+StageMark+fmt.Sprint(os.Getpid())+"-2")
 	os.MkdirAll(stale, 0o755)

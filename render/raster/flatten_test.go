@@ -6,6 +6,8 @@ import (
 	"sheaf/render/tooltest"
 	"testing"
 
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
 	"github.com/tdewolff/canvas"
 
 	"sheaf/render/curve"
@@ -27,13 +29,9 @@ func walk(t testing.TB, seed uint64) (*canvas.Path, float64) {
 		ys[i], top = v, max(top, v)
 	}
 	m, err := curve.NewMap(1800, 1974, 0, top, 10, 130, 10, 50)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	runs, err := curve.Build(xs, ys, m, nil)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	p := &canvas.Path{}
 	length := 0.0
 	for _, run := range runs {
@@ -100,14 +98,10 @@ func TestStrokesAreFlattened(t *testing.T) {
 			stroke(ctx, p, walkLine)
 			return nil
 		})
-		if err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, err)
 		ratio := ink(img) / strokedArea(length, walkLine, walkDPI)
 		lo, hi = min(lo, ratio), max(hi, ratio)
-		if ratio < 0.85 || ratio > 1.10 {
-			t.Errorf("walk %d: inked %.2f × length × width (want 0.85–1.10): a stroke filled as a blob?", seed, ratio)
-		}
+		assert.False(t, ratio < 0.85 || ratio > 1.10, "walk %d: inked %.2f × length × width (want 0.85–1.10): a stroke filled as a blob?", seed, ratio)
 	}
 	t.Logf("ink / (length × width): %.3f–%.3f", lo, hi)
 }
@@ -129,26 +123,18 @@ func TestStrokesMatchPoppler(t *testing.T) {
 		}})
 	}
 	theirs := poppler(t, writePDF(t, pages...), walkDPI)
-	if len(theirs) != len(pages) {
-		t.Fatalf("pdftoppm gave %d pages, want %d", len(theirs), len(pages))
-	}
+	require.False(t, len(theirs) != len(pages), "pdftoppm gave %d pages, want %d", len(theirs), len(pages))
 	for i, seed := range seeds {
 		ours, err := raster.Draw(walkW, walkH, walkDPI, white, pages[i].draw)
-		if err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, err)
 		// pdftoppm rounds the page's pixel size up, Draw to the nearest;
 		// both put the page's top-left corner at pixel (0, 0).
-		if !ours.Bounds().In(theirs[i].Bounds()) {
-			t.Fatalf("walk %d: size %v, poppler %v", seed, ours.Bounds().Size(), theirs[i].Bounds().Size())
-		}
+		require.True(t, ours.Bounds().In(theirs[i].Bounds()), "walk %d: size %v, poppler %v", seed, ours.Bounds().Size(), theirs[i].Bounds().Size())
 		cut := tooltest.SubImage(theirs[i], ours.Bounds())
 		ratio := ink(cut) / ink(ours)
 		_, share := tooltest.CompareImages(ours, cut, 96)
 		t.Logf("walk %d: poppler inks %.3f × ours; %.2f%% pixels off by > 96", seed, ratio, share*100)
-		if ratio < 1.0 || ratio > 1.2 || share > 0.005 {
-			t.Errorf("walk %d: poppler inks %.2f × ours (want 1.0–1.2), %.2f%% pixels off (limit 0.5%%)", seed, ratio, share*100)
-		}
+		assert.False(t, ratio < 1.0 || ratio > 1.2 || share > 0.005, "walk %d: poppler inks %.2f × ours (want 1.0–1.2), %.2f%% pixels off (limit 0.5%%)", seed, ratio, share*100)
 	}
 }
 

@@ -12,6 +12,7 @@ import (
 	"testing"
 	"time"
 
+	"github.com/stretchr/testify/require"
 	"github.com/tdewolff/canvas"
 
 	"sheaf/render/pdf"
@@ -38,13 +39,9 @@ func writePDF(t *testing.T, pages ...page) string {
 			t.Fatal(err)
 		}
 	}
-	if err := w.Close(); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, w.Close())
 	path := filepath.Join(t.TempDir(), "in.pdf")
-	if err := os.WriteFile(path, buf.Bytes(), 0o644); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, os.WriteFile(path, buf.Bytes(), 0o644))
 	return path
 }
 
@@ -60,9 +57,7 @@ func poppler(t *testing.T, pdfPath string, dpi float64) []image.Image {
 		t.Fatalf("pdftoppm: %v\n%s", err, out)
 	}
 	files, err := filepath.Glob(filepath.Join(dir, "p-*.png"))
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	sort.Strings(files) // pdftoppm pads page numbers to one width
 	imgs := make([]image.Image, len(files))
 	for i, f := range files {

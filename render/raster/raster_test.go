@@ -6,6 +6,8 @@ import (
 	"math"
 	"testing"
 
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
 	"github.com/tdewolff/canvas"
 
 	"sheaf/render/raster"
@@ -95,12 +97,8 @@ func TestRectLandsOnPixels(t *testing.T) {
 			} else {
 				img, err = raster.DrawRegion(tc.h, tc.dpi, *tc.region, white, draw)
 			}
-			if err != nil {
-				t.Fatal(err)
-			}
-			if img.Bounds() != tc.wantBounds {
-				t.Fatalf("image bounds %v, want %v", img.Bounds(), tc.wantBounds)
-			}
+			require.NoError(t, err)
+			require.False(t, img.Bounds() != tc.wantBounds, "image bounds %v, want %v", img.Bounds(), tc.wantBounds)
 			bad := 0
 			for y := img.Bounds().Min.Y; y < img.Bounds().Max.Y; y++ {
 				for x := img.Bounds().Min.X; x < img.Bounds().Max.X; x++ {
@@ -109,16 +107,12 @@ func TestRectLandsOnPixels(t *testing.T) {
 						want = teal
 					}
 					if got := rgba(img, x, y); got != want {
-						if bad < 5 {
-							t.Errorf("pixel (%d, %d) = %v, want %v", x, y, got, want)
-						}
+						assert.False(t, bad < 5, "pixel (%d, %d) = %v, want %v", x, y, got, want)
 						bad++
 					}
 				}
 			}
-			if bad > 0 {
-				t.Errorf("%d pixels wrong", bad)
-			}
+			assert.False(t, bad > 0, "%d pixels wrong", bad)
 		})
 	}
 }
@@ -149,9 +143,7 @@ func TestRegionOf(t *testing.T) {
 	for _, tc := range tests {
 		t.Run(tc.name, func(t *testing.T) {
 			got := raster.RegionOf(tc.pageH, tc.dpi, tc.x0, tc.y0, tc.x1, tc.y1)
-			if got != tc.want {
-				t.Errorf("RegionOf = %+v, want %+v", got, tc.want)
-			}
+			assert.False(t, got != tc.want, "RegionOf = %+v, want %+v", got, tc.want)
 		})
 	}
 }

@@ -7,6 +7,8 @@ import (
 	"sheaf/render/tooltest"
 	"testing"
 
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
 	"github.com/tdewolff/canvas"
 
 	"sheaf/render/raster"
@@ -122,15 +124,11 @@ func TestRegionMatchesPoppler(t *testing.T) {
 	for _, tc := range tests {
 		t.Run(tc.name, func(t *testing.T) {
 			pages := poppler(t, path, tc.dpi)
-			if len(pages) != 2 {
-				t.Fatalf("pdftoppm gave %d pages, want 2", len(pages))
-			}
+			require.False(t, len(pages) != 2, "pdftoppm gave %d pages, want 2", len(pages))
 			full := pages[0]
 			r := raster.RegionOf(mixedPage.h, tc.dpi, tc.x0, tc.y0, tc.x1, tc.y1)
 			pix := image.Rect(r.X, r.Y, r.X+r.W, r.Y+r.H)
-			if !pix.In(full.Bounds()) {
-				t.Fatalf("region %v is not inside poppler's page %v", pix, full.Bounds())
-			}
+			require.True(t, pix.In(full.Bounds()), "region %v is not inside poppler's page %v", pix, full.Bounds())
 			theirs := tooltest.SubImage(full, pix)
 			// pdftoppm's own crop gives the same pixels as cutting its
 			// full page: the crop rule we copy is poppler's.
@@ -138,37 +136,23 @@ func TestRegionMatchesPoppler(t *testing.T) {
 				t.Errorf("pdftoppm -x -y crop differs from its full page cut at %v: mean %.3f, %.3f%% pixels", pix, m, s*100)
 			}
 			ours, err := raster.DrawRegion(mixedPage.h, tc.dpi, r, white, mixedPage.draw)
-			if err != nil {
-				t.Fatal(err)
-			}
-			if ours.Bounds().Size() != pix.Size() {
-				t.Fatalf("DrawRegion gave %v, want %v", ours.Bounds().Size(), pix.Size())
-			}
+			require.NoError(t, err)
+			require.False(t, ours.Bounds().Size() != pix.Size(), "DrawRegion gave %v, want %v", ours.Bounds().Size(), pix.Size())
 			fills, err := raster.DrawRegion(fillsPage.h, tc.dpi, r, white, fillsPage.draw)
-			if err != nil {
-				t.Fatal(err)
-			}
+			require.NoError(t, err)
 			tx, ty := centroid(tooltest.SubImage(pages[1], pix))
 			ox, oy := centroid(fills)
 			mean, share := tooltest.CompareImages(ours, theirs, 48)
 			t.Logf("region %+v: centroid off by (%.3f, %.3f) px; mean |Δ| %.3f/255, %.3f%% pixels off by > 48", r, ox-tx, oy-ty, mean, share*100)
-			if math.Abs(ox-tx) > 0.1 || math.Abs(oy-ty) > 0.1 {
-				t.Errorf("DrawRegion's drawing sits (%.3f, %.3f) px from poppler's (limit 0.1)", ox-tx, oy-ty)
-			}
-			if mean > 2 || share > 0.015 {
-				t.Errorf("DrawRegion differs from poppler: mean %.3f/255 (limit 2), %.3f%% pixels off (limit 1.5%%)", mean, share*100)
-			}
+			assert.False(t, math.Abs(ox-tx) > 0.1 || math.Abs(oy-ty) > 0.1, "DrawRegion's drawing sits (%.3f, %.3f) px from poppler's (limit 0.1)", ox-tx, oy-ty)
+			assert.False(t, mean > 2 || share > 0.015, "DrawRegion differs from poppler: mean %.3f/255 (limit 2), %.3f%% pixels off (limit 1.5%%)", mean, share*100)
 			// Negative control: one pixel off, right or down.
 			for _, d := range []image.Point{{1, 0}, {0, 1}} {
 				rr := raster.Region{X: r.X + d.X, Y: r.Y + d.Y, W: r.W, H: r.H}
 				shifted, err := raster.DrawRegion(fillsPage.h, tc.dpi, rr, white, fillsPage.draw)
-				if err != nil {
-					t.Fatal(err)
-				}
+				require.NoError(t, err)
 				sx, sy := centroid(shifted)
-				if math.Abs(sx-tx) <= 0.1 && math.Abs(sy-ty) <= 0.1 {
-					t.Errorf("a region off by %v passes too (centroid off by %.3f, %.3f): the test cannot see a one-pixel error", d, sx-tx, sy-ty)
-				}
+				assert.False(t, math.Abs(sx-tx) <= 0.1 && math.Abs(sy-ty) <= 0.1, "a region off by %v passes too (centroid off by %.3f, %.3f): the test cannot see a one-pixel error", d, sx-tx, sy-ty)
 			}
 		})
 	}
@@ -200,18 +184,14 @@ func centroid(img image.Image) (x, y float64) {
 func TestRegionEqualsFullPage(t *testing.T) {
 	const dpi = 100
 	full, err := raster.Draw(mixedPage.w, mixedPage.h, dpi, white, mixedPage.draw)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	for _, r := range []raster.Region{
 		{X: 0, Y: 0, W: full.Bounds().Dx(), H: full.Bounds().Dy()},
 		{X: 17, Y: 29, W: 150, H: 90},
 		{X: 200, Y: 150, W: 77, H: 58},
 	} {
 		part, err := raster.DrawRegion(mixedPage.h, dpi, r, white, mixedPage.draw)
-		if err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, err)
 		cut := tooltest.SubImage(full, image.Rect(r.X, r.Y, r.X+r.W, r.Y+r.H))
 		if mean, _ := tooltest.CompareImages(part, cut, 8); mean > 0.1 {
 			t.Errorf("region %+v: differs from the full page cut: mean %.3f/255 (limit 0.1)", r, mean)
@@ -280,9 +260,7 @@ func TestGradientEnds(t *testing.T) {
 			} else {
 				img, err = raster.Draw(pageW, pageH, tc.dpi, white, draw)
 			}
-			if err != nil {
-				t.Fatal(err)
-			}
+			require.NoError(t, err)
 			row := int((pageH-(y0+y1)/2)*k) - org.Y
 			first := int(math.Ceil(x0*k)) - org.X     // first whole pixel
 			last := int(math.Floor(x1*k)) - 1 - org.X // last whole pixel

@@ -2,9 +2,6 @@ package svg
 
 import (
 	"encoding/base64"
-	"os"
-	"os/exec"
-	"path/filepath"
 	"regexp"
 	"strings"
 	"testing"
@@ -17,6 +14,7 @@ import (
 	"github.com/tdewolff/font"
 
 	"sheaf/layout/fonts/cff"
+	"sheaf/render/tooltest"
 )
 
 // TestEmbeddedCFFSubset: with CFF fonts (Latin Modern Sans, github.com/
@@ -77,12 +75,7 @@ func glyphOps(t *testing.T, s *font.SFNT, g uint16) []float64 {
 // embedded subset's cmap, must find those: the subset maps '1', '6', '8'
 // to glyphs drawn as the lining ones.
 func TestEmbeddedSubsetLiningFigures(t *testing.T) {
-	out, err := exec.Command("go", "list", "-m", "-f", "{{.Dir}}", "github.com/tdewolff/font").Output()
-	if err != nil {
-		t.Skipf("tdewolff/font not in the module cache: %v", err)
-	}
-	b, err := os.ReadFile(filepath.Join(strings.TrimSpace(string(out)), "resources", "EBGaramond12-Regular.otf"))
-	require.NoError(t, err)
+	b := tooltest.ModuleFile(t, "github.com/tdewolff/font", "resources/EBGaramond12-Regular.otf")
 	reg, err := canvas.LoadFont(b, 0, canvas.FontRegular)
 	require.NoError(t, err)
 	reg.SetFeatures("lnum")
@@ -115,12 +108,7 @@ func TestEmbeddedSubsetLiningFigures(t *testing.T) {
 // (named through a class on its text), and each subset maps the digits to
 // the glyphs drawn with it.
 func TestVariantFontGetsItsOwnFamily(t *testing.T) {
-	out, err := exec.Command("go", "list", "-m", "-f", "{{.Dir}}", "github.com/tdewolff/font").Output()
-	if err != nil {
-		t.Skipf("tdewolff/font not in the module cache: %v", err)
-	}
-	b, err := os.ReadFile(filepath.Join(strings.TrimSpace(string(out)), "resources", "EBGaramond12-Regular.otf"))
-	require.NoError(t, err)
+	b := tooltest.ModuleFile(t, "github.com/tdewolff/font", "resources/EBGaramond12-Regular.otf")
 	text, err := canvas.LoadFont(b, 0, canvas.FontRegular)
 	require.NoError(t, err)
 	text.SetFeatures("lnum")

@@ -14,6 +14,8 @@ import (
 	"strings"
 	"testing"
 
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
 	"github.com/tdewolff/canvas"
 	"github.com/tdewolff/font"
 	"golang.org/x/image/font/gofont/gobold"
@@ -27,13 +29,9 @@ const mm = 25.4 / 72 // millimetres per point
 func goFonts(t testing.TB) (*canvas.Font, *canvas.Font) {
 	t.Helper()
 	r, err := canvas.LoadFont(goregular.TTF, 0, canvas.FontRegular)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	b, err := canvas.LoadFont(gobold.TTF, 0, canvas.FontRegular)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	return r, b
 }
 
@@ -47,9 +45,7 @@ func sample(t testing.TB, opts Options) []byte {
 func sampleWith(t testing.TB, opts Options, reg, bold *canvas.Font) []byte {
 	t.Helper()
 	d, err := New(300, 150, opts)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	ctx := canvas.NewContext(d)
 	d.BeginGroup("panel-1", "boiler", `How often "boiler" was used & when`)
 	g := canvas.NewLinearGradient(canvas.Point{X: 10 * mm, Y: 20 * mm}, canvas.Point{X: 140 * mm, Y: 20 * mm})
@@ -105,18 +101,10 @@ func TestWellFormed(t *testing.T) {
 			Title   string `xml:"title"`
 			Desc    string `xml:"desc"`
 		}
-		if err := dec.Decode(&root); err != nil {
-			t.Fatalf("embed=%v: not well-formed XML: %v", embed, err)
-		}
-		if root.XMLName.Space != "http://www.w3.org/2000/svg" || root.XMLName.Local != "svg" {
-			t.Errorf("root is %v", root.XMLName)
-		}
-		if root.Width != "400" || root.Height != "200" || root.ViewBox != "0 0 400 200" {
-			t.Errorf("width %q height %q viewBox %q; want 400, 200, \"0 0 400 200\"", root.Width, root.Height, root.ViewBox)
-		}
-		if root.Role != "img" || root.Title != "A & B" || root.Desc != "d" {
-			t.Errorf("role %q title %q desc %q", root.Role, root.Title, root.Desc)
-		}
+		require.NoError(t, dec.Decode(&root), "embed=%v: not well-formed XML", embed)
+		assert.False(t, root.XMLName.Space != "http://www.w3.org/2000/svg" || root.XMLName.Local != "svg", "root is %v", root.XMLName)
+		assert.False(t, root.Width != "400" || root.Height != "200" || root.ViewBox != "0 0 400 200", "width %q height %q viewBox %q; want 400, 200, \"0 0 400 200\"", root.Width, root.Height, root.ViewBox)
+		assert.False(t, root.Role != "img" || root.Title != "A & B" || root.Desc != "d", "role %q title %q desc %q", root.Role, root.Title, root.Desc)
 	}
 }
 
@@ -127,9 +115,7 @@ func TestWellFormed(t *testing.T) {
 // top.
 func TestUnits(t *testing.T) {
 	d, err := New(4*72, 3*72, Options{})
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	ctx := canvas.NewContext(d)
 	ctx.SetFillColor(canvas.Black)
 	ctx.DrawPath(25.4, 25.4, canvas.Rectangle(25.4, 25.4))
@@ -138,9 +124,7 @@ func TestUnits(t *testing.T) {
 		t.Fatal(err)
 	}
 	s := buf.String()
-	if !strings.Contains(s, `width="384" height="288"`) {
-		t.Errorf("4 × 3 in should be 384 × 288 px:\n%s", s)
-	}
+	assert.True(t, strings.Contains(s, `width="384" height="288"`), "4 × 3 in should be 384 × 288 px:\n%s", s)
 	pts := pathPoints(t, regexp.MustCompile(`d="([^"]*)"`).FindStringSubmatch(s)[1])
 	want := [][2]float64{{96, 192}, {192, 192}, {192, 96}, {96, 96}}
 	for _, w := range want {
@@ -150,9 +134,7 @@ func TestUnits(t *testing.T) {
 				found = true
 			}
 		}
-		if !found {
-			t.Errorf("corner %v missing from %v", w, pts)
-		}
+		assert.True(t, found, "corner %v missing from %v", w, pts)
 	}
 }
 
@@ -168,9 +150,7 @@ func pathPoints(t testing.TB, d string) [][2]float64 {
 	toks := tok.FindAllString(d, -1)
 	num := func(i *int) float64 {
 		v, err := strconv.ParseFloat(toks[*i], 64)
-		if err != nil {
-			t.Fatalf("path data %q: %v", d, err)
-		}
+		require.NoError(t, err, "path data %q", d)
 		*i++
 		return v
 	}
@@ -220,9 +200,7 @@ func pathPoints(t testing.TB, d string) [][2]float64 {
 // accumulating along the line).
 func TestPathDataRoundTrip(t *testing.T) {
 	d, err := New(900, 200, Options{})
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	p := &canvas.Path{}
 	var ends [][2]float64 // in px, y down
 	y := 100.0
@@ -249,16 +227,12 @@ func TestPathDataRoundTrip(t *testing.T) {
 	data := regexp.MustCompile(`d="([^"]*)"`).FindStringSubmatch(buf.String())[1]
 	// The first M, then every segment's end point.
 	got := append([][2]float64{pathPoints(t, data)[0]}, segmentEnds(t, data)...)
-	if len(got) != len(ends) {
-		t.Fatalf("read back %d points, drew %d", len(got), len(ends))
-	}
+	require.False(t, len(got) != len(ends), "read back %d points, drew %d", len(got), len(ends))
 	worst := 0.0
 	for k := range ends {
 		worst = math.Max(worst, math.Hypot(got[k][0]-ends[k][0], got[k][1]-ends[k][1]))
 	}
-	if worst > 0.05*math.Sqrt2+1e-9 {
-		t.Errorf("an end point moved %.3f px; rounding to 0.1 px allows %.3f", worst, 0.05*math.Sqrt2)
-	}
+	assert.False(t, worst > 0.05*math.Sqrt2+1e-9, "an end point moved %.3f px; rounding to 0.1 px allows %.3f", worst, 0.05*math.Sqrt2)
 	if s := strings.Count(data, "s"); s == 0 {
 		t.Errorf("a C¹ spline should use the s shorthand; path data: %.200s", data)
 	}
@@ -333,23 +307,15 @@ func TestGradientsAndText(t *testing.T) {
 func TestEmbeddedSubset(t *testing.T) {
 	s := string(sample(t, Options{EmbedFonts: true}))
 	m := regexp.MustCompile(`font-weight:(\w+);font-style:normal;src:url\(data:font/ttf;base64,([A-Za-z0-9+/=]+)\)`).FindAllStringSubmatch(s, -1)
-	if len(m) != 2 {
-		t.Fatalf("want 2 @font-face rules (regular and bold), found %d", len(m))
-	}
+	require.False(t, len(m) != 2, "want 2 @font-face rules (regular and bold), found %d", len(m))
 	used := map[string]string{"bold": "Maßstab & <co>", "normal": "18681900"}
 	for _, mm := range m {
 		raw, err := base64.StdEncoding.DecodeString(mm[2])
-		if err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, err)
 		f, err := font.ParseSFNT(raw, 0)
-		if err != nil {
-			t.Fatalf("%s subset does not parse: %v", mm[1], err)
-		}
+		require.NoError(t, err, "%s subset does not parse", mm[1])
 		for _, r := range used[mm[1]] {
-			if f.GlyphIndex(r) == 0 {
-				t.Errorf("%s subset lacks %q", mm[1], r)
-			}
+			assert.False(t, f.GlyphIndex(r) == 0, "%s subset lacks %q", mm[1], r)
 		}
 		// OpenType "head" table: the whole file sums to 0xB1B0AFBA once
 		// checksumAdjustment is in, and the modified date is the font's
@@ -362,17 +328,13 @@ func TestEmbeddedSubset(t *testing.T) {
 			orig = gobold.TTF
 		}
 		of, _ := font.ParseSFNT(orig, 0)
-		if of.Head.Modified != f.Head.Modified {
-			t.Errorf("%s subset: modified %v, the font says %v", mm[1], f.Head.Modified, of.Head.Modified)
-		}
+		assert.False(t, of.Head.Modified != f.Head.Modified, "%s subset: modified %v, the font says %v", mm[1], f.Head.Modified, of.Head.Modified)
 		if n := f.NumGlyphs(); n > 20 {
 			t.Errorf("%s subset has %d glyphs; want only those drawn", mm[1], n)
 		}
 	}
 	fam := regexp.MustCompile(`font-family="(` + EmbeddedFamily + `-[0-9a-f]{8}), sans-serif"`).FindStringSubmatch(s)
-	if fam == nil {
-		t.Fatalf("embedded family (%s-HASH) should lead the font-family list", EmbeddedFamily)
-	}
+	require.False(t, fam == nil, "embedded family (%s-HASH) should lead the font-family list", EmbeddedFamily)
 	if strings.Count(s, `font-family:"`+fam[1]+`"`) != len(m) {
 		t.Errorf("every @font-face should be named %s", fam[1])
 	}
@@ -382,9 +344,7 @@ func TestEmbeddedSubset(t *testing.T) {
 func TestDeterministic(t *testing.T) {
 	a := sample(t, Options{EmbedFonts: true, Title: "t"})
 	b := sample(t, Options{EmbedFonts: true, Title: "t"})
-	if !bytes.Equal(a, b) {
-		t.Error("two renderings differ")
-	}
+	assert.True(t, bytes.Equal(a, b), "two renderings differ")
 }
 
 // TestRsvgRenders has librsvg (rsvg-convert, Debian librsvg2-bin), an
@@ -394,13 +354,9 @@ func TestRsvgRenders(t *testing.T) {
 	rsvg := tooltest.Require(t, "rsvg-convert", "librsvg2-bin")
 	dir := t.TempDir()
 	in := filepath.Join(dir, "s.svg")
-	if err := os.WriteFile(in, sample(t, Options{EmbedFonts: true}), 0o644); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, os.WriteFile(in, sample(t, Options{EmbedFonts: true}), 0o644))
 	out, err := exec.Command(rsvg, "-o", filepath.Join(dir, "s.png"), in).CombinedOutput()
-	if err != nil || len(out) > 0 {
-		t.Fatalf("rsvg-convert: %v\n%s", err, out)
-	}
+	require.False(t, err != nil || len(out) > 0, "rsvg-convert: %v\n%s", err, out)
 }
 
 // TestBadInput: errors, never panics.

@@ -11,6 +11,8 @@ import (
 	"strings"
 	"testing"
 
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
 	"github.com/tdewolff/canvas"
 
 	"sheaf/palette"
@@ -21,30 +23,20 @@ var look = flag.String("look", "", "also write the default sheet as PNG to this 
 func sheet(t testing.TB, eras []float64, paperHex string, width float64) (palette.Scale, palette.Report) {
 	t.Helper()
 	s, err := palette.NewScale(palette.DefaultName, palette.DefaultAnchors(1868, 2025), eras)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	paper, err := palette.ParseHex(paperHex)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	r, err := palette.Check(s, paper, width, palette.Print, palette.DefaultThresholds())
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	return s, r
 }
 
 func render(t testing.TB, s palette.Scale, r palette.Report, dpi float64) (image.Image, []byte) {
 	t.Helper()
 	var buf bytes.Buffer
-	if err := WritePNG(&buf, s, r, dpi); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, WritePNG(&buf, s, r, dpi))
 	img, err := png.Decode(bytes.NewReader(buf.Bytes()))
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	return img, buf.Bytes()
 }
 
@@ -74,9 +66,7 @@ func TestSheetShowsThePalette(t *testing.T) {
 		t.Errorf("image %d × %d px", w, h)
 	}
 	if *look != "" {
-		if err := os.WriteFile(*look, data, 0o644); err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, os.WriteFile(*look, data, 0o644))
 	}
 	// Paper colour in the corner, exactly.
 	if got := px(img, dpi, 2, 2).Hex(); got != "#fbf8f1" {
@@ -119,9 +109,7 @@ func TestDeterministic(t *testing.T) {
 	s, r := sheet(t, nil, "#ffffff", 0.5)
 	_, a := render(t, s, r, 72)
 	_, b := render(t, s, r, 72)
-	if !bytes.Equal(a, b) {
-		t.Error("two renders differ")
-	}
+	assert.True(t, bytes.Equal(a, b), "two renders differ")
 }
 
 // The sample curves are stroked at the report's line width: at 600 dpi
@@ -150,9 +138,7 @@ func TestCurveLineWidth(t *testing.T) {
 		t.Logf("%v pt: %d px solid, nominal %.1f", width, best, want)
 		// Solid core of an anti-aliased, slightly sloped stroke: within 2 px
 		// below and 15% above the nominal width.
-		if float64(best) < want-2 || float64(best) > want*1.15+0.5 {
-			t.Errorf("%v pt line: %d px of solid ink, want about %.1f", width, best, want)
-		}
+		assert.False(t, float64(best) < want-2 || float64(best) > want*1.15+0.5, "%v pt line: %d px of solid ink, want about %.1f", width, best, want)
 	}
 }
 
@@ -178,8 +164,6 @@ func BenchmarkWritePNG150(b *testing.B) {
 	s, r := sheet(b, nil, "#ffffff", 0.75)
 	for b.Loop() {
 		var buf bytes.Buffer
-		if err := WritePNG(&buf, s, r, 150); err != nil {
-			b.Fatal(err)
-		}
+		require.NoError(b, WritePNG(&buf, s, r, 150))
 	}
 }

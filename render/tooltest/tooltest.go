@@ -8,11 +8,87 @@ package tooltest
 
 import (
 	"errors"
+	"fmt"
+	"io"
 	"os"
 	"os/exec"
 	"path/filepath"
+	"sort"
+	"strings"
+	"sync"
 	"testing"
 )
+
+// skips counts the checks skipped for want of an outside program, by
+// Debian package, with the programs or files missing.
+var skips = struct {
+	sync.Mutex
+	n       int
+	missing map[string]map[string]bool // package → programs and files
+}{missing: map[string]map[string]bool{}}
+
+func skipped(what, debianPackage string) {
+	skips.Lock()
+	defer skips.Unlock()
+	skips.n++
+	if skips.missing[debianPackage] == nil {
+		skips.missing[debianPackage] = map[string]bool{}
+	}
+	skips.missing[debianPackage][what] = true
+}
+
+// Main runs a package's tests and then, when some were skipped for want
+// of an outside program, says so in one line: how many, and which
+// programs are missing from which Debian packages. A package whose tests
+// call Require has a TestMain that calls it:
+//
+//	func TestMain(m *testing.M) { tooltest.Main(m) }
+//
+// `go test ./...` shows a passing package's output only with -v, so
+// without -v the line goes to the terminal (/dev/tty) when there is one:
+// the person who ran the tests sees it beside the package's "ok" line.
+// Without a terminal (CI, where SHEAF_REQUIRE_TOOLS=1 fails instead) it
+// goes to the test output.
+func Main(m *testing.M) {
+	code := m.Run()
+	var w io.Writer = os.Stdout
+	if !testing.Verbose() {
+		if tty, err := os.OpenFile("/dev/tty", os.O_WRONLY, 0); err == nil {
+			defer tty.Close()
+			w = tty
+		}
+	}
+	Report(w)
+	if f, ok := w.(*os.File); ok && f != os.Stdout {
+		f.Close()
+	}
+	os.Exit(code)
+}
+
+// Report writes the one line Main prints (nothing when no check was
+// skipped).
+func Report(w io.Writer) {
+	skips.Lock()
+	defer skips.Unlock()
+	if skips.n == 0 {
+		return
+	}
+	var pkgs []string
+	for p, what := range skips.missing {
+		var ws []string
+		for x := range what {
+			ws = append(ws, x)
+		}
+		sort.Strings(ws)
+		pkgs = append(pkgs, p+" ("+strings.Join(ws, ", ")+")")
+	}
+	sort.Strings(pkgs)
+	checks := "checks"
+	if skips.n == 1 {
+		checks = "check"
+	}
+	fmt.Fprintf(w, "tooltest: %d outside %s skipped; missing: %s; install them with the apt-get line in README (Tests)\n", skips.n, checks, strings.Join(pkgs, ", "))
+}
 
 // EnvRequire is the environment variable that turns a skip into a failure.
 const EnvRequire = "SHEAF_REQUIRE_TOOLS"
@@ -30,6 +106,7 @@ func Require(t testing.TB, program, debianPackage string) string {
 	if os.Getenv(EnvRequire) == "1" {
 		t.Fatalf("%s (required because %s=1)", msg, EnvRequire)
 	}
+	skipped(program, debianPackage)
 	t.Skip(msg)
 	return ""
 }
@@ -57,6 +134,7 @@ func RequireFile(t testing.TB, path, debianPackage string) string {
 	if os.Getenv(EnvRequire) == "1" {
 		t.Fatalf("%s (required because %s=1)", msg, EnvRequire)
 	}
+	skipped(path, debianPackage)
 	t.Skip(msg)
 	return ""
 }

@@ -196,14 +196,15 @@ type agg struct {
 }
 
 type reader struct {
-	spec   *specs.Spec
-	totals map[int]float64
-	errs   *specs.Errors
-	fold   bool
-	folder cases.Caser
-	rows   int
-	counts [][]float64 // of the selected terms, by pass2 or from pass1
-	keep   bool        // pass1 keeps every term's counts (see keepLimit)
+	spec    *specs.Spec
+	totals  map[int]float64
+	errs    *specs.Errors
+	fold    bool
+	folder  cases.Caser
+	rows    int
+	counts  [][]float64 // of the selected terms, by pass2 or from pass1
+	keep    bool        // pass1 keeps every term's counts (see keepLimit)
+	keepAll bool        // keep every term's counts, however many (Catalog)
 
 	lastRaw, lastKey string // key's one-entry cache
 }
@@ -725,6 +726,8 @@ func seenAt(first, here specs.Pos) string {
 func (r *reader) keepLimit() int {
 	t := r.spec.Terms
 	switch {
+	case r.keepAll:
+		return -1
 	case t.Top > 0:
 		return 2 * (t.Top + len(t.List))
 	case len(t.List) > 0:

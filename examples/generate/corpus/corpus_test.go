@@ -34,41 +34,29 @@ var demo = sync.OnceValues(func() (Corpus, error) { return Generate(DefaultConfi
 func mustDemo(t testing.TB) Corpus {
 	t.Helper()
 	c, err := demo()
-	if err != nil {
-		t.Fatalf("Generate(DefaultConfig()): %v", err)
-	}
+	require.NoError(t, err, "Generate(DefaultConfig())")
 	return c
 }
 
 func render(t testing.TB, c Corpus) (counts, totals []byte) {
 	t.Helper()
 	var cb, tb bytes.Buffer
-	if err := c.WriteCounts(&cb); err != nil {
-		t.Fatal(err)
-	}
-	if err := c.WriteTotals(&tb); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, c.WriteCounts(&cb))
+	require.NoError(t, c.WriteTotals(&tb))
 	return cb.Bytes(), tb.Bytes()
 }
 
 func TestDeterministic(t *testing.T) {
 	a := mustDemo(t)
 	b, err := Generate(DefaultConfig())
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	ac, at := render(t, a)
 	bc, bt := render(t, b)
-	if !bytes.Equal(ac, bc) || !bytes.Equal(at, bt) {
-		t.Fatal("same Config gave different bytes")
-	}
+	require.False(t, !bytes.Equal(ac, bc) || !bytes.Equal(at, bt), "same Config gave different bytes")
 	cfg := DefaultConfig()
 	cfg.Seed++
 	d, err := Generate(cfg)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	if dc, _ := render(t, d); bytes.Equal(ac, dc) {
 		t.Fatal("a different seed gave the same counts")
 	}
@@ -78,18 +66,12 @@ func TestMissingYears(t *testing.T) {
 	c := mustDemo(t)
 	counts, totals := render(t, c)
 	for _, y := range WarYears() {
-		if slices.Contains(c.Years, y) {
-			t.Errorf("war year %d is in Years", y)
-		}
+		assert.False(t, slices.Contains(c.Years, y), "war year %d is in Years", y)
 		for _, r := range parse(t, counts)[1:] {
-			if r[1] == strconv.Itoa(y) {
-				t.Fatalf("war year %d appears in counts: %v", y, r)
-			}
+			require.False(t, r[1] == strconv.Itoa(y), "war year %d appears in counts: %v", y, r)
 		}
 		for _, r := range parse(t, totals)[1:] {
-			if r[0] == strconv.Itoa(y) {
-				t.Fatalf("war year %d appears in totals", y)
-			}
+			require.False(t, r[0] == strconv.Itoa(y), "war year %d appears in totals", y)
 		}
 	}
 	// Every other year of the span is present, in order.
@@ -103,9 +85,7 @@ func TestCountsWithinTotals(t *testing.T) {
 	c := mustDemo(t)
 	sum := make([]int, len(c.Years))
 	for _, term := range c.Terms {
-		if len(term.Counts) != len(c.Years) {
-			t.Fatalf("%q: %d counts for %d years", term.Name, len(term.Counts), len(c.Years))
-		}
+		require.False(t, len(term.Counts) != len(c.Years), "%q: %d counts for %d years", term.Name, len(term.Counts), len(c.Years))
 		for j, n := range term.Counts {
 			if n < 0 || n > c.Totals[j] {
 				t.Fatalf("%q in %d: count %d outside 0..%d", term.Name, c.Years[j], n, c.Totals[j])
@@ -124,24 +104,16 @@ func TestCountsWithinTotals(t *testing.T) {
 func TestTotalsGrow(t *testing.T) {
 	c := mustDemo(t)
 	first, last := float64(c.Totals[0]), float64(c.Totals[len(c.Totals)-1])
-	if first < 1_600_000 || first > 2_500_000 {
-		t.Errorf("1868 total %v, want about 2 million", first)
-	}
-	if last < 12_000_000 || last > 18_000_000 {
-		t.Errorf("2025 total %v, want about 15 million", last)
-	}
+	assert.False(t, first < 1_600_000 || first > 2_500_000, "1868 total %v, want about 2 million", first)
+	assert.False(t, last < 12_000_000 || last > 18_000_000, "2025 total %v, want about 15 million", last)
 	// The war dips: the year before the gap is lower than a few years earlier.
 	at := func(y int) int { return c.Totals[slices.Index(c.Years, y)] }
-	if at(1916) >= at(1912) || at(1942) >= at(1938) {
-		t.Errorf("no wartime dip: 1912 %d, 1916 %d, 1938 %d, 1942 %d", at(1912), at(1916), at(1938), at(1942))
-	}
+	assert.False(t, at(1916) >= at(1912) || at(1942) >= at(1938), "no wartime dip: 1912 %d, 1916 %d, 1938 %d, 1942 %d", at(1912), at(1916), at(1938), at(1942))
 }
 
 func TestTermNames(t *testing.T) {
 	c := mustDemo(t)
-	if len(c.Terms) != DefaultConfig().Terms {
-		t.Fatalf("%d terms, want %d", len(c.Terms), DefaultConfig().Terms)
-	}
+	require.False(t, len(c.Terms) != DefaultConfig().Terms, "%d terms, want %d", len(c.Terms), DefaultConfig().Terms)
 	var nonASCII, hyphen, compound int
 	for i, term := range c.Terms {
 		n := term.Name
@@ -166,9 +138,7 @@ func TestTermNames(t *testing.T) {
 			compound++
 		}
 	}
-	if nonASCII < 5 || hyphen < 10 || compound < 100 {
-		t.Errorf("%d non-ASCII, %d hyphenated, %d two-word names; want at least 5, 10, 100", nonASCII, hyphen, compound)
-	}
+	assert.False(t, nonASCII < 5 || hyphen < 10 || compound < 100, "%d non-ASCII, %d hyphenated, %d two-word names; want at least 5, 10, 100", nonASCII, hyphen, compound)
 	for _, want := range []string{"Maßstab", "café", "naïve", "rôle", "über-gear"} {
 		if _, ok := slices.BinarySearchFunc(c.Terms, want, func(t Term, s string) int { return cmp.Compare(t.Name, s) }); !ok {
 			t.Errorf("missing the Unicode test term %q", want)
@@ -494,17 +464,13 @@ func TestTopTermsVaried(t *testing.T) {
 		}
 		decades[best] = true
 	}
-	if len(decades) < 14 || len(shapes) < 7 {
-		t.Errorf("top 384 peak in %d decades with %d shapes; want ≥ 14 of 16 decades and ≥ 7 of 8 shapes", len(decades), len(shapes))
-	}
+	assert.False(t, len(decades) < 14 || len(shapes) < 7, "top 384 peak in %d decades with %d shapes; want ≥ 14 of 16 decades and ≥ 7 of 8 shapes", len(decades), len(shapes))
 }
 
 func parse(t testing.TB, b []byte) [][]string {
 	t.Helper()
 	rows, err := csv.NewReader(bytes.NewReader(b)).ReadAll()
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	return rows
 }
 
@@ -513,9 +479,7 @@ func TestCSV(t *testing.T) {
 	c := mustDemo(t)
 	counts, totals := render(t, c)
 	for name, b := range map[string][]byte{"counts": counts, "totals": totals} {
-		if bytes.Contains(b, []byte("\r")) || !utf8.Valid(b) || !bytes.HasSuffix(b, []byte("\n")) {
-			t.Errorf("%s: want UTF-8 with LF line ends", name)
-		}
+		assert.False(t, bytes.Contains(b, []byte("\r")) || !utf8.Valid(b) || !bytes.HasSuffix(b, []byte("\n")), "%s: want UTF-8 with LF line ends", name)
 	}
 	tr := parse(t, totals)
 	if !slices.Equal(tr[0], []string{"year", "total"}) || len(tr)-1 != len(c.Years) {
@@ -538,17 +502,11 @@ func TestCSV(t *testing.T) {
 	for _, r := range cr[1:] {
 		year, err1 := strconv.Atoi(r[1])
 		n, err2 := strconv.Atoi(r[2])
-		if err1 != nil || err2 != nil || n <= 0 {
-			t.Fatalf("bad row %v", r)
-		}
-		if r[0] < prevTerm || r[0] == prevTerm && year <= prevYear {
-			t.Fatalf("row %v out of order after %s,%d", r, prevTerm, prevYear)
-		}
+		require.False(t, err1 != nil || err2 != nil || n <= 0, "bad row %v", r)
+		require.False(t, r[0] < prevTerm || r[0] == prevTerm && year <= prevYear, "row %v out of order after %s,%d", r, prevTerm, prevYear)
 		prevTerm, prevYear = r[0], year
 		j := slices.Index(c.Years, year)
-		if j < 0 {
-			t.Fatalf("row %v: year not in totals", r)
-		}
+		require.False(t, j < 0, "row %v: year not in totals", r)
 		if got[r[0]] == nil {
 			got[r[0]] = make([]int, len(c.Years))
 		}
@@ -597,12 +555,8 @@ func TestOtherSizes(t *testing.T) {
 		{Terms: 300, Seed: 2, From: 1800, To: 1900, Missing: WarYears()},
 	} {
 		c, err := Generate(cfg)
-		if err != nil {
-			t.Fatalf("%+v: %v", cfg, err)
-		}
-		if len(c.Terms) != cfg.Terms || len(c.Years) != cfg.To-cfg.From+1-countIn(cfg.Missing, cfg.From, cfg.To) {
-			t.Errorf("%+v: %d terms over %d years", cfg, len(c.Terms), len(c.Years))
-		}
+		require.NoError(t, err, "%+v", cfg)
+		assert.False(t, len(c.Terms) != cfg.Terms || len(c.Years) != cfg.To-cfg.From+1-countIn(cfg.Missing, cfg.From, cfg.To), "%+v: %d terms over %d years", cfg, len(c.Terms), len(c.Years))
 		if !slices.IsSortedFunc(c.Terms, func(a, b Term) int { return cmp.Compare(a.Name, b.Name) }) {
 			t.Errorf("%+v: terms not sorted", cfg)
 		}
@@ -622,19 +576,13 @@ func countIn(ys []int, from, to int) int {
 func TestWriteDir(t *testing.T) {
 	dir := t.TempDir()
 	cfg := Config{Terms: 50, Seed: 3, From: 1900, To: 1960, Missing: WarYears()}
-	if err := WriteDir(filepath.Join(dir, "sub"), cfg); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, WriteDir(filepath.Join(dir, "sub"), cfg))
 	c, err := Generate(cfg)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	counts, totals := render(t, c)
 	for name, want := range map[string][]byte{CountsFile: counts, TotalsFile: totals} {
 		got, err := os.ReadFile(filepath.Join(dir, "sub", name))
-		if err != nil || !bytes.Equal(got, want) {
-			t.Errorf("%s: file differs from the Write method's output (err %v)", name, err)
-		}
+		assert.False(t, err != nil || !bytes.Equal(got, want), "%s: file differs from the Write method's output (err %v)", name, err)
 	}
 	if err := WriteDir(dir+"/sub", Config{}); err == nil {
 		t.Error("WriteDir with zero Config: no error")
@@ -660,9 +608,7 @@ func BenchmarkWriteDir4000(b *testing.B) {
 	cfg.Terms = 4000
 	dir := b.TempDir()
 	for b.Loop() {
-		if err := WriteDir(dir, cfg); err != nil {
-			b.Fatal(err)
-		}
+		require.NoError(b, WriteDir(dir, cfg))
 	}
 }
 

@@ -14,6 +14,8 @@ import (
 	"github.com/pdfcpu/pdfcpu/pkg/api"
 	"github.com/pdfcpu/pdfcpu/pkg/pdfcpu/model"
 	"github.com/pdfcpu/pdfcpu/pkg/pdfcpu/types"
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
 	"github.com/tdewolff/canvas"
 	"golang.org/x/image/font/gofont/gobold"
 	"golang.org/x/image/font/gofont/goregular"
@@ -41,9 +43,7 @@ func boxes() pdf.PageBoxes {
 
 func font(t *testing.T, b []byte) *canvas.Font {
 	f, err := canvas.LoadFont(b, 0, canvas.FontRegular)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	return f
 }
 
@@ -83,13 +83,9 @@ func documentFor(t *testing.T, pages int, cond *press.Condition) []byte {
 	var buf bytes.Buffer
 	w := pdf.NewWriter(&buf, pdf.Options{Title: "Read back", Version: "0.0.1", Date: testDate, Press: cond})
 	for i := 0; i < pages; i++ {
-		if err := w.AddPage(pdf.PageSetup{Boxes: boxes(), Marks: &pdf.MarkOptions{}, Slug: "read-back test", Press: cond}, drawing(reg, bold)); err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, w.AddPage(pdf.PageSetup{Boxes: boxes(), Marks: &pdf.MarkOptions{}, Slug: "read-back test", Press: cond}, drawing(reg, bold)))
 	}
-	if err := w.Close(); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, w.Close())
 	return buf.Bytes()
 }
 
@@ -100,21 +96,15 @@ func readStrict(t *testing.T, b []byte) *model.Context {
 	conf := model.NewDefaultConfiguration()
 	conf.ValidationMode = model.ValidationStrict
 	ctx, err := api.ReadContext(bytes.NewReader(b), conf)
-	if err != nil {
-		t.Fatalf("pdfcpu read: %v", err)
-	}
-	if err := api.ValidateContext(ctx); err != nil {
-		t.Fatalf("pdfcpu strict validation: %v", err)
-	}
+	require.NoError(t, err, "pdfcpu read")
+	require.NoError(t, api.ValidateContext(ctx), "pdfcpu strict validation")
 	return ctx
 }
 
 func dict(t *testing.T, ctx *model.Context, o types.Object) types.Dict {
 	t.Helper()
 	d, err := ctx.DereferenceDict(o)
-	if err != nil || d == nil {
-		t.Fatalf("dereference %v: %v", o, err)
-	}
+	require.False(t, err != nil || d == nil, "dereference %v: %v", o, err)
 	return d
 }
 
@@ -122,13 +112,9 @@ func TestPDFCPUReadBack(t *testing.T) {
 	t.Run("RGB", func(t *testing.T) { readBack(t, nil) })
 	t.Run("CMYK", func(t *testing.T) {
 		b, err := os.ReadFile(tooltest.ICCProfile(t, "default_cmyk.icc"))
-		if err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, err)
 		cond, err := press.New(b, press.Settings{Registry: "http://www.color.org", InkLimit: 300, Intent: icc.RelativeColorimetric})
-		if err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, err)
 		readBack(t, cond)
 	})
 }
@@ -138,14 +124,10 @@ func readBack(t *testing.T, cond *press.Condition) {
 	doc := documentFor(t, pages, cond)
 	ctx := readStrict(t, doc)
 
-	if ctx.PageCount != pages {
-		t.Errorf("page count %d, want %d", ctx.PageCount, pages)
-	}
+	assert.False(t, ctx.PageCount != pages, "page count %d, want %d", ctx.PageCount, pages)
 	want := boxes()
 	pbs, err := ctx.PageBoundaries(nil)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	near := func(r *types.Rectangle, w canvas.Rect) bool {
 		return r != nil && math.Abs(r.LL.X-w.X0) < 0.01 && math.Abs(r.LL.Y-w.Y0) < 0.01 &&
 			math.Abs(r.UR.X-w.X1) < 0.01 && math.Abs(r.UR.Y-w.Y1) < 0.01
@@ -163,18 +145,14 @@ func readBack(t *testing.T, cond *press.Condition) {
 		}
 		// PDF/X: TrimBox or ArtBox, not both (print-facts.md, PDF/X-4).
 		d, _, _, err := ctx.PageDict(i+1, false)
-		if err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, err)
 		if _, ok := d.Find("ArtBox"); ok {
 			t.Errorf("page %d has an ArtBox besides its TrimBox", i+1)
 		}
 		// every font embedded (PDF/X-4, print-facts.md)
 		res := dict(t, ctx, d["Resources"])
 		fonts := dict(t, ctx, res["Font"])
-		if len(fonts) < 2 {
-			t.Errorf("page %d has %d fonts, want the two test fonts", i+1, len(fonts))
-		}
+		assert.False(t, len(fonts) < 2, "page %d has %d fonts, want the two test fonts", i+1, len(fonts))
 		for name, f := range fonts {
 			fd := dict(t, ctx, f)
 			if st := fd.NameEntry("Subtype"); st == nil || *st != "Type0" {
@@ -184,9 +162,7 @@ func readBack(t *testing.T, cond *press.Condition) {
 				t.Errorf("font %s has no ToUnicode", name)
 			}
 			arr, err := ctx.DereferenceArray(fd["DescendantFonts"])
-			if err != nil || len(arr) != 1 {
-				t.Fatalf("font %s descendants: %v", name, err)
-			}
+			require.False(t, err != nil || len(arr) != 1, "font %s descendants: %v", name, err)
 			cid := dict(t, ctx, arr[0])
 			if st := cid.NameEntry("Subtype"); st == nil || *st != "CIDFontType2" {
 				t.Errorf("font %s descendant %v, want CIDFontType2", name, st)
@@ -199,9 +175,7 @@ func readBack(t *testing.T, cond *press.Condition) {
 	}
 
 	root, err := ctx.Catalog()
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	if cond == nil {
 		// An RGB file makes no PDF/X claim: no output intent.
 		if _, ok := root.Find("OutputIntents"); ok {
@@ -209,9 +183,7 @@ func readBack(t *testing.T, cond *press.Condition) {
 		}
 	} else {
 		ois, err := ctx.DereferenceArray(root["OutputIntents"])
-		if err != nil || len(ois) != 1 {
-			t.Fatalf("OutputIntents %v (%v); PDF/X-4 wants exactly one", ois, err)
-		}
+		require.False(t, err != nil || len(ois) != 1, "OutputIntents %v (%v); PDF/X-4 wants exactly one", ois, err)
 		oi := dict(t, ctx, ois[0])
 		if s := oi.NameEntry("S"); s == nil || *s != "GTS_PDFX" {
 			t.Errorf("output intent S = %v, want GTS_PDFX", s)
@@ -235,9 +207,7 @@ func readBack(t *testing.T, cond *press.Condition) {
 			t.Errorf("Info has no %s", k)
 		}
 	}
-	if len(ctx.ID) != 2 {
-		t.Errorf("trailer /ID = %v, want two strings (required by PDF/X)", ctx.ID)
-	}
+	assert.False(t, len(ctx.ID) != 2, "trailer /ID = %v, want two strings (required by PDF/X)", ctx.ID)
 }
 
 // TestCachedPageValidates: a page that went through encoding/gob and
@@ -245,16 +215,10 @@ func readBack(t *testing.T, cond *press.Condition) {
 func TestCachedPageValidates(t *testing.T) {
 	bold := font(t, gobold.TTF)
 	page, err := pdf.EncodePage(pdf.PageSetup{Boxes: boxes()}, drawing(font(t, goregular.TTF), bold))
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	var buf bytes.Buffer
 	w := pdf.NewWriter(&buf, pdf.Options{Date: testDate})
-	if err := w.AddEncoded(page); err != nil {
-		t.Fatal(err)
-	}
-	if err := w.Close(); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, w.AddEncoded(page))
+	require.NoError(t, w.Close())
 	readStrict(t, buf.Bytes())
 }

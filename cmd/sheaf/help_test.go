@@ -1,0 +1,35 @@
+package main
+
+import (
+	"bytes"
+	"regexp"
+	"strings"
+	"testing"
+
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
+)
+
+// TestHelpSame: `sheaf COMMAND -h` prints exactly what `sheaf help
+// COMMAND` prints, on stdout, with flags spelled --flag as README writes
+// them.
+func TestHelpSame(t *testing.T) {
+	for _, c := range commands() {
+		if c.run == nil {
+			continue
+		}
+		var o1, e1, o2, e2 bytes.Buffer
+		require.Equal(t, exitOK, run([]string{"help", c.name}, &o1, &e1), c.name)
+		for _, h := range []string{"-h", "--help"} {
+			o2.Reset()
+			e2.Reset()
+			require.Equal(t, exitOK, run([]string{c.name, h}, &o2, &e2), c.name)
+			assert.Equal(t, o1.String(), o2.String(), "sheaf %s %s", c.name, h)
+			assert.Empty(t, e2.String(), "sheaf %s %s: nothing on stderr", c.name, h)
+		}
+		if strings.Contains(o1.String(), "\nFlags:") {
+			assert.Regexp(t, `(?m)^  --[a-z]`, o1.String(), c.name)
+		}
+		assert.NotRegexp(t, regexp.MustCompile(`(?m)^\s+-[a-z]`), o1.String(), "%s: no single-dash flags", c.name)
+	}
+}

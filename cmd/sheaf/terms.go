@@ -1,0 +1,172 @@
+package main
+
+import (
+	"encoding/json"
+	"fmt"
+	"io"
+	"regexp"
+	"sort"
+	"strconv"
+	"strings"
+	"text/tabwriter"
+	"unicode/utf8"
+
+	"sheaf/specs"
+	"sheaf/specs/series"
+)
+
+// termColumns are the columns `sheaf terms` can sort by, in table order.
+var termColumns = []string{"term", "total", "share", "peak", "median", "years", "selected"}
+
+func runTerms(args []string, stdout, stderr io.Writer) int {
+	fs := newFlags("terms", termsArgs,
+		"List the terms in the spec's data, to choose from: each term's total count over the span, its share of\n"+
+			"all words printed (per million), its peak year (the year of its highest count per word printed), the\n"+
+			"median of its yearly counts over the years it appears, how many years it appears, and whether the\n"+
+			"spec's terms selection takes it (yes/no).", stderr)
+	match := fs.String("match", "", "only terms containing `TEXT` (any case)")
+	pattern := fs.String("pattern", "", "only terms matching the regular expression `RE` (Go RE2 syntax; (?i) for any case)")
+	by := fs.String("sort", "share", "sort by `COLUMN`: "+strings.Join(termColumns, ", ")+" (term and selected A→Z and yes first; numbers largest first)")
+	reverse := fs.Bool("reverse", false, "reverse the order")
+	selected := fs.Bool("selected", false, "only the terms the spec selects")
+	limit := fs.Int("limit", 0, "at most `N` terms (0: all)")
+	asJSON := fs.Bool("json", false, "print a JSON array on stdout (share as a fraction, not per million)")
+	path, code, ok := startCommand(fs, args, stderr)
+	if !ok {
+		return code
+	}
+	if !contains(termColumns, *by) {
+		fmt.Fprintf(stderr, "sheaf terms: --sort %q: give one of %s\n", *by, strings.Join(termColumns, ", "))
+		return exitBadInput
+	}
+	var re *regexp.Regexp
+	if *pattern != "" {
+		var err error
+		if re, err = regexp.Compile(*pattern); err != nil {
+			fmt.Fprintf(stderr, "sheaf terms: --pattern: %v\n", err)
+			return exitBadInput
+		}
+	}
+	if *limit < 0 {
+		fmt.Fprintf(stderr, "sheaf terms: --limit %d: give 0 (all) or more\n", *limit)
+		return exitBadInput
+	}
+	spec, err := specs.Load(path)
+	if err != nil {
+		return report(stderr, specs.BadInput(err))
+	}
+	all, err := series.Catalog(spec)
+	if err != nil {
+		return report(stderr, specs.BadInput(err))
+	}
+	needle := strings.ToLower(*match)
+	rows := all[:0:0]
+	for _, t := range all {
+		if *selected && !t.Selected || needle != "" && !strings.Contains(strings.ToLower(t.Term), needle) || re != nil && !re.MatchString(t.Term) {
+			continue
+		}
+		rows = append(rows, t)
+	}
+	sortTerms(rows, *by, *reverse)
+	if *limit > 0 && len(rows) > *limit {
+		rows = rows[:*limit]
+	}
+	if *asJSON {
+		enc := json.NewEncoder(stdout)
+		enc.SetIndent("", "  ")
+		enc.SetEscapeHTML(false)
+		if rows == nil {
+			rows = []series.TermStats{}
+		}
+		if err := enc.Encode(rows); err != nil {
+			fmt.Fprintln(stderr, err)
+			return exitFindings
+		}
+		return exitOK
+	}
+	// Numbers align right; the term, padded to the longest, stays left.
+	wide := len("term")
+	for _, t := range rows {
+		wide = max(wide, utf8.RuneCountInString(t.Term))
+	}
+	pad := func(s string) string { return s + strings.Repeat(" ", wide-utf8.RuneCountInString(s)) }
+	tw := tabwriter.NewWriter(stdout, 0, 0, 2, ' ', tabwriter.AlignRight)
+	fmt.Fprintln(tw, pad("term")+"\ttotal\tper million\tpeak\tmedian\tyears\tselected\t")
+	for _, t := range rows {
+		yes := "no"
+		if t.Selected {
+			yes = "yes"
+		}
+		peak := "–"
+		if t.PeakYear != 0 {
+			peak = strconv.Itoa(t.PeakYear)
+		}
+		fmt.Fprintf(tw, "%s\t%s\t%.2f\t%s\t%s\t%d\t%s\t\n", pad(t.Term), num(t.Total), t.Share*1e6, peak, num(t.Median), t.Years, yes)
+	}
+	tw.Flush()
+	sel := 0
+	for _, t := range all {
+		if t.Selected {
+			sel++
+		}
+	}
+	fmt.Fprintf(stderr, "%d of %d terms shown; the spec selects %d\n", len(rows), len(all), sel)
+	return exitOK
+}
+
+const termsArgs = "SPEC [--match TEXT] [--pattern RE] [--sort COLUMN] [--reverse] [--selected] [--limit N] [--json]"
+
+// num writes a count: whole numbers without a fraction.
+func num(v float64) string {
+	if v == float64(int64(v)) {
+		return strconv.FormatInt(int64(v), 10)
+	}
+	return strconv.FormatFloat(v, 'f', 1, 64)
+}
+
+func contains(xs []string, x string) bool {
+	for _, y := range xs {
+		if x == y {
+			return true
+		}
+	}
+	return false
+}
+
+// sortTerms orders rows by a column: term A→Z, selected first, numbers
+// largest first; ties by term, so the order is the same every time.
+func sortTerms(rows []series.TermStats, by string, reverse bool) {
+	key := func(t *series.TermStats) float64 {
+		switch by {
+		case "total":
+			return t.Total
+		case "share":
+			return t.Share
+		case "peak":
+			return float64(t.PeakYear)
+		case "median":
+			return t.Median
+		case "years":
+			return float64(t.Years)
+		case "selected":
+			if t.Selected {
+				return 1
+			}
+		}
+		return 0
+	}
+	less := func(a, b *series.TermStats) bool {
+		if by != "term" {
+			if ka, kb := key(a), key(b); ka != kb {
+				return ka > kb
+			}
+		}
+		return a.Term < b.Term
+	}
+	sort.SliceStable(rows, func(i, j int) bool {
+		if reverse {
+			return less(&rows[j], &rows[i])
+		}
+		return less(&rows[i], &rows[j])
+	})
+}
