@@ -3,6 +3,8 @@ package layout
 import (
 	"testing"
 
+	"github.com/stretchr/testify/require"
+
 	"sheaf/layout/fonts"
 	"sheaf/specs"
 )
@@ -22,9 +24,7 @@ func fontSet(t testing.TB) *fonts.Set {
 	t.Helper()
 	if testFonts == nil {
 		fs, err := fonts.Default()
-		if err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, err, "loading the default fonts")
 		testFonts = fs
 	}
 	return testFonts
@@ -87,8 +87,6 @@ func webScroll() specs.Output {
 func solveT(t testing.TB, spec *specs.Spec, out specs.Output, groups []Group) *Plan {
 	t.Helper()
 	p, err := Solve(spec, &out, fontSet(t), groups)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err, "solving output %q", out.Name)
 	return p
 }

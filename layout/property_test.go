@@ -7,6 +7,9 @@ import (
 	"math/rand/v2"
 	"testing"
 
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
+
 	"sheaf/specs"
 )
 
@@ -84,30 +87,21 @@ func TestPropertiesRandomSpecs(t *testing.T) {
 		if errors.As(err, &inf) {
 			for _, rem := range inf.Remedies {
 				fixed := out
-				if err := rem.Apply(&fixed); err != nil {
-					t.Fatal(err)
-				}
-				if _, err := Solve(spec, &fixed, fs, groups); err != nil {
-					t.Fatalf("trial %d: %v: remedy %q fails: %v", trial, inf, rem.Text, err)
-				}
+				require.NoError(t, rem.Apply(&fixed), "trial %d: applying remedy %q", trial, rem.Text)
+				_, err := Solve(spec, &fixed, fs, groups)
+				require.NoError(t, err, "trial %d: %v: remedy %q fails", trial, inf, rem.Text)
 			}
 			if len(inf.Remedies) == 0 {
 				noRemedy++
 			}
 			continue
 		}
-		if err != nil {
-			t.Fatalf("trial %d: %v", trial, err)
-		}
+		require.NoError(t, err, "trial %d", trial)
 		feasible++
-		if msg := checkPlan(p, &out, groups); msg != "" {
-			t.Fatalf("trial %d (%s, %d columns, groups %v): %s", trial, out.Kind, p.Columns, groups, msg)
-		}
+		require.Empty(t, checkPlan(p, &out, groups), "trial %d (%s, %d columns, groups %v): the plan's faults", trial, out.Kind, p.Columns, groups)
 	}
 	t.Logf("%d of 600 feasible; %d infeasible without a remedy", feasible, noRemedy)
-	if feasible < 300 {
-		t.Errorf("only %d of 600 random outputs were feasible: the generator tests too little", feasible)
-	}
+	assert.GreaterOrEqual(t, feasible, 300, "feasible outputs of 600: fewer and the generator tests too little")
 }
 
 // TestPropertiesKeyRepeats draws scrolling screen outputs only, most with
@@ -130,17 +124,14 @@ func TestPropertiesKeyRepeats(t *testing.T) {
 			continue // remedies are TestPropertiesRandomSpecs's business
 		}
 		plans++
-		if msg := checkPlan(p, &out, groups); msg != "" {
-			t.Fatalf("trial %d (%s, key-every %.1f px, %d columns, groups %v): %s", trial, out.Flow, out.KeyEvery.Px(), p.Columns, groups, msg)
-		}
+		require.Empty(t, checkPlan(p, &out, groups), "trial %d (%s, key-every %.1f px, %d columns, groups %v): the plan's faults", trial, out.Flow, out.KeyEvery.Px(), p.Columns, groups)
 		for _, pg := range p.Pages {
 			repeats += len(pg.KeyRepeats)
 		}
 	}
 	t.Logf("%d scrolling plans, %d repeated keys", plans, repeats)
-	if plans < 300 || repeats < 300 {
-		t.Errorf("%d plans with %d repeated keys: the generator tests too little", plans, repeats)
-	}
+	assert.GreaterOrEqual(t, plans, 300, "scrolling plans: fewer and the generator tests too little")
+	assert.GreaterOrEqual(t, repeats, 300, "repeated keys: fewer and the generator tests too little")
 }
 
 // checkPlan tests the invariants every plan must keep. It recomputes what

@@ -5,6 +5,9 @@ import (
 	"strings"
 	"testing"
 
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
+
 	"sheaf/specs"
 )
 
@@ -98,47 +101,36 @@ func TestRemediesFound(t *testing.T) {
 			out := mk()
 			_, err := Solve(spec, &out, fs, groups)
 			var inf *InfeasibleError
-			if !errors.As(err, &inf) {
-				t.Fatalf("error %v, want *InfeasibleError", err)
-			}
+			require.True(t, errors.As(err, &inf), "error %v, want *InfeasibleError", err)
 			msg := err.Error()
 			t.Log(msg)
 			for _, w := range tc.want {
-				if !strings.Contains(msg, w) {
-					t.Errorf("message lacks %q", w)
-				}
+				assert.Contains(t, msg, w, "the infeasibility message")
 			}
 			switch {
 			case tc.first == "" && tc.name == "screen pages: sizes in px":
-				if len(inf.Remedies) == 0 || !strings.HasSuffix(inf.Remedies[0].Text, " px dek") {
-					t.Errorf("remedies %v, want px type sizes first", inf.Remedies)
-				}
+				assert.True(t, len(inf.Remedies) > 0 && strings.HasSuffix(inf.Remedies[0].Text, " px dek"),
+					"remedies %v, want px type sizes first", inf.Remedies)
 			case tc.first == "":
 				for _, r := range inf.Remedies {
-					if strings.Contains(r.Text, " pt ") {
-						t.Errorf("type remedy %q offered, though 5 pt does not fit", r.Text)
-					}
+					assert.NotContains(t, r.Text, " pt ", "type remedy offered, though 5 pt does not fit")
 				}
-			case len(inf.Remedies) == 0 || inf.Remedies[0].Text != tc.first:
-				t.Errorf("remedies %v, want %q first", inf.Remedies, tc.first)
+			default:
+				if assert.NotEmpty(t, inf.Remedies, "remedies offered") {
+					assert.Equal(t, tc.first, inf.Remedies[0].Text, "the first remedy of %v", inf.Remedies)
+				}
 			}
 			for _, r := range inf.Remedies {
 				fixed := mk()
-				if err := r.Apply(&fixed); err != nil {
-					t.Fatal(err)
-				}
-				if _, err := Solve(spec, &fixed, fs, groups); err != nil {
-					t.Errorf("remedy %q does not work: %v", r.Text, err)
-				}
+				require.NoError(t, r.Apply(&fixed), "applying remedy %q", r.Text)
+				_, err := Solve(spec, &fixed, fs, groups)
+				assert.NoError(t, err, "remedy %q does not work", r.Text)
 			}
 			if tc.closer != nil {
 				closer := mk()
-				if err := (Remedy{Set: tc.closer}).Apply(&closer); err != nil {
-					t.Fatal(err)
-				}
-				if _, err := Solve(spec, &closer, fs, groups); err == nil {
-					t.Errorf("%v also works: the remedy is not the nearest", tc.closer)
-				}
+				require.NoError(t, (Remedy{Set: tc.closer}).Apply(&closer), "applying %v", tc.closer)
+				_, err := Solve(spec, &closer, fs, groups)
+				assert.Error(t, err, "%v also works: the remedy is not the nearest", tc.closer)
 			}
 		})
 	}
@@ -153,9 +145,7 @@ func TestWithArticle(t *testing.T) {
 		{"18 px", "an 18 px"}, {"80 px", "an 80 px"}, {"1.8 mm", "a 1.8 mm"},
 		{"110 pt", "a 110 pt"}, {"0.5 mm", "a 0.5 mm"}, {"11000 px", "an 11000 px"},
 	} {
-		if got := withArticle(tc.in); got != tc.want {
-			t.Errorf("withArticle(%q) = %q, want %q", tc.in, got, tc.want)
-		}
+		assert.Equal(t, tc.want, withArticle(tc.in), "withArticle(%q)", tc.in)
 	}
 }
 

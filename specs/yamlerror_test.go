@@ -5,6 +5,8 @@ import (
 	"fmt"
 	"strings"
 	"testing"
+
+	"github.com/stretchr/testify/require"
 )
 
 // bigSpec returns a valid spec padded with n comment-free notes, about
@@ -40,13 +42,10 @@ func TestSyntaxErrorDeepInLongSpec(t *testing.T) {
 		t.Run(c.name, func(t *testing.T) {
 			_, err := Parse("big.yaml", []byte(bigSpec(c.n, 20)+c.fault))
 			var errs Errors
-			if !errors.As(err, &errs) || len(errs) != 1 {
-				t.Fatalf("want one error, got %v", err)
-			}
-			got := fmt.Sprintf("%d:%d", errs[0].Pos.Line, errs[0].Pos.Col)
-			if got != c.at || !strings.Contains(errs[0].Msg, c.want) {
-				t.Fatalf("got %s %q, want %s %q", got, errs[0].Msg, c.at, c.want)
-			}
+			require.True(t, errors.As(err, &errs), "want spec Errors, got %v", err)
+			require.Len(t, errs, 1, "errors reported")
+			require.Equal(t, c.at, fmt.Sprintf("%d:%d", errs[0].Pos.Line, errs[0].Pos.Col), "line:col of %q", errs[0].Msg)
+			require.Contains(t, errs[0].Msg, c.want, "the syntax error message")
 		})
 	}
 }

@@ -5,6 +5,9 @@ import (
 	"image/color"
 	"image/draw"
 	"testing"
+
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
 )
 
 // solid is a w × h image of one colour whose bounds start at min, so
@@ -42,15 +45,11 @@ func TestThumbnailKeepsProportions(t *testing.T) {
 		t.Run(tc.name, func(t *testing.T) {
 			img := solid(tc.w, tc.h, red, image.Pt(7, 11))
 			th := Thumbnail(img, tc.width)
-			if got := th.Bounds(); got != image.Rect(0, 0, tc.width, tc.wantH) {
-				t.Fatalf("thumbnail %v, want %d × %d", got, tc.width, tc.wantH)
-			}
+			require.Equal(t, image.Rect(0, 0, tc.width, tc.wantH), th.Bounds(), "thumbnail bounds")
 			// A one-colour page stays that colour (interpolation of equal
 			// values is the value).
 			for _, p := range []image.Point{{0, 0}, {tc.width / 2, tc.wantH / 2}, {tc.width - 1, tc.wantH - 1}} {
-				if c := th.RGBAAt(p.X, p.Y); c != red {
-					t.Errorf("pixel %v = %v, want %v", p, c, red)
-				}
+				assert.Equal(t, red, th.RGBAAt(p.X, p.Y), "thumbnail pixel %v", p)
 			}
 		})
 	}
@@ -61,13 +60,10 @@ func TestThumbnailKeepsProportions(t *testing.T) {
 func TestThumbnailBadWidth(t *testing.T) {
 	for _, w := range []int{0, -5} {
 		th := Thumbnail(solid(100, 140, red, image.Point{}), w)
-		if th.Bounds().Dx() < 1 || th.Bounds().Dy() < 1 {
-			t.Errorf("Thumbnail(width %d) is %v, want at least one pixel", w, th.Bounds())
-		}
+		assert.GreaterOrEqual(t, th.Bounds().Dx(), 1, "width of Thumbnail(width %d)", w)
+		assert.GreaterOrEqual(t, th.Bounds().Dy(), 1, "height of Thumbnail(width %d)", w)
 	}
-	if th := Thumbnail(image.NewRGBA(image.Rect(0, 0, 0, 10)), 240); th.Bounds().Empty() {
-		t.Error("Thumbnail of an empty image is empty")
-	}
+	assert.False(t, Thumbnail(image.NewRGBA(image.Rect(0, 0, 0, 10)), 240).Bounds().Empty(), "Thumbnail of an empty image is empty")
 }
 
 // TestSheetSize checks the sheet's pixel size against the layout worked
@@ -102,9 +98,7 @@ func TestSheetSize(t *testing.T) {
 				thumbs = append(thumbs, solid(tc.tw, tc.th, red, image.Point{}))
 			}
 			s := Sheet(thumbs, tc.cols)
-			if got := s.Bounds(); got != image.Rect(0, 0, tc.wantW, tc.wantH) {
-				t.Errorf("sheet %v, want %d × %d", got, tc.wantW, tc.wantH)
-			}
+			assert.Equal(t, image.Rect(0, 0, tc.wantW, tc.wantH), s.Bounds(), "sheet bounds")
 		})
 	}
 }
@@ -132,28 +126,20 @@ func TestSheetPlacesThumbnails(t *testing.T) {
 		numberArea := image.Rect(o.X, o.Y+cellH, o.X+cellW, o.Y+cellH+label)
 		if th == nil {
 			for _, p := range []image.Point{o, o.Add(image.Pt(cellW/2, cellH/2))} {
-				if c := s.RGBAAt(p.X, p.Y); c != board {
-					t.Errorf("empty cell %d: pixel %v is %v, want the board %v", i, p, c, board)
-				}
+				assert.Equal(t, board, s.RGBAAt(p.X, p.Y), "empty cell %d: pixel %v, want the board", i, p)
 			}
-			if inked(s, numberArea) {
-				t.Errorf("empty cell %d has a number under it", i)
-			}
+			assert.False(t, inked(s, numberArea), "empty cell %d has a number under it", i)
 			continue
 		}
 		b := th.Bounds()
 		want := th.At(b.Min.X, b.Min.Y)
 		for _, p := range []image.Point{o, o.Add(image.Pt(b.Dx()-1, b.Dy()-1))} {
-			if c := s.At(p.X, p.Y); c != want {
-				t.Errorf("cell %d: pixel %v is %v, want the thumbnail's %v", i, p, c, want)
-			}
+			assert.Equal(t, want, s.At(p.X, p.Y), "cell %d: pixel %v, want the thumbnail's", i, p)
 		}
-		if c := s.RGBAAt(o.X+b.Dx()+5, o.Y+5); c != board && b.Dx() < cellW {
-			t.Errorf("cell %d: right of a narrower thumbnail is %v, want the board", i, c)
+		if b.Dx() < cellW {
+			assert.Equal(t, board, s.RGBAAt(o.X+b.Dx()+5, o.Y+5), "cell %d: right of a narrower thumbnail, want the board", i)
 		}
-		if !inked(s, image.Rect(o.X, o.Y+b.Dy(), o.X+b.Dx(), o.Y+b.Dy()+label)) {
-			t.Errorf("cell %d has no page number under it", i)
-		}
+		assert.True(t, inked(s, image.Rect(o.X, o.Y+b.Dy(), o.X+b.Dx(), o.Y+b.Dy()+label)), "cell %d has no page number under it", i)
 	}
 }
 

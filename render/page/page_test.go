@@ -7,13 +7,14 @@ import (
 	"image/color"
 	"math"
 	"math/rand/v2"
-	"slices"
 	"strconv"
 	"strings"
 	"testing"
 	"time"
 	"unicode/utf8"
 
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
 	"github.com/tdewolff/canvas"
 
 	"sheaf/layout"
@@ -35,24 +36,16 @@ const smallSpec = "../../testdata/small/spec.yaml"
 func smallFeature(t testing.TB, edit func(s *specs.Spec, out *specs.Output)) *Feature {
 	t.Helper()
 	s, err := specs.Load(smallSpec)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	d, err := series.Load(s)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	out := s.Output("print")
-	if out == nil {
-		t.Fatal("testdata/small has no print output")
-	}
+	require.NotNil(t, out, "testdata/small's print output")
 	if edit != nil {
 		edit(s, out)
 	}
 	f, err := PrepareForTest(s, d, out)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	return f
 }
 
@@ -66,9 +59,7 @@ func proof(t testing.TB, f *Feature, i int, dpi float64) *image.RGBA {
 	t.Helper()
 	m := f.Plan.Pages[i].Media
 	img, err := raster.Draw(m.W(), m.H(), dpi, color.White, func(ctx *canvas.Context) error { return f.Draw(ctx, i) })
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	return img
 }
 
@@ -81,9 +72,7 @@ func proof(t testing.TB, f *Feature, i int, dpi float64) *image.RGBA {
 // one that leaves that room.
 func TestTickYearsNeverCollide(t *testing.T) {
 	fs, err := fonts.Default()
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	round := []int{5, 10, 20, 25, 50, 100, 200, 250, 500, 1000}
 	r := rand.New(rand.NewPCG(7, 11))
 	checked := 0
@@ -97,43 +86,36 @@ func TestTickYearsNeverCollide(t *testing.T) {
 				x := func(y int) float64 { return (float64(y-from) / float64(span)) * width }
 				step := 0
 				for i, y := range ys {
-					if y < from || y > from+span {
-						t.Fatalf("size %g, span %d–%d, width %.1f: tick %d outside the span", size, from, from+span, width, y)
-					}
+					require.True(t, y >= from && y <= from+span, "size %g, span %d–%d, width %.1f: tick %d outside the span", size, from, from+span, width, y)
 					if i == 0 {
 						continue
 					}
 					d := y - ys[i-1]
 					if step == 0 {
 						step = d
-					} else if d != step {
-						t.Fatalf("size %g, span %d–%d, width %.1f: uneven ticks %v", size, from, from+span, width, ys)
+					} else {
+						require.Equal(t, step, d, "size %g, span %d–%d, width %.1f: tick steps of %v", size, from, from+span, width, ys)
 					}
 					wa := fs.Width(fonts.Regular, size, strconv.Itoa(ys[i-1]))
 					wb := fs.Width(fonts.Regular, size, strconv.Itoa(y))
-					if gap := x(y) - x(ys[i-1]) - (wa+wb)/2; gap < size-1e-9 {
-						t.Fatalf("size %g, span %d–%d, width %.1f: labels %d and %d are %.2f pt apart, want ≥ %g (one em)",
-							size, from, from+span, width, ys[i-1], y, gap, size)
-					}
+					require.GreaterOrEqual(t, x(y)-x(ys[i-1])-(wa+wb)/2, size-1e-9,
+						"size %g, span %d–%d, width %.1f: space between labels %d and %d, want one em", size, from, from+span, width, ys[i-1], y)
 				}
 				// Round years: multiples of a round step (one tick alone:
 				// of 5 at least).
-				if len(ys) >= 2 && !slices.Contains(round, step) {
-					t.Fatalf("size %g, span %d–%d, width %.1f: step %d is not round", size, from, from+span, width, step)
+				if len(ys) >= 2 {
+					require.Contains(t, round, step, "size %g, span %d–%d, width %.1f: the step is not round", size, from, from+span, width)
 				}
 				for _, y := range ys {
-					if y%max(step, 5) != 0 {
-						t.Fatalf("size %g, span %d–%d, width %.1f: tick %d is not a multiple of %d", size, from, from+span, width, y, max(step, 5))
-					}
+					require.Zero(t, y%max(step, 5), "size %g, span %d–%d, width %.1f: tick %d is not a multiple of %d", size, from, from+span, width, y, max(step, 5))
 				}
 				// Minimal: the round step below the chosen one would not
 				// leave a four-digit label and an em.
 				if len(ys) >= 2 {
 					for i, s := range round {
 						if s == step && i > 0 {
-							if prev := float64(round[i-1]) * width / float64(span); prev >= four+size {
-								t.Fatalf("size %g, span %d, width %.1f: step %d chosen, but %d leaves %.1f pt ≥ %.1f", size, span, width, step, round[i-1], prev, four+size)
-							}
+							require.Less(t, float64(round[i-1])*width/float64(span), four+size,
+								"size %g, span %d, width %.1f: step %d chosen, but the room %d leaves", size, span, width, step, round[i-1])
 						}
 					}
 				}
@@ -141,9 +123,7 @@ func TestTickYearsNeverCollide(t *testing.T) {
 			}
 		}
 	}
-	if checked < 5000 {
-		t.Errorf("only %d cases checked", checked)
-	}
+	assert.GreaterOrEqual(t, checked, 5000, "cases checked")
 }
 
 // TestLabelsFit checks how terms are set beside the peak year
@@ -200,66 +180,43 @@ func TestLabelsFit(t *testing.T) {
 				f.Plan.PanelW = f.Fonts.Width(fonts.Bold, floor, tc.roomFor) - 0.01
 			case tc.noPeakFit:
 				f.Plan.PanelW = f.Fonts.Width(fonts.Bold, tc.label, tc.term) + 0.01
-				if f.Plan.PanelW-peakW >= f.Fonts.Width(fonts.Bold, floor, tc.term) {
-					t.Fatalf("test setup: the term fits beside the peak at the floor")
-				}
+				require.Less(t, f.Plan.PanelW-peakW, f.Fonts.Width(fonts.Bold, floor, tc.term), "test setup: the term fits beside the peak at the floor")
 			case tc.panelW == 0: // room for the term at 92 % of its size
 				f.Plan.PanelW = peakW + f.Fonts.Width(fonts.Bold, 0.92*tc.label, tc.term)
 			}
 			room := f.Plan.PanelW - peakW
 			f.fitLabels()
 			ls := f.Labels()
-			if len(ls) != len(f.Data.Series) {
-				t.Fatalf("Labels() has %d entries, want %d", len(ls), len(f.Data.Series))
-			}
+			require.Len(t, ls, len(f.Data.Series), "Labels() entries")
 			l := ls[0]
-			if l.NoPeak != tc.wantNoPeak {
-				t.Errorf("peak left out %v, want %v", l.NoPeak, tc.wantNoPeak)
-			}
+			assert.Equal(t, tc.wantNoPeak, l.NoPeak, "peak left out")
 			if l.NoPeak {
 				room = f.Plan.PanelW
 			}
 			t.Logf("%q in %.1f pt: %q at %.2f pt", tc.term, room, l.Text, l.Size)
-			if l.Item != 0 || l.Term != tc.term {
-				t.Errorf("label is item %d %q, want 0 %q", l.Item, l.Term, tc.term)
-			}
-			if l.Shrunk != tc.wantShrunk || l.Truncated != tc.wantTruncated {
-				t.Errorf("shrunk %v, truncated %v; want %v, %v", l.Shrunk, l.Truncated, tc.wantShrunk, tc.wantTruncated)
-			}
-			if l.Size < floor-1e-9 || l.Size > tc.label {
-				t.Errorf("size %.3f outside floor %.3f – label size %g", l.Size, floor, tc.label)
-			}
-			if l.Shrunk != (l.Size < tc.label) {
-				t.Errorf("Shrunk is %v at size %.3f of %g", l.Shrunk, l.Size, tc.label)
-			}
-			if w := f.Fonts.Width(fonts.Bold, l.Size, l.Text); w > room+1e-9 {
-				t.Errorf("%q at %.2f pt is %.2f pt wide; the room is %.2f", l.Text, l.Size, w, room)
-			}
-			if tc.wantText != "" && l.Text != tc.wantText {
-				t.Errorf("text %q, want %q", l.Text, tc.wantText)
+			assert.Equal(t, 0, l.Item, "label item")
+			assert.Equal(t, tc.term, l.Term, "label term")
+			assert.Equal(t, tc.wantShrunk, l.Shrunk, "label shrunk")
+			assert.Equal(t, tc.wantTruncated, l.Truncated, "label truncated")
+			assert.GreaterOrEqual(t, l.Size, floor-1e-9, "label size against the floor")
+			assert.LessOrEqual(t, l.Size, tc.label, "label size against the label type size")
+			assert.Equal(t, l.Size < tc.label, l.Shrunk, "Shrunk at size %.3f of %g", l.Size, tc.label)
+			assert.LessOrEqual(t, f.Fonts.Width(fonts.Bold, l.Size, l.Text), room+1e-9, "width of %q at %.2f pt against the room", l.Text, l.Size)
+			if tc.wantText != "" {
+				assert.Equal(t, tc.wantText, l.Text, "label text")
 			}
 			if !l.Truncated {
-				if l.Text != tc.term {
-					t.Errorf("text %q, want the term %q", l.Text, tc.term)
-				}
+				assert.Equal(t, tc.term, l.Text, "label text, want the term")
 				return
 			}
-			if l.Size != floor {
-				t.Errorf("cut at %.3f pt before shrinking to the floor %.3f", l.Size, floor)
-			}
+			assert.Equal(t, floor, l.Size, "size of a cut label (cut before shrinking to the floor?)")
 			head, ok := strings.CutSuffix(l.Text, "…")
-			if !ok || !strings.HasPrefix(tc.term, head) || !utf8.ValidString(head) {
-				t.Fatalf("cut text %q is not a prefix of %q and an ellipsis", l.Text, tc.term)
-			}
-			if strings.HasSuffix(head, "-") || strings.HasSuffix(head, " ") {
-				t.Errorf("cut text %q ends in a hyphen or space before the ellipsis", l.Text)
-			}
+			require.True(t, ok && strings.HasPrefix(tc.term, head) && utf8.ValidString(head), "cut text %q is not a prefix of %q and an ellipsis", l.Text, tc.term)
+			assert.False(t, strings.HasSuffix(head, "-") || strings.HasSuffix(head, " "), "cut text %q ends in a hyphen or space before the ellipsis", l.Text)
 			// As long as fits: one more rune would not.
 			n := utf8.RuneCountInString(head)
 			longer := strings.TrimRight(string([]rune(tc.term)[:n+1]), " -") + "…"
-			if f.Fonts.Width(fonts.Bold, l.Size, longer) <= room && longer != l.Text {
-				t.Errorf("cut to %q, but %q fits too", l.Text, longer)
-			}
+			assert.False(t, f.Fonts.Width(fonts.Bold, l.Size, longer) <= room && longer != l.Text, "cut to %q, but %q fits too", l.Text, longer)
 		})
 	}
 }
@@ -310,13 +267,9 @@ func checkInside(t *testing.T, f *Feature, pn layout.Panel, lw float64, dot bool
 	t.Helper()
 	sr := &f.Data.Series[pn.Item]
 	m, err := f.PlotMap(pn)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	runs, err := curve.Build(f.Data.Years, sr.Values, m, nil)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	pr := pn.Plot
 	const eps = 1e-9
 	for _, run := range runs {
@@ -327,17 +280,15 @@ func checkInside(t *testing.T, f *Feature, pn layout.Panel, lw float64, dot bool
 			}
 		}
 		for _, p := range pts {
-			if p.Y-lw/2 < pr.Y0-eps || p.Y+lw/2 > pr.Y1+eps || p.X < pr.X0-eps || p.X > pr.X1+eps {
-				t.Fatalf("%q, line %g pt: curve point %.3f,%.3f (± %.3f) leaves the plot %v", sr.Term, lw, p.X, p.Y, lw/2, pr)
-			}
+			require.False(t, p.Y-lw/2 < pr.Y0-eps || p.Y+lw/2 > pr.Y1+eps || p.X < pr.X0-eps || p.X > pr.X1+eps,
+				"%q, line %g pt: curve point %.3f,%.3f (± %.3f) leaves the plot %v", sr.Term, lw, p.X, p.Y, lw/2, pr)
 		}
 	}
 	if dot && sr.Peak > 0 {
 		pk := m.Apply(float64(sr.PeakYear), sr.Peak)
 		reach := f.peakRadius() + Hairline/2
-		if pk.Y+reach > pr.Y1+eps || pk.Y-reach < pr.Y0-eps {
-			t.Fatalf("%q, line %g pt: peak dot at y %.3f reaches %.3f–%.3f, the plot is %.3f–%.3f", sr.Term, lw, pk.Y, pk.Y-reach, pk.Y+reach, pr.Y0, pr.Y1)
-		}
+		require.False(t, pk.Y+reach > pr.Y1+eps || pk.Y-reach < pr.Y0-eps,
+			"%q, line %g pt: peak dot at y %.3f reaches %.3f–%.3f, the plot is %.3f–%.3f", sr.Term, lw, pk.Y, pk.Y-reach, pk.Y+reach, pr.Y0, pr.Y1)
 	}
 }
 
@@ -346,29 +297,19 @@ func checkInside(t *testing.T, f *Feature, pn layout.Panel, lw float64, dot bool
 // without error.
 func TestDrawSmall(t *testing.T) {
 	f := smallFeature(t, nil)
-	if len(f.Plan.Pages) == 0 {
-		t.Fatal("no pages")
-	}
+	require.NotEmpty(t, f.Plan.Pages, "pages of the plan")
 	var buf bytes.Buffer
 	w := pdf.NewWriter(&buf, pdf.Options{Title: f.Spec.Title, Date: time.Date(2000, 1, 1, 0, 0, 0, 0, time.UTC)})
 	for i, pg := range f.Plan.Pages {
 		img := proof(t, f, i, 100)
 		// Something was drawn: the page is not blank white.
-		if blank(img) {
-			t.Errorf("page %d: the proof is blank", i+1)
-		}
+		assert.False(t, blank(img), "page %d: the proof is blank", i+1)
 		r := func(r layout.Rect) canvas.Rect { return canvas.Rect{X0: r.X0, Y0: r.Y0, X1: r.X1, Y1: r.Y1} }
 		setup := pdf.PageSetup{Boxes: pdf.PageBoxes{Media: r(pg.Media), Bleed: r(pg.Bleed), Trim: r(pg.Trim)}, Marks: &pdf.MarkOptions{}}
-		if err := w.AddPage(setup, func(c *canvas.Canvas) error { return f.Draw(canvas.NewContext(c), i) }); err != nil {
-			t.Fatalf("page %d to PDF: %v", i+1, err)
-		}
+		require.NoError(t, w.AddPage(setup, func(c *canvas.Canvas) error { return f.Draw(canvas.NewContext(c), i) }), "page %d to PDF", i+1)
 	}
-	if err := w.Close(); err != nil {
-		t.Fatal(err)
-	}
-	if !bytes.HasPrefix(buf.Bytes(), []byte("%PDF-")) {
-		t.Error("the PDF writer wrote no PDF header")
-	}
+	require.NoError(t, w.Close())
+	assert.True(t, bytes.HasPrefix(buf.Bytes(), []byte("%PDF-")), "the PDF writer wrote no PDF header")
 }
 
 func blank(img *image.RGBA) bool {
@@ -391,16 +332,14 @@ func TestBadPageIndex(t *testing.T) {
 	}
 	for _, i := range []int{-1, n, n + 5} {
 		err := draw(func(ctx *canvas.Context) error { return f.Draw(ctx, i) })
-		if err == nil || !strings.Contains(err.Error(), "page "+strconv.Itoa(i+1)) {
-			t.Errorf("Draw(page index %d) = %v, want an error naming page %d", i, err, i+1)
+		if assert.Error(t, err, "Draw(page index %d)", i) {
+			assert.Contains(t, err.Error(), "page "+strconv.Itoa(i+1), "Draw(page index %d)'s error names the page", i)
 		}
 	}
 	pn := f.Plan.Pages[0].Panels[0]
 	for _, item := range []int{-1, len(f.Data.Series)} {
 		pn.Item = item
-		if err := draw(func(ctx *canvas.Context) error { return f.DrawPanel(ctx, pn) }); err == nil {
-			t.Errorf("DrawPanel(item %d) gave no error", item)
-		}
+		assert.Error(t, draw(func(ctx *canvas.Context) error { return f.DrawPanel(ctx, pn) }), "DrawPanel(item %d)", item)
 	}
 }
 
@@ -431,9 +370,7 @@ func TestKeyStripCoversPalette(t *testing.T) {
 			f := smallFeature(t, c.edit)
 			pg := f.Plan.Pages[0]
 			keys := pg.Keys()
-			if len(keys) != c.keys {
-				t.Fatalf("%d key bands, want %d", len(keys), c.keys)
-			}
+			require.Len(t, keys, c.keys, "key bands")
 			img := proof(t, f, 0, dpi)
 			for i, k := range keys {
 				checkStrip(t, f, img, pg.Media.H(), dpi, k.Strip, fmt.Sprintf("key %d", i))
@@ -445,9 +382,7 @@ func TestKeyStripCoversPalette(t *testing.T) {
 // checkStrip samples a key strip's two ends on a whole-page proof.
 func checkStrip(t *testing.T, f *Feature, img *image.RGBA, pageH, dpi float64, strip layout.Rect, what string) {
 	t.Helper()
-	if strip.W() <= 0 {
-		t.Fatalf("%s: no key strip", what)
-	}
+	require.Positive(t, strip.W(), "%s: key strip width", what)
 	k := dpi / 72.0
 	row := int((pageH - (strip.Y0+strip.Y1)/2) * k)
 	right := int(strip.X1*k) - 3 // three pixels in from the strip's right end
@@ -456,9 +391,7 @@ func checkStrip(t *testing.T, f *Feature, img *image.RGBA, pageH, dpi float64, s
 	for left > 0 && img.RGBAAt(left-1, row) != (color.RGBA{0xff, 0xff, 0xff, 0xff}) {
 		left--
 	}
-	if float64(right-left) < strip.W()*k/3 {
-		t.Fatalf("%s: strip found from pixel %d to %d, under a third of the key band %.0f px", what, left, right, strip.W()*k)
-	}
+	require.GreaterOrEqual(t, float64(right-left), strip.W()*k/3, "%s: strip found from pixel %d to %d, want a third of the key band at least", what, left, right)
 	left += 3
 	from, to := float64(f.Data.Span.From), float64(f.Data.Span.To)
 	pxAt := func(x int) palette.Color {
@@ -474,28 +407,20 @@ func checkStrip(t *testing.T, f *Feature, img *image.RGBA, pageH, dpi float64, s
 		{"right end, last year", right, f.Palette.At(to).Clip()},
 	} {
 		got := pxAt(c.x)
-		if d := palette.DeltaE00(got.Lab(), c.want.Lab()); d > 2 {
-			t.Errorf("%s: %s: pixel %d is %s, palette %s: ΔE00 %.2f > 2", what, c.name, c.x, got.Hex(), c.want.Hex(), d)
-		}
+		assert.LessOrEqual(t, palette.DeltaE00(got.Lab(), c.want.Lab()), 2.0, "%s: %s: ΔE00 of pixel %d (%s) from the palette's %s", what, c.name, c.x, got.Hex(), c.want.Hex())
 	}
 	// And the two ends differ as the palette's ends do: the strip is not
 	// one colour.
-	if d := palette.DeltaE00(pxAt(left).Lab(), pxAt(right).Lab()); d < 20 {
-		t.Errorf("%s: the strip's ends differ by ΔE00 %.1f only", what, d)
-	}
+	assert.GreaterOrEqual(t, palette.DeltaE00(pxAt(left).Lab(), pxAt(right).Lab()), 20.0, "%s: ΔE00 between the strip's ends", what)
 }
 
 func TestDescribe(t *testing.T) {
 	f := smallFeature(t, nil)
 	for i, sr := range f.Data.Series {
 		title, desc := f.Describe(i)
-		if title != sr.Term {
-			t.Errorf("item %d: title %q, want %q", i, title, sr.Term)
-		}
+		assert.Equal(t, sr.Term, title, "item %d: title", i)
 		for _, want := range []string{strconv.Quote(sr.Term), "1900–1905", "highest in " + strconv.Itoa(sr.PeakYear)} {
-			if !strings.Contains(desc, want) {
-				t.Errorf("item %d: description %q lacks %q", i, desc, want)
-			}
+			assert.Contains(t, desc, want, "item %d: description", i)
 		}
 	}
 }
@@ -525,17 +450,13 @@ func TestPaperFillsBleed(t *testing.T) {
 		t.Run(tc.name, func(t *testing.T) {
 			f := smallFeature(t, func(s *specs.Spec, _ *specs.Output) { s.Palette.Paper = tc.paper })
 			pg := f.Plan.Pages[0]
-			if pg.Bleed.X0 >= pg.Trim.X0 || pg.Media.X0 >= pg.Bleed.X0 {
-				t.Fatalf("the small feature needs bleed and slug: media %v bleed %v trim %v", pg.Media, pg.Bleed, pg.Trim)
-			}
+			require.True(t, pg.Bleed.X0 < pg.Trim.X0 && pg.Media.X0 < pg.Bleed.X0, "the small feature needs bleed and slug: media %v bleed %v trim %v", pg.Media, pg.Bleed, pg.Trim)
 			// Our background is a colour no page draws, to tell unprinted
 			// from printed white.
 			bg := color.RGBA{0, 0xff, 0, 0xff}
 			m := pg.Media
 			img, err := raster.Draw(m.W(), m.H(), dpi, bg, func(ctx *canvas.Context) error { return f.Draw(ctx, 0) })
-			if err != nil {
-				t.Fatal(err)
-			}
+			require.NoError(t, err)
 			k := dpi / 72.0
 			px := func(x, y float64) color.RGBA { return img.RGBAAt(int(x*k), int((m.H()-y)*k)) }
 			midY := (pg.Trim.Y0 + pg.Trim.Y1) / 2
@@ -545,15 +466,9 @@ func TestPaperFillsBleed(t *testing.T) {
 			if tc.paper.V == [3]float64{1, 1, 1} {
 				wantBleed = bg // white paper: nothing printed
 			}
-			if bleed != wantBleed {
-				t.Errorf("bleed pixel %v, want %v", bleed, wantBleed)
-			}
-			if slug != bg {
-				t.Errorf("slug pixel %v: the paper colour ran past the bleed box", slug)
-			}
-			if got := f.PaperColor(); got != tc.want {
-				t.Errorf("PaperColor() = %v, want %v", got, tc.want)
-			}
+			assert.Equal(t, wantBleed, bleed, "bleed pixel")
+			assert.Equal(t, bg, slug, "slug pixel: the paper colour ran past the bleed box?")
+			assert.Equal(t, tc.want, f.PaperColor(), "PaperColor()")
 		})
 	}
 }

@@ -10,6 +10,8 @@ import (
 	"strings"
 	"testing"
 
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
 	"github.com/tdewolff/font"
 	"golang.org/x/image/font/gofont/goregular"
 
@@ -39,12 +41,8 @@ func prepare(t *testing.T, text string) []Finding {
 	dir := t.TempDir()
 	for _, f := range []string{"counts.csv", "totals.csv"} {
 		b, err := os.ReadFile(filepath.Join("testdata", f))
-		if err != nil {
-			t.Fatal(err)
-		}
-		if err := os.WriteFile(filepath.Join(dir, f), b, 0o644); err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, err)
+		require.NoError(t, os.WriteFile(filepath.Join(dir, f), b, 0o644))
 	}
 	return checkSpec(t, dir, text)
 }
@@ -52,17 +50,11 @@ func prepare(t *testing.T, text string) []Finding {
 func checkSpec(t *testing.T, dir, text string) []Finding {
 	t.Helper()
 	path := filepath.Join(dir, "spec.yaml")
-	if err := os.WriteFile(path, []byte(text), 0o644); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, os.WriteFile(path, []byte(text), 0o644))
 	in, err := PrepareForTest(path)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	got, err := Check(in)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	return got
 }
 
@@ -123,22 +115,19 @@ func TestFindings(t *testing.T) {
 			for _, w := range tt.want {
 				id, term, year := split(w)
 				f, ok := has(got, id, term, year)
-				if !ok {
-					t.Errorf("missing %q in\n%s", w, list(got))
+				if !assert.True(t, ok, "missing %q in\n%s", w, list(got)) {
 					continue
 				}
-				if sev, ok := tt.severity[id]; ok && f.Severity != sev {
-					t.Errorf("%s: severity %v, want %v", w, f.Severity, sev)
+				if sev, ok := tt.severity[id]; ok {
+					assert.Equal(t, sev, f.Severity, "%s: severity", w)
 				}
-				if f.Output != "print" || f.Message == "" {
-					t.Errorf("%s: output %q message %q", w, f.Output, f.Message)
-				}
+				assert.Equal(t, "print", f.Output, "%s: output", w)
+				assert.NotEmpty(t, f.Message, "%s: message", w)
 			}
 			for _, w := range tt.wantNot {
 				id, term, year := split(w)
-				if f, ok := has(got, id, term, year); ok {
-					t.Errorf("unexpected %v", f)
-				}
+				f, ok := has(got, id, term, year)
+				assert.False(t, ok, "unexpected %v", f)
 			}
 		})
 	}
@@ -172,20 +161,15 @@ func TestFloorMessages(t *testing.T) {
 	got := prepare(t, specText("    type: {label: 4pt}\n    line: 0.1pt\n", ""))
 	f, _ := has(got, IDTypeFloor, "", 0)
 	// "label" is on line 11 of specText, column 12, "line" on 12:5.
-	if !strings.HasSuffix(f.At, "spec.yaml:11:12") || !strings.Contains(f.Message, "type.label is 4 pt, below the 5 pt floor") {
-		t.Errorf("type finding %v", f)
-	}
+	assert.True(t, strings.HasSuffix(f.At, "spec.yaml:11:12"), "type finding's place: %v", f)
+	assert.Contains(t, f.Message, "type.label is 4 pt, below the 5 pt floor", "type finding")
 	l, _ := has(got, IDLineFloor, "", 0)
-	if !strings.HasSuffix(l.At, "spec.yaml:12:5") || !strings.Contains(l.Message, "0.1 pt, below the 0.25 pt floor") {
-		t.Errorf("line finding %v", l)
-	}
-	if !Stops(got) {
-		t.Error("Stops = false with warnings")
-	}
+	assert.True(t, strings.HasSuffix(l.At, "spec.yaml:12:5"), "line finding's place: %v", l)
+	assert.Contains(t, l.Message, "0.1 pt, below the 0.25 pt floor", "line finding")
+	assert.True(t, Stops(got), "Stops with warnings")
 	// Said once: the layout's own warnings about type and lines are left out.
-	if d, ok := has(got, IDLayout, "", 0); ok {
-		t.Errorf("the same problem reported twice: %v", d)
-	}
+	d, ok := has(got, IDLayout, "", 0)
+	assert.False(t, ok, "the same problem reported twice: %v", d)
 }
 
 // TestMissingGlyph builds a font without "ß": Go Regular subset to
@@ -195,9 +179,7 @@ func TestFloorMessages(t *testing.T) {
 // be reported, and no ASCII term.
 func TestMissingGlyph(t *testing.T) {
 	sf, err := font.ParseSFNT(goregular.TTF, 0)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	ids := []uint16{0}
 	for r := rune(0x20); r < 0x7f; r++ {
 		if id := sf.GlyphIndex(r); id != 0 {
@@ -205,58 +187,43 @@ func TestMissingGlyph(t *testing.T) {
 		}
 	}
 	sub, err := sf.Subset(ids, font.SubsetOptions{Tables: font.KeepMinTables})
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	dir := t.TempDir()
 	ttf := filepath.Join(dir, "ascii.ttf")
-	if err := os.WriteFile(ttf, sub.Write(), 0o644); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, os.WriteFile(ttf, sub.Write(), 0o644))
 	full := filepath.Join(dir, "goregular.ttf")
-	if err := os.WriteFile(full, goregular.TTF, 0o644); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, os.WriteFile(full, goregular.TTF, 0o644))
 	for _, f := range []string{"counts.csv", "totals.csv"} {
 		b, _ := os.ReadFile(filepath.Join("testdata", f))
 		os.WriteFile(filepath.Join(dir, f), b, 0o644)
 	}
 	got := checkSpec(t, dir, specText("    fonts: {regular: goregular.ttf, bold: ascii.ttf}\n", ""))
 	f, ok := has(got, IDGlyph, "Maßstab", 0)
-	if !ok {
-		t.Fatalf("no glyph finding for Maßstab in\n%s", list(got))
-	}
-	if f.Severity != Error || !strings.Contains(f.Message, "U+00DF") || f.Page != 1 {
-		t.Errorf("finding %v", f)
-	}
-	if !Errs(got) || !Stops(got) {
-		t.Errorf("a missing glyph must make check exit 1 (Errs %v, Stops %v)", Errs(got), Stops(got))
-	}
+	require.True(t, ok, "no glyph finding for Maßstab in\n%s", list(got))
+	assert.Equal(t, Error, f.Severity, "glyph finding's severity")
+	assert.Contains(t, f.Message, "U+00DF", "glyph finding")
+	assert.Equal(t, 1, f.Page, "glyph finding's page")
+	assert.True(t, Errs(got), "a missing glyph must make check exit 1 (Errs)")
+	assert.True(t, Stops(got), "a missing glyph must make check exit 1 (Stops)")
 	for _, term := range []string{"boiler", "flash", "silent"} {
-		if g, ok := has(got, IDGlyph, term, 0); ok {
-			t.Errorf("ASCII term reported: %v", g)
-		}
+		g, ok := has(got, IDGlyph, term, 0)
+		assert.False(t, ok, "ASCII term reported: %v", g)
 	}
 	// The regular face is the full Go font: the title, in bold, is ASCII
 	// and the unit line in regular has "·", which Go Regular has.
 	for _, g := range got {
-		if g.ID == IDGlyph && g.Term == "" {
-			t.Errorf("unexpected %v", g)
-		}
+		assert.False(t, g.ID == IDGlyph && g.Term == "", "unexpected %v", g)
 	}
 
 	fcq := tooltest.Require(t, "fc-query", "fontconfig")
 	charset := func(path string) string {
 		out, err := exec.Command(fcq, "--format=%{charset}", path).Output()
-		if err != nil {
-			t.Fatalf("fc-query %s: %v", path, err)
-		}
+		require.NoError(t, err, "fc-query %s", path)
 		return string(out)
 	}
 	// fc-query prints ranges of hex code points, like "20-7e a0-17f".
-	if covers(charset(ttf), 0xdf) || !covers(charset(full), 0xdf) {
-		t.Errorf("fc-query disagrees: subset %q, full %q", charset(ttf), charset(full))
-	}
+	assert.False(t, covers(charset(ttf), 0xdf), "fc-query disagrees: the subset %q covers U+00DF", charset(ttf))
+	assert.True(t, covers(charset(full), 0xdf), "fc-query disagrees: the full font %q lacks U+00DF", charset(full))
 }
 
 // covers reads fontconfig's charset text ("20-7e a0-ff …") and reports
@@ -293,9 +260,9 @@ func TestSpike(t *testing.T) {
 	}
 	for _, tt := range tests {
 		top, second, i := Spike(tt.values)
-		if top != tt.top || second != tt.second || i != tt.index {
-			t.Errorf("Spike(%v) = %v, %v, %d; want %v, %v, %d", tt.values, top, second, i, tt.top, tt.second, tt.index)
-		}
+		assert.Equal(t, tt.top, top, "Spike(%v): top", tt.values)
+		assert.Equal(t, tt.second, second, "Spike(%v): second", tt.values)
+		assert.Equal(t, tt.index, i, "Spike(%v): index", tt.values)
 	}
 }
 
@@ -311,13 +278,9 @@ func TestSpikesInDemoCorpus(t *testing.T) {
 	}
 	cfg := corpus.DefaultConfig()
 	c, err := corpus.Generate(cfg)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	dir := t.TempDir()
-	if err := corpus.WriteDir(dir, cfg); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, corpus.WriteDir(dir, cfg))
 	got := checkSpec(t, dir, fmt.Sprintf(`title: Spikes
 data: {counts: %s, totals: %s}
 years: {from: %d, to: %d}
@@ -343,13 +306,11 @@ outputs:
 			continue // planted, but the term has a busier year elsewhere
 		}
 		checked++
-		if _, ok := has(got, IDSpike, term.Name, term.SpikeYear); !ok {
-			t.Errorf("planted spike %q %d (%.0f vs next %.0f) not reported", term.Name, term.SpikeYear, top, next)
-		}
+		_, ok := has(got, IDSpike, term.Name, term.SpikeYear)
+		assert.True(t, ok, "planted spike %q %d (%.0f vs next %.0f) not reported", term.Name, term.SpikeYear, top, next)
 	}
-	if planted == 0 || checked == 0 {
-		t.Fatalf("corpus planted %d spikes, %d above 4×: nothing to check", planted, checked)
-	}
+	require.Positive(t, planted, "spikes the corpus planted")
+	require.Positive(t, checked, "planted spikes above 4× the next-highest year")
 	t.Logf("%d planted spikes, %d above 4× the next-highest year, all reported", planted, checked)
 }
 
@@ -361,9 +322,8 @@ func TestErrsAndStops(t *testing.T) {
 		errs, stops bool
 	}{{Info, false, false}, {Review, false, false}, {Warning, false, true}, {Error, true, true}} {
 		fs := []Finding{{ID: "x", Severity: c.sev}}
-		if Errs(fs) != c.errs || Stops(fs) != c.stops {
-			t.Errorf("%v: Errs %v Stops %v, want %v %v", c.sev, Errs(fs), Stops(fs), c.errs, c.stops)
-		}
+		assert.Equal(t, c.errs, Errs(fs), "%v: Errs", c.sev)
+		assert.Equal(t, c.stops, Stops(fs), "%v: Stops", c.sev)
 	}
 }
 
@@ -374,10 +334,11 @@ func TestErrsAndStops(t *testing.T) {
 func TestPaperTint(t *testing.T) {
 	got := prepare(t, specText("", "palette: {paper: \"#fbfaf7\"}\n"))
 	f, ok := has(got, IDPaperTint, "", 0)
-	if !ok || f.Severity != Warning || !strings.Contains(f.Message, "#fbfaf7") || f.At == "" {
-		t.Errorf("paper tint finding %v (found %v)", f, ok)
+	if assert.True(t, ok, "paper tint finding") {
+		assert.Equal(t, Warning, f.Severity, "paper tint severity")
+		assert.Contains(t, f.Message, "#fbfaf7", "paper tint message")
+		assert.NotEmpty(t, f.At, "paper tint place")
 	}
-	if _, ok := has(prepare(t, specText("", "")), IDPaperTint, "", 0); ok {
-		t.Error("white paper reported as a tint")
-	}
+	_, ok = has(prepare(t, specText("", "")), IDPaperTint, "", 0)
+	assert.False(t, ok, "white paper reported as a tint")
 }

@@ -6,6 +6,9 @@ import (
 	"strings"
 	"testing"
 
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
+
 	"sheaf/specs"
 )
 
@@ -43,36 +46,29 @@ func TestKeptCountsMatchSecondRead(t *testing.T) {
 		}
 		loadWith := func(extra string) *Set {
 			s, err := specs.Load(feature(t, "counts.csv", text, "", extra))
-			if err != nil {
-				t.Fatal(err)
-			}
+			require.NoError(t, err, "loading the spec")
 			s.Data.FoldCase = true
 			s.Scale.Mode = mode
 			set, err := Load(s)
-			if err != nil {
-				t.Fatal(err)
-			}
+			require.NoError(t, err, "loading the data (%s)", mode)
 			return set
 		}
 		all := loadWith("")                  // can select every term: kept
 		few := loadWith("terms: {top: 3}\n") // keeps at most 6 of 30: read again
-		if all.Terms != 30 || len(all.Series) != 30 || len(few.Series) != 3 {
-			t.Fatalf("%s: terms %d, selected %d and %d", mode, all.Terms, len(all.Series), len(few.Series))
-		}
+		require.Equal(t, 30, all.Terms, "%s: terms", mode)
+		require.Len(t, all.Series, 30, "%s: selected of all", mode)
+		require.Len(t, few.Series, 3, "%s: selected of the top 3", mode)
 		byTerm := map[string]*Series{}
 		for i := range all.Series {
 			byTerm[all.Series[i].Term] = &all.Series[i]
 		}
 		for _, sr := range few.Series {
 			ref := byTerm[sr.Term]
-			if ref == nil {
-				t.Fatalf("%s: %q missing from the full selection", mode, sr.Term)
-			}
+			require.NotNil(t, ref, "%s: %q missing from the full selection", mode, sr.Term)
 			for _, pair := range [][2][]float64{{sr.Counts, ref.Counts}, {sr.Values, ref.Values}} {
 				for j := range pair[0] {
-					if math.Float64bits(pair[0][j]) != math.Float64bits(pair[1][j]) {
-						t.Errorf("%s: %q year %d: read again %v, kept %v", mode, sr.Term, 1900+j, pair[0][j], pair[1][j])
-					}
+					assert.Equal(t, math.Float64bits(pair[1][j]), math.Float64bits(pair[0][j]),
+						"%s: %q year %d: bits read again (%v) and kept (%v)", mode, sr.Term, 1900+j, pair[0][j], pair[1][j])
 				}
 			}
 		}

@@ -9,6 +9,8 @@ import (
 	"strings"
 	"testing"
 	"testing/iotest"
+
+	"github.com/stretchr/testify/assert"
 )
 
 // recordCases are tricky tables for the record reader. The reference is
@@ -108,9 +110,7 @@ func TestRecordsAgreeWithEncodingCSV(t *testing.T) {
 						}
 						return out, err
 					}, r.FieldPos)
-					if got != want {
-						t.Errorf("%s, %s, buffer %d, %s:\ngot\n%s\nwant (encoding/csv)\n%s", tc.name, kind, size, src.name, got, want)
-					}
+					assert.Equal(t, want, got, "%s, %s, buffer %d, %s: records against encoding/csv", tc.name, kind, size, src.name)
 				}
 			}
 		}

@@ -13,6 +13,9 @@ import (
 	"testing"
 	"time"
 
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
+
 	"sheaf/specs"
 )
 
@@ -23,14 +26,10 @@ const small = "../../testdata/small/spec.yaml"
 func loadSmall(t *testing.T, mode specs.ScaleMode, yr specs.YRange) *Set {
 	t.Helper()
 	s, err := specs.Load(small)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	s.Scale = specs.Scale{Mode: mode, YRange: yr}
 	set, err := Load(s)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	return set
 }
 
@@ -38,20 +37,16 @@ const gap = -1 // marks an expected NaN in the tables below
 
 func sameValues(t *testing.T, what string, got, want []float64) {
 	t.Helper()
-	if len(got) != len(want) {
-		t.Errorf("%s: %d values, want %d", what, len(got), len(want))
+	if !assert.Len(t, got, len(want), "%s: values", what) {
 		return
 	}
 	for i := range want {
 		if want[i] == gap {
-			if !math.IsNaN(got[i]) {
-				t.Errorf("%s[%d] = %g, want a gap (NaN)", what, i, got[i])
-			}
+			assert.True(t, math.IsNaN(got[i]), "%s[%d] = %g, want a gap (NaN)", what, i, got[i])
 			continue
 		}
-		if math.IsNaN(got[i]) || math.Abs(got[i]-want[i]) > 1e-9*math.Max(1, math.Abs(want[i])) {
-			t.Errorf("%s[%d] = %.12g, want %.12g", what, i, got[i], want[i])
-		}
+		assert.False(t, math.IsNaN(got[i]), "%s[%d] is a gap, want %.12g", what, i, want[i])
+		assert.InDelta(t, want[i], got[i], 1e-9*math.Max(1, math.Abs(want[i])), "%s[%d]", what, i)
 	}
 }
 
@@ -67,13 +62,11 @@ func sameValues(t *testing.T, what string, got, want []float64) {
 //	1903 is a gap (NaN) for every term: totals.csv has no 1903.
 func TestScaleSmall(t *testing.T) {
 	set := loadSmall(t, specs.ScaleShare, specs.YOwn)
-	if got := fmt.Sprint(set.Gaps); got != "[1903]" {
-		t.Errorf("gaps %s, want [1903]", got)
-	}
+	assert.Equal(t, "[1903]", fmt.Sprint(set.Gaps), "gap years")
 	sameValues(t, "years", set.Years, []float64{1900, 1901, 1902, 1903, 1904, 1905})
-	if set.Terms != 3 || set.Rows != 8 || set.Unit != "per million words" {
-		t.Errorf("terms %d rows %d unit %q", set.Terms, set.Rows, set.Unit)
-	}
+	assert.Equal(t, 3, set.Terms, "terms")
+	assert.Equal(t, 8, set.Rows, "rows")
+	assert.Equal(t, "per million words", set.Unit, "unit")
 	want := []struct {
 		term     string
 		values   []float64
@@ -86,34 +79,25 @@ func TestScaleSmall(t *testing.T) {
 		{"boiler", []float64{500, 40e6 / 120000, 20e6 / 110000, gap, 0, 0}, []float64{50, 40, 20, gap, 0, 0}, 110, 500, 1900},
 		{"Maßstab", []float64{30, 0, 0, gap, 0, 60}, []float64{3, 0, 0, gap, 0, 9}, 12, 60, 1905},
 	}
-	if len(set.Series) != len(want) {
-		t.Fatalf("%d series, want %d", len(set.Series), len(want))
-	}
+	require.Len(t, set.Series, len(want), "series")
 	for i, w := range want {
 		sr := set.Series[i]
-		if sr.Term != w.term {
-			t.Errorf("series %d is %q, want %q (order: listed)", i, sr.Term, w.term)
+		if !assert.Equal(t, w.term, sr.Term, "series %d (order: listed)", i) {
 			continue
 		}
 		sameValues(t, w.term+" values", sr.Values, w.values)
 		sameValues(t, w.term+" counts", sr.Counts, w.counts)
-		if sr.Total != w.total || sr.Peak != w.peak || sr.PeakYear != w.peakYear {
-			t.Errorf("%s: total %g peak %g in %d, want %g, %g in %d", w.term, sr.Total, sr.Peak, sr.PeakYear, w.total, w.peak, w.peakYear)
-		}
+		assert.Equal(t, w.total, sr.Total, "%s: total", w.term)
+		assert.Equal(t, w.peak, sr.Peak, "%s: peak", w.term)
+		assert.Equal(t, w.peakYear, sr.PeakYear, "%s: peak year", w.term)
 		// Share over the span: the term's total over all words in the
 		// span's totals, 100000+120000+110000+130000+150000 = 610000.
-		if math.Abs(sr.Share-w.total/610000) > 1e-15 {
-			t.Errorf("%s: share %g, want %g", w.term, sr.Share, w.total/610000)
-		}
+		assert.InDelta(t, w.total/610000, sr.Share, 1e-15, "%s: share", w.term)
 		// Own y-range: the panel's top is its own peak.
-		if sr.YMax != w.peak {
-			t.Errorf("%s: own y-range top %g, want %g", w.term, sr.YMax, w.peak)
-		}
+		assert.Equal(t, w.peak, sr.YMax, "%s: own y-range top", w.term)
 	}
 	// The shared top is the largest peak, boiler's 500.
-	if set.YMax != 500 {
-		t.Errorf("set.YMax = %g, want 500", set.YMax)
-	}
+	assert.Equal(t, 500.0, set.YMax, "the set's shared top")
 }
 
 func TestScaleModes(t *testing.T) {
@@ -126,13 +110,10 @@ func TestScaleModes(t *testing.T) {
 		sameValues(t, "telegraph", set.Series[0].Values, []float64{0, 5.0 / 48, 0, gap, 15.0 / 26, 1})
 		sameValues(t, "Maßstab", set.Series[2].Values, []float64{0.5, 0, 0, gap, 0, 1})
 		for _, sr := range set.Series {
-			if sr.Peak != 1 || sr.YMax != 1 {
-				t.Errorf("%s: peak %g ymax %g, want 1 and 1", sr.Term, sr.Peak, sr.YMax)
-			}
+			assert.Equal(t, 1.0, sr.Peak, "%s: peak", sr.Term)
+			assert.Equal(t, 1.0, sr.YMax, "%s: ymax", sr.Term)
 		}
-		if set.Unit != "share of the term's own peak" {
-			t.Errorf("unit %q", set.Unit)
-		}
+		assert.Equal(t, "share of the term's own peak", set.Unit, "unit")
 	})
 	t.Run("raw shared", func(t *testing.T) {
 		// Raw keeps the counts; the shared top is the largest count, 60.
@@ -140,17 +121,13 @@ func TestScaleModes(t *testing.T) {
 		sameValues(t, "boiler", set.Series[1].Values, []float64{50, 40, 20, gap, 0, 0})
 		sameValues(t, "telegraph", set.Series[0].Values, []float64{0, 5, 0, gap, 30, 60})
 		for _, sr := range set.Series {
-			if sr.YMax != 60 {
-				t.Errorf("%s: shared ymax %g, want 60", sr.Term, sr.YMax)
-			}
+			assert.Equal(t, 60.0, sr.YMax, "%s: shared ymax", sr.Term)
 		}
 	})
 	t.Run("per-million shared", func(t *testing.T) {
 		set := loadSmall(t, specs.ScaleShare, specs.YShared)
 		for _, sr := range set.Series {
-			if sr.YMax != 500 {
-				t.Errorf("%s: shared ymax %g, want 500 (boiler 1900)", sr.Term, sr.YMax)
-			}
+			assert.Equal(t, 500.0, sr.YMax, "%s: shared ymax (boiler 1900)", sr.Term)
 		}
 	})
 }
@@ -173,17 +150,13 @@ func feature(t testing.TB, countsName, counts, totals, extra string) string {
 
 func write(t testing.TB, path, text string) {
 	t.Helper()
-	if err := os.WriteFile(path, []byte(text), 0o644); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, os.WriteFile(path, []byte(text), 0o644))
 }
 
 func load(t testing.TB, spec string) (*Set, error) {
 	t.Helper()
 	s, err := specs.Load(spec)
-	if err != nil {
-		t.Fatalf("spec: %v", err)
-	}
+	require.NoError(t, err, "loading the spec")
 	return Load(s)
 }
 
@@ -193,9 +166,7 @@ func load(t testing.TB, spec string) (*Set, error) {
 // is allowed and is not part of the text). All must read identically.
 func TestVariants(t *testing.T) {
 	raw, err := os.ReadFile("../../testdata/small/counts.csv")
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	csvText := strings.TrimPrefix(string(raw), "\ufeff")
 	tsvText := strings.ReplaceAll(csvText, ",", "\t")
 	crlf := func(s string) string { return strings.ReplaceAll(s, "\n", "\r\n") }
@@ -216,18 +187,24 @@ func TestVariants(t *testing.T) {
 	var first *Set
 	for _, v := range variants {
 		set, err := load(t, feature(t, v.file, v.text, "", extra))
-		if err != nil {
-			t.Errorf("%s: %v", v.name, err)
+		if !assert.NoError(t, err, "loading %s", v.name) {
 			continue
 		}
 		if first == nil {
 			first = set
 			continue
 		}
-		if got, want := describe(set), describe(first); got != want {
-			t.Errorf("%s reads differently:\n%s\nwant\n%s", v.name, got, want)
-		}
+		assert.Equal(t, describe(first), describe(set), "%s reads differently", v.name)
 	}
+}
+
+// termsOf lists the selected terms in order.
+func termsOf(set *Set) []string {
+	var n []string
+	for _, sr := range set.Series {
+		n = append(n, sr.Term)
+	}
+	return n
 }
 
 func describe(set *Set) string {
@@ -248,53 +225,42 @@ func TestTermsAsWritten(t *testing.T) {
 	t.Run("NFC", func(t *testing.T) {
 		counts := "term,year,count\n" + decomposed + ",1900,7\n"
 		set, err := load(t, feature(t, "counts.csv", counts, "", "terms: {list: ["+composed+"]}\n"))
-		if err != nil {
-			t.Fatal(err)
-		}
-		if sr := set.Series[0]; sr.Term != composed || sr.Counts[0] != 7 {
-			t.Errorf("term %q (% x) count %g, want the composed spelling and 7", sr.Term, sr.Term, sr.Counts[0])
-		}
+		require.NoError(t, err)
+		assert.Equal(t, composed, set.Series[0].Term, "the term's spelling (want composed)")
+		assert.Equal(t, 7.0, set.Series[0].Counts[0], "the count in 1900")
 		// The two spellings are one term, so two rows for 1900 clash.
 		counts += composed + ",1900,3\n"
 		_, err = load(t, feature(t, "counts.csv", counts, "", "terms: {list: ["+composed+"]}\n"))
-		if err == nil || !strings.Contains(err.Error(), "counts.csv:3:7: \""+composed+"\" has a second row for 1900") {
-			t.Errorf("composed and decomposed rows for one year: got %v", err)
-		}
+		require.Error(t, err, "composed and decomposed rows for one year")
+		assert.Contains(t, err.Error(), "counts.csv:3:7: \""+composed+"\" has a second row for 1900", "composed and decomposed rows for one year")
 	})
 	counts := "term,year,count\nboiler,1900,50\nBoiler,1900,10\nBoiler,1901,12\n"
 	t.Run("case kept", func(t *testing.T) {
 		set, err := load(t, feature(t, "counts.csv", counts, "", "terms: {list: [boiler, Boiler]}\n"))
-		if err != nil {
-			t.Fatal(err)
-		}
-		if set.Terms != 2 || set.Series[0].Counts[0] != 50 || set.Series[1].Counts[0] != 10 {
-			t.Errorf("case-sensitive: %s", describe(set))
-		}
+		require.NoError(t, err)
+		require.Equal(t, 2, set.Terms, "case-sensitive terms: %s", describe(set))
+		assert.Equal(t, 50.0, set.Series[0].Counts[0], "case-sensitive boiler 1900")
+		assert.Equal(t, 10.0, set.Series[1].Counts[0], "case-sensitive Boiler 1900")
 		_, err = load(t, feature(t, "counts.csv", counts, "", "terms: {list: [BOILER]}\n"))
-		if err == nil || !strings.Contains(err.Error(), `term "BOILER" is not in counts.csv; closest: "Boiler", "boiler"`) {
-			t.Errorf("BOILER without fold-case: %v", err)
-		}
+		require.Error(t, err, "BOILER without fold-case")
+		assert.Contains(t, err.Error(), `term "BOILER" is not in counts.csv; closest: "Boiler", "boiler"`, "BOILER without fold-case")
 	})
 	t.Run("fold-case", func(t *testing.T) {
 		spec := feature(t, "counts.csv", counts, "", "terms: {list: [BOILER]}\n")
 		s, err := specs.Load(spec)
-		if err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, err)
 		s.Data.FoldCase = true
 		set, err := Load(s)
-		if err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, err)
 		// boiler + Boiler in 1900: 50 + 10 = 60; 1901: 12 (hand-added).
 		sr := set.Series[0]
-		if set.Terms != 1 || sr.Term != "boiler" || sr.Counts[0] != 60 || sr.Counts[1] != 12 || sr.Total != 72 {
-			t.Errorf("fold-case: %s", describe(set))
-		}
+		assert.Equal(t, 1, set.Terms, "fold-case terms")
+		assert.Equal(t, "boiler", sr.Term, "fold-case term")
+		assert.Equal(t, 60.0, sr.Counts[0], "fold-case count 1900")
+		assert.Equal(t, 12.0, sr.Counts[1], "fold-case count 1901")
+		assert.Equal(t, 72.0, sr.Total, "fold-case total")
 		// 60/100000×1e6 = 600 per million.
-		if sr.Values[0] != 600 {
-			t.Errorf("fold-case 1900 value %g, want 600", sr.Values[0])
-		}
+		assert.Equal(t, 600.0, sr.Values[0], "fold-case 1900 value")
 	})
 }
 
@@ -387,9 +353,7 @@ func TestDataErrors(t *testing.T) {
 		t.Run(tt.name, func(t *testing.T) {
 			spec := feature(t, tt.file, tt.counts, tt.totals, tt.extra)
 			_, err := load(t, spec)
-			if err == nil {
-				t.Fatal("no error")
-			}
+			require.Error(t, err, "loading %s", tt.name)
 			want := filepath.Join(filepath.Dir(spec), tt.at)
 			for _, line := range strings.Split(err.Error(), "\n") {
 				rest, ok := strings.CutPrefix(line, want)
@@ -397,7 +361,7 @@ func TestDataErrors(t *testing.T) {
 					return
 				}
 			}
-			t.Errorf("want %s: …%s…; got\n%v", tt.at, tt.want, err)
+			assert.Fail(t, "no error line at its place", "want %s: …%s…; got\n%v", tt.at, tt.want, err)
 		})
 	}
 }
@@ -411,18 +375,14 @@ func TestRawNeedsNoTotal(t *testing.T) {
 	spec := feature(t, "counts.csv", "term,year,count\nboiler,1903,5\nboiler,1904,2\ntelegraph,1900,2\n", "",
 		"terms: {list: [boiler, telegraph]}\nscale: {values: raw}\n")
 	set, err := load(t, spec)
-	if err != nil {
-		t.Fatal(err)
-	}
-	if got := fmt.Sprint(set.Gaps); got != "[1903]" {
-		t.Errorf("gaps %s, want [1903]", got)
-	}
+	require.NoError(t, err)
+	assert.Equal(t, "[1903]", fmt.Sprint(set.Gaps), "gap years")
 	boiler, telegraph := set.Series[0], set.Series[1]
 	sameValues(t, "boiler values", boiler.Values, []float64{0, 0, 0, 5, 2, 0})
 	sameValues(t, "boiler counts", boiler.Counts, []float64{0, 0, 0, 5, 2, 0})
-	if boiler.Total != 7 || boiler.Peak != 5 || boiler.PeakYear != 1903 {
-		t.Errorf("boiler: total %g, peak %g in %d; want 7, 5 in 1903", boiler.Total, boiler.Peak, boiler.PeakYear)
-	}
+	assert.Equal(t, 7.0, boiler.Total, "boiler total")
+	assert.Equal(t, 5.0, boiler.Peak, "boiler peak")
+	assert.Equal(t, 1903, boiler.PeakYear, "boiler peak year")
 	sameValues(t, "telegraph values", telegraph.Values, []float64{2, 0, 0, gap, 0, 0})
 }
 
@@ -456,24 +416,14 @@ func TestFractionalCounts(t *testing.T) {
 	totals := "year,total\n1900,1e17\n1901,200000.5\n"
 	spec := feature(t, "counts.csv", counts.String()+"t0,1901,1.5\n", totals, "order: alphabetical\n")
 	set, err := load(t, spec)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	for i, tt := range tests {
 		sr := set.Series[i]
-		if sr.Term != fmt.Sprintf("t%d", i) {
-			t.Fatalf("series %d is %q", i, sr.Term)
-		}
-		if got := sr.Counts[0]; math.Float64bits(got) != math.Float64bits(tt.want) {
-			t.Errorf("%q read as %v, want %v", tt.text, got, tt.want)
-		}
-		if got, want := sr.Values[0], tt.want/1e17*1e6; got != want {
-			t.Errorf("%q per million: %v, want %v", tt.text, got, want)
-		}
+		require.Equal(t, fmt.Sprintf("t%d", i), sr.Term, "series %d", i)
+		assert.Equal(t, math.Float64bits(tt.want), math.Float64bits(sr.Counts[0]), "bits of %q read (%v, want %v)", tt.text, sr.Counts[0], tt.want)
+		assert.Equal(t, tt.want/1e17*1e6, sr.Values[0], "%q per million", tt.text)
 	}
-	if got, want := set.Series[0].Values[1], 1.5/200000.5*1e6; got != want {
-		t.Errorf("1.5 of 200000.5 words: %v per million, want %v", got, want)
-	}
+	assert.Equal(t, 1.5/200000.5*1e6, set.Series[0].Values[1], "1.5 of 200000.5 words per million")
 }
 
 // TestFoldCaseListedTwice: with fold-case, spellings that differ only in
@@ -481,27 +431,21 @@ func TestFractionalCounts(t *testing.T) {
 // both is listing it twice.
 func TestFoldCaseListedTwice(t *testing.T) {
 	s, err := specs.Load(feature(t, "counts.csv", "term,year,count\nboiler,1900,5\n", "", "terms: {list: [boiler, BOILER]}\n"))
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	s.Data.FoldCase = true
 	_, err = Load(s)
-	if err == nil || !strings.HasSuffix(err.Error(), `spec.yaml:7:24: term "BOILER" is listed twice (first at line 7, column 16)`) {
-		t.Errorf("got %v", err)
-	}
+	require.Error(t, err, "BOILER listed twice under fold-case")
+	assert.True(t, strings.HasSuffix(err.Error(), `spec.yaml:7:24: term "BOILER" is listed twice (first at line 7, column 16)`), "got %v", err)
 	s.Data.FoldCase = false // two terms then; BOILER is not in the data
 	_, err = Load(s)
-	if err == nil || !strings.Contains(err.Error(), `term "BOILER" is not in counts.csv`) {
-		t.Errorf("without fold-case: %v", err)
-	}
+	require.Error(t, err, "BOILER without fold-case")
+	assert.Contains(t, err.Error(), `term "BOILER" is not in counts.csv`, "without fold-case")
 }
 
 func TestMissingFiles(t *testing.T) {
 	dir := t.TempDir()
 	write(t, filepath.Join(dir, "totals.csv"), "year,total\n1900,5\n")
-	if err := os.Mkdir(filepath.Join(dir, "folder.csv"), 0o755); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, os.Mkdir(filepath.Join(dir, "folder.csv"), 0o755))
 	for _, tt := range []struct{ counts, want string }{
 		{"../elsewhere/counts.csv", `data.counts: "../elsewhere/counts.csv" (resolved to ` + filepath.Join(dir, "../elsewhere/counts.csv") + ") does not exist"},
 		{"folder.csv", `data.counts: "folder.csv" (resolved to ` + filepath.Join(dir, "folder.csv") + ") is a directory, not a table"},
@@ -509,17 +453,15 @@ func TestMissingFiles(t *testing.T) {
 		spec := filepath.Join(dir, "spec.yaml")
 		write(t, spec, "title: T\ndata:\n  counts: "+tt.counts+"\n  totals: totals.csv\nyears: {from: 1900, to: 1905}\noutputs: {print: {kind: print}}\n")
 		_, err := load(t, spec)
-		if err == nil || err.Error() != spec+":3:3: "+tt.want {
-			t.Errorf("got %v\nwant %s:3:3: %s", err, spec, tt.want)
+		if assert.Error(t, err, "counts %s", tt.counts) {
+			assert.Equal(t, spec+":3:3: "+tt.want, err.Error(), "counts %s", tt.counts)
 		}
 	}
 }
 
 func TestOrderAndGroups(t *testing.T) {
 	s, err := specs.Load(small)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	names := func(set *Set) string {
 		var n []string
 		for _, sr := range set.Series {
@@ -539,46 +481,30 @@ func TestOrderAndGroups(t *testing.T) {
 	} {
 		s.Order = tt.order
 		set, err := Load(s)
-		if err != nil {
-			t.Fatal(err)
-		}
-		if got := names(set); got != tt.want {
-			t.Errorf("order %s: %s, want %s", tt.order, got, tt.want)
-		}
+		require.NoError(t, err)
+		assert.Equal(t, tt.want, names(set), "order %s", tt.order)
 	}
 	s.Order, s.Group = specs.OrderListed, specs.GroupPeakDecade
 	set, err := Load(s)
-	if err != nil {
-		t.Fatal(err)
-	}
-	if len(set.Groups) != 1 || set.Groups[0].Heading != "Peak in the 1900s" || set.Groups[0].Count != 3 {
-		t.Errorf("groups %+v", set.Groups)
-	}
+	require.NoError(t, err)
+	require.Len(t, set.Groups, 1, "groups by peak decade")
+	assert.Equal(t, "Peak in the 1900s", set.Groups[0].Heading, "group heading")
+	assert.Equal(t, 3, set.Groups[0].Count, "group count")
 }
 
 func TestTopAndExclude(t *testing.T) {
 	// Overall shares (hand-computed): boiler 110, telegraph 95, Maßstab 12
 	// occurrences over the same 610000 words, so top 2 is boiler, telegraph.
 	s, err := specs.Load(small)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	s.Terms = specs.Terms{Top: 2}
 	set, err := Load(s)
-	if err != nil {
-		t.Fatal(err)
-	}
-	if len(set.Series) != 2 || set.Series[0].Term != "boiler" || set.Series[1].Term != "telegraph" {
-		t.Errorf("top 2: %s", describe(set))
-	}
+	require.NoError(t, err)
+	assert.Equal(t, []string{"boiler", "telegraph"}, termsOf(set), "top 2")
 	s.Terms = specs.Terms{Top: 2, Exclude: []string{"boiler"}}
 	set, err = Load(s)
-	if err != nil {
-		t.Fatal(err)
-	}
-	if len(set.Series) != 2 || set.Series[0].Term != "telegraph" || set.Series[1].Term != "Maßstab" {
-		t.Errorf("top 2 without boiler: %s", describe(set))
-	}
+	require.NoError(t, err)
+	assert.Equal(t, []string{"telegraph", "Maßstab"}, termsOf(set), "top 2 without boiler")
 }
 
 // bigFeature writes a counts table of terms × years rows (deterministic
@@ -587,9 +513,7 @@ func bigFeature(t testing.TB, terms, years int) (string, int64) {
 	t.Helper()
 	dir := t.TempDir()
 	f, err := os.Create(filepath.Join(dir, "counts.csv"))
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	w := bufio.NewWriterSize(f, 1<<20)
 	w.WriteString("term,year,count\n")
 	var buf []byte
@@ -609,9 +533,7 @@ func bigFeature(t testing.TB, terms, years int) (string, int64) {
 			w.Write(buf)
 		}
 	}
-	if err := w.Flush(); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, w.Flush())
 	st, _ := f.Stat()
 	f.Close()
 	var tot strings.Builder
@@ -676,17 +598,13 @@ func TestLargeTableStreams(t *testing.T) {
 	}
 	spec, size := bigFeature(t, 6000, 400)
 	set, err := load(t, spec)
-	if err != nil {
-		t.Fatal(err)
-	}
-	if set.Rows != 2_400_000 || set.Terms != 6000 || len(set.Series) != 24 {
-		t.Fatalf("rows %d terms %d selected %d", set.Rows, set.Terms, len(set.Series))
-	}
+	require.NoError(t, err)
+	require.Equal(t, 2_400_000, set.Rows, "rows")
+	require.Equal(t, 6000, set.Terms, "terms")
+	require.Len(t, set.Series, 24, "selected")
 	peak := heapGrowthBound(t, spec)
 	t.Logf("file %.1f MB, heap growth at most %.1f MB", float64(size)/1e6, float64(peak)/1e6)
-	if peak > uint64(size)/4 {
-		t.Errorf("heap grew by up to %.1f MB reading a %.1f MB file; want under a quarter of the file", float64(peak)/1e6, float64(size)/1e6)
-	}
+	assert.LessOrEqual(t, peak, uint64(size)/4, "heap growth (upper bound) reading a %.1f MB file; want under a quarter of the file", float64(size)/1e6)
 }
 
 func BenchmarkLoadLarge(b *testing.B) {
