@@ -49,9 +49,8 @@ func (d *fontData) advance(id uint16) uint16 {
 // fontKeys caches fontData per parsed font, so that hashing a font's
 // tables happens once per writer, not once per page.
 type fontKeys struct {
-	mu    sync.Mutex
-	m     map[*font.SFNT]*fontData
-	limit int // most fonts kept (then it starts afresh); 0: no limit
+	mu sync.Mutex
+	m  map[*font.SFNT]*fontData
 }
 
 func newFontKeys() *fontKeys { return &fontKeys{m: map[*font.SFNT]*fontData{}} }
@@ -74,9 +73,6 @@ func (k *fontKeys) get(s *font.SFNT) (*fontData, error) {
 	if prev, ok := k.m[s]; ok {
 		d = prev
 	} else {
-		if k.limit > 0 && len(k.m) >= k.limit {
-			clear(k.m) // a long-running program's old fonts go
-		}
 		k.m[s] = d
 	}
 	k.mu.Unlock()

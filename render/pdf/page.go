@@ -14,7 +14,6 @@ import (
 	"strconv"
 
 	"github.com/tdewolff/canvas"
-	"github.com/tdewolff/font"
 )
 
 // ptPerMM converts canvas units (millimetres, as in every canvas renderer)
@@ -154,13 +153,8 @@ func contains(outer, inner canvas.Rect) bool {
 // function gets a canvas in millimetres (as all canvas renderers use) the
 // size of the MediaBox; MMPerPt converts layout points.
 func EncodePage(setup PageSetup, draw func(c *canvas.Canvas) error) (*EncodedPage, error) {
-	return encodePage(setup, draw, 0, encodeFonts, encodePools)
+	return encodePage(setup, draw, 0, nil, encodePools)
 }
-
-// encodeFonts are EncodePage's parsed fonts: hashing a font's tables (a
-// few hundred KB each) once per font, not once per page. A fontData is
-// read-only and depends only on the font, so sharing changes no byte.
-var encodeFonts = &fontKeys{m: map[*font.SFNT]*fontData{}, limit: 64}
 
 // encodePools are EncodePage's: a program that encodes pages one by one,
 // on every core, reuses as many compressors and content buffers as it

@@ -4,7 +4,6 @@ import (
 	"testing"
 
 	"github.com/stretchr/testify/require"
-	"github.com/tdewolff/font"
 	"golang.org/x/image/font/gofont/gobold"
 	"golang.org/x/image/font/gofont/goregular"
 )
@@ -29,28 +28,4 @@ func TestEncodePageReuseIsByteIdentical(t *testing.T) {
 		require.Equal(t, fresh.Content, again.Content)
 	}
 	require.NotEmpty(t, encodePools.zlibs, "compressors were kept for the next page")
-}
-
-// EncodePage parses and hashes each font once for all pages; a page with
-// text encoded with the shared fonts equals one encoded with its own, and
-// the shared cache stays bounded.
-func TestEncodePageSharedFontsAreByteIdentical(t *testing.T) {
-	reg, bold := loadFont(t, goregular.TTF), loadFont(t, gobold.TTF)
-	setup := PageSetup{Boxes: a5Boxes()}
-	own, err := encodePage(setup, testDrawing(reg, bold), 0, nil, nil) // its own fonts: the reference
-	require.NoError(t, err)
-	for range 2 {
-		shared, err := EncodePage(setup, testDrawing(reg, bold))
-		require.NoError(t, err)
-		require.Equal(t, own.Content, shared.Content)
-		require.Equal(t, own.Fonts, shared.Fonts)
-	}
-	require.Contains(t, encodeFonts.m, reg.SFNT)
-
-	small := &fontKeys{m: map[*font.SFNT]*fontData{}, limit: 1}
-	_, err = small.get(reg.SFNT)
-	require.NoError(t, err)
-	_, err = small.get(bold.SFNT)
-	require.NoError(t, err)
-	require.Len(t, small.m, 1)
 }
