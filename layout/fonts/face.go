@@ -10,6 +10,7 @@ import (
 	"github.com/tdewolff/font"
 
 	"sheaf/layout/fonts/cff"
+	glyfrec "sheaf/layout/fonts/glyf"
 	"sheaf/specs"
 )
 
@@ -324,35 +325,8 @@ func compositeProblem(s *font.SFNT) error {
 		return 2 * uint32(binary.BigEndian.Uint16(loca[2*i:]))
 	}
 	for id := 0; id < n; id++ {
-		g := glyf[at(id):at(id+1)]
-		if len(g) < 10 || int16(binary.BigEndian.Uint16(g)) >= 0 {
-			continue // empty or simple
-		}
-		for p := 10; ; {
-			if p+4 > len(g) {
-				return fmt.Errorf("glyph %d: a truncated composite glyph record (glyf table damaged)", id)
-			}
-			flags := binary.BigEndian.Uint16(g[p:])
-			if comp := int(binary.BigEndian.Uint16(g[p+2:])); comp >= n {
-				return fmt.Errorf("glyph %d: a component refers to glyph %d, beyond the font's %d glyphs (glyf table damaged)", id, comp, n)
-			}
-			p += 4
-			if flags&0x0001 != 0 { // ARG_1_AND_2_ARE_WORDS
-				p += 4
-			} else {
-				p += 2
-			}
-			switch {
-			case flags&0x0008 != 0: // WE_HAVE_A_SCALE
-				p += 2
-			case flags&0x0040 != 0: // WE_HAVE_AN_X_AND_Y_SCALE
-				p += 4
-			case flags&0x0080 != 0: // WE_HAVE_A_TWO_BY_TWO
-				p += 8
-			}
-			if flags&0x0020 == 0 { // MORE_COMPONENTS
-				break
-			}
+		if _, err := glyfrec.Components(glyf[at(id):at(id+1)], n); err != nil {
+			return fmt.Errorf("glyph %d: %v (glyf table damaged)", id, err)
 		}
 	}
 	return nil

@@ -13,6 +13,7 @@ import (
 	"github.com/tdewolff/font"
 
 	"sheaf/layout/fonts/cff"
+	"sheaf/layout/fonts/glyf"
 )
 
 // FontKey identifies a font by a SHA-256 digest of its tables, so equal
@@ -234,37 +235,14 @@ func (d *fontData) closeGlyphs(used map[uint16]bool) error {
 		if int(id) >= d.numGlyphs {
 			return fmt.Errorf("glyph %d is beyond the font's %d glyphs", id, d.numGlyphs)
 		}
-		g := d.glyph(int(id))
-		if len(g) < 10 || int16(binary.BigEndian.Uint16(g)) >= 0 {
-			continue
+		comps, err := glyf.Components(d.glyph(int(id)), d.numGlyphs)
+		if err != nil {
+			return fmt.Errorf("glyph %d: %v", id, err)
 		}
-		p := 10
-		for {
-			if p+4 > len(g) {
-				return fmt.Errorf("glyph %d: truncated composite", id)
-			}
-			flags := binary.BigEndian.Uint16(g[p:])
-			comp := binary.BigEndian.Uint16(g[p+2:])
-			p += 4
-			if flags&0x0001 != 0 { // ARG_1_AND_2_ARE_WORDS
-				p += 4
-			} else {
-				p += 2
-			}
-			switch {
-			case flags&0x0008 != 0: // WE_HAVE_A_SCALE
-				p += 2
-			case flags&0x0040 != 0: // WE_HAVE_AN_X_AND_Y_SCALE
-				p += 4
-			case flags&0x0080 != 0: // WE_HAVE_A_TWO_BY_TWO
-				p += 8
-			}
+		for _, comp := range comps {
 			if !used[comp] {
 				used[comp] = true
 				stack = append(stack, comp)
-			}
-			if flags&0x0020 == 0 { // MORE_COMPONENTS
-				break
 			}
 		}
 	}
