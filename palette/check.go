@@ -435,8 +435,12 @@ func dirWord(dir int) string {
 	return "increasing"
 }
 
-// lightnessSlack absorbs float noise only; any visible reversal counts.
-const lightnessSlack = 1e-9
+// lightnessSlack is the smallest reversal of L* that counts: a twentieth
+// of the about 1 ΔE a reader can just notice (common practice), far below
+// anything visible, and above the ripple a press round trip leaves — a
+// profile's interpolated tables turned a steadily rising palette back by
+// 0.01 L* in places, which would otherwise be reported as "by 0.0".
+const lightnessSlack = 0.05
 
 func (r *Report) checkLightness() {
 	dir := r.direction()
