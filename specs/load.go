@@ -848,20 +848,29 @@ var (
 // color reads "#rrggbb", "#rgb", "lab(L a b)" or "oklch(L C h)" (L as
 // 0–1 or a percentage), after CSS Color 4's notations.
 func (d *decoder) color(n *yaml.Node, path string, dst *Color) {
-	if d.desc != nil {
-		d.desc.record(n, schemaString)
-		return
+	parsed(d, ParseColor, dst)(n, path)
+}
+
+// parsed decodes a scalar written as text and read by parse (a colour, a
+// language): the schema sees a string, and parse's error is reported at
+// the value.
+func parsed[T any](d *decoder, parse func(string) (T, error), dst *T) func(*yaml.Node, string) {
+	return func(n *yaml.Node, path string) {
+		if d.desc != nil {
+			d.desc.record(n, schemaString)
+			return
+		}
+		n, ok := d.scalar(n, path)
+		if !ok {
+			return
+		}
+		v, err := parse(n.Value)
+		if err != nil {
+			d.errorf(n, "%s: %v", path, err)
+			return
+		}
+		*dst = v
 	}
-	n, ok := d.scalar(n, path)
-	if !ok {
-		return
-	}
-	c, err := ParseColor(n.Value)
-	if err != nil {
-		d.errorf(n, "%s: %v", path, err)
-		return
-	}
-	*dst = c
 }
 
 // ParseColor reads a colour in one of the spec's notations.

@@ -348,22 +348,7 @@ func (d *decoder) text(n *yaml.Node, path string, t *Text) {
 
 // language decodes the language key.
 func (d *decoder) language(dst *Language) func(*yaml.Node, string) {
-	return func(n *yaml.Node, path string) {
-		if d.desc != nil {
-			d.desc.record(n, schemaString)
-			return
-		}
-		n, ok := d.scalar(n, path)
-		if !ok {
-			return
-		}
-		l, err := ParseLanguage(n.Value)
-		if err != nil {
-			d.errorf(n, "%s: %v", path, err)
-			return
-		}
-		*dst = l
-	}
+	return parsed(d, ParseLanguage, dst)
 }
 
 // yearSpan reads "1926", 1926, "1914–1918" or "1914-1918".
