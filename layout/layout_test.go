@@ -4,7 +4,6 @@ import (
 	"bufio"
 	"bytes"
 	"encoding/json"
-	"errors"
 	"math"
 	"os"
 	"strconv"
@@ -12,6 +11,7 @@ import (
 	"testing"
 
 	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
 
 	"sheaf/specs"
 )
@@ -20,14 +20,10 @@ func TestColumnWidthWorkedExample(t *testing.T) {
 	// Worked arithmetic (common practice, no source): A4 with 20 mm side
 	// margins, 6 columns and 4 mm gutters gives (210 − 40 − 5×4)/6 = 25 mm.
 	p := solveT(t, testSpec(), a4Print(), []Group{{Count: 50}})
-	if got := toMM(p.PanelW); math.Abs(got-25) > 1e-9 {
-		t.Errorf("column width %.12f mm, want 25", got)
-	}
+	assert.InDelta(t, 25, toMM(p.PanelW), 1e-9, "column width in mm")
 	for _, pg := range p.Pages {
 		for _, pn := range pg.Panels {
-			if math.Abs(toMM(pn.Plot.W())-25) > 1e-9 {
-				t.Fatalf("page %d item %d: plot %.12f mm wide", pg.Number, pn.Item, toMM(pn.Plot.W()))
-			}
+			require.InDelta(t, 25, toMM(pn.Plot.W()), 1e-9, "page %d item %d: plot width in mm", pg.Number, pn.Item)
 		}
 	}
 }
@@ -37,9 +33,7 @@ func TestColumnWidthWorkedExample(t *testing.T) {
 func readTable(t *testing.T, heading string) [][]string {
 	t.Helper()
 	b, err := os.ReadFile("testdata/print-facts.md")
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	var rows [][]string
 	in := false
 	sc := bufio.NewScanner(bytes.NewReader(b))
@@ -58,9 +52,7 @@ func readTable(t *testing.T, heading string) [][]string {
 		}
 		rows = append(rows, cells)
 	}
-	if len(rows) < 2 {
-		t.Fatalf("no table under %q", heading)
-	}
+	require.GreaterOrEqual(t, len(rows), 2, "no table under %q (a header row and at least one row)", heading)
 	return rows[1:] // drop the header row
 }
 
@@ -69,9 +61,9 @@ func pair(t *testing.T, s string) (float64, float64) {
 	a, b, ok := strings.Cut(s, " × ")
 	x, err1 := strconv.ParseFloat(a, 64)
 	y, err2 := strconv.ParseFloat(b, 64)
-	if !ok || err1 != nil || err2 != nil {
-		t.Fatalf("bad pair %q", s)
-	}
+	require.True(t, ok, "bad pair %q: no ' × '", s)
+	require.NoError(t, err1, "bad pair %q", s)
+	require.NoError(t, err2, "bad pair %q", s)
 	return x, y
 }
 
@@ -89,15 +81,12 @@ func TestPageBoxesFromReference(t *testing.T) {
 		out.Columns = 3
 		p := solveT(t, testSpec(), out, []Group{{Count: 5}})
 		tr := p.Pages[0].Trim
-		if math.Abs(tr.W()-wpt) > 0.0005 || math.Abs(tr.H()-hpt) > 0.0005 {
-			t.Errorf("%s (%s, %s): trim %.3f × %.3f pt, want %s", r[0], r[1], r[3], tr.W(), tr.H(), r[2])
-		}
+		assert.InDelta(t, wpt, tr.W(), 0.0005, "%s (%s, %s): trim width in pt, want %s", r[0], r[1], r[3], r[2])
+		assert.InDelta(t, hpt, tr.H(), 0.0005, "%s (%s, %s): trim height in pt, want %s", r[0], r[1], r[3], r[2])
 	}
 	for _, r := range readTable(t, "Bleed boxes") {
-		size, ok := sizes[r[0]]
-		if !ok {
-			t.Fatalf("unknown size %q", r[0])
-		}
+		require.Contains(t, sizes, r[0], "bleed box of an unknown size")
+		size := sizes[r[0]]
 		bleed, _ := strconv.ParseFloat(r[1], 64)
 		wantW, wantH := pair(t, r[2])
 		out := a4Print()
@@ -105,16 +94,15 @@ func TestPageBoxesFromReference(t *testing.T) {
 		out.Bleed = mmL(bleed)
 		p := solveT(t, testSpec(), out, []Group{{Count: 5}})
 		pg := p.Pages[0]
-		if math.Abs(pg.Bleed.W()-wantW) > 0.0005 || math.Abs(pg.Bleed.H()-wantH) > 0.0005 {
-			t.Errorf("%s + %s mm bleed: bleed box %.3f × %.3f pt, want %s", r[0], r[1], pg.Bleed.W(), pg.Bleed.H(), r[2])
-		}
+		assert.InDelta(t, wantW, pg.Bleed.W(), 0.0005, "%s + %s mm bleed: bleed box width in pt, want %s", r[0], r[1], r[2])
+		assert.InDelta(t, wantH, pg.Bleed.H(), 0.0005, "%s + %s mm bleed: bleed box height in pt, want %s", r[0], r[1], r[2])
 		slug := out.Slug.Pt()
-		if math.Abs(pg.Media.W()-(wantW+2*slug)) > 0.0005 || pg.Media.X0 != 0 || pg.Media.Y0 != 0 {
-			t.Errorf("%s: media %v, want bleed box + %.3f pt slug each side, from the origin", r[0], pg.Media, slug)
-		}
-		if !pg.Media.Contains(pg.Bleed) || !pg.Bleed.Contains(pg.Trim) || !pg.Trim.Contains(pg.Live) {
-			t.Errorf("%s: boxes do not nest: media %v bleed %v trim %v live %v", r[0], pg.Media, pg.Bleed, pg.Trim, pg.Live)
-		}
+		assert.InDelta(t, wantW+2*slug, pg.Media.W(), 0.0005, "%s: media %v, want bleed box + %.3f pt slug each side", r[0], pg.Media, slug)
+		assert.Zero(t, pg.Media.X0, "%s: media %v starts at the origin", r[0], pg.Media)
+		assert.Zero(t, pg.Media.Y0, "%s: media %v starts at the origin", r[0], pg.Media)
+		assert.True(t, pg.Media.Contains(pg.Bleed), "%s: bleed %v not inside media %v", r[0], pg.Bleed, pg.Media)
+		assert.True(t, pg.Bleed.Contains(pg.Trim), "%s: trim %v not inside bleed %v", r[0], pg.Trim, pg.Bleed)
+		assert.True(t, pg.Trim.Contains(pg.Live), "%s: live %v not inside trim %v", r[0], pg.Live, pg.Trim)
 	}
 }
 
@@ -123,45 +111,32 @@ func TestScreenUnits(t *testing.T) {
 	// is 900 pt wide, with no bleed and no slug (media = bleed = trim).
 	p := solveT(t, testSpec(), webScroll(), []Group{{Count: 40}})
 	pg := p.Pages[0]
-	if pg.Trim.W() != 900 || pg.Media != pg.Trim || pg.Bleed != pg.Trim {
-		t.Errorf("screen boxes: media %v bleed %v trim %v", pg.Media, pg.Bleed, pg.Trim)
-	}
+	assert.Equal(t, 900.0, pg.Trim.W(), "screen trim width in pt (1200 px)")
+	assert.Equal(t, pg.Trim, pg.Media, "screen media = trim")
+	assert.Equal(t, pg.Trim, pg.Bleed, "screen bleed = trim")
 	// min-panel-width 160 px in 1136 px live with 16 px gutters: 6 columns
 	// (6×160 + 5×16 = 1040 ≤ 1136 < 7×160 + 6×16 = 1216).
-	if p.Columns != 6 {
-		t.Errorf("derived %d columns, want 6", p.Columns)
-	}
-	if len(p.Pages) != 1 {
-		t.Errorf("scroll output has %d pages", len(p.Pages))
-	}
+	assert.Equal(t, 6, p.Columns, "derived columns")
+	assert.Len(t, p.Pages, 1, "scroll output pages")
 	// The sheet is exactly as tall as its content plus margins.
 	last := pg.Panels[len(pg.Panels)-1]
-	if math.Abs(last.Ticks.Y0-pg.Grid.Y0) > 1e-6 {
-		t.Errorf("sheet ends %.3f pt below the last panel", last.Ticks.Y0-pg.Grid.Y0)
-	}
-	if got := p.Summary(); !strings.HasPrefix(got, "web: 1 scrolling page 1200 × ") || !strings.Contains(got, "6 × 7 panels") {
-		t.Errorf("summary %q", got)
-	}
+	assert.InDelta(t, pg.Grid.Y0, last.Ticks.Y0, 1e-6, "bottom of the last panel's ticks vs the grid's bottom (pt)")
+	got := p.Summary()
+	assert.True(t, strings.HasPrefix(got, "web: 1 scrolling page 1200 × "), "summary %q", got)
+	assert.Contains(t, got, "6 × 7 panels", "summary")
 }
 
 func TestFacingPagesMirror(t *testing.T) {
 	out := a4Print()
 	out.Margins.Inside, out.Margins.Outside = mmL(25), mmL(15)
 	p := solveT(t, testSpec(), out, []Group{{Count: 200}})
-	if len(p.Pages) < 3 {
-		t.Fatalf("%d pages", len(p.Pages))
-	}
+	require.GreaterOrEqual(t, len(p.Pages), 3, "pages")
 	r, l := p.Pages[2], p.Pages[1] // page 3 right, page 2 left
-	if !r.Right || l.Right {
-		t.Fatalf("page 3 right %v, page 2 right %v", r.Right, l.Right)
-	}
+	require.True(t, r.Right, "page 3 is right-hand")
+	require.False(t, l.Right, "page 2 is left-hand")
 	// On a right-hand page the inside margin is on the left (common practice).
-	if got := toMM(r.Live.X0 - r.Trim.X0); math.Abs(got-25) > 1e-9 {
-		t.Errorf("right page left margin %.6f mm, want the 25 mm inside margin", got)
-	}
-	if got := toMM(l.Live.X0 - l.Trim.X0); math.Abs(got-15) > 1e-9 {
-		t.Errorf("left page left margin %.6f mm, want the 15 mm outside margin", got)
-	}
+	assert.InDelta(t, 25, toMM(r.Live.X0-r.Trim.X0), 1e-9, "right page left margin in mm, want the 25 mm inside margin")
+	assert.InDelta(t, 15, toMM(l.Live.X0-l.Trim.X0), 1e-9, "left page left margin in mm, want the 15 mm outside margin")
 	// Exact mirror: column c of the left page is the reflection of column
 	// n−1−c of the right page about the trim's centre line.
 	mid := (r.Trim.X0 + r.Trim.X1) / 2
@@ -171,9 +146,8 @@ func TestFacingPagesMirror(t *testing.T) {
 	}
 	for _, pn := range l.Panels {
 		m := cols[p.Columns-1-pn.Col]
-		if math.Abs((2*mid-m.X1)-pn.Plot.X0) > 1e-9 || math.Abs((2*mid-m.X0)-pn.Plot.X1) > 1e-9 {
-			t.Fatalf("left col %d %v does not mirror right col %d %v", pn.Col, pn.Plot, p.Columns-1-pn.Col, m)
-		}
+		require.InDelta(t, 2*mid-m.X1, pn.Plot.X0, 1e-9, "left col %d %v does not mirror right col %d %v", pn.Col, pn.Plot, p.Columns-1-pn.Col, m)
+		require.InDelta(t, 2*mid-m.X0, pn.Plot.X1, 1e-9, "left col %d %v does not mirror right col %d %v", pn.Col, pn.Plot, p.Columns-1-pn.Col, m)
 	}
 	// The folio sits on the outside: right on right pages, left on left.
 	folio := func(pg Page) TextLine {
@@ -182,21 +156,20 @@ func TestFacingPagesMirror(t *testing.T) {
 				return tl
 			}
 		}
-		t.Fatalf("page %d has no folio", pg.Number)
+		require.Failf(t, "no folio", "page %d has no folio", pg.Number)
 		return TextLine{}
 	}
-	if f := folio(r); math.Abs(f.X+f.Width-r.Live.X1) > 1e-9 || f.Text != "3" {
-		t.Errorf("right page folio %+v", f)
-	}
-	if f := folio(l); f.X != l.Live.X0 || f.Text != "2" {
-		t.Errorf("left page folio %+v", f)
-	}
+	fr := folio(r)
+	assert.InDelta(t, r.Live.X1, fr.X+fr.Width, 1e-9, "right page folio %+v ends at the live area's outside edge", fr)
+	assert.Equal(t, "3", fr.Text, "right page folio")
+	fl := folio(l)
+	assert.Equal(t, l.Live.X0, fl.X, "left page folio %+v starts at the live area's outside edge", fl)
+	assert.Equal(t, "2", fl.Text, "left page folio")
 
 	out.FirstPageLeft = true
 	p = solveT(t, testSpec(), out, []Group{{Count: 200}})
-	if p.Pages[0].Right || !p.Pages[1].Right {
-		t.Error("first-page-left not honoured")
-	}
+	assert.False(t, p.Pages[0].Right, "first-page-left: page 1 is left-hand")
+	assert.True(t, p.Pages[1].Right, "first-page-left: page 2 is right-hand")
 }
 
 func TestBalance(t *testing.T) {
@@ -217,26 +190,19 @@ func TestBalance(t *testing.T) {
 	f := rowsOf(free)
 	out.Balance = true
 	bal := rowsOf(solveT(t, testSpec(), out, groups))
-	if len(f) != len(bal) {
-		t.Fatalf("balancing changed the page count: %v → %v", f, bal)
-	}
-	if f[len(f)-1] >= f[len(f)-2]-1 {
-		t.Fatalf("test needs a short last page, got %v", f)
-	}
+	require.Len(t, bal, len(f), "balancing changed the page count: %v → %v", f, bal)
+	require.Less(t, f[len(f)-1], f[len(f)-2]-1, "test needs a short last page, got %v", f)
 	lo, hi := bal[1], bal[1]
 	for _, r := range bal[1:] {
 		lo, hi = min(lo, r), max(hi, r)
 	}
-	if hi-lo > 1 || bal[0] < lo-1 && bal[0] != free.RowsFirstPage {
-		t.Errorf("balanced rows %v (unbalanced %v)", bal, f)
-	}
+	assert.LessOrEqual(t, hi-lo, 1, "balanced rows %v (unbalanced %v): later pages differ by more than a row", bal, f)
+	assert.True(t, bal[0] >= lo-1 || bal[0] == free.RowsFirstPage, "balanced rows %v (unbalanced %v): first page short", bal, f)
 	sum := 0
 	for _, r := range bal {
 		sum += r
 	}
-	if sum != 23 {
-		t.Errorf("balanced rows %v sum to %d", bal, sum)
-	}
+	assert.Equal(t, 23, sum, "balanced rows %v: sum", bal)
 }
 
 func TestGroupsAndContinuedHeadings(t *testing.T) {
@@ -257,9 +223,8 @@ func TestGroupsAndContinuedHeadings(t *testing.T) {
 	for i := 3; i <= len(p.Pages); i++ {
 		want = append(want, strconv.Itoa(i)+":1900s (continued)")
 	}
-	if len(p.Pages) < 4 || strings.Join(heads, ",") != strings.Join(want, ",") {
-		t.Errorf("headings %v, want %v", heads, want)
-	}
+	assert.GreaterOrEqual(t, len(p.Pages), 4, "pages")
+	assert.Equal(t, want, heads, "page:heading")
 }
 
 func TestTicksBottomRowUnderEachColumn(t *testing.T) {
@@ -271,20 +236,15 @@ func TestTicksBottomRowUnderEachColumn(t *testing.T) {
 	for _, pn := range p.Pages[0].Panels {
 		if pn.ShowTicks {
 			shown = append(shown, pn.Item)
-			if pn.Ticks.Y1 != pn.Plot.Y0 || pn.Ticks.H() <= 0 {
-				t.Errorf("item %d ticks %v under plot %v", pn.Item, pn.Ticks, pn.Plot)
-			}
+			assert.Equal(t, pn.Plot.Y0, pn.Ticks.Y1, "item %d ticks %v right under plot %v", pn.Item, pn.Ticks, pn.Plot)
+			assert.Positive(t, pn.Ticks.H(), "item %d ticks %v height", pn.Item, pn.Ticks)
 		}
 	}
-	if got := strconvInts(shown); got != "4 5 6 7 8 9" {
-		t.Errorf("ticks on items %s", got)
-	}
+	assert.Equal(t, "4 5 6 7 8 9", strconvInts(shown), "items with tick labels")
 	out.Ticks = specs.TicksEveryPanel
 	p = solveT(t, testSpec(), out, []Group{{Count: 10}})
 	for _, pn := range p.Pages[0].Panels {
-		if !pn.ShowTicks {
-			t.Errorf("every-panel: item %d has no ticks", pn.Item)
-		}
+		assert.True(t, pn.ShowTicks, "every-panel: item %d has no ticks", pn.Item)
 	}
 }
 
@@ -302,15 +262,14 @@ func TestSlackSpreadAndGrow(t *testing.T) {
 	spread := solveT(t, testSpec(), out, groups)
 	out.Slack = specs.SlackGrow
 	grow := solveT(t, testSpec(), out, groups)
-	if grow.PlotH <= spread.PlotH {
-		t.Errorf("grow: plot %.3f pt, spread %.3f pt", grow.PlotH, spread.PlotH)
-	}
-	for _, p := range []*Plan{spread, grow} {
-		pg := p.Pages[1] // a full later page
+	assert.Greater(t, grow.PlotH, spread.PlotH, "plot height (pt): grow's above spread's")
+	for _, c := range []struct {
+		name string
+		p    *Plan
+	}{{"spread", spread}, {"grow", grow}} {
+		pg := c.p.Pages[1] // a full later page
 		low := pg.Panels[len(pg.Panels)-1]
-		if math.Abs(low.Ticks.Y0-pg.Grid.Y0) > 1e-6 {
-			t.Errorf("%v: %.4f pt of slack left at the bottom", out.Slack, low.Ticks.Y0-pg.Grid.Y0)
-		}
+		assert.InDelta(t, pg.Grid.Y0, low.Ticks.Y0, 1e-6, "%s: slack left at the bottom (pt)", c.name)
 	}
 }
 
@@ -329,69 +288,58 @@ func TestSpreads(t *testing.T) {
 		}
 		switch {
 		case i == 0:
-			if len(s.Pages) != 1 || s.Sheet.W() != w {
-				t.Errorf("first spread %+v: page 1 is right-hand and stands alone", s)
-			}
+			assert.Len(t, s.Pages, 1, "first spread %+v: page 1 is right-hand and stands alone", s)
+			assert.Equal(t, w, s.Sheet.W(), "first spread %+v: one page wide", s)
 		case len(s.Pages) == 2:
 			a, b := p.Pages[s.Pages[0].Page], p.Pages[s.Pages[1].Page]
-			if a.Right || !b.Right || s.Pages[1].Offset.X != w || s.Sheet.W() != 2*w {
-				t.Errorf("spread %d %+v", i, s)
-			}
+			assert.False(t, a.Right, "spread %d %+v: first page left-hand", i, s)
+			assert.True(t, b.Right, "spread %d %+v: second page right-hand", i, s)
+			assert.Equal(t, w, s.Pages[1].Offset.X, "spread %d %+v: second page's offset", i, s)
+			assert.Equal(t, 2*w, s.Sheet.W(), "spread %d %+v: sheet width", i, s)
 		case i != len(sp)-1:
-			t.Errorf("lone page inside the run: %+v", s)
+			assert.Fail(t, "lone page inside the run", "%+v", s)
 		}
 	}
-	for i, v := range seen {
-		if v != i {
-			t.Fatalf("spreads cover pages %v", seen)
-		}
+	all := make([]int, len(p.Pages))
+	for i := range all {
+		all[i] = i
 	}
-	if len(seen) != len(p.Pages) {
-		t.Fatalf("spreads cover %d of %d pages", len(seen), len(p.Pages))
-	}
+	require.Equal(t, all, seen, "pages the spreads cover, in order")
 }
 
 func TestRectJSON(t *testing.T) {
 	b, err := json.Marshal(Rect{0.00049, -0.0004, 612.2834645669, 858.8976377952})
-	if err != nil {
-		t.Fatal(err)
-	}
-	if string(b) != "[0,0,612.283,858.898]" {
-		t.Errorf("rect JSON %s", b)
-	}
+	require.NoError(t, err)
+	assert.Equal(t, "[0,0,612.283,858.898]", string(b), "rect JSON")
 	var r Rect
-	if err := json.Unmarshal(b, &r); err != nil || r != (Rect{0, 0, 612.283, 858.898}) {
-		t.Errorf("round trip %v %v", r, err)
-	}
+	assert.NoError(t, json.Unmarshal(b, &r), "round trip")
+	assert.Equal(t, Rect{0, 0, 612.283, 858.898}, r, "round trip")
 }
 
 func TestPlanJSONAndDeterminism(t *testing.T) {
 	groups := []Group{{"1800s", 13}, {"1850s", 40}}
 	a, _ := json.Marshal(solveT(t, testSpec(), a4Print(), groups))
 	b, _ := json.Marshal(solveT(t, testSpec(), a4Print(), groups))
-	if !bytes.Equal(a, b) {
-		t.Fatal("two solves of the same input differ")
-	}
+	require.True(t, bytes.Equal(a, b), "two solves of the same input differ")
 	var back struct {
 		Pages []struct {
 			Trim   Rect
 			Panels []struct{ Label, Plot Rect }
 		}
 	}
-	if err := json.Unmarshal(a, &back); err != nil {
-		t.Fatal(err)
-	}
-	if len(back.Pages) == 0 || back.Pages[0].Trim.W() < 595 || len(back.Pages[0].Panels) == 0 || back.Pages[0].Panels[0].Plot.W() <= 0 {
-		t.Errorf("JSON lacks boxes: %.300s", a)
-	}
+	require.NoError(t, json.Unmarshal(a, &back))
+	require.NotEmpty(t, back.Pages, "JSON lacks pages: %.300s", a)
+	assert.GreaterOrEqual(t, back.Pages[0].Trim.W(), 595.0, "JSON lacks the trim box: %.300s", a)
+	require.NotEmpty(t, back.Pages[0].Panels, "JSON lacks panels: %.300s", a)
+	assert.Positive(t, back.Pages[0].Panels[0].Plot.W(), "JSON lacks the plot box: %.300s", a)
 }
 
 func TestSummary(t *testing.T) {
 	p := solveT(t, testSpec(), a4Print(), []Group{{Count: 150}})
 	want := "print: " + strconv.Itoa(len(p.Pages)) + " pages, 6 × " + strconv.Itoa(p.RowsPerPage) + " panels a page, panel 25 × "
-	if got := p.Summary(); !strings.HasPrefix(got, want) || !strings.HasSuffix(got, " mm") {
-		t.Errorf("summary %q, want prefix %q", got, want)
-	}
+	got := p.Summary()
+	assert.True(t, strings.HasPrefix(got, want), "summary %q, want prefix %q", got, want)
+	assert.True(t, strings.HasSuffix(got, " mm"), "summary %q, want suffix \" mm\"", got)
 }
 
 func TestWarnings(t *testing.T) {
@@ -406,13 +354,10 @@ func TestWarnings(t *testing.T) {
 	}
 	all := strings.Join(msgs, "\n")
 	for _, want := range []string{"no bleed", "hairlines", "ticks type at 4 pt"} {
-		if !strings.Contains(all, want) {
-			t.Errorf("warnings lack %q:\n%s", want, all)
-		}
+		assert.Contains(t, all, want, "warnings")
 	}
-	if p := solveT(t, testSpec(), a4Print(), []Group{{Count: 10}}); len(p.Warnings) != 0 {
-		t.Errorf("clean output warned: %v", p.Warnings)
-	}
+	clean := solveT(t, testSpec(), a4Print(), []Group{{Count: 10}})
+	assert.Empty(t, clean.Warnings, "clean output warned")
 }
 
 func TestBadInputIsAnError(t *testing.T) {
@@ -436,13 +381,15 @@ func TestBadInputIsAnError(t *testing.T) {
 	}
 	for _, tc := range cases {
 		_, err := Solve(spec, tc.out, fs, tc.groups)
-		if err == nil || !strings.Contains(err.Error(), tc.want) || !strings.HasPrefix(err.Error(), "feature.yaml") && tc.name != "negative count" {
-			t.Errorf("%s: error %v, want %q", tc.name, err, tc.want)
+		if !assert.ErrorContains(t, err, tc.want, tc.name) {
+			continue
+		}
+		if tc.name != "negative count" {
+			assert.True(t, strings.HasPrefix(err.Error(), "feature.yaml"), "%s: error %q does not start with the spec file", tc.name, err)
 		}
 	}
-	if _, err := Solve(nil, nil, nil, nil); err == nil {
-		t.Error("nil input accepted")
-	}
+	_, err := Solve(nil, nil, nil, nil)
+	assert.Error(t, err, "nil input accepted")
 }
 
 func a4Print2() *specs.Output { o := a4Print(); return &o }
@@ -508,32 +455,24 @@ func TestInfeasible(t *testing.T) {
 		out := tc.out()
 		_, err := Solve(spec, &out, fs, []Group{{"A", 30}, {"B", 30}})
 		var inf *InfeasibleError
-		if !errors.As(err, &inf) {
-			t.Errorf("%s: error %v, want *InfeasibleError", tc.name, err)
+		if !assert.ErrorAs(t, err, &inf, tc.name) {
 			continue
 		}
 		msg := err.Error()
 		t.Log(msg)
-		if inf.Constraint != tc.constraint || !strings.HasPrefix(msg, `feature.yaml: output "print": `) {
-			t.Errorf("%s: constraint %q, message %q", tc.name, inf.Constraint, msg)
-		}
+		assert.Equal(t, tc.constraint, inf.Constraint, "%s: constraint", tc.name)
+		assert.True(t, strings.HasPrefix(msg, `feature.yaml: output "print": `), "%s: message %q does not start with the spec file and output", tc.name, msg)
 		for _, w := range tc.want {
-			if !strings.Contains(msg, w) {
-				t.Errorf("%s: %q lacks %q", tc.name, msg, w)
-			}
+			assert.Contains(t, msg, w, tc.name)
 		}
-		if len(inf.Remedies) == 0 || inf.Need <= inf.Have {
-			t.Errorf("%s: need %g, have %g, remedies %v", tc.name, inf.Need, inf.Have, inf.Remedies)
-		}
+		assert.NotEmpty(t, inf.Remedies, "%s: remedies", tc.name)
+		assert.Greater(t, inf.Need, inf.Have, "%s: need vs have", tc.name)
 		// Every suggestion, applied, is feasible.
 		for _, r := range inf.Remedies {
 			fixed := tc.out()
-			if err := r.Apply(&fixed); err != nil {
-				t.Fatal(err)
-			}
-			if _, err := Solve(spec, &fixed, fs, []Group{{"A", 30}, {"B", 30}}); err != nil {
-				t.Errorf("%s: remedy %q does not work: %v", tc.name, r.Text, err)
-			}
+			require.NoError(t, r.Apply(&fixed), "%s: applying remedy %q", tc.name, r.Text)
+			_, err := Solve(spec, &fixed, fs, []Group{{"A", 30}, {"B", 30}})
+			assert.NoError(t, err, "%s: remedy %q does not work", tc.name, r.Text)
 		}
 	}
 }
@@ -541,8 +480,9 @@ func TestInfeasible(t *testing.T) {
 func TestNoPanels(t *testing.T) {
 	for _, groups := range [][]Group{nil, {{"empty", 0}}} {
 		p := solveT(t, testSpec(), a4Print(), groups)
-		if len(p.Pages) != 1 || len(p.Pages[0].Panels) != 0 || len(p.Pages[0].Headings) != 0 {
-			t.Errorf("groups %v: %d pages", groups, len(p.Pages))
+		if assert.Len(t, p.Pages, 1, "groups %v: pages", groups) {
+			assert.Empty(t, p.Pages[0].Panels, "groups %v: panels", groups)
+			assert.Empty(t, p.Pages[0].Headings, "groups %v: headings", groups)
 		}
 	}
 }
@@ -559,21 +499,17 @@ outputs:
     columns: 14
 `
 	spec, err := specs.Parse("dir/feature.yaml", []byte(text))
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	_, err = Solve(spec, spec.Output("print"), fontSet(t), []Group{{Count: 30}})
 	var inf *InfeasibleError
-	if !errors.As(err, &inf) || inf.Pos.String() != "dir/feature.yaml:7:5" ||
-		!strings.HasPrefix(err.Error(), `dir/feature.yaml:7:5: output "print": 14 columns`) {
-		t.Fatalf("error %v at %v", err, inf)
-	}
+	require.ErrorAs(t, err, &inf)
+	require.Equal(t, "dir/feature.yaml:7:5", inf.Pos.String(), "error position")
+	require.True(t, strings.HasPrefix(err.Error(), `dir/feature.yaml:7:5: output "print": 14 columns`), "error %q", err)
 	// The parser's default outputs lay out as they are.
 	for _, k := range []specs.Kind{specs.Print, specs.Screen} {
 		out := specs.DefaultOutput("x", k)
-		if _, err := Solve(spec, &out, fontSet(t), []Group{{Count: 100}}); err != nil {
-			t.Errorf("default %s output: %v", k, err)
-		}
+		_, err := Solve(spec, &out, fontSet(t), []Group{{Count: 100}})
+		assert.NoError(t, err, "default %s output", k)
 	}
 }
 
@@ -612,9 +548,7 @@ func TestShortPageKeepsFullPitch(t *testing.T) {
 			continue
 		}
 		w := want[min(pg.Number-1, 1)]
-		if got := pitch(pg); got > w+1e-6 {
-			t.Errorf("page %d (%d rows): row pitch %.3f pt, a full page's is %.3f pt", pg.Number, len(rows), got, w)
-		}
+		assert.LessOrEqual(t, pitch(pg), w+1e-6, "page %d (%d rows): row pitch in pt, a full page's is %.3f pt", pg.Number, len(rows), w)
 	}
 }
 
@@ -645,9 +579,7 @@ func TestScrollGroups(t *testing.T) {
 		{1, 2, 5, []TextRole{RoleRunning}, []TextRole{RoleSource}},                  // 30: 5 rows; 1890s has none, no page
 		{2, 3, 1, []TextRole{RoleRunning}, []TextRole{RoleSource}},
 	} {
-		if c.page >= len(p.Pages) {
-			t.Fatalf("%d pages, want 3 (one per group with panels)", len(p.Pages))
-		}
+		require.Less(t, c.page, len(p.Pages), "%d pages, want 3 (one per group with panels)", len(p.Pages))
 		pg := p.Pages[c.page]
 		band := func(roles []TextRole) float64 {
 			h := 0.0
@@ -662,27 +594,19 @@ func TestScrollGroups(t *testing.T) {
 		}
 		grid := float64(c.rows)*rowH + float64(c.rows-1)*p.RowGap + hh
 		want := out.Margins.Top.Pt() + band(c.header) + gap + key + gap + grid + gap + band(c.footer) + out.Margins.Bottom.Pt()
-		if got := pg.Trim.H(); math.Abs(got-want) > 1e-6 {
-			t.Errorf("page %d is %.4f pt tall, want %.4f", c.page+1, got, want)
-		}
-		if pg.Trim.W() != 900 {
-			t.Errorf("page %d is %.4f pt wide, want 900 (1200 px)", c.page+1, pg.Trim.W())
-		}
-		if len(pg.Headings) != 1 || pg.Headings[0].Group != c.group || pg.Headings[0].Continued {
-			t.Errorf("page %d headings %+v, want group %d's", c.page+1, pg.Headings, c.group)
+		assert.InDelta(t, want, pg.Trim.H(), 1e-6, "page %d height in pt", c.page+1)
+		assert.Equal(t, 900.0, pg.Trim.W(), "page %d width in pt (1200 px)", c.page+1)
+		if assert.Len(t, pg.Headings, 1, "page %d headings %+v, want group %d's", c.page+1, pg.Headings, c.group) {
+			assert.Equal(t, c.group, pg.Headings[0].Group, "page %d heading's group", c.page+1)
+			assert.False(t, pg.Headings[0].Continued, "page %d heading is not a continuation", c.page+1)
 		}
 		for _, pn := range pg.Panels {
-			if pn.Group != c.group {
-				t.Fatalf("page %d holds item %d of group %d", c.page+1, pn.Item, pn.Group)
-			}
+			require.Equal(t, c.group, pn.Group, "page %d item %d: group", c.page+1, pn.Item)
 		}
 	}
-	if len(p.Pages) != 3 {
-		t.Errorf("%d pages, want 3", len(p.Pages))
-	}
-	if got := p.Summary(); !strings.HasPrefix(got, "web: 3 scrolling pages, one a group, 1200 × ") {
-		t.Errorf("summary %q", got)
-	}
+	assert.Len(t, p.Pages, 3, "pages")
+	got := p.Summary()
+	assert.True(t, strings.HasPrefix(got, "web: 3 scrolling pages, one a group, 1200 × "), "summary %q", got)
 
 	// Ungrouped, a page per group is one scrolling page: the same as scroll.
 	one := []Group{{Count: 40}}
@@ -691,9 +615,7 @@ func TestScrollGroups(t *testing.T) {
 	b := solveT(t, testSpec(), out, one)
 	ja, _ := json.Marshal(a.Pages)
 	jb, _ := json.Marshal(b.Pages)
-	if !bytes.Equal(ja, jb) {
-		t.Error("scroll-groups with one group differs from scroll")
-	}
+	assert.True(t, bytes.Equal(ja, jb), "scroll-groups with one group differs from scroll")
 }
 
 // TestKeyRepeats: down a scrolling page the colour key repeats before the
@@ -745,35 +667,31 @@ func TestKeyRepeats(t *testing.T) {
 			for _, pg := range p.Pages {
 				got += len(pg.KeyRepeats)
 			}
-			if got != want {
-				t.Fatalf("%d repeated keys, want %d", got, want)
-			}
+			require.Equal(t, want, got, "repeated keys")
 			if c.flow == specs.FlowPages {
 				return
 			}
 			pg := p.Pages[0]
-			if d := pg.Trim.H() - h0; math.Abs(d-float64(want)*kb) > 1e-6 {
-				t.Errorf("page grew by %.4f pt, want %d × %.4f", d, want, kb)
-			}
+			assert.InDelta(t, float64(want)*kb, pg.Trim.H()-h0, 1e-6, "page growth in pt, want %d × %.4f", want, kb)
 			// Each repeat is the top key moved down: same strip, same
 			// columns, the same gap above the next row as under the top key.
 			for i, k := range pg.KeyRepeats {
 				dy := pg.Key.Y1 - k.Key.Y1
-				if !near(k.Strip, pg.KeyStrip.Translate(0, -dy)) || !near(k.Ticks, pg.KeyTicks.Translate(0, -dy)) || !near(k.Key, pg.Key.Translate(0, -dy)) {
-					t.Errorf("repeat %d %+v is not the top key %v moved down %.3f pt", i, k, pg.Key, dy)
-				}
+				assert.True(t, near(k.Strip, pg.KeyStrip.Translate(0, -dy)), "repeat %d strip %v is not the top key's %v moved down %.3f pt", i, k.Strip, pg.KeyStrip, dy)
+				assert.True(t, near(k.Ticks, pg.KeyTicks.Translate(0, -dy)), "repeat %d ticks %v are not the top key's %v moved down %.3f pt", i, k.Ticks, pg.KeyTicks, dy)
+				assert.True(t, near(k.Key, pg.Key.Translate(0, -dy)), "repeat %d key %v is not the top key %v moved down %.3f pt", i, k.Key, pg.Key, dy)
 				next := math.Inf(-1)
 				for _, pn := range pg.Panels {
 					if pn.Label.Y1 < k.Key.Y0 {
 						next = max(next, pn.Label.Y1)
 					}
 				}
-				if gap := k.Key.Y0 - next; math.Abs(gap-(kb-keyH)) > 1e-6 {
-					t.Errorf("repeat %d: %.4f pt above the next row, want %.4f", i, gap, kb-keyH)
-				}
+				assert.InDelta(t, kb-keyH, k.Key.Y0-next, 1e-6, "repeat %d: gap above the next row in pt", i)
 			}
-			if len(p.Warnings) != 0 != (c.name == "before every row") {
-				t.Errorf("warnings %v", p.Warnings)
+			if c.name == "before every row" {
+				assert.NotEmpty(t, p.Warnings, "a key before every row warns")
+			} else {
+				assert.Empty(t, p.Warnings, "warnings")
 			}
 		})
 	}
@@ -790,9 +708,7 @@ func TestKeyRepeatsEndBlocks(t *testing.T) {
 	out.KeyEvery = pxL(1200)
 	p := solveT(t, testSpec(), out, []Group{{"1880s", 6 * 9}, {"1890s", 6 * 9}, {"1900s", 6 * 9}})
 	pg := p.Pages[0]
-	if len(pg.KeyRepeats) == 0 {
-		t.Fatal("no repeated keys")
-	}
+	require.NotEmpty(t, pg.KeyRepeats, "repeated keys")
 	overHeading := 0
 	for i, k := range pg.KeyRepeats {
 		above := math.Inf(1) // lowest panel bottom above the key
@@ -806,12 +722,8 @@ func TestKeyRepeatsEndBlocks(t *testing.T) {
 			}
 		}
 		for _, pn := range row {
-			if !pn.ShowTicks {
-				t.Errorf("repeat %d: item %d above it has no year labels", i, pn.Item)
-			}
-			if gap := pn.Ticks.Y0 - k.Key.Y1; math.Abs(gap-p.RowGap) > 1e-6 {
-				t.Errorf("repeat %d: %.4f pt under the tick labels above, want the row gap %.4f", i, gap, p.RowGap)
-			}
+			assert.True(t, pn.ShowTicks, "repeat %d: item %d above it has no year labels", i, pn.Item)
+			assert.InDelta(t, p.RowGap, pn.Ticks.Y0-k.Key.Y1, 1e-6, "repeat %d: gap under the tick labels above in pt, want the row gap", i)
 		}
 		// Under the key, a gap (a blank label line) down: a heading or a
 		// row's labels.
@@ -828,14 +740,10 @@ func TestKeyRepeatsEndBlocks(t *testing.T) {
 				what = "row"
 			}
 		}
-		if what == "" {
-			t.Errorf("repeat %d: neither a heading nor a row a gap under it", i)
-		}
+		assert.NotEmpty(t, what, "repeat %d: neither a heading nor a row a gap under it", i)
 	}
 	// 9 rows a group at this pitch: the keys fall at group starts too.
-	if overHeading == 0 {
-		t.Error("no repeated key above a heading; the case is not tested")
-	}
+	assert.NotZero(t, overHeading, "no repeated key above a heading; the case is not tested")
 }
 
 // near reports whether two rects agree to 1e-6 pt (rounding only).
