@@ -545,9 +545,8 @@ func benchSolve(b *testing.B, outs []specs.Output, groups []Group) {
 	spec := testSpec()
 	for b.Loop() {
 		for i := range outs {
-			if _, err := Solve(spec, &outs[i], fs, groups); err != nil {
-				b.Fatal(err)
-			}
+			_, err := Solve(spec, &outs[i], fs, groups)
+			require.NoError(b, err, "output %q", outs[i].Name)
 		}
 	}
 }

@@ -317,7 +317,7 @@ func cffRange(t testing.TB, b []byte) (int, int) {
 			return int(be.Uint32(b[rec+8:])), int(be.Uint32(b[rec+12:]))
 		}
 	}
-	t.Fatal("no CFF table")
+	require.Fail(t, "no CFF table")
 	return 0, 0
 }
 

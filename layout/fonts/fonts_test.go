@@ -3,7 +3,6 @@ package fonts
 import (
 	"bytes"
 	"errors"
-	"math"
 	"os"
 	"path/filepath"
 	"strings"
@@ -47,7 +46,9 @@ func refWidth(t *testing.T, ttf []byte, size float64, text string) float64 {
 		require.NoError(t, err)
 		if i > 0 {
 			k, err := f.Kern(&b, prev, g, ppem, font.HintingNone)
-			require.False(t, err != nil && !errors.Is(err, sfnt.ErrNotFound), err)
+			if !errors.Is(err, sfnt.ErrNotFound) { // no kerning for the pair: none added
+				require.NoError(t, err, "kern %q", text)
+			}
 			sum += k
 		}
 		a, err := f.GlyphAdvance(&b, g, ppem, font.HintingNone)
@@ -93,7 +94,8 @@ func TestWidthAgainstSfnt(t *testing.T) {
 		want := refWidth(t, tc.ttf, tc.size, tc.text)
 		// HarfBuzz rounds positions to font units; allow 0.5 unit a glyph.
 		tol := 0.5 / 2048 * tc.size * float64(len([]rune(tc.text)))
-		assert.False(t, math.Abs(got-want) > tol || got <= 0, "%v %g pt %q: width %.4f pt, sfnt says %.4f pt", tc.style, tc.size, tc.text, got, want)
+		assert.InDelta(t, want, got, tol, "%v %g pt %q: width in pt against sfnt's", tc.style, tc.size, tc.text)
+		assert.Positive(t, got, "%v %g pt %q: width in pt", tc.style, tc.size, tc.text)
 	}
 }
 
@@ -120,7 +122,8 @@ func TestMetricsGoRegular(t *testing.T) {
 	wantAsc := float64(fm.Ascent) / 64 / upem * size
 	wantDesc := float64(fm.Descent) / 64 / upem * size
 	m := goSet(t).Metrics(Regular, size)
-	assert.False(t, math.Abs(m.Ascent-wantAsc) > 1e-6 || math.Abs(m.Descent-wantDesc) > 1e-6, "metrics %+v, sfnt ascent %.6f descent %.6f", m, wantAsc, wantDesc)
+	assert.InDelta(t, wantAsc, m.Ascent, 1e-6, "ascent in pt, against sfnt's")
+	assert.InDelta(t, wantDesc, m.Descent, 1e-6, "descent in pt, against sfnt's")
 }
 
 func TestMetricsDefaultFace(t *testing.T) {
@@ -134,12 +137,8 @@ func TestMetricsDefaultFace(t *testing.T) {
 	upem := float64(f.UnitsPerEm())
 	size := 7.0
 	m := mustDefault(t).Metrics(Regular, size)
-	if want := float64(fm.Ascent) / 64 / upem * size; math.Abs(m.Ascent-want) > 1e-6 {
-		t.Errorf("ascent %.6f, sfnt says %.6f", m.Ascent, want)
-	}
-	if want := float64(fm.Descent) / 64 / upem * size; math.Abs(m.Descent-want) > 1e-6 {
-		t.Errorf("descent %.6f, sfnt says %.6f", m.Descent, want)
-	}
+	assert.InDelta(t, float64(fm.Ascent)/64/upem*size, m.Ascent, 1e-6, "ascent in pt, against sfnt's")
+	assert.InDelta(t, float64(fm.Descent)/64/upem*size, m.Descent, 1e-6, "descent in pt, against sfnt's")
 }
 
 func TestBaselineCentresGlyphsInLineBox(t *testing.T) {
@@ -151,7 +150,8 @@ func TestBaselineCentresGlyphsInLineBox(t *testing.T) {
 	base := s.Baseline(Regular, size, leading, top)
 	above := top - (base + m.Ascent)
 	below := (base - m.Descent) - (top - size*leading)
-	assert.False(t, math.Abs(above-below) > 1e-9 || above < 0, "space above %.6f, below %.6f", above, below)
+	assert.InDelta(t, above, below, 1e-9, "space below the descent vs above the ascent (pt)")
+	assert.GreaterOrEqual(t, above, 0.0, "space above the ascent (pt)")
 }
 
 func TestWrap(t *testing.T) {
@@ -159,31 +159,24 @@ func TestWrap(t *testing.T) {
 	text := "An invented dek: how forty words of the trade rose and fell across two centuries of printed pages, drawn one small chart at a time."
 	for _, width := range []float64{60, 120, 200, 400, 2000} {
 		lines := s.Wrap(Regular, 9, text, width)
-		if got := strings.Join(lines, " "); got != text {
-			t.Fatalf("width %g: words changed: %q", width, got)
-		}
+		require.Equal(t, text, strings.Join(lines, " "), "width %g: words changed", width)
 		for i, l := range lines {
-			if w := s.Width(Regular, 9, l); w > width && strings.Contains(l, " ") {
-				t.Errorf("width %g: line %d %q is %.2f pt wide", width, i, l, w)
+			if strings.Contains(l, " ") { // a single word may overhang
+				assert.LessOrEqual(t, s.Width(Regular, 9, l), width, "width %g: line %d %q in pt", width, i, l)
 			}
 			// Greedy: the next line's first word would not have fitted.
 			if i+1 < len(lines) {
 				next := strings.Fields(lines[i+1])[0]
-				if w := s.Width(Regular, 9, l+" "+next); w <= width {
-					t.Errorf("width %g: %q fits on line %d (%.2f pt)", width, next, i, w)
-				}
+				assert.Greater(t, s.Width(Regular, 9, l+" "+next), width, "width %g: %q fits on line %d (pt)", width, next, i)
 			}
 		}
 	}
-	if got := s.Wrap(Regular, 9, "one\ntwo  three", 1000); len(got) != 2 || got[1] != "two three" {
-		t.Errorf("hard break: %q", got)
+	got := s.Wrap(Regular, 9, "one\ntwo  three", 1000)
+	if assert.Len(t, got, 2, "hard break: %q", got) {
+		assert.Equal(t, "two three", got[1], "hard break")
 	}
-	if got := s.Wrap(Regular, 9, "  ", 100); len(got) != 0 {
-		t.Errorf("blank text gave %q", got)
-	}
-	if got := s.Wrap(Regular, 9, "unbreakablewordthatiswide", 10); len(got) != 1 {
-		t.Errorf("overlong word: %q", got)
-	}
+	assert.Empty(t, s.Wrap(Regular, 9, "  ", 100), "blank text")
+	assert.Len(t, s.Wrap(Regular, 9, "unbreakablewordthatiswide", 10), 1, "overlong word")
 }
 
 func TestLoadFiles(t *testing.T) {
@@ -195,9 +188,11 @@ func TestLoadFiles(t *testing.T) {
 	out := &specs.Output{Name: "print", Fonts: specs.Fonts{Regular: "Face-Bold.ttf"}}
 	s, err := Load(spec, out)
 	require.NoError(t, err)
-	assert.False(t, &s.Regular()[0] == &goregular.TTF[0] || len(s.Regular()) != len(gobold.TTF), "regular face not read from the file")
-	assert.False(t, s.Path(Regular) != filepath.Join(dir, "Face-Bold.ttf") || s.Path(Bold) != "", "paths %q %q", s.Path(Regular), s.Path(Bold))
-	assert.False(t, len(s.Italic()) != len(s.Regular()), "italic should fall back to the custom regular face")
+	assert.NotSame(t, &goregular.TTF[0], &s.Regular()[0], "regular face not read from the file")
+	assert.Len(t, s.Regular(), len(gobold.TTF), "regular face not read from the file")
+	assert.Equal(t, filepath.Join(dir, "Face-Bold.ttf"), s.Path(Regular), "regular face's path")
+	assert.Empty(t, s.Path(Bold), "bold face's path (built in)")
+	assert.Len(t, s.Italic(), len(s.Regular()), "italic should fall back to the custom regular face")
 
 	for _, tc := range []struct{ file, want string }{
 		{"missing.ttf", "cannot read font \"missing.ttf\""},
@@ -205,20 +200,22 @@ func TestLoadFiles(t *testing.T) {
 	} {
 		out := &specs.Output{Name: "print", Fonts: specs.Fonts{Bold: tc.file}}
 		_, err := Load(spec, out)
-		if err == nil || !strings.Contains(err.Error(), tc.want) || !strings.Contains(err.Error(), "fonts.bold") {
-			t.Errorf("%s: error %v, want it to contain %q", tc.file, err, tc.want)
+		if assert.ErrorContains(t, err, tc.want, tc.file) {
+			assert.ErrorContains(t, err, "fonts.bold", tc.file)
 		}
 	}
 }
 
 func TestDefaultBytesAreDejaVuSansCondensed(t *testing.T) {
 	s := mustDefault(t)
-	assert.False(t, !bytes.Equal(s.Regular(), dejavusanscondensed.TTF) || !bytes.Equal(s.Bold(), dejavusanscondensedbold.TTF) || len(s.Italic()) == 0, "default set does not hold DejaVu Sans Condensed")
+	assert.True(t, bytes.Equal(s.Regular(), dejavusanscondensed.TTF), "default regular face is not DejaVu Sans Condensed")
+	assert.True(t, bytes.Equal(s.Bold(), dejavusanscondensedbold.TTF), "default bold face is not DejaVu Sans Condensed Bold")
+	assert.NotEmpty(t, s.Italic(), "default italic face")
 	// Full names (name ID 4) as the DejaVu 2.37 files in
 	// github.com/go-fonts/dejavu v0.3.2 carry them.
 	assert.Equal(t, "DejaVuSansCondensed", s.Name(Regular))
 	assert.Equal(t, "DejaVuSansCondensed-Bold", s.Name(Bold))
-	assert.False(t, s.Name(Bold) == s.Name(Regular), "bold and regular share the name %q", s.Name(Bold))
+	assert.NotEqual(t, s.Name(Regular), s.Name(Bold), "bold and regular share a name")
 }
 
 func TestConcurrentMeasuring(t *testing.T) {
@@ -230,8 +227,7 @@ func TestConcurrentMeasuring(t *testing.T) {
 		go func() {
 			defer wg.Done()
 			for range 50 {
-				if got := s.Width(Regular, 8, "concurrent"); got != want {
-					t.Errorf("width %v, want %v", got, want)
+				if !assert.Equal(t, want, s.Width(Regular, 8, "concurrent"), "width measured concurrently") {
 					return
 				}
 			}

@@ -42,7 +42,7 @@ func TestFontFilesMustBeRegularAndBounded(t *testing.T) {
 				require.Contains(t, err.Error(), filepath.Join(dir, tt.file))
 				require.Contains(t, err.Error(), tt.want)
 			case <-time.After(20 * time.Second): // a hang check, not a speed one
-				t.Fatal("still reading after 20 s")
+				require.Fail(t, "still reading after 20 s")
 			}
 		})
 	}

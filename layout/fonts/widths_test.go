@@ -59,24 +59,20 @@ func TestWidthsRoundTrip(t *testing.T) {
 	data := saved(t, a)
 	b := mustDefault(t)
 	require.NoError(t, b.LoadWidths(bytes.NewReader(data)))
-	require.False(t, len(b.saved) != len(widthTexts), "%d widths read back, want %d", len(b.saved), len(widthTexts))
-	assert.False(t, len(saved(t, b)) >= len(data), "widths loaded but not used are saved again")
+	require.Len(t, b.saved, len(widthTexts), "widths read back")
+	assert.Less(t, len(saved(t, b)), len(data), "widths loaded but not used are saved again")
 	for i, w := range widthTexts {
 		got, ok := b.saved[widthKey{w.st, w.size, w.text}]
-		if !ok || math.Float64bits(got) != math.Float64bits(want[i]) {
-			t.Errorf("%v %g %q: read back %v (present %v), measured %v", w.st, w.size, w.text, got, ok, want[i])
-		}
-		if got := b.Width(w.st, w.size, w.text); got != want[i] {
-			t.Errorf("%v %g %q: Width %v after loading, want %v", w.st, w.size, w.text, got, want[i])
-		}
+		assert.True(t, ok, "%v %g %q: not read back", w.st, w.size, w.text)
+		assert.Equal(t, math.Float64bits(want[i]), math.Float64bits(got), "%v %g %q: bits read back (%v) vs measured (%v)", w.st, w.size, w.text, got, want[i])
+		assert.Equal(t, want[i], b.Width(w.st, w.size, w.text), "%v %g %q: Width after loading", w.st, w.size, w.text)
 	}
 	assert.True(t, bytes.Equal(saved(t, b), data), "widths used from a loaded file do not save to the same bytes")
 	// One width more than the file had: saved with the rest.
 	b.Width(Regular, 9, "one more")
 	more := mustDefault(t)
-	if err := more.LoadWidths(bytes.NewReader(saved(t, b))); err != nil || len(more.saved) != len(widthTexts)+1 {
-		t.Errorf("after a new width: %d widths saved (%v), want %d", len(more.saved), err, len(widthTexts)+1)
-	}
+	assert.NoError(t, more.LoadWidths(bytes.NewReader(saved(t, b))), "after a new width")
+	assert.Len(t, more.saved, len(widthTexts)+1, "after a new width: widths saved")
 	// Sorted entries: the order of measuring does not show in the bytes.
 	c, _ := measured(t, true)
 	assert.True(t, bytes.Equal(saved(t, c), data), "the same widths measured in another order save to other bytes")
@@ -104,9 +100,7 @@ func TestWidthsRefused(t *testing.T) {
 		{"empty", mustDefault(t), nil},
 		{"not a widths file", mustDefault(t), []byte("term,year,count\nboiler,1900,5\n")},
 	} {
-		if err := tc.set.LoadWidths(bytes.NewReader(tc.data)); err == nil {
-			t.Errorf("%s: no error", tc.name)
-		}
-		assert.False(t, len(tc.set.saved) != 0, "%s: %d widths added", tc.name, len(tc.set.saved))
+		assert.Error(t, tc.set.LoadWidths(bytes.NewReader(tc.data)), tc.name)
+		assert.Empty(t, tc.set.saved, "%s: widths added", tc.name)
 	}
 }

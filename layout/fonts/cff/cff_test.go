@@ -156,9 +156,7 @@ func TestParseRefusesBadTables(t *testing.T) {
 // panic, no hang.
 func FuzzCFF(f *testing.F) {
 	src, err := font.ParseSFNT(lmsans10regular.TTF, 0)
-	if err != nil {
-		f.Fatal(err)
-	}
+	require.NoError(f, err)
 	f.Add(src.Tables["CFF "])
 	f.Fuzz(func(t *testing.T, b []byte) {
 		c, err := Parse(b)
