@@ -20,7 +20,7 @@ func within(t *testing.T, f func()) {
 	select {
 	case <-done:
 	case <-time.After(20 * time.Second):
-		t.Fatal("still reading after 20 s: the input blocks or never ends")
+		require.Fail(t, "still reading after 20 s: the input blocks or never ends")
 	}
 }
 

@@ -4,6 +4,8 @@ import (
 	"os"
 	"path/filepath"
 	"testing"
+
+	"github.com/stretchr/testify/require"
 )
 
 // FuzzParse: any text is a spec or an error with a place; never a panic
@@ -20,13 +22,9 @@ func FuzzParse(f *testing.F) {
 	f.Fuzz(func(t *testing.T, data []byte) {
 		s, err := Parse(filepath.Join("dir", "spec.yaml"), data)
 		if err != nil {
-			if err.Error() == "" {
-				t.Fatal("an empty error message")
-			}
+			require.NotEmpty(t, err.Error(), "an empty error message")
 			return
 		}
-		if s == nil {
-			t.Fatal("no spec and no error")
-		}
+		require.NotNil(t, s, "no spec and no error")
 	})
 }

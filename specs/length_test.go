@@ -2,11 +2,13 @@ package specs
 
 import (
 	"encoding/csv"
-	"math"
 	"os"
 	"strconv"
 	"strings"
 	"testing"
+
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
 )
 
 // Unit definitions, each from its standard:
@@ -38,25 +40,18 @@ func TestParseLengthUnits(t *testing.T) {
 	}
 	for _, tt := range tests {
 		got, err := ParseLength(tt.in)
-		if err != nil {
-			t.Errorf("ParseLength(%q) [%s]: %v", tt.in, tt.source, err)
+		if !assert.NoError(t, err, "ParseLength(%q) [%s]", tt.in, tt.source) {
 			continue
 		}
-		if math.Abs(got.Pt()-tt.wantPt) > 1e-9 {
-			t.Errorf("ParseLength(%q) = %.9f pt, want %.9f pt [%s]", tt.in, got.Pt(), tt.wantPt, tt.source)
-		}
+		assert.InDelta(t, tt.wantPt, got.Pt(), 1e-9, "ParseLength(%q) in pt [%s]", tt.in, tt.source)
 	}
 }
 
 func TestLengthConversions(t *testing.T) {
 	// Same definitions as above, the other way round.
 	l := Length(72)
-	if got := l.Mm(); math.Abs(got-25.4) > 1e-12 {
-		t.Errorf("72 pt = %v mm, want 25.4 (1 in = 25.4 mm, 1959)", got)
-	}
-	if got := l.Px(); math.Abs(got-96) > 1e-12 {
-		t.Errorf("72 pt = %v px, want 96 (CSS Values L3 §5.2)", got)
-	}
+	assert.InDelta(t, 25.4, l.Mm(), 1e-12, "72 pt in mm (1 in = 25.4 mm, 1959)")
+	assert.InDelta(t, 96, l.Px(), 1e-12, "72 pt in px (CSS Values L3 §5.2)")
 }
 
 func TestParseLengthErrors(t *testing.T) {
@@ -77,9 +72,7 @@ func TestParseLengthErrors(t *testing.T) {
 	}
 	for _, tt := range tests {
 		_, err := ParseLength(tt.in)
-		if err == nil || !strings.Contains(err.Error(), tt.want) {
-			t.Errorf("ParseLength(%q) error = %v, want it to contain %q", tt.in, err, tt.want)
-		}
+		assert.ErrorContains(t, err, tt.want, "ParseLength(%q)", tt.in)
 	}
 }
 
@@ -88,44 +81,34 @@ func TestParseLengthErrors(t *testing.T) {
 // series, ANSI for Letter and Tabloid), to 0.001 pt.
 func TestNamedSizes(t *testing.T) {
 	f, err := os.Open("testdata/paper_sizes.csv")
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	defer f.Close()
 	r := csv.NewReader(f)
 	r.Comment = '#'
 	rows, err := r.ReadAll()
-	if err != nil {
-		t.Fatal(err)
-	}
-	if len(rows) != 6 {
-		t.Fatalf("paper_sizes.csv has %d rows, want header + 5", len(rows))
-	}
+	require.NoError(t, err)
+	require.Len(t, rows, 6, "paper_sizes.csv rows: header + 5")
 	num := func(s string) float64 {
 		v, err := strconv.ParseFloat(s, 64)
-		if err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, err)
 		return v
 	}
 	for _, row := range rows[1:] {
 		name, wmm, hmm, wpt, hpt := row[0], num(row[1]), num(row[2]), num(row[3]), num(row[4])
 		for _, text := range []string{name, strings.ToUpper(name), name + " portrait"} {
 			sz, err := ParseSize(text, false)
-			if err != nil {
-				t.Errorf("ParseSize(%q): %v", text, err)
+			if !assert.NoError(t, err, "ParseSize(%q)", text) {
 				continue
 			}
-			if math.Abs(sz.W.Pt()-wpt) > 0.001 || math.Abs(sz.H.Pt()-hpt) > 0.001 {
-				t.Errorf("ParseSize(%q) = %.3f × %.3f pt, want %.3f × %.3f (print-facts.md, %s)", text, sz.W.Pt(), sz.H.Pt(), wpt, hpt, name)
-			}
-			if math.Abs(sz.W.Mm()-wmm) > 1e-9 || math.Abs(sz.H.Mm()-hmm) > 1e-9 {
-				t.Errorf("ParseSize(%q) = %g × %g mm, want %g × %g", text, sz.W.Mm(), sz.H.Mm(), wmm, hmm)
-			}
+			assert.InDelta(t, wpt, sz.W.Pt(), 0.001, "ParseSize(%q) width in pt (print-facts.md, %s)", text, name)
+			assert.InDelta(t, hpt, sz.H.Pt(), 0.001, "ParseSize(%q) height in pt (print-facts.md, %s)", text, name)
+			assert.InDelta(t, wmm, sz.W.Mm(), 1e-9, "ParseSize(%q) width in mm (print-facts.md, %s)", text, name)
+			assert.InDelta(t, hmm, sz.H.Mm(), 1e-9, "ParseSize(%q) height in mm (print-facts.md, %s)", text, name)
 		}
 		land, err := ParseSize(name+" landscape", false)
-		if err != nil || math.Abs(land.W.Pt()-hpt) > 0.001 || math.Abs(land.H.Pt()-wpt) > 0.001 {
-			t.Errorf("ParseSize(%q landscape) = %v, %v; want %.3f × %.3f", name, land, err, hpt, wpt)
+		if assert.NoError(t, err, "ParseSize(%q landscape)", name) {
+			assert.InDelta(t, hpt, land.W.Pt(), 0.001, "ParseSize(%q landscape) width in pt", name)
+			assert.InDelta(t, wpt, land.H.Pt(), 0.001, "ParseSize(%q landscape) height in pt", name)
 		}
 	}
 }
@@ -146,13 +129,11 @@ func TestParseSize(t *testing.T) {
 	}
 	for _, tt := range tests {
 		got, err := ParseSize(tt.in, tt.heightOK)
-		if err != nil {
-			t.Errorf("ParseSize(%q): %v [%s]", tt.in, err, tt.source)
+		if !assert.NoError(t, err, "ParseSize(%q) [%s]", tt.in, tt.source) {
 			continue
 		}
-		if math.Abs(got.W.Pt()-tt.want.W.Pt()) > 1e-9 || math.Abs(got.H.Pt()-tt.want.H.Pt()) > 1e-9 {
-			t.Errorf("ParseSize(%q) = %v, want %v [%s]", tt.in, got, tt.want, tt.source)
-		}
+		assert.InDelta(t, tt.want.W.Pt(), got.W.Pt(), 1e-9, "ParseSize(%q) width in pt [%s]", tt.in, tt.source)
+		assert.InDelta(t, tt.want.H.Pt(), got.H.Pt(), 1e-9, "ParseSize(%q) height in pt [%s]", tt.in, tt.source)
 	}
 	for _, bad := range []struct{ in, want string }{
 		{"A4 sideways", `after a size name only "portrait" or "landscape" may follow`},
@@ -161,16 +142,14 @@ func TestParseSize(t *testing.T) {
 		{"230 x 300mm", `"230" has no unit`},
 		{"230mm x 300", `"300" has no unit`},
 	} {
-		if _, err := ParseSize(bad.in, false); err == nil || !strings.Contains(err.Error(), bad.want) {
-			t.Errorf("ParseSize(%q) error = %v, want it to contain %q", bad.in, err, bad.want)
-		}
+		_, err := ParseSize(bad.in, false)
+		assert.ErrorContains(t, err, bad.want, "ParseSize(%q)", bad.in)
 	}
 }
 
 func BenchmarkParseLength(b *testing.B) {
 	for b.Loop() {
-		if _, err := ParseLength("12.5mm"); err != nil {
-			b.Fatal(err)
-		}
+		_, err := ParseLength("12.5mm")
+		require.NoError(b, err)
 	}
 }

@@ -2,11 +2,13 @@ package specs
 
 import (
 	"fmt"
-	"math"
 	"os"
 	"path/filepath"
 	"strings"
 	"testing"
+
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
 )
 
 // head is the smallest valid spec; cases append to it or replace it.
@@ -107,20 +109,15 @@ func TestParseErrors(t *testing.T) {
 	for _, tt := range tests {
 		t.Run(tt.name, func(t *testing.T) {
 			_, err := Parse("bad.yaml", []byte(tt.text))
-			if err == nil {
-				t.Fatalf("no error for\n%s", tt.text)
-			}
+			require.Error(t, err, "no error for\n%s", tt.text)
 			es, ok := err.(Errors)
-			if !ok {
-				t.Fatalf("error is %T, want specs.Errors: %v", err, err)
-			}
+			require.True(t, ok, "error is %T, want specs.Errors: %v", err, err)
 			want := "bad.yaml:" + tt.at + ": "
+			found := false
 			for _, e := range es {
-				if strings.HasPrefix(e.Error(), want) && strings.Contains(e.Msg, tt.want) {
-					return
-				}
+				found = found || strings.HasPrefix(e.Error(), want) && strings.Contains(e.Msg, tt.want)
 			}
-			t.Errorf("want an error %q…%q; got\n%v", want, tt.want, err)
+			assert.True(t, found, "want an error %q…%q; got\n%v", want, tt.want, err)
 		})
 	}
 }
@@ -136,9 +133,7 @@ func TestParseReportsAll(t *testing.T) {
 		got = append(got, fmt.Sprintf("%d:%d", e.Pos.Line, e.Pos.Col))
 	}
 	want := []string{"7:5", "8:13", "9:12", "10:8"}
-	if strings.Join(got, " ") != strings.Join(want, " ") {
-		t.Errorf("positions %v, want %v; errors:\n%v", got, want, err)
-	}
+	assert.Equal(t, want, got, "error positions; errors:\n%v", err)
 
 	var b strings.Builder
 	b.WriteString(printOut)
@@ -147,12 +142,9 @@ func TestParseReportsAll(t *testing.T) {
 	}
 	_, err = Parse("many.yaml", []byte(b.String()))
 	es, _ = err.(Errors)
-	if len(es) != MaxErrors {
-		t.Errorf("got %d errors, want the cap %d", len(es), MaxErrors)
-	}
-	if !strings.HasSuffix(err.Error(), fmt.Sprintf("(stopped after %d problems)", MaxErrors)) {
-		t.Errorf("capped error list does not say it stopped:\n…%s", err.Error()[len(err.Error())-80:])
-	}
+	assert.Len(t, es, MaxErrors, "errors, capped")
+	msg := err.Error()
+	assert.True(t, strings.HasSuffix(msg, fmt.Sprintf("(stopped after %d problems)", MaxErrors)), "capped error list does not say it stopped:\n…%s", msg[len(msg)-80:])
 }
 
 // billionLaughs builds the "billion laughs" shape (Klein, 2002; see also
@@ -183,22 +175,21 @@ func TestAliasBomb(t *testing.T) {
 	// line 7, column 5 (its anchor).
 	_, err := Parse("bomb.yaml", []byte(billionLaughs(9, 9)))
 	es, _ := err.(Errors)
-	if len(es) != 1 || es[0].Pos.String() != "bomb.yaml:7:5" || !strings.Contains(es[0].Msg, "expands to too many values") {
-		t.Errorf("got %v, want one error at bomb.yaml:7:5 about aliases that multiply", err)
+	if assert.Len(t, es, 1, "want one error at bomb.yaml:7:5 about aliases that multiply; got %v", err) {
+		assert.Equal(t, "bomb.yaml:7:5", es[0].Pos.String(), "position of the alias bomb")
+		assert.Contains(t, es[0].Msg, "expands to too many values")
 	}
 	// Modest, honest reuse of anchors stays allowed.
 	ok := printOut + "palette:\n  paper: &p '#fffff0'\ndek: *p\n"
-	if _, err := Parse("ok.yaml", []byte(ok)); err != nil {
-		t.Errorf("plain alias rejected: %v", err)
-	}
+	_, err = Parse("ok.yaml", []byte(ok))
+	assert.NoError(t, err, "plain alias rejected")
 }
 
 func BenchmarkAliasBomb(b *testing.B) {
 	text := []byte(billionLaughs(9, 9))
 	for b.Loop() {
-		if _, err := Parse("bomb.yaml", text); err == nil {
-			b.Fatal("alias bomb accepted")
-		}
+		_, err := Parse("bomb.yaml", text)
+		require.Error(b, err, "alias bomb accepted")
 	}
 }
 
@@ -218,44 +209,34 @@ outputs:
     trim: 1200px x 1600px
 `
 	s, err := Parse("dir/ok.yaml", []byte(text))
-	if err != nil {
-		t.Fatal(err)
-	}
-	if s.Title != "T" || s.Years != (Span{1900, 1950}) || s.Years.Len() != 51 {
-		t.Errorf("title %q years %v", s.Title, s.Years)
-	}
-	if got := strings.Join(s.Terms.List, ","); got != "telegraph,boiler" || len(s.Terms.Exclude) != 1 {
-		t.Errorf("terms %v exclude %v", s.Terms.List, s.Terms.Exclude)
-	}
+	require.NoError(t, err)
+	assert.Equal(t, "T", s.Title, "title")
+	assert.Equal(t, Span{1900, 1950}, s.Years, "years")
+	assert.Equal(t, 51, s.Years.Len(), "years 1900–1950, both ends counted")
+	assert.Equal(t, []string{"telegraph", "boiler"}, s.Terms.List, "terms.list")
+	assert.Len(t, s.Terms.Exclude, 1, "terms.exclude")
 	p := s.Output("print")
+	require.NotNil(t, p, "print output")
 	// Letter landscape is 792 × 612 pt (ANSI 8.5 × 11 in, print-facts.md);
 	// 1/8 in bleed is 9 pt (ISO 32000-1 §8.3.2.3: 72 pt per inch).
-	if p == nil || p.Trim != (Size{792, 612}) || p.Bleed != 9 || p.Columns != 4 {
-		t.Fatalf("print output %+v", p)
-	}
-	if p.Margins != (Margins{72, 54, 72, 36}) {
-		t.Errorf("margins %+v, want 72 54 72 36 pt", p.Margins)
-	}
+	require.Equal(t, Size{792, 612}, p.Trim, "print trim, Letter landscape")
+	require.Equal(t, Length(9), p.Bleed, "print bleed, 1/8 in")
+	require.Equal(t, 4, p.Columns, "print columns")
+	assert.Equal(t, Margins{72, 54, 72, 36}, p.Margins, "margins 1in, 0.75in, 1in, 0.5in in pt")
 	w := s.Output("web")
+	require.NotNil(t, w, "web output")
 	// 1200 × 1600 px = 900 × 1200 pt (CSS Values L3: 96 px per inch).
-	if w == nil || w.Trim != (Size{900, 1200}) || w.Flow != FlowPages || w.Bleed != 0 || w.Marks {
-		t.Errorf("web output %+v", w)
-	}
-	if s.Order != OrderListed || s.Scale.Mode != ScaleShare || s.Scale.YRange != YOwn {
-		t.Errorf("defaults: order %q scale %+v", s.Order, s.Scale)
-	}
-	if got := s.Where("outputs.print.bleed").String(); got != "dir/ok.yaml:11:5" {
-		t.Errorf("Where(bleed) = %s, want dir/ok.yaml:12:5", got)
-	}
-	if got := s.Where("terms.list.1").String(); got != "dir/ok.yaml:5:21" {
-		t.Errorf("Where(terms.list.1) = %s, want dir/ok.yaml:5:20", got)
-	}
-	if got := s.Where("outputs.print.no-such").String(); got != "dir/ok.yaml:8:3" {
-		t.Errorf("Where falls back to the parent: got %s, want dir/ok.yaml:9:3", got)
-	}
-	if got := s.Resolve("c.csv"); got != filepath.Join("dir", "c.csv") {
-		t.Errorf("Resolve = %s", got)
-	}
+	assert.Equal(t, Size{900, 1200}, w.Trim, "web trim, 1200 × 1600 px")
+	assert.Equal(t, FlowPages, w.Flow, "web flow")
+	assert.Zero(t, w.Bleed, "web bleed")
+	assert.False(t, w.Marks, "web crop marks")
+	assert.Equal(t, OrderListed, s.Order, "default order")
+	assert.Equal(t, ScaleShare, s.Scale.Mode, "default scale mode")
+	assert.Equal(t, YOwn, s.Scale.YRange, "default y range")
+	assert.Equal(t, "dir/ok.yaml:11:5", s.Where("outputs.print.bleed").String(), "Where(outputs.print.bleed)")
+	assert.Equal(t, "dir/ok.yaml:5:21", s.Where("terms.list.1").String(), "Where(terms.list.1)")
+	assert.Equal(t, "dir/ok.yaml:8:3", s.Where("outputs.print.no-such").String(), "Where falls back to the parent")
+	assert.Equal(t, filepath.Join("dir", "c.csv"), s.Resolve("c.csv"), "Resolve")
 }
 
 // TestKeyEvery checks the distance the colour key repeats at down a
@@ -279,17 +260,11 @@ func TestKeyEvery(t *testing.T) {
 	} {
 		t.Run(c.name, func(t *testing.T) {
 			s, err := Parse("ok.yaml", []byte(head+"outputs:\n  web:\n    kind: screen\n    "+c.keys+"\n"))
-			if err != nil {
-				t.Fatal(err)
-			}
-			if got := s.Output("web").KeyEvery; math.Abs(float64(got-c.want)) > 1e-9 {
-				t.Errorf("key-every %g pt, want %g pt", got, c.want)
-			}
+			require.NoError(t, err)
+			assert.InDelta(t, float64(c.want), float64(s.Output("web").KeyEvery), 1e-9, "key-every in pt")
 		})
 	}
-	if d := DefaultOutput("print", Print); d.KeyEvery != 0 {
-		t.Errorf("print default key-every %g pt, want 0", d.KeyEvery)
-	}
+	assert.Zero(t, DefaultOutput("print", Print).KeyEvery, "print default key-every")
 }
 
 // TestFlow checks how a screen output's flow follows from flow and trim
@@ -308,16 +283,10 @@ func TestFlow(t *testing.T) {
 	} {
 		t.Run(c.name, func(t *testing.T) {
 			s, err := Parse("ok.yaml", []byte(head+"outputs:\n  web:\n    kind: screen\n    "+c.keys+"\n"))
-			if err != nil {
-				t.Fatal(err)
-			}
+			require.NoError(t, err)
 			w := s.Output("web")
-			if w.Flow != c.want {
-				t.Errorf("flow %q, want %q", w.Flow, c.want)
-			}
-			if w.Flow.Scrolls() != (c.want != FlowPages) {
-				t.Errorf("Scrolls() = %v for %q", w.Flow.Scrolls(), w.Flow)
-			}
+			assert.Equal(t, c.want, w.Flow, "flow")
+			assert.Equal(t, c.want != FlowPages, w.Flow.Scrolls(), "Scrolls() for %q", w.Flow)
 		})
 	}
 }
@@ -337,33 +306,24 @@ func TestParseColor(t *testing.T) {
 	}
 	for _, tt := range tests {
 		c, err := ParseColor(tt.in)
-		if err != nil {
-			t.Errorf("ParseColor(%q): %v", tt.in, err)
+		if !assert.NoError(t, err, "ParseColor(%q) [%s]", tt.in, tt.source) {
 			continue
 		}
-		if c.Space != tt.space {
-			t.Errorf("ParseColor(%q) space %s, want %s", tt.in, c.Space, tt.space)
-		}
+		assert.Equal(t, tt.space, c.Space, "ParseColor(%q) space [%s]", tt.in, tt.source)
 		for i := range 3 {
-			if math.Abs(c.V[i]-tt.v[i]) > 1e-12 {
-				t.Errorf("ParseColor(%q) = %v, want %v [%s]", tt.in, c.V, tt.v, tt.source)
-				break
-			}
+			assert.InDelta(t, tt.v[i], c.V[i], 1e-12, "ParseColor(%q) = %v, component %d [%s]", tt.in, c.V, i, tt.source)
 		}
 	}
 	for _, bad := range []string{"#ggg", "red", "lab(-1 0 0)", "oklch(1.2 0.1 0)", "oklch(0.5 -0.1 0)", "rgb(1 2 3)"} {
-		if _, err := ParseColor(bad); err == nil {
-			t.Errorf("ParseColor(%q) accepted", bad)
-		}
+		_, err := ParseColor(bad)
+		assert.Error(t, err, "ParseColor(%q) accepted", bad)
 	}
 }
 
 func TestLoadFileErrors(t *testing.T) {
 	dir := t.TempDir()
 	spec := filepath.Join(dir, "s.yaml")
-	if err := os.WriteFile(spec, []byte("title: [\n"), 0o644); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, os.WriteFile(spec, []byte("title: [\n"), 0o644))
 	tests := []struct {
 		path, want string
 	}{
@@ -373,8 +333,8 @@ func TestLoadFileErrors(t *testing.T) {
 	}
 	for _, tt := range tests {
 		_, err := Load(tt.path)
-		if err == nil || !strings.HasPrefix(err.Error(), tt.want) {
-			t.Errorf("Load(%s) = %v, want %q…", tt.path, err, tt.want)
+		if assert.Error(t, err, "Load(%s)", tt.path) {
+			assert.True(t, strings.HasPrefix(err.Error(), tt.want), "Load(%s) = %q, want %q…", tt.path, err, tt.want)
 		}
 	}
 }
@@ -391,14 +351,9 @@ func TestClosest(t *testing.T) {
 		{"xyzzy", ""}, // too far from everything
 	}
 	for _, tt := range tests {
-		got := strings.Join(Closest(tt.word, names, 1), ",")
-		if got != tt.want {
-			t.Errorf("Closest(%q) = %q, want %q", tt.word, got, tt.want)
-		}
+		assert.Equal(t, tt.want, strings.Join(Closest(tt.word, names, 1), ","), "Closest(%q)", tt.word)
 	}
-	if got := Closest("tele", names, 3); len(got) > 3 {
-		t.Errorf("Closest returned %d names, want at most 3", len(got))
-	}
+	assert.LessOrEqual(t, len(Closest("tele", names, 3)), 3, "names Closest returns, asked for 3")
 }
 
 func TestPosString(t *testing.T) {
@@ -410,9 +365,7 @@ func TestPosString(t *testing.T) {
 		{Pos{File: "a.csv", Line: 3}, "a.csv:3"},
 		{Pos{File: "a.yaml"}, "a.yaml"},
 	} {
-		if got := tt.p.String(); got != tt.want {
-			t.Errorf("%#v.String() = %q, want %q", tt.p, got, tt.want)
-		}
+		assert.Equal(t, tt.want, tt.p.String(), "%#v.String()", tt.p)
 	}
 }
 
@@ -446,19 +399,16 @@ func TestPreflightKeys(t *testing.T) {
 			}
 			s, err := Parse("p.yaml", []byte(text))
 			if tt.err != "" {
-				if err == nil || !strings.Contains(err.Error(), "p.yaml:"+tt.err) {
-					t.Fatalf("error %v, want p.yaml:%s", err, tt.err)
-				}
+				require.ErrorContains(t, err, "p.yaml:"+tt.err)
 				return
 			}
-			if err != nil {
-				t.Fatal(err)
-			}
+			require.NoError(t, err)
 			g := s.Preflight
-			if math.Abs(float64(g.MinType-tt.want.MinType)) > 1e-9 || g.SpikeRatio != tt.want.SpikeRatio ||
-				g.MinScreenType != tt.want.MinScreenType || g.MinLine != tt.want.MinLine || g.Strict != tt.want.Strict {
-				t.Errorf("preflight %+v, want %+v", g, tt.want)
-			}
+			assert.InDelta(t, float64(tt.want.MinType), float64(g.MinType), 1e-9, "min-type in pt")
+			assert.Equal(t, tt.want.SpikeRatio, g.SpikeRatio, "spike-ratio")
+			assert.Equal(t, tt.want.MinScreenType, g.MinScreenType, "min-screen-type in pt")
+			assert.Equal(t, tt.want.MinLine, g.MinLine, "min-line in pt")
+			assert.Equal(t, tt.want.Strict, g.Strict, "strict")
 		})
 	}
 }
