@@ -11,6 +11,8 @@ import (
 	"syscall"
 	"testing"
 	"time"
+
+	"github.com/stretchr/testify/require"
 )
 
 // benchArchive writes an invented archive of about size bytes: 128 files
@@ -66,12 +68,8 @@ func benchArchive(b *testing.B, size int) ([]File, []string) {
 		}
 		year := 1900 + f/2
 		p := filepath.Join(dir, fmt.Sprint(year), fmt.Sprintf("part-%d.txt", f%2))
-		if err := os.MkdirAll(filepath.Dir(p), 0o755); err != nil {
-			b.Fatal(err)
-		}
-		if err := os.WriteFile(p, []byte(sb.String()), 0o644); err != nil {
-			b.Fatal(err)
-		}
+		require.NoError(b, os.MkdirAll(filepath.Dir(p), 0o755))
+		require.NoError(b, os.WriteFile(p, []byte(sb.String()), 0o644))
 		files = append(files, File{Year: year, Path: p, Size: int64(sb.Len())})
 	}
 	var terms []string
@@ -106,9 +104,8 @@ func BenchmarkCount(b *testing.B) {
 			b.SetBytes(size)
 			cpu := cpuTime()
 			for b.Loop() {
-				if _, err := Count(files, Options{Fold: true, Terms: terms, Workers: workers}); err != nil {
-					b.Fatal(err)
-				}
+				_, err := Count(files, Options{Fold: true, Terms: terms, Workers: workers})
+				require.NoError(b, err)
 			}
 			reportPerCPU(b, cpu, size)
 		})
@@ -116,9 +113,8 @@ func BenchmarkCount(b *testing.B) {
 			b.SetBytes(2 * size)
 			cpu := cpuTime()
 			for b.Loop() {
-				if _, err := Count(files, Options{Fold: true, NGrams: 2, MinCount: 5, Workers: workers}); err != nil {
-					b.Fatal(err)
-				}
+				_, err := Count(files, Options{Fold: true, NGrams: 2, MinCount: 5, Workers: workers})
+				require.NoError(b, err)
 			}
 			reportPerCPU(b, cpu, 2*size)
 		})
@@ -147,16 +143,12 @@ func BenchmarkTokens(b *testing.B) {
 	var text []byte
 	for _, f := range files {
 		data, err := os.ReadFile(f.Path)
-		if err != nil {
-			b.Fatal(err)
-		}
+		require.NoError(b, err)
 		text = append(text, data...)
 	}
 	tk := &Tokenizer{Fold: true}
 	b.SetBytes(int64(len(text)))
 	for b.Loop() {
-		if err := tk.Tokens(bytes.NewReader(text), func([]byte, bool) {}); err != nil {
-			b.Fatal(err)
-		}
+		require.NoError(b, tk.Tokens(bytes.NewReader(text), func([]byte, bool) {}))
 	}
 }

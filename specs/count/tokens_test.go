@@ -281,39 +281,19 @@ func FuzzTokens(f *testing.F) {
 		tk := &Tokenizer{Fold: fold}
 		var first []string
 		err := tk.Tokens(strings.NewReader(s), func(b []byte, word bool) {
-			if len(b) == 0 {
-				t.Fatalf("empty token from %q", s)
-			}
-			if word != (classify(b) == kindWord) && !bytes.ContainsAny(b, "-\u2010") {
-				t.Fatalf("token %q of %q: word=%v", b, s, word)
+			require.NotEmpty(t, b, "empty token from %q", s)
+			if !bytes.ContainsAny(b, "-\u2010") {
+				require.Equal(t, classify(b) == kindWord, word, "token %q of %q: word", b, s)
 			}
 			first = append(first, string(b))
 		})
 		if !utf8.ValidString(s) || strings.ContainsRune(s, 0) {
-			if err == nil {
-				t.Fatalf("no error for %q", s)
-			}
+			require.Error(t, err, "no error for %q", s)
 			return
 		}
-		if err != nil {
-			t.Fatalf("%q: %v", s, err)
-		}
+		require.NoError(t, err, "%q", s)
 		var again []string
 		require.NoError(t, tk.Tokens(strings.NewReader(s), func(b []byte, _ bool) { again = append(again, string(b)) }))
-		if !slicesEqual(first, again) {
-			t.Fatalf("%q: tokens differ on a second run", s)
-		}
+		require.Equal(t, first, again, "%q: tokens differ on a second run", s)
 	})
-}
-
-func slicesEqual(a, b []string) bool {
-	if len(a) != len(b) {
-		return false
-	}
-	for i := range a {
-		if a[i] != b[i] {
-			return false
-		}
-	}
-	return true
 }

@@ -8,6 +8,9 @@ import (
 	"strings"
 	"testing"
 
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
+
 	"sheaf/specs"
 )
 
@@ -41,9 +44,7 @@ func FuzzRecords(f *testing.F) {
 			}
 			return out, err
 		}, r.FieldPos)
-		if got != want {
-			t.Errorf("text %q:\ngot\n%s\nwant (encoding/csv)\n%s", text, got, want)
-		}
+		assert.Equal(t, want, got, "text %q: records, field positions and errors; want those of encoding/csv", text)
 	})
 }
 
@@ -60,21 +61,15 @@ func FuzzLoad(f *testing.F) {
 		write(t, filepath.Join(dir, "totals.csv"), totals)
 		spec := "title: T\ndata: {counts: counts.csv, totals: totals.csv, fold-case: " + map[bool]string{true: "true", false: "false"}[fold] + "}\nyears: {from: 1900, to: 1903}\noutputs: {print: {kind: print}}\n"
 		path := filepath.Join(dir, "spec.yaml")
-		if err := os.WriteFile(path, []byte(spec), 0o644); err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, os.WriteFile(path, []byte(spec), 0o644))
 		s, err := specs.Load(path)
-		if err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, err)
 		set, err := Load(s)
 		if err != nil {
 			return
 		}
 		for _, sr := range set.Series {
-			if len(sr.Values) != 4 {
-				t.Fatalf("series %q has %d values for 4 years", sr.Term, len(sr.Values))
-			}
+			require.Len(t, sr.Values, 4, "series %q: one value for each of 4 years", sr.Term)
 		}
 	})
 }

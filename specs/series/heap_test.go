@@ -57,7 +57,7 @@ func heapGrowthBound(t *testing.T, spec string) uint64 {
 			return n
 		}
 	}
-	t.Fatalf("the child printed no bound:\n%s", out)
+	require.Failf(t, "no bound", "the child printed no bound:\n%s", out)
 	return 0
 }
 

@@ -44,7 +44,7 @@ func TestTablesMustBeRegularFiles(t *testing.T) {
 				require.Contains(t, err.Error(), spec+":3:3: data.counts")
 				require.Contains(t, err.Error(), tt.want)
 			case <-time.After(20 * time.Second): // a hang check, not a speed one
-				t.Fatal("still reading after 20 s")
+				require.Fail(t, "still reading after 20 s")
 			}
 		})
 	}

@@ -613,9 +613,8 @@ func BenchmarkLoadLarge(b *testing.B) {
 	var peak uint64
 	for b.Loop() {
 		peak = max(peak, peakHeap(func() {
-			if _, err := load(b, spec); err != nil {
-				b.Fatal(err)
-			}
+			_, err := load(b, spec)
+			require.NoError(b, err)
 		}))
 	}
 	b.ReportMetric(float64(peak)/1e6, "peak-heap-MB")
@@ -624,12 +623,9 @@ func BenchmarkLoadLarge(b *testing.B) {
 
 func BenchmarkLoadSmall(b *testing.B) {
 	s, err := specs.Load(small)
-	if err != nil {
-		b.Fatal(err)
-	}
+	require.NoError(b, err)
 	for b.Loop() {
-		if _, err := Load(s); err != nil {
-			b.Fatal(err)
-		}
+		_, err := Load(s)
+		require.NoError(b, err)
 	}
 }
