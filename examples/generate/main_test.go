@@ -1,8 +1,9 @@
 package main
 
 import (
-	"slices"
 	"testing"
+
+	"github.com/stretchr/testify/assert"
 )
 
 func TestParseInts(t *testing.T) {
@@ -17,11 +18,12 @@ func TestParseInts(t *testing.T) {
 		{"1917,nineteen", nil, false},
 	} {
 		got, err := parseInts(tc.in)
-		if (err == nil) != tc.ok || !slices.Equal(got, tc.want) {
-			t.Errorf("parseInts(%q) = %v, %v; want %v, ok=%v", tc.in, got, err, tc.want, tc.ok)
+		if tc.ok {
+			assert.NoError(t, err, "parseInts(%q)", tc.in)
+		} else {
+			assert.Error(t, err, "parseInts(%q)", tc.in)
 		}
+		assert.Equal(t, tc.want, got, "parseInts(%q)", tc.in)
 	}
-	if s := joinInts([]int{1917, 1944}); s != "1917,1944" {
-		t.Errorf("joinInts = %q", s)
-	}
+	assert.Equal(t, "1917,1944", joinInts([]int{1917, 1944}), "joinInts")
 }

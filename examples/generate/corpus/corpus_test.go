@@ -52,81 +52,78 @@ func TestDeterministic(t *testing.T) {
 	require.NoError(t, err)
 	ac, at := render(t, a)
 	bc, bt := render(t, b)
-	require.False(t, !bytes.Equal(ac, bc) || !bytes.Equal(at, bt), "same Config gave different bytes")
+	require.True(t, bytes.Equal(ac, bc), "same Config gave different counts bytes")
+	require.True(t, bytes.Equal(at, bt), "same Config gave different totals bytes")
 	cfg := DefaultConfig()
 	cfg.Seed++
 	d, err := Generate(cfg)
 	require.NoError(t, err)
-	if dc, _ := render(t, d); bytes.Equal(ac, dc) {
-		t.Fatal("a different seed gave the same counts")
-	}
+	dc, _ := render(t, d)
+	require.False(t, bytes.Equal(ac, dc), "a different seed gave the same counts")
 }
 
 func TestMissingYears(t *testing.T) {
 	c := mustDemo(t)
 	counts, totals := render(t, c)
 	for _, y := range WarYears() {
-		assert.False(t, slices.Contains(c.Years, y), "war year %d is in Years", y)
+		assert.NotContains(t, c.Years, y, "war year %d is in Years", y)
 		for _, r := range parse(t, counts)[1:] {
-			require.False(t, r[1] == strconv.Itoa(y), "war year %d appears in counts: %v", y, r)
+			require.NotEqual(t, strconv.Itoa(y), r[1], "war year %d appears in counts: %v", y, r)
 		}
 		for _, r := range parse(t, totals)[1:] {
-			require.False(t, r[0] == strconv.Itoa(y), "war year %d appears in totals", y)
+			require.NotEqual(t, strconv.Itoa(y), r[0], "war year %d appears in totals", y)
 		}
 	}
 	// Every other year of the span is present, in order.
-	want := 2025 - 1868 + 1 - len(WarYears())
-	if len(c.Years) != want || c.Years[0] != 1868 || c.Years[len(c.Years)-1] != 2025 || !slices.IsSorted(c.Years) {
-		t.Errorf("Years: %d years %d–%d, want %d over 1868–2025 ascending", len(c.Years), c.Years[0], c.Years[len(c.Years)-1], want)
-	}
+	assert.Len(t, c.Years, 2025-1868+1-len(WarYears()), "Years: 1868–2025 less the war years")
+	assert.Equal(t, 1868, c.Years[0], "first year")
+	assert.Equal(t, 2025, c.Years[len(c.Years)-1], "last year")
+	assert.IsNonDecreasing(t, c.Years, "Years ascending")
 }
 
 func TestCountsWithinTotals(t *testing.T) {
 	c := mustDemo(t)
 	sum := make([]int, len(c.Years))
 	for _, term := range c.Terms {
-		require.False(t, len(term.Counts) != len(c.Years), "%q: %d counts for %d years", term.Name, len(term.Counts), len(c.Years))
+		require.Len(t, term.Counts, len(c.Years), "%q: one count a year", term.Name)
 		for j, n := range term.Counts {
-			if n < 0 || n > c.Totals[j] {
-				t.Fatalf("%q in %d: count %d outside 0..%d", term.Name, c.Years[j], n, c.Totals[j])
-			}
+			require.GreaterOrEqual(t, n, 0, "%q in %d: count", term.Name, c.Years[j])
+			require.LessOrEqual(t, n, c.Totals[j], "%q in %d: count, over the year's total", term.Name, c.Years[j])
 			sum[j] += n
 		}
 	}
 	// The terms are a small part of all the words printed.
 	for j, s := range sum {
-		if s > c.Totals[j]/10 {
-			t.Errorf("%d: terms use %d of %d words", c.Years[j], s, c.Totals[j])
-		}
+		assert.LessOrEqual(t, s, c.Totals[j]/10, "%d: words the terms use, of %d", c.Years[j], c.Totals[j])
 	}
 }
 
 func TestTotalsGrow(t *testing.T) {
 	c := mustDemo(t)
 	first, last := float64(c.Totals[0]), float64(c.Totals[len(c.Totals)-1])
-	assert.False(t, first < 1_600_000 || first > 2_500_000, "1868 total %v, want about 2 million", first)
-	assert.False(t, last < 12_000_000 || last > 18_000_000, "2025 total %v, want about 15 million", last)
+	assert.GreaterOrEqual(t, first, 1_600_000.0, "1868 total, want about 2 million")
+	assert.LessOrEqual(t, first, 2_500_000.0, "1868 total, want about 2 million")
+	assert.GreaterOrEqual(t, last, 12_000_000.0, "2025 total, want about 15 million")
+	assert.LessOrEqual(t, last, 18_000_000.0, "2025 total, want about 15 million")
 	// The war dips: the year before the gap is lower than a few years earlier.
 	at := func(y int) int { return c.Totals[slices.Index(c.Years, y)] }
-	assert.False(t, at(1916) >= at(1912) || at(1942) >= at(1938), "no wartime dip: 1912 %d, 1916 %d, 1938 %d, 1942 %d", at(1912), at(1916), at(1938), at(1942))
+	assert.Less(t, at(1916), at(1912), "no wartime dip: total 1916 vs 1912")
+	assert.Less(t, at(1942), at(1938), "no wartime dip: total 1942 vs 1938")
 }
 
 func TestTermNames(t *testing.T) {
 	c := mustDemo(t)
-	require.False(t, len(c.Terms) != DefaultConfig().Terms, "%d terms, want %d", len(c.Terms), DefaultConfig().Terms)
+	require.Len(t, c.Terms, DefaultConfig().Terms, "terms")
 	var nonASCII, hyphen, compound int
 	for i, term := range c.Terms {
 		n := term.Name
-		switch {
-		case !utf8.ValidString(n):
-			t.Errorf("%q is not UTF-8", n)
-		case !norm.NFC.IsNormalString(n):
-			t.Errorf("%q is not NFC", n)
-		case n != strings.TrimSpace(n) || n == "" || strings.ContainsAny(n, ",\"\n\r\t"):
-			t.Errorf("%q has blank ends or CSV-special characters", n)
-		}
-		if i > 0 && c.Terms[i-1].Name >= n {
-			t.Errorf("names not unique and sorted: %q then %q", c.Terms[i-1].Name, n)
+		assert.True(t, utf8.ValidString(n), "%q is not UTF-8", n)
+		assert.True(t, norm.NFC.IsNormalString(n), "%q is not NFC", n)
+		assert.NotEmpty(t, n, "a blank name")
+		assert.Equal(t, strings.TrimSpace(n), n, "%q has blank ends", n)
+		assert.False(t, strings.ContainsAny(n, ",\"\n\r\t"), "%q has CSV-special characters", n)
+		if i > 0 {
+			assert.Less(t, c.Terms[i-1].Name, n, "names unique and sorted")
 		}
 		if strings.IndexFunc(n, func(r rune) bool { return r >= utf8.RuneSelf }) >= 0 {
 			nonASCII++
@@ -138,11 +135,12 @@ func TestTermNames(t *testing.T) {
 			compound++
 		}
 	}
-	assert.False(t, nonASCII < 5 || hyphen < 10 || compound < 100, "%d non-ASCII, %d hyphenated, %d two-word names; want at least 5, 10, 100", nonASCII, hyphen, compound)
+	assert.GreaterOrEqual(t, nonASCII, 5, "non-ASCII names")
+	assert.GreaterOrEqual(t, hyphen, 10, "hyphenated names")
+	assert.GreaterOrEqual(t, compound, 100, "two-word names")
 	for _, want := range []string{"Maßstab", "café", "naïve", "rôle", "über-gear"} {
-		if _, ok := slices.BinarySearchFunc(c.Terms, want, func(t Term, s string) int { return cmp.Compare(t.Name, s) }); !ok {
-			t.Errorf("missing the Unicode test term %q", want)
-		}
+		_, ok := slices.BinarySearchFunc(c.Terms, want, func(t Term, s string) int { return cmp.Compare(t.Name, s) })
+		assert.True(t, ok, "missing the Unicode test term %q", want)
 	}
 }
 
@@ -279,10 +277,10 @@ func TestErasFitMeaning(t *testing.T) {
 		}
 		s := shares(c, c.Terms[i])
 		peak := c.Years[slices.Index(s, slices.Max(s))]
-		assert.True(t, peak >= tc.peakFrom && peak <= tc.peakTo, "%q peaks in %d, want %d–%d", tc.term, peak, tc.peakFrom, tc.peakTo)
+		assert.GreaterOrEqual(t, peak, tc.peakFrom, "%q peaks in %d, want %d–%d", tc.term, peak, tc.peakFrom, tc.peakTo)
+		assert.LessOrEqual(t, peak, tc.peakTo, "%q peaks in %d, want %d–%d", tc.term, peak, tc.peakFrom, tc.peakTo)
 		for j, y := range c.Years {
-			if y < tc.notBefore && c.Terms[i].Counts[j] > 0 {
-				t.Errorf("%q printed %d times in %d, before %d", tc.term, c.Terms[i].Counts[j], y, tc.notBefore)
+			if y < tc.notBefore && !assert.Zero(t, c.Terms[i].Counts[j], "%q printed in %d, before %d", tc.term, y, tc.notBefore) {
 				break
 			}
 		}
@@ -464,7 +462,8 @@ func TestTopTermsVaried(t *testing.T) {
 		}
 		decades[best] = true
 	}
-	assert.False(t, len(decades) < 14 || len(shapes) < 7, "top 384 peak in %d decades with %d shapes; want ≥ 14 of 16 decades and ≥ 7 of 8 shapes", len(decades), len(shapes))
+	assert.GreaterOrEqual(t, len(decades), 14, "decades the top 384 peak in, of 16")
+	assert.GreaterOrEqual(t, len(shapes), 7, "shapes among the top 384, of 8")
 }
 
 func parse(t testing.TB, b []byte) [][]string {
@@ -479,22 +478,19 @@ func TestCSV(t *testing.T) {
 	c := mustDemo(t)
 	counts, totals := render(t, c)
 	for name, b := range map[string][]byte{"counts": counts, "totals": totals} {
-		assert.False(t, bytes.Contains(b, []byte("\r")) || !utf8.Valid(b) || !bytes.HasSuffix(b, []byte("\n")), "%s: want UTF-8 with LF line ends", name)
+		assert.False(t, bytes.Contains(b, []byte("\r")), "%s: want LF line ends, found CR", name)
+		assert.True(t, utf8.Valid(b), "%s: want UTF-8", name)
+		assert.True(t, bytes.HasSuffix(b, []byte("\n")), "%s: want a line end at the end", name)
 	}
 	tr := parse(t, totals)
-	if !slices.Equal(tr[0], []string{"year", "total"}) || len(tr)-1 != len(c.Years) {
-		t.Fatalf("totals: header %v, %d rows", tr[0], len(tr)-1)
-	}
+	require.Equal(t, []string{"year", "total"}, tr[0], "totals header")
+	require.Len(t, tr, len(c.Years)+1, "totals rows: a header and one a year")
 	for j, r := range tr[1:] {
-		if r[0] != strconv.Itoa(c.Years[j]) || r[1] != strconv.Itoa(c.Totals[j]) {
-			t.Fatalf("totals row %d = %v, want %d,%d", j+1, r, c.Years[j], c.Totals[j])
-		}
+		require.Equal(t, []string{strconv.Itoa(c.Years[j]), strconv.Itoa(c.Totals[j])}, r, "totals row %d", j+1)
 	}
 
 	cr := parse(t, counts)
-	if !slices.Equal(cr[0], []string{"term", "year", "count"}) {
-		t.Fatalf("counts header %v", cr[0])
-	}
+	require.Equal(t, []string{"term", "year", "count"}, cr[0], "counts header")
 	// Rebuild the corpus from the rows: sorted by term then year, no zeros,
 	// and every nonzero count present.
 	got := map[string][]int{}
@@ -502,21 +498,24 @@ func TestCSV(t *testing.T) {
 	for _, r := range cr[1:] {
 		year, err1 := strconv.Atoi(r[1])
 		n, err2 := strconv.Atoi(r[2])
-		require.False(t, err1 != nil || err2 != nil || n <= 0, "bad row %v", r)
-		require.False(t, r[0] < prevTerm || r[0] == prevTerm && year <= prevYear, "row %v out of order after %s,%d", r, prevTerm, prevYear)
+		require.NoError(t, err1, "bad row %v", r)
+		require.NoError(t, err2, "bad row %v", r)
+		require.Positive(t, n, "bad row %v: counts of zero are left out", r)
+		require.True(t, r[0] > prevTerm || r[0] == prevTerm && year > prevYear, "row %v out of order after %s,%d", r, prevTerm, prevYear)
 		prevTerm, prevYear = r[0], year
 		j := slices.Index(c.Years, year)
-		require.False(t, j < 0, "row %v: year not in totals", r)
+		require.GreaterOrEqual(t, j, 0, "row %v: year not in totals", r)
 		if got[r[0]] == nil {
 			got[r[0]] = make([]int, len(c.Years))
 		}
 		got[r[0]][j] = n
 	}
 	for _, term := range c.Terms {
-		want := term.Counts
-		if g := got[term.Name]; g == nil && slices.ContainsFunc(want, func(n int) bool { return n > 0 }) || g != nil && !slices.Equal(g, want) {
-			t.Errorf("%q: counts in CSV differ from the corpus", term.Name)
+		g := got[term.Name]
+		if g == nil { // a term never printed has no rows
+			g = make([]int, len(c.Years))
 		}
+		assert.Equal(t, term.Counts, g, "%q: counts in CSV differ from the corpus", term.Name)
 	}
 }
 
@@ -539,9 +538,7 @@ func TestConfigErrors(t *testing.T) {
 			cfg.Missing = slices.Clone(base.Missing)
 			tc.edit(&cfg)
 			_, err := Generate(cfg)
-			if err == nil || !strings.Contains(err.Error(), tc.want) {
-				t.Errorf("Generate(%+v) error = %v, want one mentioning %q", cfg, err, tc.want)
-			}
+			assert.ErrorContains(t, err, tc.want, "Generate(%+v)", cfg)
 		})
 	}
 }
@@ -556,10 +553,9 @@ func TestOtherSizes(t *testing.T) {
 	} {
 		c, err := Generate(cfg)
 		require.NoError(t, err, "%+v", cfg)
-		assert.False(t, len(c.Terms) != cfg.Terms || len(c.Years) != cfg.To-cfg.From+1-countIn(cfg.Missing, cfg.From, cfg.To), "%+v: %d terms over %d years", cfg, len(c.Terms), len(c.Years))
-		if !slices.IsSortedFunc(c.Terms, func(a, b Term) int { return cmp.Compare(a.Name, b.Name) }) {
-			t.Errorf("%+v: terms not sorted", cfg)
-		}
+		assert.Len(t, c.Terms, cfg.Terms, "%+v: terms", cfg)
+		assert.Len(t, c.Years, cfg.To-cfg.From+1-countIn(cfg.Missing, cfg.From, cfg.To), "%+v: years", cfg)
+		assert.True(t, slices.IsSortedFunc(c.Terms, func(a, b Term) int { return cmp.Compare(a.Name, b.Name) }), "%+v: terms not sorted", cfg)
 	}
 }
 
@@ -582,11 +578,11 @@ func TestWriteDir(t *testing.T) {
 	counts, totals := render(t, c)
 	for name, want := range map[string][]byte{CountsFile: counts, TotalsFile: totals} {
 		got, err := os.ReadFile(filepath.Join(dir, "sub", name))
-		assert.False(t, err != nil || !bytes.Equal(got, want), "%s: file differs from the Write method's output (err %v)", name, err)
+		if assert.NoError(t, err, name) {
+			assert.True(t, bytes.Equal(got, want), "%s: file differs from the Write method's output", name)
+		}
 	}
-	if err := WriteDir(dir+"/sub", Config{}); err == nil {
-		t.Error("WriteDir with zero Config: no error")
-	}
+	assert.Error(t, WriteDir(dir+"/sub", Config{}), "WriteDir with zero Config")
 }
 
 func BenchmarkGenerate(b *testing.B) {
@@ -595,9 +591,8 @@ func BenchmarkGenerate(b *testing.B) {
 			cfg := DefaultConfig()
 			cfg.Terms = n
 			for b.Loop() {
-				if _, err := Generate(cfg); err != nil {
-					b.Fatal(err)
-				}
+				_, err := Generate(cfg)
+				require.NoError(b, err)
 			}
 		})
 	}
