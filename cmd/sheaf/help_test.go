@@ -33,3 +33,27 @@ func TestHelpSame(t *testing.T) {
 		assert.NotRegexp(t, regexp.MustCompile(`(?m)^\s+-[a-z]`), o1.String(), "%s: no single-dash flags", c.name)
 	}
 }
+
+// TestHelpNoTrailingSpace: no line of `sheaf help` or of a command's help
+// ends in a space or tab (the usage line of a command with no arguments,
+// `sheaf schema`, once did).
+func TestHelpNoTrailingSpace(t *testing.T) {
+	texts := map[string]string{}
+	var o, e bytes.Buffer
+	require.Equal(t, exitOK, run([]string{"help"}, &o, &e), "sheaf help")
+	texts["sheaf help"] = o.String()
+	for _, c := range commands() {
+		if c.run == nil { // help itself: its text is sheaf help's
+			continue
+		}
+		o.Reset()
+		require.Equal(t, exitOK, run([]string{"help", c.name}, &o, &e), "sheaf help %s", c.name)
+		texts["sheaf help "+c.name] = o.String()
+	}
+	for what, text := range texts {
+		require.NotEmpty(t, text, what)
+		for i, line := range strings.Split(text, "\n") {
+			assert.Equal(t, strings.TrimRight(line, " \t"), line, "%s, line %d ends in a space", what, i+1)
+		}
+	}
+}

@@ -122,9 +122,15 @@ func usage(w io.Writer) {
 	fmt.Fprintln(w, "sheaf turns a page spec and yearly counts into pages of small-multiple line charts.")
 	fmt.Fprintln(w, "\nUsage:")
 	for _, c := range commands() {
-		fmt.Fprintf(w, "  sheaf %s %s\n      %s\n", c.name, c.args, c.summary)
+		fmt.Fprintf(w, "  %s\n      %s\n", synopsis(c.name, c.args), c.summary)
 	}
 	fmt.Fprintln(w, "\nRun 'sheaf COMMAND -h' for a command's flags. Exit status: 0 ok, 1 findings or failed build, 2 bad input or usage.")
+}
+
+// synopsis is a command's usage line, "sheaf NAME ARGS", with no trailing
+// space for a command that takes no arguments.
+func synopsis(name, args string) string {
+	return strings.TrimSpace("sheaf " + name + " " + args)
 }
 
 // parseFlags parses flags that may stand before or after the positional
@@ -150,7 +156,7 @@ func newFlags(name, argsHelp, summary string, w io.Writer) *flag.FlagSet {
 	fs := flag.NewFlagSet(name, flag.ContinueOnError)
 	fs.SetOutput(w)
 	fs.Usage = func() {
-		fmt.Fprintf(w, "Usage: sheaf %s %s\n\n%s\n", name, argsHelp, summary)
+		fmt.Fprintf(w, "Usage: %s\n\n%s\n", synopsis(name, argsHelp), summary)
 		printFlags(w, fs)
 	}
 	return fs
