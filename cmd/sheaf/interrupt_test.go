@@ -55,7 +55,7 @@ func TestInterrupt(t *testing.T) {
 	if err != nil {
 		cmd.Process.Kill()
 		cmd.Wait()
-		t.Fatalf("the build never reached its second page (%v); stderr:\n%s", err, stderr.String())
+		require.NoError(t, err, "the build never reached its second page; stderr:\n%s", stderr.String())
 	}
 	require.Equal(t, "writing\n", line)
 	stages, _ := filepath.Glob(filepath.Join(filepath.Dir(out), ".out*"))

@@ -5,6 +5,7 @@ import (
 	"strings"
 	"testing"
 
+	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
 
 	"sheaf/render/tooltest"
@@ -49,9 +50,7 @@ func TestLayers(t *testing.T) {
 			if !strings.HasPrefix(imp, "sheaf/") || from < 0 {
 				continue
 			}
-			if to := layer(imp); to > from {
-				t.Errorf("%s imports %s, a higher layer", f[0], imp)
-			}
+			assert.LessOrEqual(t, layer(imp), from, "%s imports %s, a higher layer", f[0], imp)
 		}
 	}
 }

@@ -87,7 +87,7 @@ func TestCropMarksAsReported(t *testing.T) {
 				case v[1] == v[3] && (math.Abs(v[1]-trim[1]) < 0.001 || math.Abs(v[1]-trim[3]) < 0.001):
 					near = math.Min(dist1(v[0], trim[0], trim[2]), dist1(v[2], trim[0], trim[2]))
 				default:
-					t.Errorf("mark %v is not on a trim line %v", v, trim)
+					assert.Fail(t, "mark not on a trim line", "mark %v, trim %v", v, trim)
 					continue
 				}
 				assert.InDelta(t, lay.MarkOffset, near, 0.002, "mark %v starts off the reported offset", v)

@@ -153,18 +153,12 @@ var pairsCatalog = sync.OnceValues(func() (string, error) {
 // strongest hand-overs (top 8 of each).
 func BenchmarkPairsCatalog(b *testing.B) {
 	spec, err := pairsCatalog()
-	if err != nil {
-		b.Fatal(err)
-	}
+	require.NoError(b, err)
 	j, err := feature.Load(spec)
-	if err != nil {
-		b.Fatal(err)
-	}
+	require.NoError(b, err)
 	for b.Loop() {
 		rep := &pairsReport{data: j.Data, insertFor: &j.Spec.Outputs[0], size: specs.Size{W: 255, H: 170}}
 		findPairs(rep, 8, 2)
-		if len(rep.rows) != 16 {
-			b.Fatalf("%d rows", len(rep.rows))
-		}
+		require.Len(b, rep.rows, 16, "rows: %d alike, %d hand-overs", len(rep.Alike), len(rep.HandOvers))
 	}
 }

@@ -18,6 +18,7 @@ import (
 
 	"github.com/pdfcpu/pdfcpu/pkg/api"
 	"github.com/pdfcpu/pdfcpu/pkg/pdfcpu/model"
+	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
 
 	"sheaf/layout"
@@ -75,15 +76,10 @@ func TestDemoPDFBoxes(t *testing.T) {
 	defer f.Close()
 	ctx, err := api.ReadContext(f, conf)
 	require.NoError(t, err)
-	if ctx.Conf.ValidationMode != model.ValidationStrict {
-		t.Fatal("not reading in strict mode")
-	}
-	if err := api.ValidateContext(ctx); err != nil {
-		t.Fatalf("pdfcpu strict validation: %v", err)
-	}
-	if ctx.PageCount != len(p.Plan.Pages) || ctx.PageCount != 8 {
-		t.Fatalf("PDF has %d pages, the plan %d, the demo asks for 8", ctx.PageCount, len(p.Plan.Pages))
-	}
+	require.Equal(t, model.ValidationStrict, ctx.Conf.ValidationMode, "not reading in strict mode")
+	require.NoError(t, api.ValidateContext(ctx), "pdfcpu strict validation")
+	require.Equal(t, 8, ctx.PageCount, "PDF pages: the demo asks for 8")
+	require.Len(t, p.Plan.Pages, ctx.PageCount, "the plan's pages vs the PDF's")
 	pbs, err := ctx.PageBoundaries(nil)
 	require.NoError(t, err)
 	for i, pb := range pbs {
@@ -93,14 +89,12 @@ func TestDemoPDFBoxes(t *testing.T) {
 			box  *model.Box
 			want layout.Rect
 		}{{"MediaBox", pb.Media, pg.Media}, {"BleedBox", pb.Bleed, pg.Bleed}, {"TrimBox", pb.Trim, pg.Trim}} {
-			if c.box == nil {
-				t.Fatalf("page %d has no %s", i+1, c.name)
-			}
+			require.NotNil(t, c.box, "page %d has no %s", i+1, c.name)
 			r := c.box.Rect
-			if math.Abs(r.LL.X-c.want.X0) > 0.01 || math.Abs(r.LL.Y-c.want.Y0) > 0.01 ||
-				math.Abs(r.UR.X-c.want.X1) > 0.01 || math.Abs(r.UR.Y-c.want.Y1) > 0.01 {
-				t.Errorf("page %d %s = %v, solver says %v (±0.01 pt)", i+1, c.name, r, c.want)
-			}
+			assert.InDelta(t, c.want.X0, r.LL.X, 0.01, "page %d %s = %v, solver says %v (pt)", i+1, c.name, r, c.want)
+			assert.InDelta(t, c.want.Y0, r.LL.Y, 0.01, "page %d %s = %v, solver says %v (pt)", i+1, c.name, r, c.want)
+			assert.InDelta(t, c.want.X1, r.UR.X, 0.01, "page %d %s = %v, solver says %v (pt)", i+1, c.name, r, c.want)
+			assert.InDelta(t, c.want.Y1, r.UR.Y, 0.01, "page %d %s = %v, solver says %v (pt)", i+1, c.name, r, c.want)
 		}
 	}
 }
@@ -190,9 +184,7 @@ func TestCurvesPassThroughData(t *testing.T) {
 	content, err := ctx.PageContent(d, 1)
 	require.NoError(t, err)
 	pts, lines := pathPoints(content)
-	if len(pts) < 1000 {
-		t.Fatalf("only %d path points on page 1", len(pts))
-	}
+	require.GreaterOrEqual(t, len(pts), 1000, "path points on page 1")
 	// Index the points on a 0.01 pt grid for lookup.
 	type cell struct{ x, y int64 }
 	grid := map[cell][]curve.Point{}
@@ -244,18 +236,13 @@ func TestCurvesPassThroughData(t *testing.T) {
 				// collinear lines, so a knot on a flat run lies on a line.
 				dist = onLine(want, lines)
 			}
-			if dist > 1e-3 {
-				t.Errorf("%q %d: no curve point within 1e-3 pt of %.3f,%.3f (nearest %.4f pt)", sr.Term, int(data.Years[i]), want.X, want.Y, dist)
-				if checked > 20 {
-					t.FailNow()
-				}
+			if !assert.LessOrEqual(t, dist, 1e-3, "%q %d: distance in pt from %.3f,%.3f to the nearest curve point", sr.Term, int(data.Years[i]), want.X, want.Y) && checked > 20 {
+				require.FailNow(t, "yearly points off the curve: stopping")
 			}
 			checked++
 		}
 	}
-	if checked < 48*100 {
-		t.Errorf("checked only %d yearly points", checked)
-	}
+	assert.GreaterOrEqual(t, checked, 48*100, "yearly points checked")
 }
 
 // TestProofMatchesPoppler compares our proof of page 1 with poppler's
@@ -280,17 +267,15 @@ func TestProofMatchesPoppler(t *testing.T) {
 	cmd := exec.Command(pdftoppm, "-r", strconv.FormatFloat(dpi, 'f', -1, 64), "-f", "1", "-l", "1", "-singlefile",
 		"-x", strconv.Itoa(x), "-y", strconv.Itoa(y), "-W", strconv.Itoa(w), "-H", strconv.Itoa(h),
 		"-png", filepath.Join(dir, "print", "print.pdf"), prefix)
-	if out, err := cmd.CombinedOutput(); err != nil {
-		t.Fatalf("pdftoppm: %v\n%s", err, out)
-	}
+	out, err := cmd.CombinedOutput()
+	require.NoError(t, err, "pdftoppm: %s", out)
 	theirs := tooltest.ReadPNG(t, prefix+".png")
 	ours := tooltest.ReadPNG(t, filepath.Join(dir, "print", "proofs", "page-001.png"))
 	require.Equal(t, ours.Bounds().Size(), theirs.Bounds().Size(), "poppler %v, proof %v", theirs.Bounds().Size(), ours.Bounds().Size())
 	mean, strong := tooltest.CompareImages(ours, theirs, 64)
 	t.Logf("proof vs pdftoppm: mean |Δ| %.3f/255, %.3f%% of pixels differ by more than 64", mean, strong*100)
-	if lm, ls := proofNoiseMultiple*gsPopplerMean, proofNoiseMultiple*gsPopplerStrong; mean > lm || strong > ls {
-		t.Errorf("proof differs from poppler's rendering: mean |Δ| %.2f/255 (limit %.2f), %.2f%% strongly different pixels (limit %.2f%%)", mean, lm, strong*100, ls*100)
-	}
+	assert.LessOrEqual(t, mean, proofNoiseMultiple*gsPopplerMean, "proof differs from poppler's rendering: mean |Δ| out of 255")
+	assert.LessOrEqual(t, strong, proofNoiseMultiple*gsPopplerStrong, "proof differs from poppler's rendering: share of strongly different pixels")
 	// Panel by panel, so one curve filled as a blob cannot hide in the
 	// page's average: the plot areas hold only the curve and a hairline.
 	worst, where := 0.0, ""
@@ -302,7 +287,5 @@ func TestProofMatchesPoppler(t *testing.T) {
 		}
 	}
 	t.Logf("worst panel %q: %.2f%% strongly different pixels", where, worst*100)
-	if lp := proofNoiseMultiple * gsPopplerPanel; worst > lp {
-		t.Errorf("panel %q differs from poppler's rendering in %.1f%% of its plot's pixels (limit %.2f%%): a curve drawn wrongly?", where, worst*100, lp*100)
-	}
+	assert.LessOrEqual(t, worst, proofNoiseMultiple*gsPopplerPanel, "panel %q differs from poppler's rendering: share of its plot's pixels strongly different; a curve drawn wrongly?", where)
 }

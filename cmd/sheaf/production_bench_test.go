@@ -41,9 +41,7 @@ func BenchmarkRebuild(b *testing.B) {
 	build := func(b *testing.B, out string, flags ...string) {
 		var o, e bytes.Buffer
 		args := append([]string{"build", spec, "--out", out, "--only", "print", "--quiet"}, flags...)
-		if code := run(args, &o, &e); code != exitOK {
-			b.Fatalf("exit %d: %s", code, e.String())
-		}
+		require.Equal(b, exitOK, run(args, &o, &e), "exit code; stderr: %s", &e)
 	}
 	for _, proofs := range []struct {
 		name  string
@@ -58,9 +56,8 @@ func BenchmarkRebuild(b *testing.B) {
 		b.Run("one-term/"+proofs.name, func(b *testing.B) {
 			build(b, out, proofs.flags...)
 			m, err := production.ReadManifest(out)
-			if err != nil || m == nil {
-				b.Fatal(err)
-			}
+			require.NoError(b, err)
+			require.NotNil(b, m, "manifest")
 			term := m.Outputs[0].Pages[len(m.Outputs[0].Pages)/2].Terms[0]
 			for b.Loop() {
 				b.StopTimer()
@@ -91,9 +88,7 @@ func BenchmarkDemoRebuild(b *testing.B) {
 	out := filepath.Join(dir, "out")
 	build := func(b *testing.B) {
 		var o, e bytes.Buffer
-		if code := run([]string{"build", spec, "--out", out, "--quiet"}, &o, &e); code != exitOK {
-			b.Fatalf("exit %d: %s", code, e.String())
-		}
+		require.Equal(b, exitOK, run([]string{"build", spec, "--out", out, "--quiet"}, &o, &e), "exit code; stderr: %s", &e)
 	}
 	build(b)
 	b.Run("unchanged", func(b *testing.B) {
@@ -117,9 +112,7 @@ func BenchmarkDemoBuild(b *testing.B) {
 	for b.Loop() {
 		dir := b.TempDir() // a fresh folder: a full build every time
 		var out, errb bytes.Buffer
-		if code := run([]string{"build", demoSpec, "--only", "print", "--out", dir, "--quiet"}, &out, &errb); code != 0 {
-			b.Fatalf("exit %d: %s", code, errb.String())
-		}
+		require.Equal(b, exitOK, run([]string{"build", demoSpec, "--only", "print", "--out", dir, "--quiet"}, &out, &errb), "exit code; stderr: %s", &errb)
 	}
 }
 
@@ -153,13 +146,9 @@ var catalog = sync.OnceValues(func() (string, error) {
 //	go test ./cmd/sheaf -run '^$' -bench Terms -benchtime 5x
 func BenchmarkTerms(b *testing.B) {
 	spec, err := catalog()
-	if err != nil {
-		b.Fatal(err)
-	}
+	require.NoError(b, err)
 	for b.Loop() {
 		var o, e bytes.Buffer
-		if code := run([]string{"terms", spec, "--json"}, &o, &e); code != exitOK {
-			b.Fatalf("exit %d: %s", code, e.String())
-		}
+		require.Equal(b, exitOK, run([]string{"terms", spec, "--json"}, &o, &e), "exit code; stderr: %s", &e)
 	}
 }

@@ -126,7 +126,7 @@ func nudgeCount(t testing.TB, spec, term string) int {
 			return atoi(b[r[2]:r[3]])
 		}
 	}
-	t.Fatalf("no row of %s below half its peak in %s", term, path)
+	require.Failf(t, "no row to bump", "no row of %s below half its peak in %s", term, path)
 	return 0
 }
 

@@ -28,7 +28,7 @@ func sheaf(t *testing.T, args ...string) (code int, stdout, stderr string) {
 	select {
 	case code = <-done:
 	case <-time.After(60 * time.Second): // a hang check, not a speed one
-		t.Fatalf("sheaf %v still running after 60 s", args)
+		require.Failf(t, "hang", "sheaf %v still running after 60 s", args)
 	}
 	return code, o.String(), e.String()
 }

@@ -72,7 +72,7 @@ func outsideTerm(t *testing.T, spec string, selected []production.TermHash) stri
 			return term
 		}
 	}
-	t.Fatal("no unselected term with a hundred rows")
+	require.Fail(t, "no unselected term with a hundred rows")
 	return ""
 }
 
