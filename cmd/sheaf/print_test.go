@@ -91,10 +91,10 @@ func TestDemoPDFBoxes(t *testing.T) {
 		}{{"MediaBox", pb.Media, pg.Media}, {"BleedBox", pb.Bleed, pg.Bleed}, {"TrimBox", pb.Trim, pg.Trim}} {
 			require.NotNil(t, c.box, "page %d has no %s", i+1, c.name)
 			r := c.box.Rect
-			assert.InDelta(t, c.want.X0, r.LL.X, 0.01, "page %d %s = %v, solver says %v (pt)", i+1, c.name, r, c.want)
-			assert.InDelta(t, c.want.Y0, r.LL.Y, 0.01, "page %d %s = %v, solver says %v (pt)", i+1, c.name, r, c.want)
-			assert.InDelta(t, c.want.X1, r.UR.X, 0.01, "page %d %s = %v, solver says %v (pt)", i+1, c.name, r, c.want)
-			assert.InDelta(t, c.want.Y1, r.UR.Y, 0.01, "page %d %s = %v, solver says %v (pt)", i+1, c.name, r, c.want)
+			assert.InDelta(t, c.want.X0, r.LL.X, 0.01, "page %d %s = %v, solver says %v: lower-left x (pt)", i+1, c.name, r, c.want)
+			assert.InDelta(t, c.want.Y0, r.LL.Y, 0.01, "page %d %s = %v, solver says %v: lower-left y (pt)", i+1, c.name, r, c.want)
+			assert.InDelta(t, c.want.X1, r.UR.X, 0.01, "page %d %s = %v, solver says %v: upper-right x (pt)", i+1, c.name, r, c.want)
+			assert.InDelta(t, c.want.Y1, r.UR.Y, 0.01, "page %d %s = %v, solver says %v: upper-right y (pt)", i+1, c.name, r, c.want)
 		}
 	}
 }
