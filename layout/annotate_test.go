@@ -65,7 +65,8 @@ func TestGapNote(t *testing.T) {
 			for _, l := range pg.Text {
 				if strings.Contains(l.Text, "1917–1918 and 1943") {
 					with = append(with, pg.Number)
-					assert.True(t, l.Box.Y0 >= pg.Footer.Y0-1e-9 && l.Box.Y1 <= pg.Footer.Y1+1e-9, "the note is in the footer")
+					assert.GreaterOrEqual(t, l.Box.Y0, pg.Footer.Y0-1e-9, "the note's bottom is in the footer %v", pg.Footer)
+					assert.LessOrEqual(t, l.Box.Y1, pg.Footer.Y1+1e-9, "the note's top is in the footer %v", pg.Footer)
 				}
 			}
 		}

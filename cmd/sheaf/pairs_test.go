@@ -48,7 +48,8 @@ func TestPairsDemo(t *testing.T) {
 		assert.GreaterOrEqual(t, rep.HandOvers[i-1].Strength, rep.HandOvers[i].Strength, "strongest first")
 	}
 	for _, h := range rep.HandOvers {
-		assert.True(t, h.Crossing >= 1868 && h.Crossing <= 2025, "crossing year inside the span")
+		assert.GreaterOrEqual(t, h.Crossing, 1868, "crossing year inside the span")
+		assert.LessOrEqual(t, h.Crossing, 2025, "crossing year inside the span")
 	}
 
 	// Paste every row under inserts: in a copy of the demo spec.

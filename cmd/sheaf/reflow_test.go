@@ -235,7 +235,8 @@ func TestReflowTermAddedRemoved(t *testing.T) {
 			assert.Equal(t, production.Slot{Output: "print", Page: p, Slot: s}, *m.From)
 		}
 	}
-	assert.True(t, came && went, "moves: %+v", r.Moves)
+	assert.True(t, came, "a move of the added term; moves: %+v", r.Moves)
+	assert.True(t, went, "a move of the removed term; moves: %+v", r.Moves)
 	assert.Contains(t, r.Summary, "1 term added; 1 term removed")
 	assert.Contains(t, r.Summary, "pages to resend: print")
 
