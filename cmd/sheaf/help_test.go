@@ -50,6 +50,10 @@ func TestHelpNoTrailingSpace(t *testing.T) {
 		require.Equal(t, exitOK, run([]string{"help", c.name}, &o, &e), "sheaf help %s", c.name)
 		texts["sheaf help "+c.name] = o.String()
 	}
+	// The help line lists `sheaf help [COMMAND]`, and help is a command.
+	o.Reset()
+	require.Equal(t, exitOK, run([]string{"help", "help"}, &o, &e), "sheaf help help")
+	assert.Equal(t, texts["sheaf help"], o.String(), "sheaf help help is sheaf help")
 	for what, text := range texts {
 		require.NotEmpty(t, text, what)
 		for i, line := range strings.Split(text, "\n") {

@@ -83,7 +83,7 @@ func run(args []string, stdout, stderr io.Writer) (code int) {
 	}
 	name := args[0]
 	if name == "help" || name == "-h" || name == "--help" || name == "-help" {
-		if len(args) > 1 && name == "help" {
+		if len(args) > 1 && name == "help" && args[1] != "help" {
 			for _, c := range commands() {
 				if c.name == args[1] && c.run != nil {
 					return c.run([]string{"-h"}, stdout, stdout)

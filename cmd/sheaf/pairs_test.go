@@ -160,6 +160,10 @@ func BenchmarkPairsCatalog(b *testing.B) {
 	for b.Loop() {
 		rep := &pairsReport{data: j.Data, insertFor: &j.Spec.Outputs[0], size: specs.Size{W: 255, H: 170}}
 		findPairs(rep, 8, 2)
-		require.Len(b, rep.rows, 16, "rows: %d alike, %d hand-overs", len(rep.Alike), len(rep.HandOvers))
+		// Top 8 of each: the catalog always has 8 alike pairs; hand-overs are
+		// only those past the search's threshold, so there may be fewer.
+		require.Len(b, rep.Alike, 8)
+		require.LessOrEqual(b, len(rep.HandOvers), 8)
+		require.Len(b, rep.rows, len(rep.Alike)+len(rep.HandOvers), "one table row per pair")
 	}
 }
