@@ -27,9 +27,7 @@ func TestOKLabMatrices(t *testing.T) {
 			continue
 		}
 		i, j := int(num(t, r["i"])), int(num(t, r["j"]))
-		if want := num(t, r["value"]); m[i][j] != want {
-			t.Errorf("%s[%d][%d] = %v, Ottosson (2020) gives %v", r["name"], i, j, m[i][j], want)
-		}
+		assert.Equal(t, num(t, r["value"]), m[i][j], "%s[%d][%d] against Ottosson (2020)", r["name"], i, j)
 		n++
 	}
 	require.False(t, n != 36, "checked %d entries, want 36", n)
@@ -53,9 +51,7 @@ func TestOKLabAgainstReference(t *testing.T) {
 		}
 		got := c.OKLab()
 		want := OKLab{num(t, r["L"]), num(t, r["a"]), num(t, r["b"])}
-		if math.Abs(got.L-want.L) > tol || math.Abs(got.A-want.A) > tol || math.Abs(got.B-want.B) > tol {
-			t.Errorf("%s %s (%s): got %+v want %+v ±%g", r["kind"], r["name"], r["source_key"], got, want, tol)
-		}
+		assert.InDeltaSlice(t, []float64{want.L, want.A, want.B}, []float64{got.L, got.A, got.B}, tol, "%s %s (%s): OKLab", r["kind"], r["name"], r["source_key"])
 		n++
 	}
 	require.False(t, n != 12, "checked %d colours, want 12", n)
