@@ -57,9 +57,7 @@ func TestSlopesWorked(t *testing.T) {
 			require.NoError(t, err)
 			require.False(t, len(got) != len(tt.want), "len = %d, want %d", len(got), len(tt.want))
 			for i := range got {
-				if math.Abs(got[i]-tt.want[i]) > tt.tol {
-					t.Errorf("d[%d] = %.9g, want %.9g ± %g (%s)", i, got[i], tt.want[i], tt.tol, tt.source)
-				}
+				assert.InDelta(t, tt.want[i], got[i], tt.tol, "d[%d] (%s)", i, tt.source)
 			}
 		})
 	}
@@ -137,9 +135,7 @@ func TestAgainstGonum(t *testing.T) {
 		require.NoError(t, err)
 		for i, x := range xs {
 			want := ref.PredictDerivative(x)
-			if math.Abs(d[i]-want) > tol*max(1, math.Abs(want)) {
-				t.Fatalf("trial %d: d[%d] = %.17g, gonum %.17g (%s)", trial, i, d[i], want, srcGonum)
-			}
+			require.InDelta(t, want, d[i], tol*max(1, math.Abs(want)), "trial %d: d[%d] against gonum (%s)", trial, i, srcGonum)
 		}
 		b.Reset()
 		runs, err := b.Build(xs, ys, m, nil)
@@ -185,9 +181,7 @@ func TestRegionMHelper(t *testing.T) {
 		{-0.1, 1, false, srcFC + " (a slope against the data's direction)"},
 	}
 	for _, tt := range tests {
-		if got := inRegionM(tt.a, tt.b); got != tt.want {
-			t.Errorf("inRegionM(%v, %v) = %v, want %v (%s)", tt.a, tt.b, got, tt.want, tt.source)
-		}
+		assert.Equal(t, tt.want, inRegionM(tt.a, tt.b), "inRegionM(%v, %v) (%s)", tt.a, tt.b, tt.source)
 	}
 }
 
@@ -215,18 +209,14 @@ func TestMonotoneOnMonotoneData(t *testing.T) {
 		for k := 0; k+1 < n; k++ {
 			delta := (ys[k+1] - ys[k]) / (xs[k+1] - xs[k])
 			if delta == 0 {
-				if d[k] != 0 || d[k+1] != 0 {
-					t.Fatalf("trial %d: flat interval %d has slopes %v, %v; want 0, 0 (%s)", trial, k, d[k], d[k+1], srcFC)
-				}
+				require.Equal(t, [2]float64{0, 0}, [2]float64{d[k], d[k+1]}, "trial %d: slopes of flat interval %d (%s)", trial, k, srcFC)
 				continue
 			}
 			a, b := d[k]/delta, d[k+1]/delta
 			require.True(t, (a*a+b*b <= 9 || inRegionM(a, b)), "trial %d: interval %d: (α, β) = (%v, %v) outside M (%s)", trial, k, a, b, srcFC)
 			// Fritsch–Butland slopes lie in [0, 3] × [0, 3], which puts the
 			// Bézier control points between the end heights.
-			if a < 0 || b < 0 || a > 3+1e-12 || b > 3+1e-12 {
-				t.Fatalf("trial %d: interval %d: (α, β) = (%v, %v) outside [0,3]² (%s)", trial, k, a, b, srcFB)
-			}
+			require.True(t, a >= 0 && b >= 0 && a <= 3+1e-12 && b <= 3+1e-12, "trial %d: interval %d: (α, β) = (%v, %v) outside [0,3]² (%s)", trial, k, a, b, srcFB)
 		}
 		// Independently of the region test: sampled values must move
 		// one way only.
@@ -263,9 +253,7 @@ func TestStaysBetweenKnots(t *testing.T) {
 				slack := 4 * ulp(max(math.Abs(lo), math.Abs(hi))) // rounding in At
 				for j := 0; j <= 100; j++ {
 					y := bz.At(float64(j) / 100).Y
-					if y < lo-slack || y > hi+slack {
-						t.Fatalf("trial %d map %d segment %d: y(t=%v) = %v outside [%v, %v] (%s)", trial, mi, k, float64(j)/100, y, lo, hi, srcFC)
-					}
+					require.True(t, y >= lo-slack && y <= hi+slack, "trial %d map %d segment %d: y(t=%v) = %v outside [%v, %v] (%s)", trial, mi, k, float64(j)/100, y, lo, hi, srcFC)
 				}
 			}
 		}
@@ -293,13 +281,9 @@ func TestNaturalCubicOvershoots(t *testing.T) {
 			v := nc.Predict(x)
 			lowNC, highNC = min(lowNC, v), max(highNC, v)
 			got, _ := runs[0].YAt(x)
-			if got < lo || got > hi {
-				t.Errorf("ours: y(%v) = %v outside [%v, %v]", x, got, lo, hi)
-			}
+			assert.True(t, got >= lo && got <= hi, "ours: y(%v) = %v outside [%v, %v]", x, got, lo, hi)
 		}
 	}
-	if lowNC >= 0 && highNC <= 4 {
-		t.Errorf("natural cubic stayed in [0, 4] (min %v, max %v); the contrast no longer shows", lowNC, highNC)
-	}
+	assert.True(t, lowNC < 0 || highNC > 4, "natural cubic stayed in [0, 4] (min %v, max %v); the contrast no longer shows", lowNC, highNC)
 	t.Logf("natural cubic spans [%.4f, %.4f] on data in [0, 4]", lowNC, highNC)
 }
