@@ -166,12 +166,9 @@ func TestBadPage(t *testing.T) {
 	for _, tc := range tests {
 		t.Run(tc.name, func(t *testing.T) {
 			_, err := raster.Draw(tc.w, tc.h, tc.dpi, white, func(*canvas.Context) error { return nil })
-			if err == nil {
-				t.Errorf("Draw(%g, %g, %g dpi) gave no error", tc.w, tc.h, tc.dpi)
-			}
+			assert.Error(t, err, "Draw(%g, %g, %g dpi)", tc.w, tc.h, tc.dpi)
 		})
 	}
-	if _, err := raster.DrawRegion(100, 72, raster.Region{W: 0, H: 10}, white, func(*canvas.Context) error { return nil }); err == nil {
-		t.Error("DrawRegion of an empty region gave no error")
-	}
+	_, err := raster.DrawRegion(100, 72, raster.Region{W: 0, H: 10}, white, func(*canvas.Context) error { return nil })
+	assert.Error(t, err, "DrawRegion of an empty region")
 }
