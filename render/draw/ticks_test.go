@@ -68,6 +68,8 @@ func TestTickYearsWorked(t *testing.T) {
 			"6.45 pt a year: 5 years 32.3 pt ≥ room 19.7 pt; the first tick is the first multiple of 5 in the span"},
 		{specs.Span{From: 2000, To: 2010}, 300, 9, []int{2000, 2005, 2010},
 			"30 pt a year: 5 years 150 pt, room 29.6 pt; both ends are multiples"},
+		{specs.Span{From: 1900, To: 2000}, 600, 10, tickSeries(specs.Span{From: 1900, To: 2000}, 10),
+			"6 pt a year: 5 years are 30 pt, under the room of 32.9 pt by less than the em in it; 10 years 60 pt"},
 		{specs.Span{From: 1900, To: 2000}, 1, 6, nil,
 			"0.01 pt a year: even 1000 years are 10 pt, under the room of 19.7 pt: no ticks rather than colliding ones"},
 	}
@@ -145,6 +147,7 @@ func TestTickLabelsOnPaper(t *testing.T) {
 		{specs.Span{From: 1868, To: 1899}, 200, 6},
 		{specs.Span{From: 1900, To: 1960}, 137, 9},
 		{specs.Span{From: 1800, To: 2020}, 533, 12},
+		{specs.Span{From: 1900, To: 2000}, 600, 10}, // 5-year steps would leave 7 pt between labels
 	} {
 		ys := draw.TickYears(fs, tc.span, tc.width, tc.size)
 		require.GreaterOrEqual(t, len(ys), 2, "%v over %v pt: want a row of labels to check", tc.span, tc.width)
