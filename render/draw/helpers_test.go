@@ -22,7 +22,7 @@ import (
 
 func TestMain(m *testing.M) { tooltest.Main(m) }
 
-// ptPerMm is the outside definition the package's conversion is checked
+// mmPerPt is the outside definition the package's conversion is checked
 // against: 1 pt = 1/72 in (ISO 32000-1 §8.3.2.3, default user space
 // unit) and 1 in = 25.4 mm exactly (international inch, 1959).
 const mmPerPt = 25.4 / 72

@@ -15,6 +15,7 @@ import (
 // Reference lengths, each from the unit definitions alone (ISO 32000-1
 // §8.3.2.3: 1 pt = 1/72 in; 1 in = 25.4 mm exactly):
 // 72 pt = 25.4 mm, 36 pt = 12.7 mm, 9 pt = 3.175 mm, 1 pt = 0.352777… mm.
+// ISO 32000-1 section numbers in this file are from memory.
 
 // TestPenMillimetres reads what the Pen hands canvas, in canvas's unit
 // (mm), through a recording renderer: every coordinate, width and size is
@@ -71,8 +72,8 @@ func TestPenMillimetres(t *testing.T) {
 	}
 }
 
-// TestPenDashesAndFills: the style each drawing call sets, and that a
-// call leaves nothing of the last call's style behind.
+// TestPenStyles: the style each drawing call sets, and that a call
+// leaves nothing of the last call's style behind.
 func TestPenStyles(t *testing.T) {
 	r := &recorder{w: 100, h: 100}
 	p := draw.Pen{Ctx: canvas.NewContext(r)}
