@@ -16,7 +16,7 @@ import (
 // Res. Appl. 30(1):21–30, 2005, Table 1 (34 pairs, ΔE00 to 4 decimals).
 func TestDeltaE00Sharma2005(t *testing.T) {
 	rows := refRows(t, "ciede2000_sharma2005.csv", ",")
-	require.False(t, len(rows) != 34, "%d pairs, want 34", len(rows))
+	require.Len(t, rows, 34, "%d pairs, want 34", len(rows))
 	for _, r := range rows {
 		x := Lab{num(t, r["L1"]), num(t, r["a1"]), num(t, r["b1"])}
 		y := Lab{num(t, r["L2"]), num(t, r["a2"]), num(t, r["b2"])}

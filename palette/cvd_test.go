@@ -28,13 +28,13 @@ func machadoRef(t *testing.T) map[Deficiency][3][3]float64 {
 		}
 		out[d] = m
 	}
-	require.False(t, len(out) != 3, "found %d severity-1.0 matrices, want 3", len(out))
+	require.Len(t, out, 3, "found %d severity-1.0 matrices, want 3", len(out))
 	return out
 }
 
 func TestMachadoMatrices(t *testing.T) {
 	for d, want := range machadoRef(t) {
-		assert.False(t, machado[d] != want, "%v matrix = %v, Machado et al. (2009) give %v", d, machado[d], want)
+		assert.Equal(t, want, machado[d], "%v matrix = %v, Machado et al. (2009) give %v", d, machado[d], want)
 	}
 }
 

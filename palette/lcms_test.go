@@ -43,7 +43,7 @@ func TestLabD50AgainstLittleCMS(t *testing.T) {
 			got = append(got, l)
 		}
 	}
-	require.False(t, len(got) != len(colours), "transicc gave %d colours for %d:\n%s", len(got), len(colours), out)
+	require.Len(t, got, len(colours), "transicc gave %d colours for %d:\n%s", len(got), len(colours), out)
 	for i, c := range colours {
 		ours := c.LabD50()
 		assert.InDeltaSlice(t, []float64{got[i].L, got[i].A, got[i].B}, []float64{ours.L, ours.A, ours.B}, 0.03, "%s: ours against LittleCMS transicc (L*, a*, b* D50)", c.Hex())

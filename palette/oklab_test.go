@@ -30,7 +30,7 @@ func TestOKLabMatrices(t *testing.T) {
 		assert.Equal(t, num(t, r["value"]), m[i][j], "%s[%d][%d] against Ottosson (2020)", r["name"], i, j)
 		n++
 	}
-	require.False(t, n != 36, "checked %d entries, want 36", n)
+	require.Equal(t, 36, n, "checked %d entries, want 36", n)
 }
 
 func TestOKLabAgainstReference(t *testing.T) {
@@ -54,7 +54,7 @@ func TestOKLabAgainstReference(t *testing.T) {
 		assert.InDeltaSlice(t, []float64{want.L, want.A, want.B}, []float64{got.L, got.A, got.B}, tol, "%s %s (%s): OKLab", r["kind"], r["name"], r["source_key"])
 		n++
 	}
-	require.False(t, n != 12, "checked %d colours, want 12", n)
+	require.Equal(t, 12, n, "checked %d colours, want 12", n)
 }
 
 func TestOKLChPolar(t *testing.T) {

@@ -140,7 +140,7 @@ func TestStopsStayWithinTolerance(t *testing.T) {
 			assert.False(t, a.Year > tc.from && a.Year < tc.to && !hasStop(stops, a.Year), "%s: no stop at anchor year %v", tc.s.Name(), a.Year)
 		}
 		worst, at := stopsError(t, tc.s, stops, tc.from, tc.to)
-		assert.False(t, worst > tc.maxErr, "%s %v–%v maxErr %v: %d stops, worst ΔE00 %.3f at %.2f", tc.s.Name(), tc.from, tc.to, tc.maxErr, len(stops), worst, at)
+		assert.LessOrEqual(t, worst, tc.maxErr, "%s %v–%v maxErr %v: %d stops, worst ΔE00 %.3f at %.2f", tc.s.Name(), tc.from, tc.to, tc.maxErr, len(stops), worst, at)
 		t.Logf("%s %v–%v maxErr %v: %d stops, worst ΔE00 %.3f", tc.s.Name(), tc.from, tc.to, tc.maxErr, len(stops), worst)
 	}
 }
@@ -169,9 +169,9 @@ func TestStopsDiscrete(t *testing.T) {
 	end := s.Stops(1900, 1960, 0)
 	require.NotEmpty(t, end, "stops ending at a boundary")
 	assert.Equal(t, Stop{1960, eras[1].Color.RGB().Clip()}, end[len(end)-1], "stops ending at a boundary: %v", end)
-	require.False(t, len(stops) != len(want), "stops %v, want %v", stops, want)
+	require.Len(t, stops, len(want), "stops %v, want %v", stops, want)
 	for i := range want {
-		assert.False(t, stops[i] != want[i], "stop %d = %v, want %v", i, stops[i], want[i])
+		assert.Equal(t, want[i], stops[i], "stop %d = %v, want %v", i, stops[i], want[i])
 	}
 }
 

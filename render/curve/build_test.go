@@ -88,7 +88,7 @@ func TestGaps(t *testing.T) {
 			var got []shape
 			for _, r := range runs {
 				got = append(got, shape{r.First, r.Points()})
-				assert.False(t, r.IsDot() != (r.Points() == 1), "run at %d: IsDot %v with %d points", r.First, r.IsDot(), r.Points())
+				assert.Equal(t, r.Points() == 1, r.IsDot(), "run at %d: IsDot %v with %d points", r.First, r.IsDot(), r.Points())
 				assert.True(t, !r.IsDot() || same(r.Start, m.Apply(xs[r.First], tt.ys[r.First])), "dot at %v, want %v bit for bit", r.Start, m.Apply(xs[r.First], tt.ys[r.First]))
 			}
 			assert.Equal(t, tt.want, got, "runs (first, points) = %v, want %v (%s)", got, tt.want, tt.source)
@@ -326,7 +326,7 @@ func TestBuilderReuse(t *testing.T) {
 		dst, err = b.Build(xs, ys, m, dst[:0])
 		require.NoError(t, err)
 	})
-	assert.False(t, allocs != 0, "warm Builder: %v allocations per series, want 0", allocs)
+	assert.Zero(t, allocs, "warm Builder: %v allocations per series, want 0", allocs)
 }
 
 // BenchmarkBuild: one op is a page-sized job, 4,000 series of 175 yearly

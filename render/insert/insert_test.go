@@ -185,17 +185,17 @@ func testInsertAs(t testing.TB, kind specs.Kind, w, h specs.Length, compare spec
 func TestComparisonLabels(t *testing.T) {
 	g := testInsert(t, specs.Screen, specs.Length(600*0.75), specs.Length(360*0.75))
 	ls := g.Labels()
-	require.False(t, len(ls) != 4, "%d labels, want 4", len(ls))
+	require.Len(t, ls, 4, "%d labels, want 4", len(ls))
 	styles := map[string]bool{}
 	for i, a := range ls {
 		styles[a.Style.Name] = true
 		assert.False(t, a.Y < g.plot.Y0 || a.Y > g.plot.Y1, "label %q at %v, outside the plot %v–%v", a.Term, a.Y, g.plot.Y0, g.plot.Y1)
 		for _, b := range ls[i+1:] {
-			assert.False(t, math.Abs(a.Y-b.Y) < a.Height-1e-9, "labels %q and %q overlap: centres %v and %v, line height %v", a.Term, b.Term, a.Y, b.Y, a.Height)
+			assert.GreaterOrEqual(t, math.Abs(a.Y-b.Y), a.Height-1e-9, "labels %q and %q overlap: centres %v and %v, line height %v", a.Term, b.Term, a.Y, b.Y, a.Height)
 		}
 	}
-	assert.False(t, len(styles) != 4, "line styles %v; want four different", styles)
-	assert.False(t, g.YMax() != 4, "shared y-range top %v, want 4 (the largest value of any term, a round number)", g.YMax())
+	assert.Len(t, styles, 4, "line styles %v; want four different", styles)
+	assert.Equal(t, 4.0, g.YMax(), "shared y-range top %v, want 4 (the largest value of any term, a round number)", g.YMax())
 	title, desc := g.Describe()
 	assert.False(t, title != "telegraph, telephone, wireless and Maßstab" || !bytes.Contains([]byte(desc), []byte(`"wireless" (dotted line)`)), "Describe() = %q, %q", title, desc)
 }

@@ -46,7 +46,7 @@ func writeTemp(t *testing.T, name string, b []byte) string {
 func run(t *testing.T, name string, args ...string) string {
 	t.Helper()
 	out, err := exec.Command(name, args...).CombinedOutput()
-	require.False(t, err != nil, "%s %v: %v\n%s", name, args, err, out)
+	require.NoError(t, err, "%s %v: %v\n%s", name, args, err, out)
 	return string(out)
 }
 
@@ -86,7 +86,7 @@ func TestOutsideTools(t *testing.T) {
 		tooltest.Require(t, "pdffonts", "poppler-utils")
 		out := run(t, "pdffonts", path)
 		lines := strings.Split(strings.TrimSpace(out), "\n")
-		require.False(t, len(lines) < 4, "pdffonts lists too few fonts:\n%s", out)
+		require.GreaterOrEqual(t, len(lines), 4, "pdffonts lists too few fonts:\n%s", out)
 		tag := regexp.MustCompile(`^[A-Z]{6}\+`)
 		for _, l := range lines[2:] {
 			f := strings.Fields(l)

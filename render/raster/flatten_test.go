@@ -123,7 +123,7 @@ func TestStrokesMatchPoppler(t *testing.T) {
 		}})
 	}
 	theirs := poppler(t, writePDF(t, pages...), walkDPI)
-	require.False(t, len(theirs) != len(pages), "pdftoppm gave %d pages, want %d", len(theirs), len(pages))
+	require.Len(t, theirs, len(pages), "pdftoppm gave %d pages, want %d", len(theirs), len(pages))
 	for i, seed := range seeds {
 		ours, err := raster.Draw(walkW, walkH, walkDPI, white, pages[i].draw)
 		require.NoError(t, err)

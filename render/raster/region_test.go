@@ -124,7 +124,7 @@ func TestRegionMatchesPoppler(t *testing.T) {
 	for _, tc := range tests {
 		t.Run(tc.name, func(t *testing.T) {
 			pages := poppler(t, path, tc.dpi)
-			require.False(t, len(pages) != 2, "pdftoppm gave %d pages, want 2", len(pages))
+			require.Len(t, pages, 2, "pdftoppm gave %d pages, want 2", len(pages))
 			full := pages[0]
 			r := raster.RegionOf(mixedPage.h, tc.dpi, tc.x0, tc.y0, tc.x1, tc.y1)
 			pix := image.Rect(r.X, r.Y, r.X+r.W, r.Y+r.H)
@@ -137,7 +137,7 @@ func TestRegionMatchesPoppler(t *testing.T) {
 			assert.LessOrEqual(t, s, 0.001, "pdftoppm -x -y crop against its full page cut at %v: share of pixels off by > 8", pix)
 			ours, err := raster.DrawRegion(mixedPage.h, tc.dpi, r, white, mixedPage.draw)
 			require.NoError(t, err)
-			require.False(t, ours.Bounds().Size() != pix.Size(), "DrawRegion gave %v, want %v", ours.Bounds().Size(), pix.Size())
+			require.Equal(t, pix.Size(), ours.Bounds().Size(), "DrawRegion gave %v, want %v", ours.Bounds().Size(), pix.Size())
 			fills, err := raster.DrawRegion(fillsPage.h, tc.dpi, r, white, fillsPage.draw)
 			require.NoError(t, err)
 			tx, ty := centroid(tooltest.SubImage(pages[1], pix))

@@ -224,12 +224,12 @@ func TestPathDataRoundTrip(t *testing.T) {
 	data := regexp.MustCompile(`d="([^"]*)"`).FindStringSubmatch(buf.String())[1]
 	// The first M, then every segment's end point.
 	got := append([][2]float64{pathPoints(t, data)[0]}, segmentEnds(t, data)...)
-	require.False(t, len(got) != len(ends), "read back %d points, drew %d", len(got), len(ends))
+	require.Len(t, got, len(ends), "read back %d points, drew %d", len(got), len(ends))
 	worst := 0.0
 	for k := range ends {
 		worst = math.Max(worst, math.Hypot(got[k][0]-ends[k][0], got[k][1]-ends[k][1]))
 	}
-	assert.False(t, worst > 0.05*math.Sqrt2+1e-9, "an end point moved %.3f px; rounding to 0.1 px allows %.3f", worst, 0.05*math.Sqrt2)
+	assert.LessOrEqual(t, worst, 0.05*math.Sqrt2+1e-9, "an end point moved %.3f px; rounding to 0.1 px allows %.3f", worst, 0.05*math.Sqrt2)
 	assert.Positive(t, strings.Count(data, "s"), "a C¹ spline should use the s shorthand; path data: %.200s", data)
 }
 
@@ -300,7 +300,7 @@ func TestGradientsAndText(t *testing.T) {
 func TestEmbeddedSubset(t *testing.T) {
 	s := string(sample(t, Options{EmbedFonts: true}))
 	m := regexp.MustCompile(`font-weight:(\w+);font-style:normal;src:url\(data:font/ttf;base64,([A-Za-z0-9+/=]+)\)`).FindAllStringSubmatch(s, -1)
-	require.False(t, len(m) != 2, "want 2 @font-face rules (regular and bold), found %d", len(m))
+	require.Len(t, m, 2, "want 2 @font-face rules (regular and bold), found %d", len(m))
 	used := map[string]string{"bold": "Maßstab & <co>", "normal": "18681900"}
 	for _, mm := range m {
 		raw, err := base64.StdEncoding.DecodeString(mm[2])
@@ -319,7 +319,7 @@ func TestEmbeddedSubset(t *testing.T) {
 			orig = gobold.TTF
 		}
 		of, _ := font.ParseSFNT(orig, 0)
-		assert.False(t, of.Head.Modified != f.Head.Modified, "%s subset: modified %v, the font says %v", mm[1], f.Head.Modified, of.Head.Modified)
+		assert.Equal(t, of.Head.Modified, f.Head.Modified, "%s subset: modified %v, the font says %v", mm[1], f.Head.Modified, of.Head.Modified)
 		assert.LessOrEqual(t, int(f.NumGlyphs()), 20, "%s subset: glyphs; want only those drawn", mm[1])
 	}
 	fam := regexp.MustCompile(`font-family="(` + EmbeddedFamily + `-[0-9a-f]{8}), sans-serif"`).FindStringSubmatch(s)

@@ -123,7 +123,7 @@ func readBack(t *testing.T, cond *press.Condition) {
 	doc := documentFor(t, pages, cond)
 	ctx := readStrict(t, doc)
 
-	assert.False(t, ctx.PageCount != pages, "page count %d, want %d", ctx.PageCount, pages)
+	assert.Equal(t, pages, ctx.PageCount, "page count %d, want %d", ctx.PageCount, pages)
 	want := boxes()
 	pbs, err := ctx.PageBoundaries(nil)
 	require.NoError(t, err)
@@ -155,7 +155,7 @@ func readBack(t *testing.T, cond *press.Condition) {
 		// every font embedded (PDF/X-4, print-facts.md)
 		res := dict(t, ctx, d["Resources"])
 		fonts := dict(t, ctx, res["Font"])
-		assert.False(t, len(fonts) < 2, "page %d has %d fonts, want the two test fonts", i+1, len(fonts))
+		assert.GreaterOrEqual(t, len(fonts), 2, "page %d has %d fonts, want the two test fonts", i+1, len(fonts))
 		for name, f := range fonts {
 			fd := dict(t, ctx, f)
 			assert.Equal(t, "Type0", val(fd.NameEntry("Subtype")), "font %s subtype", name)
@@ -194,7 +194,7 @@ func readBack(t *testing.T, cond *press.Condition) {
 		_, ok := info.Find(k)
 		assert.True(t, ok, "Info has no %s", k)
 	}
-	assert.False(t, len(ctx.ID) != 2, "trailer /ID = %v, want two strings (required by PDF/X)", ctx.ID)
+	assert.Len(t, ctx.ID, 2, "trailer /ID = %v, want two strings (required by PDF/X)", ctx.ID)
 }
 
 // TestCachedPageValidates: a page that went through encoding/gob and
