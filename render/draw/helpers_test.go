@@ -1,7 +1,9 @@
 package draw_test
 
 import (
+	"bufio"
 	"bytes"
+	"fmt"
 	"image"
 	"image/color"
 	"os"
@@ -87,23 +89,36 @@ func inkBox(t *testing.T, pdfPath string, dpi float64) [4]float64 {
 	t.Helper()
 	pdftoppm := tooltest.Require(t, "pdftoppm", "poppler-utils")
 	base := filepath.Join(t.TempDir(), "ink")
+	// -gray without -png writes a binary PGM (Netpbm P5): a short text
+	// header and one byte a pixel, read here without a PNG decoder.
 	out, err := exec.Command(pdftoppm, "-r", strconv.FormatFloat(dpi, 'f', -1, 64), "-aa", "no", "-aaVector", "no",
-		"-gray", "-png", "-singlefile", pdfPath, base).CombinedOutput()
+		"-gray", "-singlefile", pdfPath, base).CombinedOutput()
 	require.NoError(t, err, "pdftoppm: %s", out)
-	img := tooltest.ReadPNG(t, base+".png")
-	b := img.Bounds()
-	x0, y0, x1, y1 := b.Max.X, b.Max.Y, b.Min.X-1, b.Min.Y-1
-	for y := b.Min.Y; y < b.Max.Y; y++ {
-		for x := b.Min.X; x < b.Max.X; x++ {
-			if g, _, _, _ := img.At(x, y).RGBA(); g < 0x8000 {
+	raw, err := os.ReadFile(base + ".pgm")
+	require.NoError(t, err)
+	src := bytes.NewReader(raw)
+	r := bufio.NewReader(src)
+	var magic string
+	var w, h, maxval int
+	_, err = fmt.Fscan(r, &magic, &w, &h, &maxval)
+	require.NoError(t, err, "PGM header")
+	require.Equal(t, "P5", magic, "PGM magic")
+	require.Equal(t, 255, maxval, "PGM maxval")
+	_, err = r.ReadByte() // the single white space after maxval
+	require.NoError(t, err)
+	pix := raw[len(raw)-src.Len()-r.Buffered():]
+	require.Len(t, pix, w*h, "PGM pixels")
+	x0, y0, x1, y1 := w, h, -1, -1
+	for y := range h {
+		for x, g := range pix[y*w : (y+1)*w] {
+			if g < 0x80 {
 				x0, y0, x1, y1 = min(x0, x), min(y0, y), max(x1, x), max(y1, y)
 			}
 		}
 	}
 	require.LessOrEqual(t, x0, x1, "nothing inked")
 	k := 72 / dpi
-	h := float64(b.Dy())
-	return [4]float64{float64(x0) * k, (h - float64(y1+1)) * k, float64(x1+1) * k, (h - float64(y0)) * k}
+	return [4]float64{float64(x0) * k, float64(h-y1-1) * k, float64(x1+1) * k, float64(h-y0) * k}
 }
 
 // word is one word pdftotext -bbox reports, in points from the page's
