@@ -174,7 +174,10 @@ func TestSizeGuidance(t *testing.T) {
 				got = append(got, f)
 			}
 		}
-		assert.False(t, len(got) != 1 || got[0].Severity != tc.sev || !strings.Contains(got[0].Message, "does not"), "%v pt: size findings %v, want one %v", tc.width, got, tc.sev)
+		if assert.Len(t, got, 1, "%v pt: size findings", tc.width) {
+			assert.Equal(t, tc.sev, got[0].Severity, "%v pt: size finding", tc.width)
+			assert.Contains(t, got[0].Message, "does not", "%v pt: size finding", tc.width)
+		}
 	}
 }
 
@@ -268,7 +271,9 @@ func TestSweepFindsColoursBetweenSamples(t *testing.T) {
 		}
 	}
 	require.NotNil(t, found, "no contrast finding; findings: %v", r.Findings)
-	assert.False(t, found.Severity != Fail || found.Year != 1901 || !strings.Contains(found.Message, "1.07:1"), "contrast finding %v, want a failure at 1901 naming 1.07:1", found)
+	assert.Equal(t, Fail, found.Severity, "contrast finding %v", found)
+	assert.EqualValues(t, 1901, found.Year, "contrast finding %v", found)
+	assert.Contains(t, found.Message, "1.07:1", "contrast finding")
 	for _, row := range r.Rows {
 		require.False(t, row.Year > 1899 && row.Year < 1903, "a table row at %v: the test must put the anchor between samples", row.Year)
 	}

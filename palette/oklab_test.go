@@ -1,7 +1,6 @@
 package palette
 
 import (
-	"math"
 	"testing"
 
 	"github.com/stretchr/testify/assert"
@@ -69,8 +68,9 @@ func TestOKLChPolar(t *testing.T) {
 		{OKLab{0.5, 0, -0.1}, OKLCh{0.5, 0.1, 270}},
 	} {
 		got := tc.lab.OKLCh()
-		assert.False(t, math.Abs(got.C-tc.lch.C) > 1e-12 || math.Abs(got.H-tc.lch.H) > 1e-9, "%+v → %+v, want %+v", tc.lab, got, tc.lch)
+		assert.InDelta(t, tc.lch.C, got.C, 1e-12, "%+v → C", tc.lab)
+		assert.InDelta(t, tc.lch.H, got.H, 1e-9, "%+v → h", tc.lab)
 		back := got.OKLab()
-		assert.False(t, math.Abs(back.A-tc.lab.A) > 1e-12 || math.Abs(back.B-tc.lab.B) > 1e-12, "%+v → %+v → %+v", tc.lab, got, back)
+		assert.InDeltaSlice(t, []float64{tc.lab.A, tc.lab.B}, []float64{back.A, back.B}, 1e-12, "%+v → %+v → a, b", tc.lab, got)
 	}
 }

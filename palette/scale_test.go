@@ -71,7 +71,9 @@ func TestEras(t *testing.T) {
 	s, err := NewScale("e", a, []float64{1900, 1925, 1960, 2000})
 	require.NoError(t, err)
 	eras := s.Eras()
-	require.False(t, len(eras) != 3 || !s.Discrete() || cont.Discrete(), "eras = %v", eras)
+	require.Len(t, eras, 3, "eras = %v", eras)
+	require.True(t, s.Discrete(), "a scale with eras is discrete")
+	require.False(t, cont.Discrete(), "a scale without eras is continuous")
 	for _, e := range eras {
 		assert.Equal(t, cont.At((e.From+e.To)/2), e.Color, "era %s colour is the mid-year colour", e.Label())
 	}
@@ -132,7 +134,9 @@ func TestStopsStayWithinTolerance(t *testing.T) {
 		{harsh, 1890, 2010, 0.3},
 	} {
 		stops := tc.s.Stops(tc.from, tc.to, tc.maxErr)
-		require.False(t, len(stops) < 2 || stops[0].Year != tc.from || stops[len(stops)-1].Year != tc.to, "%s %v–%v: stops %v", tc.s.Name(), tc.from, tc.to, stops)
+		require.GreaterOrEqual(t, len(stops), 2, "%s %v–%v: stops %v", tc.s.Name(), tc.from, tc.to, stops)
+		require.Equal(t, tc.from, stops[0].Year, "%s: first stop year", tc.s.Name())
+		require.Equal(t, tc.to, stops[len(stops)-1].Year, "%s: last stop year", tc.s.Name())
 		for i := 1; i < len(stops); i++ {
 			require.True(t, (stops[i].Year > stops[i-1].Year), "%s: stop years not increasing at %d", tc.s.Name(), i)
 		}

@@ -138,7 +138,7 @@ func TestFlatStaysFlat(t *testing.T) {
 			if ys[k] != ys[k+1] {
 				continue
 			}
-			assert.False(t, bz.P1.Y != bz.P0.Y || bz.P2.Y != bz.P0.Y || bz.P3.Y != bz.P0.Y, "flat interval %d: heights %v %v %v %v", k, bz.P0.Y, bz.P1.Y, bz.P2.Y, bz.P3.Y)
+			assert.Equal(t, [3]float64{bz.P0.Y, bz.P0.Y, bz.P0.Y}, [3]float64{bz.P1.Y, bz.P2.Y, bz.P3.Y}, "flat interval %d: heights of P1, P2, P3", k)
 			for j := 0; j <= 20; j++ {
 				assert.Equal(t, bz.P0.Y, bz.At(float64(j)/20).Y, "flat interval %d: y(t=%v)", k, float64(j)/20)
 			}
@@ -169,7 +169,8 @@ func TestMirror(t *testing.T) {
 			}
 			for _, tt := range []float64{0.25, 0.5, 0.8} {
 				a, b := bu.At(tt), bd.At(tt)
-				require.False(t, a.X != b.X || math.Abs(a.Y+b.Y-280) > 1e-10, "trial %d segment %d: At(%v) up %v, down %v", trial, k, tt, a, b)
+				require.Equal(t, a.X, b.X, "trial %d segment %d: At(%v) x up and down", trial, k, tt)
+				require.InDelta(t, 280, a.Y+b.Y, 1e-10, "trial %d segment %d: At(%v) up %v, down %v; want mirror about y = 140", trial, k, tt, a, b)
 			}
 		}
 	}
@@ -204,7 +205,8 @@ func TestSplit(t *testing.T) {
 		// x stays linear in t on both parts, so they can be cut again.
 		for _, part := range []curve.Bezier{l, r} {
 			h := part.P3.X - part.P0.X
-			assert.False(t, math.Abs(part.P1.X-(part.P0.X+h/3)) > 1e-10 || math.Abs(part.P2.X-(part.P3.X-h/3)) > 1e-10, "segment %d: part %+v is not linear in x", k, part)
+			assert.InDelta(t, part.P0.X+h/3, part.P1.X, 1e-10, "segment %d: part %+v: first control x at a third", k, part)
+			assert.InDelta(t, part.P3.X-h/3, part.P2.X, 1e-10, "segment %d: part %+v: second control x at two thirds", k, part)
 		}
 		// Outside the segment: clamped to an end.
 		l, r = bz.SplitAtX(bz.P0.X - 5)
@@ -241,7 +243,9 @@ func TestErrors(t *testing.T) {
 			dst := []curve.Run{{First: 42}}
 			got, err := curve.Build(tt.xs, tt.ys, tt.m, dst)
 			require.ErrorContains(t, err, tt.want)
-			assert.False(t, len(got) != 1 || got[0].First != 42, "dst changed on error: %+v", got)
+			if assert.Len(t, got, 1, "dst changed on error") {
+				assert.Equal(t, 42, got[0].First, "dst changed on error")
+			}
 		})
 	}
 

@@ -94,7 +94,8 @@ func TestYAtWorked(t *testing.T) {
 			require.Len(t, runs, 1, "%s: %d runs, want 1", name, len(runs))
 			got, ok := runs[0].YAt(m.X(tt.x))
 			_, sy := m.Scale()
-			assert.False(t, !ok || math.Abs(got-m.Y(tt.want)) > tt.tol*math.Abs(sy), "%s: y(%v) = %.9g (plot), want %.9g (%s)", name, tt.x, got, m.Y(tt.want), tt.source)
+			assert.True(t, ok, "%s: YAt(%v) not ok", name, tt.x)
+			assert.InDelta(t, m.Y(tt.want), got, tt.tol*math.Abs(sy), "%s: y(%v) in plot units (%s)", name, tt.x, tt.source)
 		}
 	}
 }
@@ -140,14 +141,16 @@ func TestAgainstGonum(t *testing.T) {
 		b.Reset()
 		runs, err := b.Build(xs, ys, m, nil)
 		require.NoError(t, err)
-		require.False(t, len(runs) != 1 || runs[0].Points() != n, "trial %d: runs %+v, want one run of %d points", trial, runs, n)
+		require.Len(t, runs, 1, "trial %d: runs", trial)
+		require.Equal(t, n, runs[0].Points(), "trial %d: points in the run", trial)
 		for k := 0; k+1 < n; k++ {
 			h := xs[k+1] - xs[k]
 			for j := 1; j <= 9; j++ {
 				x := xs[k] + float64(j)*h/10
 				got, ok := runs[0].YAt(m.X(x))
 				want := m.Y(ref.Predict(x))
-				require.False(t, !ok || math.Abs(got-want) > tol*math.Abs(sy)*max(1, math.Abs(ref.Predict(x))), "trial %d: y(%v) = %.17g, gonum %.17g (%s)", trial, x, got, want, srcGonum)
+				require.True(t, ok, "trial %d: YAt(%v) not ok", trial, x)
+				require.InDelta(t, want, got, tol*math.Abs(sy)*max(1, math.Abs(ref.Predict(x))), "trial %d: y(%v) against gonum (%s)", trial, x, srcGonum)
 			}
 		}
 	}

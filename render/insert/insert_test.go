@@ -189,7 +189,7 @@ func TestComparisonLabels(t *testing.T) {
 	styles := map[string]bool{}
 	for i, a := range ls {
 		styles[a.Style.Name] = true
-		assert.False(t, a.Y < g.plot.Y0 || a.Y > g.plot.Y1, "label %q at %v, outside the plot %v–%v", a.Term, a.Y, g.plot.Y0, g.plot.Y1)
+		assert.True(t, a.Y >= g.plot.Y0 && a.Y <= g.plot.Y1, "label %q at %v, outside the plot %v–%v", a.Term, a.Y, g.plot.Y0, g.plot.Y1)
 		for _, b := range ls[i+1:] {
 			assert.GreaterOrEqual(t, math.Abs(a.Y-b.Y), a.Height-1e-9, "labels %q and %q overlap: centres %v and %v, line height %v", a.Term, b.Term, a.Y, b.Y, a.Height)
 		}
@@ -209,7 +209,8 @@ func TestNiceTicks(t *testing.T) {
 		n    int
 	}{{1, 1, 5}, {4, 4, 5}, {0.37, 0.4, 5}, {137, 150, 4}, {9.5, 10, 5}} {
 		ticks, top := niceTicks(c.peak, 4)
-		assert.False(t, math.Abs(top-c.top) > 1e-9 || len(ticks) != c.n, "niceTicks(%v) = %v, top %v; want top %v and %d ticks", c.peak, ticks, top, c.top, c.n)
+		assert.InDelta(t, c.top, top, 1e-9, "niceTicks(%v): top", c.peak)
+		assert.Len(t, ticks, c.n, "niceTicks(%v)", c.peak)
 	}
 }
 

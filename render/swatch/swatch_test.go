@@ -127,7 +127,7 @@ func TestCurveLineWidth(t *testing.T) {
 		t.Logf("%v pt: %d px solid, nominal %.1f", width, best, want)
 		// Solid core of an anti-aliased, slightly sloped stroke: within 2 px
 		// below and 15% above the nominal width.
-		assert.False(t, float64(best) < want-2 || float64(best) > want*1.15+0.5, "%v pt line: %d px of solid ink, want about %.1f", width, best, want)
+		assert.True(t, float64(best) >= want-2 && float64(best) <= want*1.15+0.5, "%v pt line: %d px of solid ink, want about %.1f", width, best, want)
 	}
 }
 

@@ -103,7 +103,8 @@ func readStrict(t *testing.T, b []byte) *model.Context {
 func dict(t *testing.T, ctx *model.Context, o types.Object) types.Dict {
 	t.Helper()
 	d, err := ctx.DereferenceDict(o)
-	require.False(t, err != nil || d == nil, "dereference %v: %v", o, err)
+	require.NoError(t, err, "dereference %v", o)
+	require.NotNil(t, d, "dereference %v", o)
 	return d
 }
 
@@ -162,7 +163,8 @@ func readBack(t *testing.T, cond *press.Condition) {
 			_, ok := fd.Find("ToUnicode")
 			assert.True(t, ok, "font %s has no ToUnicode", name)
 			arr, err := ctx.DereferenceArray(fd["DescendantFonts"])
-			require.False(t, err != nil || len(arr) != 1, "font %s descendants: %v", name, err)
+			require.NoError(t, err, "font %s descendants", name)
+			require.Len(t, arr, 1, "font %s descendants", name)
 			cid := dict(t, ctx, arr[0])
 			assert.Equal(t, "CIDFontType2", val(cid.NameEntry("Subtype")), "font %s descendant subtype", name)
 			desc := dict(t, ctx, cid["FontDescriptor"])
@@ -179,7 +181,8 @@ func readBack(t *testing.T, cond *press.Condition) {
 		assert.False(t, ok, "an RGB document has OutputIntents")
 	} else {
 		ois, err := ctx.DereferenceArray(root["OutputIntents"])
-		require.False(t, err != nil || len(ois) != 1, "OutputIntents %v (%v); PDF/X-4 wants exactly one", ois, err)
+		require.NoError(t, err, "OutputIntents")
+		require.Len(t, ois, 1, "OutputIntents: PDF/X-4 wants exactly one")
 		oi := dict(t, ctx, ois[0])
 		assert.Equal(t, "GTS_PDFX", val(oi.NameEntry("S")), "output intent S")
 		_, ok := oi.Find("DestOutputProfile")
