@@ -120,7 +120,7 @@ func TestBadPalettesFail(t *testing.T) {
 			if found == nil {
 				var buf bytes.Buffer
 				r.WriteTable(&buf)
-				t.Fatalf("no %v %s finding at %q:\n%s", tc.severity, tc.check, tc.label, buf.String())
+				require.FailNow(t, "finding missing", "no %v %s finding at %q:\n%s", tc.severity, tc.check, tc.label, buf.String())
 			}
 			for _, w := range tc.want {
 				assert.True(t, strings.Contains(found.Message, w), "message %q lacks %q", found.Message, w)
@@ -139,7 +139,7 @@ func deuteranConfusion(t *testing.T, greys []float64) []Anchor {
 	m := machado[Deuteranopia]
 	r0, r1 := m[0], m[1]
 	n := [3]float64{r0[1]*r1[2] - r0[2]*r1[1], r0[2]*r1[0] - r0[0]*r1[2], r0[0]*r1[1] - r0[1]*r1[0]}
-	require.False(t, math.Abs(m[2][0]*n[0]+m[2][1]*n[1]+m[2][2]*n[2]) > 1e-3*math.Hypot(n[0], math.Hypot(n[1], n[2])), "deuteranopia matrix is not of rank 2")
+	require.LessOrEqual(t, math.Abs(m[2][0]*n[0]+m[2][1]*n[1]+m[2][2]*n[2]), 1e-3*math.Hypot(n[0], math.Hypot(n[1], n[2])), "deuteranopia matrix is not of rank 2")
 	k := 0.12 / math.Max(math.Abs(n[0]), math.Max(math.Abs(n[1]), math.Abs(n[2])))
 	var out []Anchor
 	for i, g := range greys {
@@ -174,7 +174,10 @@ func TestSizeGuidance(t *testing.T) {
 				got = append(got, f)
 			}
 		}
-		assert.False(t, len(got) != 1 || got[0].Severity != tc.sev || !strings.Contains(got[0].Message, "does not"), "%v pt: size findings %v, want one %v", tc.width, got, tc.sev)
+		if assert.Len(t, got, 1, "%v pt: size findings", tc.width) {
+			assert.Equal(t, tc.sev, got[0].Severity, "%v pt: size finding", tc.width)
+			assert.Contains(t, got[0].Message, "does not", "%v pt: size finding", tc.width)
+		}
 	}
 }
 
@@ -204,9 +207,8 @@ func TestCheckErrors(t *testing.T) {
 		{"too many samples", s, white, 1, Print, func() Thresholds { th := DefaultThresholds(); th.SampleYears = 1e-3; return th }(), "raise SampleYears"},
 		{"paper", s, FromOKLCh(OKLCh{0.9, 0.4, 120}), 1, Print, DefaultThresholds(), "paper colour"},
 	} {
-		if _, err := Check(tc.s, tc.paper, tc.width, tc.m, tc.th); err == nil || !strings.Contains(err.Error(), tc.want) {
-			t.Errorf("%s: error %v, want %q", tc.name, err, tc.want)
-		}
+		_, err := Check(tc.s, tc.paper, tc.width, tc.m, tc.th)
+		assert.ErrorContains(t, err, tc.want, tc.name)
 	}
 }
 
@@ -226,20 +228,18 @@ func TestWriteTable(t *testing.T) {
 		"distinguishable classes at 0.75 pt: 2 (", "the key labels 8 eras", "WARN size", "\nWARN (no check fails, but 1 warning: see above)\n"} {
 		assert.True(t, strings.Contains(out, w), "table lacks %q:\n%s", w, out)
 	}
-	if n := len(r.Rows); n != 17 { // 157 years → 16 steps of 9.8 years
-		t.Errorf("%d rows", n)
-	}
+	assert.Len(t, r.Rows, 17, "rows") // 157 years → 16 steps of 9.8 years
 }
 
 func TestParseDirection(t *testing.T) {
 	for s, want := range map[string]Direction{"": LightnessAuto, "auto": LightnessAuto, "increasing": LightnessIncreasing, "decreasing": LightnessDecreasing, "any": LightnessAny} {
-		if got, err := ParseDirection(s); err != nil || got != want {
-			t.Errorf("ParseDirection(%q) = %v, %v", s, got, err)
+		got, err := ParseDirection(s)
+		if assert.NoError(t, err, "ParseDirection(%q)", s) {
+			assert.Equal(t, want, got, "ParseDirection(%q)", s)
 		}
 	}
-	if _, err := ParseDirection("up"); err == nil || !strings.Contains(err.Error(), `"up"`) {
-		t.Errorf("ParseDirection(up): %v", err)
-	}
+	_, err := ParseDirection("up")
+	assert.ErrorContains(t, err, `"up"`, "ParseDirection(up) names the value")
 }
 
 func BenchmarkCheck(b *testing.B) {
@@ -270,10 +270,10 @@ func TestSweepFindsColoursBetweenSamples(t *testing.T) {
 			found = &r.Findings[i]
 		}
 	}
-	if found == nil {
-		t.Fatalf("no contrast finding; findings: %v", r.Findings)
-	}
-	assert.False(t, found.Severity != Fail || found.Year != 1901 || !strings.Contains(found.Message, "1.07:1"), "contrast finding %v, want a failure at 1901 naming 1.07:1", found)
+	require.NotNil(t, found, "no contrast finding; findings: %v", r.Findings)
+	assert.Equal(t, Fail, found.Severity, "contrast finding %v", found)
+	assert.EqualValues(t, 1901, found.Year, "contrast finding %v", found)
+	assert.Contains(t, found.Message, "1.07:1", "contrast finding")
 	for _, row := range r.Rows {
 		require.False(t, row.Year > 1899 && row.Year < 1903, "a table row at %v: the test must put the anchor between samples", row.Year)
 	}

@@ -1,7 +1,6 @@
 package palette
 
 import (
-	"math"
 	"testing"
 
 	"github.com/stretchr/testify/assert"
@@ -29,13 +28,13 @@ func machadoRef(t *testing.T) map[Deficiency][3][3]float64 {
 		}
 		out[d] = m
 	}
-	require.False(t, len(out) != 3, "found %d severity-1.0 matrices, want 3", len(out))
+	require.Len(t, out, 3, "found %d severity-1.0 matrices, want 3", len(out))
 	return out
 }
 
 func TestMachadoMatrices(t *testing.T) {
 	for d, want := range machadoRef(t) {
-		assert.False(t, machado[d] != want, "%v matrix = %v, Machado et al. (2009) give %v", d, machado[d], want)
+		assert.Equal(t, want, machado[d], "%v matrix = %v, Machado et al. (2009) give %v", d, machado[d], want)
 	}
 }
 
@@ -51,18 +50,14 @@ func TestSimulateMatchesMatrixProduct(t *testing.T) {
 			got := Simulate(mustHex(t, tc.hex), d).RGB().Linear()
 			want := [3]float64{m[0][tc.col], m[1][tc.col], m[2][tc.col]}
 			for i, g := range [3]float64{got.R, got.G, got.B} {
-				if w := clamp01(want[i]); math.Abs(g-w) > 1e-6 {
-					t.Errorf("%v of %s: linear component %d = %.6f, matrix gives %.6f", d, tc.hex, i, g, w)
-				}
+				assert.InDelta(t, clamp01(want[i]), g, 1e-6, "%v of %s: linear component %d against the matrix", d, tc.hex, i)
 			}
 		}
 	}
 	// Rows sum to 1, so greys are unchanged (file header).
 	for _, d := range Deficiencies() {
 		for _, hex := range []string{"#ffffff", "#777777", "#000000"} {
-			if got := Simulate(mustHex(t, hex), d).Hex(); got != hex {
-				t.Errorf("%v of grey %s = %s", d, hex, got)
-			}
+			assert.Equal(t, hex, Simulate(mustHex(t, hex), d).Hex(), "%v of grey %s", d, hex)
 		}
 	}
 }

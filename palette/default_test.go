@@ -132,8 +132,9 @@ func TestDefaultTableFollowsDesign(t *testing.T) {
 	}
 	for i, a := range defaultTable {
 		p := pts[i]
-		if math.Abs(a.color.L-p.L) > 6e-5 || math.Abs(a.color.C-p.C) > 6e-5 || math.Abs(a.color.H-p.H) > 6e-3 || math.Abs(a.at-arc[i]/arc[n-1]) > 6e-5 {
-			t.Errorf("anchor %d: table %.4f %+v, design gives %.4f %+v", i, a.at, a.color, arc[i]/arc[n-1], p)
-		}
+		assert.InDelta(t, p.L, a.color.L, 6e-5, "anchor %d: table L against the design", i)
+		assert.InDelta(t, p.C, a.color.C, 6e-5, "anchor %d: table C against the design", i)
+		assert.InDelta(t, p.H, a.color.H, 6e-3, "anchor %d: table h against the design", i)
+		assert.InDelta(t, arc[i]/arc[n-1], a.at, 6e-5, "anchor %d: table position against the design's arc length", i)
 	}
 }

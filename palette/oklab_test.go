@@ -1,7 +1,6 @@
 package palette
 
 import (
-	"math"
 	"testing"
 
 	"github.com/stretchr/testify/assert"
@@ -27,12 +26,10 @@ func TestOKLabMatrices(t *testing.T) {
 			continue
 		}
 		i, j := int(num(t, r["i"])), int(num(t, r["j"]))
-		if want := num(t, r["value"]); m[i][j] != want {
-			t.Errorf("%s[%d][%d] = %v, Ottosson (2020) gives %v", r["name"], i, j, m[i][j], want)
-		}
+		assert.Equal(t, num(t, r["value"]), m[i][j], "%s[%d][%d] against Ottosson (2020)", r["name"], i, j)
 		n++
 	}
-	require.False(t, n != 36, "checked %d entries, want 36", n)
+	require.Equal(t, 36, n, "checked %d entries, want 36", n)
 }
 
 func TestOKLabAgainstReference(t *testing.T) {
@@ -53,12 +50,10 @@ func TestOKLabAgainstReference(t *testing.T) {
 		}
 		got := c.OKLab()
 		want := OKLab{num(t, r["L"]), num(t, r["a"]), num(t, r["b"])}
-		if math.Abs(got.L-want.L) > tol || math.Abs(got.A-want.A) > tol || math.Abs(got.B-want.B) > tol {
-			t.Errorf("%s %s (%s): got %+v want %+v ±%g", r["kind"], r["name"], r["source_key"], got, want, tol)
-		}
+		assert.InDeltaSlice(t, []float64{want.L, want.A, want.B}, []float64{got.L, got.A, got.B}, tol, "%s %s (%s): OKLab", r["kind"], r["name"], r["source_key"])
 		n++
 	}
-	require.False(t, n != 12, "checked %d colours, want 12", n)
+	require.Equal(t, 12, n, "checked %d colours, want 12", n)
 }
 
 func TestOKLChPolar(t *testing.T) {
@@ -73,8 +68,9 @@ func TestOKLChPolar(t *testing.T) {
 		{OKLab{0.5, 0, -0.1}, OKLCh{0.5, 0.1, 270}},
 	} {
 		got := tc.lab.OKLCh()
-		assert.False(t, math.Abs(got.C-tc.lch.C) > 1e-12 || math.Abs(got.H-tc.lch.H) > 1e-9, "%+v → %+v, want %+v", tc.lab, got, tc.lch)
+		assert.InDelta(t, tc.lch.C, got.C, 1e-12, "%+v → C", tc.lab)
+		assert.InDelta(t, tc.lch.H, got.H, 1e-9, "%+v → h", tc.lab)
 		back := got.OKLab()
-		assert.False(t, math.Abs(back.A-tc.lab.A) > 1e-12 || math.Abs(back.B-tc.lab.B) > 1e-12, "%+v → %+v → %+v", tc.lab, got, back)
+		assert.InDeltaSlice(t, []float64{tc.lab.A, tc.lab.B}, []float64{back.A, back.B}, 1e-12, "%+v → %+v → a, b", tc.lab, got)
 	}
 }

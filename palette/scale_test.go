@@ -2,7 +2,6 @@ package palette
 
 import (
 	"math"
-	"strings"
 	"testing"
 
 	"github.com/stretchr/testify/assert"
@@ -38,9 +37,8 @@ func TestNewScaleErrors(t *testing.T) {
 		{"NaN bound", ok, []float64{1900, math.NaN()}, "era boundary 2: year NaN"},
 	} {
 		_, err := NewScale("test", tc.anchors, tc.eras)
-		if err == nil || !strings.Contains(err.Error(), tc.want) || !strings.Contains(err.Error(), `"test"`) {
-			t.Errorf("%s: error %v, want it to contain %q and the palette name", tc.name, err, tc.want)
-		}
+		assert.ErrorContains(t, err, tc.want, tc.name)
+		assert.ErrorContains(t, err, `"test"`, "%s: the error names the palette", tc.name)
 	}
 }
 
@@ -49,29 +47,22 @@ func TestAtInterpolatesInOKLab(t *testing.T) {
 	s, err := NewScale("t", a, nil)
 	require.NoError(t, err)
 	for _, x := range a {
-		if got := s.At(x.Year); got != x.Color {
-			t.Errorf("At(%v) = %v, want the anchor %v", x.Year, got, x.Color)
-		}
+		assert.Equal(t, x.Color, s.At(x.Year), "At(%v) is the anchor", x.Year)
 	}
 	// Linear in OKLab: a quarter of the way is a quarter of each coordinate.
 	p, q := a[1].Color.OKLab(), a[2].Color.OKLab()
 	want := OKLab{p.L + 0.25*(q.L-p.L), p.A + 0.25*(q.A-p.A), p.B + 0.25*(q.B-p.B)}
-	if got := s.At(1962.5).OKLab(); math.Abs(got.L-want.L) > 1e-12 || math.Abs(got.A-want.A) > 1e-12 || math.Abs(got.B-want.B) > 1e-12 {
-		t.Errorf("At(1962.5) = %+v, want %+v", got, want)
-	}
+	got := s.At(1962.5).OKLab()
+	assert.InDeltaSlice(t, []float64{want.L, want.A, want.B}, []float64{got.L, got.A, got.B}, 1e-12, "At(1962.5) in OKLab")
 	// Outside the span: the nearer end.
 	for y, want := range map[float64]Color{1800: a[0].Color, 2100: a[2].Color, math.NaN(): a[0].Color, math.Inf(1): a[2].Color} {
-		if got := s.At(y); got != want {
-			t.Errorf("At(%v) = %v, want %v", y, got, want)
-		}
+		assert.Equal(t, want, s.At(y), "At(%v)", y)
 	}
-	if from, to := s.Span(); from != 1900 || to != 2000 {
-		t.Errorf("Span = %v, %v", from, to)
-	}
+	from, to := s.Span()
+	assert.Equal(t, [2]float64{1900, 2000}, [2]float64{from, to}, "Span")
 	var zero Scale
-	if zero.At(1950) != (Color{}) || zero.Stops(0, 1, 0) != nil {
-		t.Error("zero Scale should map to black and have no stops")
-	}
+	assert.Equal(t, Color{}, zero.At(1950), "zero Scale maps to black")
+	assert.Nil(t, zero.Stops(0, 1, 0), "zero Scale has no stops")
 }
 
 func TestEras(t *testing.T) {
@@ -80,27 +71,20 @@ func TestEras(t *testing.T) {
 	s, err := NewScale("e", a, []float64{1900, 1925, 1960, 2000})
 	require.NoError(t, err)
 	eras := s.Eras()
-	require.False(t, len(eras) != 3 || !s.Discrete() || cont.Discrete(), "eras = %v", eras)
+	require.Len(t, eras, 3, "eras = %v", eras)
+	require.True(t, s.Discrete(), "a scale with eras is discrete")
+	require.False(t, cont.Discrete(), "a scale without eras is continuous")
 	for _, e := range eras {
-		if want := cont.At((e.From + e.To) / 2); e.Color != want {
-			t.Errorf("era %s colour %v, want the mid-year colour %v", e.Label(), e.Color, want)
-		}
+		assert.Equal(t, cont.At((e.From+e.To)/2), e.Color, "era %s colour is the mid-year colour", e.Label())
 	}
 	for y, era := range map[float64]int{1800: 0, 1900: 0, 1924.9: 0, 1925: 1, 1959: 1, 1960: 2, 2000: 2, 2100: 2} {
-		if got := s.At(y); got != eras[era].Color {
-			t.Errorf("At(%v) is not era %d", y, era)
-		}
+		assert.Equal(t, eras[era].Color, s.At(y), "At(%v) is era %d", y, era)
 	}
 	// Whole years: 1960 belongs to the next era; the last era holds 2000.
-	if got := eras[1].Label(); got != "1925–1959" {
-		t.Errorf("label %q", got)
-	}
-	if got := eras[len(eras)-1].Label(); got != "1960–2000" {
-		t.Errorf("last label %q", got)
-	}
-	if from, to := s.Span(); from != 1900 || to != 2000 {
-		t.Errorf("Span = %v, %v", from, to)
-	}
+	assert.Equal(t, "1925–1959", eras[1].Label(), "label")
+	assert.Equal(t, "1960–2000", eras[len(eras)-1].Label(), "last label")
+	from, to := s.Span()
+	assert.Equal(t, [2]float64{1900, 2000}, [2]float64{from, to}, "Span")
 }
 
 // stopsError samples the sRGB-linear gradient made from stops densely and
@@ -150,7 +134,9 @@ func TestStopsStayWithinTolerance(t *testing.T) {
 		{harsh, 1890, 2010, 0.3},
 	} {
 		stops := tc.s.Stops(tc.from, tc.to, tc.maxErr)
-		require.False(t, len(stops) < 2 || stops[0].Year != tc.from || stops[len(stops)-1].Year != tc.to, "%s %v–%v: stops %v", tc.s.Name(), tc.from, tc.to, stops)
+		require.GreaterOrEqual(t, len(stops), 2, "%s %v–%v: stops %v", tc.s.Name(), tc.from, tc.to, stops)
+		require.Equal(t, tc.from, stops[0].Year, "%s: first stop year", tc.s.Name())
+		require.Equal(t, tc.to, stops[len(stops)-1].Year, "%s: last stop year", tc.s.Name())
 		for i := 1; i < len(stops); i++ {
 			require.True(t, (stops[i].Year > stops[i-1].Year), "%s: stop years not increasing at %d", tc.s.Name(), i)
 		}
@@ -158,7 +144,7 @@ func TestStopsStayWithinTolerance(t *testing.T) {
 			assert.False(t, a.Year > tc.from && a.Year < tc.to && !hasStop(stops, a.Year), "%s: no stop at anchor year %v", tc.s.Name(), a.Year)
 		}
 		worst, at := stopsError(t, tc.s, stops, tc.from, tc.to)
-		assert.False(t, worst > tc.maxErr, "%s %v–%v maxErr %v: %d stops, worst ΔE00 %.3f at %.2f", tc.s.Name(), tc.from, tc.to, tc.maxErr, len(stops), worst, at)
+		assert.LessOrEqual(t, worst, tc.maxErr, "%s %v–%v maxErr %v: %d stops, worst ΔE00 %.3f at %.2f", tc.s.Name(), tc.from, tc.to, tc.maxErr, len(stops), worst, at)
 		t.Logf("%s %v–%v maxErr %v: %d stops, worst ΔE00 %.3f", tc.s.Name(), tc.from, tc.to, tc.maxErr, len(stops), worst)
 	}
 }
@@ -184,26 +170,22 @@ func TestStopsDiscrete(t *testing.T) {
 		{2000, eras[2].Color.RGB().Clip()},
 	}
 	// Ending on a boundary keeps the colour of the era before it.
-	if end := s.Stops(1900, 1960, 0); end[len(end)-1] != (Stop{1960, eras[1].Color.RGB().Clip()}) {
-		t.Errorf("stops ending at a boundary: %v", end)
-	}
-	require.False(t, len(stops) != len(want), "stops %v, want %v", stops, want)
+	end := s.Stops(1900, 1960, 0)
+	require.NotEmpty(t, end, "stops ending at a boundary")
+	assert.Equal(t, Stop{1960, eras[1].Color.RGB().Clip()}, end[len(end)-1], "stops ending at a boundary: %v", end)
+	require.Len(t, stops, len(want), "stops %v, want %v", stops, want)
 	for i := range want {
-		assert.False(t, stops[i] != want[i], "stop %d = %v, want %v", i, stops[i], want[i])
+		assert.Equal(t, want[i], stops[i], "stop %d = %v, want %v", i, stops[i], want[i])
 	}
 }
 
 func TestStopsBadRange(t *testing.T) {
 	s, _ := Default(1900, 2000)
 	for _, r := range [][2]float64{{2000, 1900}, {1950, 1950}, {math.NaN(), 2000}, {1900, math.Inf(1)}} {
-		if got := s.Stops(r[0], r[1], 0.5); got != nil {
-			t.Errorf("Stops(%v, %v) = %v, want nil", r[0], r[1], got)
-		}
+		assert.Nil(t, s.Stops(r[0], r[1], 0.5), "Stops(%v, %v)", r[0], r[1])
 	}
 	// A tiny tolerance is bounded, not a hang.
-	if n := len(s.Stops(1900, 2000, 1e-9)); n > len(s.Anchors())<<maxStopDepth+1 {
-		t.Errorf("%d stops", n)
-	}
+	assert.LessOrEqual(t, len(s.Stops(1900, 2000, 1e-9)), len(s.Anchors())<<maxStopDepth+1, "stops for a tolerance of 1e-9")
 }
 
 func BenchmarkStops(b *testing.B) {

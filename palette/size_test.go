@@ -66,9 +66,7 @@ func TestVisualAngle(t *testing.T) {
 		// 72 pt = 25.4 mm at 350 mm: 2·atan(12.7/350) = 4.1563°, computed.
 		{72, Print, 4.1563, 5e-4, "geometry, computed"},
 	} {
-		if got := VisualAngle(tc.widthPt, tc.m); math.Abs(got-tc.want) > tc.tol {
-			t.Errorf("%g pt on %v: %.5f°, want %.4f° (%s)", tc.widthPt, tc.m, got, tc.want, tc.src)
-		}
+		assert.InDelta(t, tc.want, VisualAngle(tc.widthPt, tc.m), tc.tol, "%g pt on %v in degrees (%s)", tc.widthPt, tc.m, tc.src)
 	}
 	assert.True(t, math.IsNaN(VisualAngle(1, Medium(9))), "unknown medium should give NaN")
 }
@@ -84,8 +82,6 @@ func TestNoticeable(t *testing.T) {
 		{Lab{50, 0, 0}, Lab{50, -6, 0}, true},
 		{Lab{50, 0, 0}, Lab{50, 0, 7}, true},
 	} {
-		if got := Noticeable(tc.x, tc.y, nd); got != tc.want {
-			t.Errorf("Noticeable(%v, %v) = %v", tc.x, tc.y, got)
-		}
+		assert.Equal(t, tc.want, Noticeable(tc.x, tc.y, nd), "Noticeable(%v, %v)", tc.x, tc.y)
 	}
 }

@@ -67,7 +67,7 @@ func TestHostileProfiles(t *testing.T) {
 				return int(be.Uint32(e[4:]))
 			}
 		}
-		t.Fatalf("no %s", sig)
+		require.FailNow(t, "tag missing", "no %s tag in the profile's tag table", sig)
 		return 0
 	}
 	cases := []struct {

@@ -4,7 +4,6 @@ import (
 	"math"
 	"math/rand/v2"
 	"reflect"
-	"strings"
 	"testing"
 
 	"github.com/stretchr/testify/assert"
@@ -43,17 +42,15 @@ func TestEndPointsExact(t *testing.T) {
 				require.True(t, same(run.Start, m.Apply(xs[run.First], ys[run.First])), "run at %d starts at %v, want %v", run.First, run.Start, m.Apply(xs[run.First], ys[run.First]))
 				for k, bz := range run.Beziers {
 					i := run.First + k
-					if !same(bz.P0, m.Apply(xs[i], ys[i])) || !same(bz.P3, m.Apply(xs[i+1], ys[i+1])) {
-						t.Fatalf("segment %d ends %v–%v, want %v–%v", i, bz.P0, bz.P3, m.Apply(xs[i], ys[i]), m.Apply(xs[i+1], ys[i+1]))
-					}
+					require.True(t, same(bz.P0, m.Apply(xs[i], ys[i])) && same(bz.P3, m.Apply(xs[i+1], ys[i+1])),
+						"segment %d ends %v–%v, want %v–%v bit for bit", i, bz.P0, bz.P3, m.Apply(xs[i], ys[i]), m.Apply(xs[i+1], ys[i+1]))
 					// Control points at thirds in x: x(t) linear (srcContract).
 					h := bz.P3.X - bz.P0.X
-					if math.Abs(bz.P1.X-(bz.P0.X+h/3)) > 1e-12*bz.P3.X || math.Abs(bz.P2.X-(bz.P3.X-h/3)) > 1e-12*bz.P3.X {
-						t.Fatalf("segment %d: control x %v, %v not at thirds of [%v, %v]", i, bz.P1.X, bz.P2.X, bz.P0.X, bz.P3.X)
-					}
-					if y, ok := run.YAt(bz.P3.X); !ok || y != bz.P3.Y {
-						t.Fatalf("YAt(%v) = %v, %v; want %v exactly", bz.P3.X, y, ok, bz.P3.Y)
-					}
+					require.InDelta(t, bz.P0.X+h/3, bz.P1.X, 1e-12*bz.P3.X, "segment %d: first control x at a third of [%v, %v]", i, bz.P0.X, bz.P3.X)
+					require.InDelta(t, bz.P3.X-h/3, bz.P2.X, 1e-12*bz.P3.X, "segment %d: second control x at two thirds of [%v, %v]", i, bz.P0.X, bz.P3.X)
+					y, ok := run.YAt(bz.P3.X)
+					require.True(t, ok, "YAt(%v) reported not ok", bz.P3.X)
+					require.Equal(t, bz.P3.Y, y, "YAt(%v) exactly", bz.P3.X)
 				}
 			}
 		}
@@ -91,10 +88,8 @@ func TestGaps(t *testing.T) {
 			var got []shape
 			for _, r := range runs {
 				got = append(got, shape{r.First, r.Points()})
-				assert.False(t, r.IsDot() != (r.Points() == 1), "run at %d: IsDot %v with %d points", r.First, r.IsDot(), r.Points())
-				if r.IsDot() && !same(r.Start, m.Apply(xs[r.First], tt.ys[r.First])) {
-					t.Errorf("dot at %v, want %v", r.Start, m.Apply(xs[r.First], tt.ys[r.First]))
-				}
+				assert.Equal(t, r.Points() == 1, r.IsDot(), "run at %d: IsDot %v with %d points", r.First, r.IsDot(), r.Points())
+				assert.True(t, !r.IsDot() || same(r.Start, m.Apply(xs[r.First], tt.ys[r.First])), "dot at %v, want %v bit for bit", r.Start, m.Apply(xs[r.First], tt.ys[r.First]))
 			}
 			assert.Equal(t, tt.want, got, "runs (first, points) = %v, want %v (%s)", got, tt.want, tt.source)
 			// A run ignores the data across a gap: built alone, it is the
@@ -117,15 +112,11 @@ func TestTwoPointsStraight(t *testing.T) {
 	bz := runs[0].Beziers[0]
 	third := curve.Point{X: bz.P0.X + (bz.P3.X-bz.P0.X)/3, Y: bz.P0.Y + (bz.P3.Y-bz.P0.Y)/3}
 	twoThirds := curve.Point{X: bz.P3.X - (bz.P3.X-bz.P0.X)/3, Y: bz.P3.Y - (bz.P3.Y-bz.P0.Y)/3}
-	if d := dist(bz.P1, third) + dist(bz.P2, twoThirds); d > 1e-12 {
-		t.Errorf("control points %v, %v; want %v, %v", bz.P1, bz.P2, third, twoThirds)
-	}
+	assert.LessOrEqual(t, dist(bz.P1, third)+dist(bz.P2, twoThirds), 1e-12, "control points %v, %v; want %v, %v", bz.P1, bz.P2, third, twoThirds)
 	for _, u := range []float64{0.1, 0.37, 0.5, 0.9} {
 		x := bz.P0.X + u*(bz.P3.X-bz.P0.X)
 		y, _ := runs[0].YAt(x)
-		if want := bz.P0.Y + u*(bz.P3.Y-bz.P0.Y); math.Abs(y-want) > 1e-12 {
-			t.Errorf("y(%v) = %v, want %v on the chord", x, y, want)
-		}
+		assert.InDelta(t, bz.P0.Y+u*(bz.P3.Y-bz.P0.Y), y, 1e-12, "y(%v) on the chord", x)
 	}
 }
 
@@ -147,11 +138,9 @@ func TestFlatStaysFlat(t *testing.T) {
 			if ys[k] != ys[k+1] {
 				continue
 			}
-			assert.False(t, bz.P1.Y != bz.P0.Y || bz.P2.Y != bz.P0.Y || bz.P3.Y != bz.P0.Y, "flat interval %d: heights %v %v %v %v", k, bz.P0.Y, bz.P1.Y, bz.P2.Y, bz.P3.Y)
+			assert.Equal(t, [3]float64{bz.P0.Y, bz.P0.Y, bz.P0.Y}, [3]float64{bz.P1.Y, bz.P2.Y, bz.P3.Y}, "flat interval %d: heights of P1, P2, P3", k)
 			for j := 0; j <= 20; j++ {
-				if y := bz.At(float64(j) / 20).Y; y != bz.P0.Y {
-					t.Errorf("flat interval %d: y(t=%v) = %v, want %v", k, float64(j)/20, y, bz.P0.Y)
-				}
+				assert.Equal(t, bz.P0.Y, bz.At(float64(j)/20).Y, "flat interval %d: y(t=%v)", k, float64(j)/20)
 			}
 		}
 	}
@@ -175,13 +164,13 @@ func TestMirror(t *testing.T) {
 			pu := [4]curve.Point{bu.P0, bu.P1, bu.P2, bu.P3}
 			pd := [4]curve.Point{bd.P0, bd.P1, bd.P2, bd.P3}
 			for i := range pu {
-				if pu[i].X != pd[i].X || math.Abs(pu[i].Y+pd[i].Y-280) > 1e-10 {
-					t.Fatalf("trial %d segment %d point %d: up %v, down %v; want mirror about y = 140", trial, k, i, pu[i], pd[i])
-				}
+				require.Equal(t, pu[i].X, pd[i].X, "trial %d segment %d point %d: x up and down", trial, k, i)
+				require.InDelta(t, 280, pu[i].Y+pd[i].Y, 1e-10, "trial %d segment %d point %d: up %v, down %v; want mirror about y = 140", trial, k, i, pu[i], pd[i])
 			}
 			for _, tt := range []float64{0.25, 0.5, 0.8} {
 				a, b := bu.At(tt), bd.At(tt)
-				require.False(t, a.X != b.X || math.Abs(a.Y+b.Y-280) > 1e-10, "trial %d segment %d: At(%v) up %v, down %v", trial, k, tt, a, b)
+				require.Equal(t, a.X, b.X, "trial %d segment %d: At(%v) x up and down", trial, k, tt)
+				require.InDelta(t, 280, a.Y+b.Y, 1e-10, "trial %d segment %d: At(%v) up %v, down %v; want mirror about y = 140", trial, k, tt, a, b)
 			}
 		}
 	}
@@ -201,12 +190,8 @@ func TestSplit(t *testing.T) {
 			l, r := bz.Split(s)
 			assert.False(t, !same(l.P3, r.P0) || !same(l.P0, bz.P0) || !same(r.P3, bz.P3), "segment %d Split(%v): parts do not join or keep the ends", k, s)
 			for _, u := range []float64{0, 0.3, 0.6, 1} {
-				if d := dist(l.At(u), bz.At(s*u)); d > 1e-10 {
-					t.Errorf("segment %d Split(%v): left.At(%v) off by %g", k, s, u, d)
-				}
-				if d := dist(r.At(u), bz.At(s+(1-s)*u)); d > 1e-10 {
-					t.Errorf("segment %d Split(%v): right.At(%v) off by %g", k, s, u, d)
-				}
+				assert.LessOrEqual(t, dist(l.At(u), bz.At(s*u)), 1e-10, "segment %d Split(%v): left.At(%v) off the curve", k, s, u)
+				assert.LessOrEqual(t, dist(r.At(u), bz.At(s+(1-s)*u)), 1e-10, "segment %d Split(%v): right.At(%v) off the curve", k, s, u)
 			}
 		}
 		// Split at a year between the segment's years: the cut lands on the
@@ -215,28 +200,24 @@ func TestSplit(t *testing.T) {
 		x := m.X(year)
 		l, r := bz.SplitAtX(x)
 		assert.False(t, l.P3.X != x || r.P0.X != x || !same(l.P3, r.P0), "segment %d SplitAtX(%v): cut at %v / %v", k, x, l.P3, r.P0)
-		if y, _ := runs[0].YAt(x); math.Abs(l.P3.Y-y) > 1e-10 {
-			t.Errorf("segment %d SplitAtX(%v): cut y %v, curve y %v", k, x, l.P3.Y, y)
-		}
+		y, _ := runs[0].YAt(x)
+		assert.InDelta(t, y, l.P3.Y, 1e-10, "segment %d SplitAtX(%v): cut y against the curve's", k, x)
 		// x stays linear in t on both parts, so they can be cut again.
 		for _, part := range []curve.Bezier{l, r} {
 			h := part.P3.X - part.P0.X
-			assert.False(t, math.Abs(part.P1.X-(part.P0.X+h/3)) > 1e-10 || math.Abs(part.P2.X-(part.P3.X-h/3)) > 1e-10, "segment %d: part %+v is not linear in x", k, part)
+			assert.InDelta(t, part.P0.X+h/3, part.P1.X, 1e-10, "segment %d: part %+v: first control x at a third", k, part)
+			assert.InDelta(t, part.P3.X-h/3, part.P2.X, 1e-10, "segment %d: part %+v: second control x at two thirds", k, part)
 		}
 		// Outside the segment: clamped to an end.
-		if l, r := bz.SplitAtX(bz.P0.X - 5); !same(l.P0, bz.P0) || !same(l.P3, bz.P0) || !same(r.P3, bz.P3) {
-			t.Errorf("segment %d SplitAtX before start: %v, %v", k, l, r)
-		}
-		if l, r := bz.SplitAtX(bz.P3.X + 5); !same(l.P3, bz.P3) || !same(r.P0, bz.P3) {
-			t.Errorf("segment %d SplitAtX after end: %v, %v", k, l, r)
-		}
+		l, r = bz.SplitAtX(bz.P0.X - 5)
+		assert.True(t, same(l.P0, bz.P0) && same(l.P3, bz.P0) && same(r.P3, bz.P3), "segment %d SplitAtX before start: %v, %v", k, l, r)
+		l, r = bz.SplitAtX(bz.P3.X + 5)
+		assert.True(t, same(l.P3, bz.P3) && same(r.P0, bz.P3), "segment %d SplitAtX after end: %v, %v", k, l, r)
 	}
-	if _, ok := runs[0].YAt(m.X(1799)); ok {
-		t.Error("YAt before the run reported ok")
-	}
-	if _, ok := runs[0].YAt(m.X(1831)); ok {
-		t.Error("YAt after the run reported ok")
-	}
+	_, ok := runs[0].YAt(m.X(1799))
+	assert.False(t, ok, "YAt before the run reported ok")
+	_, ok = runs[0].YAt(m.X(1831))
+	assert.False(t, ok, "YAt after the run reported ok")
 }
 
 func TestErrors(t *testing.T) {
@@ -261,10 +242,10 @@ func TestErrors(t *testing.T) {
 		t.Run(tt.name, func(t *testing.T) {
 			dst := []curve.Run{{First: 42}}
 			got, err := curve.Build(tt.xs, tt.ys, tt.m, dst)
-			if err == nil || !strings.Contains(err.Error(), tt.want) {
-				t.Fatalf("err = %v, want one containing %q", err, tt.want)
+			require.ErrorContains(t, err, tt.want)
+			if assert.Len(t, got, 1, "dst changed on error") {
+				assert.Equal(t, 42, got[0].First, "dst changed on error")
 			}
-			assert.False(t, len(got) != 1 || got[0].First != 42, "dst changed on error: %+v", got)
 		})
 	}
 
@@ -278,9 +259,8 @@ func TestErrors(t *testing.T) {
 		{"x repeats", []float64{1, 1}, []float64{1, 2}, "x[1] = 1 does not exceed x[0] = 1"},
 	}
 	for _, tt := range slopeTests {
-		if _, err := curve.Slopes(tt.xs, tt.ys, nil); err == nil || !strings.Contains(err.Error(), tt.want) {
-			t.Errorf("Slopes %s: err = %v, want one containing %q", tt.name, err, tt.want)
-		}
+		_, err := curve.Slopes(tt.xs, tt.ys, nil)
+		assert.ErrorContains(t, err, tt.want, "Slopes %s", tt.name)
 	}
 
 	mapTests := []struct {
@@ -299,9 +279,8 @@ func TestErrors(t *testing.T) {
 	}
 	for _, tt := range mapTests {
 		v := tt.v
-		if _, err := curve.NewMap(v[0], v[1], v[2], v[3], v[4], v[5], v[6], v[7]); err == nil || !strings.Contains(err.Error(), tt.want) {
-			t.Errorf("NewMap %s: err = %v, want one containing %q", tt.name, err, tt.want)
-		}
+		_, err := curve.NewMap(v[0], v[1], v[2], v[3], v[4], v[5], v[6], v[7])
+		assert.ErrorContains(t, err, tt.want, "NewMap %s", tt.name)
 	}
 }
 
@@ -314,9 +293,7 @@ func TestMapCorners(t *testing.T) {
 		{-3, 0.1, -7, 11, 0.3, 0.7, 0.9, 0.1},
 	} {
 		m := mustMap(t, v[0], v[1], v[2], v[3], v[4], v[5], v[6], v[7])
-		if m.X(v[0]) != v[4] || m.X(v[1]) != v[5] || m.Y(v[2]) != v[6] || m.Y(v[3]) != v[7] {
-			t.Errorf("map %v: corners at x %v, %v y %v, %v", v, m.X(v[0]), m.X(v[1]), m.Y(v[2]), m.Y(v[3]))
-		}
+		assert.Equal(t, [4]float64{v[4], v[5], v[6], v[7]}, [4]float64{m.X(v[0]), m.X(v[1]), m.Y(v[2]), m.Y(v[3])}, "map %v: corners (x0, x1, y0, y1)", v)
 	}
 }
 
@@ -350,11 +327,10 @@ func TestBuilderReuse(t *testing.T) {
 	allocs := testing.AllocsPerRun(100, func() {
 		b.Reset()
 		var err error
-		if dst, err = b.Build(xs, ys, m, dst[:0]); err != nil {
-			t.Fatal(err)
-		}
+		dst, err = b.Build(xs, ys, m, dst[:0])
+		require.NoError(t, err)
 	})
-	assert.False(t, allocs != 0, "warm Builder: %v allocations per series, want 0", allocs)
+	assert.Zero(t, allocs, "warm Builder: %v allocations per series, want 0", allocs)
 }
 
 // BenchmarkBuild: one op is a page-sized job, 4,000 series of 175 yearly

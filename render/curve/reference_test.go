@@ -55,11 +55,9 @@ func TestSlopesWorked(t *testing.T) {
 		t.Run(tt.name, func(t *testing.T) {
 			got, err := curve.Slopes(tt.xs, tt.ys, nil)
 			require.NoError(t, err)
-			require.False(t, len(got) != len(tt.want), "len = %d, want %d", len(got), len(tt.want))
+			require.Len(t, got, len(tt.want), "len = %d, want %d", len(got), len(tt.want))
 			for i := range got {
-				if math.Abs(got[i]-tt.want[i]) > tt.tol {
-					t.Errorf("d[%d] = %.9g, want %.9g ± %g (%s)", i, got[i], tt.want[i], tt.tol, tt.source)
-				}
+				assert.InDelta(t, tt.want[i], got[i], tt.tol, "d[%d] (%s)", i, tt.source)
 			}
 		})
 	}
@@ -93,10 +91,11 @@ func TestYAtWorked(t *testing.T) {
 		for _, tt := range tests {
 			runs, err := curve.Build(tt.xs, tt.ys, m, nil)
 			require.NoError(t, err)
-			require.False(t, len(runs) != 1, "%s: %d runs, want 1", name, len(runs))
+			require.Len(t, runs, 1, "%s: %d runs, want 1", name, len(runs))
 			got, ok := runs[0].YAt(m.X(tt.x))
 			_, sy := m.Scale()
-			assert.False(t, !ok || math.Abs(got-m.Y(tt.want)) > tt.tol*math.Abs(sy), "%s: y(%v) = %.9g (plot), want %.9g (%s)", name, tt.x, got, m.Y(tt.want), tt.source)
+			assert.True(t, ok, "%s: YAt(%v) not ok", name, tt.x)
+			assert.InDelta(t, m.Y(tt.want), got, tt.tol*math.Abs(sy), "%s: y(%v) in plot units (%s)", name, tt.x, tt.source)
 		}
 	}
 }
@@ -137,21 +136,21 @@ func TestAgainstGonum(t *testing.T) {
 		require.NoError(t, err)
 		for i, x := range xs {
 			want := ref.PredictDerivative(x)
-			if math.Abs(d[i]-want) > tol*max(1, math.Abs(want)) {
-				t.Fatalf("trial %d: d[%d] = %.17g, gonum %.17g (%s)", trial, i, d[i], want, srcGonum)
-			}
+			require.InDelta(t, want, d[i], tol*max(1, math.Abs(want)), "trial %d: d[%d] against gonum (%s)", trial, i, srcGonum)
 		}
 		b.Reset()
 		runs, err := b.Build(xs, ys, m, nil)
 		require.NoError(t, err)
-		require.False(t, len(runs) != 1 || runs[0].Points() != n, "trial %d: runs %+v, want one run of %d points", trial, runs, n)
+		require.Len(t, runs, 1, "trial %d: runs", trial)
+		require.Equal(t, n, runs[0].Points(), "trial %d: points in the run", trial)
 		for k := 0; k+1 < n; k++ {
 			h := xs[k+1] - xs[k]
 			for j := 1; j <= 9; j++ {
 				x := xs[k] + float64(j)*h/10
 				got, ok := runs[0].YAt(m.X(x))
 				want := m.Y(ref.Predict(x))
-				require.False(t, !ok || math.Abs(got-want) > tol*math.Abs(sy)*max(1, math.Abs(ref.Predict(x))), "trial %d: y(%v) = %.17g, gonum %.17g (%s)", trial, x, got, want, srcGonum)
+				require.True(t, ok, "trial %d: YAt(%v) not ok", trial, x)
+				require.InDelta(t, want, got, tol*math.Abs(sy)*max(1, math.Abs(ref.Predict(x))), "trial %d: y(%v) against gonum (%s)", trial, x, srcGonum)
 			}
 		}
 	}
@@ -185,9 +184,7 @@ func TestRegionMHelper(t *testing.T) {
 		{-0.1, 1, false, srcFC + " (a slope against the data's direction)"},
 	}
 	for _, tt := range tests {
-		if got := inRegionM(tt.a, tt.b); got != tt.want {
-			t.Errorf("inRegionM(%v, %v) = %v, want %v (%s)", tt.a, tt.b, got, tt.want, tt.source)
-		}
+		assert.Equal(t, tt.want, inRegionM(tt.a, tt.b), "inRegionM(%v, %v) (%s)", tt.a, tt.b, tt.source)
 	}
 }
 
@@ -215,18 +212,14 @@ func TestMonotoneOnMonotoneData(t *testing.T) {
 		for k := 0; k+1 < n; k++ {
 			delta := (ys[k+1] - ys[k]) / (xs[k+1] - xs[k])
 			if delta == 0 {
-				if d[k] != 0 || d[k+1] != 0 {
-					t.Fatalf("trial %d: flat interval %d has slopes %v, %v; want 0, 0 (%s)", trial, k, d[k], d[k+1], srcFC)
-				}
+				require.Equal(t, [2]float64{0, 0}, [2]float64{d[k], d[k+1]}, "trial %d: slopes of flat interval %d (%s)", trial, k, srcFC)
 				continue
 			}
 			a, b := d[k]/delta, d[k+1]/delta
 			require.True(t, (a*a+b*b <= 9 || inRegionM(a, b)), "trial %d: interval %d: (α, β) = (%v, %v) outside M (%s)", trial, k, a, b, srcFC)
 			// Fritsch–Butland slopes lie in [0, 3] × [0, 3], which puts the
 			// Bézier control points between the end heights.
-			if a < 0 || b < 0 || a > 3+1e-12 || b > 3+1e-12 {
-				t.Fatalf("trial %d: interval %d: (α, β) = (%v, %v) outside [0,3]² (%s)", trial, k, a, b, srcFB)
-			}
+			require.True(t, a >= 0 && b >= 0 && a <= 3+1e-12 && b <= 3+1e-12, "trial %d: interval %d: (α, β) = (%v, %v) outside [0,3]² (%s)", trial, k, a, b, srcFB)
 		}
 		// Independently of the region test: sampled values must move
 		// one way only.
@@ -236,7 +229,7 @@ func TestMonotoneOnMonotoneData(t *testing.T) {
 			prev := bz.P0.Y
 			for j := 1; j <= 64; j++ {
 				y := bz.At(float64(j) / 64).Y
-				require.False(t, dir*(y-prev) < -1e-12*max(1, math.Abs(y)), "trial %d: segment %d turns back at t=%v: %v after %v (%s)", trial, k, float64(j)/64, y, prev, srcFC)
+				require.GreaterOrEqual(t, dir*(y-prev), -1e-12*max(1, math.Abs(y)), "trial %d: segment %d turns back at t=%v: %v after %v (%s)", trial, k, float64(j)/64, y, prev, srcFC)
 				prev = y
 			}
 		}
@@ -263,9 +256,7 @@ func TestStaysBetweenKnots(t *testing.T) {
 				slack := 4 * ulp(max(math.Abs(lo), math.Abs(hi))) // rounding in At
 				for j := 0; j <= 100; j++ {
 					y := bz.At(float64(j) / 100).Y
-					if y < lo-slack || y > hi+slack {
-						t.Fatalf("trial %d map %d segment %d: y(t=%v) = %v outside [%v, %v] (%s)", trial, mi, k, float64(j)/100, y, lo, hi, srcFC)
-					}
+					require.True(t, y >= lo-slack && y <= hi+slack, "trial %d map %d segment %d: y(t=%v) = %v outside [%v, %v] (%s)", trial, mi, k, float64(j)/100, y, lo, hi, srcFC)
 				}
 			}
 		}
@@ -293,13 +284,9 @@ func TestNaturalCubicOvershoots(t *testing.T) {
 			v := nc.Predict(x)
 			lowNC, highNC = min(lowNC, v), max(highNC, v)
 			got, _ := runs[0].YAt(x)
-			if got < lo || got > hi {
-				t.Errorf("ours: y(%v) = %v outside [%v, %v]", x, got, lo, hi)
-			}
+			assert.True(t, got >= lo && got <= hi, "ours: y(%v) = %v outside [%v, %v]", x, got, lo, hi)
 		}
 	}
-	if lowNC >= 0 && highNC <= 4 {
-		t.Errorf("natural cubic stayed in [0, 4] (min %v, max %v); the contrast no longer shows", lowNC, highNC)
-	}
+	assert.True(t, lowNC < 0 || highNC > 4, "natural cubic stayed in [0, 4] (min %v, max %v); the contrast no longer shows", lowNC, highNC)
 	t.Logf("natural cubic spans [%.4f, %.4f] on data in [0, 4]", lowNC, highNC)
 }

@@ -51,15 +51,8 @@ func TestSpreadWorked(t *testing.T) {
 	}
 	for _, c := range cases {
 		got, err := Spread(c.want, c.gap, c.lo, c.hi)
-		if err != nil {
-			t.Errorf("%s: %v", c.name, err)
-			continue
-		}
-		for i := range got {
-			if math.Abs(got[i]-c.placed[i]) > 1e-9 {
-				t.Errorf("%s: Spread(%v) = %v, want %v", c.name, c.want, got, c.placed)
-				break
-			}
+		if assert.NoError(t, err, c.name) {
+			assert.InDeltaSlice(t, c.placed, got, 1e-9, "%s: Spread(%v)", c.name, c.want)
 		}
 	}
 }
@@ -89,9 +82,7 @@ func TestSpreadProperties(t *testing.T) {
 		sort.SliceStable(idx, func(a, b int) bool { return want[idx[a]] < want[idx[b]] })
 		for j := 0; j < n; j++ {
 			y := got[idx[j]]
-			if y < lo-1e-9 || y > hi+1e-9 {
-				t.Fatalf("case %d: %v placed outside [%v, %v]: %v", k, want, lo, hi, got)
-			}
+			require.True(t, y >= lo-1e-9 && y <= hi+1e-9, "case %d: %v placed outside [%v, %v]: %v", k, want, lo, hi, got)
 			require.False(t, j > 0 && y-got[idx[j-1]] < gap-1e-9, "case %d: labels %v closer than %v (or out of order): %v", k, want, gap, got)
 		}
 		cost := func(ys []float64) float64 {
@@ -126,18 +117,21 @@ func TestSpreadProperties(t *testing.T) {
 }
 
 func TestSpreadBadInput(t *testing.T) {
-	if _, err := Spread([]float64{1, 2, 3}, 10, 0, 15); err == nil {
-		t.Error("three labels 10 apart cannot fit in 15")
+	for _, tc := range []struct {
+		name        string
+		want        []float64
+		gap, lo, hi float64
+	}{
+		{"three labels 10 apart cannot fit in 15", []float64{1, 2, 3}, 10, 0, 15},
+		{"NaN position", []float64{math.NaN()}, 1, 0, 10},
+		{"negative gap", []float64{1}, -1, 0, 10},
+	} {
+		_, err := Spread(tc.want, tc.gap, tc.lo, tc.hi)
+		assert.Error(t, err, tc.name)
 	}
-	if _, err := Spread([]float64{math.NaN()}, 1, 0, 10); err == nil {
-		t.Error("NaN position accepted")
-	}
-	if _, err := Spread([]float64{1}, -1, 0, 10); err == nil {
-		t.Error("negative gap accepted")
-	}
-	if got, err := Spread(nil, 1, 0, 10); err != nil || got != nil {
-		t.Errorf("no labels: %v, %v", got, err)
-	}
+	got, err := Spread(nil, 1, 0, 10)
+	assert.NoError(t, err, "no labels")
+	assert.Nil(t, got, "no labels")
 }
 
 // testSet builds a four-term set by hand whose lines all end at the same
@@ -191,17 +185,17 @@ func testInsertAs(t testing.TB, kind specs.Kind, w, h specs.Length, compare spec
 func TestComparisonLabels(t *testing.T) {
 	g := testInsert(t, specs.Screen, specs.Length(600*0.75), specs.Length(360*0.75))
 	ls := g.Labels()
-	require.False(t, len(ls) != 4, "%d labels, want 4", len(ls))
+	require.Len(t, ls, 4, "%d labels, want 4", len(ls))
 	styles := map[string]bool{}
 	for i, a := range ls {
 		styles[a.Style.Name] = true
-		assert.False(t, a.Y < g.plot.Y0 || a.Y > g.plot.Y1, "label %q at %v, outside the plot %v–%v", a.Term, a.Y, g.plot.Y0, g.plot.Y1)
+		assert.True(t, a.Y >= g.plot.Y0 && a.Y <= g.plot.Y1, "label %q at %v, outside the plot %v–%v", a.Term, a.Y, g.plot.Y0, g.plot.Y1)
 		for _, b := range ls[i+1:] {
-			assert.False(t, math.Abs(a.Y-b.Y) < a.Height-1e-9, "labels %q and %q overlap: centres %v and %v, line height %v", a.Term, b.Term, a.Y, b.Y, a.Height)
+			assert.GreaterOrEqual(t, math.Abs(a.Y-b.Y), a.Height-1e-9, "labels %q and %q overlap: centres %v and %v, line height %v", a.Term, b.Term, a.Y, b.Y, a.Height)
 		}
 	}
-	assert.False(t, len(styles) != 4, "line styles %v; want four different", styles)
-	assert.False(t, g.YMax() != 4, "shared y-range top %v, want 4 (the largest value of any term, a round number)", g.YMax())
+	assert.Len(t, styles, 4, "line styles %v; want four different", styles)
+	assert.Equal(t, 4.0, g.YMax(), "shared y-range top %v, want 4 (the largest value of any term, a round number)", g.YMax())
 	title, desc := g.Describe()
 	assert.False(t, title != "telegraph, telephone, wireless and Maßstab" || !bytes.Contains([]byte(desc), []byte(`"wireless" (dotted line)`)), "Describe() = %q, %q", title, desc)
 }
@@ -215,7 +209,8 @@ func TestNiceTicks(t *testing.T) {
 		n    int
 	}{{1, 1, 5}, {4, 4, 5}, {0.37, 0.4, 5}, {137, 150, 4}, {9.5, 10, 5}} {
 		ticks, top := niceTicks(c.peak, 4)
-		assert.False(t, math.Abs(top-c.top) > 1e-9 || len(ticks) != c.n, "niceTicks(%v) = %v, top %v; want top %v and %d ticks", c.peak, ticks, top, c.top, c.n)
+		assert.InDelta(t, c.top, top, 1e-9, "niceTicks(%v): top", c.peak)
+		assert.Len(t, ticks, c.n, "niceTicks(%v)", c.peak)
 	}
 }
 
@@ -244,15 +239,12 @@ func TestDrawSVGAndRaster(t *testing.T) {
 	require.NoError(t, err)
 	require.NoError(t, g.Draw(canvas.NewContext(doc)))
 	var buf bytes.Buffer
-	if _, err := doc.WriteTo(&buf); err != nil {
-		t.Fatal(err)
-	}
+	_, err = doc.WriteTo(&buf)
+	require.NoError(t, err)
 	// Styles × the 1.75 px line, rounded to 0.1 px: each pattern on its
 	// line and on its label's sample.
 	for _, dash := range []string{`stroke-dasharray="8\.[78] 5\.6"`, `stroke-dasharray="0 4\.[56]"`, `stroke-dasharray="8\.[78] 4\.9 0 4\.9"`} {
-		if n := len(regexp.MustCompile(dash).FindAll(buf.Bytes(), -1)); n != 2 {
-			t.Errorf("%s: %d strokes, want 2 (line and label sample)", dash, n)
-		}
+		assert.Equal(t, 2, len(regexp.MustCompile(dash).FindAll(buf.Bytes(), -1)), "%s: strokes (line and label sample)", dash)
 	}
 	img, err := raster.Draw(w, h, 96, g.Paper(), func(ctx *canvas.Context) error { return g.Draw(ctx) })
 	require.NoError(t, err)

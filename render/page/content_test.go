@@ -67,6 +67,7 @@ func TestDrawSmallLandsInItsBoxes(t *testing.T) {
 			allowed = append(allowed, pixelBox(kb.Strip, h, dpi, 72.0/dpi))
 		}
 		stray, coloured := 0, 0
+		var strays []image.Point // the first few, to say where
 		b := img.Bounds()
 		for y := b.Min.Y; y < b.Max.Y; y++ {
 			for x := b.Min.X; x < b.Max.X; x++ {
@@ -83,13 +84,13 @@ func TestDrawSmallLandsInItsBoxes(t *testing.T) {
 				}
 				if !in {
 					if stray < 5 {
-						t.Errorf("page %d: coloured pixel at %d,%d is in no plot and not the key strip", i+1, x, y)
+						strays = append(strays, image.Pt(x, y))
 					}
 					stray++
 				}
 			}
 		}
-		assert.Zero(t, stray, "page %d: coloured pixels outside the plots and the key", i+1)
+		assert.Zero(t, stray, "page %d: coloured pixels outside the plots and the key, first at %v", i+1, strays)
 		require.NotZero(t, coloured, "page %d: nothing coloured drawn", i+1)
 
 		for _, pn := range pg.Panels {

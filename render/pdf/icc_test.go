@@ -5,7 +5,6 @@ import (
 	"crypto/md5"
 	"encoding/binary"
 	"encoding/csv"
-	"math"
 	"os"
 	"os/exec"
 	"strconv"
@@ -71,7 +70,7 @@ func TestICCProfileWithLittleCMS(t *testing.T) {
 	tooltest.Require(t, "transicc", "liblcms2-utils")
 	path := writeTemp(t, "sheaf-srgb.icc", SRGBProfile())
 	refs := loadLabRefs(t)
-	require.False(t, len(refs) < 8, "only %d reference rows", len(refs))
+	require.GreaterOrEqual(t, len(refs), 8, "only %d reference rows", len(refs))
 	var in bytes.Buffer
 	for _, r := range refs {
 		var c [3]uint64
@@ -86,13 +85,11 @@ func TestICCProfileWithLittleCMS(t *testing.T) {
 	cmd.Stdin = &in
 	var out, errb bytes.Buffer
 	cmd.Stdout, cmd.Stderr = &out, &errb
-	if err := cmd.Run(); err != nil {
-		t.Fatalf("transicc: %v\n%s", err, errb.String())
-	}
+	require.NoError(t, cmd.Run(), "transicc: %s", errb.String())
 	// transicc prints its banner on stderr and may leave the last line
 	// without a newline; take every run of three numbers in order.
 	fields := strings.Fields(out.String())
-	require.False(t, len(fields) != 3*len(refs), "transicc gave %d numbers for %d colours:\n%s", len(fields), len(refs), out.String())
+	require.Len(t, fields, 3*len(refs), "transicc gave %d numbers for %d colours:\n%s", len(fields), len(refs), out.String())
 	for i, r := range refs {
 		tol := r.tol
 		if r.source == "neutral" {
@@ -101,9 +98,7 @@ func TestICCProfileWithLittleCMS(t *testing.T) {
 		for j, want := range []float64{r.L, r.a, r.b} {
 			got, err := strconv.ParseFloat(fields[3*i+j], 64)
 			require.NoError(t, err)
-			if math.Abs(got-want) > tol {
-				t.Errorf("%s %s (%s): Lab[%d] = %.4f, want %.4f ± %g", r.name, r.hex, r.source, j, got, want, tol)
-			}
+			assert.InDelta(t, want, got, tol, "%s %s (%s): Lab[%d]", r.name, r.hex, r.source, j)
 		}
 	}
 }
@@ -133,10 +128,7 @@ func TestICCProfileStructure(t *testing.T) {
 	clear(q[44:48])
 	clear(q[64:68])
 	clear(q[84:100])
-	if id := md5.Sum(q); !bytes.Equal(id[:], p[84:100]) {
-		t.Error("profile ID is not the MD5 of §7.2.18")
-	}
-	if !bytes.Contains(p, []byte{0, 's', 0, 'h', 0, 'e', 0, 'a', 0, 'f'}) {
-		t.Error("description does not name sheaf")
-	}
+	id := md5.Sum(q)
+	assert.Equal(t, id[:], p[84:100], "profile ID is the MD5 of §7.2.18")
+	assert.True(t, bytes.Contains(p, []byte{0, 's', 0, 'h', 0, 'e', 0, 'a', 0, 'f'}), "description does not name sheaf")
 }

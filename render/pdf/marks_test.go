@@ -40,7 +40,7 @@ func TestCropMarks(t *testing.T) {
 	assert.True(t, regexp.MustCompile(`(?m)^0\.25 w 0 J`).MatchString(c), "marks are not 0.25 pt with butt caps")
 	seg := regexp.MustCompile(`([-\d.]+) ([-\d.]+) m ([-\d.]+) ([-\d.]+) l S`)
 	ms := seg.FindAllStringSubmatch(c, -1)
-	require.False(t, len(ms) != 8, "%d mark segments, want 8 (two per trim corner)", len(ms))
+	require.Len(t, ms, 8, "%d mark segments, want 8 (two per trim corner)", len(ms))
 	const mm = 72 / 25.4
 	onTrimLine := map[float64]bool{}
 	for _, m := range ms {

@@ -1,7 +1,6 @@
 package pdf
 
 import (
-	"math"
 	"os"
 	"os/exec"
 	"path/filepath"
@@ -47,7 +46,7 @@ func writeTemp(t *testing.T, name string, b []byte) string {
 func run(t *testing.T, name string, args ...string) string {
 	t.Helper()
 	out, err := exec.Command(name, args...).CombinedOutput()
-	require.False(t, err != nil, "%s %v: %v\n%s", name, args, err, out)
+	require.NoError(t, err, "%s %v: %v\n%s", name, args, err, out)
 	return string(out)
 }
 
@@ -72,15 +71,13 @@ func TestOutsideTools(t *testing.T) {
 		}{{"MediaBox", b.Media}, {"CropBox", b.Media}, {"BleedBox", b.Bleed}, {"TrimBox", b.Trim}} {
 			re := regexp.MustCompile(c.name + `:\s+([-\d.]+)\s+([-\d.]+)\s+([-\d.]+)\s+([-\d.]+)`)
 			m := re.FindStringSubmatch(out)
-			if m == nil {
-				t.Errorf("pdfinfo shows no %s:\n%s", c.name, out)
+			if !assert.NotNil(t, m, "pdfinfo shows no %s:\n%s", c.name, out) {
 				continue
 			}
 			for i, want := range []float64{c.r.X0, c.r.Y0, c.r.X1, c.r.Y1} {
-				got, _ := strconv.ParseFloat(m[i+1], 64)
-				if math.Abs(got-want) > 0.01 { // pdfinfo prints 2 decimals
-					t.Errorf("%s[%d] = %v, want %.3f", c.name, i, got, want)
-				}
+				got, err := strconv.ParseFloat(m[i+1], 64)
+				require.NoError(t, err, "%s[%d]", c.name, i)
+				assert.InDelta(t, want, got, 0.01, "%s[%d] (pdfinfo prints 2 decimals)", c.name, i)
 			}
 		}
 		assert.True(t, strings.Contains(out, "Pages:           2"), "pdfinfo pages:\n%s", out)
@@ -89,7 +86,7 @@ func TestOutsideTools(t *testing.T) {
 		tooltest.Require(t, "pdffonts", "poppler-utils")
 		out := run(t, "pdffonts", path)
 		lines := strings.Split(strings.TrimSpace(out), "\n")
-		require.False(t, len(lines) < 4, "pdffonts lists too few fonts:\n%s", out)
+		require.GreaterOrEqual(t, len(lines), 4, "pdffonts lists too few fonts:\n%s", out)
 		tag := regexp.MustCompile(`^[A-Z]{6}\+`)
 		for _, l := range lines[2:] {
 			f := strings.Fields(l)

@@ -28,13 +28,9 @@ func TestAppendNum(t *testing.T) {
 		{595.2756, "595.276"}, {841.8898, "841.89"}, {1e-9, "0"}, {123456.7891, "123456.789"}, {10.01, "10.01"},
 	}
 	for _, c := range cases {
-		if got := string(appendNum(nil, c.in)); got != c.want {
-			t.Errorf("appendNum(%v) = %q, want %q", c.in, got, c.want)
-		}
+		assert.Equal(t, c.want, string(appendNum(nil, c.in)), "appendNum(%v)", c.in)
 	}
-	if n := testing.AllocsPerRun(100, func() { _ = appendNum(make([]byte, 0, 32), 123.456) }); n > 1 {
-		t.Errorf("appendNum allocates %v times", n)
-	}
+	assert.LessOrEqual(t, testing.AllocsPerRun(100, func() { _ = appendNum(make([]byte, 0, 32), 123.456) }), 1.0, "appendNum allocations")
 }
 
 func TestDeterministic(t *testing.T) {
@@ -103,9 +99,7 @@ func TestBadInput(t *testing.T) {
 	for _, c := range cases {
 		t.Run(c.name, func(t *testing.T) {
 			_, err := EncodePage(c.setup, c.draw)
-			if err == nil || !strings.Contains(err.Error(), c.want) {
-				t.Errorf("EncodePage error %v, want one containing %q", err, c.want)
-			}
+			assert.ErrorContains(t, err, c.want, "EncodePage")
 			// through the Writer: the error surfaces and no trailer is
 			// written, so the output is visibly not a finished PDF.
 			var buf bytes.Buffer
@@ -114,30 +108,25 @@ func TestBadInput(t *testing.T) {
 			if cerr := w.Close(); err == nil {
 				err = cerr
 			}
-			if err == nil || !strings.Contains(err.Error(), c.want) || !strings.Contains(err.Error(), "page 1") {
-				t.Errorf("Writer error %v, want one naming page 1 and containing %q", err, c.want)
-			}
+			assert.ErrorContains(t, err, c.want, "Writer")
+			assert.ErrorContains(t, err, "page 1", "Writer error names the page")
 			assert.False(t, bytes.Contains(buf.Bytes(), []byte("%%EOF")), "a failed document was finished anyway")
 		})
 	}
 }
 
 func TestNotAFont(t *testing.T) {
-	if _, err := canvas.LoadFont([]byte("this is not a font file"), 0, canvas.FontRegular); err == nil {
-		t.Fatal("canvas accepted a non-font")
-	}
+	_, err := canvas.LoadFont([]byte("this is not a font file"), 0, canvas.FontRegular)
+	require.Error(t, err, "canvas accepted a non-font")
 	var buf bytes.Buffer
 	w := NewWriter(&buf, Options{})
-	if _, err := w.RegisterFont(nil); err == nil {
-		t.Error("RegisterFont(nil) succeeded")
-	}
+	_, err = w.RegisterFont(nil)
+	assert.Error(t, err, "RegisterFont(nil) succeeded")
 }
 
 func TestEmptyDocument(t *testing.T) {
 	var buf bytes.Buffer
-	if err := NewWriter(&buf, Options{}).Close(); err == nil {
-		t.Error("a document without pages closed without error")
-	}
+	assert.Error(t, NewWriter(&buf, Options{}).Close(), "a document without pages closed without error")
 }
 
 // TestEncodedPageRoundTrip: a page encoded once, stored with
@@ -178,12 +167,9 @@ func TestEncodedPageRoundTrip(t *testing.T) {
 
 	var cached bytes.Buffer
 	w = NewWriter(&cached, opts)
-	if err := w.AddEncoded(&back); err == nil || !strings.Contains(err.Error(), "not registered") {
-		t.Fatalf("AddEncoded without the font: %v, want a 'not registered' error", err)
-	}
-	if _, err := w.RegisterFont(reg); err != nil {
-		t.Fatal(err)
-	}
+	require.ErrorContains(t, w.AddEncoded(&back), "not registered", "AddEncoded without the font")
+	_, err = w.RegisterFont(reg)
+	require.NoError(t, err)
 	require.NoError(t, w.AddEncoded(&back))
 	require.NoError(t, w.Close())
 	assert.True(t, bytes.Equal(direct.Bytes(), cached.Bytes()), "a cached page gives other bytes than drawing it")
@@ -203,11 +189,10 @@ func TestStitchingFunction(t *testing.T) {
 	}
 	for _, c := range cases {
 		b, err := stitching(c.stops)
-		if err != nil || !strings.Contains(string(b), c.want) {
-			t.Errorf("stitching(%v) = %s (%v), want it to contain %q", c.stops, b, err, c.want)
+		if assert.NoError(t, err, "stitching(%v)", c.stops) {
+			assert.Contains(t, string(b), c.want, "stitching(%v)", c.stops)
 		}
 	}
-	if _, err := stitching([]Stop{{0.5, 0, 0, 0, nil}, {0.2, 0, 0, 0, nil}}); err == nil {
-		t.Error("stops out of order accepted")
-	}
+	_, err := stitching([]Stop{{0.5, 0, 0, 0, nil}, {0.2, 0, 0, 0, nil}})
+	assert.Error(t, err, "stops out of order accepted")
 }

@@ -62,12 +62,17 @@ func TestBandedPNG(t *testing.T) {
 		got, err := png.Decode(&buf)
 		require.NoError(t, err, "size %v", size)
 		require.Equal(t, img.Bounds(), got.Bounds())
+		diffs, first := 0, image.Point{}
 		for y := range h {
 			for x := range w {
 				if img.RGBAAt(x, y) != color.RGBAModel.Convert(got.At(x, y)) {
-					t.Fatalf("size %v: pixel (%d, %d) is %v, want %v", size, x, y, got.At(x, y), img.RGBAAt(x, y))
+					if diffs == 0 {
+						first = image.Pt(x, y)
+					}
+					diffs++
 				}
 			}
 		}
+		require.Zero(t, diffs, "size %v: pixels differ, the first at %v is %v, want %v", size, first, got.At(first.X, first.Y), img.RGBAAt(first.X, first.Y))
 	}
 }

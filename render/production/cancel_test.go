@@ -65,7 +65,7 @@ func TestCancelDuringTallPNG(t *testing.T) {
 	case at := <-cancelled:
 		t.Logf("stopped %v after the cancel (measured, not asserted)", time.Since(at))
 	default:
-		t.Fatal("the 2× web PNG never began")
+		require.FailNow(t, "the 2× web PNG never began")
 	}
 	assert.Equal(t, before, tree(t, dir), "the folder is as the last build left it")
 	stages, _ := filepath.Glob(filepath.Join(filepath.Dir(dir), ".out"+StageMark+"*"))

@@ -277,7 +277,7 @@ func TestBuildDoesNotWaitOnData(t *testing.T) {
 		assert.True(t, specs.IsBadInput(err))
 		assert.Contains(t, err.Error(), "named pipe")
 	case <-time.After(20 * time.Second): // a hang check, not a speed one
-		t.Fatal("Build still running after 20 s")
+		require.FailNow(t, "Build still running after 20 s")
 	}
 }
 

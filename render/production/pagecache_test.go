@@ -46,9 +46,7 @@ func TestPageCacheCoversEncodedPage(t *testing.T) {
 		} else {
 			got = append(got, fmt.Sprintf("[%d]%s", typ.Len(), typ.Elem()))
 		}
-		if g := strings.Join(got, "; "); g != want[typ.String()] {
-			t.Errorf("%s has fields\n  %s\nthe page cache carries\n  %s\nupdate writeCachedPage and decodeCachedPage", typ, g, want[typ.String()])
-		}
+		assert.Equal(t, want[typ.String()], strings.Join(got, "; "), "%s: fields the page cache carries (expected) against the type's (actual); update writeCachedPage and decodeCachedPage", typ)
 	}
 }
 
@@ -133,7 +131,6 @@ func TestPageCacheDamage(t *testing.T) {
 		_, err = decodeCachedPage(bytes.Clone(data[:i]))
 		assert.Error(t, err, "cut after %d bytes", i)
 	}
-	if _, err := decodeCachedPage(append(bytes.Clone(data), 0)); err == nil {
-		t.Error("a byte appended: read without error")
-	}
+	_, err := decodeCachedPage(append(bytes.Clone(data), 0))
+	assert.Error(t, err, "a byte appended: read without error")
 }

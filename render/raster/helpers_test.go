@@ -34,10 +34,8 @@ func writePDF(t *testing.T, pages ...page) string {
 	for _, p := range pages {
 		r := canvas.Rect{X0: 0, Y0: 0, X1: p.w, Y1: p.h}
 		draw := p.draw
-		if err := w.AddPage(pdf.PageSetup{Boxes: pdf.PageBoxes{Media: r, Bleed: r, Trim: r}},
-			func(c *canvas.Canvas) error { return draw(canvas.NewContext(c)) }); err != nil {
-			t.Fatal(err)
-		}
+		require.NoError(t, w.AddPage(pdf.PageSetup{Boxes: pdf.PageBoxes{Media: r, Bleed: r, Trim: r}},
+			func(c *canvas.Canvas) error { return draw(canvas.NewContext(c)) }))
 	}
 	require.NoError(t, w.Close())
 	path := filepath.Join(t.TempDir(), "in.pdf")
@@ -53,9 +51,8 @@ func poppler(t *testing.T, pdfPath string, dpi float64) []image.Image {
 	pdftoppm := tooltest.Require(t, "pdftoppm", "poppler-utils")
 	dir := t.TempDir()
 	cmd := exec.Command(pdftoppm, "-r", strconv.FormatFloat(dpi, 'f', -1, 64), "-png", pdfPath, filepath.Join(dir, "p"))
-	if out, err := cmd.CombinedOutput(); err != nil {
-		t.Fatalf("pdftoppm: %v\n%s", err, out)
-	}
+	out, err := cmd.CombinedOutput()
+	require.NoError(t, err, "pdftoppm: %s", out)
 	files, err := filepath.Glob(filepath.Join(dir, "p-*.png"))
 	require.NoError(t, err)
 	sort.Strings(files) // pdftoppm pads page numbers to one width
@@ -76,9 +73,8 @@ func popplerCrop(t *testing.T, pdfPath string, dpi float64, r image.Rectangle) i
 	cmd := exec.Command(pdftoppm, "-r", strconv.FormatFloat(dpi, 'f', -1, 64), "-f", "1", "-l", "1", "-singlefile",
 		"-x", itoa(r.Min.X), "-y", itoa(r.Min.Y), "-W", itoa(r.Dx()), "-H", itoa(r.Dy()),
 		"-png", pdfPath, filepath.Join(dir, "crop"))
-	if out, err := cmd.CombinedOutput(); err != nil {
-		t.Fatalf("pdftoppm: %v\n%s", err, out)
-	}
+	out, err := cmd.CombinedOutput()
+	require.NoError(t, err, "pdftoppm: %s", out)
 	return tooltest.ReadPNG(t, filepath.Join(dir, "crop.png"))
 }
 

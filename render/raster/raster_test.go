@@ -1,6 +1,7 @@
 package raster_test
 
 import (
+	"fmt"
 	"image"
 	"image/color"
 	"math"
@@ -98,8 +99,9 @@ func TestRectLandsOnPixels(t *testing.T) {
 				img, err = raster.DrawRegion(tc.h, tc.dpi, *tc.region, white, draw)
 			}
 			require.NoError(t, err)
-			require.False(t, img.Bounds() != tc.wantBounds, "image bounds %v, want %v", img.Bounds(), tc.wantBounds)
+			require.Equal(t, tc.wantBounds, img.Bounds(), "image bounds %v, want %v", img.Bounds(), tc.wantBounds)
 			bad := 0
+			var first []string // the first few, to say where
 			for y := img.Bounds().Min.Y; y < img.Bounds().Max.Y; y++ {
 				for x := img.Bounds().Min.X; x < img.Bounds().Max.X; x++ {
 					want := white
@@ -107,12 +109,14 @@ func TestRectLandsOnPixels(t *testing.T) {
 						want = teal
 					}
 					if got := rgba(img, x, y); got != want {
-						assert.False(t, bad < 5, "pixel (%d, %d) = %v, want %v", x, y, got, want)
+						if bad < 5 {
+							first = append(first, fmt.Sprintf("(%d, %d) = %v, want %v", x, y, got, want))
+						}
 						bad++
 					}
 				}
 			}
-			assert.False(t, bad > 0, "%d pixels wrong", bad)
+			assert.Zero(t, bad, "pixels wrong, first %v", first)
 		})
 	}
 }
@@ -143,7 +147,7 @@ func TestRegionOf(t *testing.T) {
 	for _, tc := range tests {
 		t.Run(tc.name, func(t *testing.T) {
 			got := raster.RegionOf(tc.pageH, tc.dpi, tc.x0, tc.y0, tc.x1, tc.y1)
-			assert.False(t, got != tc.want, "RegionOf = %+v, want %+v", got, tc.want)
+			assert.Equal(t, tc.want, got, "RegionOf = %+v, want %+v", got, tc.want)
 		})
 	}
 }
@@ -166,12 +170,9 @@ func TestBadPage(t *testing.T) {
 	for _, tc := range tests {
 		t.Run(tc.name, func(t *testing.T) {
 			_, err := raster.Draw(tc.w, tc.h, tc.dpi, white, func(*canvas.Context) error { return nil })
-			if err == nil {
-				t.Errorf("Draw(%g, %g, %g dpi) gave no error", tc.w, tc.h, tc.dpi)
-			}
+			assert.Error(t, err, "Draw(%g, %g, %g dpi)", tc.w, tc.h, tc.dpi)
 		})
 	}
-	if _, err := raster.DrawRegion(100, 72, raster.Region{W: 0, H: 10}, white, func(*canvas.Context) error { return nil }); err == nil {
-		t.Error("DrawRegion of an empty region gave no error")
-	}
+	_, err := raster.DrawRegion(100, 72, raster.Region{W: 0, H: 10}, white, func(*canvas.Context) error { return nil })
+	assert.Error(t, err, "DrawRegion of an empty region")
 }

@@ -124,7 +124,7 @@ func TestRegionMatchesPoppler(t *testing.T) {
 	for _, tc := range tests {
 		t.Run(tc.name, func(t *testing.T) {
 			pages := poppler(t, path, tc.dpi)
-			require.False(t, len(pages) != 2, "pdftoppm gave %d pages, want 2", len(pages))
+			require.Len(t, pages, 2, "pdftoppm gave %d pages, want 2", len(pages))
 			full := pages[0]
 			r := raster.RegionOf(mixedPage.h, tc.dpi, tc.x0, tc.y0, tc.x1, tc.y1)
 			pix := image.Rect(r.X, r.Y, r.X+r.W, r.Y+r.H)
@@ -132,20 +132,22 @@ func TestRegionMatchesPoppler(t *testing.T) {
 			theirs := tooltest.SubImage(full, pix)
 			// pdftoppm's own crop gives the same pixels as cutting its
 			// full page: the crop rule we copy is poppler's.
-			if m, s := tooltest.CompareImages(popplerCrop(t, path, tc.dpi, pix), theirs, 8); m > 0.05 || s > 0.001 {
-				t.Errorf("pdftoppm -x -y crop differs from its full page cut at %v: mean %.3f, %.3f%% pixels", pix, m, s*100)
-			}
+			m, s := tooltest.CompareImages(popplerCrop(t, path, tc.dpi, pix), theirs, 8)
+			assert.LessOrEqual(t, m, 0.05, "pdftoppm -x -y crop against its full page cut at %v: mean abs diff /255", pix)
+			assert.LessOrEqual(t, s, 0.001, "pdftoppm -x -y crop against its full page cut at %v: share of pixels off by > 8", pix)
 			ours, err := raster.DrawRegion(mixedPage.h, tc.dpi, r, white, mixedPage.draw)
 			require.NoError(t, err)
-			require.False(t, ours.Bounds().Size() != pix.Size(), "DrawRegion gave %v, want %v", ours.Bounds().Size(), pix.Size())
+			require.Equal(t, pix.Size(), ours.Bounds().Size(), "DrawRegion gave %v, want %v", ours.Bounds().Size(), pix.Size())
 			fills, err := raster.DrawRegion(fillsPage.h, tc.dpi, r, white, fillsPage.draw)
 			require.NoError(t, err)
 			tx, ty := centroid(tooltest.SubImage(pages[1], pix))
 			ox, oy := centroid(fills)
 			mean, share := tooltest.CompareImages(ours, theirs, 48)
 			t.Logf("region %+v: centroid off by (%.3f, %.3f) px; mean |Δ| %.3f/255, %.3f%% pixels off by > 48", r, ox-tx, oy-ty, mean, share*100)
-			assert.False(t, math.Abs(ox-tx) > 0.1 || math.Abs(oy-ty) > 0.1, "DrawRegion's drawing sits (%.3f, %.3f) px from poppler's (limit 0.1)", ox-tx, oy-ty)
-			assert.False(t, mean > 2 || share > 0.015, "DrawRegion differs from poppler: mean %.3f/255 (limit 2), %.3f%% pixels off (limit 1.5%%)", mean, share*100)
+			assert.InDelta(t, tx, ox, 0.1, "DrawRegion's drawing: centroid x in px against poppler's")
+			assert.InDelta(t, ty, oy, 0.1, "DrawRegion's drawing: centroid y in px against poppler's")
+			assert.LessOrEqual(t, mean, 2.0, "DrawRegion against poppler: mean abs diff /255")
+			assert.LessOrEqual(t, share, 0.015, "DrawRegion against poppler: share of pixels off by > 48")
 			// Negative control: one pixel off, right or down.
 			for _, d := range []image.Point{{1, 0}, {0, 1}} {
 				rr := raster.Region{X: r.X + d.X, Y: r.Y + d.Y, W: r.W, H: r.H}
@@ -193,17 +195,15 @@ func TestRegionEqualsFullPage(t *testing.T) {
 		part, err := raster.DrawRegion(mixedPage.h, dpi, r, white, mixedPage.draw)
 		require.NoError(t, err)
 		cut := tooltest.SubImage(full, image.Rect(r.X, r.Y, r.X+r.W, r.Y+r.H))
-		if mean, _ := tooltest.CompareImages(part, cut, 8); mean > 0.1 {
-			t.Errorf("region %+v: differs from the full page cut: mean %.3f/255 (limit 0.1)", r, mean)
-		}
+		mean, _ := tooltest.CompareImages(part, cut, 8)
+		assert.LessOrEqual(t, mean, 0.1, "region %+v against the full page cut: mean abs diff /255", r)
 		// canvas's rasterizer clamps what lies left of the image onto its
 		// first column, so a slanted edge crossing the region's edge can
 		// differ there by a few tens of levels (observed); inside, no pixel
 		// may differ by more than 8.
 		in := image.Rect(1, 1, r.W-1, r.H-1)
-		if _, share := tooltest.CompareImages(tooltest.SubImage(part, in), tooltest.SubImage(cut, in), 8); share > 0 {
-			t.Errorf("region %+v: %.3f%% of the pixels inside differ from the full page cut by more than 8/255", r, share*100)
-		}
+		_, share := tooltest.CompareImages(tooltest.SubImage(part, in), tooltest.SubImage(cut, in), 8)
+		assert.Zero(t, share, "region %+v: share of the pixels inside that differ from the full page cut by more than 8/255", r)
 	}
 }
 
@@ -280,9 +280,8 @@ func TestGradientEnds(t *testing.T) {
 			}
 			for _, c := range checks {
 				got := rgba(img, c.col, row)
-				if d := max(absd(got.R, c.want.R), absd(got.G, c.want.G), absd(got.B, c.want.B)); d > 3 {
-					t.Errorf("column %d (%.2f pt): %v, want %v (off by %v)", c.col, float64(c.col+org.X)/k, got, c.want, d)
-				}
+				d := max(absd(got.R, c.want.R), absd(got.G, c.want.G), absd(got.B, c.want.B))
+				assert.LessOrEqual(t, d, 3.0, "column %d (%.2f pt): %v, want %v (largest channel difference)", c.col, float64(c.col+org.X)/k, got, c.want)
 			}
 		})
 	}

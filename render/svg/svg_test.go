@@ -78,9 +78,8 @@ func sampleWith(t testing.TB, opts Options, reg, bold *canvas.Font) []byte {
 	ctx.DrawText(290*mm, 130*mm, canvas.NewTextLine(reg.Face(9, color.RGBA{0x5c, 0x5c, 0x5c, 0xff}), "1868", canvas.Right))
 	ctx.DrawText(150*mm, 110*mm, canvas.NewTextLine(reg.Face(9, canvas.Black), "1900", canvas.Center))
 	var buf bytes.Buffer
-	if _, err := d.WriteTo(&buf); err != nil {
-		t.Fatal(err)
-	}
+	_, err = d.WriteTo(&buf)
+	require.NoError(t, err)
 	return buf.Bytes()
 }
 
@@ -120,9 +119,8 @@ func TestUnits(t *testing.T) {
 	ctx.SetFillColor(canvas.Black)
 	ctx.DrawPath(25.4, 25.4, canvas.Rectangle(25.4, 25.4))
 	var buf bytes.Buffer
-	if _, err := d.WriteTo(&buf); err != nil {
-		t.Fatal(err)
-	}
+	_, err = d.WriteTo(&buf)
+	require.NoError(t, err)
 	s := buf.String()
 	assert.True(t, strings.Contains(s, `width="384" height="288"`), "4 × 3 in should be 384 × 288 px:\n%s", s)
 	pts := pathPoints(t, regexp.MustCompile(`d="([^"]*)"`).FindStringSubmatch(s)[1])
@@ -188,7 +186,7 @@ func pathPoints(t testing.TB, d string) [][2]float64 {
 			cur = [2]float64{cur[0] + num(&i), cur[1] + num(&i)}
 			out = append(out, cur)
 		default:
-			t.Fatalf("path data %q: unexpected command %q", d, cmd)
+			require.FailNow(t, "unexpected path command", "path data %q: unexpected command %q", d, cmd)
 		}
 	}
 	return out
@@ -221,21 +219,18 @@ func TestPathDataRoundTrip(t *testing.T) {
 	ctx.SetStrokeWidth(0.5)
 	ctx.DrawPath(0, 0, p)
 	var buf bytes.Buffer
-	if _, err := d.WriteTo(&buf); err != nil {
-		t.Fatal(err)
-	}
+	_, err = d.WriteTo(&buf)
+	require.NoError(t, err)
 	data := regexp.MustCompile(`d="([^"]*)"`).FindStringSubmatch(buf.String())[1]
 	// The first M, then every segment's end point.
 	got := append([][2]float64{pathPoints(t, data)[0]}, segmentEnds(t, data)...)
-	require.False(t, len(got) != len(ends), "read back %d points, drew %d", len(got), len(ends))
+	require.Len(t, got, len(ends), "read back %d points, drew %d", len(got), len(ends))
 	worst := 0.0
 	for k := range ends {
 		worst = math.Max(worst, math.Hypot(got[k][0]-ends[k][0], got[k][1]-ends[k][1]))
 	}
-	assert.False(t, worst > 0.05*math.Sqrt2+1e-9, "an end point moved %.3f px; rounding to 0.1 px allows %.3f", worst, 0.05*math.Sqrt2)
-	if s := strings.Count(data, "s"); s == 0 {
-		t.Errorf("a C¹ spline should use the s shorthand; path data: %.200s", data)
-	}
+	assert.LessOrEqual(t, worst, 0.05*math.Sqrt2+1e-9, "an end point moved %.3f px; rounding to 0.1 px allows %.3f", worst, 0.05*math.Sqrt2)
+	assert.Positive(t, strings.Count(data, "s"), "a C¹ spline should use the s shorthand; path data: %.200s", data)
 }
 
 // segmentEnds returns the end point of every segment after the first M.
@@ -264,7 +259,7 @@ func segmentEnds(t testing.TB, d string) [][2]float64 {
 			cur = [2]float64{cur[0] + num(&i), cur[1] + num(&i)}
 			out = append(out, cur)
 		default:
-			t.Fatalf("unexpected %q", cmd)
+			require.FailNow(t, "unexpected path command", "unexpected %q", cmd)
 		}
 	}
 	return out
@@ -295,9 +290,7 @@ func TestGradientsAndText(t *testing.T) {
 		{"round caps", `stroke-linecap="round"`, 2},
 	}
 	for _, c := range checks {
-		if n := len(regexp.MustCompile(c.re).FindAllString(s, -1)); n != c.n {
-			t.Errorf("%s: %q found %d times, want %d", c.what, c.re, n, c.n)
-		}
+		assert.Equal(t, c.n, len(regexp.MustCompile(c.re).FindAllString(s, -1)), "%s: times %q is found", c.what, c.re)
 	}
 }
 
@@ -307,7 +300,7 @@ func TestGradientsAndText(t *testing.T) {
 func TestEmbeddedSubset(t *testing.T) {
 	s := string(sample(t, Options{EmbedFonts: true}))
 	m := regexp.MustCompile(`font-weight:(\w+);font-style:normal;src:url\(data:font/ttf;base64,([A-Za-z0-9+/=]+)\)`).FindAllStringSubmatch(s, -1)
-	require.False(t, len(m) != 2, "want 2 @font-face rules (regular and bold), found %d", len(m))
+	require.Len(t, m, 2, "want 2 @font-face rules (regular and bold), found %d", len(m))
 	used := map[string]string{"bold": "Maßstab & <co>", "normal": "18681900"}
 	for _, mm := range m {
 		raw, err := base64.StdEncoding.DecodeString(mm[2])
@@ -320,24 +313,18 @@ func TestEmbeddedSubset(t *testing.T) {
 		// OpenType "head" table: the whole file sums to 0xB1B0AFBA once
 		// checksumAdjustment is in, and the modified date is the font's
 		// own (not the clock: builds must not differ).
-		if sum := checksum(raw); sum != 0xB1B0AFBA {
-			t.Errorf("%s subset: file checksum %#x, want 0xB1B0AFBA", mm[1], sum)
-		}
+		assert.Equal(t, uint32(0xB1B0AFBA), checksum(raw), "%s subset: file checksum (0xB1B0AFBA = 2981146554)", mm[1])
 		orig := goregular.TTF
 		if mm[1] == "bold" {
 			orig = gobold.TTF
 		}
 		of, _ := font.ParseSFNT(orig, 0)
-		assert.False(t, of.Head.Modified != f.Head.Modified, "%s subset: modified %v, the font says %v", mm[1], f.Head.Modified, of.Head.Modified)
-		if n := f.NumGlyphs(); n > 20 {
-			t.Errorf("%s subset has %d glyphs; want only those drawn", mm[1], n)
-		}
+		assert.Equal(t, of.Head.Modified, f.Head.Modified, "%s subset: modified %v, the font says %v", mm[1], f.Head.Modified, of.Head.Modified)
+		assert.LessOrEqual(t, int(f.NumGlyphs()), 20, "%s subset: glyphs; want only those drawn", mm[1])
 	}
 	fam := regexp.MustCompile(`font-family="(` + EmbeddedFamily + `-[0-9a-f]{8}), sans-serif"`).FindStringSubmatch(s)
 	require.False(t, fam == nil, "embedded family (%s-HASH) should lead the font-family list", EmbeddedFamily)
-	if strings.Count(s, `font-family:"`+fam[1]+`"`) != len(m) {
-		t.Errorf("every @font-face should be named %s", fam[1])
-	}
+	assert.Equal(t, len(m), strings.Count(s, `font-family:"`+fam[1]+`"`), "every @font-face should be named %s", fam[1])
 }
 
 // TestDeterministic draws the same thing twice: byte-identical.
@@ -356,34 +343,31 @@ func TestRsvgRenders(t *testing.T) {
 	in := filepath.Join(dir, "s.svg")
 	require.NoError(t, os.WriteFile(in, sample(t, Options{EmbedFonts: true}), 0o644))
 	out, err := exec.Command(rsvg, "-o", filepath.Join(dir, "s.png"), in).CombinedOutput()
-	require.False(t, err != nil || len(out) > 0, "rsvg-convert: %v\n%s", err, out)
+	require.NoError(t, err, "rsvg-convert: %s", out)
+	require.Empty(t, out, "rsvg-convert says something")
 }
 
 // TestBadInput: errors, never panics.
 func TestBadInput(t *testing.T) {
 	for _, wh := range [][2]float64{{0, 10}, {10, -1}, {math.NaN(), 10}, {math.Inf(1), 10}} {
-		if _, err := New(wh[0], wh[1], Options{}); err == nil {
-			t.Errorf("New(%v, %v) should fail", wh[0], wh[1])
-		}
+		_, err := New(wh[0], wh[1], Options{})
+		assert.Error(t, err, "New(%v, %v)", wh[0], wh[1])
 	}
 	d, _ := New(10, 10, Options{})
 	d.EndGroup()
-	if _, err := d.WriteTo(&bytes.Buffer{}); err == nil {
-		t.Error("EndGroup without BeginGroup should be reported")
-	}
+	_, err := d.WriteTo(&bytes.Buffer{})
+	assert.Error(t, err, "EndGroup without BeginGroup should be reported")
 	d, _ = New(10, 10, Options{})
 	d.BeginGroup("a", "t", "")
-	if _, err := d.WriteTo(&bytes.Buffer{}); err == nil {
-		t.Error("an open group should be reported")
-	}
+	_, err = d.WriteTo(&bytes.Buffer{})
+	assert.Error(t, err, "an open group should be reported")
 	d, _ = New(10, 10, Options{})
 	d.BeginGroup("a", "t", "")
 	d.EndGroup()
 	d.BeginGroup("a", "t", "")
 	d.EndGroup()
-	if _, err := d.WriteTo(&bytes.Buffer{}); err == nil {
-		t.Error("a repeated id should be reported")
-	}
+	_, err = d.WriteTo(&bytes.Buffer{})
+	assert.Error(t, err, "a repeated id should be reported")
 }
 
 // TestNumbers checks the number formats against the SVG path grammar
@@ -398,9 +382,7 @@ func TestNumbers(t *testing.T) {
 		{0, false, "0"}, {0, true, "0"}, {5, false, "0.5"}, {5, true, ".5"}, {-5, true, "-.5"},
 		{123, true, "12.3"}, {-120, false, "-12"}, {10, true, "1"},
 	} {
-		if got := string(appendTenths(nil, c.tenths, c.compact)); got != c.want {
-			t.Errorf("appendTenths(%d, %v) = %q, want %q", c.tenths, c.compact, got, c.want)
-		}
+		assert.Equal(t, c.want, string(appendTenths(nil, c.tenths, c.compact)), "appendTenths(%d, %v)", c.tenths, c.compact)
 	}
 	var b bytes.Buffer
 	w := pathWriter{b: &b}
@@ -408,7 +390,5 @@ func TestNumbers(t *testing.T) {
 	for _, n := range []int64{15, -20, 5, 5, 30, 2} {
 		w.num(n)
 	}
-	if got, want := b.String(), "M1.5-2 .5.5 3 .2"; got != want {
-		t.Errorf("packed %q, want %q", got, want)
-	}
+	assert.Equal(t, "M1.5-2 .5.5 3 .2", b.String(), "packed path data")
 }

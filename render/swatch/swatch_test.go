@@ -8,7 +8,6 @@ import (
 	"image/png"
 	"math"
 	"os"
-	"strings"
 	"testing"
 
 	"github.com/stretchr/testify/assert"
@@ -62,32 +61,24 @@ func TestSheetShowsThePalette(t *testing.T) {
 	s, r := sheet(t, nil, "#fbf8f1", 0.75)
 	img, data := render(t, s, r, dpi)
 	wantW, wantH := math.Round(Width*dpi/25.4), math.Round(Height*dpi/25.4)
-	if w, h := img.Bounds().Dx(), img.Bounds().Dy(); float64(w) != wantW || float64(h) != wantH {
-		t.Errorf("image %d × %d px", w, h)
-	}
+	assert.Equal(t, [2]float64{wantW, wantH}, [2]float64{float64(img.Bounds().Dx()), float64(img.Bounds().Dy())}, "image size in px")
 	if *look != "" {
 		require.NoError(t, os.WriteFile(*look, data, 0o644))
 	}
 	// Paper colour in the corner, exactly.
-	if got := px(img, dpi, 2, 2).Hex(); got != "#fbf8f1" {
-		t.Errorf("paper %s", got)
-	}
+	assert.Equal(t, "#fbf8f1", px(img, dpi, 2, 2).Hex(), "paper")
 	// The key strip shows the scale's colour at each year (slices are
 	// 0.5 mm, under half a year, so within ΔE00 1 of the exact colour).
 	for _, year := range []float64{1870, 1900, 1946.5, 2000, 2023} {
 		x := margin + inner*(year-1868)/(2025-1868)
 		got := px(img, dpi, x, mainStripY)
-		if d := got.DeltaE00(s.At(year).Clip()); d > 1 {
-			t.Errorf("strip at %v: %s, scale %s (ΔE00 %.2f)", year, got.Hex(), s.At(year).Hex(), d)
-		}
+		assert.LessOrEqual(t, got.DeltaE00(s.At(year).Clip()), 1.0, "strip at %v: %s, scale %s (ΔE00)", year, got.Hex(), s.At(year).Hex())
 		// Each deficiency column shows the simulated colour.
 		for i, def := range palette.Deficiencies() {
 			cx := margin + float64(i)*(colWidth+gap) + colWidth*(year-1868)/(2025-1868)
 			got := px(img, dpi, cx, cvdStripY)
 			want := palette.Simulate(s.At(year), def)
-			if d := got.DeltaE00(want); d > 1 {
-				t.Errorf("%v strip at %v: %s, simulation %s (ΔE00 %.2f)", def, year, got.Hex(), want.Hex(), d)
-			}
+			assert.LessOrEqual(t, got.DeltaE00(want), 1.0, "%v strip at %v: %s, simulation %s (ΔE00)", def, year, got.Hex(), want.Hex())
 		}
 	}
 }
@@ -99,9 +90,7 @@ func TestErasAreFlat(t *testing.T) {
 	for _, e := range s.Eras() {
 		mid := (e.From + e.To) / 2
 		x := margin + inner*(mid-1868)/(2025-1868)
-		if got, want := px(img, dpi, x, mainStripY).Hex(), e.Color.Hex(); got != want {
-			t.Errorf("era %s drawn %s, want %s", e.Label(), got, want)
-		}
+		assert.Equal(t, e.Color.Hex(), px(img, dpi, x, mainStripY).Hex(), "era %s drawn", e.Label())
 	}
 }
 
@@ -138,25 +127,17 @@ func TestCurveLineWidth(t *testing.T) {
 		t.Logf("%v pt: %d px solid, nominal %.1f", width, best, want)
 		// Solid core of an anti-aliased, slightly sloped stroke: within 2 px
 		// below and 15% above the nominal width.
-		assert.False(t, float64(best) < want-2 || float64(best) > want*1.15+0.5, "%v pt line: %d px of solid ink, want about %.1f", width, best, want)
+		assert.True(t, float64(best) >= want-2 && float64(best) <= want*1.15+0.5, "%v pt line: %d px of solid ink, want about %.1f", width, best, want)
 	}
 }
 
 func TestDrawErrors(t *testing.T) {
 	s, r := sheet(t, nil, "#ffffff", 1)
-	if err := Draw(canvas.New(100, 100), s, r); err == nil || !strings.Contains(err.Error(), "smaller than the sheet") {
-		t.Errorf("small canvas: %v", err)
-	}
-	if err := Draw(canvas.New(Width, Height), palette.Scale{}, r); err == nil || !strings.Contains(err.Error(), "no span") {
-		t.Errorf("empty scale: %v", err)
-	}
-	if err := Draw(canvas.New(Width, Height), s, palette.Report{}); err == nil || !strings.Contains(err.Error(), "run palette.Check") {
-		t.Errorf("empty report: %v", err)
-	}
+	assert.ErrorContains(t, Draw(canvas.New(100, 100), s, r), "smaller than the sheet", "small canvas")
+	assert.ErrorContains(t, Draw(canvas.New(Width, Height), palette.Scale{}, r), "no span", "empty scale")
+	assert.ErrorContains(t, Draw(canvas.New(Width, Height), s, palette.Report{}), "run palette.Check", "empty report")
 	for _, dpi := range []float64{0, -1, math.NaN(), 1e6} {
-		if err := WritePNG(&bytes.Buffer{}, s, r, dpi); err == nil || !strings.Contains(err.Error(), "dpi") {
-			t.Errorf("dpi %v: %v", dpi, err)
-		}
+		assert.ErrorContains(t, WritePNG(&bytes.Buffer{}, s, r, dpi), "dpi", "dpi %v", dpi)
 	}
 }
 

@@ -6,6 +6,7 @@ import (
 	"testing"
 
 	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
 )
 
 // recorder stands in for a test so RequireFile's skip and failure can be
@@ -22,9 +23,7 @@ func (r *recorder) Fatalf(string, ...any) { r.failed = true }
 func TestRequireFile(t *testing.T) {
 	dir := t.TempDir()
 	file := filepath.Join(dir, "words")
-	if err := os.WriteFile(file, []byte("gear\n"), 0o644); err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, os.WriteFile(file, []byte("gear\n"), 0o644))
 	tests := []struct {
 		name          string
 		path, require string

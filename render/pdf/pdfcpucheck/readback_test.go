@@ -6,7 +6,6 @@ package pdfcpucheck
 
 import (
 	"bytes"
-	"math"
 	"os"
 	"testing"
 	"time"
@@ -104,7 +103,8 @@ func readStrict(t *testing.T, b []byte) *model.Context {
 func dict(t *testing.T, ctx *model.Context, o types.Object) types.Dict {
 	t.Helper()
 	d, err := ctx.DereferenceDict(o)
-	require.False(t, err != nil || d == nil, "dereference %v: %v", o, err)
+	require.NoError(t, err, "dereference %v", o)
+	require.NotNil(t, d, "dereference %v", o)
 	return d
 }
 
@@ -124,13 +124,16 @@ func readBack(t *testing.T, cond *press.Condition) {
 	doc := documentFor(t, pages, cond)
 	ctx := readStrict(t, doc)
 
-	assert.False(t, ctx.PageCount != pages, "page count %d, want %d", ctx.PageCount, pages)
+	assert.Equal(t, pages, ctx.PageCount, "page count %d, want %d", ctx.PageCount, pages)
 	want := boxes()
 	pbs, err := ctx.PageBoundaries(nil)
 	require.NoError(t, err)
-	near := func(r *types.Rectangle, w canvas.Rect) bool {
-		return r != nil && math.Abs(r.LL.X-w.X0) < 0.01 && math.Abs(r.LL.Y-w.Y0) < 0.01 &&
-			math.Abs(r.UR.X-w.X1) < 0.01 && math.Abs(r.UR.Y-w.Y1) < 0.01
+	// val reads a name or string entry; "" when it is missing.
+	val := func(p *string) string {
+		if p == nil {
+			return ""
+		}
+		return *p
 	}
 	for i, pb := range pbs {
 		// ISO 32000-1 §14.11.2: boxes as asked, CropBox = MediaBox here.
@@ -139,38 +142,34 @@ func readBack(t *testing.T, cond *press.Condition) {
 			box  *model.Box
 			want canvas.Rect
 		}{{"MediaBox", pb.Media, want.Media}, {"CropBox", pb.Crop, want.Media}, {"BleedBox", pb.Bleed, want.Bleed}, {"TrimBox", pb.Trim, want.Trim}} {
-			if c.box == nil || !near(c.box.Rect, c.want) {
-				t.Errorf("page %d %s = %v, want %v (±0.01 pt)", i+1, c.name, c.box, c.want)
+			if !assert.True(t, c.box != nil && c.box.Rect != nil, "page %d has no %s", i+1, c.name) {
+				continue
 			}
+			r := c.box.Rect
+			assert.InDeltaSlice(t, []float64{c.want.X0, c.want.Y0, c.want.X1, c.want.Y1}, []float64{r.LL.X, r.LL.Y, r.UR.X, r.UR.Y}, 0.01, "page %d %s (pt)", i+1, c.name)
 		}
 		// PDF/X: TrimBox or ArtBox, not both (print-facts.md, PDF/X-4).
 		d, _, _, err := ctx.PageDict(i+1, false)
 		require.NoError(t, err)
-		if _, ok := d.Find("ArtBox"); ok {
-			t.Errorf("page %d has an ArtBox besides its TrimBox", i+1)
-		}
+		_, ok := d.Find("ArtBox")
+		assert.False(t, ok, "page %d has an ArtBox besides its TrimBox", i+1)
 		// every font embedded (PDF/X-4, print-facts.md)
 		res := dict(t, ctx, d["Resources"])
 		fonts := dict(t, ctx, res["Font"])
-		assert.False(t, len(fonts) < 2, "page %d has %d fonts, want the two test fonts", i+1, len(fonts))
+		assert.GreaterOrEqual(t, len(fonts), 2, "page %d has %d fonts, want the two test fonts", i+1, len(fonts))
 		for name, f := range fonts {
 			fd := dict(t, ctx, f)
-			if st := fd.NameEntry("Subtype"); st == nil || *st != "Type0" {
-				t.Errorf("font %s subtype %v, want Type0", name, st)
-			}
-			if _, ok := fd.Find("ToUnicode"); !ok {
-				t.Errorf("font %s has no ToUnicode", name)
-			}
+			assert.Equal(t, "Type0", val(fd.NameEntry("Subtype")), "font %s subtype", name)
+			_, ok := fd.Find("ToUnicode")
+			assert.True(t, ok, "font %s has no ToUnicode", name)
 			arr, err := ctx.DereferenceArray(fd["DescendantFonts"])
-			require.False(t, err != nil || len(arr) != 1, "font %s descendants: %v", name, err)
+			require.NoError(t, err, "font %s descendants", name)
+			require.Len(t, arr, 1, "font %s descendants", name)
 			cid := dict(t, ctx, arr[0])
-			if st := cid.NameEntry("Subtype"); st == nil || *st != "CIDFontType2" {
-				t.Errorf("font %s descendant %v, want CIDFontType2", name, st)
-			}
+			assert.Equal(t, "CIDFontType2", val(cid.NameEntry("Subtype")), "font %s descendant subtype", name)
 			desc := dict(t, ctx, cid["FontDescriptor"])
-			if _, ok := desc.Find("FontFile2"); !ok {
-				t.Errorf("font %s is not embedded (no FontFile2)", name)
-			}
+			_, ok = desc.Find("FontFile2")
+			assert.True(t, ok, "font %s is not embedded (no FontFile2)", name)
 		}
 	}
 
@@ -178,36 +177,27 @@ func readBack(t *testing.T, cond *press.Condition) {
 	require.NoError(t, err)
 	if cond == nil {
 		// An RGB file makes no PDF/X claim: no output intent.
-		if _, ok := root.Find("OutputIntents"); ok {
-			t.Error("an RGB document has OutputIntents")
-		}
+		_, ok := root.Find("OutputIntents")
+		assert.False(t, ok, "an RGB document has OutputIntents")
 	} else {
 		ois, err := ctx.DereferenceArray(root["OutputIntents"])
-		require.False(t, err != nil || len(ois) != 1, "OutputIntents %v (%v); PDF/X-4 wants exactly one", ois, err)
+		require.NoError(t, err, "OutputIntents")
+		require.Len(t, ois, 1, "OutputIntents: PDF/X-4 wants exactly one")
 		oi := dict(t, ctx, ois[0])
-		if s := oi.NameEntry("S"); s == nil || *s != "GTS_PDFX" {
-			t.Errorf("output intent S = %v, want GTS_PDFX", s)
-		}
-		if _, ok := oi.Find("DestOutputProfile"); !ok {
-			t.Error("output intent has no DestOutputProfile")
-		}
-		if id := oi.StringEntry("OutputConditionIdentifier"); id == nil || *id == "" {
-			t.Error("output intent has no OutputConditionIdentifier")
-		}
+		assert.Equal(t, "GTS_PDFX", val(oi.NameEntry("S")), "output intent S")
+		_, ok := oi.Find("DestOutputProfile")
+		assert.True(t, ok, "output intent has no DestOutputProfile")
+		assert.NotEmpty(t, val(oi.StringEntry("OutputConditionIdentifier")), "output intent has no OutputConditionIdentifier")
 	}
-	if _, ok := root.Find("Metadata"); !ok {
-		t.Error("catalog has no Metadata (XMP)")
-	}
+	_, ok := root.Find("Metadata")
+	assert.True(t, ok, "catalog has no Metadata (XMP)")
 	info := dict(t, ctx, *ctx.Info)
-	if tr := info.NameEntry("Trapped"); tr == nil || *tr != "False" {
-		t.Errorf("Info /Trapped = %v, want /False (PDF/X-4 wants True or False)", tr)
-	}
+	assert.Equal(t, "False", val(info.NameEntry("Trapped")), "Info /Trapped (PDF/X-4 wants True or False)")
 	for _, k := range []string{"Title", "CreationDate", "ModDate", "Producer"} {
-		if _, ok := info.Find(k); !ok {
-			t.Errorf("Info has no %s", k)
-		}
+		_, ok := info.Find(k)
+		assert.True(t, ok, "Info has no %s", k)
 	}
-	assert.False(t, len(ctx.ID) != 2, "trailer /ID = %v, want two strings (required by PDF/X)", ctx.ID)
+	assert.Len(t, ctx.ID, 2, "trailer /ID = %v, want two strings (required by PDF/X)", ctx.ID)
 }
 
 // TestCachedPageValidates: a page that went through encoding/gob and
