@@ -76,7 +76,7 @@ type labelBreak struct {
 
 // labelBreaks lists where text may break: at a space (dropped), and after
 // a hyphen or slash that joins two letters or digits ("non-destructive",
-// "AC/DC"), which stays at the end of its line. Never inside a word
+// "AC/DC"; never before a digit), which stays at the end of its line. Never inside a word
 // otherwise: a term broken mid-word reads as two terms (common practice
 // for display type: no hyphenation in labels).
 func labelBreaks(text string) []labelBreak {
@@ -91,7 +91,9 @@ func labelBreaks(text string) []labelBreak {
 			}
 		case r == '-' || r == '\u2010' || r == '/':
 			next, _ := utf8.DecodeRuneInString(text[i+w:])
-			if isWordRune(prev) && isWordRune(next) {
+			// Before a digit it is a minus sign, a range or a fraction:
+			// it stays with its number (UAX #14, LB25).
+			if isWordRune(prev) && unicode.IsLetter(next) {
 				bs = append(bs, labelBreak{end: i + w, next: i + w, soft: true})
 			}
 		}
