@@ -66,7 +66,7 @@ func TestLabelBreaks(t *testing.T) {
 		{"non-destructive", []string{"non-|destructive"}},
 		{"computer-aided design", []string{"computer-|aided design", "computer-aided|design"}},
 		{"AC/DC motor", []string{"AC/|DC motor", "AC/DC|motor"}},
-		{"B-52", nil},          // UAX #14 LB25: no break between a hyphen and a digit after it
+		{"B-52", nil}, // UAX #14 LB25: no break between a hyphen and a digit after it
 		{"-40 degrees", []string{"-40|degrees"}},
 		{"wire - rope", []string{"wire|- rope", "wire -|rope"}}, // a spaced hyphen is no joint
 		{"e\u2010scooter", []string{"e\u2010|scooter"}},         // U+2010 HYPHEN (UAX #14 class BA)
@@ -134,10 +134,10 @@ func TestLabelsWrap(t *testing.T) {
 	tests := []struct {
 		name   string
 		term   string
-		lines  int                        // label-lines
-		width  func() float64             // panel width
-		want   []string                   // lines; nil: one line
-		shrunk bool                       // set below the label size
+		lines  int                         // label-lines
+		width  func() float64              // panel width
+		want   []string                    // lines; nil: one line
+		shrunk bool                        // set below the label size
 		check  func(t *testing.T, l Label) // more
 	}{
 		{name: "fits: untouched", term: "steam hammer", lines: 2,
