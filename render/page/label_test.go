@@ -151,6 +151,13 @@ func TestLabelsWrap(t *testing.T) {
 		{name: "a space before a hyphen", term: "computer-aided design", lines: 2,
 			width: func() float64 { return max(W("computer-aided"), peak+W("aided design")) + 0.5 },
 			want:  []string{"computer-aided", "design"}},
+		{name: "a space before a hyphen, even on a shorter first line", term: "check non-return", lines: 2,
+			width: func() float64 { return max(W("check non-"), peak+W("non-return")) + 0.5 },
+			want:  []string{"check", "non-return"},
+			check: func(t *testing.T, l Label) {
+				require.Greater(t, peak+W("non-return"), W("check"), "test setup")
+				require.Less(t, peak+W("return"), f.Plan.PanelW, "test setup: a break after the hyphen fits too")
+			}},
 		{name: "after a hyphen when no space does", term: "non-destructive", lines: 2,
 			width: func() float64 { return max(W("non-"), peak+W("destructive")) + 0.5 },
 			want:  []string{"non-", "destructive"}},
