@@ -130,6 +130,11 @@ func TestLabelFindings(t *testing.T) {
 			map[string]string{IDLabelShrunk: "fits its panel without its peak year beside it (the dot marks the peak)"}},
 		{"cut", page.Label{Size: 5, Truncated: true, Text: "boi…"},
 			map[string]string{IDLabelCut: `does not fit its panel: cut to "boi…" at 5 pt`}},
+		{"wrapped", page.Label{Size: size, Lines: []string{"boiler", "house"}},
+			map[string]string{IDLabelWrap: `set on 2 lines to fit its panel: "boiler / house"`}},
+		{"wrapped and shrunk", page.Label{Size: 5.5, Shrunk: true, Lines: []string{"boiler", "house"}},
+			map[string]string{IDLabelWrap: `set on 2 lines to fit its panel: "boiler / house"`,
+				IDLabelShrunk: "set at 5.5 pt instead of " + num(size) + " pt to fit its panel"}},
 		{"shrunk below the floor", page.Label{Size: 4.5, Shrunk: true},
 			map[string]string{IDLabelShrunk: "set at 4.5 pt instead of " + num(size) + " pt to fit its panel",
 				IDTypeFloor: "label shrunk to 4.5 pt, below the 5 pt floor"}},
@@ -141,7 +146,7 @@ func TestLabelFindings(t *testing.T) {
 			l.Item, l.Term = 0, "boiler"
 			in.Labels = []page.Label{l}
 			fs := check(t, in)
-			for _, id := range []string{IDLabelShrunk, IDLabelCut, IDTypeFloor} {
+			for _, id := range []string{IDLabelShrunk, IDLabelCut, IDTypeFloor, IDLabelWrap} {
 				got := only(fs, id)
 				msg, want := tt.want[id]
 				if !want {
