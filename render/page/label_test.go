@@ -428,3 +428,22 @@ func TestWrappedLabelDrawn(t *testing.T) {
 		assert.Less(t, ys[0], ys[1], "the first line above the second (SVG y grows down)")
 	})
 }
+
+// TestWrapFallsBack: when a row with a two-line label band no longer fits
+// (here a fixed panel height whose plot would fall under the legibility
+// floor, 3 × the label size), the output keeps its one-line plan, the
+// labels shrink on one line as before, and the plan warns at label-lines.
+func TestWrapFallsBack(t *testing.T) {
+	la := 7 * 1.25
+	f := wrapFeature(t, []string{"reinforced concrete", "boiler", "Maßstab"}, func(out *specs.Output) {
+		out.Type.Leading = 1.25
+		out.PanelHeight = specs.Length(la + 3*7 + 1) // one line: plot 22 pt ≥ 21; two: 13.25
+	})
+	assert.Equal(t, 1, f.Plan.LabelLines, "the one-line plan stays")
+	l := f.Labels()[0]
+	assert.Nil(t, l.Lines, "no room to wrap: one line")
+	assert.True(t, l.Shrunk || l.NoPeak || l.Truncated, "made to fit on one line")
+	i := slices.IndexFunc(f.Plan.Warnings, func(w layout.Warning) bool { return w.Key == "label-lines" })
+	require.GreaterOrEqual(t, i, 0, "a warning at label-lines: %v", f.Plan.Warnings)
+	assert.Contains(t, f.Plan.Warnings[i].Message, "shrunk on one instead")
+}

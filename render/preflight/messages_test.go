@@ -110,6 +110,21 @@ func TestLayoutWarnings(t *testing.T) {
 	assert.Equal(t, Finding{ID: IDLayout, Severity: Warning, Output: "print", Message: "no position"}, got[1])
 }
 
+// TestLabelBandRefused: the layout's note that labels could not wrap (no
+// room for a taller label band; render/feature) is no fault — the labels
+// are set as before — so it is an info under label-wrapped, not a layout
+// warning that would stop a strict build.
+func TestLabelBandRefused(t *testing.T) {
+	in := prepareInput(t, specText("", ""))
+	in.Plan.Warnings = append(in.Plan.Warnings,
+		layout.Warning{Key: "label-lines", Pos: specs.Pos{File: "spec.yaml", Line: 12, Col: 5}, Message: "labels that would wrap onto 2 lines are shrunk on one instead"})
+	fs := check(t, in)
+	assert.Empty(t, only(fs, IDLayout), list(fs))
+	got := only(fs, IDLabelWrap)
+	require.Len(t, got, 1, list(fs))
+	assert.Equal(t, Finding{ID: IDLabelWrap, Severity: Info, Output: "print", At: "spec.yaml:12:5", Message: "labels that would wrap onto 2 lines are shrunk on one instead"}, got[0])
+}
+
 // TestLabelFindings: each way a label was fitted (page.Label) and what
 // preflight says about it, with its page and term. The print label size
 // of specText's output is the default; floors as above.

@@ -367,6 +367,13 @@ func (c *checker) layout() {
 		if w.Pos.File != "" {
 			at = w.Pos.String()
 		}
+		// Labels that could not wrap (no room for a taller label band)
+		// are set as before, shrunk on one line: for the record, with the
+		// wrapped ones, not a fault.
+		if w.Key == "label-lines" {
+			c.add(Finding{ID: IDLabelWrap, Severity: Info, At: at, Message: w.Message})
+			continue
+		}
 		c.add(Finding{ID: IDLayout, Severity: Warning, At: at, Message: w.Message})
 	}
 }
