@@ -311,7 +311,8 @@ type Output struct {
 	PanelBank bool
 
 	// LabelLines is the most lines a panel's label may wrap to at its full
-	// size before it shrinks (spec label-lines; 1: labels never wrap).
+	// size before it shrinks (spec label-lines, 2 by default; 0 or 1:
+	// labels never wrap).
 	LabelLines int
 	// LabelBand is how many label lines the layout reserves above every
 	// plot of the output (0 or 1: one). It is not read from the spec:

@@ -180,6 +180,12 @@ func TestLabelsWrap(t *testing.T) {
 		{name: "three lines when allowed", term: "heat pump water heater", lines: 3,
 			width: func() float64 { return max(W("heat pump"), W("water"), peak+W("heater")) + 0.5 },
 			want:  []string{"heat pump", "water", "heater"}},
+		{name: "a single word too wide even alone is cut on one line", term: "electrophotographically", lines: 2,
+			width: func() float64 { return widthOf(f, floor, "electrophoto…") + 0.1 }, shrunk: true,
+			check: func(t *testing.T, l Label) {
+				require.True(t, l.Truncated && l.NoPeak, "cut, without the peak")
+				assert.Equal(t, "electrophoto…", l.Text)
+			}},
 		{name: "cut on the last line", term: "hydrogen economy electrophotographically", lines: 2,
 			width: func() float64 { return widthOf(f, floor, "hydrogen economy") + 0.5 }, shrunk: true,
 			want: []string{"hydrogen economy", "electrophotograp…"},
