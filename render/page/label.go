@@ -107,9 +107,9 @@ func isWordRune(r rune) bool { return unicode.IsLetter(r) || unicode.IsDigit(r) 
 // breakLabel sets text at size on at most n lines in room, or returns nil
 // when it does not fit. It takes the fewest lines; for a given number of
 // lines, breaks at spaces before breaks after a hyphen or slash; for a
-// given kind, the longest first line (then second, …) whose rest still
-// fits: lines read as far as they can before turning, and the last line,
-// which shares the panel with the peak text, is the shortest.
+// given kind, the longest first line (then second, …): lines read as far
+// as they can before turning, and the last line, which shares the panel
+// with the peak text, is the shortest.
 func (f *Feature) breakLabel(text string, size float64, n int, room labelRoom) []string {
 	width := func(s string) float64 { return f.Fonts.Width(fonts.Bold, size, s) }
 	if width(text) <= room.last {
@@ -142,9 +142,14 @@ func (f *Feature) breakLabel(text string, size float64, n int, room labelRoom) [
 			if width(line) > room.other {
 				continue
 			}
+			// The longest first line that fits: when the rest cannot be
+			// set after it, it cannot after a shorter one either (a longer
+			// rest), so greedy filling finds the fewest lines and the
+			// search stays linear in the breaks, for any term.
 			if r := set(bs, b.next, left-1); r != nil {
 				return append([]string{line}, r...)
 			}
+			return nil
 		}
 		return nil
 	}
