@@ -35,13 +35,17 @@ type Plan struct {
 
 	// Panel sizes, the same for every panel of the output. A panel is its
 	// label area over its plot; the tick-label area is below the plot.
-	PanelW float64 `json:"panel_w"`
-	PanelH float64 `json:"panel_h"`
-	LabelH float64 `json:"label_h"`
-	PlotH  float64 `json:"plot_h"`
-	TicksH float64 `json:"ticks_h"`
-	Gutter float64 `json:"gutter"`
-	RowGap float64 `json:"row_gap"`
+	// The label area holds LabelLines lines of the label size (more than
+	// one when some label of the output wraps); a panel's LabelBaseline
+	// is that of the last, next to the plot.
+	PanelW     float64 `json:"panel_w"`
+	PanelH     float64 `json:"panel_h"`
+	LabelH     float64 `json:"label_h"`
+	LabelLines int     `json:"label_lines"`
+	PlotH      float64 `json:"plot_h"`
+	TicksH     float64 `json:"ticks_h"`
+	Gutter     float64 `json:"gutter"`
+	RowGap     float64 `json:"row_gap"`
 
 	// Crop marks (print with marks on): each mark runs along a trim edge's
 	// line, from MarkOffset to MarkOffset+MarkLength outside the trim.
@@ -156,7 +160,7 @@ type Panel struct {
 	Row           int     `json:"row"`   // row on its page, from the top, from 0
 	Col           int     `json:"col"`
 	Label         Rect    `json:"label"`
-	LabelBaseline float64 `json:"label_baseline"`
+	LabelBaseline float64 `json:"label_baseline"` // of the label's last line, next to the plot
 	Plot          Rect    `json:"plot"`
 	Ticks         Rect    `json:"ticks,omitzero"` // set when ShowTicks
 	ShowTicks     bool    `json:"show_ticks"`

@@ -73,7 +73,7 @@ func (s *solver) place(groups []Group, fills []pageFill, balanced bool) *Plan {
 
 	plan := &Plan{
 		Output: o.Name, Kind: o.Kind, Columns: s.n,
-		PanelW: s.colW, PanelH: s.la + s.plotH, LabelH: s.la, PlotH: s.plotH, TicksH: s.ta,
+		PanelW: s.colW, PanelH: s.lb + s.plotH, LabelH: s.lb, LabelLines: s.labelLines, PlotH: s.plotH, TicksH: s.ta,
 		Gutter: s.gutter, RowGap: s.rowGap,
 		MarkOffset: s.markOff, MarkLength: s.markLen,
 		Pages:    make([]Page, len(fills)),
@@ -174,8 +174,11 @@ func (s *solver) placePage(pg *Page, i int, trimH float64, f pageFill, extra flo
 	// Below a panel whose column is empty in the next row, the tick labels
 	// go into that empty cell; that needs the tick area to fit there.
 	ticksBelowFit := s.ta <= s.rowGap+extra+s.rowH+eps
-	// Baselines sit a fixed distance below their line box's top.
-	labelBase := s.fs.Baseline(fonts.Regular, s.label, s.lead, 0)
+	// Baselines sit a fixed distance below their line box's top. A label
+	// band of several lines has its baseline in the last line box, next to
+	// the plot: a label that fits on one line sits on it, and one that
+	// wraps rises into the lines above.
+	labelBase := s.fs.Baseline(fonts.Regular, s.label, s.lead, 0) - float64(s.labelLines-1)*s.la
 	headBase := s.fs.Baseline(fonts.Bold, s.heading, s.lead, 0)
 	kb := s.keyBandH()
 	k, heads, ended, keys := 0, 0, 0, 0
@@ -217,9 +220,9 @@ func (s *solver) placePage(pg *Page, i int, trimH float64, f pageFill, extra flo
 				px0 := s.colX(live, c)
 				p := Panel{
 					Item: item, Group: b.group, Row: k, Col: c,
-					Label:         Rect{px0, top - s.la, px0 + s.colW, top},
+					Label:         Rect{px0, top - s.lb, px0 + s.colW, top},
 					LabelBaseline: top + labelBase,
-					Plot:          Rect{px0, top - s.la - s.plotH, px0 + s.colW, top - s.la},
+					Plot:          Rect{px0, top - s.lb - s.plotH, px0 + s.colW, top - s.lb},
 				}
 				lastInCol := item+s.n >= bEnd
 				p.ShowTicks = s.every || (lastInCol && (r == b.rows-1 || ticksBelowFit))

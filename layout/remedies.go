@@ -53,7 +53,7 @@ func (s *solver) fewerColumns(m int) (Remedy, bool) {
 	}
 	// The tallest plot a page holds: its grid less a row's label and tick
 	// areas and a group heading.
-	maxPlot := min(s.gridH1, s.gridHn) - s.la - s.ta
+	maxPlot := min(s.gridH1, s.gridHn) - s.lb - s.ta
 	if s.headings {
 		maxPlot -= s.hh
 	}

@@ -87,6 +87,10 @@ type solver struct {
 	label, ticks, key, folio   float64
 	title, dek, notes, heading float64
 	la, ta, gap, hh            float64
+	// labelLines and lb: the label lines reserved above every plot
+	// (out.LabelBand, at least one) and their height, lines × la.
+	labelLines int
+	lb         float64
 
 	titleLines, dekLines, runLines, sourceLines  []string
 	noteLines                                    [][]string
@@ -221,6 +225,8 @@ func (s *solver) readOutput() error {
 	}
 	s.la, s.ta = s.label*s.lead, s.ticks*s.lead
 	s.gap = s.la // bands are a blank label line apart
+	s.labelLines = max(1, o.LabelBand)
+	s.lb = float64(s.labelLines) * s.la
 	s.hh = s.heading * s.lead
 	s.every = o.Ticks == specs.TicksEveryPanel
 	if s.scroll {
@@ -507,12 +513,12 @@ func (s *solver) rows() error {
 	g := s.gutter
 	switch {
 	case o.PanelHeight > 0:
-		s.plotH = o.PanelHeight.Pt() - s.la
+		s.plotH = o.PanelHeight.Pt() - s.lb
 		if s.plotH < s.floorH-eps {
-			v := u.up(s.la + s.floorH)
+			v := u.up(s.lb + s.floorH)
 			return s.infeasible("panel.height", "plot height", s.floorH, s.plotH,
 				fmt.Sprintf("panels %s tall leave %s for the plot under a %s label; the legibility floor is %s (%s)",
-					u.len(o.PanelHeight.Pt()), u.len(s.plotH), u.len(s.la), u.len(s.floorH), s.floorText()),
+					u.len(o.PanelHeight.Pt()), u.len(s.plotH), u.len(s.lb), u.len(s.floorH), s.floorText()),
 				Remedy{Text: "a panel height of " + u.len(v), Set: []Setting{{"panel.height", v}}})
 		}
 	case o.PanelAspect > 0:
@@ -572,7 +578,7 @@ func (s *solver) rows() error {
 	var r []Remedy
 	switch {
 	case o.PanelHeight > 0:
-		if v := u.down(o.PanelHeight.Pt() - d); v-s.la >= s.floorH-eps {
+		if v := u.down(o.PanelHeight.Pt() - d); v-s.lb >= s.floorH-eps {
 			r = append(r, Remedy{Text: "a panel height of " + u.len(v), Set: []Setting{{"panel.height", v}}})
 		}
 	default:
@@ -623,7 +629,7 @@ func (s *solver) heightKey() string {
 // last row of each block (a page's run of one group), which is the only
 // row that needs it — the panels stay the same size either way.
 func (s *solver) setRowH() {
-	s.rowH = s.la + s.plotH
+	s.rowH = s.lb + s.plotH
 	s.tb = 0
 	if s.every {
 		s.rowH += s.ta

@@ -29,7 +29,8 @@ func DefaultOutput(name string, k Kind) Output {
 				Notes: px(12), Folio: px(12), Heading: px(16), Leading: 1.3},
 			Line:  px(1.75),
 			Ticks: TicksBottomRow, PeakDot: true,
-			Flow: FlowScroll,
+			LabelLines: 2,
+			Flow:       FlowScroll,
 			// About one and a half screens of a laptop (1600 px): a reader
 			// never scrolls more than a screen back up to decode colour.
 			KeyEvery: px(1600),
@@ -50,7 +51,8 @@ func DefaultOutput(name string, k Kind) Output {
 			Notes: 6, Folio: 7, Heading: 8, Leading: 1.25},
 		Line:  0.75,
 		Ticks: TicksBottomRow, PeakDot: true,
-		Marks: true, Proofs: 150,
+		LabelLines: 2,
+		Marks:      true, Proofs: 150,
 	}
 }
 
@@ -220,6 +222,7 @@ func (d *decoder) output(n *yaml.Node, path, name string) Output {
 		{"line", d.length(&o.Line, false)},
 		{"ticks", d.choice(&ticks, string(TicksBottomRow), string(TicksEveryPanel))},
 		{"peak-dot", d.boolean(&o.PeakDot)},
+		{"label-lines", d.integer(&o.LabelLines, 1, 3)},
 		{"running-head", d.str(&o.Running)},
 		{"marks", d.boolean(&o.Marks)},
 		{"slug-line", d.boolean(&o.SlugLine)},

@@ -309,6 +309,17 @@ type Output struct {
 	// PanelBank is panel aspect "bank": the aspect is chosen from the data
 	// by banking (layout/bank); PanelAspect is 0 until then.
 	PanelBank bool
+
+	// LabelLines is the most lines a panel's label may wrap to at its full
+	// size before it shrinks (spec label-lines, 2 by default; 0 or 1:
+	// labels never wrap).
+	LabelLines int
+	// LabelBand is how many label lines the layout reserves above every
+	// plot of the output (0 or 1: one). It is not read from the spec:
+	// render/feature sets it on a copy of the output, as layout/bank sets
+	// PanelAspect, when some label wraps — every panel of the output then
+	// gets the same band, so plots keep one height.
+	LabelBand int
 }
 
 // Margins are the four margins of a page. On facing pages Inside is the

@@ -161,12 +161,34 @@ func (j *Job) Prepare(out *specs.Output) (*Output, error) {
 	if err != nil {
 		return nil, specs.BadInput(err)
 	}
-	o := &Output{Spec: out, Fonts: fs, Plan: plan, Press: cond,
-		Feature: page.NewFeature(j.Spec, out, plan, j.Data, sc, fs)}
+	feat := page.NewFeature(j.Spec, out, plan, j.Data, sc, fs)
+	if n := feat.LabelLinesWanted(); n > 1 {
+		plan, feat = j.wrapLabels(out, fs, plan, feat, n, sc)
+	}
+	o := &Output{Spec: out, Fonts: fs, Plan: plan, Press: cond, Feature: feat}
 	if err := checkNoteRoom(j.Spec, o); err != nil {
 		return nil, specs.BadInput(err)
 	}
 	return o, nil
+}
+
+// wrapLabels lays out again an output some of whose labels wrap, with a
+// label band of n lines above every plot: every panel of the output gets
+// it, so all plots keep one height and small multiples still compare.
+// Panel widths do not depend on the band, so the labels wrap the same in
+// the new plan. When a row with the taller band no longer fits the page,
+// the one-line plan stays (its labels shrink instead) with a warning.
+func (j *Job) wrapLabels(out *specs.Output, fs *fonts.Set, plan *layout.Plan, feat *page.Feature, n int, sc palette.Scale) (*layout.Plan, *page.Feature) {
+	o := *out
+	o.LabelBand = n
+	wide, err := bank.Solve(j.Spec, &o, fs, j.Groups(), j.Data)
+	if err != nil {
+		pos := j.Spec.Where("outputs." + out.Name + ".label-lines")
+		plan.Warnings = append(plan.Warnings, layout.Warning{Pos: pos, Key: "label-lines", Where: pos.String(), Output: out.Name,
+			Message: fmt.Sprintf("labels that would wrap onto %d lines are shrunk on one instead: a label band of %d lines does not fit (%v)", n, n, err)})
+		return plan, feat
+	}
+	return wide, page.NewFeature(j.Spec, out, wide, j.Data, sc, fs)
 }
 
 // PrepareAll prepares every output of the spec, in the spec's order.

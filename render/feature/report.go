@@ -53,7 +53,7 @@ type ScaleReport struct {
 }
 
 // OutputReport is one output: its size, its plan, the labels that had to
-// be shortened and the palette's verdict.
+// be shortened or wrapped and the palette's verdict.
 type OutputReport struct {
 	Name    string       `json:"name"`
 	Kind    string       `json:"kind"`
@@ -63,6 +63,8 @@ type OutputReport struct {
 	Pages   int          `json:"pages"`
 	Band    float64      `json:"band,omitempty"` // the uncertainty band's level (0.95); absent: none
 	Labels  []page.Label `json:"labels_shortened,omitempty"`
+	// Wrapped are the labels set on more than one line (with their lines).
+	Wrapped []page.Label `json:"labels_wrapped,omitempty"`
 	// Notes is where every annotation landed on every panel showing its
 	// term (placed or not, with why).
 	Notes    []page.Note    `json:"annotations,omitempty"`
@@ -127,6 +129,9 @@ func (j *Job) Summarize() (Report, error) {
 		for _, l := range p.Feature.Labels() {
 			if l.Shrunk || l.Truncated || l.NoPeak {
 				or.Labels = append(or.Labels, l)
+			}
+			if l.Wrapped() {
+				or.Wrapped = append(or.Wrapped, l)
 			}
 		}
 		or.Notes = p.Feature.Notes()

@@ -338,7 +338,10 @@ func (f *Feature) underPlot(p pen, pn layout.Panel, m curve.Map) {
 	if hi {
 		p.fillRect(pr.X0, pr.Y0, pr.X1, pr.Y1, highlightTint, nil)
 		// A rule over the label marks the panel at a glance, also in grey.
-		p.line(pn.Label.X0, pn.Label.Y1, pn.Label.X1, pn.Label.Y1, math.Max(1, 2*f.Rule()), ink)
+		// It stands on the label's first line, not over an empty line of
+		// the label band when the label did not wrap.
+		y := f.LabelTop(pn, f.Labels()[pn.Item])
+		p.line(pn.Label.X0, y, pn.Label.X1, y, math.Max(1, 2*f.Rule()), ink)
 	}
 	if !f.Spec.PeriodBands {
 		return
@@ -511,28 +514,6 @@ func segHitsAny(s segment, rs []layout.Rect) bool {
 		}
 	}
 	return false
-}
-
-// evenRows sets every label of a row at one size, the smallest any of
-// them needed: a row that mixes a shrunk label with full-size neighbours
-// looks like a mistake. The labels made smaller are reported as shrunk.
-func (f *Feature) evenRows() {
-	for _, pg := range f.Plan.Pages {
-		for i := 0; i < len(pg.Panels); {
-			j := i
-			size := math.Inf(1)
-			for ; j < len(pg.Panels) && pg.Panels[j].Row == pg.Panels[i].Row; j++ {
-				size = math.Min(size, f.labels[pg.Panels[j].Item].Size)
-			}
-			for k := i; k < j; k++ {
-				l := &f.labels[pg.Panels[k].Item]
-				if l.Size > size {
-					l.Size, l.Shrunk = size, true
-				}
-			}
-			i = j
-		}
-	}
 }
 
 // leading is the output's line height as a multiple of the type size.

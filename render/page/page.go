@@ -11,7 +11,6 @@ import (
 	"image/color"
 	"math"
 	"strconv"
-	"strings"
 	"sync"
 
 	"github.com/tdewolff/canvas"
@@ -286,17 +285,9 @@ func (f *Feature) tickYears(width, size float64) []int {
 
 func (f *Feature) panel(p pen, b *curve.Builder, pn layout.Panel) error {
 	sr := &f.Data.Series[pn.Item]
-	t := f.Output.Type
 	out := f.Output
 	// Label: the term on the left, the peak year on the right.
-	base := pn.LabelBaseline
-	peak := f.peakText(sr)
-	tsize := t.Ticks.Pt()
-	lab := f.Labels()[pn.Item]
-	p.text(fonts.Bold, lab.Size, ink, pn.Label.X0, base, canvas.Left, lab.Text)
-	if !lab.NoPeak {
-		p.text(fonts.Regular, tsize, inkSoft, pn.Label.X1, base, canvas.Right, peak)
-	}
+	f.drawLabel(p, pn, f.Labels()[pn.Item], f.peakText(sr))
 
 	pr := pn.Plot
 	lw := out.Line.Pt()
@@ -437,20 +428,6 @@ func (f *Feature) tickLabelRoom(pr layout.Rect) (lo, hi float64) {
 	return pr.X0 - reach, pr.X1 + reach
 }
 
-// Label is how a panel's term is set: at its size beside the peak text,
-// or shrunk; when even the smallest allowed size is too wide, the peak
-// text (which the peak dot and the curve also show) makes room; only then
-// is the term cut with an ellipsis.
-type Label struct {
-	Item      int     `json:"item"`      // index into the data's series
-	Term      string  `json:"term"`      // the term as written
-	Text      string  `json:"text"`      // what is drawn
-	Size      float64 `json:"size"`      // type size in points
-	Shrunk    bool    `json:"shrunk"`    // set smaller than the output's label size
-	Truncated bool    `json:"truncated"` // cut with an ellipsis
-	NoPeak    bool    `json:"no_peak"`   // the peak year is left out to make room
-}
-
 // labelFloor is the smallest a label may shrink to: 85 % of its size, but
 // never under the preflight type floor (5 pt print, 10 px = 7.5 pt
 // screen, common practice for figure text).
@@ -471,53 +448,4 @@ func (f *Feature) peakText(sr *series.Series) string {
 		peak += " · " + f.Spec.FormatSignificant(sr.Peak)
 	}
 	return peak
-}
-
-// fitLabels sets every term to the room its panel's label row leaves
-// beside the peak text: shrinking first, then cutting.
-func (f *Feature) fitLabels() {
-	if f.Plan == nil || len(f.Plan.Pages) == 0 {
-		return
-	}
-	width := f.Plan.PanelW
-	size, floor := f.Output.Type.Label.Pt(), f.labelFloor()
-	tsize := f.Output.Type.Ticks.Pt()
-	f.labels = make([]Label, len(f.Data.Series))
-	for i := range f.Data.Series {
-		sr := &f.Data.Series[i]
-		room := width - f.Fonts.Width(fonts.Regular, tsize, f.peakText(sr)) - tsize*0.8
-		l := Label{Item: i, Term: sr.Term, Text: sr.Term, Size: size}
-		shrink := func() {
-			for l.Size > floor && f.Fonts.Width(fonts.Bold, l.Size, l.Text) > room {
-				l.Size = max(floor, l.Size-0.25)
-				l.Shrunk = true
-			}
-		}
-		shrink()
-		if f.Fonts.Width(fonts.Bold, l.Size, l.Text) > room {
-			l.NoPeak, l.Size, l.Shrunk, room = true, size, false, width
-			shrink()
-		}
-		if f.Fonts.Width(fonts.Bold, l.Size, l.Text) > room {
-			l.Truncated = true
-			r := []rune(sr.Term)
-			l.Text = "…"
-			for n := len(r) - 1; n > 0; n-- {
-				t := strings.TrimRight(string(r[:n]), " -") + "…"
-				if f.Fonts.Width(fonts.Bold, l.Size, t) <= room {
-					l.Text = t
-					break
-				}
-			}
-		}
-		f.labels[i] = l
-	}
-	f.evenRows()
-}
-
-// Labels returns how every term's label is set; the ones shrunk or cut
-// are reported to the editor. The first call fits them all.
-func (f *Feature) Labels() []Label {
-	f.labelsOnce.Do(f.fitLabels)
-	return f.labels
 }

@@ -110,6 +110,21 @@ func TestLayoutWarnings(t *testing.T) {
 	assert.Equal(t, Finding{ID: IDLayout, Severity: Warning, Output: "print", Message: "no position"}, got[1])
 }
 
+// TestLabelBandRefused: the layout's note that labels could not wrap (no
+// room for a taller label band; render/feature) is no fault — the labels
+// are set as before — so it is an info under label-wrapped, not a layout
+// warning that would stop a strict build.
+func TestLabelBandRefused(t *testing.T) {
+	in := prepareInput(t, specText("", ""))
+	in.Plan.Warnings = append(in.Plan.Warnings,
+		layout.Warning{Key: "label-lines", Pos: specs.Pos{File: "spec.yaml", Line: 12, Col: 5}, Message: "labels that would wrap onto 2 lines are shrunk on one instead"})
+	fs := check(t, in)
+	assert.Empty(t, only(fs, IDLayout), list(fs))
+	got := only(fs, IDLabelWrap)
+	require.Len(t, got, 1, list(fs))
+	assert.Equal(t, Finding{ID: IDLabelWrap, Severity: Info, Output: "print", At: "spec.yaml:12:5", Message: "labels that would wrap onto 2 lines are shrunk on one instead"}, got[0])
+}
+
 // TestLabelFindings: each way a label was fitted (page.Label) and what
 // preflight says about it, with its page and term. The print label size
 // of specText's output is the default; floors as above.
@@ -130,6 +145,11 @@ func TestLabelFindings(t *testing.T) {
 			map[string]string{IDLabelShrunk: "fits its panel without its peak year beside it (the dot marks the peak)"}},
 		{"cut", page.Label{Size: 5, Truncated: true, Text: "boi…"},
 			map[string]string{IDLabelCut: `does not fit its panel: cut to "boi…" at 5 pt`}},
+		{"wrapped", page.Label{Size: size, Lines: []string{"boiler", "house"}},
+			map[string]string{IDLabelWrap: `set on 2 lines to fit its panel: "boiler / house"`}},
+		{"wrapped and shrunk", page.Label{Size: 5.5, Shrunk: true, Lines: []string{"boiler", "house"}},
+			map[string]string{IDLabelWrap: `set on 2 lines to fit its panel: "boiler / house"`,
+				IDLabelShrunk: "set at 5.5 pt instead of " + num(size) + " pt to fit its panel"}},
 		{"shrunk below the floor", page.Label{Size: 4.5, Shrunk: true},
 			map[string]string{IDLabelShrunk: "set at 4.5 pt instead of " + num(size) + " pt to fit its panel",
 				IDTypeFloor: "label shrunk to 4.5 pt, below the 5 pt floor"}},
@@ -141,7 +161,7 @@ func TestLabelFindings(t *testing.T) {
 			l.Item, l.Term = 0, "boiler"
 			in.Labels = []page.Label{l}
 			fs := check(t, in)
-			for _, id := range []string{IDLabelShrunk, IDLabelCut, IDTypeFloor} {
+			for _, id := range []string{IDLabelShrunk, IDLabelCut, IDTypeFloor, IDLabelWrap} {
 				got := only(fs, id)
 				msg, want := tt.want[id]
 				if !want {

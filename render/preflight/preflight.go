@@ -73,6 +73,7 @@ const (
 	IDHairline    = "hairline-floor" // the page's hairlines below the floor (print)
 	IDLabelCut    = "label-cut"      // a term cut with an ellipsis
 	IDLabelShrunk = "label-shrunk"   // a term set smaller than the label size
+	IDLabelWrap   = "label-wrapped"  // a term set on two lines (or more) to fit
 	IDLayout      = "layout"         // a layout warning
 	IDNoData      = "no-data"        // a panel whose values are all zero or gaps
 	IDSpike       = "spike"          // one year far above the term's others
@@ -331,9 +332,13 @@ func (c *checker) lines() {
 	}
 }
 
-// labels reports terms shrunk or cut to fit their panel.
+// labels reports terms wrapped, shrunk or cut to fit their panel.
 func (c *checker) labels() {
 	for _, l := range c.in.Labels {
+		if l.Wrapped() {
+			c.add(Finding{ID: IDLabelWrap, Severity: Info, Page: c.pageOf[l.Item], Term: l.Term,
+				Message: fmt.Sprintf("set on %d lines to fit its panel: %q", len(l.Lines), strings.Join(l.Lines, " / "))})
+		}
 		switch {
 		case l.Truncated:
 			c.add(Finding{ID: IDLabelCut, Severity: Warning, Page: c.pageOf[l.Item], Term: l.Term,
@@ -361,6 +366,13 @@ func (c *checker) layout() {
 		at := ""
 		if w.Pos.File != "" {
 			at = w.Pos.String()
+		}
+		// Labels that could not wrap (no room for a taller label band)
+		// are set as before, shrunk on one line: for the record, with the
+		// wrapped ones, not a fault.
+		if w.Key == "label-lines" {
+			c.add(Finding{ID: IDLabelWrap, Severity: Info, At: at, Message: w.Message})
+			continue
 		}
 		c.add(Finding{ID: IDLayout, Severity: Warning, At: at, Message: w.Message})
 	}

@@ -272,7 +272,7 @@ func (b *build) newPageBands(p *feature.Output, i int, fontSum string) *pageBand
 		h.int(sr.PeakYear)
 		h.float(sr.YMax)
 		if pn.Item < len(labels) {
-			h.str(labels[pn.Item].Text)
+			h.str(labels[pn.Item].DrawnText())
 			h.float(labels[pn.Item].Size)
 		}
 		box := pn.Box()

@@ -53,7 +53,7 @@ func pageInputs(j *feature.Job, p *feature.Output, i int, setup pdf.PageSetup, s
 		h.float(sr.YMax)
 		if pn.Item < len(labels) {
 			l := labels[pn.Item]
-			h.str(l.Text)
+			h.str(l.DrawnText())
 			h.float(l.Size)
 		}
 	}

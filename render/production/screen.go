@@ -554,7 +554,7 @@ func (b *build) panelInputs(p *feature.Output, pf panelFile, opts svg.Options, f
 	h.int(sr.PeakYear)
 	h.float(sr.YMax)
 	if l := p.Feature.Labels(); pf.item < len(l) {
-		h.str(l[pf.item].Text)
+		h.str(l[pf.item].DrawnText())
 		h.float(l[pf.item].Size)
 	}
 	d := b.j.Data
