@@ -5,7 +5,6 @@ import (
 	"sheaf/palette/press"
 
 	"bytes"
-	"compress/zlib"
 	"fmt"
 	"image"
 	"math"
@@ -13,6 +12,7 @@ import (
 	"sort"
 	"strconv"
 
+	"github.com/klauspost/compress/zlib"
 	"github.com/tdewolff/canvas"
 )
 
