@@ -102,6 +102,11 @@ type Set struct {
 type advances struct {
 	mu sync.Mutex // taken inside a Set's mu, never the other way round
 	m  map[advanceKey]int32
+	// shapers shape for measuring, by style, made on first use (a
+	// rebuild that finds every width saved parses nothing); nil where
+	// go-text cannot read the face, and canvas's shaper measures.
+	shapers [numStyles]*shaper
+	tried   [numStyles]bool
 }
 
 // ShareShaping makes s measure with o's shaped advances when both hold
@@ -399,11 +404,15 @@ func (s *Set) measure(st Style, size float64, text string) float64 {
 	defer s.adv.mu.Unlock()
 	units, ok := s.adv.m[k]
 	if !ok {
-		for _, g := range face.Glyphs(text) {
-			if !g.Vertical {
-				units += g.XAdvance
-			} else {
-				units -= g.YAdvance
+		if sh := s.shaper(st); sh != nil {
+			units = sh.advance(text)
+		} else {
+			for _, g := range face.Glyphs(text) {
+				if !g.Vertical {
+					units += g.XAdvance
+				} else {
+					units -= g.YAdvance
+				}
 			}
 		}
 		if s.adv.m == nil {
@@ -414,6 +423,27 @@ func (s *Set) measure(st Style, size float64, text string) float64 {
 		}
 	}
 	return face.MmPerEm * float64(units) / mmPerPt
+}
+
+// shaper returns the shaper measuring st, made on first use: the
+// figures face shapes the regular face's parsed font with its own
+// features. s.mu and s.adv.mu are held.
+func (s *Set) shaper(st Style) *shaper {
+	a := s.adv
+	if a.tried[st] {
+		return a.shapers[st]
+	}
+	a.tried[st] = true
+	feats := features
+	if st == Figures {
+		feats = figureFeatures
+	}
+	if st == Figures && s.face[Figures] == s.face[Regular] && bytes.Equal(s.raw[Figures], s.raw[Regular]) {
+		a.shapers[st] = s.shaper(Regular).withFeatures(feats)
+	} else {
+		a.shapers[st] = newShaper(s.raw[st], feats)
+	}
+	return a.shapers[st]
 }
 
 // maxAdvances bounds the advances kept: a few per panel of a large
