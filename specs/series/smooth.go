@@ -15,8 +15,16 @@ import (
 // year alone.
 func Pool(counts, exposure []float64, years int) (pooled, pooledExposure []float64) {
 	n := len(counts)
-	pooled = make([]float64, n)
-	pooledExposure = make([]float64, n)
+	return PoolInto(make([]float64, n), make([]float64, n), counts, exposure, years)
+}
+
+// PoolInto is Pool writing into pooled and pooledExposure, each at least
+// as long as counts, and returning them cut to that length: a caller
+// that pools thousands of series one after the other (preflight) reuses
+// two slices instead of allocating two a series.
+func PoolInto(pooled, pooledExposure, counts, exposure []float64, years int) ([]float64, []float64) {
+	n := len(counts)
+	pooled, pooledExposure = pooled[:n], pooledExposure[:n]
 	half := 0
 	if years > 1 {
 		half = years / 2
@@ -67,6 +75,11 @@ func (set *Set) exposure(sr *Series) []float64 {
 // plotted value is pooled ÷ exposure × sr.Factor.
 func (set *Set) Pooled(sr *Series) (pooled, exposure []float64) {
 	return Pool(sr.Counts, set.exposure(sr), set.Rolling)
+}
+
+// PooledInto is Pooled writing into pooled and exposure (see PoolInto).
+func (set *Set) PooledInto(sr *Series, pooled, exposure []float64) ([]float64, []float64) {
+	return PoolInto(pooled, exposure, sr.Counts, set.exposure(sr), set.Rolling)
 }
 
 // Yearly returns a series' values year by year before any smoothing, in
