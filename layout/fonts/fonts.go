@@ -78,6 +78,11 @@ type Set struct {
 	fonts [numStyles]*canvas.Font
 	emb   [numStyles]Embedding
 
+	// like are the Sets Load may take parsed faces from (only while it
+	// runs); shared marks the faces taken, whose features are set already.
+	like   []*Set
+	shared [numStyles]bool
+
 	// The shaper behind canvas.FontFace.TextWidth is not documented as safe
 	// for concurrent use, so measuring goes through one lock per Set.
 	// Shaping costs about 10 µs a string; layout measures the same folios,
@@ -158,11 +163,16 @@ const maxCached = 1 << 14
 // A face whose licence (OS/2 fsType) forbids embedding is an error for an
 // output that embeds its fonts: every print output, and a screen output
 // with fonts.embed. Errors name the spec's place of the font.
-func Load(spec *specs.Spec, out *specs.Output) (*Set, error) {
+//
+// A face whose bytes one of the Sets in like already holds, in the same
+// style, is taken from it parsed (outputs in the same faces parse them
+// once); the Sets then share the parsed fonts, never their widths.
+func Load(spec *specs.Spec, out *specs.Output, like ...*Set) (*Set, error) {
 	if spec == nil || out == nil {
 		return nil, fmt.Errorf("fonts: Load needs a spec and an output")
 	}
-	s := &Set{}
+	s := &Set{like: like}
+	defer func() { s.like = nil }()
 	embeds := out.Kind == specs.Print || out.Fonts.Embed
 	load := func(st Style, written string, ref specs.FaceRef, key string, builtin []byte) error {
 		if written == "" {
@@ -215,7 +225,9 @@ func Load(spec *specs.Spec, out *specs.Output) (*Set, error) {
 		return nil, err
 	}
 	s.face[Figures] = s.face[Regular]
-	s.fonts[Figures].SetFeatures(figureFeatures)
+	if !s.shared[Figures] {
+		s.fonts[Figures].SetFeatures(figureFeatures)
+	}
 	return s, nil
 }
 
@@ -251,6 +263,13 @@ const figureFeatures = "lnum,tnum"
 // set parses face i of b. Font files come from users, so a panic inside
 // the parser is turned into an error rather than taking the program down.
 func (s *Set) set(st Style, b []byte, path string, face int) (err error) {
+	for _, o := range s.like {
+		if o != nil && o.fonts[st] != nil && bytes.Equal(o.raw[st], b) {
+			s.raw[st], s.path[st], s.face[st], s.fonts[st], s.emb[st] = b, path, face, o.fonts[st], o.emb[st]
+			s.shared[st] = true
+			return nil
+		}
+	}
 	defer func() {
 		if r := recover(); r != nil {
 			err = fmt.Errorf("font parser failed: %v", r)

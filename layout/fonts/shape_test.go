@@ -9,6 +9,8 @@ import (
 	"github.com/go-fonts/latin-modern/lmsans10bold"
 	"github.com/go-fonts/latin-modern/lmsans10regular"
 	"github.com/stretchr/testify/require"
+
+	"sheaf/specs"
 )
 
 // demoLabels is every term of the demo's counts table with the peak
@@ -66,4 +68,29 @@ func TestShaperIsCanvasShaping(t *testing.T) {
 			require.NotNil(t, s.adv.shapers[st], "%s %v: measured without canvas's shaper", name, st)
 		}
 	}
+}
+
+// A Set loaded like another in the same faces takes its parsed fonts
+// (and keeps its own widths); a face in other bytes is parsed anew.
+// Widths stay canvas's (the reference, as above).
+func TestLoadSharesParsedFaces(t *testing.T) {
+	a, err := Default()
+	require.NoError(t, err)
+	b, err := Load(&specs.Spec{}, &specs.Output{}, a)
+	require.NoError(t, err)
+	for _, st := range []Style{Regular, Bold, Italic, Figures} {
+		require.Same(t, a.Font(st), b.Font(st), "%v", st)
+		require.Equal(t, a.Embedding(st), b.Embedding(st))
+	}
+	b.Width(Figures, 6.5, "1861")
+	require.Empty(t, a.widths, "widths are each Set's own")
+	require.Equal(t, b.Face(Figures, 6.5).TextWidth("1861")/mmPerPt, b.Width(Figures, 6.5, "1861"))
+
+	spec, o := specIn(t, specHead+"    fonts: {regular: lm.otf}\n", map[string][]byte{"lm.otf": lmsans10regular.TTF})
+	c, err := Load(spec, o, a)
+	require.NoError(t, err)
+	require.NotSame(t, a.Font(Regular), c.Font(Regular))
+	require.NotSame(t, a.Font(Figures), c.Font(Figures))
+	require.Same(t, a.Font(Bold), c.Font(Bold), "the built-in bold is shared")
+	require.Equal(t, c.Face(Figures, 6.5).TextWidth("1861")/mmPerPt, c.Width(Figures, 6.5, "1861"))
 }
