@@ -473,11 +473,9 @@ func (c *checker) sparse(i int, sr *series.Series) {
 	if floor <= 0 {
 		return
 	}
-	if n := len(sr.Counts); cap(c.pooled) < n {
-		c.pooled, c.exposure = make([]float64, n), make([]float64, n)
-	}
 	var pooled []float64
-	pooled, c.exposure = c.in.Data.PooledInto(sr, c.pooled, c.exposure)
+	pooled, c.exposure = c.in.Data.PooledInto(sr, c.pooled[:cap(c.pooled)], c.exposure[:cap(c.exposure)])
+	c.pooled = pooled
 	var med float64
 	var ok bool
 	med, ok, c.scratch = medianActive(sr.Counts, pooled, c.scratch)

@@ -18,12 +18,18 @@ func Pool(counts, exposure []float64, years int) (pooled, pooledExposure []float
 	return PoolInto(make([]float64, n), make([]float64, n), counts, exposure, years)
 }
 
-// PoolInto is Pool writing into pooled and pooledExposure, each at least
-// as long as counts, and returning them cut to that length: a caller
-// that pools thousands of series one after the other (preflight) reuses
-// two slices instead of allocating two a series.
+// PoolInto is Pool writing into pooled and pooledExposure (new slices
+// where they are shorter than counts), returning them cut to its length:
+// a caller that pools thousands of series one after the other (scaling,
+// preflight) reuses two slices instead of allocating two a series.
 func PoolInto(pooled, pooledExposure, counts, exposure []float64, years int) ([]float64, []float64) {
 	n := len(counts)
+	if cap(pooled) < n {
+		pooled = make([]float64, n)
+	}
+	if cap(pooledExposure) < n {
+		pooledExposure = make([]float64, n)
+	}
 	pooled, pooledExposure = pooled[:n], pooledExposure[:n]
 	half := 0
 	if years > 1 {
