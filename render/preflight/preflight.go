@@ -256,7 +256,7 @@ type checker struct {
 	found  []Finding
 
 	// scratch for sparse, reused from term to term
-	pooled, exposure, scratch []float64
+	pooled, exposure, scratch, yearly []float64
 }
 
 func (c *checker) add(f Finding) {
@@ -441,7 +441,11 @@ func (c *checker) panels() {
 	k := c.th.SpikeRatio
 	for i := range c.in.Data.Series {
 		sr := &c.in.Data.Series[i]
-		top, second, year := Spike(c.in.Data.Yearly(sr))
+		yearly := c.in.Data.YearlyInto(sr, c.yearly)
+		if len(sr.Counts) > 0 {
+			c.yearly = yearly // scratch; a series without counts gave its own values
+		}
+		top, second, year := Spike(yearly)
 		if top <= 0 {
 			c.add(Finding{ID: IDNoData, Severity: Warning, Page: c.pageOf[i], Term: sr.Term,
 				Message: fmt.Sprintf("no data in %d–%d: every year is zero or a gap; the panel is empty", c.in.Data.Span.From, c.in.Data.Span.To)})

@@ -34,3 +34,19 @@ func TestPoolIntoReusedSlices(t *testing.T) {
 		}
 	}
 }
+
+// TestYearlyIntoReusedSlice: a reused slice holding another series'
+// values gives exactly Yearly's values (a new slice), shares and raw
+// counts alike.
+func TestYearlyIntoReusedSlice(t *testing.T) {
+	totals := []float64{1000, 2000, math.NaN(), 4000}
+	sr := Series{Counts: []float64{1, 0, math.NaN(), 7}}
+	for _, set := range []*Set{{totals: totals, unitFactor: 1e6}, {unitFactor: 1}} {
+		want := set.Yearly(&sr)
+		v := set.YearlyInto(&sr, []float64{9, 9, 9, 9, 9, 9})
+		require.Len(t, v, 4)
+		for j := range want {
+			require.True(t, want[j] == v[j] || math.IsNaN(want[j]) && math.IsNaN(v[j]), "year %d: %v vs %v", j, want, v)
+		}
+	}
+}

@@ -93,6 +93,13 @@ func (set *Set) PooledInto(sr *Series, pooled, exposure []float64) ([]float64, [
 // raw counts). A one-year spike is a property of these.
 // A series built by hand without counts has only its values.
 func (set *Set) Yearly(sr *Series) []float64 {
+	return set.YearlyInto(sr, nil)
+}
+
+// YearlyInto is Yearly writing into v (a new slice where it is shorter
+// than the series), for a caller that reads thousands of series one
+// after the other. A series without counts gives its own Values, not v.
+func (set *Set) YearlyInto(sr *Series, v []float64) []float64 {
 	if len(sr.Counts) == 0 {
 		return sr.Values
 	}
@@ -101,7 +108,10 @@ func (set *Set) Yearly(sr *Series) []float64 {
 	if f == 0 {
 		f = 1
 	}
-	v := make([]float64, len(sr.Counts))
+	if cap(v) < len(sr.Counts) {
+		v = make([]float64, len(sr.Counts))
+	}
+	v = v[:len(sr.Counts)]
 	for j, c := range sr.Counts {
 		v[j] = c / e[j] * f
 	}
