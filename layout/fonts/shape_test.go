@@ -17,7 +17,7 @@ import (
 // years labels carry, the demo's German spec's words and a few strings
 // that make shapers work (kerning pairs, a ligature, combining marks,
 // right-to-left text).
-func demoLabels(t *testing.T) []string {
+func demoLabels(t testing.TB) []string {
 	t.Helper()
 	f, err := os.Open("../../examples/quillmere/data/counts.csv")
 	require.NoError(t, err)
@@ -93,4 +93,30 @@ func TestLoadSharesParsedFaces(t *testing.T) {
 	require.NotSame(t, a.Font(Figures), c.Font(Figures))
 	require.Same(t, a.Font(Bold), c.Font(Bold), "the built-in bold is shared")
 	require.Equal(t, c.Face(Figures, 6.5).TextWidth("1861")/mmPerPt, c.Width(Figures, 6.5, "1861"))
+}
+
+// BenchmarkMeasureLabels measures every demo label once in a fresh Set
+// (no widths known): "canvas" shapes with canvas's FontFace.Glyphs (a new
+// harfbuzz buffer, so a new shape plan, a string), "kept" with the Set's
+// shaper, which keeps its buffer.
+func BenchmarkMeasureLabels(b *testing.B) {
+	labels := demoLabels(b)
+	s, err := Default()
+	require.NoError(b, err)
+	face := s.Face(Bold, 6.5)
+	b.Run("canvas", func(b *testing.B) {
+		for b.Loop() {
+			for _, l := range labels {
+				face.Glyphs(l)
+			}
+		}
+	})
+	b.Run("kept", func(b *testing.B) {
+		sh := newShaper(s.raw[Bold], features)
+		for b.Loop() {
+			for _, l := range labels {
+				sh.advance(l)
+			}
+		}
+	})
 }
