@@ -78,6 +78,11 @@ type Set struct {
 	fonts [numStyles]*canvas.Font
 	emb   [numStyles]Embedding
 
+	// like are the Sets Load may take parsed faces from (only while it
+	// runs); shared marks the faces taken, whose features are set already.
+	like   []*Set
+	shared [numStyles]bool
+
 	// The shaper behind canvas.FontFace.TextWidth is not documented as safe
 	// for concurrent use, so measuring goes through one lock per Set.
 	// Shaping costs about 10 µs a string; layout measures the same folios,
@@ -102,6 +107,11 @@ type Set struct {
 type advances struct {
 	mu sync.Mutex // taken inside a Set's mu, never the other way round
 	m  map[advanceKey]int32
+	// shapers shape for measuring, by style, made on first use (a
+	// rebuild that finds every width saved parses nothing); nil where
+	// go-text cannot read the face, and canvas's shaper measures.
+	shapers [numStyles]*shaper
+	tried   [numStyles]bool
 }
 
 // ShareShaping makes s measure with o's shaped advances when both hold
@@ -153,11 +163,16 @@ const maxCached = 1 << 14
 // A face whose licence (OS/2 fsType) forbids embedding is an error for an
 // output that embeds its fonts: every print output, and a screen output
 // with fonts.embed. Errors name the spec's place of the font.
-func Load(spec *specs.Spec, out *specs.Output) (*Set, error) {
+//
+// A face whose bytes one of the Sets in like already holds, in the same
+// style, is taken from it parsed (outputs in the same faces parse them
+// once); the Sets then share the parsed fonts, never their widths.
+func Load(spec *specs.Spec, out *specs.Output, like ...*Set) (*Set, error) {
 	if spec == nil || out == nil {
 		return nil, fmt.Errorf("fonts: Load needs a spec and an output")
 	}
-	s := &Set{}
+	s := &Set{like: like}
+	defer func() { s.like = nil }()
 	embeds := out.Kind == specs.Print || out.Fonts.Embed
 	load := func(st Style, written string, ref specs.FaceRef, key string, builtin []byte) error {
 		if written == "" {
@@ -210,7 +225,9 @@ func Load(spec *specs.Spec, out *specs.Output) (*Set, error) {
 		return nil, err
 	}
 	s.face[Figures] = s.face[Regular]
-	s.fonts[Figures].SetFeatures(figureFeatures)
+	if !s.shared[Figures] {
+		s.fonts[Figures].SetFeatures(figureFeatures)
+	}
 	return s, nil
 }
 
@@ -246,6 +263,13 @@ const figureFeatures = "lnum,tnum"
 // set parses face i of b. Font files come from users, so a panic inside
 // the parser is turned into an error rather than taking the program down.
 func (s *Set) set(st Style, b []byte, path string, face int) (err error) {
+	for _, o := range s.like {
+		if o != nil && o.fonts[st] != nil && bytes.Equal(o.raw[st], b) {
+			s.raw[st], s.path[st], s.face[st], s.fonts[st], s.emb[st] = b, path, face, o.fonts[st], o.emb[st]
+			s.shared[st] = true
+			return nil
+		}
+	}
 	defer func() {
 		if r := recover(); r != nil {
 			err = fmt.Errorf("font parser failed: %v", r)
@@ -399,11 +423,15 @@ func (s *Set) measure(st Style, size float64, text string) float64 {
 	defer s.adv.mu.Unlock()
 	units, ok := s.adv.m[k]
 	if !ok {
-		for _, g := range face.Glyphs(text) {
-			if !g.Vertical {
-				units += g.XAdvance
-			} else {
-				units -= g.YAdvance
+		if sh := s.shaper(st); sh != nil {
+			units = sh.advance(text)
+		} else {
+			for _, g := range face.Glyphs(text) {
+				if !g.Vertical {
+					units += g.XAdvance
+				} else {
+					units -= g.YAdvance
+				}
 			}
 		}
 		if s.adv.m == nil {
@@ -414,6 +442,27 @@ func (s *Set) measure(st Style, size float64, text string) float64 {
 		}
 	}
 	return face.MmPerEm * float64(units) / mmPerPt
+}
+
+// shaper returns the shaper measuring st, made on first use: the
+// figures face shapes the regular face's parsed font with its own
+// features. s.mu and s.adv.mu are held.
+func (s *Set) shaper(st Style) *shaper {
+	a := s.adv
+	if a.tried[st] {
+		return a.shapers[st]
+	}
+	a.tried[st] = true
+	feats := features
+	if st == Figures {
+		feats = figureFeatures
+	}
+	if st == Figures && s.face[Figures] == s.face[Regular] && bytes.Equal(s.raw[Figures], s.raw[Regular]) {
+		a.shapers[st] = s.shaper(Regular).withFeatures(feats)
+	} else {
+		a.shapers[st] = newShaper(s.raw[st], feats)
+	}
+	return a.shapers[st]
 }
 
 // maxAdvances bounds the advances kept: a few per panel of a large

@@ -72,7 +72,13 @@ func (j *Job) fontsFor(out *specs.Output) (*fonts.Set, error) {
 	if fs, ok := j.fonts[out.Name]; ok {
 		return fs, nil
 	}
-	fs, err := fonts.Load(j.Spec, out)
+	var loaded []*fonts.Set
+	for _, o := range j.Spec.Outputs {
+		if other := j.fonts[o.Name]; other != nil {
+			loaded = append(loaded, other)
+		}
+	}
+	fs, err := fonts.Load(j.Spec, out, loaded...) // faces another output parsed are shared
 	if err != nil {
 		return nil, err
 	}

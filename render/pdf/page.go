@@ -5,7 +5,6 @@ import (
 	"sheaf/palette/press"
 
 	"bytes"
-	"compress/zlib"
 	"fmt"
 	"image"
 	"math"
@@ -13,6 +12,7 @@ import (
 	"sort"
 	"strconv"
 
+	"github.com/klauspost/compress/zlib"
 	"github.com/tdewolff/canvas"
 )
 
@@ -154,6 +154,23 @@ func contains(outer, inner canvas.Rect) bool {
 // size of the MediaBox; MMPerPt converts layout points.
 func EncodePage(setup PageSetup, draw func(c *canvas.Canvas) error) (*EncodedPage, error) {
 	return encodePage(setup, draw, 0, nil, encodePools)
+}
+
+// PageEncoder encodes the pages of one document as EncodePage does, but
+// reads each font's tables (a SHA-256 of every table, its key) once for
+// all its pages rather than once a page: fonts are known by their parsed
+// *font.SFNT, so a PageEncoder must not outlive the fonts it was given
+// (one per build, never process-wide: a freed font's address can be
+// taken by another). It is safe for concurrent use.
+type PageEncoder struct{ keys *fontKeys }
+
+// NewPageEncoder returns a PageEncoder with nothing known yet.
+func NewPageEncoder() *PageEncoder { return &PageEncoder{keys: newFontKeys()} }
+
+// Encode is EncodePage with the fonts read once per PageEncoder; the
+// bytes are EncodePage's.
+func (pe *PageEncoder) Encode(setup PageSetup, draw func(c *canvas.Canvas) error) (*EncodedPage, error) {
+	return encodePage(setup, draw, 0, pe.keys, encodePools)
 }
 
 // encodePools are EncodePage's: a program that encodes pages one by one,

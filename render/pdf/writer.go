@@ -58,7 +58,7 @@ import (
 	"time"
 	"unicode/utf16"
 
-	"compress/zlib"
+	"github.com/klauspost/compress/zlib"
 
 	"github.com/tdewolff/canvas"
 )
@@ -71,6 +71,9 @@ const Uncompressed = -100
 // Content streams are mostly decimal numbers; on the benchmark document
 // (84 pages of 48 curves) level 1 gives 15.2 MB in 0.86 s and level 6
 // 13.5 MB in 2.3 s (2 cores, measured): 12 % larger for 2.7× the speed.
+// The compressor is klauspost/compress's zlib, not the standard
+// library's: at level 1 on the catalog's 75 content streams it takes
+// 0.67× the CPU time and writes 4.6 % fewer bytes (README, Speed).
 const DefaultCompression = 1
 
 // Options are the document-wide settings.

@@ -255,6 +255,9 @@ type checker struct {
 	out    string
 	pageOf map[int]int // series index → 1-based page
 	found  []Finding
+
+	// scratch for sparse, reused from term to term
+	pooled, exposure, scratch, yearly []float64
 }
 
 func (c *checker) add(f Finding) {
@@ -450,7 +453,11 @@ func (c *checker) panels() {
 	k := c.th.SpikeRatio
 	for i := range c.in.Data.Series {
 		sr := &c.in.Data.Series[i]
-		top, second, year := Spike(c.in.Data.Yearly(sr))
+		yearly := c.in.Data.YearlyInto(sr, c.yearly)
+		if len(sr.Counts) > 0 {
+			c.yearly = yearly // scratch; a series without counts gave its own values
+		}
+		top, second, year := Spike(yearly)
 		if top <= 0 {
 			c.add(Finding{ID: IDNoData, Severity: Warning, Page: c.pageOf[i], Term: sr.Term,
 				Message: fmt.Sprintf("no data in %d–%d: every year is zero or a gap; the panel is empty", c.in.Data.Span.From, c.in.Data.Span.To)})
@@ -482,8 +489,12 @@ func (c *checker) sparse(i int, sr *series.Series) {
 	if floor <= 0 {
 		return
 	}
-	pooled, _ := c.in.Data.Pooled(sr)
-	med, ok := MedianActive(sr.Counts, pooled)
+	var pooled []float64
+	pooled, c.exposure = c.in.Data.PooledInto(sr, c.pooled[:cap(c.pooled)], c.exposure[:cap(c.exposure)])
+	c.pooled = pooled
+	var med float64
+	var ok bool
+	med, ok, c.scratch = medianActive(sr.Counts, pooled, c.scratch)
 	if !ok || med >= floor {
 		return
 	}
@@ -505,8 +516,18 @@ func (c *checker) sparse(i int, sr *series.Series) {
 
 // MedianActive returns the median of values over the years from the
 // first to the last in which counts is above zero, gap years (NaN in
-// either) left out; false when counts has no such year.
+// either) left out; false when counts has no such year (or values are
+// gaps in all of them).
 func MedianActive(counts, values []float64) (float64, bool) {
+	med, ok, _ := medianActive(counts, values, nil)
+	return med, ok
+}
+
+// medianActive is MedianActive collecting the values in buf, which it
+// returns for the next call, and selecting the middle (quickselect)
+// instead of sorting: the same value, a sort's cost left out for every
+// term of every output.
+func medianActive(counts, values, buf []float64) (float64, bool, []float64) {
 	first, last := -1, -1
 	for j, c := range counts {
 		if c > 0 {
@@ -517,20 +538,62 @@ func MedianActive(counts, values []float64) (float64, bool) {
 		}
 	}
 	if first < 0 {
-		return 0, false
+		return 0, false, buf
 	}
-	var xs []float64
+	xs := buf[:0]
 	for j := first; j <= last; j++ {
 		if !math.IsNaN(counts[j]) && !math.IsNaN(values[j]) {
 			xs = append(xs, values[j])
 		}
 	}
-	sort.Float64s(xs)
 	n := len(xs)
-	if n%2 == 1 {
-		return xs[n/2], true
+	if n == 0 {
+		return 0, false, xs // every active year is a gap in values
 	}
-	return (xs[n/2-1] + xs[n/2]) / 2, true
+	hi := nth(xs, n/2)
+	if n%2 == 1 {
+		return hi, true, xs
+	}
+	// After nth, xs[:n/2] holds the n/2 smallest: the lower middle is
+	// their largest.
+	lo := xs[0]
+	for _, v := range xs[1 : n/2] {
+		lo = max(lo, v)
+	}
+	return (lo + hi) / 2, true, xs
+}
+
+// nth reorders xs (no NaN) so that xs[k] is the value a sort would put
+// there, everything before it no larger and everything after no smaller
+// (Hoare's selection, middle pivot), and returns xs[k].
+func nth(xs []float64, k int) float64 {
+	lo, hi := 0, len(xs)-1
+	for lo < hi {
+		p := xs[lo+(hi-lo)/2]
+		i, j := lo, hi
+		for i <= j {
+			for xs[i] < p {
+				i++
+			}
+			for xs[j] > p {
+				j--
+			}
+			if i <= j {
+				xs[i], xs[j] = xs[j], xs[i]
+				i++
+				j--
+			}
+		}
+		switch {
+		case k <= j:
+			hi = j
+		case k >= i:
+			lo = i
+		default:
+			return xs[k]
+		}
+	}
+	return xs[k]
 }
 
 func formatCount(v float64) string {

@@ -238,7 +238,7 @@ func Build(ctx context.Context, job *feature.Job, opts Options) (*Result, error)
 	}
 	b := &build{ctx: ctx, j: job, final: final, shown: dir, date: opts.Date, only: opts.Only, noProofs: opts.NoProofs, full: opts.Full,
 		progress: opts.Progress, hooks: opts.Hooks, widths: widths, pre: pre, sums: map[string]fileSum{}, insertPreps: inserts,
-		findingsSum: res.FindingsSum}
+		findingsSum: res.FindingsSum, pages: pdf.NewPageEncoder()}
 	files, err := b.run(preps)
 	if err != nil {
 		return res, err
@@ -325,6 +325,8 @@ type build struct {
 	sums         map[string]fileSum // files this build wrote, by slash path relative to the stage
 	stale        []string           // proofs a --no-proofs build did not keep (slash paths in DIR)
 	findingsSum  string
+
+	pages *pdf.PageEncoder // this build's: fonts read once for all pages
 }
 
 // fileMeta is what the manifest says of a file beside its hash: the
@@ -725,7 +727,7 @@ func (b *build) encode(p *feature.Output, i int) (*pdf.EncodedPage, error) {
 			return nil, err
 		}
 	}
-	return pdf.EncodePage(b.setup(p, i), func(c *canvas.Canvas) error { return p.Feature.Draw(canvas.NewContext(c), i) })
+	return b.pages.Encode(b.setup(p, i), func(c *canvas.Canvas) error { return p.Feature.Draw(canvas.NewContext(c), i) })
 }
 
 // widthsFile holds an output's text widths between builds (see

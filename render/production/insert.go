@@ -32,6 +32,13 @@ func (b *build) buildInserts(preps []*feature.Insert) ([]string, error) {
 			return nil, err
 		}
 		name := p.Spec.Name
+		if b.only != "" && p.Output.Name != b.only {
+			// --only OUTPUT draws the inserts that borrow OUTPUT; the others
+			// keep the last build's files when they are intact, and are
+			// left out until a build that makes them otherwise.
+			files = append(files, b.keepInsert(p, idir)...)
+			continue
+		}
 		entry := InsertEntry{Name: name, Output: p.Output.Name, Terms: insertTerms(p)}
 		entry.Inputs = b.insertInputs(p, entry.Terms)
 		b.inserts = append(b.inserts, entry)
@@ -71,6 +78,29 @@ func (b *build) buildInserts(preps []*feature.Insert) ([]string, error) {
 		b.progress.Step()
 	}
 	return files, nil
+}
+
+// keepInsert carries an insert this build does not draw (--only another
+// output) with its last manifest entry, when the last build made it and
+// every one of its files is there as recorded. It returns the files kept.
+func (b *build) keepInsert(p *feature.Insert, idir string) []string {
+	prev := b.prev.Insert(p.Spec.Name)
+	if prev == nil || prev.Output != p.Output.Name {
+		return nil
+	}
+	want := insertFiles(p, idir)
+	if !b.keepAll("", want, b.prev.FilesOf("", p.Spec.Name)) {
+		return nil
+	}
+	terms := make([]string, len(prev.Terms))
+	for i, t := range prev.Terms {
+		terms[i] = t.Term
+	}
+	for _, f := range want {
+		b.note(f, fileMeta{insert: p.Spec.Name, terms: terms})
+	}
+	b.inserts = append(b.inserts, *prev)
+	return want
 }
 
 // insertFiles lists the files of an insert in dir, sorted.

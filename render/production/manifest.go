@@ -257,12 +257,14 @@ func (h *hasher) float(v float64) {
 
 func (h *hasher) floats(vs []float64) {
 	h.int(len(vs))
-	b := h.buf[:0]
-	for _, v := range vs {
-		b = binary.LittleEndian.AppendUint64(b, math.Float64bits(v))
+	if cap(h.buf) < 8*len(vs) {
+		h.buf = make([]byte, 8*len(vs)) // at once, not grown by appending
+	}
+	b := h.buf[:8*len(vs)]
+	for i, v := range vs {
+		binary.LittleEndian.PutUint64(b[8*i:], math.Float64bits(v))
 	}
 	h.h.Write(b)
-	h.buf = b
 }
 
 func (h *hasher) sum() string { return hexSum(h.h) }

@@ -44,11 +44,13 @@ func scale(s *specs.Spec, totals []float64, aggs map[string]*agg, selected []str
 	} else {
 		set.totals = totals
 	}
+	// pooled and exposure are scratch, reused from series to series.
+	pooled, exposure := make([]float64, span), make([]float64, span)
 	for i, k := range selected {
 		a := aggs[k]
 		sr := Series{Term: a.term, Total: a.total, Share: a.share,
 			Counts: set.counts[i], Values: make([]float64, span), PeakYear: s.Years.From, Factor: set.unitFactor}
-		pooled, exposure := set.Pooled(&sr)
+		pooled, exposure = set.PooledInto(&sr, pooled[:cap(pooled)], exposure[:cap(exposure)])
 		for j, c := range pooled {
 			switch {
 			case math.IsNaN(c):

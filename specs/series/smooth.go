@@ -15,8 +15,22 @@ import (
 // year alone.
 func Pool(counts, exposure []float64, years int) (pooled, pooledExposure []float64) {
 	n := len(counts)
-	pooled = make([]float64, n)
-	pooledExposure = make([]float64, n)
+	return PoolInto(make([]float64, n), make([]float64, n), counts, exposure, years)
+}
+
+// PoolInto is Pool writing into pooled and pooledExposure (new slices
+// where they are shorter than counts), returning them cut to its length:
+// a caller that pools thousands of series one after the other (scaling,
+// preflight) reuses two slices instead of allocating two a series.
+func PoolInto(pooled, pooledExposure, counts, exposure []float64, years int) ([]float64, []float64) {
+	n := len(counts)
+	if cap(pooled) < n {
+		pooled = make([]float64, n)
+	}
+	if cap(pooledExposure) < n {
+		pooledExposure = make([]float64, n)
+	}
+	pooled, pooledExposure = pooled[:n], pooledExposure[:n]
 	half := 0
 	if years > 1 {
 		half = years / 2
@@ -69,11 +83,23 @@ func (set *Set) Pooled(sr *Series) (pooled, exposure []float64) {
 	return Pool(sr.Counts, set.exposure(sr), set.Rolling)
 }
 
+// PooledInto is Pooled writing into pooled and exposure (see PoolInto).
+func (set *Set) PooledInto(sr *Series, pooled, exposure []float64) ([]float64, []float64) {
+	return PoolInto(pooled, exposure, sr.Counts, set.exposure(sr), set.Rolling)
+}
+
 // Yearly returns a series' values year by year before any smoothing, in
 // the unit of the feature before own-peak scaling: per million words (or
 // raw counts). A one-year spike is a property of these.
 // A series built by hand without counts has only its values.
 func (set *Set) Yearly(sr *Series) []float64 {
+	return set.YearlyInto(sr, nil)
+}
+
+// YearlyInto is Yearly writing into v (a new slice where it is shorter
+// than the series), for a caller that reads thousands of series one
+// after the other. A series without counts gives its own Values, not v.
+func (set *Set) YearlyInto(sr *Series, v []float64) []float64 {
 	if len(sr.Counts) == 0 {
 		return sr.Values
 	}
@@ -82,7 +108,10 @@ func (set *Set) Yearly(sr *Series) []float64 {
 	if f == 0 {
 		f = 1
 	}
-	v := make([]float64, len(sr.Counts))
+	if cap(v) < len(sr.Counts) {
+		v = make([]float64, len(sr.Counts))
+	}
+	v = v[:len(sr.Counts)]
 	for j, c := range sr.Counts {
 		v[j] = c / e[j] * f
 	}
