@@ -159,7 +159,7 @@ func PlaceNotes(st NoteStyle, p NotePlot, anns []specs.Annotation, index []int) 
 		obstacles = append(obstacles, grow(marks[k], pad))
 		solid = append(solid, marks[k]) // leaders keep off the marks
 	}
-	step := math.Max(0.5, st.Size*0.15)   // candidate spots: a fine grid
+	step := math.Max(0.5, st.Size*0.15) // candidate spots: a fine grid
 	minLead := math.Max(2, st.Size*0.4) // a leader always shows which mark a text belongs to
 	lh := st.Size * st.Leading
 	for k, i := range index {
