@@ -76,16 +76,19 @@ func (st NoteStyle) Width(text string) float64 { return st.Fonts.Width(fonts.Reg
 // Dot is a filled circle drawn on a plot (a peak dot, with its ring).
 type Dot struct{ X, Y, R float64 }
 
-// NotePlot is one plot the annotations of a term are placed on.
+// NotePlot is one plot annotations are placed on: a page's panel, an
+// insert's plot or one of its rows.
 type NotePlot struct {
 	Plot  layout.Rect // the texts stay inside it, above its baseline
 	Map   curve.Map   // years and values to the plot
-	Years []float64   // the years of Line, one a year from the span's first
-	Line  []float64   // the annotated term's values as drawn (NaN: none)
-	// Others are the other lines drawn on the same plot (overlaid
-	// terms): texts keep clear of them and leaders do not cross them.
-	Others [][]float64
-	Dots   []Dot // dots on the plot the texts and leaders keep clear of
+	Years []float64   // the years of the lines, one a year from the span's first
+	// Terms are the terms drawn on the plot (one, or the overlaid terms of
+	// an insert) and Lines their values as drawn (NaN: no point): an
+	// annotation's mark sits on its term's line; texts keep clear of every
+	// line and leaders cross none.
+	Terms []string
+	Lines [][]float64
+	Dots  []Dot // dots on the plot the texts and leaders keep clear of
 }
 
 // segment is a piece of a plotted polyline; the monotone cubic through
@@ -108,8 +111,8 @@ func (p NotePlot) polyline(vals []float64) (segs []segment, pts []curve.Point) {
 	return segs, pts
 }
 
-// PlaceNotes places annotations (given by their index into anns, all of
-// one term) on a plot: every mark first, then each text at the free spot
+// PlaceNotes places annotations (given by their index into anns, each of
+// one of the plot's terms) on a plot: every mark first, then each text at the free spot
 // nearest its mark, searched on a fine grid over the plot — inside it,
 // clear of the lines (by half their width and a margin), of the dots, of
 // every mark and of the texts placed before; its leader crosses no line
@@ -124,7 +127,6 @@ func PlaceNotes(st NoteStyle, p NotePlot, anns []specs.Annotation, index []int) 
 	clear := st.Line/2 + pad
 	pr := p.Plot
 	inner := layout.Rect{X0: pr.X0 + pad/2, Y0: pr.Y0 + st.Rule + pad/2, X1: pr.X1 - pad/2, Y1: pr.Y1 - pad/2}
-	segs, pts := p.polyline(p.Line)
 	var obstacles []layout.Rect
 	var lines []segment // what a leader must not cross (away from its mark)
 	addLine := func(segs []segment, pts []curve.Point) {
@@ -136,9 +138,8 @@ func PlaceNotes(st NoteStyle, p NotePlot, anns []specs.Annotation, index []int) 
 		}
 		lines = append(lines, segs...)
 	}
-	addLine(segs, pts)
-	for _, o := range p.Others {
-		addLine(p.polyline(o))
+	for _, l := range p.Lines {
+		addLine(p.polyline(l))
 	}
 	// solid are what a leader must not cross either: the dots, the marks
 	// and the texts.
@@ -210,7 +211,7 @@ func PlaceNotes(st NoteStyle, p NotePlot, anns []specs.Annotation, index []int) 
 // why says what an unplaced note could not keep clear of.
 func (p NotePlot) why() string {
 	what := "the line"
-	if len(p.Others) > 0 {
+	if len(p.Lines) > 1 {
 		what = "the lines"
 	}
 	if len(p.Dots) > 0 {
@@ -224,12 +225,18 @@ func (p NotePlot) why() string {
 // the line over a span. It returns where the leader starts and the mark's
 // box.
 func (st NoteStyle) mark(p NotePlot, a specs.Annotation) (curve.Point, layout.Rect) {
+	var line []float64
+	for i, t := range p.Terms {
+		if t == a.Term && i < len(p.Lines) {
+			line = p.Lines[i]
+		}
+	}
 	from := int(p.Years[0])
 	val := func(y int) float64 {
-		if y-from < 0 || y-from >= len(p.Line) {
+		if y-from < 0 || y-from >= len(line) {
 			return 0 // the spec's check keeps notes inside the span
 		}
-		if v := p.Line[y-from]; !math.IsNaN(v) {
+		if v := line[y-from]; !math.IsNaN(v) {
 			return v
 		}
 		return 0

@@ -79,7 +79,7 @@ func (f *Feature) placeNotes(pn layout.Panel) []Note {
 	if err != nil {
 		return nil
 	}
-	p := draw.NotePlot{Plot: pn.Plot, Map: m, Years: f.Data.Years, Line: f.plotted(sr)}
+	p := draw.NotePlot{Plot: pn.Plot, Map: m, Years: f.Data.Years, Terms: []string{sr.Term}, Lines: [][]float64{f.plotted(sr)}}
 	if f.Output.PeakDot && sr.Peak > 0 {
 		pk := m.Apply(float64(sr.PeakYear), sr.Peak)
 		p.Dots = []draw.Dot{{X: pk.X, Y: pk.Y, R: f.peakRadius() + f.Rule()}}
