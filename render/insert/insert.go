@@ -90,6 +90,7 @@ type Graphic struct {
 	stops  []palette.Stop
 
 	rows      []Row             // aligned rows, top first (rows style only)
+	notes     []draw.Note       // the annotations of its terms, placed
 	scaleNote string            // what the values are, above the plot
 	intervals *series.Intervals // the band's intervals; nil: no band
 }
@@ -146,6 +147,8 @@ func New(s *specs.Spec, in *specs.Insert, out *specs.Output, data *series.Set, p
 		}
 		return nil, fmt.Errorf("%s: %v", where(), err)
 	}
+	// Placed once: the drawing of each file and the report ask again.
+	g.notes = g.placeNotes()
 	return g, nil
 }
 
@@ -611,11 +614,13 @@ func (g *Graphic) noteStyle() draw.NoteStyle {
 	return draw.NoteStyle{Fonts: g.Fonts, Size: g.Output.Type.Ticks.Pt(), Leading: g.leading(), Rule: g.rule, Line: g.Output.Line.Pt()}
 }
 
-// Notes places the spec's annotations of the insert's terms
+// Notes are the spec's annotations of the insert's terms, as placed
 // (draw.PlaceNotes): on the plot, clear of every line drawn on it; in
 // rows, on the term's own strip, clear of its line and peak dot. Item is
 // the term's place in the insert; Page is 0.
-func (g *Graphic) Notes() []draw.Note {
+func (g *Graphic) Notes() []draw.Note { return g.notes }
+
+func (g *Graphic) placeNotes() []draw.Note {
 	anns := g.Spec.Annotations
 	if len(anns) == 0 {
 		return nil
