@@ -199,4 +199,3 @@ func TestInsertNotesInReport(t *testing.T) {
 	}
 	assert.Equal(t, map[string]string{"paar Werftbau": "welding", "druck Werftbau": "welding", "druck erste Rechner": "computer"}, got)
 }
-
