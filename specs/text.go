@@ -29,6 +29,10 @@ type Text struct {
 	Continued    string // a group's heading on its later pages; {heading}
 	GroupHeading string // a peak-decade group's heading; {decade}
 	DekMeasure   int    // the dek's measure in characters
+	// The descriptions for assistive technology (SVG <desc>): of one
+	// term's panel or insert, and of a comparison insert.
+	Describe        string // {term} {span} {unit} {peak}
+	DescribeCompare string // {terms} {span} {how} {unit} {max} {peaks}
 }
 
 // Where the gap note stands.
@@ -130,6 +134,21 @@ const (
 	PhraseRollingShare // {years}
 	PhraseRollingMean  // {years}
 	PhraseBandTint     // {level}
+	// The descriptions for assistive technology and their parts.
+	PhraseDescribe        // {term} {span} {unit} {peak}
+	PhraseDescribeCompare // {terms} {span} {how} {unit} {max} {peaks}
+	PhraseQuoted          // {term}: a term named in a sentence
+	PhraseStyledTerm      // {term} {line}: an overlaid term and its stroke
+	PhraseLineSolid
+	PhraseLineDashed
+	PhraseLineDotted
+	PhraseLineDashDot
+	PhraseOneScale     // how overlaid terms are drawn
+	PhraseRowsOneScale // how terms in aligned rows are drawn
+	PhrasePeakOf       // {term} {year}: one item of the peaks' list
+	// Words an insert sets on the graphic.
+	PhrasePeakLabel // {year}: under a row's term
+	PhraseSameScale // in the rows' scale note
 	numPhrases
 )
 
@@ -145,6 +164,12 @@ var phrases = map[Language][numPhrases]string{
 		"Lines break at years with no data: {years}.",
 		"{page}", "{heading} (continued)", "Peak in the {decade}s", "and",
 		"{years}-year rolling share", "{years}-year rolling mean", "tint: {level}% interval",
+		"How often {term} was used each year, {span} ({unit}); highest in {peak}.",
+		"How often {terms} were used each year, {span}, {how} ({unit}, 0 to {max}). Highest: {peaks}.",
+		"‘{term}’", "{term} ({line})",
+		"solid line", "dashed line", "dotted line", "dash-dot line",
+		"on one scale", "one row each, top to bottom, on one scale",
+		"{term} in {year}", "peak {year}", "the same scale in every row",
 	},
 	German: {
 		"Die Farbe zeigt das Jahr",
@@ -156,6 +181,12 @@ var phrases = map[Language][numPhrases]string{
 		"Die Linien brechen in Jahren ohne Daten ab: {years}.",
 		"{page}", "{heading} (Fortsetzung)", "Höhepunkt in den {decade}er-Jahren", "und",
 		"gleitender {years}-Jahres-Anteil", "gleitendes {years}-Jahres-Mittel", "Tönung: {level}-%-Intervall",
+		"Wie oft {term} in jedem Jahr verwendet wurde, {span} ({unit}); am häufigsten im Jahr {peak}.",
+		"Wie oft {terms} in jedem Jahr verwendet wurden, {span}, {how} ({unit}, 0 bis {max}). Am häufigsten: {peaks}.",
+		"„{term}“", "{term} ({line})",
+		"durchgezogene Linie", "gestrichelte Linie", "gepunktete Linie", "Strich-Punkt-Linie",
+		"auf einer gemeinsamen Skala", "je eine Zeile, von oben nach unten, auf einer gemeinsamen Skala",
+		"{term} im Jahr {year}", "Höhepunkt {year}", "in jeder Zeile dieselbe Skala",
 	},
 	Spanish: {
 		"El color indica el año",
@@ -167,12 +198,23 @@ var phrases = map[Language][numPhrases]string{
 		"Las líneas se interrumpen en los años sin datos: {years}.",
 		"{page}", "{heading} (continuación)", "Pico en la década de {decade}", "y",
 		"fracción móvil de {years} años", "media móvil de {years} años", "sombreado: intervalo del {level} %",
+		"Con qué frecuencia se usó {term} cada año, {span} ({unit}); máximo en {peak}.",
+		"Con qué frecuencia se usaron {terms} cada año, {span}, {how} ({unit}, de 0 a {max}). Máximos: {peaks}.",
+		"«{term}»", "{term} ({line})",
+		"línea continua", "línea discontinua", "línea de puntos", "línea de trazo y punto",
+		"en una misma escala", "una fila por término, de arriba abajo, en una misma escala",
+		"{term} en {year}", "pico en {year}", "la misma escala en todas las filas",
 	},
 }
 
 func init() {
 	us := phrases[EnglishUK]
 	us[PhraseKeyTitle] = "Color shows the year"
+	// Quotation marks: British usage prefers single quotes (New Hart's
+	// Rules ch. 9), American double (Chicago Manual of Style 6.9) — both
+	// from memory. German „…“ (Duden) and Spanish «…» (RAE, Ortografía
+	// 2010, angular quotes first) are set in their defaults above.
+	us[PhraseQuoted] = "“{term}”"
 	phrases[EnglishUS] = us
 }
 
@@ -183,6 +225,7 @@ func (s *Spec) Phrase(id PhraseID) string {
 	over := map[PhraseID]string{
 		PhraseKeyTitle: t.KeyTitle, PhraseGapNote: t.GapNote, PhraseFolio: t.Folio,
 		PhraseContinued: t.Continued, PhraseGroupHeading: t.GroupHeading,
+		PhraseDescribe: t.Describe, PhraseDescribeCompare: t.DescribeCompare,
 	}
 	if v := over[id]; v != "" {
 		return v
@@ -281,13 +324,70 @@ func (s *Spec) YearList(years []int) string {
 		}
 		i = j + 1
 	}
+	return s.List(items)
+}
+
+// List joins items as the language writes a list: commas, and the
+// language's "and" before the last. American English puts a comma before
+// it too when there are three or more (the serial comma, Chicago Manual
+// of Style 6.19; British usage mostly leaves it out — from memory); Spanish
+// "y" becomes "e" before a word that begins with the sound /i/ (i-, hi-,
+// but not hia-, hie-, hio-, hiu-: RAE, Ortografía 2010, §4.4.1.3, from
+// memory), looked for past an opening quotation mark.
+func (s *Spec) List(items []string) string {
 	switch len(items) {
 	case 0:
 		return ""
 	case 1:
 		return items[0]
 	}
-	return strings.Join(items[:len(items)-1], ", ") + " " + s.Phrase(PhraseAnd) + " " + items[len(items)-1]
+	last := items[len(items)-1]
+	and := s.Phrase(PhraseAnd)
+	if s.Language == Spanish && and == "y" && beginsWithI(last) {
+		and = "e"
+	}
+	sep := " "
+	if s.Language == EnglishUS && len(items) > 2 {
+		sep = ", "
+	}
+	return strings.Join(items[:len(items)-1], ", ") + sep + and + " " + last
+}
+
+// beginsWithI reports whether a Spanish word begins with the vowel sound
+// /i/: i-, í-, hi-, hí-, but not an unstressed i (or hi) before another
+// vowel, which makes a diphthong (hielo, iodo: "y" stays).
+func beginsWithI(w string) bool {
+	r := []rune(strings.TrimPrefix(strings.ToLower(strings.TrimLeft(w, "«“‘\"'„")), "h"))
+	if len(r) == 0 || (r[0] != 'i' && r[0] != 'í') {
+		return false
+	}
+	return r[0] == 'í' || len(r) == 1 || !strings.ContainsRune("aeouáéóú", r[1])
+}
+
+// Quote names a term in a sentence, in the language's quotation marks.
+func (s *Spec) Quote(term string) string { return Fill(s.Phrase(PhraseQuoted), "term", term) }
+
+// Smoothing says how the values are smoothed ("5-year rolling share"),
+// in the spec's language; "" without a rolling window.
+func (s *Spec) Smoothing(years int) string {
+	if years < 2 {
+		return ""
+	}
+	id := PhraseRollingShare
+	if s.Scale.Mode == ScaleRaw {
+		id = PhraseRollingMean
+	}
+	return Fill(s.Phrase(id), "years", strconv.Itoa(years))
+}
+
+// Highlighted reports whether the spec highlights a term.
+func (s *Spec) Highlighted(term string) bool {
+	for _, h := range s.Highlights {
+		if h == term {
+			return true
+		}
+	}
+	return false
 }
 
 var placeholder = regexp.MustCompile(`\{[^{}]*\}`)
@@ -343,6 +443,8 @@ func (d *decoder) text(n *yaml.Node, path string, t *Text) {
 		{"continued", d.phraseKey(&t.Continued, "heading")},
 		{"group-heading", d.phraseKey(&t.GroupHeading, "decade")},
 		{"dek-measure", d.integer(&t.DekMeasure, 20, 200)},
+		{"describe", d.phraseKey(&t.Describe, "term", "span", "unit", "peak")},
+		{"describe-compare", d.phraseKey(&t.DescribeCompare, "terms", "span", "how", "unit", "max", "peaks")},
 	})
 }
 

@@ -159,3 +159,69 @@ func itoa(i int) string {
 	}
 	return string(b)
 }
+
+// TestList: a list in each language's form. The serial comma in American
+// English (Chicago Manual of Style 6.19) and its absence in British usage,
+// German "und" with no comma before it (Duden, Komma rule: no comma before
+// "und" joining list items), Spanish "y" that becomes "e" before a word
+// beginning with the sound /i/ but not before a diphthong (RAE, Ortografía
+// de la lengua española 2010; "agua y hielo", "cobre y iodo") — all from
+// memory.
+func TestList(t *testing.T) {
+	tests := []struct {
+		lang  Language
+		items []string
+		want  string
+	}{
+		{EnglishUK, []string{"a"}, "a"},
+		{EnglishUK, []string{"a", "b"}, "a and b"},
+		{EnglishUK, []string{"a", "b", "c"}, "a, b and c"},
+		{EnglishUS, []string{"a", "b"}, "a and b"},
+		{EnglishUS, []string{"a", "b", "c"}, "a, b, and c"},
+		{German, []string{"a", "b", "c"}, "a, b und c"},
+		{Spanish, []string{"telégrafo", "teléfono"}, "telégrafo y teléfono"},
+		{Spanish, []string{"telégrafo", "internet"}, "telégrafo e internet"},
+		{Spanish, []string{"agujas", "hilos"}, "agujas e hilos"},
+		{Spanish, []string{"agua", "hielo"}, "agua y hielo"},
+		{Spanish, []string{"cobre", "iodo"}, "cobre y iodo"},
+		{Spanish, []string{"«cable»", "«imprenta»"}, "«cable» e «imprenta»"},
+		{Spanish, []string{"a", "b", "c"}, "a, b y c"},
+	}
+	for _, tt := range tests {
+		s := &Spec{Language: tt.lang}
+		assert.Equal(t, tt.want, s.List(tt.items), "%s %v", tt.lang, tt.items)
+	}
+}
+
+// TestDescribePhrases: the sentences for assistive technology per
+// language, with the language's quotation marks (British single, American
+// double: New Hart's Rules and the Chicago Manual of Style; German „…“:
+// Duden; Spanish «…»: RAE — from memory), and the spec's own wording under
+// text: with its placeholders checked.
+func TestDescribePhrases(t *testing.T) {
+	fill := func(s *Spec) string {
+		return Fill(s.Phrase(PhraseDescribe), "term", s.Quote("telegraph"), "span", "1868–2025", "unit", s.Phrase(PhraseUnitShare), "peak", "1884")
+	}
+	tests := []struct {
+		lang Language
+		want string
+	}{
+		{EnglishUK, "How often ‘telegraph’ was used each year, 1868–2025 (per million words); highest in 1884."},
+		{EnglishUS, "How often “telegraph” was used each year, 1868–2025 (per million words); highest in 1884."},
+		{German, "Wie oft „telegraph“ in jedem Jahr verwendet wurde, 1868–2025 (je Million Wörter); am häufigsten im Jahr 1884."},
+		{Spanish, "Con qué frecuencia se usó «telegraph» cada año, 1868–2025 (por millón de palabras); máximo en 1884."},
+	}
+	for _, tt := range tests {
+		assert.Equal(t, tt.want, fill(&Spec{Language: tt.lang}), tt.lang)
+	}
+	s, err := Parse("s.yaml", []byte(printOut+"text:\n  describe: \"{term}: {span}, peak {peak} ({unit})\"\n  describe-compare: \"{terms}, {span}\"\n"))
+	require.NoError(t, err)
+	assert.Equal(t, "‘telegraph’: 1868–2025, peak 1884 (per million words)", fill(s))
+	assert.Equal(t, "{terms}, {span}", s.Phrase(PhraseDescribeCompare))
+	_, err = Parse("s.yaml", []byte(printOut+"text:\n  describe: \"{term} {max}\"\n"))
+	require.Error(t, err)
+	assert.Contains(t, err.Error(), "{max} is not filled in here; it takes {term}, {span}, {unit}, {peak}")
+	_, err = Parse("s.yaml", []byte(printOut+"text:\n  describe-compare: \"{term}\"\n"))
+	require.Error(t, err)
+	assert.Contains(t, err.Error(), "{term} is not filled in here; it takes {terms}")
+}

@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"strings"
 
+	"sheaf/render/draw"
 	"sheaf/render/preflight"
 	"sheaf/specs"
 	"sheaf/specs/series"
@@ -62,17 +63,32 @@ func checkNoteRoom(s *specs.Spec, o *Output) error {
 	return errs.Err()
 }
 
-// noteFindings lists the annotations that could not be placed.
+// noteFindings lists the annotations that could not be placed on an
+// output's pages.
 func noteFindings(s *specs.Spec, o *Output) []preflight.Finding {
+	return unplaced(s, o.Spec.Name, "", o.Feature.Notes())
+}
+
+// insertNoteFindings lists the annotations that could not be placed on
+// an insert.
+func insertNoteFindings(s *specs.Spec, in *Insert) []preflight.Finding {
+	return unplaced(s, in.Output.Name, in.Name(), in.Graphic.Notes())
+}
+
+func unplaced(s *specs.Spec, output, insert string, notes []draw.Note) []preflight.Finding {
 	var fs []preflight.Finding
-	for _, n := range o.Feature.Notes() {
+	for _, n := range notes {
 		if n.Placed {
 			continue
 		}
 		a := s.Annotations[n.Index]
-		fs = append(fs, preflight.Finding{ID: IDNoteUnplaced, Severity: preflight.Warning, Output: o.Spec.Name,
+		on := ""
+		if insert != "" {
+			on = fmt.Sprintf(" on insert %q", insert)
+		}
+		fs = append(fs, preflight.Finding{ID: IDNoteUnplaced, Severity: preflight.Warning, Output: output, Insert: insert,
 			Page: n.Page, Term: n.Term, Year: n.From, At: s.Where(a.Path).String(),
-			Message: fmt.Sprintf("annotation %q could not be placed: %s; shorten it or move its year", n.Text, n.Why)})
+			Message: fmt.Sprintf("annotation %q could not be placed%s: %s; shorten it or move its year", n.Text, on, n.Why)})
 	}
 	return fs
 }

@@ -9,9 +9,10 @@ import (
 )
 
 // Preflight checks every prepared output (see package preflight), each
-// with its palette report. A finding about the data itself (a spike, an
-// empty panel) is listed once however many outputs show the term.
-func (j *Job) Preflight(outs []*Output) ([]preflight.Finding, error) {
+// with its palette report, and the inserts given (their annotations). A
+// finding about the data itself (a spike, an empty panel) is listed once
+// however many outputs show the term.
+func (j *Job) Preflight(outs []*Output, inserts ...*Insert) ([]preflight.Finding, error) {
 	pal, err := j.CheckPalette()
 	if err != nil {
 		return nil, err
@@ -24,6 +25,9 @@ func (j *Job) Preflight(outs []*Output) ([]preflight.Finding, error) {
 		}
 		all = append(all, fs...)
 		all = append(all, noteFindings(j.Spec, o)...)
+	}
+	for _, in := range inserts {
+		all = append(all, insertNoteFindings(j.Spec, in)...)
 	}
 	// Worst first, as preflight.Check orders its own.
 	sort.SliceStable(all, func(a, b int) bool { return all[a].Severity > all[b].Severity })

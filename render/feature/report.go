@@ -4,6 +4,7 @@ import (
 	"fmt"
 
 	"sheaf/layout"
+	"sheaf/render/draw"
 	"sheaf/render/page"
 	"sheaf/render/preflight"
 )
@@ -17,9 +18,24 @@ type Report struct {
 	Years   YearsReport    `json:"years"`
 	Scale   ScaleReport    `json:"scale"`
 	Outputs []OutputReport `json:"outputs"`
+	// Inserts are the spec's inserts as laid out, in the spec's order.
+	Inserts []InsertReport `json:"inserts,omitempty"`
 	// Preflight lists what the preflight checks found, worst first
 	// (see package preflight).
 	Preflight []preflight.Finding `json:"preflight"`
+}
+
+// InsertReport is one insert: its name, the output it borrows, its size
+// and where its annotations landed.
+type InsertReport struct {
+	Name    string     `json:"name"`
+	Output  string     `json:"output"`
+	SizePt  [2]float64 `json:"size_pt"`
+	Terms   []string   `json:"terms"`
+	Compare string     `json:"compare,omitempty"` // rows or overlay, for two terms or more
+	// Notes is where every annotation of the insert's terms landed
+	// (placed or not, with why); item is the term's place in terms.
+	Notes []draw.Note `json:"annotations,omitempty"`
 }
 
 // TermsReport is the terms the data has and the spec selects.
@@ -151,10 +167,26 @@ func (j *Job) Summarize() (Report, error) {
 	}
 	// Inserts are laid out too: a missing term or a graphic too small for
 	// its plot is bad input here, as it is for build.
-	if _, err := j.PrepareInserts(); err != nil {
+	ins, err := j.PrepareInserts()
+	if err != nil {
 		return r, err
 	}
-	r.Preflight, err = j.Preflight(outs)
+	for _, in := range ins {
+		g := in.Graphic
+		w, h := g.Size()
+		ir := InsertReport{Name: in.Name(), Output: in.Output.Name, SizePt: [2]float64{w, h}, Notes: g.Notes()}
+		for _, sr := range g.Data.Series {
+			ir.Terms = append(ir.Terms, sr.Term)
+		}
+		if len(ir.Terms) > 1 {
+			ir.Compare = "overlay"
+			if g.Rowed() {
+				ir.Compare = "rows"
+			}
+		}
+		r.Inserts = append(r.Inserts, ir)
+	}
+	r.Preflight, err = j.Preflight(outs, ins...)
 	if r.Preflight == nil {
 		r.Preflight = []preflight.Finding{}
 	}

@@ -19,11 +19,13 @@ import (
 	"fmt"
 	"image/color"
 	"math"
+	"slices"
 	"strconv"
 	"strings"
 
 	"github.com/tdewolff/canvas"
 
+	"sheaf/layout"
 	"sheaf/layout/fonts"
 	"sheaf/palette"
 	"sheaf/render/curve"
@@ -38,7 +40,8 @@ const mm = specs.MmPerPt
 
 // LineStyle is how one term's line is stroked in a comparison.
 type LineStyle struct {
-	Name string
+	Name   string
+	Phrase specs.PhraseID // the style's name in the spec's language ("dotted line")
 	// Dashes alternate dash and gap lengths in units of the line width
 	// (canvas's convention, canvas.ScaleDash); empty is solid. With round
 	// caps every dash grows by one line width, so a dash of 0.01 draws as
@@ -50,10 +53,10 @@ type LineStyle struct {
 // that stay apart at any length because their periods differ in kind,
 // not only in scale.
 var Styles = [4]LineStyle{
-	{Name: "solid"},
-	{Name: "dashed", Dashes: []float64{5, 3.2}},
-	{Name: "dotted", Dashes: []float64{0.01, 2.6}},
-	{Name: "dash-dot", Dashes: []float64{5, 2.8, 0.01, 2.8}},
+	{Name: "solid", Phrase: specs.PhraseLineSolid},
+	{Name: "dashed", Phrase: specs.PhraseLineDashed, Dashes: []float64{5, 3.2}},
+	{Name: "dotted", Phrase: specs.PhraseLineDotted, Dashes: []float64{0.01, 2.6}},
+	{Name: "dash-dot", Phrase: specs.PhraseLineDashDot, Dashes: []float64{5, 2.8, 0.01, 2.8}},
 }
 
 // Ink colours, as on the pages.
@@ -87,6 +90,7 @@ type Graphic struct {
 	stops  []palette.Stop
 
 	rows      []Row             // aligned rows, top first (rows style only)
+	notes     []draw.Note       // the annotations of its terms, placed
 	scaleNote string            // what the values are, above the plot
 	intervals *series.Intervals // the band's intervals; nil: no band
 }
@@ -104,6 +108,8 @@ type rectPt struct{ X0, Y0, X1, Y1 float64 }
 
 func (r rectPt) W() float64 { return r.X1 - r.X0 }
 func (r rectPt) H() float64 { return r.Y1 - r.Y0 }
+
+func (r rectPt) layout() layout.Rect { return layout.Rect{X0: r.X0, Y0: r.Y0, X1: r.X1, Y1: r.Y1} }
 
 // Label is a term's label at its line's end.
 type Label struct {
@@ -141,6 +147,8 @@ func New(s *specs.Spec, in *specs.Insert, out *specs.Output, data *series.Set, p
 		}
 		return nil, fmt.Errorf("%s: %v", where(), err)
 	}
+	// Placed once: the drawing of each file and the report ask again.
+	g.notes = g.placeNotes()
 	return g, nil
 }
 
@@ -232,50 +240,33 @@ func (g *Graphic) Title() string {
 	for _, sr := range g.Data.Series {
 		terms = append(terms, sr.Term)
 	}
-	return listing(terms)
-}
-
-func listing(xs []string) string {
-	switch len(xs) {
-	case 0:
-		return ""
-	case 1:
-		return xs[0]
-	}
-	return strings.Join(xs[:len(xs)-1], ", ") + " and " + xs[len(xs)-1]
+	return g.Spec.List(terms)
 }
 
 // Describe returns the insert's title and a description for assistive
 // technology: the terms, their line styles, the span, the scale and the
-// peaks.
+// peaks — every word the spec's (text.describe, text.describe-compare, or
+// the language's), every number in the language's form.
 func (g *Graphic) Describe() (title, desc string) {
-	d := g.Data
-	var b strings.Builder
+	d, s := g.Data, g.Spec
 	if len(d.Series) == 1 {
-		sr := d.Series[0]
-		fmt.Fprintf(&b, "How often %q was used each year, %d–%d (%s); highest in %d.", sr.Term, d.Span.From, d.Span.To, d.Unit, sr.PeakYear)
-		return g.Title(), b.String()
+		return g.Title(), page.DescribeTerm(s, d, &d.Series[0])
 	}
 	var parts, peaks []string
 	for i, sr := range d.Series {
 		if g.Rowed() {
-			parts = append(parts, fmt.Sprintf("%q", sr.Term))
+			parts = append(parts, s.Quote(sr.Term))
 		} else {
-			parts = append(parts, fmt.Sprintf("%q (%s line)", sr.Term, Styles[i].Name))
+			parts = append(parts, specs.Fill(s.Phrase(specs.PhraseStyledTerm), "term", s.Quote(sr.Term), "line", s.Phrase(Styles[i].Phrase)))
 		}
-		peaks = append(peaks, fmt.Sprintf("%q in %d", sr.Term, sr.PeakYear))
+		peaks = append(peaks, specs.Fill(s.Phrase(specs.PhrasePeakOf), "term", s.Quote(sr.Term), "year", strconv.Itoa(sr.PeakYear)))
 	}
-	how := "on one scale"
+	how := s.Phrase(specs.PhraseOneScale)
 	if g.Rowed() {
-		how = "one row each, top to bottom, on one scale"
+		how = s.Phrase(specs.PhraseRowsOneScale)
 	}
-	unit := d.Unit
-	if n := d.Note(); n != "" {
-		unit += ", " + n
-	}
-	fmt.Fprintf(&b, "How often %s were used each year, %d–%d, %s (%s, 0 to %s). Highest: %s.",
-		listing(parts), d.Span.From, d.Span.To, how, unit, formatValue(g.yMax), listing(peaks))
-	return g.Title(), b.String()
+	return g.Title(), specs.Fill(s.Phrase(specs.PhraseDescribeCompare), "terms", s.List(parts), "span", page.SpanText(d.Span),
+		"how", how, "unit", page.UnitText(s, d), "max", g.formatValue(g.yMax), "peaks", s.List(peaks))
 }
 
 // layout places the title, the key, the plot and the labels.
@@ -324,7 +315,7 @@ func (g *Graphic) layout() error {
 	band := ""
 	if g.Output.Band > 0 && (g.Rowed() || len(g.Data.Series) == 1) {
 		g.intervals = series.NewIntervals(g.Output.Band)
-		band = "tint: " + strconv.FormatFloat(g.Output.Band*100, 'f', -1, 64) + "% interval"
+		band = specs.Fill(g.Spec.Phrase(specs.PhraseBandTint), "level", g.Spec.FormatSignificant(g.Output.Band*100))
 	}
 	g.scaleNote = g.fitNote(inner, band)
 	if g.Rowed() {
@@ -334,7 +325,7 @@ func (g *Graphic) layout() error {
 	// Left: the y labels; right: the line-end labels.
 	left := 0.0
 	for _, v := range g.yTicks {
-		left = math.Max(left, fs.Width(fonts.Figures, ts, formatValue(v)))
+		left = math.Max(left, fs.Width(fonts.Figures, ts, g.formatValue(v)))
 	}
 	ls := t.Label.Pt()
 	right := 0.0
@@ -408,11 +399,11 @@ func (g *Graphic) layoutRows(top, bottom float64) error {
 	left := 0.0
 	for _, sr := range g.Data.Series {
 		left = math.Max(left, fs.Width(fonts.Bold, ls, sr.Term))
-		left = math.Max(left, fs.Width(fonts.Regular, ts, peakText(sr.PeakYear)))
+		left = math.Max(left, fs.Width(fonts.Regular, ts, g.peakText(sr.PeakYear)))
 	}
 	right := 0.0
 	for _, v := range []float64{0, g.yMax} {
-		right = math.Max(right, fs.Width(fonts.Regular, ts, formatValue(v)))
+		right = math.Max(right, fs.Width(fonts.Regular, ts, g.formatValue(v)))
 	}
 	x0 := g.pad + left + ls*0.8
 	x1 := g.w - g.pad - right - ts*0.5
@@ -459,16 +450,13 @@ func (g *Graphic) layoutRows(top, bottom float64) error {
 // that fits width.
 func (g *Graphic) fitNote(width float64, band string) string {
 	ts := g.Output.Type.Ticks.Pt()
-	unit := g.Data.Unit
-	if g.Data.Rolling > 1 {
-		unit += fmt.Sprintf(", %d-year rolling", g.Data.Rolling)
-	}
+	unit := page.UnitText(g.Spec, g.Data)
 	parts := []string{unit}
 	if band != "" {
 		parts = append(parts, band)
 	}
 	if g.Rowed() {
-		parts = append(parts, "the same scale in every row")
+		parts = append(parts, g.Spec.Phrase(specs.PhraseSameScale))
 	}
 	for n := len(parts); n > 1; n-- {
 		if note := strings.Join(parts[:n], "; "); g.Fonts.Width(fonts.Regular, ts, note) <= width {
@@ -482,7 +470,10 @@ func (g *Graphic) fitNote(width float64, band string) string {
 // pages: a little wider than the line.
 func (g *Graphic) dotRadius() float64 { return math.Max(g.Output.Line.Pt()*1.1, 1.0) }
 
-func peakText(year int) string { return "peak " + strconv.Itoa(year) }
+// peakText is the line under a row's term: "peak 1926".
+func (g *Graphic) peakText(year int) string {
+	return specs.Fill(g.Spec.Phrase(specs.PhrasePeakLabel), "year", strconv.Itoa(year))
+}
 
 // sampleLen is the length of the line-style sample before a label: long
 // enough to show a whole dash-dot period.
@@ -510,13 +501,10 @@ func niceTicks(peak float64, n int) ([]float64, float64) {
 	return ticks, top
 }
 
-// formatValue writes a tick value with no more digits than it needs.
-func formatValue(v float64) string {
-	if v == 0 {
-		return "0"
-	}
-	return strconv.FormatFloat(v, 'g', 4, 64)
-}
+// formatValue writes a tick value (a round number: a step of 1, 2, 2.5
+// or 5 times a power of ten) with no more digits than it needs, in the
+// language's form (decimal comma in German and Spanish).
+func (g *Graphic) formatValue(v float64) string { return g.Spec.FormatSignificant(v) }
 
 // Paper is the background colour.
 func (g *Graphic) Paper() color.RGBA { return rgba(page.ColorOf(g.Spec.Palette.Paper).RGB()) }
@@ -547,9 +535,17 @@ func (g *Graphic) Draw(ctx *canvas.Context) error {
 		return nil
 	}
 
-	// Grid: a rule at every y tick, labelled on the left.
+	// A highlighted term alone: the tint behind the plot and the rule
+	// over its name (the title), as its panel has on the pages.
 	ts := t.Ticks.Pt()
 	pr := g.plot
+	if len(g.Data.Series) == 1 && g.Spec.Highlighted(g.Data.Series[0].Term) {
+		fillRect(ctx, pr.X0, pr.Y0, pr.X1, pr.Y1, draw.HighlightTint, nil)
+		ry := g.titleRule()
+		line(ctx, g.pad, ry, g.w-g.pad, ry, draw.HighlightRule(g.rule), ink, nil)
+	}
+
+	// Grid: a rule at every y tick, labelled on the left.
 	for i, v := range g.yTicks {
 		yy := g.m.Y(v)
 		col := ruleGrey
@@ -558,7 +554,7 @@ func (g *Graphic) Draw(ctx *canvas.Context) error {
 		}
 		line(ctx, pr.X0, yy, pr.X1, yy, g.rule, col, nil)
 		mt := fs.Metrics(fonts.Regular, ts)
-		text(ctx, fs, fonts.Figures, ts, inkSoft, pr.X0-ts*0.6, yy-mt.CapHeight/2, canvas.Right, formatValue(v))
+		text(ctx, fs, fonts.Figures, ts, inkSoft, pr.X0-ts*0.6, yy-mt.CapHeight/2, canvas.Right, g.formatValue(v))
 	}
 	// What the values are, above the y labels.
 	text(ctx, fs, fonts.Regular, ts, inkSoft, g.pad, pr.Y1+ts*1.1, canvas.Left, g.scaleNote)
@@ -587,10 +583,19 @@ func (g *Graphic) Draw(ctx *canvas.Context) error {
 		}
 	}
 
-	// Labels at the line ends, with a leader where a label had to move.
+	g.pen(ctx).Notes(g.noteStyle(), g.Notes())
+
+	// Labels at the line ends, with a leader where a label had to move; a
+	// highlighted term's label on the highlight's tint.
 	ls := t.Label.Pt()
 	lw := g.Output.Line.Pt()
 	sample := g.sampleLen()
+	for _, l := range g.labels {
+		if g.Spec.Highlighted(l.Term) {
+			b := g.labelTint(l)
+			fillRect(ctx, b.X0, b.Y0, b.X1, b.Y1, draw.HighlightTint, nil)
+		}
+	}
 	for _, l := range g.labels {
 		if math.Abs(l.Y-l.EndY) > ls*0.25 {
 			line(ctx, l.EndX+lw, l.EndY, l.X-ls*0.15, l.Y, g.rule, axisGrey, nil)
@@ -602,6 +607,84 @@ func (g *Graphic) Draw(ctx *canvas.Context) error {
 	g.source(ctx)
 	return nil
 }
+
+// noteStyle is how the insert sets annotations: as the pages of the
+// output it borrows do (the tick labels' size, its rules and line).
+func (g *Graphic) noteStyle() draw.NoteStyle {
+	return draw.NoteStyle{Fonts: g.Fonts, Size: g.Output.Type.Ticks.Pt(), Leading: g.leading(), Rule: g.rule, Line: g.Output.Line.Pt()}
+}
+
+// Notes are the spec's annotations of the insert's terms, as placed
+// (draw.PlaceNotes): on the plot, clear of every line drawn on it; in
+// rows, on the term's own strip, clear of its line and peak dot. Item is
+// the term's place in the insert; Page is 0.
+func (g *Graphic) Notes() []draw.Note { return g.notes }
+
+func (g *Graphic) placeNotes() []draw.Note {
+	anns := g.Spec.Annotations
+	if len(anns) == 0 {
+		return nil
+	}
+	var out []draw.Note
+	place := func(p draw.NotePlot, first int) {
+		var idx []int
+		for i, a := range anns {
+			if slices.Contains(p.Terms, a.Term) {
+				idx = append(idx, i)
+			}
+		}
+		ns := draw.PlaceNotes(g.noteStyle(), p, anns, idx)
+		for k := range ns {
+			ns[k].Item = first + slices.Index(p.Terms, ns[k].Term)
+		}
+		out = append(out, ns...)
+	}
+	if g.Rowed() {
+		for i, r := range g.rows {
+			sr := &g.Data.Series[i]
+			p := draw.NotePlot{Plot: r.Plot.layout(), Map: r.Map, Years: g.Data.Years, Terms: []string{sr.Term}, Lines: [][]float64{sr.Values}}
+			if sr.Peak > 0 {
+				pk := r.Map.Apply(float64(sr.PeakYear), sr.Peak)
+				p.Dots = []draw.Dot{{X: pk.X, Y: pk.Y, R: g.dotRadius() + g.rule}}
+			}
+			place(p, i)
+		}
+		return out
+	}
+	p := draw.NotePlot{Plot: g.plot.layout(), Map: g.m, Years: g.Data.Years}
+	for i := range g.Data.Series {
+		p.Terms = append(p.Terms, g.Data.Series[i].Term)
+		p.Lines = append(p.Lines, g.Data.Series[i].Values)
+	}
+	place(p, 0)
+	return out
+}
+
+// titleRule is the height of the highlight's rule over the title of a
+// single term's insert: just above the title's first line.
+func (g *Graphic) titleRule() float64 {
+	return g.h - g.pad + draw.HighlightRule(g.rule)/2 + g.titleS*0.1
+}
+
+// rowRule is the highlight's rule over a row's term (a line: Y0 = Y1),
+// as wide as the term.
+func (g *Graphic) rowRule(r Row) rectPt {
+	ls := g.Output.Type.Label.Pt()
+	x1 := r.Plot.X0 - ls*0.8
+	y := r.Baseline + g.Fonts.Metrics(fonts.Bold, ls).CapHeight + ls*0.35
+	return rectPt{X0: x1 - g.Fonts.Width(fonts.Bold, ls, r.Term), Y0: y, X1: x1, Y1: y}
+}
+
+// labelTint is the tint behind a highlighted term's label at its line's
+// end: the sample and the term, inside the line box Spread keeps apart
+// (a little short of it, so two highlighted labels side by side stay
+// two).
+func (g *Graphic) labelTint(l Label) rectPt {
+	ls := g.Output.Type.Label.Pt()
+	return rectPt{X0: l.X - ls*0.25, Y0: l.Y - l.Height/2 + ls*0.06, X1: l.X + l.Width + ls*0.25, Y1: l.Y + l.Height/2 - ls*0.06}
+}
+
+func (g *Graphic) pen(ctx *canvas.Context) draw.Pen { return draw.Pen{Ctx: ctx, Fonts: g.Fonts} }
 
 // source draws the source line at the foot.
 func (g *Graphic) source(ctx *canvas.Context) {
@@ -629,6 +712,15 @@ func (g *Graphic) drawRows(ctx *canvas.Context) error {
 	pr := g.plot
 	// What the values are, above the rows, at the left edge.
 	text(ctx, fs, fonts.Regular, ts, inkSoft, g.pad, pr.Y1+ts*1.1, canvas.Left, g.scaleNote)
+	// A highlighted term, as on the pages: a tint behind its strip (under
+	// the year rules) and a rule over its name.
+	for _, r := range g.rows {
+		if g.Spec.Highlighted(r.Term) {
+			fillRect(ctx, r.Plot.X0, r.Plot.Y0, r.Plot.X1, r.Plot.Y1, draw.HighlightTint, nil)
+			rr := g.rowRule(r)
+			line(ctx, rr.X0, rr.Y0, rr.X1, rr.Y0, draw.HighlightRule(g.rule), ink, nil)
+		}
+	}
 	years := tickYears(fs, g.Data.Span, pr.W(), ts)
 	first, last := g.rows[0], g.rows[len(g.rows)-1]
 	for _, yr := range years {
@@ -636,7 +728,7 @@ func (g *Graphic) drawRows(ctx *canvas.Context) error {
 		line(ctx, x, last.Plot.Y0, x, first.Plot.Y1, g.rule, ruleGrey, nil)
 	}
 	mt := fs.Metrics(fonts.Regular, ts)
-	text(ctx, fs, fonts.Regular, ts, inkSoft, pr.X1+ts*0.5, first.Map.Y(g.yMax)-mt.CapHeight/2, canvas.Left, formatValue(g.yMax))
+	text(ctx, fs, fonts.Regular, ts, inkSoft, pr.X1+ts*0.5, first.Map.Y(g.yMax)-mt.CapHeight/2, canvas.Left, g.formatValue(g.yMax))
 	text(ctx, fs, fonts.Regular, ts, inkSoft, pr.X1+ts*0.5, first.Map.Y(0)-mt.CapHeight/2, canvas.Left, "0")
 	var b curve.Builder
 	for i, r := range g.rows {
@@ -662,9 +754,10 @@ func (g *Graphic) drawRows(ctx *canvas.Context) error {
 		}
 		text(ctx, fs, fonts.Bold, ls, ink, r.Plot.X0-ls*0.8, r.Baseline, canvas.Right, sr.Term)
 		if r.PeakLine != 0 {
-			text(ctx, fs, fonts.Regular, ts, inkSoft, r.Plot.X0-ls*0.8, r.PeakLine, canvas.Right, peakText(sr.PeakYear))
+			text(ctx, fs, fonts.Regular, ts, inkSoft, r.Plot.X0-ls*0.8, r.PeakLine, canvas.Right, g.peakText(sr.PeakYear))
 		}
 	}
+	g.pen(ctx).Notes(g.noteStyle(), g.Notes())
 	tick := ts * 0.35
 	base := last.Plot.Y0 - tick - mt.Ascent - ts*0.15
 	for _, yr := range years {
@@ -734,13 +827,13 @@ func (g *Graphic) stroke(ctx *canvas.Context, b *curve.Builder, sr *series.Serie
 	return nil
 }
 
-// key draws "Colour shows the year" and the era strip with its first and
+// key draws the key's caption ("Colour shows the year") and the era strip with its first and
 // last years, so the insert reads on its own.
 func (g *Graphic) key(ctx *canvas.Context) {
 	fs := g.Fonts
 	ks := g.Output.Type.Key.Pt()
 	ts := g.Output.Type.Ticks.Pt()
-	caption := "Colour shows the year"
+	caption := g.Spec.Phrase(specs.PhraseKeyTitle)
 	capW := fs.Width(fonts.Bold, ks, caption)
 	text(ctx, fs, fonts.Bold, ks, ink, g.pad, g.keyY, canvas.Left, caption)
 	x0 := g.pad + capW + ks*0.8

@@ -197,7 +197,7 @@ func TestComparisonLabels(t *testing.T) {
 	assert.Len(t, styles, 4, "line styles %v; want four different", styles)
 	assert.Equal(t, 4.0, g.YMax(), "shared y-range top %v, want 4 (the largest value of any term, a round number)", g.YMax())
 	title, desc := g.Describe()
-	assert.False(t, title != "telegraph, telephone, wireless and Maßstab" || !bytes.Contains([]byte(desc), []byte(`"wireless" (dotted line)`)), "Describe() = %q, %q", title, desc)
+	assert.False(t, title != "telegraph, telephone, wireless and Maßstab" || !bytes.Contains([]byte(desc), []byte(`‘wireless’ (dotted line)`)), "Describe() = %q, %q", title, desc)
 }
 
 // TestNiceTicks: steps of 1, 2, 2.5 or 5 × 10^k (common practice for

@@ -123,12 +123,12 @@ func TestNoteFits(t *testing.T) {
 	wide := testInsertAs(t, specs.Screen, specs.Length(600*0.75), specs.Length(360*0.75), specs.CompareRows)
 	assert.Equal(t, "per million words; the same scale in every row", wide.scaleNote)
 	wide.Data.Rolling = 5
-	assert.Equal(t, "per million words, 5-year rolling; tint: 95% interval; the same scale in every row", wide.fitNote(1e6, "tint: 95% interval"))
+	assert.Equal(t, "per million words, 5-year rolling share; tint: 95% interval; the same scale in every row", wide.fitNote(1e6, "tint: 95% interval"))
 	ts := wide.Output.Type.Ticks.Pt()
 	for _, w := range []float64{300, 200, 120, 60} {
 		note := wide.fitNote(w, "tint: 95% interval")
 		assert.Contains(t, note, "per million words")
-		if wide.Fonts.Width(fonts.Regular, ts, "per million words, 5-year rolling") <= w {
+		if wide.Fonts.Width(fonts.Regular, ts, "per million words, 5-year rolling share") <= w {
 			assert.LessOrEqual(t, wide.Fonts.Width(fonts.Regular, ts, note), w, "width %v: %q", w, note)
 		}
 	}

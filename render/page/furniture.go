@@ -108,14 +108,7 @@ func (f *Feature) noteLines(size, width float64) []string {
 // with a band what the tint is.
 func (f *Feature) scaleNotes() []string {
 	notes := f.heightNotes()
-	roll := ""
-	if f.Data.Rolling >= 2 { // the language's "5-year rolling share" (Data.Note's wording in English)
-		id := specs.PhraseRollingShare
-		if f.Spec.Scale.Mode == specs.ScaleRaw {
-			id = specs.PhraseRollingMean
-		}
-		roll = specs.Fill(f.Spec.Phrase(id), "years", strconv.Itoa(f.Data.Rolling))
-	}
+	roll := f.Spec.Smoothing(f.Data.Rolling) // the language's "5-year rolling share" (Data.Note's wording in English)
 	band := ""
 	if f.Output.Band > 0 {
 		band = "; " + specs.Fill(f.Spec.Phrase(specs.PhraseBandTint), "level", f.Spec.FormatSignificant(f.Output.Band*100))

@@ -114,15 +114,32 @@ type Grouper interface {
 }
 
 // Describe returns a panel's title and description: the term, the span
-// and the peak.
+// and the peak, in the spec's words (text.describe).
 func (f *Feature) Describe(item int) (title, desc string) {
 	sr := &f.Data.Series[item]
-	unit := f.Data.Unit
-	if n := f.Data.Note(); n != "" {
-		unit += ", " + n
+	return sr.Term, DescribeTerm(f.Spec, f.Data, sr)
+}
+
+// DescribeTerm is the description of one term's line for assistive
+// technology: the term, the span, the unit (and smoothing) and the peak
+// year, in the spec's phrase for it (text.describe or the language's).
+func DescribeTerm(s *specs.Spec, d *series.Set, sr *series.Series) string {
+	return specs.Fill(s.Phrase(specs.PhraseDescribe), "term", s.Quote(sr.Term), "span", SpanText(d.Span),
+		"unit", UnitText(s, d), "peak", strconv.Itoa(sr.PeakYear))
+}
+
+// SpanText writes a span of years with an en dash (years are never
+// grouped: 1868–2025 in every language).
+func SpanText(sp specs.Span) string { return strconv.Itoa(sp.From) + "–" + strconv.Itoa(sp.To) }
+
+// UnitText is the unit of the plotted values and, with a rolling window,
+// the smoothing, in the spec's language: "per million words, 5-year
+// rolling share".
+func UnitText(s *specs.Spec, d *series.Set) string {
+	if n := s.Smoothing(d.Rolling); n != "" {
+		return d.Unit + ", " + n
 	}
-	return sr.Term, fmt.Sprintf("How often %q was used each year, %d–%d (%s); highest in %d.",
-		sr.Term, f.Data.Span.From, f.Data.Span.To, unit, sr.PeakYear)
+	return d.Unit
 }
 
 // Ink colours of the furniture. Text and rules are one ink (black or a

@@ -419,7 +419,8 @@ func TestDescribe(t *testing.T) {
 	for i, sr := range f.Data.Series {
 		title, desc := f.Describe(i)
 		assert.Equal(t, sr.Term, title, "item %d: title", i)
-		for _, want := range []string{strconv.Quote(sr.Term), "1900–1905", "highest in " + strconv.Itoa(sr.PeakYear)} {
+		// The term in British single quotes (the en-GB default, New Hart's Rules; from memory).
+		for _, want := range []string{"‘" + sr.Term + "’", "1900–1905", "highest in " + strconv.Itoa(sr.PeakYear)} {
 			assert.Contains(t, desc, want, "item %d: description", i)
 		}
 	}

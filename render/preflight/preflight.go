@@ -90,7 +90,8 @@ type Finding struct {
 	ID       string   `json:"id"`
 	Severity Severity `json:"severity"`
 	Output   string   `json:"output"`
-	Page     int      `json:"page,omitempty"` // 1-based; 0 when not about a page
+	Insert   string   `json:"insert,omitempty"` // the insert it is about (which borrows Output); "" for the output's pages
+	Page     int      `json:"page,omitempty"`   // 1-based; 0 when not about a page
 	Term     string   `json:"term,omitempty"`
 	Year     int      `json:"year,omitempty"`
 	At       string   `json:"at,omitempty"` // spec position that set the value, file:line:col
@@ -101,6 +102,9 @@ type Finding struct {
 func (f Finding) Where() string {
 	var parts []string
 	parts = append(parts, f.Output)
+	if f.Insert != "" {
+		parts = append(parts, "insert "+f.Insert)
+	}
 	if f.Page > 0 {
 		parts = append(parts, "p. "+strconv.Itoa(f.Page))
 	}

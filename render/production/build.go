@@ -208,7 +208,7 @@ func Build(ctx context.Context, job *feature.Job, opts Options) (*Result, error)
 	if err != nil {
 		return nil, err
 	}
-	findings, err := job.Preflight(preps)
+	findings, err := job.Preflight(preps, inserts...)
 	if err != nil {
 		return nil, err
 	}
