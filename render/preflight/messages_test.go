@@ -2,6 +2,7 @@ package preflight
 
 import (
 	"encoding/json"
+	"fmt"
 	"math"
 	"os"
 	"path/filepath"
@@ -12,6 +13,7 @@ import (
 	"github.com/stretchr/testify/require"
 
 	"sheaf/layout"
+	"sheaf/layout/fonts"
 	"sheaf/palette"
 	"sheaf/render/page"
 	"sheaf/render/tooltest"
@@ -310,5 +312,45 @@ func TestYearRanges(t *testing.T) {
 		{[]int{1900, 1902}, "years 1900, 1902"},
 	} {
 		assert.Equal(t, tt.want, yearRanges(tt.years))
+	}
+}
+
+// TestGlyphMissingInEditorsWords: the key's caption (the spec's own or its
+// language's), the periods' names and the annotations' text are drawn on
+// the pages too, so a character the face lacks in any of them is reported
+// (each once, naming the text). The characters are Unicode 7's TWO-EM and
+// THREE-EM DASH and Unicode 7's DOUBLE HYPHEN; the test checks each
+// is missing from the built-in face's cmap before relying on it.
+func TestGlyphMissingInEditorsWords(t *testing.T) {
+	in := prepareInput(t, specText("", ""))
+	tests := []struct {
+		name  string
+		r     rune
+		style fonts.Style
+		set   func(text string)
+	}{
+		{"key caption", '⸺', fonts.Bold, func(s string) { in.Spec.Text.KeyTitle = s }},
+		{"period name", '⸻', fonts.Regular, func(s string) {
+			in.Spec.Periods = append(in.Spec.Periods, specs.Period{From: 1900, To: 1910, Label: s})
+		}},
+		{"annotation", '⹀', fonts.Regular, func(s string) {
+			in.Spec.Annotations = append(in.Spec.Annotations, specs.Annotation{Term: in.Data.Series[0].Term, From: 1900, To: 1900, Text: s})
+		}},
+	}
+	for _, tt := range tests {
+		require.Zero(t, in.Fonts.Font(tt.style).SFNT.GlyphIndex(tt.r), "%s: the face lacks %U", tt.name, tt.r)
+		tt.set(tt.name + " " + string(tt.r))
+	}
+	got := only(check(t, in), IDGlyph)
+	for _, tt := range tests {
+		n := 0
+		for _, f := range got {
+			if strings.Contains(f.Message, fmt.Sprintf("%U", tt.r)) {
+				n++
+				assert.Contains(t, f.Message, tt.name, "%s: the finding quotes the text", tt.name)
+				assert.Equal(t, Error, f.Severity, tt.name)
+			}
+		}
+		assert.Equal(t, 1, n, "%s: one finding for %U", tt.name, tt.r)
 	}
 }

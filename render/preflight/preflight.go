@@ -387,7 +387,8 @@ func (c *checker) layout() {
 
 // glyphs checks every character the pages draw against the cmap of the
 // face that draws it: placed text in its style, headings, labels and the
-// key caption in bold, peak values and the unit in regular.
+// key caption in bold, peak values, the unit, period names and
+// annotations in regular.
 func (c *checker) glyphs() {
 	type miss struct {
 		st fonts.Style
@@ -425,7 +426,16 @@ func (c *checker) glyphs() {
 			check(fonts.Bold, h.Text, "", i+1)
 		}
 	}
-	check(fonts.Bold, "Colour shows the year", "", 0)
+	// The key's caption in the spec's language or its own words, the
+	// period names under the key and the annotations' text: all set by
+	// the editor, all drawn on every page that shows them.
+	check(fonts.Bold, c.in.Spec.Phrase(specs.PhraseKeyTitle), "", 0)
+	for _, pd := range c.in.Spec.Periods {
+		check(fonts.Regular, pd.Label, "", 0)
+	}
+	for _, a := range c.in.Spec.Annotations {
+		check(fonts.Regular, a.Text, "", 0)
+	}
 	check(fonts.Regular, c.in.Data.Unit+" · 0123456789.", "", 0)
 	for i := range c.in.Data.Series {
 		sr := &c.in.Data.Series[i]
