@@ -31,6 +31,12 @@ outputs:
     slug-line: true
     proofs: 40
 ` + extra
+	return loadSpec(t, spec)
+}
+
+// loadSpec writes spec into a fresh folder and loads it.
+func loadSpec(t testing.TB, spec string) *feature.Job {
+	t.Helper()
 	path := filepath.Join(t.TempDir(), "spec.yaml")
 	require.NoError(t, os.WriteFile(path, []byte(spec), 0o644))
 	j, err := feature.Load(path)

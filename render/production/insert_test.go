@@ -61,11 +61,7 @@ annotations:
   - {term: welding, year: 1940, text: Werftbau}
   - {term: computer, year: 1946, text: erste Rechner}
 ` + extra
-	path := filepath.Join(t.TempDir(), "spec.yaml")
-	require.NoError(t, os.WriteFile(path, []byte(spec), 0o644))
-	j, err := feature.Load(path)
-	require.NoError(t, err)
-	return j
+	return loadSpec(t, spec)
 }
 
 // svgDoc is what a test reads back from an SVG with encoding/xml: the
