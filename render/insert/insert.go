@@ -468,7 +468,7 @@ func (g *Graphic) fitNote(width float64, band string) string {
 
 // dotRadius is the radius of the dot that marks a row's peak, as on the
 // pages: a little wider than the line.
-func (g *Graphic) dotRadius() float64 { return math.Max(g.Output.Line.Pt()*1.1, 1.0) }
+func (g *Graphic) dotRadius() float64 { return math.Max(g.Output.Line.Pt()*1.5, 1.0) }
 
 // peakText is the line under a row's term: "peak 1926".
 func (g *Graphic) peakText(year int) string {
@@ -746,11 +746,7 @@ func (g *Graphic) drawRows(ctx *canvas.Context) error {
 		}
 		if sr.Peak > 0 {
 			pk := r.Map.Apply(float64(sr.PeakYear), sr.Peak)
-			ctx.ResetStyle()
-			ctx.SetFillColor(g.colorAt(pk.X))
-			ctx.SetStrokeColor(g.Paper())
-			ctx.SetStrokeWidth(g.rule * mm)
-			ctx.DrawPath(pk.X*mm, pk.Y*mm, canvas.Circle(g.dotRadius()*mm))
+			circle(ctx, pk.X, pk.Y, g.dotRadius(), g.colorAt(pk.X)) // no ring: see page's peak dot
 		}
 		text(ctx, fs, fonts.Bold, ls, ink, r.Plot.X0-ls*0.8, r.Baseline, canvas.Right, sr.Term)
 		if r.PeakLine != 0 {

@@ -349,14 +349,18 @@ func (f *Feature) panel(p pen, b *curve.Builder, pn layout.Panel) error {
 	}
 	if out.PeakDot && sr.Peak > 0 {
 		pk := m.Apply(float64(sr.PeakYear), sr.Peak)
-		p.dot(pk.X, pk.Y, f.peakRadius(), f.colorAt(m, pk.X), f.PaperColor(), f.Rule())
+		// No paper-coloured ring: on screen a ring as wide as a rule cut
+		// the line on both sides and read as a break in it at 1×.
+		p.dot(pk.X, pk.Y, f.peakRadius(), f.colorAt(m, pk.X), nil, 0)
 	}
 	f.drawNotes(p, pn)
 	return nil
 }
 
-// peakRadius is the radius of the dot that marks a line's peak.
-func (f *Feature) peakRadius() float64 { return math.Max(f.Output.Line.Pt()*1.1, 1.0) }
+// peakRadius is the radius of the dot that marks a line's peak: three line
+// widths across, so it reads as a bead on the line without a halo, and
+// never under 2 pt across in print.
+func (f *Feature) peakRadius() float64 { return math.Max(f.Output.Line.Pt()*1.5, 1.0) }
 
 // PlotMap is the map from a panel's data (years, 0 to its y-range top) to
 // its plot rectangle. The rectangle is inset by half the line width, and
