@@ -35,8 +35,7 @@ func BenchmarkNewTransform(b *testing.B) {
 	require.NoError(b, err)
 	src := icc.SRGB()
 	for b.Loop() {
-		if _, err := icc.NewTransform(src, dst, icc.RelativeColorimetric, true); err != nil {
-			b.Fatal(err)
-		}
+		_, err := icc.NewTransform(src, dst, icc.RelativeColorimetric, true)
+		require.NoError(b, err)
 	}
 }

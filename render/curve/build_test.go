@@ -356,9 +356,8 @@ func BenchmarkBuild(b *testing.B) {
 			bl.Reset()
 			for _, d := range data {
 				var err error
-				if dst, err = bl.Build(d[0], d[1], m, dst[:0]); err != nil {
-					b.Fatal(err)
-				}
+				dst, err = bl.Build(d[0], d[1], m, dst[:0])
+				require.NoError(b, err)
 			}
 		}
 		b.ReportMetric(float64(b.Elapsed().Nanoseconds())/float64(b.N)/(series*points), "ns/point")
@@ -372,9 +371,8 @@ func BenchmarkBuild(b *testing.B) {
 			for _, d := range data {
 				bl.Reset()
 				var err error
-				if dst, err = bl.Build(d[0], d[1], m, dst[:0]); err != nil {
-					b.Fatal(err)
-				}
+				dst, err = bl.Build(d[0], d[1], m, dst[:0])
+				require.NoError(b, err)
 			}
 		}
 		b.ReportMetric(float64(b.Elapsed().Nanoseconds())/float64(b.N)/(series*points), "ns/point")
@@ -383,9 +381,8 @@ func BenchmarkBuild(b *testing.B) {
 		b.ReportAllocs()
 		for b.Loop() {
 			for _, d := range data {
-				if _, err := curve.Build(d[0], d[1], m, nil); err != nil {
-					b.Fatal(err)
-				}
+				_, err := curve.Build(d[0], d[1], m, nil)
+				require.NoError(b, err)
 			}
 		}
 		b.ReportMetric(float64(b.Elapsed().Nanoseconds())/float64(b.N)/(series*points), "ns/point")

@@ -177,8 +177,7 @@ func TestInsertNotesPlacedClear(t *testing.T) {
 				b := n.Box
 				assert.True(t, plot.Contains(b), "%s: box %v leaves its plot %v", where, b, plot)
 				for _, p := range drawnLines(t, g, n.Item) {
-					if d := distToRect(p, b); d < lw/2 {
-						t.Errorf("%s: text %v is %.2f pt from a line at %.1f,%.1f (half the line is %.2f)", where, b, d, p.X, p.Y, lw/2)
+					if !assert.GreaterOrEqual(t, distToRect(p, b), lw/2, "%s: text %v is too close to a line at %.1f,%.1f (half the line is %.2f pt)", where, b, p.X, p.Y, lw/2) {
 						break
 					}
 				}

@@ -100,30 +100,20 @@ func BenchmarkCatalogPDF(b *testing.B) {
 // colour and per gradient).
 func BenchmarkCatalogPDFCMYK(b *testing.B) {
 	spec, err := catalog()
-	if err != nil {
-		b.Fatal(err)
-	}
+	require.NoError(b, err)
 	profile := tooltest.ICCProfile(b, "default_cmyk.icc")
 	text, err := os.ReadFile(spec)
-	if err != nil {
-		b.Fatal(err)
-	}
+	require.NoError(b, err)
 	cmyk := filepath.Join(filepath.Dir(spec), "catalog-cmyk.yaml")
 	withPress := strings.Replace(string(text), "    kind: print\n", "    kind: print\n    press: {profile: "+profile+"}\n", 1)
-	if withPress == string(text) {
-		b.Fatal("the catalog spec has no print output to give a press")
-	}
-	if err := os.WriteFile(cmyk, []byte(withPress), 0o644); err != nil {
-		b.Fatal(err)
-	}
+	require.NotEqual(b, string(text), withPress, "the catalog spec has no print output to give a press")
+	require.NoError(b, os.WriteFile(cmyk, []byte(withPress), 0o644))
 	var size int64
 	var pages int
 	peak := heapPeak(func() {
 		for b.Loop() {
 			j, p := benchJob(b, cmyk)
-			if p.Press == nil {
-				b.Fatal("no printing condition")
-			}
+			require.NotNil(b, p.Press, "no printing condition")
 			pages = len(p.Plan.Pages)
 			size = writeOnlyPDF(b, j, p)
 		}

@@ -148,8 +148,7 @@ func BenchmarkStrokeWalk(b *testing.B) {
 		return nil
 	}
 	for b.Loop() {
-		if _, err := raster.Draw(walkW, walkH, walkDPI, white, draw); err != nil {
-			b.Fatal(err)
-		}
+		_, err := raster.Draw(walkW, walkH, walkDPI, white, draw)
+		require.NoError(b, err)
 	}
 }

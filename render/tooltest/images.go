@@ -6,20 +6,18 @@ import (
 	"math"
 	"os"
 	"testing"
+
+	"github.com/stretchr/testify/require"
 )
 
 // ReadPNG decodes the PNG at path or fails the test.
 func ReadPNG(t testing.TB, path string) image.Image {
 	t.Helper()
 	f, err := os.Open(path)
-	if err != nil {
-		t.Fatal(err)
-	}
+	require.NoError(t, err)
 	defer f.Close()
 	img, err := png.Decode(f)
-	if err != nil {
-		t.Fatalf("%s: %v", path, err)
-	}
+	require.NoError(t, err, path)
 	return img
 }
 
