@@ -70,6 +70,12 @@ type EncodedPage struct {
 	// Device is the number of device colour components the page was drawn
 	// in (4 CMYK, 3 RGB, 1 gray; see PageSetup.Press); 0: sRGB (ICCBased).
 	Device int
+	// Load, when Content is nil, gives the content stream at the moment
+	// the page is written; the bytes need stay unchanged only until the
+	// page is written, so a caller can read each of many cached pages
+	// into one buffer instead of holding them all. Not part of a page's
+	// value: caches and gob leave it out.
+	Load func() ([]byte, error)
 }
 
 // PageFont is a font as one page uses it.

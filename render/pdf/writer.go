@@ -499,7 +499,14 @@ func (w *Writer) writePage(p *EncodedPage) error {
 	if p.Compressed {
 		filter = " /Filter /FlateDecode"
 	}
-	w.stream(content, filter, p.Content)
+	data := p.Content
+	if data == nil && p.Load != nil {
+		var err error
+		if data, err = p.Load(); err != nil {
+			return err
+		}
+	}
+	w.stream(content, filter, data)
 
 	page := w.alloc()
 	var b []byte
