@@ -188,6 +188,19 @@ func Build(ctx context.Context, job *feature.Job, opts Options) (*Result, error)
 		}
 		return nil, specs.BadInput(fmt.Errorf("no output named %q; the spec has %v", opts.Only, names))
 	}
+	// Text widths from the last build, before anything is laid out:
+	// fitting thousands of labels is otherwise most of a small rebuild's
+	// layout time, and a single title measured means parsing a face again
+	// for shaping.
+	if !opts.Full {
+		for _, o := range outs {
+			fs, err := job.Fonts(o)
+			if err != nil {
+				return nil, err
+			}
+			loadWidths(final, o.Name, fs)
+		}
+	}
 	// Prepare every output first: bad input stops the build before any
 	// file is touched.
 	var preps []*feature.Output
@@ -197,13 +210,6 @@ func Build(ctx context.Context, job *feature.Job, opts Options) (*Result, error)
 			return nil, err
 		}
 		preps = append(preps, p)
-	}
-	// Text widths from the last build: fitting thousands of labels is
-	// otherwise most of a small rebuild's layout time.
-	if !opts.Full {
-		for _, p := range preps {
-			loadWidths(final, p)
-		}
 	}
 	// Inserts too: a missing term or a graphic too small is bad input.
 	inserts, err := job.PrepareInserts()
@@ -736,15 +742,15 @@ func (b *build) encode(p *feature.Output, i int) (*pdf.EncodedPage, error) {
 // fonts.Set.SaveWidths), beside its cached pages.
 const widthsFile = "text-widths"
 
-// loadWidths gives p's fonts the widths the last build saved. A missing,
+// loadWidths gives an output's fonts the widths the last build saved. A missing,
 // damaged or outdated file costs only the time to measure again.
-func loadWidths(dir string, p *feature.Output) {
-	f, err := os.Open(filepath.Join(dir, CacheDir, p.Spec.Name, widthsFile))
+func loadWidths(dir, output string, fs *fonts.Set) {
+	f, err := os.Open(filepath.Join(dir, CacheDir, output, widthsFile))
 	if err != nil {
 		return
 	}
 	defer f.Close()
-	p.Fonts.LoadWidths(f)
+	fs.LoadWidths(f)
 }
 
 // reuse reads a cached page, or takes it as prefetched, and links it into
