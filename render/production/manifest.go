@@ -243,6 +243,12 @@ func (h *hasher) str(s string) {
 	io.WriteString(h.h, s)
 }
 
+// bytes is str without a string's copy: the same bytes hashed.
+func (h *hasher) bytes(b []byte) {
+	h.int(len(b))
+	h.h.Write(b)
+}
+
 func (h *hasher) int(n int) {
 	var b [8]byte
 	binary.LittleEndian.PutUint64(b[:], uint64(n))
