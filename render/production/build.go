@@ -12,6 +12,7 @@ import (
 	"image"
 	"image/png"
 	"io"
+	"maps"
 	"os"
 	"path/filepath"
 	"slices"
@@ -211,6 +212,32 @@ func Build(ctx context.Context, job *feature.Job, opts Options) (*Result, error)
 		}
 		preps = append(preps, p)
 	}
+	// The outputs not built that inserts borrow (`--only`): their inserts
+	// are laid out, so checked, though not drawn, and measuring them
+	// alone would parse a face again for shaping. Their widths come from
+	// their cache; where it has none (or a damaged one), the widths asked
+	// here make one (a good file is kept as carried: it holds the whole
+	// output's, of which these are a few). A Set
+	// whose fonts fail to load is left to PrepareInserts, which says so
+	// in the insert's terms.
+	var lent []*specs.Output
+	if opts.Only != "" {
+		for i := range spec.Outputs {
+			o := &spec.Outputs[i]
+			if o.Name == opts.Only || !feature.BorrowsOutput(spec, o.Name) {
+				continue
+			}
+			fs, err := job.Fonts(o)
+			if err != nil {
+				continue
+			}
+			if _, err := os.Stat(filepath.Join(final, CacheDir, o.Name, widthsFile)); err != nil {
+				lent = append(lent, o) // none yet
+			} else if !opts.Full && !loadWidths(final, o.Name, fs) {
+				lent = append(lent, o) // damaged or outdated
+			}
+		}
+	}
 	// Inserts too: a missing term or a graphic too small is bad input.
 	inserts, err := job.PrepareInserts()
 	if err != nil {
@@ -232,6 +259,13 @@ func Build(ctx context.Context, job *feature.Job, opts Options) (*Result, error)
 			widths[p.Spec.Name] = buf.Bytes()
 		}
 	}
+	lentWidths := map[string][]byte{}
+	for _, o := range lent {
+		var buf bytes.Buffer
+		if fs, err := job.Fonts(o); err == nil && fs.SaveWidths(&buf) == nil {
+			lentWidths[o.Name] = buf.Bytes()
+		}
+	}
 	// The findings' table is shown once per set of findings: a rebuild
 	// that finds what the last build found says so instead.
 	res.FindingsSum = findingsSum(findings)
@@ -245,7 +279,7 @@ func Build(ctx context.Context, job *feature.Job, opts Options) (*Result, error)
 		return res, ErrStrict
 	}
 	b := &build{ctx: ctx, j: job, final: final, shown: dir, date: opts.Date, only: opts.Only, noProofs: opts.NoProofs, full: opts.Full,
-		progress: opts.Progress, hooks: opts.Hooks, widths: widths, pre: pre, sums: map[string]fileSum{}, insertPreps: inserts,
+		progress: opts.Progress, hooks: opts.Hooks, widths: widths, lentWidths: lentWidths, pre: pre, sums: map[string]fileSum{}, insertPreps: inserts,
 		findingsSum: res.FindingsSum, pages: pdf.NewPageEncoder()}
 	files, err := b.run(preps)
 	if err != nil {
@@ -325,6 +359,7 @@ type build struct {
 	fonts        []FontHash
 	changes      *ChangeReport
 	widths       map[string][]byte // by output: its fonts' saved widths
+	lentWidths   map[string][]byte // by output not built whose inserts were laid out
 	pre          *prefetch
 	termsDone    chan struct{} // closed when termList and termMap are ready
 	termList     []TermHash    // termHashes of the data
@@ -526,6 +561,17 @@ func (b *build) run(preps []*feature.Output) (files []string, err error) {
 	}
 	if err := b.carry(); err != nil {
 		return nil, err
+	}
+	// After carry, which brings the lent outputs' caches over: their
+	// widths file is replaced, the rest of their cache kept.
+	for _, name := range slices.Sorted(maps.Keys(b.lentWidths)) {
+		w := b.lentWidths[name]
+		if err := WriteAtomic(filepath.Join(b.stage.dir, CacheDir, name, widthsFile), func(f io.Writer) error {
+			_, err := f.Write(w)
+			return err
+		}); err != nil {
+			return nil, err
+		}
 	}
 	m, err := b.manifest()
 	if err != nil {
@@ -744,13 +790,13 @@ const widthsFile = "text-widths"
 
 // loadWidths gives an output's fonts the widths the last build saved. A missing,
 // damaged or outdated file costs only the time to measure again.
-func loadWidths(dir, output string, fs *fonts.Set) {
+func loadWidths(dir, output string, fs *fonts.Set) bool {
 	f, err := os.Open(filepath.Join(dir, CacheDir, output, widthsFile))
 	if err != nil {
-		return
+		return false
 	}
 	defer f.Close()
-	fs.LoadWidths(f)
+	return fs.LoadWidths(f) == nil
 }
 
 // reuse reads a cached page, or takes it as prefetched, and links it into
