@@ -254,6 +254,10 @@ func Build(ctx context.Context, job *feature.Job, opts Options) (*Result, error)
 	// same file.
 	widths := map[string][]byte{}
 	for _, p := range preps {
+		// The key's and the year labels' widths too, which no step
+		// before drawing asks for: else a rebuild that draws any page
+		// parses a face again for the handful of them.
+		p.Feature.MeasureFurniture()
 		var buf bytes.Buffer
 		if err := p.Fonts.SaveWidths(&buf); err == nil {
 			widths[p.Spec.Name] = buf.Bytes()

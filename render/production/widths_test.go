@@ -1,6 +1,7 @@
 package production
 
 import (
+	"bytes"
 	"context"
 	"os"
 	"path/filepath"
@@ -59,4 +60,23 @@ func TestLentOutputWidths(t *testing.T) {
 	require.NoError(t, os.WriteFile(webWidths, []byte("damaged"), 0o644))
 	build(dir, Options{Only: "print"})
 	assert.Equal(t, first, loads("--only print over a damaged file"))
+}
+
+// TestSavedWidthsCoverDrawing: the widths a build saves (those asked
+// before any page is drawn) are every width drawing all the pages asks
+// for, so a rebuild that draws some pages measures nothing and parses no
+// face for its measuring shaper. This project's own rule (README, Speed).
+func TestSavedWidthsCoverDrawing(t *testing.T) {
+	job := demoJob(t, "")
+	dir := filepath.Join(t.TempDir(), "out")
+	_, err := Build(context.Background(), job, Options{Dir: dir, Date: time.Date(2026, 1, 15, 0, 0, 0, 0, time.UTC), NoProofs: true, Only: "print"})
+	require.NoError(t, err)
+	saved, err := os.ReadFile(filepath.Join(dir, CacheDir, "print", widthsFile))
+	require.NoError(t, err)
+	fs, err := job.Fonts(job.Spec.Output("print"))
+	require.NoError(t, err)
+	var asked bytes.Buffer // every width asked in the build, drawing included
+	require.NoError(t, fs.SaveWidths(&asked))
+	assert.Equal(t, len(saved), asked.Len(), "drawing the pages asked widths the build did not save")
+	assert.Equal(t, saved, asked.Bytes())
 }
