@@ -64,6 +64,18 @@ func LoadData(s *specs.Spec) (*Job, error) {
 	return &Job{Spec: s, Data: d, table: t}, nil
 }
 
+// Fonts gives out's fonts, loaded once for the job: Prepare and the
+// inserts that borrow out get the same Set, so a caller can first give
+// it what an earlier run knew (fonts.Set.LoadWidths) and the layout
+// measures with that.
+func (j *Job) Fonts(out *specs.Output) (*fonts.Set, error) {
+	fs, err := j.fontsFor(out)
+	if err != nil {
+		return nil, specs.BadInput(err)
+	}
+	return fs, nil
+}
+
 // fontsFor loads out's fonts once for the job: the output and every
 // insert that borrows it measure and draw with the same Set.
 func (j *Job) fontsFor(out *specs.Output) (*fonts.Set, error) {

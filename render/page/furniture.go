@@ -150,3 +150,25 @@ func (f *Feature) heightNotes() []string {
 		return pair(specs.PhraseNoteOwn, specs.PhraseNoteOwnShort)
 	}
 }
+
+// MeasureFurniture asks the fonts for the widths drawing the first
+// page's colour key asks for (caption, year labels, periods, note; drawn
+// on a canvas that is thrown away) and those of its panels' year labels.
+// Every page has the same key and panels as wide, so a caller that saves
+// the widths asked before drawing (a rebuild's widths cache) has them
+// whichever pages it draws later.
+func (f *Feature) MeasureFurniture() {
+	if len(f.Plan.Pages) == 0 {
+		return
+	}
+	pg := &f.Plan.Pages[0]
+	c := canvas.New(pg.Media.W()*mm, pg.Media.H()*mm)
+	p := pen{ctx: canvas.NewContext(c), fonts: f.Fonts}
+	f.key(p, pg.Keys()[0]) // the repeats of a scrolling page are drawn alike
+	size := f.Output.Type.Ticks.Pt()
+	for _, pn := range pg.Panels {
+		for _, y := range f.tickYears(pn.Plot.W(), size) { // as tickLabels asks
+			f.Fonts.Width(fonts.Figures, size, strconv.Itoa(y))
+		}
+	}
+}

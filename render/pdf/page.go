@@ -5,6 +5,7 @@ import (
 	"sheaf/palette/press"
 
 	"bytes"
+	"encoding/binary"
 	"fmt"
 	"image"
 	"math"
@@ -70,6 +71,12 @@ type EncodedPage struct {
 	// Device is the number of device colour components the page was drawn
 	// in (4 CMYK, 3 RGB, 1 gray; see PageSetup.Press); 0: sRGB (ICCBased).
 	Device int
+	// Load, when Content is nil, gives the content stream at the moment
+	// the page is written; the bytes need stay unchanged only until the
+	// page is written, so a caller can read each of many cached pages
+	// into one buffer instead of holding them all. Not part of a page's
+	// value: caches and gob leave it out.
+	Load func() ([]byte, error)
 }
 
 // PageFont is a font as one page uses it.
@@ -289,6 +296,7 @@ type encoder struct {
 
 	patterns     []Shading
 	patternIndex map[string]int
+	shadingKeys  shadingKeys // a page's gradients share a few palettes
 	gstates      []Alpha
 	gstateIndex  map[Alpha]int
 	transparent  bool
@@ -871,7 +879,7 @@ func (e *encoder) shading(g canvas.Gradient) (Shading, bool) {
 }
 
 func (e *encoder) pattern(sh Shading) int {
-	key := shadingKey(sh)
+	key := e.shadingKeys.key(sh)
 	if idx, ok := e.patternIndex[key]; ok {
 		return idx
 	}
@@ -882,7 +890,11 @@ func (e *encoder) pattern(sh Shading) int {
 }
 
 func shadingKey(sh Shading) string {
-	var b []byte
+	return string(appendStopsKey(shadingHead(nil, sh), sh.Stops))
+}
+
+// shadingHead is the part of a shading's key before its stops.
+func shadingHead(b []byte, sh Shading) []byte {
 	if sh.Radial {
 		b = append(b, 'r')
 	}
@@ -891,7 +903,11 @@ func shadingKey(sh Shading) string {
 		b = append(b, 'd')
 		b = strconv.AppendInt(b, int64(sh.Device), 10)
 	}
-	for _, s := range sh.Stops {
+	return b
+}
+
+func appendStopsKey(b []byte, stops []Stop) []byte {
+	for _, s := range stops {
 		b = append(b, ';')
 		b = appendNums(b, s.Offset, s.R, s.G, s.B)
 		if len(s.Ink) > 0 {
@@ -899,8 +915,48 @@ func shadingKey(sh Shading) string {
 			b = appendNums(b, s.Ink...)
 		}
 	}
-	return string(b)
+	return b
 }
+
+// shadingKeys gives shadingKey's keys, formatting the stops (most of a
+// key) once for each distinct run of stops, found by their bits: a
+// document's gradients share a few palettes, and formatting every stop
+// of every gradient was most of writing a document of cached pages.
+type shadingKeys struct {
+	stops map[string]string
+	bits  []byte
+	buf   []byte
+}
+
+func (k *shadingKeys) key(sh Shading) string {
+	bits := k.bits[:0]
+	for _, s := range sh.Stops {
+		for _, v := range [4]float64{s.Offset, s.R, s.G, s.B} {
+			bits = binary.LittleEndian.AppendUint64(bits, math.Float64bits(v))
+		}
+		bits = binary.AppendUvarint(bits, uint64(len(s.Ink)))
+		for _, v := range s.Ink {
+			bits = binary.LittleEndian.AppendUint64(bits, math.Float64bits(v))
+		}
+	}
+	k.bits = bits
+	tail, ok := k.stops[string(bits)]
+	if !ok {
+		tail = string(appendStopsKey(nil, sh.Stops))
+		if k.stops == nil {
+			k.stops = map[string]string{}
+		}
+		if len(k.stops) < maxStopsKeys {
+			k.stops[string(bits)] = tail
+		}
+	}
+	k.buf = append(shadingHead(k.buf[:0], sh), tail...)
+	return string(k.buf)
+}
+
+// maxStopsKeys bounds the stops remembered: a document with more
+// distinct gradients than this formats the others each time.
+const maxStopsKeys = 1 << 12
 
 func (e *encoder) setStrokeParams(s canvas.Style, width float64, inCM bool) {
 	if w := round3(width); w != e.st.lineWidth {

@@ -139,8 +139,10 @@ type Writer struct {
 
 	functions map[string]int
 	patterns  map[string]int
-	gstates   map[Alpha]int
-	pages     []int
+	// shadingKeys names patterns and functions by their written form.
+	shadingKeys shadingKeys
+	gstates     map[Alpha]int
+	pages       []int
 
 	added  int
 	queue  []*pending
@@ -499,7 +501,14 @@ func (w *Writer) writePage(p *EncodedPage) error {
 	if p.Compressed {
 		filter = " /Filter /FlateDecode"
 	}
-	w.stream(content, filter, p.Content)
+	data := p.Content
+	if data == nil && p.Load != nil {
+		var err error
+		if data, err = p.Load(); err != nil {
+			return err
+		}
+	}
+	w.stream(content, filter, data)
 
 	page := w.alloc()
 	var b []byte
@@ -538,7 +547,7 @@ func (w *Writer) writePage(p *EncodedPage) error {
 // (Type 2, N = 1) between the stops. The pattern space is the page's
 // default space, in points, as the shading coordinates are.
 func (w *Writer) pattern(sh Shading) (int, error) {
-	key := shadingKey(sh)
+	key := w.shadingKeys.key(sh)
 	if num, ok := w.patterns[key]; ok {
 		return num, nil
 	}

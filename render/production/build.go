@@ -5,11 +5,14 @@ import (
 	"bytes"
 	"context"
 	"crypto/sha256"
+	"encoding/binary"
 	"errors"
 	"fmt"
+	"hash/crc32"
 	"image"
 	"image/png"
 	"io"
+	"maps"
 	"os"
 	"path/filepath"
 	"slices"
@@ -186,6 +189,19 @@ func Build(ctx context.Context, job *feature.Job, opts Options) (*Result, error)
 		}
 		return nil, specs.BadInput(fmt.Errorf("no output named %q; the spec has %v", opts.Only, names))
 	}
+	// Text widths from the last build, before anything is laid out:
+	// fitting thousands of labels is otherwise most of a small rebuild's
+	// layout time, and a single title measured means parsing a face again
+	// for shaping.
+	if !opts.Full {
+		for _, o := range outs {
+			fs, err := job.Fonts(o)
+			if err != nil {
+				return nil, err
+			}
+			loadWidths(final, o.Name, fs)
+		}
+	}
 	// Prepare every output first: bad input stops the build before any
 	// file is touched.
 	var preps []*feature.Output
@@ -196,11 +212,30 @@ func Build(ctx context.Context, job *feature.Job, opts Options) (*Result, error)
 		}
 		preps = append(preps, p)
 	}
-	// Text widths from the last build: fitting thousands of labels is
-	// otherwise most of a small rebuild's layout time.
-	if !opts.Full {
-		for _, p := range preps {
-			loadWidths(final, p)
+	// The outputs not built that inserts borrow (`--only`): their inserts
+	// are laid out, so checked, though not drawn, and measuring them
+	// alone would parse a face again for shaping. Their widths come from
+	// their cache; where it has none (or a damaged one), the widths asked
+	// here make one (a good file is kept as carried: it holds the whole
+	// output's, of which these are a few). A Set
+	// whose fonts fail to load is left to PrepareInserts, which says so
+	// in the insert's terms.
+	var lent []*specs.Output
+	if opts.Only != "" {
+		for i := range spec.Outputs {
+			o := &spec.Outputs[i]
+			if o.Name == opts.Only || !feature.BorrowsOutput(spec, o.Name) {
+				continue
+			}
+			fs, err := job.Fonts(o)
+			if err != nil {
+				continue
+			}
+			if _, err := os.Stat(filepath.Join(final, CacheDir, o.Name, widthsFile)); err != nil {
+				lent = append(lent, o) // none yet
+			} else if !opts.Full && !loadWidths(final, o.Name, fs) {
+				lent = append(lent, o) // damaged or outdated
+			}
 		}
 	}
 	// Inserts too: a missing term or a graphic too small is bad input.
@@ -219,9 +254,20 @@ func Build(ctx context.Context, job *feature.Job, opts Options) (*Result, error)
 	// same file.
 	widths := map[string][]byte{}
 	for _, p := range preps {
+		// The key's and the year labels' widths too, which no step
+		// before drawing asks for: else a rebuild that draws any page
+		// parses a face again for the handful of them.
+		p.Feature.MeasureFurniture()
 		var buf bytes.Buffer
 		if err := p.Fonts.SaveWidths(&buf); err == nil {
 			widths[p.Spec.Name] = buf.Bytes()
+		}
+	}
+	lentWidths := map[string][]byte{}
+	for _, o := range lent {
+		var buf bytes.Buffer
+		if fs, err := job.Fonts(o); err == nil && fs.SaveWidths(&buf) == nil {
+			lentWidths[o.Name] = buf.Bytes()
 		}
 	}
 	// The findings' table is shown once per set of findings: a rebuild
@@ -237,7 +283,7 @@ func Build(ctx context.Context, job *feature.Job, opts Options) (*Result, error)
 		return res, ErrStrict
 	}
 	b := &build{ctx: ctx, j: job, final: final, shown: dir, date: opts.Date, only: opts.Only, noProofs: opts.NoProofs, full: opts.Full,
-		progress: opts.Progress, hooks: opts.Hooks, widths: widths, pre: pre, sums: map[string]fileSum{}, insertPreps: inserts,
+		progress: opts.Progress, hooks: opts.Hooks, widths: widths, lentWidths: lentWidths, pre: pre, sums: map[string]fileSum{}, insertPreps: inserts,
 		findingsSum: res.FindingsSum, pages: pdf.NewPageEncoder()}
 	files, err := b.run(preps)
 	if err != nil {
@@ -317,6 +363,7 @@ type build struct {
 	fonts        []FontHash
 	changes      *ChangeReport
 	widths       map[string][]byte // by output: its fonts' saved widths
+	lentWidths   map[string][]byte // by output not built whose inserts were laid out
 	pre          *prefetch
 	termsDone    chan struct{} // closed when termList and termMap are ready
 	termList     []TermHash    // termHashes of the data
@@ -518,6 +565,17 @@ func (b *build) run(preps []*feature.Output) (files []string, err error) {
 	}
 	if err := b.carry(); err != nil {
 		return nil, err
+	}
+	// After carry, which brings the lent outputs' caches over: their
+	// widths file is replaced, the rest of their cache kept.
+	for _, name := range slices.Sorted(maps.Keys(b.lentWidths)) {
+		w := b.lentWidths[name]
+		if err := WriteAtomic(filepath.Join(b.stage.dir, CacheDir, name, widthsFile), func(f io.Writer) error {
+			_, err := f.Write(w)
+			return err
+		}); err != nil {
+			return nil, err
+		}
 	}
 	m, err := b.manifest()
 	if err != nil {
@@ -734,15 +792,15 @@ func (b *build) encode(p *feature.Output, i int) (*pdf.EncodedPage, error) {
 // fonts.Set.SaveWidths), beside its cached pages.
 const widthsFile = "text-widths"
 
-// loadWidths gives p's fonts the widths the last build saved. A missing,
+// loadWidths gives an output's fonts the widths the last build saved. A missing,
 // damaged or outdated file costs only the time to measure again.
-func loadWidths(dir string, p *feature.Output) {
-	f, err := os.Open(filepath.Join(dir, CacheDir, p.Spec.Name, widthsFile))
+func loadWidths(dir, output string, fs *fonts.Set) bool {
+	f, err := os.Open(filepath.Join(dir, CacheDir, output, widthsFile))
 	if err != nil {
-		return
+		return false
 	}
 	defer f.Close()
-	p.Fonts.LoadWidths(f)
+	return fs.LoadWidths(f) == nil
 }
 
 // reuse reads a cached page, or takes it as prefetched, and links it into
@@ -775,6 +833,82 @@ func readCachedPage(path string) *pdf.EncodedPage {
 	}
 	return e
 }
+
+// pageLoader gives the content streams of checked cached pages as the
+// PDF writer asks for them, one at a time, through one buffer: holding
+// all of them (11 MB for the 4,000-term catalog) cost more in fresh
+// memory than reading each page file a second time from the OS's cache.
+type pageLoader struct{ buf []byte }
+
+// check reads the cached page at path into buf (returned, grown, for the
+// next) and decodes it, leaving its content to be read again when the
+// page is written; nil when the file is missing, unreadable or damaged.
+func (l *pageLoader) check(path string, buf []byte) (*pdf.EncodedPage, []byte) {
+	data, err := readInto(path, buf)
+	if err != nil {
+		return nil, buf
+	}
+	e, off, err := decodePage(data)
+	if err != nil || len(e.Content) == 0 {
+		return nil, data
+	}
+	n, size, sum := len(e.Content), len(data), binary.LittleEndian.Uint32(data[len(data)-4:])
+	e.Content = nil
+	e.Load = func() ([]byte, error) { return l.load(path, size, sum, off, n) }
+	return e, data
+}
+
+// load reads the page file again and gives its content stream, after
+// checking the file is the one check decoded: same size and a body that
+// matches the same CRC-32C. A file changed in between (which only
+// another program writing into the cache can do) fails the build rather
+// than putting a page nobody checked into the PDF.
+func (l *pageLoader) load(path string, size int, sum uint32, off, n int) ([]byte, error) {
+	data, err := readInto(path, l.buf)
+	if err != nil {
+		return nil, fmt.Errorf("cached page %s: %w", path, err)
+	}
+	l.buf = data
+	if len(data) != size || binary.LittleEndian.Uint32(data[size-4:]) != sum || crc32.Checksum(data[:size-4], castagnoli) != sum {
+		return nil, fmt.Errorf("cached page %s changed during the build", path)
+	}
+	return data[off : off+n], nil
+}
+
+// readInto reads the regular file at path into buf's memory, grown when
+// it is too small.
+func readInto(path string, buf []byte) ([]byte, error) {
+	f, err := os.Open(path)
+	if err != nil {
+		return nil, err
+	}
+	defer f.Close()
+	fi, err := f.Stat()
+	if err != nil {
+		return nil, err
+	}
+	if !fi.Mode().IsRegular() || fi.Size() > maxCachedPage {
+		return nil, fmt.Errorf("%s: not a cached page", path)
+	}
+	size := int(fi.Size())
+	if cap(buf) < size {
+		buf = make([]byte, size, size+size/4)
+	}
+	buf = buf[:size]
+	if _, err := io.ReadFull(f, buf); err != nil {
+		return nil, err
+	}
+	// One byte more means the file grew since Stat: not the file measured.
+	var one [1]byte
+	if k, _ := f.Read(one[:]); k != 0 {
+		return nil, fmt.Errorf("%s: changed while read", path)
+	}
+	return buf, nil
+}
+
+// maxCachedPage bounds a page file's size: a page's content stream is
+// tens or hundreds of KB; anything near this is not one of ours.
+const maxCachedPage = 1 << 30
 
 // prefetch reads, beside the data, what a build needs from the last one:
 // its manifest, the SHA-256 of the data files and, unless the build is
@@ -818,16 +952,18 @@ func startPrefetch(dir string, s *specs.Spec, pages bool) *prefetch {
 		if !pages || p.prev == nil {
 			return
 		}
+		var buf []byte
 		for _, o := range p.prev.Outputs {
 			if o.Kind != string(specs.Print) {
 				continue
 			}
+			l := &pageLoader{} // an output's PDF is written by one goroutine
 			for _, pg := range o.Pages {
 				if p.stopped.Load() {
 					return
 				}
 				path := filepath.Join(dir, CacheDir, o.Name, pg.Inputs+".page")
-				p.pages[path] = readCachedPage(path)
+				p.pages[path], buf = l.check(path, buf)
 			}
 		}
 	}()

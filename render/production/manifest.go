@@ -243,6 +243,12 @@ func (h *hasher) str(s string) {
 	io.WriteString(h.h, s)
 }
 
+// bytes is str without a string's copy: the same bytes hashed.
+func (h *hasher) bytes(b []byte) {
+	h.int(len(b))
+	h.h.Write(b)
+}
+
 func (h *hasher) int(n int) {
 	var b [8]byte
 	binary.LittleEndian.PutUint64(b[:], uint64(n))
@@ -290,12 +296,16 @@ func termSumWith(h *hasher, sr *series.Series) string {
 // has (the build is stopping).
 func termHashes(ctx context.Context, d *series.Set) []TermHash {
 	ts := make([]TermHash, len(d.Series))
-	each(ctx, len(ts), func(i int) (TermHash, error) {
-		return TermHash{Term: d.Series[i].Term, SHA256: termSum(&d.Series[i]), Peak: d.Series[i].PeakYear}, nil
-	}, func(i int, t TermHash) error {
-		ts[i] = t
-		return nil
-	})
+	// In runs of terms, one hasher and one buffer a run: a hasher a term
+	// was megabytes of fresh memory for the catalog's 4,000 terms.
+	const run = 64
+	each(ctx, (len(ts)+run-1)/run, func(k int) (struct{}, error) {
+		h := newHasher(termKind)
+		for i := k * run; i < min(len(ts), (k+1)*run); i++ {
+			ts[i] = TermHash{Term: d.Series[i].Term, SHA256: termSumWith(h, &d.Series[i]), Peak: d.Series[i].PeakYear}
+		}
+		return struct{}{}, nil
+	}, func(int, struct{}) error { return nil })
 	sort.Slice(ts, func(i, j int) bool { return ts[i].Term < ts[j].Term })
 	return ts
 }

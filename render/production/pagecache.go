@@ -170,19 +170,28 @@ func (r *pageReader) flag(what string) bool {
 // decodeCachedPage reads what writeCachedPage wrote. Empty lists come
 // back nil, as gob gives them.
 func decodeCachedPage(data []byte) (*pdf.EncodedPage, error) {
+	e, _, err := decodePage(data)
+	return e, err
+}
+
+// decodePage is decodeCachedPage that also tells where in data the
+// content stream starts.
+func decodePage(data []byte) (e *pdf.EncodedPage, off int, err error) {
 	if len(data) < len(pageMagic)+4 || string(data[:len(pageMagic)]) != pageMagic {
-		return nil, errors.New("cached page: not a page of this version")
+		return nil, 0, errors.New("cached page: not a page of this version")
 	}
 	body := data[:len(data)-4]
 	if crc32.Checksum(body, castagnoli) != binary.LittleEndian.Uint32(data[len(data)-4:]) {
-		return nil, errors.New("cached page: checksum mismatch (damaged file)")
+		return nil, 0, errors.New("cached page: checksum mismatch (damaged file)")
 	}
 	r := &pageReader{b: body[len(pageMagic):]}
-	e := &pdf.EncodedPage{}
+	e = &pdf.EncodedPage{}
 	for _, box := range []*canvas.Rect{&e.Boxes.Media, &e.Boxes.Bleed, &e.Boxes.Trim} {
 		box.X0, box.Y0, box.X1, box.Y1 = r.f64("boxes"), r.f64("boxes"), r.f64("boxes"), r.f64("boxes")
 	}
-	if c := r.bytes(r.count("content"), "content"); len(c) > 0 {
+	n := r.count("content")
+	off = len(body) - len(r.b)
+	if c := r.bytes(n, "content"); len(c) > 0 {
 		e.Content = c[:len(c):len(c)] // data is the caller's to give away
 	}
 	e.Compressed = r.flag("compressed")
@@ -240,7 +249,7 @@ func decodeCachedPage(data []byte) (*pdf.EncodedPage, error) {
 		r.fail("the end")
 	}
 	if r.err != nil {
-		return nil, r.err
+		return nil, 0, r.err
 	}
-	return e, nil
+	return e, off, nil
 }

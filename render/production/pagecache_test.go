@@ -4,7 +4,10 @@ import (
 	"bytes"
 	"encoding/gob"
 	"fmt"
+	"io"
 	"math"
+	"os"
+	"path/filepath"
 	"reflect"
 	"strings"
 	"testing"
@@ -25,7 +28,7 @@ import (
 // key (see pdf.EncodedPage).
 func TestPageCacheCoversEncodedPage(t *testing.T) {
 	want := map[string]string{
-		"pdf.EncodedPage": "Boxes pdf.PageBoxes; Content []uint8; Compressed bool; Fonts []pdf.PageFont; Patterns []pdf.Shading; GStates []pdf.Alpha; Transparent bool; Device int",
+		"pdf.EncodedPage": "Boxes pdf.PageBoxes; Content []uint8; Compressed bool; Fonts []pdf.PageFont; Patterns []pdf.Shading; GStates []pdf.Alpha; Transparent bool; Device int; Load func() ([]uint8, error)",
 		"pdf.PageBoxes":   "Media canvas.Rect; Bleed canvas.Rect; Trim canvas.Rect",
 		"canvas.Rect":     "X0 float64; Y0 float64; X1 float64; Y1 float64",
 		"pdf.PageFont":    "Key pdf.FontKey; Glyphs []pdf.GlyphUse; font *pdf.fontData",
@@ -133,4 +136,52 @@ func TestPageCacheDamage(t *testing.T) {
 	}
 	_, err := decodeCachedPage(append(bytes.Clone(data), 0))
 	assert.Error(t, err, "a byte appended: read without error")
+}
+
+// TestPageLoader: a page checked from its file and written later through
+// its Load makes the same PDF as the page held in memory; the loader's
+// one buffer serves page after page; a damaged file is refused at the
+// check (the page is drawn again), and a file changed between the check
+// and the writing fails the build instead of going into the PDF.
+func TestPageLoader(t *testing.T) {
+	dir := t.TempDir()
+	pages := cachePages(t)
+	paths := make([]string, len(pages))
+	for i, e := range pages {
+		paths[i] = filepath.Join(dir, fmt.Sprintf("p%d.page", i))
+		require.NoError(t, WriteAtomic(paths[i], func(w io.Writer) error { return writeCachedPage(w, e) }))
+	}
+	l := &pageLoader{}
+	var buf []byte
+	for i, e := range pages {
+		var got *pdf.EncodedPage
+		got, buf = l.check(paths[i], buf)
+		require.NotNil(t, got, "page %d", i)
+		assert.Nil(t, got.Content, "page %d: content left in the file", i)
+		c, err := got.Load()
+		require.NoError(t, err, "page %d", i)
+		assert.Equal(t, e.Content, c, "page %d: the content read again", i)
+		if i == 0 {
+			assert.Equal(t, pdfOf(t, e), pdfOf(t, got), "the PDF of the page loaded is the original's")
+		}
+	}
+
+	got, _ := l.check(paths[1], nil)
+	require.NotNil(t, got)
+	data, err := os.ReadFile(paths[1])
+	require.NoError(t, err)
+	data[len(data)/2] ^= 0x10
+	require.NoError(t, os.WriteFile(paths[1], data, 0o644))
+	_, err = got.Load()
+	assert.ErrorContains(t, err, "changed during the build", "a file changed after its check")
+	bad, _ := l.check(paths[1], nil)
+	assert.Nil(t, bad, "a damaged file passed the check")
+
+	got, _ = l.check(paths[0], nil)
+	require.NotNil(t, got)
+	require.NoError(t, os.Remove(paths[0]))
+	_, err = got.Load()
+	assert.Error(t, err, "a file removed after its check")
+	bad, _ = l.check(paths[0], nil)
+	assert.Nil(t, bad, "a missing file passed the check")
 }

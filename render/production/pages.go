@@ -36,11 +36,11 @@ func pageInputs(j *feature.Job, p *feature.Output, i int, setup pdf.PageSetup, s
 	h.int(i)
 	h.int(len(p.Plan.Pages))
 	if s, err := json.Marshal(setup); err == nil {
-		h.str(string(s))
+		h.bytes(s)
 	}
 	pg := &p.Plan.Pages[i]
 	if s, err := json.Marshal(pg); err == nil {
-		h.str(string(s))
+		h.bytes(s)
 	}
 	d := j.Data
 	labels := p.Feature.Labels()
