@@ -5,7 +5,7 @@ import (
 	"fmt"
 	"io"
 	"regexp"
-	"sort"
+	"slices"
 	"strconv"
 	"strings"
 	"text/tabwriter"
@@ -15,9 +15,6 @@ import (
 	"sheaf/specs/series"
 )
 
-// termColumns are the columns `sheaf terms` can sort by, in table order.
-var termColumns = []string{"term", "total", "share", "peak", "median", "years", "selected"}
-
 func runTerms(args []string, stdout, stderr io.Writer) int {
 	fs := newFlags("terms", termsArgs,
 		"List the terms in the spec's data, to choose from: each term's total count over the span, its share of\n"+
@@ -26,7 +23,8 @@ func runTerms(args []string, stdout, stderr io.Writer) int {
 			"spec's terms selection takes it (yes/no).", stderr)
 	match := fs.String("match", "", "only terms containing `TEXT` (any case)")
 	pattern := fs.String("pattern", "", "only terms matching the regular expression `RE` (Go RE2 syntax; (?i) for any case)")
-	by := fs.String("sort", "share", "sort by `COLUMN`: "+strings.Join(termColumns, ", ")+" (term and selected A→Z and yes first; numbers largest first)")
+	columns := series.TermColumns()
+	by := fs.String("sort", "share", "sort by `COLUMN`: "+strings.Join(columns, ", ")+" (term and selected A→Z and yes first; numbers largest first)")
 	reverse := fs.Bool("reverse", false, "reverse the order")
 	selected := fs.Bool("selected", false, "only the terms the spec selects")
 	limit := fs.Int("limit", 0, "at most `N` terms (0: all)")
@@ -35,8 +33,8 @@ func runTerms(args []string, stdout, stderr io.Writer) int {
 	if !ok {
 		return code
 	}
-	if !contains(termColumns, *by) {
-		fmt.Fprintf(stderr, "sheaf terms: --sort %q: give one of %s\n", *by, strings.Join(termColumns, ", "))
+	if !slices.Contains(columns, *by) {
+		fmt.Fprintf(stderr, "sheaf terms: --sort %q: give one of %s\n", *by, strings.Join(columns, ", "))
 		return exitBadInput
 	}
 	var re *regexp.Regexp
@@ -59,15 +57,8 @@ func runTerms(args []string, stdout, stderr io.Writer) int {
 	if err != nil {
 		return report(stderr, specs.BadInput(err))
 	}
-	needle := strings.ToLower(*match)
-	rows := all[:0:0]
-	for _, t := range all {
-		if *selected && !t.Selected || needle != "" && !strings.Contains(strings.ToLower(t.Term), needle) || re != nil && !re.MatchString(t.Term) {
-			continue
-		}
-		rows = append(rows, t)
-	}
-	sortTerms(rows, *by, *reverse)
+	rows := series.FilterTerms(all, series.TermFilter{Match: *match, Pattern: re, Selected: *selected})
+	series.SortTerms(rows, *by, *reverse)
 	if *limit > 0 && len(rows) > *limit {
 		rows = rows[:*limit]
 	}
@@ -122,51 +113,4 @@ func num(v float64) string {
 		return strconv.FormatInt(int64(v), 10)
 	}
 	return strconv.FormatFloat(v, 'f', 1, 64)
-}
-
-func contains(xs []string, x string) bool {
-	for _, y := range xs {
-		if x == y {
-			return true
-		}
-	}
-	return false
-}
-
-// sortTerms orders rows by a column: term A→Z, selected first, numbers
-// largest first; ties by term, so the order is the same every time.
-func sortTerms(rows []series.TermStats, by string, reverse bool) {
-	key := func(t *series.TermStats) float64 {
-		switch by {
-		case "total":
-			return t.Total
-		case "share":
-			return t.Share
-		case "peak":
-			return float64(t.PeakYear)
-		case "median":
-			return t.Median
-		case "years":
-			return float64(t.Years)
-		case "selected":
-			if t.Selected {
-				return 1
-			}
-		}
-		return 0
-	}
-	less := func(a, b *series.TermStats) bool {
-		if by != "term" {
-			if ka, kb := key(a), key(b); ka != kb {
-				return ka > kb
-			}
-		}
-		return a.Term < b.Term
-	}
-	sort.SliceStable(rows, func(i, j int) bool {
-		if reverse {
-			return less(&rows[j], &rows[i])
-		}
-		return less(&rows[i], &rows[j])
-	})
 }
