@@ -5,10 +5,11 @@
 // comes with the inserts entry that would show it, ready to paste under
 // the spec's inserts key; Report.Graphics lays each out as that insert
 // would be drawn, and WriteSheets draws them on a sheet (a PNG contact
-// sheet and a PDF of one page per pair).
+// sheet and a PDF of one page per pair). WriteSwatches draws the era
+// palette's swatch sheet, for a look at the colours before a build.
 //
-// Find and Graphics are pure; WriteSheets writes its two files through
-// temporary names and touches nothing else. Nothing here reads the
+// Find and Graphics are pure; WriteSheets and WriteSwatches write their
+// two files each through temporary names and touch nothing else. Nothing here reads the
 // environment or the clock: the sheet's date is the caller's.
 package explore
 
