@@ -88,7 +88,7 @@ func runPairs(args []string, stdout, stderr io.Writer) int {
 		}
 		return exitOK
 	}
-	writePairsTable(stdout, rep)
+	rep.WriteTable(stdout)
 	for _, f := range rep.Files {
 		fmt.Fprintln(stdout, f)
 	}
@@ -104,25 +104,4 @@ func pairsErr(stderr io.Writer, err error) int {
 		fmt.Fprintln(stderr, err)
 	}
 	return exitBadInput
-}
-
-func writePairsTable(w io.Writer, rep *explore.Report) {
-	fmt.Fprintf(w, "%s: %d terms compared as plotted\n\n", rep.Spec, rep.Terms)
-	fmt.Fprintln(w, "Most alike (distance: root-mean-square difference of the lines as plotted and of their cumulative ink; 0 is the same line)")
-	if len(rep.Alike) == 0 {
-		fmt.Fprintln(w, "  none")
-	}
-	for _, r := range rep.Alike {
-		fmt.Fprintf(w, "%3d  %.4f  %s · %s\n", r.Number, r.Distance, r.Terms[0], r.Terms[1])
-		fmt.Fprintf(w, "     %s\n", r.YAML)
-	}
-	fmt.Fprintln(w, "\nStrongest hand-overs (strength: the smaller of the first term's fall and the second's rise, in plot heights)")
-	if len(rep.HandOvers) == 0 {
-		fmt.Fprintln(w, "  none")
-	}
-	for _, r := range rep.HandOvers {
-		fmt.Fprintf(w, "%3d  %.4f  %s → %s, lines cross in %d\n", r.Number, r.Strength, r.Terms[0], r.Terms[1], r.Crossing)
-		fmt.Fprintf(w, "     %s\n", r.YAML)
-	}
-	fmt.Fprintln(w, "\nPaste a line under inserts: in the spec; `sheaf build` then draws it.")
 }

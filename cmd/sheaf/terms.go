@@ -6,10 +6,7 @@ import (
 	"io"
 	"regexp"
 	"slices"
-	"strconv"
 	"strings"
-	"text/tabwriter"
-	"unicode/utf8"
 
 	"sheaf/specs"
 	"sheaf/specs/series"
@@ -75,26 +72,7 @@ func runTerms(args []string, stdout, stderr io.Writer) int {
 		}
 		return exitOK
 	}
-	// Numbers align right; the term, padded to the longest, stays left.
-	wide := len("term")
-	for _, t := range rows {
-		wide = max(wide, utf8.RuneCountInString(t.Term))
-	}
-	pad := func(s string) string { return s + strings.Repeat(" ", wide-utf8.RuneCountInString(s)) }
-	tw := tabwriter.NewWriter(stdout, 0, 0, 2, ' ', tabwriter.AlignRight)
-	fmt.Fprintln(tw, pad("term")+"\ttotal\tper million\tpeak\tmedian\tyears\tselected\t")
-	for _, t := range rows {
-		yes := "no"
-		if t.Selected {
-			yes = "yes"
-		}
-		peak := "–"
-		if t.PeakYear != 0 {
-			peak = strconv.Itoa(t.PeakYear)
-		}
-		fmt.Fprintf(tw, "%s\t%s\t%.2f\t%s\t%s\t%d\t%s\t\n", pad(t.Term), num(t.Total), t.Share*1e6, peak, num(t.Median), t.Years, yes)
-	}
-	tw.Flush()
+	series.WriteTermTable(stdout, rows)
 	sel := 0
 	for _, t := range all {
 		if t.Selected {
@@ -106,11 +84,3 @@ func runTerms(args []string, stdout, stderr io.Writer) int {
 }
 
 const termsArgs = "SPEC [--match TEXT] [--pattern RE] [--sort COLUMN] [--reverse] [--selected] [--limit N] [--json]"
-
-// num writes a count: whole numbers without a fraction.
-func num(v float64) string {
-	if v == float64(int64(v)) {
-		return strconv.FormatInt(int64(v), 10)
-	}
-	return strconv.FormatFloat(v, 'f', 1, 64)
-}

@@ -18,6 +18,7 @@ import (
 	"encoding/json"
 	"errors"
 	"fmt"
+	"io"
 	"math"
 	"strconv"
 	"strings"
@@ -251,4 +252,28 @@ func (r *Report) Graphics() ([]*insert.Graphic, error) {
 		out = append(out, g)
 	}
 	return out, nil
+}
+
+// WriteTable prints the report for a person, as `sheaf pairs` does: each
+// list numbered as on the sheet, each pair with its score and the
+// inserts entry to paste.
+func (r *Report) WriteTable(w io.Writer) {
+	fmt.Fprintf(w, "%s: %d terms compared as plotted\n\n", r.Spec, r.Terms)
+	fmt.Fprintln(w, "Most alike (distance: root-mean-square difference of the lines as plotted and of their cumulative ink; 0 is the same line)")
+	if len(r.Alike) == 0 {
+		fmt.Fprintln(w, "  none")
+	}
+	for _, p := range r.Alike {
+		fmt.Fprintf(w, "%3d  %.4f  %s · %s\n", p.Number, p.Distance, p.Terms[0], p.Terms[1])
+		fmt.Fprintf(w, "     %s\n", p.YAML)
+	}
+	fmt.Fprintln(w, "\nStrongest hand-overs (strength: the smaller of the first term's fall and the second's rise, in plot heights)")
+	if len(r.HandOvers) == 0 {
+		fmt.Fprintln(w, "  none")
+	}
+	for _, p := range r.HandOvers {
+		fmt.Fprintf(w, "%3d  %.4f  %s → %s, lines cross in %d\n", p.Number, p.Strength, p.Terms[0], p.Terms[1], p.Crossing)
+		fmt.Fprintf(w, "     %s\n", p.YAML)
+	}
+	fmt.Fprintln(w, "\nPaste a line under inserts: in the spec; `sheaf build` then draws it.")
 }

@@ -223,3 +223,21 @@ func BenchmarkPairsCatalog(b *testing.B) {
 		require.Len(b, rep.Pairs(), len(rep.Alike)+len(rep.HandOvers), "one table row per pair")
 	}
 }
+
+// The table: each list under its heading, "none" for an empty one, each
+// pair's entry below it (the small feature has no hand-over: boiler's
+// fall and telegraph's rise overlap too little).
+func TestWriteTable(t *testing.T) {
+	rep, err := Find(loadSmall(t), Options{Top: 1})
+	require.NoError(t, err)
+	var b bytes.Buffer
+	rep.WriteTable(&b)
+	want := "../../testdata/small/spec.yaml: 3 terms compared as plotted\n\n" +
+		"Most alike (distance: root-mean-square difference of the lines as plotted and of their cumulative ink; 0 is the same line)\n" +
+		"  1  0.2870  telegraph · Maßstab\n" +
+		"     " + rep.Alike[0].YAML + "\n" +
+		"\nStrongest hand-overs (strength: the smaller of the first term's fall and the second's rise, in plot heights)\n" +
+		"  none\n" +
+		"\nPaste a line under inserts: in the spec; `sheaf build` then draws it.\n"
+	assert.Equal(t, want, b.String())
+}

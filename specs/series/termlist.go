@@ -1,9 +1,14 @@
 package series
 
 import (
+	"fmt"
+	"io"
 	"regexp"
 	"sort"
+	"strconv"
 	"strings"
+	"text/tabwriter"
+	"unicode/utf8"
 )
 
 // TermColumns are the columns a term list can be sorted by (SortTerms),
@@ -71,4 +76,38 @@ func SortTerms(rows []TermStats, by string, reverse bool) {
 		}
 		return less(&rows[i], &rows[j])
 	})
+}
+
+// WriteTermTable prints rows for a person, as `sheaf terms` does: a
+// header and a row a term — total, share per million, peak year, median,
+// years present, selected — numbers aligned right.
+func WriteTermTable(w io.Writer, rows []TermStats) error {
+	// Numbers align right; the term, padded to the longest, stays left.
+	wide := len("term")
+	for _, t := range rows {
+		wide = max(wide, utf8.RuneCountInString(t.Term))
+	}
+	pad := func(s string) string { return s + strings.Repeat(" ", wide-utf8.RuneCountInString(s)) }
+	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', tabwriter.AlignRight)
+	fmt.Fprintln(tw, pad("term")+"\ttotal\tper million\tpeak\tmedian\tyears\tselected\t")
+	for _, t := range rows {
+		yes := "no"
+		if t.Selected {
+			yes = "yes"
+		}
+		peak := "–"
+		if t.PeakYear != 0 {
+			peak = strconv.Itoa(t.PeakYear)
+		}
+		fmt.Fprintf(tw, "%s\t%s\t%.2f\t%s\t%s\t%d\t%s\t\n", pad(t.Term), countText(t.Total), t.Share*1e6, peak, countText(t.Median), t.Years, yes)
+	}
+	return tw.Flush()
+}
+
+// countText writes a count: whole numbers without a fraction.
+func countText(v float64) string {
+	if v == float64(int64(v)) {
+		return strconv.FormatInt(int64(v), 10)
+	}
+	return strconv.FormatFloat(v, 'f', 1, 64)
 }

@@ -1,10 +1,12 @@
 package series
 
 import (
+	"bytes"
 	"regexp"
 	"testing"
 
 	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
 )
 
 // The rows of cmd/sheaf's TestTerms, worked by hand there (alpha: total
@@ -61,4 +63,20 @@ func TestSortAndFilterTerms(t *testing.T) {
 	} {
 		assert.Equal(t, tc.want, names(FilterTerms(rows(), tc.f)), "%+v", tc.f)
 	}
+}
+
+// The table: the term column as wide as the longest term (in runes),
+// every column two spaces from the last, numbers right-aligned, whole counts without a fraction, "–" for a term
+// with no peak year; share per million (cmd/sheaf's TestTerms works the
+// values by hand).
+func TestWriteTermTable(t *testing.T) {
+	var b bytes.Buffer
+	require.NoError(t, WriteTermTable(&b, []TermStats{
+		{Term: "alpha", Total: 100, Share: 0.02, PeakYear: 2001, Median: 25, Years: 4, Selected: true},
+		{Term: "Maßstab", Total: 2.5, Share: 0.0005, Median: 1.25, Years: 1},
+	}))
+	assert.Equal(t, ""+
+		"  term     total  per million  peak  median  years  selected\n"+
+		"  alpha      100     20000.00  2001      25      4       yes\n"+
+		"  Maßstab    2.5       500.00     –     1.2      1        no\n", b.String())
 }
