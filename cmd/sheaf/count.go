@@ -6,12 +6,9 @@ import (
 	"fmt"
 	"io"
 	"os"
-	"path/filepath"
-	"regexp"
 	"runtime"
 	"strings"
 	"time"
-	"unicode/utf8"
 
 	"sheaf/specs"
 	"sheaf/specs/count"
@@ -80,30 +77,25 @@ func runCount(args []string, stdout, stderr io.Writer) int {
 			fmt.Fprintln(stderr, err)
 			return exitBadInput
 		}
-		opt.Terms = specTerms(s)
+		opt.Terms = count.SpecTerms(s)
 		if len(opt.Terms) == 0 {
 			return report(stderr, specs.BadInput(&count.BadInput{Path: *specPath, Off: -1, Msg: "the spec lists no terms (terms.list or inserts): give --terms FILE, or --ngrams N to count every word"}))
 		}
 		span = &s.Years
 	case *termsPath != "":
-		opt.Terms, err = readTermList(*termsPath)
+		opt.Terms, err = count.ReadTerms(*termsPath)
 		if err != nil {
 			return report(stderr, specs.BadInput(err))
 		}
 	}
 
-	files, err := archiveFiles(pos[0], *ext, *yearPattern)
+	files, err := count.Archive(pos[0], *ext, *yearPattern)
 	if err != nil {
 		return report(stderr, specs.BadInput(err))
 	}
 	if span != nil {
-		var in []count.File
-		for _, f := range files {
-			if f.Year >= span.From && f.Year <= span.To {
-				in = append(in, f)
-			}
-		}
-		if skipped := len(files) - len(in); skipped > 0 {
+		in, skipped := count.Within(files, *span)
+		if skipped > 0 {
 			fmt.Fprintf(stderr, "sheaf count: %d file(s) outside the spec's years %d–%d left out\n", skipped, span.From, span.To)
 		}
 		if len(in) == 0 {
@@ -123,7 +115,7 @@ func runCount(args []string, stdout, stderr io.Writer) int {
 	for _, t := range res.Missing {
 		fmt.Fprintf(stderr, "sheaf count: warning: %q is nowhere in the archive; the counts table has no row for it\n", t)
 	}
-	paths, err := writeTables(*out, res)
+	paths, err := count.WriteTables(*out, res)
 	if err != nil {
 		fmt.Fprintf(stderr, "sheaf count: %v\n", err)
 		return exitFindings
@@ -139,129 +131,6 @@ func runCount(args []string, stdout, stderr io.Writer) int {
 		fmt.Fprintln(stdout, p)
 	}
 	return exitOK
-}
-
-// specTerms is the terms a spec names: its list, then its inserts' terms.
-func specTerms(s *specs.Spec) []string {
-	seen := map[string]bool{}
-	var terms []string
-	add := func(t string) {
-		if !seen[t] {
-			seen[t] = true
-			terms = append(terms, t)
-		}
-	}
-	for _, t := range s.Terms.List {
-		add(t)
-	}
-	for _, in := range s.Inserts {
-		for _, t := range in.Terms {
-			add(t)
-		}
-	}
-	return terms
-}
-
-// readTermList reads a term list: one term a line.
-func readTermList(path string) ([]string, error) {
-	data, err := os.ReadFile(path)
-	if err != nil {
-		return nil, &count.BadInput{Path: path, Off: -1, Msg: fmt.Sprintf("cannot read: %v", err)}
-	}
-	var terms []string
-	seen := map[string]int{}
-	for i, line := range strings.Split(strings.TrimPrefix(string(data), "\ufeff"), "\n") {
-		line = strings.TrimSpace(line)
-		if line == "" || strings.HasPrefix(line, "#") {
-			continue
-		}
-		if !utf8.ValidString(line) {
-			return nil, &count.BadInput{Path: path, Line: i + 1, Off: -1, Msg: "not valid UTF-8: save the list as UTF-8"}
-		}
-		if j, ok := seen[line]; ok {
-			return nil, &count.BadInput{Path: path, Line: i + 1, Off: -1, Msg: fmt.Sprintf("%q listed twice (first at line %d)", line, j)}
-		}
-		seen[line] = i + 1
-		terms = append(terms, line)
-	}
-	if len(terms) == 0 {
-		return nil, &count.BadInput{Path: path, Off: -1, Msg: "lists no terms"}
-	}
-	return terms, nil
-}
-
-// archiveFiles lists a folder, or reads a manifest table.
-func archiveFiles(path, ext, pattern string) ([]count.File, error) {
-	fi, err := os.Stat(path)
-	if err != nil {
-		return nil, &count.BadInput{Path: path, Off: -1, Msg: fmt.Sprintf("cannot read: %v", errors.Unwrap(err))}
-	}
-	if !fi.IsDir() {
-		return count.Manifest(path)
-	}
-	re, err := regexp.Compile(pattern)
-	if err != nil {
-		return nil, &count.BadInput{Path: "--year-pattern", Off: -1, Msg: err.Error()}
-	}
-	if ext != "" && !strings.HasPrefix(ext, ".") {
-		ext = "." + ext
-	}
-	return count.Folder(path, ext, re)
-}
-
-// writeTables writes both tables under temporary names in dir and renames
-// them into place only when both are whole, so a failed run leaves the
-// old tables as they were.
-func writeTables(dir string, res *count.Result) ([]string, error) {
-	if err := os.MkdirAll(dir, 0o755); err != nil {
-		return nil, err
-	}
-	type table struct {
-		name  string
-		write func(io.Writer) error
-		tmp   string
-	}
-	tables := []*table{{name: "counts.csv", write: res.WriteCounts}, {name: "totals.csv", write: res.WriteTotals}}
-	cleanup := func() {
-		for _, t := range tables {
-			if t.tmp != "" {
-				os.Remove(t.tmp)
-			}
-		}
-	}
-	for _, t := range tables {
-		f, err := os.CreateTemp(dir, "."+t.name+".*.tmp")
-		if err != nil {
-			cleanup()
-			return nil, err
-		}
-		t.tmp = f.Name()
-		err = t.write(f)
-		if err == nil {
-			err = f.Sync()
-		}
-		if cerr := f.Close(); err == nil {
-			err = cerr
-		}
-		if err == nil {
-			err = os.Chmod(t.tmp, 0o644)
-		}
-		if err != nil {
-			cleanup()
-			return nil, fmt.Errorf("writing %s: %v", filepath.Join(dir, t.name), err)
-		}
-	}
-	var paths []string
-	for _, t := range tables {
-		p := filepath.Join(dir, t.name)
-		if err := os.Rename(t.tmp, p); err != nil {
-			cleanup()
-			return nil, err
-		}
-		t.tmp = ""
-		paths = append(paths, p)
-	}
-	return paths, nil
 }
 
 // countProgress draws "count: N of M MB (P%)" on a terminal, at most ten

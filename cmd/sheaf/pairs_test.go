@@ -7,13 +7,12 @@ import (
 	"os/exec"
 	"path/filepath"
 	"strings"
-	"sync"
 	"testing"
 
 	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
 
-	"sheaf/examples/generate/corpus"
+	"sheaf/render/explore"
 	"sheaf/render/feature"
 	"sheaf/render/tooltest"
 	"sheaf/specs"
@@ -31,8 +30,8 @@ func TestPairsDemo(t *testing.T) {
 	require.Equal(t, exitOK, code, errb.String())
 	var rep struct {
 		Terms     int `json:"terms"`
-		Alike     []pairRow
-		HandOvers []pairRow `json:"hand_overs"`
+		Alike     []explore.Pair
+		HandOvers []explore.Pair `json:"hand_overs"`
 		Files     []string
 	}
 	require.NoError(t, json.Unmarshal(out.Bytes(), &rep))
@@ -124,46 +123,4 @@ func TestPairsTable(t *testing.T) {
 	assert.Contains(t, s, "Strongest hand-overs")
 	assert.Equal(t, 4, strings.Count(s, ": {output: print, size: 90mm x 60mm, terms: ["))
 	assert.NotContains(t, s, "pairs.png", "--no-sheet writes nothing")
-}
-
-// pairsCatalog writes the benchmark catalog of the issues once: 4,000
-// invented terms over 1851–2025 (175 years) from the demo generator,
-// with the demo's outputs.
-var pairsCatalog = sync.OnceValues(func() (string, error) {
-	dir, err := os.MkdirTemp("", "sheaf-pairs-catalog-*")
-	if err != nil {
-		return "", err
-	}
-	cfg := corpus.DefaultConfig()
-	cfg.Terms, cfg.From = 4000, 1851
-	if err := corpus.WriteDir(filepath.Join(dir, "data"), cfg); err != nil {
-		return "", err
-	}
-	demo, err := os.ReadFile(demoSpec)
-	if err != nil {
-		return "", err
-	}
-	spec := strings.NewReplacer("top: 384", "top: 4000", "years: {from: 1868, to: 2025}", "years: {from: 1851, to: 2025}",
-		"min-total: 200", "min-total: 0").Replace(string(demo))
-	path := filepath.Join(dir, "catalog.yaml")
-	return path, os.WriteFile(path, []byte(spec), 0o644)
-})
-
-// BenchmarkPairsCatalog: the pair search on the 4,000-term catalog
-// (175 years), data loaded once: shapes, the most alike pairs and the
-// strongest hand-overs (top 8 of each).
-func BenchmarkPairsCatalog(b *testing.B) {
-	spec, err := pairsCatalog()
-	require.NoError(b, err)
-	j, err := feature.Load(spec)
-	require.NoError(b, err)
-	for b.Loop() {
-		rep := &pairsReport{data: j.Data, insertFor: &j.Spec.Outputs[0], size: specs.Size{W: 255, H: 170}}
-		findPairs(rep, 8, 2)
-		// Top 8 of each: the catalog always has 8 alike pairs; hand-overs are
-		// only those past the search's threshold, so there may be fewer.
-		require.Len(b, rep.Alike, 8)
-		require.LessOrEqual(b, len(rep.HandOvers), 8)
-		require.Len(b, rep.rows, len(rep.Alike)+len(rep.HandOvers), "one table row per pair")
-	}
 }

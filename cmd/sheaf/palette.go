@@ -1,18 +1,14 @@
 package main
 
 import (
+	"context"
 	"fmt"
 	"io"
 	"os"
 	"path/filepath"
 
-	"github.com/tdewolff/canvas"
-
+	"sheaf/render/explore"
 	"sheaf/render/feature"
-	"sheaf/render/pdf"
-	"sheaf/render/production"
-	"sheaf/render/swatch"
-	"sheaf/specs"
 )
 
 func runPalette(args []string, stdout, stderr io.Writer) int {
@@ -60,40 +56,19 @@ func runPalette(args []string, stdout, stderr io.Writer) int {
 		}
 		failed = failed || c.Report.Failed()
 	}
-	first := checks[0]
-	for _, c := range checks {
-		if c.Press != nil { // the swatch shows the press beside the screen
-			first = c
-			break
-		}
-	}
-	png := filepath.Join(dir, "swatch.png")
-	if err := production.WriteAtomic(png, func(w io.Writer) error { return swatch.WritePNGFor(w, first.Scale, first.Report, 150, first.Press) }); err != nil {
-		fmt.Fprintln(stderr, "sheaf palette:", err)
-		return exitFindings
-	}
+	// The date comes first now: a bad SOURCE_DATE_EPOCH writes nothing.
 	date, err := feature.DocumentDate(j.Spec, os.Getenv("SOURCE_DATE_EPOCH"))
 	if err != nil {
 		return report(stderr, err)
 	}
-	pdfPath := filepath.Join(dir, "swatch.pdf")
-	err = production.WriteAtomic(pdfPath, func(w io.Writer) error {
-		wmm, hmm := swatch.SizeFor(first.Press)
-		pw := pdf.NewWriter(w, pdf.Options{Title: j.Spec.Title + " — era palette", Version: version, Date: date})
-		r := canvas.Rect{X0: 0, Y0: 0, X1: wmm * specs.PtPerMm, Y1: hmm * specs.PtPerMm}
-		if err := pw.AddPage(pdf.PageSetup{Boxes: pdf.PageBoxes{Media: r, Bleed: r, Trim: r}}, func(c *canvas.Canvas) error {
-			return swatch.DrawFor(c, first.Scale, first.Report, first.Press)
-		}); err != nil {
-			return err
-		}
-		return pw.Close()
-	})
+	files, err := explore.WriteSwatches(context.Background(), explore.SwatchCheck(checks), j.Spec.Title, dir, date)
 	if err != nil {
-		fmt.Fprintln(stderr, err)
+		fmt.Fprintln(stderr, "sheaf palette:", err)
 		return exitFindings
 	}
-	fmt.Fprintln(stdout, png)
-	fmt.Fprintln(stdout, pdfPath)
+	for _, f := range files {
+		fmt.Fprintln(stdout, f)
+	}
 	if failed {
 		fmt.Fprintln(stderr, "sheaf palette: the palette fails a check (see the findings above)")
 		return exitFindings

@@ -10,6 +10,10 @@ import (
 	"sheaf/render/preflight"
 )
 
+// maxFindingsShown bounds the preflight table on stderr; `sheaf check
+// --json` lists every finding.
+const maxFindingsShown = 40
+
 // progress shows "OUTPUT: STAGE done/total" on one line of a terminal
 // while a build runs longer than progressDelay: PDF pages, proofs, a
 // screen output's SVG pages, PNGs and panel files, files carried over,
@@ -106,7 +110,7 @@ func (p *progress) Findings(fs []preflight.Finding) {
 	p.mu.Lock()
 	defer p.mu.Unlock()
 	p.clear()
-	writeFindings(p.w, fs, maxFindingsShown)
+	preflight.WriteTable(p.w, fs, maxFindingsShown)
 }
 
 // FindingsRepeated says in one line that preflight found what the last
@@ -118,7 +122,7 @@ func (p *progress) FindingsRepeated(fs []preflight.Finding) {
 	if len(fs) == 0 {
 		return
 	}
-	fmt.Fprintf(p.w, "%s, as in the last build (sheaf check lists them)\n", findingsCount(fs))
+	fmt.Fprintf(p.w, "%s, as in the last build (sheaf check lists them)\n", preflight.CountLine(fs))
 }
 
 // clear removes the line, if one is shown, so that text can follow.

@@ -5,18 +5,12 @@ import (
 	"fmt"
 	"io"
 	"regexp"
-	"sort"
-	"strconv"
+	"slices"
 	"strings"
-	"text/tabwriter"
-	"unicode/utf8"
 
 	"sheaf/specs"
 	"sheaf/specs/series"
 )
-
-// termColumns are the columns `sheaf terms` can sort by, in table order.
-var termColumns = []string{"term", "total", "share", "peak", "median", "years", "selected"}
 
 func runTerms(args []string, stdout, stderr io.Writer) int {
 	fs := newFlags("terms", termsArgs,
@@ -26,7 +20,8 @@ func runTerms(args []string, stdout, stderr io.Writer) int {
 			"spec's terms selection takes it (yes/no).", stderr)
 	match := fs.String("match", "", "only terms containing `TEXT` (any case)")
 	pattern := fs.String("pattern", "", "only terms matching the regular expression `RE` (Go RE2 syntax; (?i) for any case)")
-	by := fs.String("sort", "share", "sort by `COLUMN`: "+strings.Join(termColumns, ", ")+" (term and selected A→Z and yes first; numbers largest first)")
+	columns := series.TermColumns()
+	by := fs.String("sort", "share", "sort by `COLUMN`: "+strings.Join(columns, ", ")+" (term and selected A→Z and yes first; numbers largest first)")
 	reverse := fs.Bool("reverse", false, "reverse the order")
 	selected := fs.Bool("selected", false, "only the terms the spec selects")
 	limit := fs.Int("limit", 0, "at most `N` terms (0: all)")
@@ -35,8 +30,8 @@ func runTerms(args []string, stdout, stderr io.Writer) int {
 	if !ok {
 		return code
 	}
-	if !contains(termColumns, *by) {
-		fmt.Fprintf(stderr, "sheaf terms: --sort %q: give one of %s\n", *by, strings.Join(termColumns, ", "))
+	if !slices.Contains(columns, *by) {
+		fmt.Fprintf(stderr, "sheaf terms: --sort %q: give one of %s\n", *by, strings.Join(columns, ", "))
 		return exitBadInput
 	}
 	var re *regexp.Regexp
@@ -59,15 +54,8 @@ func runTerms(args []string, stdout, stderr io.Writer) int {
 	if err != nil {
 		return report(stderr, specs.BadInput(err))
 	}
-	needle := strings.ToLower(*match)
-	rows := all[:0:0]
-	for _, t := range all {
-		if *selected && !t.Selected || needle != "" && !strings.Contains(strings.ToLower(t.Term), needle) || re != nil && !re.MatchString(t.Term) {
-			continue
-		}
-		rows = append(rows, t)
-	}
-	sortTerms(rows, *by, *reverse)
+	rows := series.FilterTerms(all, series.TermFilter{Match: *match, Pattern: re, Selected: *selected})
+	series.SortTerms(rows, *by, *reverse)
 	if *limit > 0 && len(rows) > *limit {
 		rows = rows[:*limit]
 	}
@@ -84,26 +72,7 @@ func runTerms(args []string, stdout, stderr io.Writer) int {
 		}
 		return exitOK
 	}
-	// Numbers align right; the term, padded to the longest, stays left.
-	wide := len("term")
-	for _, t := range rows {
-		wide = max(wide, utf8.RuneCountInString(t.Term))
-	}
-	pad := func(s string) string { return s + strings.Repeat(" ", wide-utf8.RuneCountInString(s)) }
-	tw := tabwriter.NewWriter(stdout, 0, 0, 2, ' ', tabwriter.AlignRight)
-	fmt.Fprintln(tw, pad("term")+"\ttotal\tper million\tpeak\tmedian\tyears\tselected\t")
-	for _, t := range rows {
-		yes := "no"
-		if t.Selected {
-			yes = "yes"
-		}
-		peak := "–"
-		if t.PeakYear != 0 {
-			peak = strconv.Itoa(t.PeakYear)
-		}
-		fmt.Fprintf(tw, "%s\t%s\t%.2f\t%s\t%s\t%d\t%s\t\n", pad(t.Term), num(t.Total), t.Share*1e6, peak, num(t.Median), t.Years, yes)
-	}
-	tw.Flush()
+	series.WriteTermTable(stdout, rows)
 	sel := 0
 	for _, t := range all {
 		if t.Selected {
@@ -115,58 +84,3 @@ func runTerms(args []string, stdout, stderr io.Writer) int {
 }
 
 const termsArgs = "SPEC [--match TEXT] [--pattern RE] [--sort COLUMN] [--reverse] [--selected] [--limit N] [--json]"
-
-// num writes a count: whole numbers without a fraction.
-func num(v float64) string {
-	if v == float64(int64(v)) {
-		return strconv.FormatInt(int64(v), 10)
-	}
-	return strconv.FormatFloat(v, 'f', 1, 64)
-}
-
-func contains(xs []string, x string) bool {
-	for _, y := range xs {
-		if x == y {
-			return true
-		}
-	}
-	return false
-}
-
-// sortTerms orders rows by a column: term A→Z, selected first, numbers
-// largest first; ties by term, so the order is the same every time.
-func sortTerms(rows []series.TermStats, by string, reverse bool) {
-	key := func(t *series.TermStats) float64 {
-		switch by {
-		case "total":
-			return t.Total
-		case "share":
-			return t.Share
-		case "peak":
-			return float64(t.PeakYear)
-		case "median":
-			return t.Median
-		case "years":
-			return float64(t.Years)
-		case "selected":
-			if t.Selected {
-				return 1
-			}
-		}
-		return 0
-	}
-	less := func(a, b *series.TermStats) bool {
-		if by != "term" {
-			if ka, kb := key(a), key(b); ka != kb {
-				return ka > kb
-			}
-		}
-		return a.Term < b.Term
-	}
-	sort.SliceStable(rows, func(i, j int) bool {
-		if reverse {
-			return less(&rows[j], &rows[i])
-		}
-		return less(&rows[i], &rows[j])
-	})
-}

@@ -1,21 +1,16 @@
-package main
+package preflight
 
 import (
 	"bufio"
 	"fmt"
 	"io"
 	"text/tabwriter"
-
-	"sheaf/render/preflight"
 )
 
-// maxFindingsShown bounds the preflight table on stderr; `sheaf check
-// --json` lists every finding.
-const maxFindingsShown = 40
-
-// writeFindings prints findings as a table, worst first, at most limit
-// rows (0: all).
-func writeFindings(w io.Writer, fs []preflight.Finding, limit int) {
+// WriteTable prints findings as a table, in their order (worst first as
+// Check sorts them), at most limit rows (0: all), the rest counted in a
+// last row. It prints nothing for no findings.
+func WriteTable(w io.Writer, fs []Finding, limit int) {
 	if len(fs) == 0 {
 		return
 	}
@@ -24,7 +19,7 @@ func writeFindings(w io.Writer, fs []preflight.Finding, limit int) {
 	bw := bufio.NewWriterSize(w, 64<<10)
 	defer bw.Flush()
 	w = bw
-	fmt.Fprintln(w, findingsCount(fs))
+	fmt.Fprintln(w, CountLine(fs))
 	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', 0)
 	for k, f := range fs {
 		if limit > 0 && k == limit {
@@ -40,13 +35,13 @@ func writeFindings(w io.Writer, fs []preflight.Finding, limit int) {
 	tw.Flush()
 }
 
-// findingsCount is the table's first line: "preflight: 0 errors, 2
+// CountLine is the table's first line: "preflight: 0 errors, 2
 // warnings, 6 for review, 7 notes".
-func findingsCount(fs []preflight.Finding) string {
-	counts := map[preflight.Severity]int{}
+func CountLine(fs []Finding) string {
+	counts := map[Severity]int{}
 	for _, f := range fs {
 		counts[f.Severity]++
 	}
 	return fmt.Sprintf("preflight: %d errors, %d warnings, %d for review, %d notes",
-		counts[preflight.Error], counts[preflight.Warning], counts[preflight.Review], counts[preflight.Info])
+		counts[Error], counts[Warning], counts[Review], counts[Info])
 }
