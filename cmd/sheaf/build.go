@@ -1,14 +1,11 @@
 package main
 
 import (
-	"context"
 	"errors"
 	"fmt"
 	"io"
 	"os"
-	"os/signal"
 	"path/filepath"
-	"syscall"
 
 	"sheaf/render/feature"
 	"sheaf/render/production"
@@ -54,7 +51,7 @@ func runBuild(args []string, stdout, stderr io.Writer) int {
 	if err != nil {
 		return report(stderr, err)
 	}
-	ctx, stop := signal.NotifyContext(context.Background(), os.Interrupt, syscall.SIGTERM)
+	ctx, stop := interruptible()
 	defer stop()
 	prog := progressFor(stderr, *quiet)
 	res, err := production.Build(ctx, &feature.Job{Spec: spec}, production.Options{

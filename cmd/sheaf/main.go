@@ -16,13 +16,16 @@
 package main
 
 import (
+	"context"
 	"errors"
 	"flag"
 	"fmt"
 	"io"
 	"os"
+	"os/signal"
 	"runtime/debug"
 	"strings"
+	"syscall"
 
 	"sheaf/render/production"
 	"sheaf/specs"
@@ -211,4 +214,11 @@ func report(stderr io.Writer, err error) int {
 		return exitBadInput
 	}
 	return exitFindings
+}
+
+// interruptible is the context of a command that writes files: Ctrl-C or
+// SIGTERM cancels it, so the library stops between steps and removes its
+// temporary files instead of the process dying mid-write.
+func interruptible() (context.Context, context.CancelFunc) {
+	return signal.NotifyContext(context.Background(), os.Interrupt, syscall.SIGTERM)
 }

@@ -1,7 +1,6 @@
 package main
 
 import (
-	"context"
 	"encoding/json"
 	"errors"
 	"fmt"
@@ -73,7 +72,13 @@ func runPairs(args []string, stdout, stderr io.Writer) int {
 		if err != nil {
 			return report(stderr, err)
 		}
-		if rep.Files, err = explore.WriteSheets(context.Background(), rep, graphics, dir, date); err != nil {
+		ctx, stop := interruptible()
+		rep.Files, err = explore.WriteSheets(ctx, rep, graphics, dir, date)
+		stop()
+		if err != nil {
+			if ctx.Err() != nil {
+				err = fmt.Errorf("interrupted; pairs.png and pairs.pdf in %s are as they were", dir)
+			}
 			fmt.Fprintln(stderr, "sheaf pairs:", err)
 			return exitFindings
 		}

@@ -1,7 +1,6 @@
 package main
 
 import (
-	"context"
 	"fmt"
 	"io"
 	"os"
@@ -61,8 +60,13 @@ func runPalette(args []string, stdout, stderr io.Writer) int {
 	if err != nil {
 		return report(stderr, err)
 	}
-	files, err := explore.WriteSwatches(context.Background(), explore.SwatchCheck(checks), j.Spec.Title, dir, date)
+	ctx, stop := interruptible()
+	files, err := explore.WriteSwatches(ctx, explore.SwatchCheck(checks), j.Spec.Title, dir, date)
+	stop()
 	if err != nil {
+		if ctx.Err() != nil {
+			err = fmt.Errorf("interrupted; the swatch sheets in %s are as they were", dir)
+		}
 		fmt.Fprintln(stderr, "sheaf palette:", err)
 		return exitFindings
 	}
