@@ -26,6 +26,9 @@ type Label struct {
 	Shrunk    bool    `json:"shrunk"`    // set smaller than the output's label size
 	Truncated bool    `json:"truncated"` // cut with an ellipsis
 	NoPeak    bool    `json:"no_peak"`   // the peak year is left out to make room
+	// ForRow: the label would fit at a larger size and is set smaller
+	// only so its row keeps one size.
+	ForRow bool `json:"for_row,omitempty"`
 	// Lines are Text's lines, top down, when the label wraps (two or
 	// more); nil when it is set on one line. The last line stands on the
 	// row's baseline beside the peak text; the ones above rise into the
@@ -306,6 +309,7 @@ func (f *Feature) evenRows() {
 				if l.Size <= size {
 					continue
 				}
+				l.ForRow = !l.Shrunk
 				l.Size, l.Shrunk = size, true
 				if ls := f.breakLabel(l.Term, size, n, f.roomFor(pn.Item, pn.Label.W(), !l.NoPeak)); ls != nil {
 					l.setLines(ls)

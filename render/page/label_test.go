@@ -268,6 +268,8 @@ func TestEvenRowsSetsAgain(t *testing.T) {
 	la := f.labels[a.Item]
 	assert.Equal(t, floor, la.Size, "one size a row")
 	assert.True(t, la.Shrunk)
+	assert.True(t, la.ForRow, "smaller only to match its row (preflight says so)")
+	assert.False(t, f.labels[b.Item].ForRow, "the neighbour shrank to fit its own panel")
 	assert.Nil(t, la.Lines, "at the row's size it fits on one line: %q", la.Drawn())
 }
 

@@ -141,6 +141,8 @@ func TestLabelFindings(t *testing.T) {
 		{"fits", page.Label{Size: size}, map[string]string{}},
 		{"shrunk", page.Label{Size: 5.5, Shrunk: true},
 			map[string]string{IDLabelShrunk: "set at 5.5 pt instead of " + num(size) + " pt to fit its panel"}},
+		{"shrunk to match its row", page.Label{Size: 5.5, Shrunk: true, ForRow: true},
+			map[string]string{IDLabelShrunk: "set at 5.5 pt instead of " + num(size) + " pt to match the smallest label of its row"}},
 		{"shrunk, no peak", page.Label{Size: 5.5, Shrunk: true, NoPeak: true},
 			map[string]string{IDLabelShrunk: "set at 5.5 pt instead of " + num(size) + " pt to fit its panel, without its peak year (the dot marks the peak)"}},
 		{"no peak", page.Label{Size: size, NoPeak: true},

@@ -351,7 +351,11 @@ func (c *checker) labels() {
 			c.add(Finding{ID: IDLabelCut, Severity: Warning, Page: c.pageOf[l.Item], Term: l.Term,
 				Message: fmt.Sprintf("does not fit its panel: cut to %q at %s", l.Text, c.units(l.Size))})
 		case l.Shrunk || l.NoPeak:
-			msg := fmt.Sprintf("set at %s instead of %s to fit its panel", c.units(l.Size), c.units(c.in.Output.Type.Label.Pt()))
+			why := "to fit its panel"
+			if l.ForRow {
+				why = "to match the smallest label of its row"
+			}
+			msg := fmt.Sprintf("set at %s instead of %s %s", c.units(l.Size), c.units(c.in.Output.Type.Label.Pt()), why)
 			switch {
 			case l.NoPeak && l.Shrunk:
 				msg += ", without its peak year (the dot marks the peak)"
