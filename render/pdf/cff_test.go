@@ -22,6 +22,8 @@ import (
 
 	"sheaf/layout/fonts/cff"
 	"sheaf/render/tooltest"
+
+	otf "sheaf/render/internal/sfnt"
 )
 
 // CFF fonts for the tests: Latin Modern Sans (github.com/go-fonts/
@@ -63,7 +65,7 @@ func withTable(t testing.TB, b []byte, tag string, table []byte) []byte {
 	} else {
 		tables[tag] = table
 	}
-	out := writeSFNT(tables)
+	out := otf.Write(tables)
 	copy(out, b[:4]) // keep "OTTO"
 	// writeSFNT set checkSumAdjustment for the TrueType version number;
 	// set it again for this one (OpenType spec, head table).
@@ -72,7 +74,7 @@ func withTable(t testing.TB, b []byte, tag string, table []byte) []byte {
 		if string(out[rec:rec+4]) == "head" {
 			at := be.Uint32(out[rec+8:])
 			be.PutUint32(out[at+8:], 0)
-			be.PutUint32(out[at+8:], 0xB1B0AFBA-checksum(out))
+			be.PutUint32(out[at+8:], 0xB1B0AFBA-otf.Checksum(out))
 		}
 	}
 	return out

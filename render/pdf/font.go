@@ -14,6 +14,8 @@ import (
 
 	"sheaf/layout/fonts/cff"
 	"sheaf/layout/fonts/glyf"
+
+	otf "sheaf/render/internal/sfnt"
 )
 
 // FontKey identifies a font by a SHA-256 digest of its tables, so equal
@@ -289,59 +291,7 @@ func (d *fontData) subset(used map[uint16]bool) ([]byte, error) {
 			return nil, fmt.Errorf("font %s has no %s table", d.psName, tag)
 		}
 	}
-	return writeSFNT(tables), nil
-}
-
-// writeSFNT assembles an sfnt file (OpenType spec, "Organization of an
-// OpenType Font"): table directory sorted by tag, 4-byte aligned tables,
-// table checksums and the head checkSumAdjustment.
-func writeSFNT(tables map[string][]byte) []byte {
-	tags := make([]string, 0, len(tables))
-	for t := range tables {
-		tags = append(tags, t)
-	}
-	sort.Strings(tags)
-	n := len(tags)
-	es := 0
-	for 1<<(es+1) <= n {
-		es++
-	}
-	be := binary.BigEndian
-	out := be.AppendUint32(nil, 0x00010000)
-	out = be.AppendUint16(out, uint16(n))
-	out = be.AppendUint16(out, uint16(16<<es))
-	out = be.AppendUint16(out, uint16(es))
-	out = be.AppendUint16(out, uint16(16*n-16<<es))
-	off := 12 + 16*n
-	headAt := 0
-	var body []byte
-	for _, tag := range tags {
-		b := tables[tag]
-		if tag == "head" {
-			headAt = off + len(body)
-		}
-		out = append(out, tag...)
-		out = be.AppendUint32(out, checksum(b))
-		out = be.AppendUint32(out, uint32(off+len(body)))
-		out = be.AppendUint32(out, uint32(len(b)))
-		body = append(body, b...)
-		for len(body)%4 != 0 {
-			body = append(body, 0)
-		}
-	}
-	out = append(out, body...)
-	be.PutUint32(out[headAt+8:], 0xB1B0AFBA-checksum(out))
-	return out
-}
-
-func checksum(b []byte) uint32 {
-	var sum uint32
-	for i := 0; i < len(b); i += 4 {
-		var w [4]byte
-		copy(w[:], b[i:])
-		sum += binary.BigEndian.Uint32(w[:])
-	}
-	return sum
+	return otf.Write(tables), nil
 }
 
 // subsetTag is the six-capital-letter prefix of a subset font's name

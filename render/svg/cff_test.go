@@ -15,6 +15,8 @@ import (
 
 	"sheaf/layout/fonts/cff"
 	"sheaf/render/tooltest"
+
+	otf "sheaf/render/internal/sfnt"
 )
 
 // TestEmbeddedCFFSubset: with CFF fonts (Latin Modern Sans, github.com/
@@ -51,7 +53,7 @@ func TestEmbeddedCFFSubset(t *testing.T) {
 		c, err := cff.Parse(f.Tables["CFF "])
 		require.NoError(t, err)
 		require.NoError(t, c.Check())
-		assert.Equal(t, uint32(0xB1B0AFBA), checksum(raw), "OpenType head checkSumAdjustment")
+		assert.Equal(t, uint32(0xB1B0AFBA), otf.Checksum(raw), "OpenType head checkSumAdjustment")
 	}
 }
 

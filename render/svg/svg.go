@@ -34,6 +34,8 @@ import (
 
 	"github.com/tdewolff/canvas"
 	"github.com/tdewolff/font"
+
+	otf "sheaf/render/internal/sfnt"
 )
 
 // PxPerMm is CSS pixels per millimetre: 96 px per inch, 25.4 mm per inch
@@ -694,23 +696,11 @@ func stableWrite(sfnt *font.SFNT) ([]byte, error) {
 		copy(buf[off+28:off+36], head[28:36]) // modified
 		binary.BigEndian.PutUint32(buf[off+8:], 0)
 		end := min(len(buf), off+(length+3)&^3)
-		binary.BigEndian.PutUint32(buf[rec+4:], checksum(buf[off:end]))
-		binary.BigEndian.PutUint32(buf[off+8:], 0xB1B0AFBA-checksum(buf))
+		binary.BigEndian.PutUint32(buf[rec+4:], otf.Checksum(buf[off:end]))
+		binary.BigEndian.PutUint32(buf[off+8:], 0xB1B0AFBA-otf.Checksum(buf))
 		return buf, nil
 	}
 	return nil, fmt.Errorf("font has no head table")
-}
-
-// checksum is the OpenType table checksum: the sum of big-endian uint32s,
-// the last one padded with zeros.
-func checksum(b []byte) uint32 {
-	var sum uint32
-	for i := 0; i < len(b); i += 4 {
-		var w [4]byte
-		copy(w[:], b[i:min(i+4, len(b))])
-		sum += binary.BigEndian.Uint32(w[:])
-	}
-	return sum
 }
 
 // subset makes a web font of the glyphs ids from its own parse of s's
@@ -723,50 +713,11 @@ func subset(s *font.SFNT, ids []uint16) (sub *font.SFNT, err error) {
 			sub, err = nil, fmt.Errorf("font subsetter failed: %v", r)
 		}
 	}()
-	own, err := font.ParseSFNT(assemble(s.Tables), 0)
+	own, err := font.ParseSFNT(otf.Write(s.Tables), 0)
 	if err != nil {
 		return nil, err
 	}
 	return own.Subset(ids, font.SubsetOptions{Tables: font.KeepMinTables})
-}
-
-// assemble writes tables as an sfnt file (OpenType spec, "Organization of
-// an OpenType Font"), for parsing again; checksums are not needed there.
-func assemble(tables map[string][]byte) []byte {
-	tags := make([]string, 0, len(tables))
-	for t := range tables {
-		tags = append(tags, t)
-	}
-	sort.Strings(tags)
-	n := len(tags)
-	es := 0
-	for 1<<(es+1) <= n {
-		es++
-	}
-	version := uint32(0x00010000)
-	if tables["CFF "] != nil || tables["CFF2"] != nil {
-		version = 0x4F54544F // "OTTO"
-	}
-	be := binary.BigEndian
-	out := be.AppendUint32(nil, version)
-	out = be.AppendUint16(out, uint16(n))
-	out = be.AppendUint16(out, uint16(16<<es))
-	out = be.AppendUint16(out, uint16(es))
-	out = be.AppendUint16(out, uint16(16*n-16<<es))
-	off := 12 + 16*n
-	var body []byte
-	for _, tag := range tags {
-		b := tables[tag]
-		out = append(out, tag...)
-		out = be.AppendUint32(out, checksum(b))
-		out = be.AppendUint32(out, uint32(off+len(body)))
-		out = be.AppendUint32(out, uint32(len(b)))
-		body = append(body, b...)
-		for len(body)%4 != 0 {
-			body = append(body, 0)
-		}
-	}
-	return append(out, body...)
 }
 
 // cmapTable writes a cmap (OpenType spec, "cmap — Character to Glyph

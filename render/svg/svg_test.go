@@ -22,6 +22,8 @@ import (
 	"golang.org/x/image/font/gofont/goregular"
 
 	"sheaf/render/tooltest"
+
+	otf "sheaf/render/internal/sfnt"
 )
 
 const mm = 25.4 / 72 // millimetres per point
@@ -313,7 +315,7 @@ func TestEmbeddedSubset(t *testing.T) {
 		// OpenType "head" table: the whole file sums to 0xB1B0AFBA once
 		// checksumAdjustment is in, and the modified date is the font's
 		// own (not the clock: builds must not differ).
-		assert.Equal(t, uint32(0xB1B0AFBA), checksum(raw), "%s subset: file checksum (0xB1B0AFBA = 2981146554)", mm[1])
+		assert.Equal(t, uint32(0xB1B0AFBA), otf.Checksum(raw), "%s subset: file checksum (0xB1B0AFBA = 2981146554)", mm[1])
 		orig := goregular.TTF
 		if mm[1] == "bold" {
 			orig = gobold.TTF
