@@ -40,13 +40,14 @@ func OpenRegular(path string) (*os.File, error) {
 	}
 	if !fi.Mode().IsRegular() {
 		f.Close()
-		return nil, &fs.PathError{Op: "read", Path: path, Err: fmt.Errorf("is %s, not a regular file", kindOf(fi.Mode()))}
+		return nil, &fs.PathError{Op: "read", Path: path, Err: fmt.Errorf("is %s, not a regular file", FileKind(fi.Mode()))}
 	}
 	return f, nil
 }
 
-// kindOf names a file type for messages.
-func kindOf(m fs.FileMode) string {
+// FileKind names the type of a file that is not a regular one, for
+// messages: "a folder", "a named pipe (FIFO)", "a symbolic link", ….
+func FileKind(m fs.FileMode) string {
 	switch {
 	case m.IsDir():
 		return "a folder"
@@ -58,8 +59,12 @@ func kindOf(m fs.FileMode) string {
 		return "a character device"
 	case m&fs.ModeDevice != 0:
 		return "a device"
+	case m&fs.ModeSymlink != 0:
+		return "a symbolic link"
+	case m.IsRegular():
+		return "a regular file"
 	}
-	return "not a regular file"
+	return "a special file"
 }
 
 // ReadRegular reads a whole regular file of at most limit bytes (see

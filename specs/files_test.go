@@ -1,6 +1,7 @@
 package specs
 
 import (
+	"io/fs"
 	"os"
 	"path/filepath"
 	"strings"
@@ -8,6 +9,7 @@ import (
 	"testing"
 	"time"
 
+	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
 )
 
@@ -65,4 +67,25 @@ func TestReadRegularLimit(t *testing.T) {
 	require.Equal(t, "12345", string(b))
 	_, err = ReadRegular(p, 4)
 	require.ErrorContains(t, err, "is 5 bytes, over the 4 bytes sheaf reads")
+}
+
+// TestFileKind: the names for file types io/fs defines (the Go
+// standard library's FileMode bits), as the messages use them.
+func TestFileKind(t *testing.T) {
+	tests := []struct {
+		mode fs.FileMode
+		want string
+	}{
+		{fs.ModeDir | 0o755, "a folder"},
+		{fs.ModeNamedPipe, "a named pipe (FIFO)"},
+		{fs.ModeSocket, "a socket"},
+		{fs.ModeDevice | fs.ModeCharDevice, "a character device"},
+		{fs.ModeDevice, "a device"},
+		{fs.ModeSymlink | 0o777, "a symbolic link"},
+		{0o644, "a regular file"},
+		{fs.ModeIrregular, "a special file"},
+	}
+	for _, tt := range tests {
+		assert.Equal(t, tt.want, FileKind(tt.mode), "%v", tt.mode)
+	}
 }

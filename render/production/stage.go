@@ -9,6 +9,8 @@ import (
 	"path/filepath"
 	"strconv"
 	"strings"
+
+	"sheaf/specs"
 )
 
 // stage is the folder a build writes into: a sibling of the final folder
@@ -260,26 +262,9 @@ func linkOne(src, dst string, t fs.FileMode) error {
 		return linkOrCopy(src, dst)
 	}
 	if err := os.Link(src, dst); err != nil {
-		return fmt.Errorf("carrying %s (not sheaf's, %s) over: %w", src, kindName(t), err)
+		return fmt.Errorf("carrying %s (not sheaf's, %s) over: %w", src, specs.FileKind(t), err)
 	}
 	return nil
-}
-
-// kindName names a file type for messages.
-func kindName(t fs.FileMode) string {
-	switch {
-	case t&fs.ModeNamedPipe != 0:
-		return "a named pipe"
-	case t&fs.ModeSocket != 0:
-		return "a socket"
-	case t&fs.ModeDevice != 0:
-		return "a device"
-	case t&fs.ModeSymlink != 0:
-		return "a symbolic link"
-	case t.IsDir():
-		return "a folder"
-	}
-	return "a file"
 }
 
 // linkOrCopy makes dst the same file as src: a hard link, or a copy
