@@ -60,20 +60,10 @@ func (a mat3) apply(v [3]float64) [3]float64 {
 	return r
 }
 
+// inv is the inverse of a matrix known to be invertible (the sRGB
+// primaries, Bradford's cone matrix).
 func (a mat3) inv() mat3 {
-	det := a[0][0]*(a[1][1]*a[2][2]-a[1][2]*a[2][1]) -
-		a[0][1]*(a[1][0]*a[2][2]-a[1][2]*a[2][0]) +
-		a[0][2]*(a[1][0]*a[2][1]-a[1][1]*a[2][0])
-	var r mat3
-	r[0][0] = (a[1][1]*a[2][2] - a[1][2]*a[2][1]) / det
-	r[0][1] = (a[0][2]*a[2][1] - a[0][1]*a[2][2]) / det
-	r[0][2] = (a[0][1]*a[1][2] - a[0][2]*a[1][1]) / det
-	r[1][0] = (a[1][2]*a[2][0] - a[1][0]*a[2][2]) / det
-	r[1][1] = (a[0][0]*a[2][2] - a[0][2]*a[2][0]) / det
-	r[1][2] = (a[0][2]*a[1][0] - a[0][0]*a[1][2]) / det
-	r[2][0] = (a[1][0]*a[2][1] - a[1][1]*a[2][0]) / det
-	r[2][1] = (a[0][1]*a[2][0] - a[0][0]*a[2][1]) / det
-	r[2][2] = (a[0][0]*a[1][1] - a[0][1]*a[1][0]) / det
+	r, _ := invert3(a)
 	return r
 }
 
