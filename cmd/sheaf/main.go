@@ -61,6 +61,7 @@ func commands() []command {
 }
 
 func main() {
+	deferFirstCollection(firstCollectionAt)
 	stop := startProfiles()
 	code := run(os.Args[1:], os.Stdout, os.Stderr)
 	stop()

@@ -36,6 +36,23 @@ type Job struct {
 	// output and the inserts that borrow it.
 	mu    sync.Mutex
 	fonts map[string]*fonts.Set
+	// early holds what loading fonts ahead found (LoadData starts it
+	// while the table is read); fontsFor waits for it. nil: nothing was
+	// started, fonts load when first asked for.
+	early *earlyFonts
+
+	palOnce sync.Once
+	pal     []PaletteCheck
+	palErr  error
+}
+
+// earlyFonts is the fonts of every output, loaded on a goroutine of
+// their own while the data tables are read: the two do not depend on
+// each other, and each is a good part of what `check` and a rebuild
+// wait for before laying anything out.
+type earlyFonts struct {
+	done chan struct{}
+	errs map[string]error // an output's fonts.Load error, given when asked
 }
 
 // Load reads the spec at path and its data tables.
@@ -48,20 +65,51 @@ func Load(path string) (*Job, error) {
 }
 
 // LoadData reads the data tables of a loaded spec.
+//
+// Every output's fonts are loaded meanwhile, on a goroutine of their
+// own; an output's font error is returned when the output is prepared,
+// as it would be without the head start, and a data error still comes
+// first.
 func LoadData(s *specs.Spec) (*Job, error) {
+	j := &Job{Spec: s}
+	j.loadFontsAhead()
+	// Whatever happens here, nothing is left running after return.
+	fail := func(err error) (*Job, error) {
+		<-j.early.done
+		return nil, specs.BadInput(err)
+	}
 	t, err := series.ReadTable(s)
 	if err != nil {
-		return nil, specs.BadInput(err)
+		return fail(err)
 	}
 	d, err := t.Select(s)
 	if err != nil {
-		return nil, specs.BadInput(err)
+		return fail(err)
 	}
 	s.DataGaps = append([]int(nil), d.Gaps...)
 	if err := checkEditorialTerms(s, d); err != nil {
-		return nil, specs.BadInput(err)
+		return fail(err)
 	}
-	return &Job{Spec: s, Data: d, table: t}, nil
+	j.Data, j.table = d, t
+	return j, nil
+}
+
+// loadFontsAhead starts loading every output's fonts, in the spec's
+// order (so faces the outputs share are parsed once, as fontsFor
+// shares them). It reads only the spec, which nothing changes while it
+// runs (DataGaps, set meanwhile, is not read by fonts.Load).
+func (j *Job) loadFontsAhead() {
+	e := &earlyFonts{done: make(chan struct{}), errs: map[string]error{}}
+	j.early = e
+	outs := j.Spec.Outputs
+	go func() {
+		defer close(e.done)
+		for i := range outs {
+			if _, err := j.loadFonts(&outs[i]); err != nil {
+				e.errs[outs[i].Name] = err
+			}
+		}
+	}()
 }
 
 // Fonts gives out's fonts, loaded once for the job: Prepare and the
@@ -79,6 +127,17 @@ func (j *Job) Fonts(out *specs.Output) (*fonts.Set, error) {
 // fontsFor loads out's fonts once for the job: the output and every
 // insert that borrows it measure and draw with the same Set.
 func (j *Job) fontsFor(out *specs.Output) (*fonts.Set, error) {
+	if e := j.early; e != nil {
+		<-e.done
+		if err := e.errs[out.Name]; err != nil {
+			return nil, err
+		}
+	}
+	return j.loadFonts(out)
+}
+
+// loadFonts is fontsFor without waiting for the fonts loaded ahead.
+func (j *Job) loadFonts(out *specs.Output) (*fonts.Set, error) {
 	j.mu.Lock()
 	defer j.mu.Unlock()
 	if fs, ok := j.fonts[out.Name]; ok {
@@ -211,15 +270,37 @@ func (j *Job) wrapLabels(out *specs.Output, fs *fonts.Set, plan *layout.Plan, fe
 
 // PrepareAll prepares every output of the spec, in the spec's order.
 func (j *Job) PrepareAll() ([]*Output, error) {
-	var outs []*Output
+	outs := make([]*specs.Output, len(j.Spec.Outputs))
 	for i := range j.Spec.Outputs {
-		o, err := j.Prepare(&j.Spec.Outputs[i])
+		outs[i] = &j.Spec.Outputs[i]
+	}
+	return j.PrepareEach(outs)
+}
+
+// PrepareEach prepares the outputs given, each on a goroutine of its own
+// (their fonts are shared and locked; their layouts are independent),
+// and returns them in the order given. The error is the first output's
+// in that order, as preparing them one after another would return.
+func (j *Job) PrepareEach(outs []*specs.Output) ([]*Output, error) {
+	preps := make([]*Output, len(outs))
+	errs := make([]error, len(outs))
+	each(len(outs), func(i int) { preps[i], errs[i] = j.Prepare(outs[i]) })
+	for _, err := range errs {
 		if err != nil {
 			return nil, err
 		}
-		outs = append(outs, o)
 	}
-	return outs, nil
+	return preps, nil
+}
+
+// each calls f(0), …, f(n-1), each on a goroutine of its own, and
+// waits for all of them. The n here are a spec's outputs or steps: few.
+func each(n int, f func(i int)) {
+	var wg sync.WaitGroup
+	for i := range n {
+		wg.Go(func() { f(i) })
+	}
+	wg.Wait()
 }
 
 // FallbackDate stands in when neither SOURCE_DATE_EPOCH nor the spec's

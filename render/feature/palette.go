@@ -40,8 +40,15 @@ func Thresholds(s *specs.Spec) (palette.Thresholds, error) {
 }
 
 // CheckPalette runs the palette checks for every output of the spec, in
-// the spec's order.
+// the spec's order. They depend on the spec and the data's years only,
+// so a job runs them once (check and build ask twice: for the report
+// and for preflight); callers get the same slice and must not change it.
 func (j *Job) CheckPalette() ([]PaletteCheck, error) {
+	j.palOnce.Do(func() { j.pal, j.palErr = j.checkPalette() })
+	return j.pal, j.palErr
+}
+
+func (j *Job) checkPalette() ([]PaletteCheck, error) {
 	sc, err := Scale(j.Spec, j.Data.Span)
 	if err != nil {
 		return nil, err

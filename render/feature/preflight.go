@@ -17,14 +17,20 @@ func (j *Job) Preflight(outs []*Output, inserts ...*Insert) ([]preflight.Finding
 	if err != nil {
 		return nil, err
 	}
+	// Each output is checked on a goroutine of its own (the checks only
+	// read), and the findings are joined in the outputs' order.
+	found := make([][]preflight.Finding, len(outs))
+	errs := make([]error, len(outs))
+	each(len(outs), func(i int) {
+		found[i], errs[i] = preflight.Check(j.PreflightInput(outs[i], pal))
+		found[i] = append(found[i], noteFindings(j.Spec, outs[i])...)
+	})
 	var all []preflight.Finding
-	for _, o := range outs {
-		fs, err := preflight.Check(j.PreflightInput(o, pal))
-		if err != nil {
-			return nil, specs.BadInput(err)
+	for i := range outs {
+		if errs[i] != nil {
+			return nil, specs.BadInput(errs[i])
 		}
-		all = append(all, fs...)
-		all = append(all, noteFindings(j.Spec, o)...)
+		all = append(all, found[i]...)
 	}
 	for _, in := range inserts {
 		all = append(all, insertNoteFindings(j.Spec, in)...)

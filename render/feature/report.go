@@ -127,18 +127,34 @@ func (j *Job) Summarize() (Report, error) {
 	r.Years = YearsReport{From: d.Span.From, To: d.Span.To, Gaps: append([]int{}, d.Gaps...)}
 	r.Scale = ScaleReport{Values: string(s.Scale.Mode), Unit: d.Unit, YRange: string(s.Scale.YRange), YMax: d.YMax,
 		RollingYears: d.Rolling, Smoothing: d.Note()}
-	pal, err := j.CheckPalette()
-	if err != nil {
-		return r, err
-	}
-	var outs []*Output
-	for i := range s.Outputs {
-		o := &s.Outputs[i]
-		p, err := j.Prepare(o)
+	// The palette checks, the outputs and the inserts are prepared
+	// side by side; errors are reported in the order doing them one
+	// after another would meet them.
+	var (
+		pal             []PaletteCheck
+		outs            []*Output
+		ins             []*Insert
+		palErr, prepErr error
+		insErr          error
+	)
+	each(3, func(step int) {
+		switch step {
+		case 0:
+			pal, palErr = j.CheckPalette()
+		case 1:
+			outs, prepErr = j.PrepareAll()
+		case 2:
+			ins, insErr = j.PrepareInserts()
+		}
+	})
+	for _, err := range []error{palErr, prepErr, insErr} {
 		if err != nil {
 			return r, err
 		}
-		outs = append(outs, p)
+	}
+	for i := range s.Outputs {
+		o := &s.Outputs[i]
+		p := outs[i]
 		or := OutputReport{Name: o.Name, Kind: string(o.Kind),
 			TrimPt: [2]float64{o.Trim.W.Pt(), o.Trim.H.Pt()}, Bleed: o.Bleed.Pt(),
 			Summary: p.Plan.Summary(), Pages: len(p.Plan.Pages), Layout: p.Plan, Band: o.Band}
@@ -165,12 +181,8 @@ func (j *Job) Summarize() (Report, error) {
 		}
 		r.Outputs = append(r.Outputs, or)
 	}
-	// Inserts are laid out too: a missing term or a graphic too small for
-	// its plot is bad input here, as it is for build.
-	ins, err := j.PrepareInserts()
-	if err != nil {
-		return r, err
-	}
+	// Inserts are laid out too (above): a missing term or a graphic too
+	// small for its plot is bad input here, as it is for build.
 	for _, in := range ins {
 		g := in.Graphic
 		w, h := g.Size()
@@ -186,6 +198,7 @@ func (j *Job) Summarize() (Report, error) {
 		}
 		r.Inserts = append(r.Inserts, ir)
 	}
+	var err error
 	r.Preflight, err = j.Preflight(outs, ins...)
 	if r.Preflight == nil {
 		r.Preflight = []preflight.Finding{}
