@@ -167,6 +167,7 @@ func PlaceNotes(st NoteStyle, p NotePlot, anns []specs.Annotation, index []int) 
 		a := anns[i]
 		n := Note{Index: i, Term: a.Term, From: a.From, To: a.To, Text: a.Text, Size: st.Size, Mark: marks[k]}
 		anchor := anchors[k]
+		far := awayFrom(lines, anchor, pad+clear) // the same for every spot tried
 		best, bestScore, bestLines := layout.Rect{}, math.Inf(1), []string(nil)
 		for shape, ls := range st.shapes(a.Text) {
 			w := 0.0
@@ -184,7 +185,7 @@ func PlaceNotes(st NoteStyle, p NotePlot, anns []specs.Annotation, index []int) 
 						continue
 					}
 					ld := segment{anchor, near}
-					if crossesCurve(ld, lines, anchor, pad+clear) || crossesAny(ld, leaders) || segHitsAny(shorten(ld, minLead/2), solid) {
+					if crossesAny(ld, far) || crossesAny(ld, leaders) || segHitsAny(shorten(ld, minLead/2), solid) {
 						continue
 					}
 					best, bestScore, bestLines = box, d+penalty, ls
@@ -331,18 +332,19 @@ func nearest(r layout.Rect, p curve.Point) curve.Point {
 	return curve.Point{X: math.Min(math.Max(p.X, r.X0), r.X1), Y: math.Min(math.Max(p.Y, r.Y0), r.Y1)}
 }
 
-// crossesCurve reports whether a leader meets a line away from its own
-// start (within skip of the anchor the leader leaves the line).
-func crossesCurve(l segment, segs []segment, anchor curve.Point, skip float64) bool {
+// awayFrom is the segments of the lines a leader from anchor must not
+// cross: all but those within skip of the anchor at both ends, where the
+// leader leaves the line. It depends on the anchor only, so it is found
+// once per note, not for every spot tried.
+func awayFrom(segs []segment, anchor curve.Point, skip float64) []segment {
+	var far []segment
 	for _, s := range segs {
 		if math.Hypot(s.a.X-anchor.X, s.a.Y-anchor.Y) < skip && math.Hypot(s.b.X-anchor.X, s.b.Y-anchor.Y) < skip {
 			continue
 		}
-		if intersects(l, s) {
-			return true
-		}
+		far = append(far, s)
 	}
-	return false
+	return far
 }
 
 func crossesAny(l segment, ls []segment) bool {
