@@ -247,6 +247,21 @@ func Build(ctx context.Context, job *feature.Job, opts Options) (*Result, error)
 	if err != nil {
 		return nil, err
 	}
+	// canvas's fonts, which only drawing reads, parsed now: a face it
+	// cannot read stops the build before any file is touched. (Figures
+	// is the regular face's bytes again, parsed when a page draws.)
+	for _, p := range preps {
+		if err := p.Fonts.Ready(fonts.Regular, fonts.Bold, fonts.Italic); err != nil {
+			return nil, err
+		}
+	}
+	if opts.Only == "" || feature.BorrowsOutput(spec, opts.Only) { // the inserts are built
+		for _, in := range inserts {
+			if err := in.Graphic.Fonts.Ready(fonts.Regular, fonts.Bold, fonts.Italic); err != nil {
+				return nil, err
+			}
+		}
+	}
 	res := &Result{Findings: findings}
 	// The widths asked for up to here (layout, labels, preflight) are the
 	// same for the same inputs, however many pages a build draws: they are
