@@ -102,7 +102,9 @@ func (s *Set) LoadWidths(r io.Reader) error {
 		return errors.New("fonts: widths: bad entry count")
 	}
 	rest = rest[k:]
-	entries := map[widthKey]float64{}
+	// Sized once: an entry takes 18 bytes at least, so the count is
+	// bounded by the data, whatever the header says.
+	entries := make(map[widthKey]float64, min(n, uint64(len(rest)/18)))
 	for i := uint64(0); i < n; i++ {
 		if len(rest) < 17 {
 			return fmt.Errorf("fonts: widths: entry %d is cut short", i)
@@ -131,8 +133,40 @@ func (s *Set) LoadWidths(r io.Reader) error {
 			s.reused++ // measured before the load, and in the file too
 		}
 	}
+	s.seedAdvances(entries)
 	s.mu.Unlock()
 	return nil
+}
+
+// seedAdvances makes the advances behind saved widths known, to s and to
+// the Sets sharing its shaping (ShareShaping): a width is a whole number
+// of font units scaled by its size (measure), so a width saved at one
+// size gives the text's advance, and with it the width at any other size
+// or in another output set in the same faces, as shaping would give it.
+// Only an advance that gives the saved float64 back exactly is taken.
+// s.mu is held.
+func (s *Set) seedAdvances(entries map[widthKey]float64) {
+	if s.adv == nil {
+		s.adv = &advances{}
+	}
+	a := s.adv
+	a.mu.Lock()
+	defer a.mu.Unlock()
+	for k, w := range entries {
+		ak := advanceKey{k.st, k.text}
+		if _, ok := a.m[ak]; ok || len(a.m) >= maxAdvances || s.sfnt[k.st] == nil {
+			continue
+		}
+		em := s.mmPerEm(k.st, k.size)
+		u := math.Round(w * mmPerPt / em)
+		if math.IsNaN(u) || math.Abs(u) > math.MaxInt32 || em*u/mmPerPt != w {
+			continue
+		}
+		if a.m == nil {
+			a.m = make(map[advanceKey]int32, len(entries))
+		}
+		a.m[ak] = int32(u)
+	}
 }
 
 // identity is what a width depends on besides the key: the bytes of each
