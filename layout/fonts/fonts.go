@@ -9,6 +9,7 @@ package fonts
 
 import (
 	"bytes"
+	"crypto/sha256"
 	"errors"
 	"fmt"
 	"strings"
@@ -376,6 +377,17 @@ type canvasFont struct {
 	where    string // the face's place, before a failure
 	f        *canvas.Font
 	err      error
+
+	// sha is the SHA-256 of b, for the widths' identity: hashed once
+	// for every Set sharing the face (megabytes a run otherwise).
+	shaOnce sync.Once
+	sha     [sha256.Size]byte
+}
+
+// sum is the SHA-256 of the face's bytes.
+func (c *canvasFont) sum() [sha256.Size]byte {
+	c.shaOnce.Do(func() { c.sha = sha256.Sum256(c.b) })
+	return c.sha
 }
 
 // get parses c on the first call. A nil c (a Set not loaded) is an error.

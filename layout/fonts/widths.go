@@ -169,14 +169,28 @@ func (s *Set) seedAdvances(entries map[widthKey]float64) {
 	}
 }
 
+// sameBytes reports whether a and b are the same slice of memory.
+func sameBytes(a, b []byte) bool {
+	return len(a) == len(b) && (len(a) == 0 || &a[0] == &b[0])
+}
+
 // identity is what a width depends on besides the key: the bytes of each
 // font and the versions of the shaping code (canvas and the HarfBuzz port
 // under it, as recorded in the binary).
 func (s *Set) identity() [sha256.Size]byte {
 	h := sha256.New()
 	h.Write([]byte(widthsMagic))
+	var sums [numStyles][sha256.Size]byte
 	for st := Style(0); st < numStyles; st++ {
-		sum := sha256.Sum256(s.raw[st])
+		sum := &sums[st]
+		switch c := s.fonts[st]; {
+		case st > Regular && sameBytes(s.raw[st], s.raw[Regular]):
+			*sum = sums[Regular] // the italic or figures face is the regular one
+		case c != nil && sameBytes(c.b, s.raw[st]):
+			*sum = c.sum()
+		default:
+			*sum = sha256.Sum256(s.raw[st])
+		}
 		h.Write(sum[:])
 		fmt.Fprintf(h, "face %d\n", s.face[st])
 	}

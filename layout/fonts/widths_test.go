@@ -2,9 +2,13 @@ package fonts
 
 import (
 	"bytes"
+	"crypto/sha256"
+	"fmt"
 	"math"
 	"os"
 	"path/filepath"
+	"runtime/debug"
+	"strings"
 	"testing"
 
 	"github.com/go-fonts/latin-modern/lmsans10regular"
@@ -155,4 +159,42 @@ func TestWidthsOddWidthGivesNoAdvance(t *testing.T) {
 	assert.Equal(t, a.widths[k], b.Width(k.st, k.size, k.text), "the saved width itself is read")
 	assert.Equal(t, ref.Width(k.st, 9, k.text), b.Width(k.st, 9, k.text))
 	assert.True(t, b.adv.tried[Bold], "shaped")
+}
+
+// The widths' identity hashes each style's bytes once per face however
+// the Sets share them, and is the hash of every style's bytes in turn
+// (the reference: crypto/sha256 over each style's bytes, as written out
+// here), so files saved before still load.
+func TestWidthsIdentityHashesEveryStyle(t *testing.T) {
+	ref := func(s *Set) [sha256.Size]byte {
+		h := sha256.New()
+		h.Write([]byte(widthsMagic))
+		for st := range numStyles {
+			sum := sha256.Sum256(bytes.Clone(s.raw[st]))
+			h.Write(sum[:])
+			fmt.Fprintf(h, "face %d\n", s.face[st])
+		}
+		h.Write([]byte(features + "\n" + figureFeatures + "\n"))
+		if bi, ok := debug.ReadBuildInfo(); ok {
+			for _, d := range bi.Deps {
+				if strings.HasPrefix(d.Path, "github.com/tdewolff/") || strings.HasPrefix(d.Path, "github.com/go-text/") {
+					fmt.Fprintf(h, "%s@%s %s\n", d.Path, d.Version, d.Sum)
+				}
+			}
+		}
+		var id [sha256.Size]byte
+		h.Sum(id[:0])
+		return id
+	}
+	a := mustDefault(t)
+	b, err := Load(&specs.Spec{}, &specs.Output{}, a)
+	require.NoError(t, err)
+	spec, out := specIn(t, specHead+"    fonts: {regular: lm.otf}\n", map[string][]byte{"lm.otf": lmsans10regular.TTF})
+	c, err := Load(spec, out, a)
+	require.NoError(t, err)
+	for name, s := range map[string]*Set{"built-in": a, "loaded like it": b, "custom regular": c} {
+		assert.Equal(t, ref(s), s.identity(), name)
+		assert.Equal(t, ref(s), s.identity(), "%s, again", name)
+	}
+	assert.NotEqual(t, a.identity(), c.identity())
 }
