@@ -19,6 +19,14 @@ var buildHooks production.Hooks
 // paths; a test may pretend.
 var stdoutIsTerminal = isTerminal
 
+// outFolder is the output folder --out names, or out/ beside the spec.
+func outFolder(spec *specs.Spec, flag string) string {
+	if flag == "" {
+		return filepath.Join(spec.Dir, "out")
+	}
+	return flag
+}
+
 func runBuild(args []string, stdout, stderr io.Writer) int {
 	fs := newFlags("build", "SPEC [--out DIR] [--only OUTPUT] [--strict] [--no-proofs] [--full] [--quiet] [--paths]",
 		"Render every output of the spec: for print, one PDF with bleed and crop marks, a PNG proof per page\n"+
@@ -43,10 +51,7 @@ func runBuild(args []string, stdout, stderr io.Writer) int {
 	if err != nil {
 		return report(stderr, specs.BadInput(err))
 	}
-	dir := *outDir
-	if dir == "" {
-		dir = filepath.Join(spec.Dir, "out")
-	}
+	dir := outFolder(spec, *outDir)
 	date, err := feature.DocumentDate(spec, os.Getenv("SOURCE_DATE_EPOCH"))
 	if err != nil {
 		return report(stderr, err)

@@ -2,7 +2,12 @@ package main
 
 import (
 	"bytes"
+	"crypto/sha256"
+	"encoding/binary"
 	"encoding/json"
+	"fmt"
+	"math"
+	"os"
 	"path/filepath"
 	"strings"
 	"testing"
@@ -137,4 +142,67 @@ func TestCheckUsage(t *testing.T) {
 		var out, errb bytes.Buffer
 		assert.Equal(t, exitBadInput, run(args, &out, &errb), "%v", args)
 	}
+}
+
+// TestCheckReadsLastBuildWidths: check reads the text widths the last
+// build saved (in out/ beside the spec, or the folder --out names, as
+// build takes it) and reports byte for byte what it reports without
+// them (the reference: check before any build). That it reads them at
+// all shows with a saved width made wrong on purpose (checksum redone):
+// the label it belongs to no longer fits.
+func TestCheckReadsLastBuildWidths(t *testing.T) {
+	dir := t.TempDir()
+	for _, f := range []string{"spec.yaml", "counts.csv", "totals.csv"} {
+		b, err := os.ReadFile(filepath.Join("../../testdata/small", f))
+		require.NoError(t, err)
+		require.NoError(t, os.WriteFile(filepath.Join(dir, f), b, 0o644))
+	}
+	spec := filepath.Join(dir, "spec.yaml")
+	check := func(extra ...string) string {
+		t.Helper()
+		var out, errb bytes.Buffer
+		code := run(append([]string{"check", spec}, extra...), &out, &errb)
+		return fmt.Sprintf("exit %d\n%s\n--- stderr\n%s", code, out.String(), errb.String())
+	}
+	other := filepath.Join(t.TempDir(), "elsewhere")
+	text, js := check(), check("--json")
+	textOther, jsOther := check("--out", other), check("--json", "--out", other)
+	require.Equal(t, text, textOther)
+	require.Equal(t, js, jsOther)
+	for _, args := range [][]string{{"build", spec, "--quiet"}, {"build", spec, "--out", other, "--quiet"}} {
+		var out, errb bytes.Buffer
+		require.Equal(t, exitOK, run(args, &out, &errb), errb.String())
+	}
+	widths := filepath.Join(dir, "out", ".cache", "print", "text-widths")
+	require.FileExists(t, widths)
+	require.FileExists(t, filepath.Join(other, ".cache", "print", "text-widths"))
+	assert.Equal(t, text, check(), "with out/'s widths")
+	assert.Equal(t, js, check("--json"), "with out/'s widths")
+	assert.Equal(t, text, check("--out", other), "with --out's widths")
+	assert.Equal(t, js, check("--json", "--out", other), "with --out's widths")
+
+	// "telegraph" in the file: its length (a uvarint) and bytes follow
+	// its width (float64, little-endian); the file ends in the SHA-256
+	// of the rest (fonts.Set.SaveWidths).
+	b, err := os.ReadFile(widths)
+	require.NoError(t, err)
+	body := b[:len(b)-sha256.Size]
+	n := 0
+	for i := 0; ; {
+		j := bytes.Index(body[i:], []byte("\x09telegraph"))
+		if j < 0 {
+			break
+		}
+		at := i + j - 8
+		binary.LittleEndian.PutUint64(body[at:], math.Float64bits(1000))
+		n++
+		i += j + 1
+	}
+	require.Positive(t, n, "telegraph's width is saved")
+	sum := sha256.Sum256(body)
+	require.NoError(t, os.WriteFile(widths, append(body, sum[:]...), 0o644))
+	wrong := check()
+	assert.NotEqual(t, text, wrong, "check did not read the saved widths")
+	assert.Contains(t, wrong, "telegraph")
+	assert.Equal(t, text, check("--out", other), "another folder's widths are its own")
 }

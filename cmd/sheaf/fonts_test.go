@@ -11,6 +11,7 @@ import (
 	"strings"
 	"testing"
 
+	"github.com/go-fonts/dejavu/dejavusanscondensed"
 	"github.com/go-fonts/latin-modern/lmsans10bold"
 	"github.com/go-fonts/latin-modern/lmsans10regular"
 	"github.com/stretchr/testify/assert"
@@ -142,11 +143,29 @@ func TestBadFontsExitTwo(t *testing.T) {
 			be.PutUint16(restricted[int(be.Uint32(lm[rec+8:]))+8:], 0x0002) // OS/2 fsType: Restricted License embedding
 		}
 	}
+	// DejaVu with the start of its cmap zeroed: tdewolff/font, which
+	// Load parses with, reads it; go-text, which shapes and draws, does
+	// not ("unsupported cmap table"). And DejaVu without an OS/2 table
+	// (tag renamed), whose metrics canvas cannot read.
+	dv := dejavusanscondensed.TTF
+	noCmap, noOS2 := append([]byte(nil), dv...), append([]byte(nil), dv...)
+	for r := 0; r < int(be.Uint16(dv[4:])); r++ {
+		rec := 12 + 16*r
+		switch string(dv[rec : rec+4]) {
+		case "cmap":
+			off := int(be.Uint32(dv[rec+8:]))
+			clear(noCmap[off : off+64])
+		case "OS/2":
+			copy(noOS2[rec:], "OS/3")
+		}
+	}
 	tests := []struct {
 		name, fonts string
 		file        []byte
 		want        []string
 	}{
+		{"cmap go-text cannot read", "{regular: f.otf}", noCmap, []string{"spec.yaml:13:", "fonts.regular", "f.otf", "not a usable", "unsupported cmap table"}},
+		{"no OS/2 table", "{regular: f.otf}", noOS2, []string{"spec.yaml:13:", "fonts.regular", "f.otf", "not a usable", "no OS/2"}},
 		{"truncated CFF", "{regular: f.otf}", lm[:cffOff+cffLen/2], []string{"spec.yaml:13:", "fonts.regular", "f.otf", "not a usable"}},
 		{"restricted licence", "{regular: f.otf}", restricted, []string{"spec.yaml:13:", "LMSans10-Regular", "Restricted License embedding", "f.otf"}},
 		{"missing face", `{regular: {path: f.otf, face: "Nope"}}`, lm, []string{"spec.yaml:13:", "fonts.regular.face", `no face "Nope"`, `0 "Latin Modern Sans 10 Regular"`}},

@@ -381,10 +381,18 @@ func FuzzFontFile(f *testing.F) {
 		_, _ = Faces(b)
 		if i, err := pickFace(b, specs.FaceRef{Name: "x"}); err == nil {
 			var s Set
-			_ = s.set(Regular, b, "", i)
+			_ = s.set(Regular, b, "", i, "fuzz")
 		}
 		var s Set
-		_ = s.set(Regular, b, "", 0)
+		if s.set(Regular, b, "", 0, "fuzz") == nil {
+			// What Load accepts is measured and drawn: canvas's deferred
+			// parse, metrics and shaping must fail as errors too.
+			_ = s.Ready()
+			_ = s.Metrics(Regular, 10)
+			_ = s.Width(Regular, 10, "Ag 1868")
+			_ = s.Err()
+			_ = s.HasGlyph(Regular, 'A')
+		}
 	})
 }
 

@@ -9,6 +9,7 @@ package fonts
 
 import (
 	"bytes"
+	"crypto/sha256"
 	"errors"
 	"fmt"
 	"strings"
@@ -18,6 +19,7 @@ import (
 	"github.com/go-fonts/dejavu/dejavusanscondensedbold"
 	"github.com/go-fonts/dejavu/dejavusanscondensedoblique"
 	"github.com/tdewolff/canvas"
+	"github.com/tdewolff/font"
 
 	"sheaf/specs"
 )
@@ -72,22 +74,28 @@ func (s *Style) UnmarshalText(b []byte) error {
 // use by its own methods; the *canvas.FontFace values it hands out share the
 // parsed fonts.
 type Set struct {
-	raw   [numStyles][]byte
-	path  [numStyles]string // resolved path; "" for a built-in face
-	face  [numStyles]int    // index of the face in a collection
-	fonts [numStyles]*canvas.Font
+	raw  [numStyles][]byte
+	path [numStyles]string // resolved path; "" for a built-in face
+	face [numStyles]int    // index of the face in a collection
+	// sfnt is each face as tdewolff/font parses it (canvas's own first
+	// step): what Load checks, and what metrics, names and glyph
+	// coverage read, without canvas's second, full parse for shaping.
+	sfnt [numStyles]*font.SFNT
+	name [numStyles]string // as canvas names the face
+	// fonts are canvas's fonts, for drawing, parsed on first use.
+	fonts [numStyles]*canvasFont
 	emb   [numStyles]Embedding
 
 	// like are the Sets Load may take parsed faces from (only while it
-	// runs); shared marks the faces taken, whose features are set already.
-	like   []*Set
-	shared [numStyles]bool
+	// runs).
+	like []*Set
 
 	// The shaper behind canvas.FontFace.TextWidth is not documented as safe
 	// for concurrent use, so measuring goes through one lock per Set.
 	// Shaping costs about 10 µs a string; layout measures the same folios,
 	// headings and lines again for every output and page, hence the cache.
 	mu      sync.Mutex
+	err     error // see Err
 	widths  map[widthKey]float64
 	metrics map[widthKey]Metrics // text is always ""
 	// saved is what LoadWidths read (savedRaw its bytes): a width found
@@ -176,7 +184,7 @@ func Load(spec *specs.Spec, out *specs.Output, like ...*Set) (*Set, error) {
 	embeds := out.Kind == specs.Print || out.Fonts.Embed
 	load := func(st Style, written string, ref specs.FaceRef, key string, builtin []byte) error {
 		if written == "" {
-			return s.set(st, builtin, "", 0)
+			return s.set(st, builtin, "", 0, "built-in "+st.String()+" face")
 		}
 		resolved := spec.Resolve(written)
 		where := fmt.Sprintf("%s: output %q: fonts.%s", spec.Where("outputs."+out.Name+".fonts."+key), out.Name, key)
@@ -196,13 +204,14 @@ func Load(spec *specs.Spec, out *specs.Output, like ...*Set) (*Set, error) {
 			}
 			return fmt.Errorf("%s: %q (resolved to %q) is not a usable TrueType/OpenType font: %w", where, written, resolved, err)
 		}
-		if err := s.set(st, b, resolved, 0); err != nil {
-			return fmt.Errorf("%s: %q (resolved to %q) is not a usable TrueType/OpenType font: %w", where, written, resolved, err)
+		unusable := fmt.Sprintf("%s: %q (resolved to %q) is not a usable TrueType/OpenType font", where, written, resolved)
+		if err := s.set(st, b, resolved, 0, unusable); err != nil {
+			return fmt.Errorf("%s: %w", unusable, err)
 		}
 		s.face[st] = face
 		if why := s.emb[st].Licence.Refusal(); why != "" && embeds {
 			return fmt.Errorf("%s: font %q (%s, resolved to %q): %s; output %q embeds its fonts (%s); choose another font or one licensed for embedding",
-				where, s.fonts[st].Name(), written, resolved, why, out.Name, embedsWhy(out))
+				where, s.name[st], written, resolved, why, out.Name, embedsWhy(out))
 		}
 		return nil
 	}
@@ -213,21 +222,22 @@ func Load(spec *specs.Spec, out *specs.Output, like ...*Set) (*Set, error) {
 		return nil, err
 	}
 	if out.Fonts.Regular == "" {
-		if err := s.set(Italic, dejavusanscondensedoblique.TTF, "", 0); err != nil {
+		if err := s.set(Italic, dejavusanscondensedoblique.TTF, "", 0, "built-in italic face"); err != nil {
 			return nil, err
 		}
 	} else {
-		s.raw[Italic], s.path[Italic], s.face[Italic], s.fonts[Italic], s.emb[Italic] =
-			s.raw[Regular], s.path[Regular], s.face[Regular], s.fonts[Regular], s.emb[Regular]
+		s.copyStyle(Italic, Regular)
+		s.fonts[Italic] = s.fonts[Regular]
 	}
-	// The same bytes parsed again: canvas keeps features per font.
-	if err := s.set(Figures, s.raw[Regular], s.path[Regular], 0); err != nil {
-		return nil, err
+	// The regular face again, with its own canvas font: canvas keeps
+	// features per font.
+	if !s.share(Figures, s.raw[Regular]) {
+		s.copyStyle(Figures, Regular)
+		if err := s.newCanvasFont(Figures, s.fonts[Regular].where); err != nil {
+			return nil, err
+		}
 	}
-	s.face[Figures] = s.face[Regular]
-	if !s.shared[Figures] {
-		s.fonts[Figures].SetFeatures(figureFeatures)
-	}
+	s.path[Figures], s.face[Figures] = s.path[Regular], s.face[Regular]
 	return s, nil
 }
 
@@ -260,22 +270,22 @@ const features = "lnum"
 // wide, so numbers in a column or under ticks line up.
 const figureFeatures = "lnum,tnum"
 
-// set parses face i of b. Font files come from users, so a panic inside
-// the parser is turned into an error rather than taking the program down.
-func (s *Set) set(st Style, b []byte, path string, face int) (err error) {
-	for _, o := range s.like {
-		if o != nil && o.fonts[st] != nil && bytes.Equal(o.raw[st], b) {
-			s.raw[st], s.path[st], s.face[st], s.fonts[st], s.emb[st] = b, path, face, o.fonts[st], o.emb[st]
-			s.shared[st] = true
-			return nil
-		}
+// set parses face i of b as tdewolff/font parses it for canvas, and
+// checks what measuring and drawing rely on; canvas's own parse waits
+// for the first drawing (see canvasFont), and a failure of it is prefixed
+// with where. Font files come from users, so a panic inside the parser
+// is turned into an error rather than taking the program down.
+func (s *Set) set(st Style, b []byte, path string, face int, where string) (err error) {
+	if s.share(st, b) {
+		s.path[st], s.face[st] = path, face
+		return nil
 	}
 	defer func() {
 		if r := recover(); r != nil {
 			err = fmt.Errorf("font parser failed: %v", r)
 		}
 	}()
-	f, err := canvas.LoadFont(b, face, canvas.FontRegular)
+	f, err := font.ParseFont(b, face) // canvas.LoadFont's first step
 	if err != nil {
 		return err
 	}
@@ -285,13 +295,128 @@ func (s *Set) set(st Style, b []byte, path string, face int) (err error) {
 	if f.Hmtx == nil || f.Maxp == nil || f.NumGlyphs() == 0 {
 		return fmt.Errorf("font has no glyphs or no horizontal metrics")
 	}
-	emb, err := embeddingOf(f.SFNT)
+	if f.OS2 == nil || f.Hhea == nil {
+		// tdewolff/font reads a TrueType font without them, but canvas's
+		// metrics (and so every line of text it draws) read both.
+		return fmt.Errorf("font has no OS/2 or hhea table (vertical metrics), which OpenType requires")
+	}
+	emb, err := embeddingOf(f)
 	if err != nil {
 		return err
 	}
-	f.SetFeatures(features)
-	s.raw[st], s.path[st], s.face[st], s.fonts[st], s.emb[st] = b, path, face, f, emb
+	s.raw[st], s.path[st], s.face[st], s.sfnt[st], s.name[st], s.emb[st] = b, path, face, f, canvasName(f), emb
+	return s.newCanvasFont(st, where)
+}
+
+// share takes the face for st from one of the Sets Load was given, when
+// it holds the same bytes in that style (its features are set already).
+func (s *Set) share(st Style, b []byte) bool {
+	for _, o := range s.like {
+		if o != nil && o.fonts[st] != nil && bytes.Equal(o.raw[st], b) {
+			s.copyStyle(st, st, o)
+			s.fonts[st] = o.fonts[st]
+			return true
+		}
+	}
+	return false
+}
+
+// copyStyle makes st's face from's face of o (s when o is not given),
+// but for its canvas font.
+func (s *Set) copyStyle(st, from Style, o ...*Set) {
+	src := s
+	if len(o) > 0 {
+		src = o[0]
+	}
+	s.raw[st], s.path[st], s.face[st], s.sfnt[st], s.name[st], s.emb[st] =
+		src.raw[from], src.path[from], src.face[from], src.sfnt[from], src.name[from], src.emb[from]
+}
+
+// newCanvasFont gives st its canvas font, to be parsed on first use. A
+// face without a name is parsed now: canvas names it by a count of the
+// nameless faces it has loaded, and Load's order keeps those names as
+// they were when every face was parsed here.
+func (s *Set) newCanvasFont(st Style, where string) error {
+	feats := features
+	if st == Figures {
+		feats = figureFeatures
+	}
+	c := &canvasFont{b: s.raw[st], features: feats, where: where}
+	if canvasName(s.sfnt[st]) == "" {
+		f, err := loadCanvas(c.b, c.features)
+		if err != nil {
+			return err
+		}
+		c.once.Do(func() { c.f = f })
+		s.name[st] = f.Name()
+	}
+	s.fonts[st] = c
 	return nil
+}
+
+// canvasName is the name canvas.LoadFont gives a face: the first record
+// of name ID 6, else 4, else 1; "" where canvas numbers it instead.
+func canvasName(f *font.SFNT) string {
+	for _, id := range []font.NameID{6, 4, 1} {
+		for _, r := range f.Name.Get(id) {
+			return r.String()
+		}
+	}
+	return ""
+}
+
+// canvasFont is a face's canvas font, parsed on first use. canvas parses
+// a face twice, once with tdewolff/font and again, written out, with
+// go-text for its shaper (every glyph outline); measuring shapes with a
+// parse of its own and only drawing needs canvas's, so a `check` never
+// makes one. Sets loaded alike share it.
+type canvasFont struct {
+	once     sync.Once
+	b        []byte
+	features string
+	where    string // the face's place, before a failure
+	f        *canvas.Font
+	err      error
+
+	// sha is the SHA-256 of b, for the widths' identity: hashed once
+	// for every Set sharing the face (megabytes a run otherwise).
+	shaOnce sync.Once
+	sha     [sha256.Size]byte
+}
+
+// sum is the SHA-256 of the face's bytes.
+func (c *canvasFont) sum() [sha256.Size]byte {
+	c.shaOnce.Do(func() { c.sha = sha256.Sum256(c.b) })
+	return c.sha
+}
+
+// get parses c on the first call. A nil c (a Set not loaded) is an error.
+func (c *canvasFont) get() (*canvas.Font, error) {
+	if c == nil {
+		return nil, errors.New("fonts: no font loaded")
+	}
+	c.once.Do(func() {
+		c.f, c.err = loadCanvas(c.b, c.features)
+		if c.err != nil {
+			c.err = specs.BadInput(fmt.Errorf("%s: %w", c.where, c.err))
+		}
+	})
+	return c.f, c.err
+}
+
+// loadCanvas parses b as canvas does, a panic of a parser being an error.
+func loadCanvas(b []byte, features string) (f *canvas.Font, err error) {
+	defer func() {
+		if r := recover(); r != nil {
+			f, err = nil, fmt.Errorf("font parser failed: %v", r)
+		}
+	}()
+	f, err = canvas.LoadFont(b, 0, canvas.FontRegular)
+	if err != nil {
+		return nil, err
+	}
+	f.SetFeatures(features)
+	return f, nil
 }
 
 // Embedding returns how the face for st goes into a document: its outline
@@ -318,11 +443,49 @@ func (s *Set) Bytes(st Style) []byte { return s.raw[s.valid(st)] }
 // built-in face.
 func (s *Set) Path(st Style) string { return s.path[s.valid(st)] }
 
-// Font returns the parsed canvas font for st.
-func (s *Set) Font(st Style) *canvas.Font { return s.fonts[s.valid(st)] }
+// Font returns canvas's font for st, for drawing, parsed on first use
+// (Load checks each face with the lighter parse canvas's starts with).
+// It is nil when canvas cannot read the face after all: Ready says why,
+// and whatever draws calls Ready first.
+func (s *Set) Font(st Style) *canvas.Font {
+	f, _ := s.fonts[s.valid(st)].get()
+	return f
+}
 
-// Name returns the font's name from its name table.
-func (s *Set) Name(st Style) string { return s.fonts[s.valid(st)].Name() }
+// Ready parses the faces of styles (every style when none is given) for
+// drawing now and reports the first that canvas cannot read, or that
+// measuring could not (see Err), with its place in the spec: bad input
+// (specs.InputError). Nothing is drawn with a Set that is not ready.
+func (s *Set) Ready(styles ...Style) error {
+	if len(styles) == 0 {
+		styles = []Style{Regular, Bold, Italic, Figures}
+	}
+	for _, st := range styles {
+		if _, err := s.fonts[s.valid(st)].get(); err != nil {
+			return err
+		}
+	}
+	return s.Err()
+}
+
+// Err reports a face that measuring could not shape after all (neither
+// parse of it for shaping reads it): its widths are then unknown, so
+// layout stops with this error rather than place text by them.
+func (s *Set) Err() error {
+	s.mu.Lock()
+	defer s.mu.Unlock()
+	return s.err
+}
+
+// Name returns the face's name from its name table, as canvas names it
+// (name ID 6, else 4, else 1).
+func (s *Set) Name(st Style) string { return s.name[s.valid(st)] }
+
+// HasGlyph reports whether the face for st maps r to a glyph (its cmap).
+func (s *Set) HasGlyph(st Style, r rune) bool {
+	f := s.sfnt[s.valid(st)]
+	return f != nil && f.GlyphIndex(r) != 0
+}
 
 func (s *Set) valid(st Style) Style {
 	if st < 0 || st >= numStyles {
@@ -331,10 +494,20 @@ func (s *Set) valid(st Style) Style {
 	return st
 }
 
-// Face returns a black canvas face of st at size points. Callers may change
-// its Fill.
+// Face returns a black canvas face of st at size points, nil when Ready
+// fails. Callers may change its Fill.
 func (s *Set) Face(st Style, size float64) *canvas.FontFace {
-	return s.Font(st).Face(size, canvas.Black)
+	f := s.Font(st)
+	if f == nil {
+		return nil
+	}
+	return f.Face(size, canvas.Black)
+}
+
+// mmPerEm is the millimetres per font unit of st at size points, as
+// canvas.Font.Face works it out (its size in mm over units per em).
+func (s *Set) mmPerEm(st Style, size float64) float64 {
+	return size * mmPerPt / float64(s.sfnt[s.valid(st)].Head.UnitsPerEm)
 }
 
 // Metrics are the vertical metrics of a face, in points. Ascent and Descent
@@ -361,14 +534,17 @@ func (s *Set) Metrics(st Style, size float64) Metrics {
 	return m
 }
 
+// metricsOf is canvas.FontFace.Metrics in points, worked out as it
+// does from the same parse of the face, so the same float64s.
 func (s *Set) metricsOf(st Style, size float64) Metrics {
-	m := s.Face(st, size).Metrics()
+	f, em := s.sfnt[s.valid(st)], s.mmPerEm(st, size)
+	asc, desc, gap := f.VerticalMetrics()
 	return Metrics{
-		Ascent:    m.Ascent / mmPerPt,
-		Descent:   m.Descent / mmPerPt,
-		LineGap:   m.LineGap / mmPerPt,
-		CapHeight: m.CapHeight / mmPerPt,
-		XHeight:   m.XHeight / mmPerPt,
+		Ascent:    em * float64(asc) / mmPerPt,
+		Descent:   em * float64(desc) / mmPerPt,
+		LineGap:   em * float64(gap) / mmPerPt,
+		CapHeight: em * float64(f.OS2.SCapHeight) / mmPerPt,
+		XHeight:   em * float64(f.OS2.SxHeight) / mmPerPt,
 	}
 }
 
@@ -396,7 +572,13 @@ func (s *Set) Width(st Style, size float64, text string) float64 {
 	}
 	w, ok := s.saved[k]
 	if !ok {
-		w = s.measure(k.st, size, text)
+		var err error
+		if w, err = s.measure(k.st, size, text); err != nil {
+			if s.err == nil {
+				s.err = err
+			}
+			return 0 // not kept: Err stops the layout
+		}
 	}
 	if s.widths == nil {
 		s.widths = make(map[widthKey]float64)
@@ -413,8 +595,7 @@ func (s *Set) Width(st Style, size float64, text string) float64 {
 // measure is canvas.FontFace.TextWidth in points, shaping text in st
 // once for every size: the same sum of advances scaled the same way, so
 // the same float64. s.mu is held.
-func (s *Set) measure(st Style, size float64, text string) float64 {
-	face := s.Face(st, size)
+func (s *Set) measure(st Style, size float64, text string) (float64, error) {
 	k := advanceKey{st, text}
 	if s.adv == nil {
 		s.adv = &advances{}
@@ -426,6 +607,13 @@ func (s *Set) measure(st Style, size float64, text string) float64 {
 		if sh := s.shaper(st); sh != nil {
 			units = sh.advance(text)
 		} else {
+			// go-text cannot read the face as it is; canvas's shaper
+			// reads it as tdewolff/font writes it out.
+			face := s.Face(st, size)
+			if face == nil {
+				_, err := s.fonts[st].get()
+				return 0, err
+			}
 			for _, g := range face.Glyphs(text) {
 				if !g.Vertical {
 					units += g.XAdvance
@@ -441,7 +629,7 @@ func (s *Set) measure(st Style, size float64, text string) float64 {
 			s.adv.m[k] = units
 		}
 	}
-	return face.MmPerEm * float64(units) / mmPerPt
+	return s.mmPerEm(st, size) * float64(units) / mmPerPt, nil
 }
 
 // shaper returns the shaper measuring st, made on first use: the

@@ -102,7 +102,9 @@ func (s *Set) LoadWidths(r io.Reader) error {
 		return errors.New("fonts: widths: bad entry count")
 	}
 	rest = rest[k:]
-	entries := map[widthKey]float64{}
+	// Sized once: an entry takes 18 bytes at least, so the count is
+	// bounded by the data, whatever the header says.
+	entries := make(map[widthKey]float64, min(n, uint64(len(rest)/18)))
 	for i := uint64(0); i < n; i++ {
 		if len(rest) < 17 {
 			return fmt.Errorf("fonts: widths: entry %d is cut short", i)
@@ -131,8 +133,45 @@ func (s *Set) LoadWidths(r io.Reader) error {
 			s.reused++ // measured before the load, and in the file too
 		}
 	}
+	s.seedAdvances(entries)
 	s.mu.Unlock()
 	return nil
+}
+
+// seedAdvances makes the advances behind saved widths known, to s and to
+// the Sets sharing its shaping (ShareShaping): a width is a whole number
+// of font units scaled by its size (measure), so a width saved at one
+// size gives the text's advance, and with it the width at any other size
+// or in another output set in the same faces, as shaping would give it.
+// Only an advance that gives the saved float64 back exactly is taken.
+// s.mu is held.
+func (s *Set) seedAdvances(entries map[widthKey]float64) {
+	if s.adv == nil {
+		s.adv = &advances{}
+	}
+	a := s.adv
+	a.mu.Lock()
+	defer a.mu.Unlock()
+	for k, w := range entries {
+		ak := advanceKey{k.st, k.text}
+		if _, ok := a.m[ak]; ok || len(a.m) >= maxAdvances || s.sfnt[k.st] == nil {
+			continue
+		}
+		em := s.mmPerEm(k.st, k.size)
+		u := math.Round(w * mmPerPt / em)
+		if math.IsNaN(u) || math.Abs(u) > math.MaxInt32 || em*u/mmPerPt != w {
+			continue
+		}
+		if a.m == nil {
+			a.m = make(map[advanceKey]int32, len(entries))
+		}
+		a.m[ak] = int32(u)
+	}
+}
+
+// sameBytes reports whether a and b are the same slice of memory.
+func sameBytes(a, b []byte) bool {
+	return len(a) == len(b) && (len(a) == 0 || &a[0] == &b[0])
 }
 
 // identity is what a width depends on besides the key: the bytes of each
@@ -141,8 +180,17 @@ func (s *Set) LoadWidths(r io.Reader) error {
 func (s *Set) identity() [sha256.Size]byte {
 	h := sha256.New()
 	h.Write([]byte(widthsMagic))
+	var sums [numStyles][sha256.Size]byte
 	for st := Style(0); st < numStyles; st++ {
-		sum := sha256.Sum256(s.raw[st])
+		sum := &sums[st]
+		switch c := s.fonts[st]; {
+		case st > Regular && sameBytes(s.raw[st], s.raw[Regular]):
+			*sum = sums[Regular] // the italic or figures face is the regular one
+		case c != nil && sameBytes(c.b, s.raw[st]):
+			*sum = c.sum()
+		default:
+			*sum = sha256.Sum256(s.raw[st])
+		}
 		h.Write(sum[:])
 		fmt.Fprintf(h, "face %d\n", s.face[st])
 	}

@@ -227,6 +227,10 @@ func (j *Job) Prepare(out *specs.Output) (*Output, error) {
 		return nil, specs.BadInput(err)
 	}
 	plan, err := bank.Solve(j.Spec, out, fs, j.Groups(), j.Data) // layout.Solve, banking the aspect when asked
+	// A face Load accepted that shaping cannot read: no width is right.
+	if ferr := fs.Err(); ferr != nil {
+		return nil, specs.BadInput(ferr)
+	}
 	if err != nil {
 		return nil, specs.BadInput(err)
 	}
@@ -244,6 +248,9 @@ func (j *Job) Prepare(out *specs.Output) (*Output, error) {
 	}
 	o := &Output{Spec: out, Fonts: fs, Plan: plan, Press: cond, Feature: feat}
 	if err := checkNoteRoom(j.Spec, o); err != nil {
+		return nil, specs.BadInput(err)
+	}
+	if err := fs.Err(); err != nil {
 		return nil, specs.BadInput(err)
 	}
 	return o, nil

@@ -514,6 +514,9 @@ func (g *Graphic) Paper() color.RGBA { return rgba(page.ColorOf(g.Spec.Palette.P
 func (g *Graphic) Draw(ctx *canvas.Context) error {
 	t := g.Output.Type
 	fs := g.Fonts
+	if err := fs.Ready(); err != nil { // canvas's fonts, parsed on first use
+		return err
+	}
 	lead := g.leading()
 	paper := g.Paper()
 	if paper != (color.RGBA{0xff, 0xff, 0xff, 0xff}) {

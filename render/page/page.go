@@ -180,6 +180,9 @@ func (f *Feature) DrawSome(ctx *canvas.Context, i int, keep func(layout.Panel) b
 	if i < 0 || i >= len(f.Plan.Pages) {
 		return fmt.Errorf("page %d does not exist (the output has %d)", i+1, len(f.Plan.Pages))
 	}
+	if err := f.Fonts.Ready(); err != nil { // canvas's fonts, parsed on first use
+		return err
+	}
 	pg := &f.Plan.Pages[i]
 	f.paper(p, pg)
 	f.placed(p, pg)
@@ -207,6 +210,9 @@ func (f *Feature) DrawSome(ctx *canvas.Context, i int, keep func(layout.Panel) b
 func (f *Feature) DrawPanel(ctx *canvas.Context, pn layout.Panel) error {
 	if pn.Item < 0 || pn.Item >= len(f.Data.Series) {
 		return fmt.Errorf("panel for item %d does not exist (the output has %d terms)", pn.Item, len(f.Data.Series))
+	}
+	if err := f.Fonts.Ready(); err != nil {
+		return err
 	}
 	var b curve.Builder
 	return f.groupedPanel(pen{ctx: ctx, fonts: f.Fonts}, &b, pn)

@@ -247,6 +247,21 @@ func Build(ctx context.Context, job *feature.Job, opts Options) (*Result, error)
 	if err != nil {
 		return nil, err
 	}
+	// canvas's fonts, which only drawing reads, parsed now: a face it
+	// cannot read stops the build before any file is touched. (Figures
+	// is the regular face's bytes again, parsed when a page draws.)
+	for _, p := range preps {
+		if err := p.Fonts.Ready(fonts.Regular, fonts.Bold, fonts.Italic); err != nil {
+			return nil, err
+		}
+	}
+	if opts.Only == "" || feature.BorrowsOutput(spec, opts.Only) { // the inserts are built
+		for _, in := range inserts {
+			if err := in.Graphic.Fonts.Ready(fonts.Regular, fonts.Bold, fonts.Italic); err != nil {
+				return nil, err
+			}
+		}
+	}
 	res := &Result{Findings: findings}
 	// The widths asked for up to here (layout, labels, preflight) are the
 	// same for the same inputs, however many pages a build draws: they are
@@ -791,6 +806,31 @@ func (b *build) encode(p *feature.Output, i int) (*pdf.EncodedPage, error) {
 // widthsFile holds an output's text widths between builds (see
 // fonts.Set.SaveWidths), beside its cached pages.
 const widthsFile = "text-widths"
+
+// ReuseWidths gives the fonts of every output of job the text widths
+// the last build into dir saved (fonts.Set.SaveWidths), for a caller that
+// lays the outputs out without building, as `check` does: what the build
+// measured is then read, not shaped, and every other width is measured
+// as usual. The widths are the very float64s measured for the same font
+// bytes and shaping code (LoadWidths refuses any other), so the layout is
+// the one made without them. A folder that holds no build, a missing,
+// damaged or outdated file and fonts that do not load (Prepare reports
+// those) change nothing. It returns the outputs that got widths.
+func ReuseWidths(job *feature.Job, dir string) []string {
+	final, err := resolveOut(dir)
+	if err != nil {
+		return nil
+	}
+	var got []string
+	for i := range job.Spec.Outputs {
+		o := &job.Spec.Outputs[i]
+		fs, err := job.Fonts(o)
+		if err == nil && loadWidths(final, o.Name, fs) {
+			got = append(got, o.Name)
+		}
+	}
+	return got
+}
 
 // loadWidths gives an output's fonts the widths the last build saved. A missing,
 // damaged or outdated file costs only the time to measure again.

@@ -3,6 +3,7 @@ package production
 import (
 	"bytes"
 	"context"
+	"encoding/json"
 	"os"
 	"path/filepath"
 	"testing"
@@ -10,6 +11,8 @@ import (
 
 	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
+
+	"sheaf/render/feature"
 )
 
 // TestLentOutputWidths: `--only print` lays out the web's inserts without
@@ -79,4 +82,39 @@ func TestSavedWidthsCoverDrawing(t *testing.T) {
 	require.NoError(t, fs.SaveWidths(&asked))
 	assert.Equal(t, len(saved), asked.Len(), "drawing the pages asked widths the build did not save")
 	assert.Equal(t, saved, asked.Bytes())
+}
+
+// TestReuseWidths: a job given the widths of the last build into a
+// folder (as `check` is) reports the same as one that measures every
+// width (the reference: the same job without them), found through a
+// symbolic link to the folder as a build finds it; a folder that holds
+// no build gives none.
+func TestReuseWidths(t *testing.T) {
+	spec := "  web:\n    kind: screen\n    trim: 1200px\n" +
+		"inserts:\n" +
+		"  screen: {output: web, size: 480px x 300px, terms: [telegraph, telephone]}\n"
+	report := func(j *feature.Job) []byte {
+		t.Helper()
+		r, err := j.Summarize()
+		require.NoError(t, err)
+		b, err := json.Marshal(r)
+		require.NoError(t, err)
+		return bytes.ReplaceAll(b, []byte(j.Spec.Dir), []byte("SPEC")) // each job its own folder
+	}
+	want := report(demoJob(t, spec))
+	root := t.TempDir()
+	dir := filepath.Join(root, "out")
+	assert.Empty(t, ReuseWidths(demoJob(t, spec), dir), "no build yet")
+	_, err := Build(context.Background(), demoJob(t, spec), Options{Dir: dir, Date: time.Date(2026, 1, 15, 0, 0, 0, 0, time.UTC), NoProofs: true, Only: "print"})
+	require.NoError(t, err)
+	link := filepath.Join(root, "link")
+	require.NoError(t, os.Symlink(dir, link))
+	for _, d := range []string{dir, link} {
+		j := demoJob(t, spec)
+		// The web's widths are those its insert asked in the print build.
+		assert.Equal(t, []string{"print", "web"}, ReuseWidths(j, d), d)
+		assert.Equal(t, string(want), string(report(j)), "%s: the report changed with the saved widths", d)
+	}
+	require.NoError(t, os.WriteFile(filepath.Join(dir, CacheDir, "print", widthsFile), []byte("damaged"), 0o644))
+	assert.Equal(t, []string{"web"}, ReuseWidths(demoJob(t, spec), dir), "a damaged file gives nothing")
 }
