@@ -11,7 +11,8 @@ import (
 )
 
 // glyphSets are the Sets the glyph tests shape with: the built-in
-// DejaVu faces (TrueType outlines) and Latin Modern Sans (CFF outlines).
+// DejaVu faces (TrueType outlines), Latin Modern Sans and EB Garamond
+// (CFF outlines).
 func glyphSets(t *testing.T) map[string]*Set {
 	t.Helper()
 	def, err := Default()
@@ -20,7 +21,12 @@ func glyphSets(t *testing.T) map[string]*Set {
 		map[string][]byte{"lm.otf": lmsans10regular.TTF, "lmb.otf": lmsans10bold.TTF})
 	lm, err := Load(spec, o)
 	require.NoError(t, err)
-	return map[string]*Set{"built-in": def, "Latin Modern (CFF)": lm}
+	// EB Garamond's default figures are old-style: lnum and tnum change
+	// its glyphs.
+	spec, o = specIn(t, specHead+"    fonts: {regular: eb.otf}\n", map[string][]byte{"eb.otf": ebGaramond(t)})
+	eb, err := Load(spec, o)
+	require.NoError(t, err)
+	return map[string]*Set{"built-in": def, "Latin Modern (CFF)": lm, "EB Garamond (CFF, old-style figures)": eb}
 }
 
 // Every demo label shaped with the kept buffer is, glyph for glyph and
@@ -28,7 +34,7 @@ func glyphSets(t *testing.T) map[string]*Set {
 // canvas's own FontFace.Glyphs gives for a face of the same style with
 // the same direction (the reference: tdewolff/canvas's text.Shaper.Shape,
 // a new go-text harfbuzz buffer a string), in every style of a TrueType
-// and a CFF set, left to right and right to left.
+// and two CFF sets, left to right and right to left.
 func TestGlyphsAreCanvasGlyphs(t *testing.T) {
 	labels := demoLabels(t)
 	for name, s := range glyphSets(t) {
