@@ -17,6 +17,8 @@ import (
 	"sheaf/layout/fonts"
 	"sheaf/render/draw"
 	"sheaf/render/pdf"
+	"sheaf/render/raster"
+	"sheaf/render/svg"
 	"sheaf/specs"
 )
 
@@ -100,4 +102,68 @@ func TestPenSpansSameBytes(t *testing.T) {
 			require.Positive(t, counted.texts, "lines canvas sets itself")
 		})
 	}
+}
+
+// canvasOnlyRenderer passes any renderer on under another type, hiding
+// RenderTextSpan: canvas sets every line.
+type canvasOnlyRenderer struct{ canvas.Renderer }
+
+// An SVG drawn from shaped spans (svg.Document.RenderTextSpan, called
+// directly) is the SVG canvas's lines gave (the reference: the output
+// before the change), subset fonts embedded; and a recording replayed
+// into the raster renderer (which draws a recorded span as canvas's text)
+// gives the same pixels as canvas's lines.
+func TestPenSpansSameSVGAndPixels(t *testing.T) {
+	labels := draw.GlyphLabels(t)
+	fs := defaultFonts(t)
+	doc := func(spans bool) []byte {
+		d, err := svg.New(600, 800, svg.Options{Title: "spans", EmbedFonts: true})
+		require.NoError(t, err)
+		var r canvas.Renderer = d
+		if !spans {
+			r = canvasOnlyRenderer{d}
+		}
+		penLines(draw.Pen{Ctx: canvas.NewContext(r), Fonts: fs}, labels)
+		var buf bytes.Buffer
+		_, err = d.WriteTo(&buf)
+		require.NoError(t, err)
+		return buf.Bytes()
+	}
+	want, got := doc(false), doc(true)
+	require.True(t, bytes.Equal(want, got), "the SVGs differ (%d and %d bytes)", len(want), len(got))
+	replayed := func(spans bool) []byte { // a recording replayed into the document
+		d, err := svg.New(600, 800, svg.Options{Title: "spans", EmbedFonts: true})
+		require.NoError(t, err)
+		c := canvas.New(600*mmPerPt, 800*mmPerPt)
+		var r canvas.Renderer = c
+		if !spans {
+			r = canvasOnly{c}
+		}
+		penLines(draw.Pen{Ctx: canvas.NewContext(r), Fonts: fs}, labels)
+		c.RenderTo(d)
+		var buf bytes.Buffer
+		_, err = d.WriteTo(&buf)
+		require.NoError(t, err)
+		return buf.Bytes()
+	}
+	require.True(t, bytes.Equal(want, replayed(false)), "a recording replays as the lines were drawn")
+	require.True(t, bytes.Equal(want, replayed(true)), "the SVGs of recorded spans differ")
+	_, direct := canvas.Renderer(&svg.Document{}).(draw.SpanRenderer)
+	require.True(t, direct, "svg.Document takes shaped spans")
+
+	pixels := func(spans bool) []byte {
+		img, err := raster.Draw(600, 800, 72, color.White, func(ctx *canvas.Context) error {
+			c := canvas.New(600*mmPerPt, 800*mmPerPt)
+			var r canvas.Renderer = c
+			if !spans {
+				r = canvasOnly{c}
+			}
+			penLines(draw.Pen{Ctx: canvas.NewContext(r), Fonts: fs}, labels[:200])
+			c.RenderTo(ctx)
+			return nil
+		})
+		require.NoError(t, err)
+		return img.Pix
+	}
+	require.True(t, bytes.Equal(pixels(false), pixels(true)), "the rasters differ")
 }
