@@ -5,6 +5,7 @@ import (
 	"image"
 	"os"
 	"path/filepath"
+	"sync/atomic"
 	"testing"
 	"time"
 
@@ -25,15 +26,16 @@ import (
 // set every line, as it did before it drew from layout/fonts' glyphs.
 type canvasOnly struct{ *canvas.Canvas }
 
-// spanCount counts the lines a recording carries as shaped spans.
-type spanCount int
+// spanCount counts the lines recordings carry as shaped spans (the
+// writer encodes pages on several goroutines).
+type spanCount struct{ atomic.Int64 }
 
 func (*spanCount) Size() (float64, float64)                             { return 0, 0 }
 func (*spanCount) RenderPath(*canvas.Path, canvas.Style, canvas.Matrix) {}
 func (*spanCount) RenderText(*canvas.Text, canvas.Matrix)               {}
 func (n *spanCount) RenderImage(img image.Image, _ canvas.Matrix) {
 	if _, ok := img.(draw.SpanImage); ok {
-		*n++
+		n.Add(1)
 	}
 }
 
@@ -98,7 +100,7 @@ func TestPageSpansSameBytes(t *testing.T) {
 			want := pagePDF(t, tc.f, pages, tc.cond, false, nil)
 			got := pagePDF(t, tc.f, pages, tc.cond, true, &n)
 			require.True(t, bytes.Equal(want, got), "the PDFs differ (%d and %d bytes)", len(want), len(got))
-			require.Greater(t, int(n), 10, "lines drawn from shaped spans")
+			require.Greater(t, n.Load(), int64(10), "lines drawn from shaped spans")
 		})
 	}
 }
