@@ -70,9 +70,9 @@ func lmFonts(t testing.TB) *fonts.Set {
 // The span the Pen draws a line from is, field for field, the only span
 // of canvas.NewTextLine's text for the same face, string and alignment
 // (the reference: canvas itself, itemizing and shaping the line), for
-// every demo label, style, alignment and a TrueType and a CFF set; lines
-// canvas sets otherwise are left to canvas, and every ASCII label takes
-// the span.
+// every demo label and style (alignments taken in turn), in a TrueType
+// and a CFF set; lines canvas sets otherwise are left to canvas, and
+// every ASCII label takes the span.
 func TestLineSpanIsNewTextLine(t *testing.T) {
 	def, err := fonts.Default()
 	require.NoError(t, err)
@@ -80,23 +80,23 @@ func TestLineSpanIsNewTextLine(t *testing.T) {
 	took, left := 0, 0
 	for name, fs := range map[string]*fonts.Set{"built-in": def, "Latin Modern (CFF)": lmFonts(t)} {
 		for _, st := range []fonts.Style{fonts.Regular, fonts.Bold, fonts.Italic, fonts.Figures} {
-			for _, align := range []canvas.TextAlign{canvas.Left, canvas.Center, canvas.Right, canvas.Middle, canvas.Justify} {
-				for _, s := range labels {
-					face := fs.Font(st).Face(6.5, canvas.Black)
-					span, ok := lineSpan(fs, st, face, align, s)
-					text := canvas.NewTextLine(face, s, align)
-					var lines [][]canvas.TextSpan
-					text.WalkLines(func(_ float64, spans []canvas.TextSpan) { lines = append(lines, spans) })
-					if !ok {
-						left++
-						require.False(t, isPrintableASCII(s), "%s %v %q: an ASCII line left to canvas", name, st, s)
-						continue
-					}
-					took++
-					require.Len(t, lines, 1, "%s %v %q", name, st, s)
-					require.Len(t, lines[0], 1, "%s %v %q", name, st, s)
-					require.Equal(t, lines[0][0], span, "%s %v align %d %q", name, st, align, s)
+			aligns := []canvas.TextAlign{canvas.Left, canvas.Center, canvas.Right, canvas.Middle, canvas.Justify}
+			for i, s := range labels {
+				align := aligns[(i+int(st))%len(aligns)] // each label in several alignments across the styles
+				face := fs.Font(st).Face(6.5, canvas.Black)
+				span, ok := lineSpan(fs, st, face, align, s)
+				text := canvas.NewTextLine(face, s, align)
+				var lines [][]canvas.TextSpan
+				text.WalkLines(func(_ float64, spans []canvas.TextSpan) { lines = append(lines, spans) })
+				if !ok {
+					left++
+					require.False(t, isPrintableASCII(s), "%s %v %q: an ASCII line left to canvas", name, st, s)
+					continue
 				}
+				took++
+				require.Len(t, lines, 1, "%s %v %q", name, st, s)
+				require.Len(t, lines[0], 1, "%s %v %q", name, st, s)
+				require.Equal(t, lines[0][0], span, "%s %v align %d %q", name, st, align, s)
 			}
 		}
 	}
