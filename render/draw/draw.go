@@ -31,12 +31,19 @@ func (p Pen) Face(st fonts.Style, size float64, col color.Color) *canvas.FontFac
 	return p.Fonts.Font(st).Face(size, col)
 }
 
-// Text draws one line with its baseline at y; align is about x.
+// Text draws one line with its baseline at y; align is about x. A line
+// of one script and direction is drawn from the glyphs p.Fonts shapes
+// when the renderer takes them (see SpanRenderer); the rest as canvas
+// sets it. Both draw the same.
 func (p Pen) Text(st fonts.Style, size float64, col color.Color, x, y float64, align canvas.TextAlign, s string) {
 	if s == "" {
 		return
 	}
-	p.Ctx.DrawText(x*mm, y*mm, canvas.NewTextLine(p.Face(st, size, col), s, align))
+	face := p.Face(st, size, col)
+	if p.textSpan(face, st, x, y, align, s) {
+		return
+	}
+	p.Ctx.DrawText(x*mm, y*mm, canvas.NewTextLine(face, s, align))
 }
 
 // Line strokes a straight line with butt caps.

@@ -359,8 +359,15 @@ func (e *encoder) fail(format string, args ...any) {
 func (e *encoder) Size() (float64, float64) { return e.w, e.h }
 
 // RenderImage reports an error: raster images are not part of what sheaf
-// prints and would need their own colour handling.
+// prints and would need their own colour handling. The one image it
+// draws is none: a line of text shaped before it was recorded (see
+// spanImage).
 func (e *encoder) RenderImage(img image.Image, m canvas.Matrix) {
+	if s, ok := img.(spanImage); ok {
+		// a line of shaped text a recording carried (draw.SpanImage)
+		e.RenderTextSpan(s.TextSpan(), m)
+		return
+	}
 	e.op++
 	e.fail("raster images are not supported by the press PDF writer")
 }

@@ -33,6 +33,15 @@ func (e *encoder) useFont(d *fontData) int {
 	return i
 }
 
+// spanImage is a line of shaped text as a recording (*canvas.Canvas)
+// carries it to the encoder, in an image's place: render/draw's Pen
+// records its lines so (draw.SpanImage), having shaped them with the
+// buffers layout/fonts keeps, and the encoder draws the span as
+// RenderTextSpan.
+type spanImage interface {
+	TextSpan() canvas.TextSpan
+}
+
 // RenderText writes horizontal text as real text (embedded TrueType or
 // CFF font, searchable through ToUnicode). What PDF text cannot say as
 // canvas means it — vertical writing, rotated glyphs, outlines that
@@ -56,30 +65,50 @@ func (e *encoder) RenderText(t *canvas.Text, m canvas.Matrix) {
 		style.Fill = fill
 		e.RenderPath(p, style, m)
 	})
-	t.WalkSpans(func(x, y float64, span canvas.TextSpan) {
-		if e.err != nil {
-			return
+	t.WalkSpans(func(x, y float64, span canvas.TextSpan) { e.span(x, y, span, m) })
+}
+
+// RenderTextSpan draws what RenderText draws for a text of one line that
+// holds only span and has no decorations (draw.SpanRenderer): the span
+// where canvas's Text.WalkSpans puts the span of a first line.
+func (e *encoder) RenderTextSpan(span canvas.TextSpan, m canvas.Matrix) {
+	e.op++
+	if e.err != nil || span.Face == nil {
+		return
+	}
+	if !matrixFinite(m) {
+		e.fail("text transformation %v is not finite", m)
+		return
+	}
+	var lineY float64 // the first line's
+	face := span.Face
+	e.span(span.X+face.MmPerEm*float64(face.XOffset), -lineY+face.MmPerEm*float64(face.YOffset), span, m)
+}
+
+// span draws one span of a text at (x, y) in the text's space.
+func (e *encoder) span(x, y float64, span canvas.TextSpan, m canvas.Matrix) {
+	if e.err != nil {
+		return
+	}
+	if !span.IsText() {
+		for _, obj := range span.Objects {
+			obj.Canvas.RenderViewTo(e, m.Mul(obj.View(x, y, span.Face)))
 		}
-		if !span.IsText() {
-			for _, obj := range span.Objects {
-				obj.Canvas.RenderViewTo(e, m.Mul(obj.View(x, y, span.Face)))
-			}
-			return
-		}
-		if len(span.Glyphs) == 0 {
-			return
-		}
-		d, err := e.keys.get(span.Face.Font.SFNT)
-		if err == nil && d.refusal != "" {
-			e.fail("font %s: %s", d.psName, d.refusal)
-			return
-		}
-		if err != nil || !d.embeddable || !spanIsPlain(span) {
-			e.spanOutlines(x, y, span, m)
-			return
-		}
-		e.spanText(x, y, span, m, d)
-	})
+		return
+	}
+	if len(span.Glyphs) == 0 {
+		return
+	}
+	d, err := e.keys.get(span.Face.Font.SFNT)
+	if err == nil && d.refusal != "" {
+		e.fail("font %s: %s", d.psName, d.refusal)
+		return
+	}
+	if err != nil || !d.embeddable || !spanIsPlain(span) {
+		e.spanOutlines(x, y, span, m)
+		return
+	}
+	e.spanText(x, y, span, m, d)
 }
 
 // spanIsPlain reports whether a span can be shown as PDF text: no

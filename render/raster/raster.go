@@ -157,8 +157,14 @@ func (r *Renderer) RenderText(t *canvas.Text, m canvas.Matrix) {
 	r.ras.RenderText(t, r.shift.Mul(m))
 }
 
-// RenderImage draws an image.
+// RenderImage draws an image. A line of shaped text a recording carries
+// in an image's place (render/draw's SpanImage) is drawn as the text
+// canvas sets it in.
 func (r *Renderer) RenderImage(img image.Image, m canvas.Matrix) {
+	if s, ok := img.(interface{ Text() *canvas.Text }); ok {
+		r.RenderText(s.Text(), m)
+		return
+	}
 	if r.stopped() {
 		return
 	}

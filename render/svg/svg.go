@@ -344,48 +344,60 @@ func (d *Document) RenderText(t *canvas.Text, m canvas.Matrix) {
 	})
 	mp := d.toPx.Mul(m)
 	scale := math.Sqrt(math.Abs(mp.Det()))
-	t.WalkLines(func(y float64, spans []canvas.TextSpan) {
-		var texts []canvas.TextSpan
-		for _, s := range spans {
-			if s.IsText() && s.Text != "" {
-				texts = append(texts, s)
-				d.useGlyphs(s)
-			}
+	t.WalkLines(func(y float64, spans []canvas.TextSpan) { d.textLine(mp, scale, y, spans) })
+}
+
+// RenderTextSpan writes what RenderText writes for a text of one line
+// that holds only span and has no decorations (draw.SpanRenderer).
+func (d *Document) RenderTextSpan(span canvas.TextSpan, m canvas.Matrix) {
+	mp := d.toPx.Mul(m)
+	scale := math.Sqrt(math.Abs(mp.Det()))
+	var lineY float64 // the first line's; WalkLines gives -lineY
+	d.textLine(mp, scale, -lineY, []canvas.TextSpan{span})
+}
+
+// textLine writes one line of a text, at y in the text's space.
+func (d *Document) textLine(mp canvas.Matrix, scale, y float64, spans []canvas.TextSpan) {
+	var texts []canvas.TextSpan
+	for _, s := range spans {
+		if s.IsText() && s.Text != "" {
+			texts = append(texts, s)
+			d.useGlyphs(s)
 		}
-		if len(texts) == 0 {
-			return
+	}
+	if len(texts) == 0 {
+		return
+	}
+	same := true
+	for _, s := range texts[1:] {
+		if s.Face != texts[0].Face {
+			same = false
 		}
-		same := true
-		for _, s := range texts[1:] {
-			if s.Face != texts[0].Face {
-				same = false
-			}
-		}
-		if !same {
-			for _, s := range texts {
-				d.textElem(mp, scale, s.X, y, "", s.Face, s.Text)
-			}
-			return
-		}
-		x0, w := texts[0].X, 0.0
-		var sb strings.Builder
+	}
+	if !same {
 		for _, s := range texts {
-			x0 = math.Min(x0, s.X)
-			w += s.Width
-			sb.WriteString(s.Text)
+			d.textElem(mp, scale, s.X, y, "", s.Face, s.Text)
 		}
-		// Infer the alignment from where the origin (x = 0) sits on the line.
-		eps := 1e-6 + w*1e-6
-		x, anchor := x0, ""
-		switch {
-		case math.Abs(x0) <= eps:
-		case math.Abs(x0+w) <= eps:
-			x, anchor = x0+w, "end"
-		case math.Abs(x0+w/2) <= eps:
-			x, anchor = x0+w/2, "middle"
-		}
-		d.textElem(mp, scale, x, y, anchor, texts[0].Face, sb.String())
-	})
+		return
+	}
+	x0, w := texts[0].X, 0.0
+	var sb strings.Builder
+	for _, s := range texts {
+		x0 = math.Min(x0, s.X)
+		w += s.Width
+		sb.WriteString(s.Text)
+	}
+	// Infer the alignment from where the origin (x = 0) sits on the line.
+	eps := 1e-6 + w*1e-6
+	x, anchor := x0, ""
+	switch {
+	case math.Abs(x0) <= eps:
+	case math.Abs(x0+w) <= eps:
+		x, anchor = x0+w, "end"
+	case math.Abs(x0+w/2) <= eps:
+		x, anchor = x0+w/2, "middle"
+	}
+	d.textElem(mp, scale, x, y, anchor, texts[0].Face, sb.String())
 }
 
 func (d *Document) textElem(mp canvas.Matrix, scale, x, y float64, anchor string, face *canvas.FontFace, s string) {
@@ -458,8 +470,13 @@ func (d *Document) useGlyphs(s canvas.TextSpan) {
 
 // RenderImage embeds an image as a PNG data URI. m maps the image's pixel
 // grid (one pixel per unit, y up from its lower-left corner) into the
-// drawing.
+// drawing. A line of shaped text a recording carries in an image's place
+// (render/draw's SpanImage) is written as RenderTextSpan writes it.
 func (d *Document) RenderImage(img image.Image, m canvas.Matrix) {
+	if s, ok := img.(interface{ TextSpan() canvas.TextSpan }); ok {
+		d.RenderTextSpan(s.TextSpan(), m)
+		return
+	}
 	var buf bytes.Buffer
 	if err := png.Encode(&buf, img); err != nil {
 		if d.err == nil {

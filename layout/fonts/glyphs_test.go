@@ -1,0 +1,106 @@
+package fonts
+
+import (
+	"sync"
+	"testing"
+
+	"github.com/go-fonts/latin-modern/lmsans10bold"
+	"github.com/go-fonts/latin-modern/lmsans10regular"
+	"github.com/stretchr/testify/require"
+	canvastext "github.com/tdewolff/canvas/text"
+)
+
+// glyphSets are the Sets the glyph tests shape with: the built-in
+// DejaVu faces (TrueType outlines), Latin Modern Sans and EB Garamond
+// (CFF outlines).
+func glyphSets(t *testing.T) map[string]*Set {
+	t.Helper()
+	def, err := Default()
+	require.NoError(t, err)
+	spec, o := specIn(t, specHead+"    fonts: {regular: lm.otf, bold: lmb.otf}\n",
+		map[string][]byte{"lm.otf": lmsans10regular.TTF, "lmb.otf": lmsans10bold.TTF})
+	lm, err := Load(spec, o)
+	require.NoError(t, err)
+	// EB Garamond's default figures are old-style: lnum and tnum change
+	// its glyphs.
+	spec, o = specIn(t, specHead+"    fonts: {regular: eb.otf}\n", map[string][]byte{"eb.otf": ebGaramond(t)})
+	eb, err := Load(spec, o)
+	require.NoError(t, err)
+	return map[string]*Set{"built-in": def, "Latin Modern (CFF)": lm, "EB Garamond (CFF, old-style figures)": eb}
+}
+
+// Every demo label shaped with the kept buffer is, glyph for glyph and
+// field for field (ID, byte cluster, advances, offsets, rune), what
+// canvas's own FontFace.Glyphs gives for a face of the same style with
+// the same direction (the reference: tdewolff/canvas's text.Shaper.Shape,
+// a new go-text harfbuzz buffer a string), in every style of a TrueType
+// and two CFF sets, left to right and right to left.
+func TestGlyphsAreCanvasGlyphs(t *testing.T) {
+	labels := demoLabels(t)
+	for name, s := range glyphSets(t) {
+		for _, st := range []Style{Regular, Bold, Italic, Figures} {
+			for _, dir := range []canvastext.Direction{canvastext.LeftToRight, canvastext.RightToLeft} {
+				face := s.Face(st, 6.5)
+				face.Direction = dir
+				for _, text := range labels {
+					got, ok := s.Glyphs(st, text, dir)
+					require.True(t, ok, "%s %v: no go-text shaper", name, st)
+					require.Equal(t, face.Glyphs(text), got, "%s %v dir %d %q", name, st, dir, text)
+				}
+			}
+		}
+	}
+}
+
+// Pages are drawn on several goroutines: shaping through one Set from
+// many at once gives each caller canvas's glyphs (run with -race).
+func TestGlyphsConcurrent(t *testing.T) {
+	s := mustDefault(t)
+	labels := demoLabels(t)[:200]
+	want := make([][]canvastext.Glyph, len(labels))
+	for i, l := range labels {
+		face := s.Face(Bold, 6.5)
+		face.Direction = canvastext.LeftToRight
+		want[i] = face.Glyphs(l) // canvas: the reference
+	}
+	var wg sync.WaitGroup
+	got := make([][][]canvastext.Glyph, 4)
+	for g := range got {
+		wg.Go(func() {
+			for _, l := range labels {
+				gl, _ := s.Glyphs(Bold, l, canvastext.LeftToRight)
+				got[g] = append(got[g], gl)
+				s.Width(Regular, 7, l) // measuring shares the buffer's lock
+			}
+		})
+	}
+	wg.Wait()
+	for g := range got {
+		require.Equal(t, want, got[g], "goroutine %d", g)
+	}
+}
+
+// BenchmarkShapeLabels shapes every demo label into glyphs: "canvas"
+// with canvas's FontFace.Glyphs (a new buffer and shape plan a string),
+// "kept" with Set.Glyphs.
+func BenchmarkShapeLabels(b *testing.B) {
+	labels := demoLabels(b)
+	s, err := Default()
+	require.NoError(b, err)
+	face := s.Face(Regular, 6.5)
+	face.Direction = canvastext.LeftToRight
+	b.Run("canvas", func(b *testing.B) {
+		for b.Loop() {
+			for _, l := range labels {
+				face.Glyphs(l)
+			}
+		}
+	})
+	b.Run("kept", func(b *testing.B) {
+		for b.Loop() {
+			for _, l := range labels {
+				s.Glyphs(Regular, l, canvastext.LeftToRight)
+			}
+		}
+	})
+}
