@@ -107,12 +107,17 @@ type Table struct {
 // many terms as the spec can select (else Select reads the counts of its
 // terms again).
 func ReadTable(s *specs.Spec) (*Table, error) {
+	return readTable(s, false)
+}
+
+// readTable is ReadTable, reading every row as a record with noBlocks.
+func readTable(s *specs.Spec, noBlocks bool) (*Table, error) {
 	var errs specs.Errors
 	totals, ok := readTotals(s, &errs)
 	if !ok {
 		return nil, errs
 	}
-	r := &reader{spec: s, totals: totals, errs: &errs, fold: s.Data.FoldCase}
+	r := &reader{spec: s, totals: totals, errs: &errs, fold: s.Data.FoldCase, noBlocks: noBlocks}
 	if s.Data.FoldCase {
 		r.folder = cases.Fold()
 	}
@@ -205,6 +210,9 @@ type reader struct {
 	counts  [][]float64 // of the selected terms, by pass2 or from pass1
 	keep    bool        // pass1 keeps every term's counts (see keepLimit)
 	keepAll bool        // keep every term's counts, however many (Catalog)
+	// noBlocks reads every row as a record, as tally.row does: the
+	// reference tally.fast is tested against.
+	noBlocks bool
 
 	lastRaw, lastKey string // key's one-entry cache
 }
@@ -375,25 +383,44 @@ func (t *table) next(errs *specs.Errors) ([][]byte, int, bool) {
 			continue
 		}
 		line, _ := t.csv.FieldPos(0)
-		if len(rec) == 1 && len(bytes.TrimSpace(rec[0])) == 0 {
-			continue
-		}
-		if len(rec) < t.width {
-			if !errs.Add(specs.Pos{File: t.name, Line: line, Col: 1}, "the row has %d fields; the header asks for at least %d", len(rec), t.width) {
-				return nil, 0, false
-			}
-			continue
-		}
-		if len(rec) > t.fields {
-			// A field too many is a misplaced separator (a count of
-			// "1,250"): reading the row by its first fields would be wrong.
-			if !errs.Add(t.at(t.fields), "the row has %d fields; the header has %d (a separator inside a value? quote the value)", len(rec), t.fields) {
-				return nil, 0, false
-			}
+		switch t.check(rec, line, errs) {
+		case rowStop:
+			return nil, 0, false
+		case rowSkip:
 			continue
 		}
 		return rec, line, true
 	}
+}
+
+// What table.check makes of a record.
+const (
+	rowOK   = iota
+	rowSkip // a blank row, or one with an error reported
+	rowStop // one error too many: read no further
+)
+
+// check says whether rec, the record last read (on line), is a row of
+// the table: not blank, with the header's fields.
+func (t *table) check(rec [][]byte, line int, errs *specs.Errors) int {
+	if len(rec) == 1 && len(bytes.TrimSpace(rec[0])) == 0 {
+		return rowSkip
+	}
+	if len(rec) < t.width {
+		if !errs.Add(specs.Pos{File: t.name, Line: line, Col: 1}, "the row has %d fields; the header asks for at least %d", len(rec), t.width) {
+			return rowStop
+		}
+		return rowSkip
+	}
+	if len(rec) > t.fields {
+		// A field too many is a misplaced separator (a count of
+		// "1,250"): reading the row by its first fields would be wrong.
+		if !errs.Add(t.at(t.fields), "the row has %d fields; the header has %d (a separator inside a value? quote the value)", len(rec), t.fields) {
+			return rowStop
+		}
+		return rowSkip
+	}
+	return rowOK
 }
 
 // parseNumber reads a count or total: a decimal number, which may have a
@@ -502,130 +529,269 @@ func (r *reader) pass1() (map[string]*agg, []string) {
 	}
 	defer t.f.Close()
 	span := s.Years.Len()
-	aggs := map[string]*agg{}
-	var order []string
-	tc, yc, cc := t.cols["term"], t.cols["year"], t.cols["count"]
-	needTotals := s.Scale.Mode != specs.ScaleRaw
-	spellings := map[string][]uint64{} // fold-case only: rows seen per spelling
+	x := &tally{r: r, t: t, aggs: map[string]*agg{}, span: span, from: s.Years.From, to: s.Years.To,
+		tc: t.cols["term"], yc: t.cols["year"], cc: t.cols["count"],
+		needTotals: s.Scale.Mode != specs.ScaleRaw, spellings: map[string][]uint64{},
+		totals: r.spanTotals(), limit: r.keepLimit(), empty: make([]float64, span)}
 	var words float64
 	for _, v := range r.totals {
 		words += v
 	}
-	totals := r.spanTotals()
-	var last *agg // the row before's term: tables are usually sorted
-	lastKey := ""
-	limit := r.keepLimit()
 	r.keep = true
-	empty := make([]float64, span) // a term's counts before its rows: NaN in gap years
-	for j, t := range totals {
+	for j, t := range x.totals {
 		if math.IsNaN(t) {
-			empty[j] = math.NaN()
+			x.empty[j] = math.NaN()
 		}
 	}
 	for {
-		rec, line, ok := t.next(r.errs)
-		if !ok {
-			break
-		}
-		r.rows++
-		term := bytes.TrimSpace(rec[tc])
-		if len(term) == 0 {
-			if !r.errs.Add(t.at(tc), "the term is empty") {
-				break
-			}
-			continue
-		}
-		// A term is checked once a run: the row before's term (the key
-		// cache's) was valid.
-		if string(term) != r.lastRaw || r.lastKey == "" {
-			if msg := checkTerm(term); msg != "" {
-				if !r.errs.Add(t.at(tc), "%s", msg) {
+		// Runs of plain lines are read in place; a line with a quote, or
+		// the last one without a line end, as a record.
+		if !r.noBlocks {
+			if b, first := t.csv.block(); b != nil {
+				if !x.block(b, first) {
 					break
 				}
 				continue
 			}
 		}
-		field := yc // the field a problem is in
-		y, msg := parseYear(rec[yc])
-		if msg == "" && (y < s.Years.From || y > s.Years.To) {
-			msg = fmt.Sprintf("year %d is outside the span %d–%d set at %s", y, s.Years.From, s.Years.To, s.Where("years"))
-		}
-		var v float64
-		if msg == "" {
-			field = cc
-			if v, msg = parseNumber(rec[cc]); msg != "" {
-				msg = fmt.Sprintf("count for %q in %d: %s", term, y, msg)
-			}
-		}
-		if msg == "" {
-			tot := totals[y-s.Years.From]
-			has := !math.IsNaN(tot)
-			switch {
-			case !has && needTotals:
-				field = yc
-				msg = fmt.Sprintf("%q has a count in %d but the totals table has no total for %d; %s scaling needs it", term, y, y, s.Scale.Mode)
-			case has && v > tot:
-				msg = fmt.Sprintf("count %g for %q in %d is more than that year's total %g", v, term, y, tot)
-			}
-		}
-		if msg != "" {
-			if !r.errs.Add(t.at(field), "%s", msg) {
-				break
-			}
-			continue
-		}
-		k := r.keyOf(term)
-		a := last
-		if k != lastKey {
-			if a = aggs[k]; a == nil {
-				a = &agg{term: norm.NFC.String(string(term)), years: make([]uint64, (span+63)/64), line: line, idx: -1}
-				aggs[k] = a
-				order = append(order, k)
-				if r.keep && limit >= 0 && len(order) > limit {
-					r.keep = false // read again for the selected terms
-					for _, a := range aggs {
-						a.counts = nil
-					}
-				}
-				if r.keep {
-					a.counts = make([]float64, span)
-					copy(a.counts, empty)
-				}
-			}
-			last, lastKey = a, k
-		}
-		// A second row for the same spelling and year is a mistake; with
-		// fold-case, spellings that differ in case are added together.
-		years := a.years
-		if r.fold {
-			sp := norm.NFC.String(string(term))
-			if years = spellings[sp]; years == nil {
-				years = make([]uint64, (span+63)/64)
-				spellings[sp] = years
-			}
-		}
-		i := y - s.Years.From
-		if years[i/64]&(1<<(i%64)) != 0 {
-			if !r.errs.Add(t.at(yc), "%q has a second row for %d", term, y) {
-				break
-			}
-			continue
-		}
-		years[i/64] |= 1 << (i % 64)
-		a.total += v
-		if r.keep {
-			// As pass2 adds: see there.
-			if c := &a.counts[i]; math.IsNaN(*c) {
-				*c = v
-			} else {
-				*c += v
-			}
+		rec, line, ok := t.next(r.errs)
+		if !ok || !x.row(rec, line) {
+			break
 		}
 	}
-	for _, a := range aggs {
+	for _, a := range x.aggs {
 		a.share = a.total / words
 	}
-	return aggs, order
+	return x.aggs, x.order
+}
+
+// tally is pass1's state: the terms so far, and what it knows of the
+// row before.
+type tally struct {
+	r              *reader
+	t              *table
+	aggs           map[string]*agg
+	order          []string
+	span, from, to int
+	tc, yc, cc     int
+	needTotals     bool
+	spellings      map[string][]uint64 // fold-case only: rows seen per spelling
+	totals         []float64           // by year of the span (reader.spanTotals)
+	limit          int                 // reader.keepLimit
+	empty          []float64           // a term's counts before its rows: NaN in gap years
+	last           *agg                // the row before's term: tables are usually sorted
+	lastKey        string
+	lastYears      []uint64 // the years the row before's spelling has rows in
+	fields         [maxFastFields + 1][2]int
+}
+
+// maxFastFields is the most fields a row that tally.fast reads may have.
+const maxFastFields = 16
+
+// block reads the lines of records.block, whose first is line first. It
+// reports false when reading must stop (too many errors).
+func (x *tally) block(b []byte, first int) bool {
+	c := x.t.csv
+	for n := first; len(b) > 0; n++ {
+		nl := bytes.IndexByte(b, '\n')
+		line := b[:nl]
+		b = b[nl+1:]
+		if k := len(line); k > 0 && line[k-1] == '\r' {
+			line = line[:k-1] // CRLF is read as LF
+		}
+		if len(line) == 0 || x.fast(line) {
+			continue
+		}
+		// Anything else as a record would be read: its errors, with
+		// positions, are row's and table.check's.
+		c.splitAt(line, n)
+		switch x.t.check(c.rec, n, x.r.errs) {
+		case rowStop:
+			return false
+		case rowSkip:
+			continue
+		}
+		if !x.row(c.rec, n) {
+			return false
+		}
+	}
+	return true
+}
+
+// fast adds a row of the term of the row before that has no error, as
+// row would, reading its fields in place. It reports false, having done
+// nothing, for any other row: a row with a new term, or one that row
+// would report.
+func (x *tally) fast(line []byte) bool {
+	r := x.r
+	if x.last == nil {
+		return false
+	}
+	// Where each field starts and ends: as records.split splits.
+	comma := x.t.csv.comma
+	n, start := 0, 0
+	for i, ch := range line {
+		if ch == comma {
+			if n == maxFastFields {
+				return false
+			}
+			x.fields[n] = [2]int{start, i}
+			n++
+			start = i + 1
+		}
+	}
+	x.fields[n] = [2]int{start, len(line)}
+	n++
+	if n < x.t.width || n > x.t.fields {
+		return false
+	}
+	f := x.fields[x.tc]
+	term := line[f[0]:f[1]]
+	if k := len(term); k == 0 || term[0] <= ' ' || term[k-1] <= ' ' || term[0] >= utf8.RuneSelf || term[k-1] >= utf8.RuneSelf {
+		term = bytes.TrimSpace(term) // else it has no space to trim
+	}
+	if string(term) != r.lastRaw || x.lastKey != r.lastKey || r.lastKey == "" {
+		return false
+	}
+	// Plain digits are read here, anything else by parseYear and
+	// parseNumber, which read plain digits the same way.
+	f = x.fields[x.yc]
+	yb := line[f[0]:f[1]]
+	y, ok := digits(yb, 9)
+	if !ok {
+		yy, msg := parseYear(yb)
+		if msg != "" {
+			return false
+		}
+		y = uint64(yy)
+	}
+	if int(y) < x.from || int(y) > x.to {
+		return false
+	}
+	f = x.fields[x.cc]
+	cb := line[f[0]:f[1]]
+	var v float64
+	if n, ok := digits(cb, 15); ok {
+		v = float64(n)
+	} else {
+		var msg string
+		if v, msg = parseNumber(cb); msg != "" {
+			return false
+		}
+	}
+	i := int(y) - x.from
+	tot := x.totals[i]
+	has := !math.IsNaN(tot)
+	if !has && x.needTotals || has && v > tot {
+		return false
+	}
+	years := x.lastYears
+	if years[i/64]&(1<<(i%64)) != 0 {
+		return false
+	}
+	r.rows++
+	years[i/64] |= 1 << (i % 64)
+	a := x.last
+	a.total += v
+	if r.keep {
+		if c := &a.counts[i]; math.IsNaN(*c) {
+			*c = v
+		} else {
+			*c += v
+		}
+	}
+	return true
+}
+
+// row checks and adds one row, rec, read from line. It reports false
+// when reading must stop (too many errors).
+func (x *tally) row(rec [][]byte, line int) bool {
+	r, s, t := x.r, x.r.spec, x.t
+	tc, yc, cc := x.tc, x.yc, x.cc
+	r.rows++
+	term := bytes.TrimSpace(rec[tc])
+	if len(term) == 0 {
+		return r.errs.Add(t.at(tc), "the term is empty")
+	}
+	// A term is checked once a run: the row before's term (the key
+	// cache's) was valid.
+	if string(term) != r.lastRaw || r.lastKey == "" {
+		if msg := checkTerm(term); msg != "" {
+			return r.errs.Add(t.at(tc), "%s", msg)
+		}
+	}
+	field := yc // the field a problem is in
+	y, msg := parseYear(rec[yc])
+	if msg == "" && (y < s.Years.From || y > s.Years.To) {
+		msg = fmt.Sprintf("year %d is outside the span %d–%d set at %s", y, s.Years.From, s.Years.To, s.Where("years"))
+	}
+	var v float64
+	if msg == "" {
+		field = cc
+		if v, msg = parseNumber(rec[cc]); msg != "" {
+			msg = fmt.Sprintf("count for %q in %d: %s", term, y, msg)
+		}
+	}
+	if msg == "" {
+		tot := x.totals[y-s.Years.From]
+		has := !math.IsNaN(tot)
+		switch {
+		case !has && x.needTotals:
+			field = yc
+			msg = fmt.Sprintf("%q has a count in %d but the totals table has no total for %d; %s scaling needs it", term, y, y, s.Scale.Mode)
+		case has && v > tot:
+			msg = fmt.Sprintf("count %g for %q in %d is more than that year's total %g", v, term, y, tot)
+		}
+	}
+	if msg != "" {
+		return r.errs.Add(t.at(field), "%s", msg)
+	}
+	k := r.keyOf(term)
+	a := x.last
+	if k != x.lastKey {
+		if a = x.aggs[k]; a == nil {
+			a = &agg{term: norm.NFC.String(string(term)), years: make([]uint64, (x.span+63)/64), line: line, idx: -1}
+			x.aggs[k] = a
+			x.order = append(x.order, k)
+			if r.keep && x.limit >= 0 && len(x.order) > x.limit {
+				r.keep = false // read again for the selected terms
+				for _, a := range x.aggs {
+					a.counts = nil
+				}
+			}
+			if r.keep {
+				a.counts = make([]float64, x.span)
+				copy(a.counts, x.empty)
+			}
+		}
+		x.last, x.lastKey = a, k
+	}
+	// A second row for the same spelling and year is a mistake; with
+	// fold-case, spellings that differ in case are added together.
+	years := a.years
+	if r.fold {
+		sp := norm.NFC.String(string(term))
+		if years = x.spellings[sp]; years == nil {
+			years = make([]uint64, (x.span+63)/64)
+			x.spellings[sp] = years
+		}
+	}
+	x.lastYears = years
+	i := y - s.Years.From
+	if years[i/64]&(1<<(i%64)) != 0 {
+		return r.errs.Add(t.at(yc), "%q has a second row for %d", term, y)
+	}
+	years[i/64] |= 1 << (i % 64)
+	a.total += v
+	if r.keep {
+		// As pass2 adds: see there.
+		if c := &a.counts[i]; math.IsNaN(*c) {
+			*c = v
+		} else {
+			*c += v
+		}
+	}
+	return true
 }
 
 // selectTerms applies the list, the rule and the exclusions, and returns
