@@ -4,6 +4,8 @@ import (
 	"crypto/sha256"
 	"encoding/hex"
 	"fmt"
+	"math"
+	"slices"
 	"testing"
 
 	"github.com/stretchr/testify/assert"
@@ -120,5 +122,48 @@ func TestBlocksAgreeWithRecords(t *testing.T) {
 			assert.Equal(t, setDigest(ref), setDigest(set), "set")
 			assert.Equal(t, ref.Rows, set.Rows, "rows")
 		})
+	}
+}
+
+// TestScalerPoolMatchesPoolInto: the pooling scale does for counts whose
+// gaps are the exposure's gives PoolInto's sums to the bit, fractional
+// counts included (where the order of the additions shows), for every
+// window from none to 7 years; counts with a gap of their own are left
+// to PoolInto. The counts are invented (a fixed xorshift sequence).
+func TestScalerPoolMatchesPoolInto(t *testing.T) {
+	const n = 40
+	x := uint64(2463534242)
+	next := func() float64 {
+		x ^= x << 13
+		x ^= x >> 7
+		x ^= x << 17
+		return float64(x%1000) / 7
+	}
+	exposure := make([]float64, n)
+	for j := range exposure {
+		exposure[j] = 1000 + next()
+	}
+	for _, j := range []int{0, 9, 10, 23, n - 1} {
+		exposure[j] = math.NaN() // gaps: at the ends, two together, one alone
+	}
+	counts := make([]float64, n)
+	for j := range counts {
+		counts[j] = next()
+		if math.IsNaN(exposure[j]) {
+			counts[j] = math.NaN()
+		}
+	}
+	for years := range 8 {
+		set := &Set{Rolling: years, totals: exposure}
+		sc := &scaler{set: set, exposure: exposure}
+		got := make([]float64, n)
+		require.True(t, sc.pool(counts, got), "window %d: counts with the exposure's gaps", years)
+		want, _ := Pool(counts, exposure, years)
+		for j := range want {
+			assert.Equal(t, math.Float64bits(want[j]), math.Float64bits(got[j]), "window %d, year %d: %v, want %v", years, j, got[j], want[j])
+		}
+		own := slices.Clone(counts)
+		own[5] = math.NaN()
+		assert.False(t, sc.pool(own, got), "window %d: a gap of the counts' own is PoolInto's", years)
 	}
 }
