@@ -6,6 +6,7 @@ import (
 	"fmt"
 	"math"
 	"slices"
+	"strings"
 	"testing"
 
 	"github.com/stretchr/testify/assert"
@@ -87,6 +88,7 @@ func TestBlocksAgreeWithRecords(t *testing.T) {
 		{"plain", "boiler,1902,7\nsteam,1900,1\nsteam,1901,2\n", "", false, false},
 		{"second row for a year", "boiler,1902,7\nboiler,1901,8\nboiler,1904,1\n", "", false, true},
 		{"year outside the span", "boiler,1899,7\nboiler,1902,1\n", "", false, true},
+		{"year after the span", "boiler,1906,7\nboiler,1902,1\n", "", false, true},
 		{"year not a number", "boiler,19x2,7\nboiler,1902,1\n", "", false, true},
 		{"count not a number", "boiler,1902,7a\nboiler,1904,1\n", "", false, true},
 		{"count hexadecimal", "boiler,1902,0x7\nboiler,1904,1\n", "", false, true},
@@ -106,23 +108,49 @@ func TestBlocksAgreeWithRecords(t *testing.T) {
 		{"last line without a line end", "boiler,1902,2\nboiler,1904,1", "", false, false},
 		{"runs broken and resumed", "steam,1900,1\nboiler,1902,2\nsteam,1901,1\n", "", false, false},
 	}
-	for _, tt := range tests {
-		t.Run(tt.name, func(t *testing.T) {
-			s, err := specs.Load(feature(t, "counts.csv", base+tt.rows, "", tt.extra))
-			require.NoError(t, err)
-			s.Data.FoldCase = tt.fold
-			ref, refErr := loadRecords(s)
-			set, err := Load(s)
-			require.Equal(t, tt.fails, refErr != nil, "an error reading every row as a record: %v", refErr)
-			if tt.fails {
-				assert.Equal(t, refErr.Error(), fmt.Sprint(err), "errors")
-				return
+	// Plain rows before the case's, so that they fall inside a block of
+	// plain lines or across the end of one: the reader's buffer, which
+	// a block fills, is 64 KiB.
+	filler := func(name string, bytes int) string {
+		var b strings.Builder
+		for i := 0; b.Len() < bytes; i++ {
+			for y := 1900; y <= 1905; y++ {
+				if y != 1903 {
+					fmt.Fprintf(&b, "%s%05d,%d,%d\n", name, i, y, i%7)
+				}
 			}
-			require.NoError(t, err)
-			assert.Equal(t, setDigest(ref), setDigest(set), "set")
-			assert.Equal(t, ref.Rows, set.Rows, "rows")
-		})
+		}
+		return b.String()
 	}
+	for _, pad := range []int{0, 20 << 10, 45 << 10, 64 << 10, 100 << 10} {
+		for _, tt := range tests {
+			t.Run(fmt.Sprintf("%s after %d bytes", tt.name, pad), func(t *testing.T) {
+				counts := "term,year,count\n" + filler("before", pad) + strings.TrimPrefix(base, "term,year,count\n") + tt.rows
+				if strings.HasSuffix(counts, "\n") {
+					counts += filler("after", pad/2)
+				}
+				agree(t, counts, tt.extra, tt.fold, tt.fails)
+			})
+		}
+	}
+}
+
+// agree loads counts (with the small totals) both ways and compares the
+// sets or the errors.
+func agree(t *testing.T, counts, extra string, fold, fails bool) {
+	s, err := specs.Load(feature(t, "counts.csv", counts, "", extra))
+	require.NoError(t, err)
+	s.Data.FoldCase = fold
+	ref, refErr := loadRecords(s)
+	set, err := Load(s)
+	require.Equal(t, fails, refErr != nil, "an error reading every row as a record: %v", refErr)
+	if fails {
+		assert.Equal(t, refErr.Error(), fmt.Sprint(err), "errors")
+		return
+	}
+	require.NoError(t, err)
+	assert.Equal(t, setDigest(ref), setDigest(set), "set")
+	assert.Equal(t, ref.Rows, set.Rows, "rows")
 }
 
 // TestScalerPoolMatchesPoolInto: the pooling scale does for counts whose

@@ -582,16 +582,11 @@ type tally struct {
 	last           *agg                // the row before's term: tables are usually sorted
 	lastKey        string
 	lastYears      []uint64 // the years the row before's spelling has rows in
-	fields         [maxFastFields + 1][2]int
 }
 
-// maxFastFields is the most fields a row that tally.fast reads may have.
-const maxFastFields = 16
-
-// block reads the lines of records.block, whose first is line first. It
-// reports false when reading must stop (too many errors).
+// block adds the lines of records.block, b, whose first is line first.
+// It reports false when reading must stop (too many errors).
 func (x *tally) block(b []byte, first int) bool {
-	c := x.t.csv
 	for n := first; len(b) > 0; n++ {
 		nl := bytes.IndexByte(b, '\n')
 		line := b[:nl]
@@ -599,87 +594,102 @@ func (x *tally) block(b []byte, first int) bool {
 		if k := len(line); k > 0 && line[k-1] == '\r' {
 			line = line[:k-1] // CRLF is read as LF
 		}
-		if len(line) == 0 || x.fast(line) {
+		if term, y, v, ok := x.read(line); ok && x.add(term, y, v) {
 			continue
 		}
-		// Anything else as a record would be read: its errors, with
-		// positions, are row's and table.check's.
-		c.splitAt(line, n)
-		switch x.t.check(c.rec, n, x.r.errs) {
-		case rowStop:
-			return false
-		case rowSkip:
-			continue
-		}
-		if !x.row(c.rec, n) {
+		if !x.slow(line, n) {
 			return false
 		}
 	}
 	return true
 }
 
-// fast adds a row of the term of the row before that has no error, as
-// row would, reading its fields in place. It reports false, having done
-// nothing, for any other row: a row with a new term, or one that row
-// would report.
-func (x *tally) fast(line []byte) bool {
-	r := x.r
-	if x.last == nil {
-		return false
+// slow reads line n of a block as a record would be read: its errors,
+// with positions, are row's and table.check's. It reports false when
+// reading must stop.
+func (x *tally) slow(line []byte, n int) bool {
+	c := x.t.csv
+	if !c.splitAt(line, n) {
+		return true // blank
 	}
-	// Where each field starts and ends: as records.split splits.
+	switch x.t.check(c.rec, n, x.r.errs) {
+	case rowStop:
+		return false
+	case rowSkip:
+		return true
+	}
+	return x.row(c.rec, n)
+}
+
+// read reads the term, year and count of a row in place, as row reads
+// them, when it has the header's fields and its year and count are
+// numbers; ok is false for any other row (a blank line among them).
+func (x *tally) read(line []byte) (term []byte, year int, v float64, ok bool) {
+	if len(line) == 0 {
+		return nil, 0, 0, false
+	}
+	// The fields as records.split splits them; only three are kept.
+	var yb, cb []byte
+	keep := func(n int, f []byte) {
+		switch n {
+		case x.tc:
+			term = f
+		case x.yc:
+			yb = f
+		case x.cc:
+			cb = f
+		}
+	}
 	comma := x.t.csv.comma
 	n, start := 0, 0
 	for i, ch := range line {
 		if ch == comma {
-			if n == maxFastFields {
-				return false
-			}
-			x.fields[n] = [2]int{start, i}
+			keep(n, line[start:i])
 			n++
 			start = i + 1
 		}
 	}
-	x.fields[n] = [2]int{start, len(line)}
+	keep(n, line[start:])
 	n++
 	if n < x.t.width || n > x.t.fields {
-		return false
+		return nil, 0, 0, false
 	}
-	f := x.fields[x.tc]
-	term := line[f[0]:f[1]]
 	if k := len(term); k == 0 || term[0] <= ' ' || term[k-1] <= ' ' || term[0] >= utf8.RuneSelf || term[k-1] >= utf8.RuneSelf {
 		term = bytes.TrimSpace(term) // else it has no space to trim
 	}
-	if string(term) != r.lastRaw || x.lastKey != r.lastKey || r.lastKey == "" {
-		return false
-	}
 	// Plain digits are read here, anything else by parseYear and
 	// parseNumber, which read plain digits the same way.
-	f = x.fields[x.yc]
-	yb := line[f[0]:f[1]]
-	y, ok := digits(yb, 9)
-	if !ok {
-		yy, msg := parseYear(yb)
-		if msg != "" {
-			return false
+	if y, ok := digits(yb, 9); ok {
+		year = int(y)
+	} else {
+		var msg string
+		if year, msg = parseYear(yb); msg != "" {
+			return nil, 0, 0, false
 		}
-		y = uint64(yy)
 	}
-	if int(y) < x.from || int(y) > x.to {
-		return false
-	}
-	f = x.fields[x.cc]
-	cb := line[f[0]:f[1]]
-	var v float64
-	if n, ok := digits(cb, 15); ok {
-		v = float64(n)
+	if c, ok := digits(cb, 15); ok {
+		v = float64(c)
 	} else {
 		var msg string
 		if v, msg = parseNumber(cb); msg != "" {
-			return false
+			return nil, 0, 0, false
 		}
 	}
-	i := int(y) - x.from
+	return term, year, v, true
+}
+
+// add adds a row read by read when it is of the term of the row before
+// and row would report nothing, as row would add it. It reports false,
+// having done nothing, for any other row.
+func (x *tally) add(term []byte, y int, v float64) bool {
+	r := x.r
+	if x.last == nil || string(term) != r.lastRaw || x.lastKey != r.lastKey || r.lastKey == "" {
+		return false
+	}
+	if y < x.from || y > x.to {
+		return false
+	}
+	i := y - x.from
 	tot := x.totals[i]
 	has := !math.IsNaN(tot)
 	if !has && x.needTotals || has && v > tot {
