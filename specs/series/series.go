@@ -641,16 +641,18 @@ func (x *tally) read(line []byte) (term []byte, year int, v float64, ok bool) {
 		}
 	}
 	comma := x.t.csv.comma
-	n, start := 0, 0
-	for i, ch := range line {
-		if ch == comma {
-			keep(n, line[start:i])
+	n, rest := 0, line
+	for {
+		i := bytes.IndexByte(rest, comma)
+		if i < 0 {
+			keep(n, rest)
 			n++
-			start = i + 1
+			break
 		}
+		keep(n, rest[:i])
+		n++
+		rest = rest[i+1:]
 	}
-	keep(n, line[start:])
-	n++
 	if n < x.t.width || n > x.t.fields {
 		return nil, 0, 0, false
 	}
