@@ -153,45 +153,111 @@ func agree(t *testing.T, counts, extra string, fold, fails bool) {
 	assert.Equal(t, ref.Rows, set.Rows, "rows")
 }
 
-// TestScalerPoolMatchesPoolInto: the pooling scale does for counts whose
-// gaps are the exposure's gives PoolInto's sums to the bit, fractional
-// counts included (where the order of the additions shows), for every
-// window from none to 7 years; counts with a gap of their own are left
-// to PoolInto. The counts are invented (a fixed xorshift sequence).
-func TestScalerPoolMatchesPoolInto(t *testing.T) {
+// poolBefore is PoolInto as it was before issue 22 (commit fb93391),
+// the reference for the pooling now done by running sums: every window
+// summed from 0, year by year, in order.
+func poolBefore(counts, exposure []float64, years int) ([]float64, []float64) {
+	n := len(counts)
+	pooled, pooledExposure := make([]float64, n), make([]float64, n)
+	half := 0
+	if years > 1 {
+		half = years / 2
+	}
+	gap := func(j int) bool { return math.IsNaN(counts[j]) || math.IsNaN(exposure[j]) }
+	for j := 0; j < n; {
+		if gap(j) {
+			pooled[j], pooledExposure[j] = math.NaN(), math.NaN()
+			j++
+			continue
+		}
+		start, end := j, j
+		for end < n && !gap(end) {
+			end++
+		}
+		for i := start; i < end; i++ {
+			lo, hi := max(start, i-half), min(end-1, i+half)
+			var c, e float64
+			for k := lo; k <= hi; k++ {
+				c += counts[k]
+				e += exposure[k]
+			}
+			pooled[i], pooledExposure[i] = c, e
+		}
+		j = end
+	}
+	return pooled, pooledExposure
+}
+
+// TestPoolingMatchesBefore: Pool, and the pooling scale does for counts
+// whose gaps are the exposure's, give poolBefore's sums to the bit for
+// every window from none to 9 years: with fractional counts (summed
+// year by year, where the order of the additions shows), whole counts
+// and totals (running sums), whole numbers too large for a running sum
+// to stay exact (2^52 and up), negative zeros, and gaps at the ends,
+// together and alone. Counts with a gap of their own are left to
+// PoolInto. The numbers are invented (a fixed xorshift sequence).
+func TestPoolingMatchesBefore(t *testing.T) {
 	const n = 40
 	x := uint64(2463534242)
-	next := func() float64 {
+	next := func() uint64 {
 		x ^= x << 13
 		x ^= x >> 7
 		x ^= x << 17
-		return float64(x%1000) / 7
+		return x
 	}
-	exposure := make([]float64, n)
-	for j := range exposure {
-		exposure[j] = 1000 + next()
+	kinds := []struct {
+		name  string
+		value func(j int) float64
+	}{
+		{"fractional", func(int) float64 { return float64(next()%1000) / 7 }},
+		{"whole", func(int) float64 { return float64(next() % 1000) }},
+		{"whole, some -0", func(j int) float64 {
+			if j%3 == 0 {
+				return math.Copysign(0, -1)
+			}
+			return float64(next() % 3)
+		}},
+		{"whole, too large for running sums", func(int) float64 { return float64(1<<52 + next()%1000) }},
+		{"whole, one too large", func(j int) float64 {
+			if j == 17 {
+				return 1 << 53
+			}
+			return float64(next() % 1000)
+		}},
 	}
-	for _, j := range []int{0, 9, 10, 23, n - 1} {
-		exposure[j] = math.NaN() // gaps: at the ends, two together, one alone
-	}
-	counts := make([]float64, n)
-	for j := range counts {
-		counts[j] = next()
-		if math.IsNaN(exposure[j]) {
-			counts[j] = math.NaN()
+	for _, ek := range kinds {
+		for _, ck := range kinds {
+			exposure := make([]float64, n)
+			for j := range exposure {
+				exposure[j] = 1e6 + ek.value(j)
+			}
+			for _, j := range []int{0, 9, 10, 23, n - 1} {
+				exposure[j] = math.NaN()
+			}
+			counts := make([]float64, n)
+			for j := range counts {
+				counts[j] = ck.value(j)
+				if math.IsNaN(exposure[j]) {
+					counts[j] = math.NaN()
+				}
+			}
+			for years := range 10 {
+				what := fmt.Sprintf("exposure %s, counts %s, window %d", ek.name, ck.name, years)
+				wantC, wantE := poolBefore(counts, exposure, years)
+				gotC, gotE := Pool(counts, exposure, years)
+				set := &Set{Rolling: years, totals: exposure}
+				sc := &scaler{set: set, exposure: exposure}
+				scaled := make([]float64, n)
+				require.True(t, sc.pool(counts, scaled), "%s: counts with the exposure's gaps", what)
+				for j := range wantC {
+					assert.Equal(t, math.Float64bits(wantC[j]), math.Float64bits(gotC[j]), "%s, year %d: Pool's count %v, want %v", what, j, gotC[j], wantC[j])
+					assert.Equal(t, math.Float64bits(wantE[j]), math.Float64bits(gotE[j]), "%s, year %d: Pool's exposure %v, want %v", what, j, gotE[j], wantE[j])
+					assert.Equal(t, math.Float64bits(wantC[j]), math.Float64bits(scaled[j]), "%s, year %d: scale's count %v, want %v", what, j, scaled[j], wantC[j])
+				}
+				own := slices.Clone(counts)
+				own[5] = math.NaN()
+				assert.False(t, sc.pool(own, scaled), "%s: a gap of the counts' own is PoolInto's", what)
+			}
 		}
-	}
-	for years := range 8 {
-		set := &Set{Rolling: years, totals: exposure}
-		sc := &scaler{set: set, exposure: exposure}
-		got := make([]float64, n)
-		require.True(t, sc.pool(counts, got), "window %d: counts with the exposure's gaps", years)
-		want, _ := Pool(counts, exposure, years)
-		for j := range want {
-			assert.Equal(t, math.Float64bits(want[j]), math.Float64bits(got[j]), "window %d, year %d: %v, want %v", years, j, got[j], want[j])
-		}
-		own := slices.Clone(counts)
-		own[5] = math.NaN()
-		assert.False(t, sc.pool(own, got), "window %d: a gap of the counts' own is PoolInto's", years)
 	}
 }

@@ -156,18 +156,11 @@ func (sc *scaler) pool(counts, pooled []float64) bool {
 			j++
 			continue
 		}
-		start, end := j, j
+		end := j + 1
 		for end < n && !math.IsNaN(e[end]) {
 			end++
 		}
-		for i := start; i < end; i++ {
-			lo, hi := max(start, i-half), min(end-1, i+half)
-			var c float64
-			for _, x := range counts[lo : hi+1] {
-				c += x
-			}
-			pooled[i] = c
-		}
+		windowSums(pooled[j:end], counts[j:end], half)
 		j = end
 	}
 	return true
