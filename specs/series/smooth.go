@@ -71,7 +71,9 @@ func windowSums(sums, xs []float64, half int) {
 	limit := float64(1<<53) / float64(2*half+1)
 	whole := true
 	for _, x := range xs {
-		if !(math.Abs(x) <= limit) || x != math.Trunc(x) {
+		// Within ±limit, x converts to int64 and back unchanged exactly
+		// when it is a whole number; NaN fails the first test.
+		if !(x >= -limit && x <= limit) || x != float64(int64(x)) {
 			whole = false
 			break
 		}
