@@ -58,6 +58,9 @@ func FuzzLoad(f *testing.F) {
 	f.Add("term,year,count\nboiler,1900,5\nsteam,1901,7\n", "year,total\n1900,100\n1901,200\n", false)
 	f.Add("term,year,count\n\"a,b\",1900,5\n", "year,total\n1900,100\n", true)
 	f.Add("term,year,count\nx,1900,1,2\n", "year,total\n1900,0\n", false)
+	// Runs of one term that tally.add takes, broken by rows it hands to
+	// tally.row: a second row, a fraction, a bad year, CRLF, a new term.
+	f.Add("term,year,count\nx,1900,1\nx,1901,2\r\nx,1901,3\nx,1902,1.5\nx,19x,1\nX,1903,4\n\nx,1903,1", "year,total\n1900,100\n1901,200\n1902,300\n1903,400\n", true)
 	f.Fuzz(func(t *testing.T, counts, totals string, fold bool) {
 		dir := t.TempDir()
 		write(t, filepath.Join(dir, "counts.csv"), counts)
