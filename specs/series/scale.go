@@ -213,19 +213,31 @@ func arrange(s *specs.Spec, set *Set) {
 }
 
 // sortStable sorts ser as slices.SortStableFunc would with cmp, which
-// compares the series at two indices of ser as it is on entry: a stable
-// order is the one order the comparison allows, so sorting indices and
-// moving each series once gives the same order with fewer moves of a
-// large struct.
+// compares the series at two indices of ser as it is on entry (see
+// stableOrder).
 func sortStable(ser []Series, cmp func(x, y int) int) {
-	idx := make([]int, len(ser))
-	for i := range idx {
-		idx[i] = i
-	}
-	slices.SortStableFunc(idx, cmp)
+	idx := stableOrder(len(ser), cmp)
 	sorted := make([]Series, len(ser))
 	for i, j := range idx {
 		sorted[i] = ser[j]
 	}
 	copy(ser, sorted)
+}
+
+// stableOrder returns the indices 0 to n-1 in the order a stable sort
+// by cmp (a consistent ordering of the indices' items) leaves them: cmp,
+// then the index, is a total order, which allows one order only, so the
+// faster unstable sort finds it, and each item moves once.
+func stableOrder(n int, cmp func(x, y int) int) []int {
+	idx := make([]int, n)
+	for i := range idx {
+		idx[i] = i
+	}
+	slices.SortFunc(idx, func(x, y int) int {
+		if c := cmp(x, y); c != 0 {
+			return c
+		}
+		return x - y
+	})
+	return idx
 }

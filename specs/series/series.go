@@ -866,17 +866,18 @@ func (r *reader) selectTerms(aggs map[string]*agg, order []string) []string {
 			}
 		}
 		// Most used first; equal shares by term.
-		slices.SortStableFunc(cand, func(a, b *agg) int {
+		idx := stableOrder(len(cand), func(x, y int) int {
+			a, b := cand[x], cand[y]
 			if c := cmp.Compare(b.share, a.share); c != 0 {
 				return c
 			}
 			return strings.Compare(a.term, b.term)
 		})
-		if s.Terms.Top > 0 && len(cand) > s.Terms.Top {
-			cand = cand[:s.Terms.Top]
+		if s.Terms.Top > 0 && len(idx) > s.Terms.Top {
+			idx = idx[:s.Terms.Top]
 		}
-		for _, a := range cand {
-			sel = append(sel, keys[a])
+		for _, i := range idx {
+			sel = append(sel, keys[cand[i]])
 		}
 	}
 	for i, k := range sel {
