@@ -136,21 +136,25 @@ func TestBlocksAgreeWithRecords(t *testing.T) {
 }
 
 // agree loads counts (with the small totals) both ways and compares the
-// sets or the errors.
+// sets or the errors: selecting every term (the counts kept from the
+// first read) and the top 3 (read a second time, pass2).
 func agree(t *testing.T, counts, extra string, fold, fails bool) {
 	s, err := specs.Load(feature(t, "counts.csv", counts, "", extra))
 	require.NoError(t, err)
 	s.Data.FoldCase = fold
-	ref, refErr := loadRecords(s)
-	set, err := Load(s)
-	require.Equal(t, fails, refErr != nil, "an error reading every row as a record: %v", refErr)
-	if fails {
-		assert.Equal(t, refErr.Error(), fmt.Sprint(err), "errors")
-		return
+	for _, top := range []int{0, 3} {
+		s.Terms.Top = top
+		ref, refErr := loadRecords(s)
+		set, err := Load(s)
+		require.Equal(t, fails, refErr != nil, "top %d: an error reading every row as a record: %v", top, refErr)
+		if fails {
+			assert.Equal(t, refErr.Error(), fmt.Sprint(err), "top %d: errors", top)
+			continue
+		}
+		require.NoError(t, err)
+		assert.Equal(t, setDigest(ref), setDigest(set), "top %d: set", top)
+		assert.Equal(t, ref.Rows, set.Rows, "top %d: rows", top)
 	}
-	require.NoError(t, err)
-	assert.Equal(t, setDigest(ref), setDigest(set), "set")
-	assert.Equal(t, ref.Rows, set.Rows, "rows")
 }
 
 // poolBefore is PoolInto as it was before issue 22 (commit fb93391),

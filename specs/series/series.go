@@ -100,6 +100,8 @@ type Table struct {
 	order  []string // keys in the table's order
 	rows   int
 	keep   bool // every term's counts are in aggs: Select reads no more
+	// noBlocks: Select reads the counts again as readTable read them.
+	noBlocks bool
 }
 
 // ReadTable reads and checks the totals and counts tables a spec names.
@@ -125,7 +127,7 @@ func readTable(s *specs.Spec, noBlocks bool) (*Table, error) {
 	if len(errs) > 0 {
 		return nil, errs
 	}
-	return &Table{spec: s, totals: totals, aggs: aggs, order: order, rows: r.rows, keep: r.keep}, nil
+	return &Table{spec: s, totals: totals, aggs: aggs, order: order, rows: r.rows, keep: r.keep, noBlocks: noBlocks}, nil
 }
 
 // Select picks, scales and arranges the terms s asks for from the table.
@@ -135,7 +137,7 @@ func (t *Table) Select(s *specs.Spec) (*Set, error) {
 	t.mu.Lock()
 	defer t.mu.Unlock()
 	var errs specs.Errors
-	r := &reader{spec: s, totals: t.totals, errs: &errs, fold: s.Data.FoldCase, rows: t.rows, keep: t.keep}
+	r := &reader{spec: s, totals: t.totals, errs: &errs, fold: s.Data.FoldCase, rows: t.rows, keep: t.keep, noBlocks: t.noBlocks}
 	if s.Data.FoldCase {
 		r.folder = cases.Fold()
 	}
@@ -953,19 +955,13 @@ func (r *reader) pass2(aggs map[string]*agg, selected []string) {
 	tc, yc, cc := t.cols["term"], t.cols["year"], t.cols["count"]
 	var a *agg
 	lastKey := ""
-	for {
-		rec, _, ok := t.next(r.errs)
-		if !ok {
-			break
-		}
-		if k := r.keyOf(bytes.TrimSpace(rec[tc])); k != lastKey || a == nil {
+	add := func(term []byte, y int, v float64) {
+		if k := r.keyOf(term); k != lastKey || a == nil {
 			a, lastKey = aggs[k], k
 		}
 		if a == nil || a.idx < 0 {
-			continue
+			return
 		}
-		y, _ := parseYear(rec[yc])
-		v, _ := parseNumber(rec[cc])
 		// Add, not set: with fold-case several spellings share a term. A
 		// gap year (NaN) takes the count as it is; only raw scaling
 		// lets counts into such years.
@@ -974,6 +970,48 @@ func (r *reader) pass2(aggs map[string]*agg, selected []string) {
 		} else {
 			*c += v
 		}
+	}
+	// The rows pass1 checked: runs of plain lines are read in place (as
+	// pass1 reads them, with tally.read), the rest as records.
+	x := &tally{t: t, tc: tc, yc: yc, cc: cc}
+	c := t.csv
+	for {
+		if !r.noBlocks {
+			if b, first := c.block(); b != nil {
+				for n := first; len(b) > 0; n++ {
+					nl := bytes.IndexByte(b, '\n')
+					line := b[:nl]
+					b = b[nl+1:]
+					if k := len(line); k > 0 && line[k-1] == '\r' {
+						line = line[:k-1] // CRLF is read as LF
+					}
+					if term, y, v, ok := x.read(line); ok {
+						add(term, y, v)
+						continue
+					}
+					if !c.splitAt(line, n) {
+						continue // blank
+					}
+					switch t.check(c.rec, n, r.errs) {
+					case rowStop:
+						return
+					case rowSkip:
+						continue
+					}
+					y, _ := parseYear(c.rec[yc])
+					v, _ := parseNumber(c.rec[cc])
+					add(bytes.TrimSpace(c.rec[tc]), y, v)
+				}
+				continue
+			}
+		}
+		rec, _, ok := t.next(r.errs)
+		if !ok {
+			break
+		}
+		y, _ := parseYear(rec[yc])
+		v, _ := parseNumber(rec[cc])
+		add(bytes.TrimSpace(rec[tc]), y, v)
 	}
 }
 
