@@ -52,8 +52,8 @@ func FuzzRecords(f *testing.F) {
 // FuzzLoad: any counts and totals tables load or fail with an error;
 // never a panic or a hang. A loaded set is consistent: one value per year
 // of the span for every series. Reading runs of plain lines in place
-// (tally.fast) gives the set and the errors, to the bit and the letter,
-// that reading every row as a record does.
+// (tally.read and tally.add) gives the set and the errors, to the bit
+// and the letter, that reading every row as a record does.
 func FuzzLoad(f *testing.F) {
 	f.Add("term,year,count\nboiler,1900,5\nsteam,1901,7\n", "year,total\n1900,100\n1901,200\n", false)
 	f.Add("term,year,count\n\"a,b\",1900,5\n", "year,total\n1900,100\n", true)
@@ -72,7 +72,7 @@ func FuzzLoad(f *testing.F) {
 		require.NoError(t, err)
 		set, err := Load(s)
 		// The reference: every row read as a record (tally.row), as
-		// before the fast path (tally.fast) existed.
+		// before runs of plain lines were read in place.
 		ref, refErr := loadRecords(s)
 		if refErr != nil || err != nil {
 			assert.Equal(t, fmt.Sprint(refErr), fmt.Sprint(err), "errors; want those of reading every row as a record")

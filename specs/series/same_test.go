@@ -72,7 +72,7 @@ func TestDemoSetsUnchanged(t *testing.T) {
 }
 
 // TestBlocksAgreeWithRecords: tables whose runs of plain lines hold
-// every kind of row the fast path must hand back (errors of each kind, a
+// every kind of row tally.read and tally.add must hand back (errors of each kind, a
 // new term, blank and CRLF lines, too few and too many fields, quoted
 // terms between plain lines, fractional and exponent counts, a term with
 // spaces around it, fold-case spellings) load to the same set, or the

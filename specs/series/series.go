@@ -213,7 +213,7 @@ type reader struct {
 	keep    bool        // pass1 keeps every term's counts (see keepLimit)
 	keepAll bool        // keep every term's counts, however many (Catalog)
 	// noBlocks reads every row as a record, as tally.row does: the
-	// reference tally.fast is tested against.
+	// reference tally.read and tally.add are tested against.
 	noBlocks bool
 
 	lastRaw, lastKey string // key's one-entry cache
