@@ -39,6 +39,7 @@ type records struct {
 	pos, quote int
 
 	err error // a read error block met, for Read to return
+	eof bool  // block met the end of the file
 
 	rec [][]byte
 	// Where the fields of the record last read are: split here, all on
@@ -133,9 +134,19 @@ func (r *records) block() ([]byte, int) {
 	if r.err != nil {
 		return nil, 0
 	}
-	b, err := r.br.Peek(r.br.Size())
+	// Fill the buffer only when under half of it is left: filling moves
+	// what is left to its start, which for every line (a table of quoted
+	// lines, each read by Read between two calls) would cost a buffer a
+	// line. At the end of the file there is nothing to fill it with.
+	n := r.br.Buffered()
+	if n < r.br.Size()/2 && !r.eof {
+		n = r.br.Size()
+	}
+	b, err := r.br.Peek(n)
 	switch err {
-	case nil, io.EOF, bufio.ErrBufferFull:
+	case nil, bufio.ErrBufferFull:
+	case io.EOF:
+		r.eof = true
 	default:
 		r.err = err // Peek forgets it: Read returns it after these lines
 	}
