@@ -107,6 +107,8 @@ func TestBlocksAgreeWithRecords(t *testing.T) {
 		{"fold-case spellings", "Boiler,1900,1\nBoiler,1902,2\nboiler,1902,3\nBOILER,1900,4\nBoiler,1902,5\n", "", true, true},
 		{"last line without a line end", "boiler,1902,2\nboiler,1904,1", "", false, false},
 		{"runs broken and resumed", "steam,1900,1\nboiler,1902,2\nsteam,1901,1\n", "", false, false},
+		{"second row for a year, the run resumed", "steam,1900,1\nboiler,1902,2\nsteam,1901,1\nboiler,1904,1\nsteam,1900,5\n", "", false, true},
+		{"fold-case spellings resumed", "Boiler,1902,2\nsteam,1900,1\nBoiler,1904,2\nboiler,1902,1\nsteam,1901,1\nboiler,1904,3\n", "", true, false},
 	}
 	// Plain rows before the case's, so that they fall inside a block of
 	// plain lines or across the end of one: the reader's buffer, which

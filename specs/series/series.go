@@ -534,7 +534,7 @@ func (r *reader) pass1() (map[string]*agg, []string) {
 	x := &tally{r: r, t: t, aggs: map[string]*agg{}, span: span, from: s.Years.From, to: s.Years.To,
 		tc: t.cols["term"], yc: t.cols["year"], cc: t.cols["count"],
 		needTotals: s.Scale.Mode != specs.ScaleRaw, spellings: map[string][]uint64{},
-		totals: r.spanTotals(), limit: r.keepLimit(), empty: make([]float64, span)}
+		totals: r.spanTotals(), limit: r.keepLimit(), empty: make([]float64, span), seen: map[string]seenTerm{}}
 	var words float64
 	for _, v := range r.totals {
 		words += v
@@ -583,7 +583,18 @@ type tally struct {
 	empty          []float64           // a term's counts before its rows: NaN in gap years
 	last           *agg                // the row before's term: tables are usually sorted
 	lastKey        string
-	lastYears      []uint64 // the years the row before's spelling has rows in
+	// seen holds, by term as written (trimmed), the terms row has met
+	// again after others: the agg and the years the spelling has rows
+	// in, which add needs; cur is the term of the last row added.
+	seen map[string]seenTerm
+	cur  seenTerm
+}
+
+// seenTerm is what tally.add needs of a term seen before.
+type seenTerm struct {
+	raw   string // the term as written, trimmed
+	a     *agg
+	years []uint64
 }
 
 // block adds the lines of records.block, b, whose first is line first.
@@ -687,8 +698,13 @@ func (x *tally) read(line []byte) (term []byte, year int, v float64, ok bool) {
 // having done nothing, for any other row.
 func (x *tally) add(term []byte, y int, v float64) bool {
 	r := x.r
-	if x.last == nil || string(term) != r.lastRaw || x.lastKey != r.lastKey || r.lastKey == "" {
-		return false
+	if x.cur.a == nil || string(term) != x.cur.raw {
+		// Tables are usually sorted by term: a run's rows need no look-up.
+		cur, ok := x.seen[string(term)]
+		if !ok {
+			return false
+		}
+		x.cur = cur
 	}
 	if y < x.from || y > x.to {
 		return false
@@ -699,13 +715,13 @@ func (x *tally) add(term []byte, y int, v float64) bool {
 	if !has && x.needTotals || has && v > tot {
 		return false
 	}
-	years := x.lastYears
+	years := x.cur.years
 	if years[i/64]&(1<<(i%64)) != 0 {
 		return false
 	}
 	r.rows++
 	years[i/64] |= 1 << (i % 64)
-	a := x.last
+	a := x.cur.a
 	a.total += v
 	if r.keep {
 		if c := &a.counts[i]; math.IsNaN(*c) {
@@ -762,8 +778,10 @@ func (x *tally) row(rec [][]byte, line int) bool {
 	}
 	k := r.keyOf(term)
 	a := x.last
+	created := false
 	if k != x.lastKey {
 		if a = x.aggs[k]; a == nil {
+			created = true
 			a = &agg{term: norm.NFC.String(string(term)), years: make([]uint64, (x.span+63)/64), line: line, idx: -1}
 			x.aggs[k] = a
 			x.order = append(x.order, k)
@@ -790,7 +808,16 @@ func (x *tally) row(rec [][]byte, line int) bool {
 			x.spellings[sp] = years
 		}
 	}
-	x.lastYears = years
+	// The key, the agg and the spelling are the term's alone (keyOf left
+	// the term in r.lastRaw): add can take its further rows, those of
+	// its run from cur and, once it comes back after other terms (an
+	// unsorted table), from seen.
+	x.cur = seenTerm{raw: r.lastRaw, a: a, years: years}
+	if !created {
+		if _, ok := x.seen[r.lastRaw]; !ok {
+			x.seen[r.lastRaw] = x.cur
+		}
+	}
 	i := y - s.Years.From
 	if years[i/64]&(1<<(i%64)) != 0 {
 		return r.errs.Add(t.at(yc), "%q has a second row for %d", term, y)
