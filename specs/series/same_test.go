@@ -5,6 +5,7 @@ import (
 	"encoding/hex"
 	"fmt"
 	"math"
+	"runtime"
 	"slices"
 	"strings"
 	"testing"
@@ -266,4 +267,26 @@ func TestPoolingMatchesBefore(t *testing.T) {
 			}
 		}
 	}
+}
+
+// TestScaleWorkersAgree: scaling shares the series out to as many
+// goroutines as there are processors (one per 256 series at most); the
+// set must not depend on how many: 700 terms (so two or three workers)
+// scaled by one goroutine and by several give the same set to the bit.
+// The table is invented (bigFeatureWith).
+func TestScaleWorkersAgree(t *testing.T) {
+	spec, _ := bigFeatureWith(t, 700, 30, "terms: {top: 700, min-total: 0}\norder: peak-year\nscale: {values: own-peak, y-range: shared, rolling: {years: 5}}\n")
+	s, err := specs.Load(spec)
+	require.NoError(t, err)
+	digests := map[int]string{}
+	for _, procs := range []int{1, 2, 3} {
+		old := runtime.GOMAXPROCS(procs)
+		set, err := Load(s)
+		runtime.GOMAXPROCS(old)
+		require.NoError(t, err)
+		require.Len(t, set.Series, 700, "selected")
+		digests[procs] = setDigest(set)
+	}
+	assert.Equal(t, digests[1], digests[2], "one goroutine and two")
+	assert.Equal(t, digests[1], digests[3], "one goroutine and three")
 }
