@@ -38,6 +38,9 @@ type records struct {
 	win        []byte
 	pos, quote int
 
+	err error // a read error block met, for Read to return
+	eof bool  // block met the end of the file
+
 	rec [][]byte
 	// Where the fields of the record last read are: split here, all on
 	// line, pieces of whole; from csv.Reader, at lines and cols.
@@ -54,6 +57,14 @@ func newRecords(br *bufio.Reader, comma byte, lazyQuotes bool) *records {
 // call. Errors are encoding/csv's, *csv.ParseError with lines counted from
 // the top of the file.
 func (r *records) Read() ([][]byte, error) {
+	if r.err != nil {
+		// As ReadSlice would have: the partial line before the error is
+		// dropped.
+		err := r.err
+		r.err = nil
+		r.br.Discard(r.br.Buffered())
+		return nil, err
+	}
 	for {
 		// Whole lines in br's buffer before its next quote are split in
 		// place; one look for a quote covers the buffer.
@@ -107,12 +118,64 @@ func (r *records) Read() ([][]byte, error) {
 	}
 }
 
+// block returns the whole lines ahead that the fast path of Read would
+// split — as many as fill br's buffer, up to the first quote — and the
+// number of the first line, counting them all as read. It returns nil
+// when the next line has a quote, runs past the buffer or is the last
+// one and has no line end: Read reads that one. The bytes stay valid
+// until the next call of block or Read. A caller takes each line as Read
+// would (a CR before the LF dropped, blank lines skipped) and splits it
+// with splitAt, or reads its fields itself.
+func (r *records) block() ([]byte, int) {
+	if r.win != nil {
+		r.br.Discard(r.pos)
+		r.win = nil
+	}
+	if r.err != nil {
+		return nil, 0
+	}
+	// Fill the buffer only when under half of it is left: filling moves
+	// what is left to its start, which for every line (a table of quoted
+	// lines, each read by Read between two calls) would cost a buffer a
+	// line. At the end of the file there is nothing to fill it with.
+	n := r.br.Buffered()
+	if n < r.br.Size()/2 && !r.eof {
+		n = r.br.Size()
+	}
+	b, err := r.br.Peek(n)
+	switch err {
+	case nil, bufio.ErrBufferFull:
+	case io.EOF:
+		r.eof = true
+	default:
+		r.err = err // Peek forgets it: Read returns it after these lines
+	}
+	if q := bytes.IndexByte(b, '"'); q >= 0 {
+		b = b[:q]
+	}
+	nl := bytes.LastIndexByte(b, '\n')
+	if nl < 0 {
+		return nil, 0
+	}
+	b = b[:nl+1]
+	first := r.fast + r.feed.lines + 1
+	r.fast += bytes.Count(b, []byte{'\n'})
+	r.br.Discard(len(b))
+	return b, first
+}
+
 // split makes the record of a line without quotes and its line end,
 // counting the line. It reports false for a blank line, which is no
 // record.
 func (r *records) split(line []byte) bool {
-	r.line = r.fast + r.feed.lines + 1
+	n := r.fast + r.feed.lines + 1
 	r.fast++
+	return r.splitAt(line, n)
+}
+
+// splitAt is split for line n, a line block returned (so counted).
+func (r *records) splitAt(line []byte, n int) bool {
+	r.line = n
 	if len(line) == 0 {
 		return false
 	}

@@ -116,3 +116,43 @@ func TestRecordsAgreeWithEncodingCSV(t *testing.T) {
 		}
 	}
 }
+
+// countingReader counts the reads made of it.
+type countingReader struct {
+	r     io.Reader
+	reads int
+}
+
+func (c *countingReader) Read(p []byte) (int, error) {
+	c.reads++
+	return c.r.Read(p)
+}
+
+// TestBlockFillsRarely: reading a table of quoted lines (each one read by
+// Read, the next looked at by block) reads the file a buffer at a time,
+// not a line at a time: block fills the buffer only when under half of
+// it is left, as filling moves what is left to its start. 2,000 lines
+// of 20 bytes through a 4 KiB buffer need about 40,000 ÷ 2,048 ≈ 20
+// reads; filling for every line would make 2,000. Counts reads, not time.
+func TestBlockFillsRarely(t *testing.T) {
+	var b strings.Builder
+	for i := range 2000 {
+		fmt.Fprintf(&b, "\"term%04d\",1900,%d\n", i, i%10)
+	}
+	src := &countingReader{r: strings.NewReader(b.String())}
+	r := newRecords(bufio.NewReaderSize(src, 4096), ',', false)
+	records := 0
+	for {
+		if blk, _ := r.block(); blk != nil {
+			continue
+		}
+		_, err := r.Read()
+		if err == io.EOF {
+			break
+		}
+		assert.NoError(t, err)
+		records++
+	}
+	assert.Equal(t, 2000, records, "records read")
+	assert.LessOrEqual(t, src.reads, 50, "reads of the file")
+}

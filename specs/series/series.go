@@ -100,6 +100,8 @@ type Table struct {
 	order  []string // keys in the table's order
 	rows   int
 	keep   bool // every term's counts are in aggs: Select reads no more
+	// noBlocks: Select reads the counts again as readTable read them.
+	noBlocks bool
 }
 
 // ReadTable reads and checks the totals and counts tables a spec names.
@@ -107,12 +109,17 @@ type Table struct {
 // many terms as the spec can select (else Select reads the counts of its
 // terms again).
 func ReadTable(s *specs.Spec) (*Table, error) {
+	return readTable(s, false)
+}
+
+// readTable is ReadTable, reading every row as a record with noBlocks.
+func readTable(s *specs.Spec, noBlocks bool) (*Table, error) {
 	var errs specs.Errors
 	totals, ok := readTotals(s, &errs)
 	if !ok {
 		return nil, errs
 	}
-	r := &reader{spec: s, totals: totals, errs: &errs, fold: s.Data.FoldCase}
+	r := &reader{spec: s, totals: totals, errs: &errs, fold: s.Data.FoldCase, noBlocks: noBlocks}
 	if s.Data.FoldCase {
 		r.folder = cases.Fold()
 	}
@@ -120,7 +127,7 @@ func ReadTable(s *specs.Spec) (*Table, error) {
 	if len(errs) > 0 {
 		return nil, errs
 	}
-	return &Table{spec: s, totals: totals, aggs: aggs, order: order, rows: r.rows, keep: r.keep}, nil
+	return &Table{spec: s, totals: totals, aggs: aggs, order: order, rows: r.rows, keep: r.keep, noBlocks: noBlocks}, nil
 }
 
 // Select picks, scales and arranges the terms s asks for from the table.
@@ -130,7 +137,7 @@ func (t *Table) Select(s *specs.Spec) (*Set, error) {
 	t.mu.Lock()
 	defer t.mu.Unlock()
 	var errs specs.Errors
-	r := &reader{spec: s, totals: t.totals, errs: &errs, fold: s.Data.FoldCase, rows: t.rows, keep: t.keep}
+	r := &reader{spec: s, totals: t.totals, errs: &errs, fold: s.Data.FoldCase, rows: t.rows, keep: t.keep, noBlocks: t.noBlocks}
 	if s.Data.FoldCase {
 		r.folder = cases.Fold()
 	}
@@ -205,6 +212,9 @@ type reader struct {
 	counts  [][]float64 // of the selected terms, by pass2 or from pass1
 	keep    bool        // pass1 keeps every term's counts (see keepLimit)
 	keepAll bool        // keep every term's counts, however many (Catalog)
+	// noBlocks reads every row as a record, as tally.row does: the
+	// reference tally.read and tally.add are tested against.
+	noBlocks bool
 
 	lastRaw, lastKey string // key's one-entry cache
 }
@@ -375,25 +385,44 @@ func (t *table) next(errs *specs.Errors) ([][]byte, int, bool) {
 			continue
 		}
 		line, _ := t.csv.FieldPos(0)
-		if len(rec) == 1 && len(bytes.TrimSpace(rec[0])) == 0 {
-			continue
-		}
-		if len(rec) < t.width {
-			if !errs.Add(specs.Pos{File: t.name, Line: line, Col: 1}, "the row has %d fields; the header asks for at least %d", len(rec), t.width) {
-				return nil, 0, false
-			}
-			continue
-		}
-		if len(rec) > t.fields {
-			// A field too many is a misplaced separator (a count of
-			// "1,250"): reading the row by its first fields would be wrong.
-			if !errs.Add(t.at(t.fields), "the row has %d fields; the header has %d (a separator inside a value? quote the value)", len(rec), t.fields) {
-				return nil, 0, false
-			}
+		switch t.check(rec, line, errs) {
+		case rowStop:
+			return nil, 0, false
+		case rowSkip:
 			continue
 		}
 		return rec, line, true
 	}
+}
+
+// What table.check makes of a record.
+const (
+	rowOK   = iota
+	rowSkip // a blank row, or one with an error reported
+	rowStop // one error too many: read no further
+)
+
+// check says whether rec, the record last read (on line), is a row of
+// the table: not blank, with the header's fields.
+func (t *table) check(rec [][]byte, line int, errs *specs.Errors) int {
+	if len(rec) == 1 && len(bytes.TrimSpace(rec[0])) == 0 {
+		return rowSkip
+	}
+	if len(rec) < t.width {
+		if !errs.Add(specs.Pos{File: t.name, Line: line, Col: 1}, "the row has %d fields; the header asks for at least %d", len(rec), t.width) {
+			return rowStop
+		}
+		return rowSkip
+	}
+	if len(rec) > t.fields {
+		// A field too many is a misplaced separator (a count of
+		// "1,250"): reading the row by its first fields would be wrong.
+		if !errs.Add(t.at(t.fields), "the row has %d fields; the header has %d (a separator inside a value? quote the value)", len(rec), t.fields) {
+			return rowStop
+		}
+		return rowSkip
+	}
+	return rowOK
 }
 
 // parseNumber reads a count or total: a decimal number, which may have a
@@ -502,130 +531,308 @@ func (r *reader) pass1() (map[string]*agg, []string) {
 	}
 	defer t.f.Close()
 	span := s.Years.Len()
-	aggs := map[string]*agg{}
-	var order []string
-	tc, yc, cc := t.cols["term"], t.cols["year"], t.cols["count"]
-	needTotals := s.Scale.Mode != specs.ScaleRaw
-	spellings := map[string][]uint64{} // fold-case only: rows seen per spelling
+	x := &tally{r: r, t: t, aggs: map[string]*agg{}, span: span, from: s.Years.From, to: s.Years.To,
+		tc: t.cols["term"], yc: t.cols["year"], cc: t.cols["count"],
+		needTotals: s.Scale.Mode != specs.ScaleRaw, spellings: map[string][]uint64{},
+		totals: r.spanTotals(), limit: r.keepLimit(), empty: make([]float64, span), seen: map[string]seenTerm{}}
 	var words float64
 	for _, v := range r.totals {
 		words += v
 	}
-	totals := r.spanTotals()
-	var last *agg // the row before's term: tables are usually sorted
-	lastKey := ""
-	limit := r.keepLimit()
 	r.keep = true
-	empty := make([]float64, span) // a term's counts before its rows: NaN in gap years
-	for j, t := range totals {
+	for j, t := range x.totals {
 		if math.IsNaN(t) {
-			empty[j] = math.NaN()
+			x.empty[j] = math.NaN()
 		}
 	}
 	for {
-		rec, line, ok := t.next(r.errs)
-		if !ok {
-			break
-		}
-		r.rows++
-		term := bytes.TrimSpace(rec[tc])
-		if len(term) == 0 {
-			if !r.errs.Add(t.at(tc), "the term is empty") {
-				break
-			}
-			continue
-		}
-		// A term is checked once a run: the row before's term (the key
-		// cache's) was valid.
-		if string(term) != r.lastRaw || r.lastKey == "" {
-			if msg := checkTerm(term); msg != "" {
-				if !r.errs.Add(t.at(tc), "%s", msg) {
+		// Runs of plain lines are read in place; a line with a quote, or
+		// the last one without a line end, as a record.
+		if !r.noBlocks {
+			if b, first := t.csv.block(); b != nil {
+				if !x.block(b, first) {
 					break
 				}
 				continue
 			}
 		}
-		field := yc // the field a problem is in
-		y, msg := parseYear(rec[yc])
-		if msg == "" && (y < s.Years.From || y > s.Years.To) {
-			msg = fmt.Sprintf("year %d is outside the span %d–%d set at %s", y, s.Years.From, s.Years.To, s.Where("years"))
-		}
-		var v float64
-		if msg == "" {
-			field = cc
-			if v, msg = parseNumber(rec[cc]); msg != "" {
-				msg = fmt.Sprintf("count for %q in %d: %s", term, y, msg)
-			}
-		}
-		if msg == "" {
-			tot := totals[y-s.Years.From]
-			has := !math.IsNaN(tot)
-			switch {
-			case !has && needTotals:
-				field = yc
-				msg = fmt.Sprintf("%q has a count in %d but the totals table has no total for %d; %s scaling needs it", term, y, y, s.Scale.Mode)
-			case has && v > tot:
-				msg = fmt.Sprintf("count %g for %q in %d is more than that year's total %g", v, term, y, tot)
-			}
-		}
-		if msg != "" {
-			if !r.errs.Add(t.at(field), "%s", msg) {
-				break
-			}
-			continue
-		}
-		k := r.keyOf(term)
-		a := last
-		if k != lastKey {
-			if a = aggs[k]; a == nil {
-				a = &agg{term: norm.NFC.String(string(term)), years: make([]uint64, (span+63)/64), line: line, idx: -1}
-				aggs[k] = a
-				order = append(order, k)
-				if r.keep && limit >= 0 && len(order) > limit {
-					r.keep = false // read again for the selected terms
-					for _, a := range aggs {
-						a.counts = nil
-					}
-				}
-				if r.keep {
-					a.counts = make([]float64, span)
-					copy(a.counts, empty)
-				}
-			}
-			last, lastKey = a, k
-		}
-		// A second row for the same spelling and year is a mistake; with
-		// fold-case, spellings that differ in case are added together.
-		years := a.years
-		if r.fold {
-			sp := norm.NFC.String(string(term))
-			if years = spellings[sp]; years == nil {
-				years = make([]uint64, (span+63)/64)
-				spellings[sp] = years
-			}
-		}
-		i := y - s.Years.From
-		if years[i/64]&(1<<(i%64)) != 0 {
-			if !r.errs.Add(t.at(yc), "%q has a second row for %d", term, y) {
-				break
-			}
-			continue
-		}
-		years[i/64] |= 1 << (i % 64)
-		a.total += v
-		if r.keep {
-			// As pass2 adds: see there.
-			if c := &a.counts[i]; math.IsNaN(*c) {
-				*c = v
-			} else {
-				*c += v
-			}
+		rec, line, ok := t.next(r.errs)
+		if !ok || !x.row(rec, line) {
+			break
 		}
 	}
-	for _, a := range aggs {
+	for _, a := range x.aggs {
 		a.share = a.total / words
 	}
-	return aggs, order
+	return x.aggs, x.order
+}
+
+// tally is pass1's state: the terms so far, and what it knows of the
+// row before.
+type tally struct {
+	r              *reader
+	t              *table
+	aggs           map[string]*agg
+	order          []string
+	span, from, to int
+	tc, yc, cc     int
+	needTotals     bool
+	spellings      map[string][]uint64 // fold-case only: rows seen per spelling
+	totals         []float64           // by year of the span (reader.spanTotals)
+	limit          int                 // reader.keepLimit
+	empty          []float64           // a term's counts before its rows: NaN in gap years
+	last           *agg                // the row before's term: tables are usually sorted
+	lastKey        string
+	// seen holds, by term as written (trimmed), the terms row has met
+	// again after others: the agg and the years the spelling has rows
+	// in, which add needs; cur is the term of the last row added.
+	seen map[string]seenTerm
+	cur  seenTerm
+}
+
+// seenTerm is what tally.add needs of a term seen before.
+type seenTerm struct {
+	raw   string // the term as written, trimmed
+	a     *agg
+	years []uint64
+}
+
+// block adds the lines of records.block, b, whose first is line first.
+// It reports false when reading must stop (too many errors).
+func (x *tally) block(b []byte, first int) bool {
+	for n := first; len(b) > 0; n++ {
+		nl := bytes.IndexByte(b, '\n')
+		line := b[:nl]
+		b = b[nl+1:]
+		if k := len(line); k > 0 && line[k-1] == '\r' {
+			line = line[:k-1] // CRLF is read as LF
+		}
+		if term, y, v, ok := x.read(line); ok && x.add(term, y, v) {
+			continue
+		}
+		if !x.slow(line, n) {
+			return false
+		}
+	}
+	return true
+}
+
+// slow reads line n of a block as a record would be read: its errors,
+// with positions, are row's and table.check's. It reports false when
+// reading must stop.
+func (x *tally) slow(line []byte, n int) bool {
+	c := x.t.csv
+	if !c.splitAt(line, n) {
+		return true // blank
+	}
+	switch x.t.check(c.rec, n, x.r.errs) {
+	case rowStop:
+		return false
+	case rowSkip:
+		return true
+	}
+	return x.row(c.rec, n)
+}
+
+// read reads the term, year and count of a row in place, as row reads
+// them, when it has the header's fields and its year and count are
+// numbers; ok is false for any other row (a blank line among them).
+func (x *tally) read(line []byte) (term []byte, year int, v float64, ok bool) {
+	if len(line) == 0 {
+		return nil, 0, 0, false
+	}
+	// The fields as records.split splits them; only three are kept.
+	var yb, cb []byte
+	keep := func(n int, f []byte) {
+		switch n {
+		case x.tc:
+			term = f
+		case x.yc:
+			yb = f
+		case x.cc:
+			cb = f
+		}
+	}
+	comma := x.t.csv.comma
+	n, rest := 0, line
+	for {
+		i := bytes.IndexByte(rest, comma)
+		if i < 0 {
+			keep(n, rest)
+			n++
+			break
+		}
+		keep(n, rest[:i])
+		n++
+		rest = rest[i+1:]
+	}
+	if n < x.t.width || n > x.t.fields {
+		return nil, 0, 0, false
+	}
+	if k := len(term); k == 0 || term[0] <= ' ' || term[k-1] <= ' ' || term[0] >= utf8.RuneSelf || term[k-1] >= utf8.RuneSelf {
+		term = bytes.TrimSpace(term) // else it has no space to trim
+	}
+	// Plain digits are read here, anything else by parseYear and
+	// parseNumber, which read plain digits the same way.
+	if y, ok := digits(yb, 9); ok {
+		year = int(y)
+	} else {
+		var msg string
+		if year, msg = parseYear(yb); msg != "" {
+			return nil, 0, 0, false
+		}
+	}
+	if c, ok := digits(cb, 15); ok {
+		v = float64(c)
+	} else {
+		var msg string
+		if v, msg = parseNumber(cb); msg != "" {
+			return nil, 0, 0, false
+		}
+	}
+	return term, year, v, true
+}
+
+// add adds a row read by read when it is of the term of the row before
+// and row would report nothing, as row would add it. It reports false,
+// having done nothing, for any other row.
+func (x *tally) add(term []byte, y int, v float64) bool {
+	r := x.r
+	if x.cur.a == nil || string(term) != x.cur.raw {
+		// Tables are usually sorted by term: a run's rows need no look-up.
+		cur, ok := x.seen[string(term)]
+		if !ok {
+			return false
+		}
+		x.cur = cur
+	}
+	if y < x.from || y > x.to {
+		return false
+	}
+	i := y - x.from
+	tot := x.totals[i]
+	has := !math.IsNaN(tot)
+	if !has && x.needTotals || has && v > tot {
+		return false
+	}
+	years := x.cur.years
+	if years[i/64]&(1<<(i%64)) != 0 {
+		return false
+	}
+	r.rows++
+	years[i/64] |= 1 << (i % 64)
+	a := x.cur.a
+	a.total += v
+	if r.keep {
+		if c := &a.counts[i]; math.IsNaN(*c) {
+			*c = v
+		} else {
+			*c += v
+		}
+	}
+	return true
+}
+
+// row checks and adds one row, rec, read from line. It reports false
+// when reading must stop (too many errors).
+func (x *tally) row(rec [][]byte, line int) bool {
+	r, s, t := x.r, x.r.spec, x.t
+	tc, yc, cc := x.tc, x.yc, x.cc
+	r.rows++
+	term := bytes.TrimSpace(rec[tc])
+	if len(term) == 0 {
+		return r.errs.Add(t.at(tc), "the term is empty")
+	}
+	// A term is checked once a run: the row before's term (the key
+	// cache's) was valid.
+	if string(term) != r.lastRaw || r.lastKey == "" {
+		if msg := checkTerm(term); msg != "" {
+			return r.errs.Add(t.at(tc), "%s", msg)
+		}
+	}
+	field := yc // the field a problem is in
+	y, msg := parseYear(rec[yc])
+	if msg == "" && (y < s.Years.From || y > s.Years.To) {
+		msg = fmt.Sprintf("year %d is outside the span %d–%d set at %s", y, s.Years.From, s.Years.To, s.Where("years"))
+	}
+	var v float64
+	if msg == "" {
+		field = cc
+		if v, msg = parseNumber(rec[cc]); msg != "" {
+			msg = fmt.Sprintf("count for %q in %d: %s", term, y, msg)
+		}
+	}
+	if msg == "" {
+		tot := x.totals[y-s.Years.From]
+		has := !math.IsNaN(tot)
+		switch {
+		case !has && x.needTotals:
+			field = yc
+			msg = fmt.Sprintf("%q has a count in %d but the totals table has no total for %d; %s scaling needs it", term, y, y, s.Scale.Mode)
+		case has && v > tot:
+			msg = fmt.Sprintf("count %g for %q in %d is more than that year's total %g", v, term, y, tot)
+		}
+	}
+	if msg != "" {
+		return r.errs.Add(t.at(field), "%s", msg)
+	}
+	k := r.keyOf(term)
+	a := x.last
+	created := false
+	if k != x.lastKey {
+		if a = x.aggs[k]; a == nil {
+			created = true
+			a = &agg{term: norm.NFC.String(string(term)), years: make([]uint64, (x.span+63)/64), line: line, idx: -1}
+			x.aggs[k] = a
+			x.order = append(x.order, k)
+			if r.keep && x.limit >= 0 && len(x.order) > x.limit {
+				r.keep = false // read again for the selected terms
+				for _, a := range x.aggs {
+					a.counts = nil
+				}
+			}
+			if r.keep {
+				a.counts = make([]float64, x.span)
+				copy(a.counts, x.empty)
+			}
+		}
+		x.last, x.lastKey = a, k
+	}
+	// A second row for the same spelling and year is a mistake; with
+	// fold-case, spellings that differ in case are added together.
+	years := a.years
+	if r.fold {
+		sp := norm.NFC.String(string(term))
+		if years = x.spellings[sp]; years == nil {
+			years = make([]uint64, (x.span+63)/64)
+			x.spellings[sp] = years
+		}
+	}
+	// The key, the agg and the spelling are the term's alone (keyOf left
+	// the term in r.lastRaw): add can take its further rows, those of
+	// its run from cur and, once it comes back after other terms (an
+	// unsorted table), from seen.
+	x.cur = seenTerm{raw: r.lastRaw, a: a, years: years}
+	if !created {
+		if _, ok := x.seen[r.lastRaw]; !ok {
+			x.seen[r.lastRaw] = x.cur
+		}
+	}
+	i := y - s.Years.From
+	if years[i/64]&(1<<(i%64)) != 0 {
+		return r.errs.Add(t.at(yc), "%q has a second row for %d", term, y)
+	}
+	years[i/64] |= 1 << (i % 64)
+	a.total += v
+	if r.keep {
+		// As pass2 adds: see there.
+		if c := &a.counts[i]; math.IsNaN(*c) {
+			*c = v
+		} else {
+			*c += v
+		}
+	}
+	return true
 }
 
 // selectTerms applies the list, the rule and the exclusions, and returns
@@ -688,17 +895,18 @@ func (r *reader) selectTerms(aggs map[string]*agg, order []string) []string {
 			}
 		}
 		// Most used first; equal shares by term.
-		slices.SortStableFunc(cand, func(a, b *agg) int {
+		idx := stableOrder(len(cand), func(x, y int) int {
+			a, b := cand[x], cand[y]
 			if c := cmp.Compare(b.share, a.share); c != 0 {
 				return c
 			}
 			return strings.Compare(a.term, b.term)
 		})
-		if s.Terms.Top > 0 && len(cand) > s.Terms.Top {
-			cand = cand[:s.Terms.Top]
+		if s.Terms.Top > 0 && len(idx) > s.Terms.Top {
+			idx = idx[:s.Terms.Top]
 		}
-		for _, a := range cand {
-			sel = append(sel, keys[a])
+		for _, i := range idx {
+			sel = append(sel, keys[cand[i]])
 		}
 	}
 	for i, k := range sel {
@@ -774,19 +982,13 @@ func (r *reader) pass2(aggs map[string]*agg, selected []string) {
 	tc, yc, cc := t.cols["term"], t.cols["year"], t.cols["count"]
 	var a *agg
 	lastKey := ""
-	for {
-		rec, _, ok := t.next(r.errs)
-		if !ok {
-			break
-		}
-		if k := r.keyOf(bytes.TrimSpace(rec[tc])); k != lastKey || a == nil {
+	add := func(term []byte, y int, v float64) {
+		if k := r.keyOf(term); k != lastKey || a == nil {
 			a, lastKey = aggs[k], k
 		}
 		if a == nil || a.idx < 0 {
-			continue
+			return
 		}
-		y, _ := parseYear(rec[yc])
-		v, _ := parseNumber(rec[cc])
 		// Add, not set: with fold-case several spellings share a term. A
 		// gap year (NaN) takes the count as it is; only raw scaling
 		// lets counts into such years.
@@ -795,6 +997,48 @@ func (r *reader) pass2(aggs map[string]*agg, selected []string) {
 		} else {
 			*c += v
 		}
+	}
+	// The rows pass1 checked: runs of plain lines are read in place (as
+	// pass1 reads them, with tally.read), the rest as records.
+	x := &tally{t: t, tc: tc, yc: yc, cc: cc}
+	c := t.csv
+	for {
+		if !r.noBlocks {
+			if b, first := c.block(); b != nil {
+				for n := first; len(b) > 0; n++ {
+					nl := bytes.IndexByte(b, '\n')
+					line := b[:nl]
+					b = b[nl+1:]
+					if k := len(line); k > 0 && line[k-1] == '\r' {
+						line = line[:k-1] // CRLF is read as LF
+					}
+					if term, y, v, ok := x.read(line); ok {
+						add(term, y, v)
+						continue
+					}
+					if !c.splitAt(line, n) {
+						continue // blank
+					}
+					switch t.check(c.rec, n, r.errs) {
+					case rowStop:
+						return
+					case rowSkip:
+						continue
+					}
+					y, _ := parseYear(c.rec[yc])
+					v, _ := parseNumber(c.rec[cc])
+					add(bytes.TrimSpace(c.rec[tc]), y, v)
+				}
+				continue
+			}
+		}
+		rec, _, ok := t.next(r.errs)
+		if !ok {
+			break
+		}
+		y, _ := parseYear(rec[yc])
+		v, _ := parseNumber(rec[cc])
+		add(bytes.TrimSpace(rec[tc]), y, v)
 	}
 }
 

@@ -509,7 +509,14 @@ func TestTopAndExclude(t *testing.T) {
 
 // bigFeature writes a counts table of terms × years rows (deterministic
 // invented words and counts) and returns the spec path and the file size.
+// The spec selects the top 24 terms.
 func bigFeature(t testing.TB, terms, years int) (string, int64) {
+	return bigFeatureWith(t, terms, years, "terms: {top: 24}\n")
+}
+
+// bigFeatureWith is bigFeature with the spec's selection and scaling
+// lines.
+func bigFeatureWith(t testing.TB, terms, years int, selection string) (string, int64) {
 	t.Helper()
 	dir := t.TempDir()
 	f, err := os.Create(filepath.Join(dir, "counts.csv"))
@@ -543,7 +550,7 @@ func bigFeature(t testing.TB, terms, years int) (string, int64) {
 	}
 	write(t, filepath.Join(dir, "totals.csv"), tot.String())
 	spec := filepath.Join(dir, "spec.yaml")
-	write(t, spec, fmt.Sprintf("title: T\ndata: {counts: counts.csv, totals: totals.csv}\nyears: {from: 1700, to: %d}\nterms: {top: 24}\noutputs: {print: {kind: print}}\n", 1700+years-1))
+	write(t, spec, fmt.Sprintf("title: T\ndata: {counts: counts.csv, totals: totals.csv}\nyears: {from: 1700, to: %d}\n%soutputs: {print: {kind: print}}\n", 1700+years-1, selection))
 	return spec, st.Size()
 }
 
@@ -619,6 +626,31 @@ func BenchmarkLoadLarge(b *testing.B) {
 	}
 	b.ReportMetric(float64(peak)/1e6, "peak-heap-MB")
 	b.ReportMetric(float64(size)/1e6, "file-MB")
+}
+
+// BenchmarkLoadCatalog reads a table the size of issue 22's catalog
+// (4,000 terms × 134 years, 536,000 rows) and selects every term as its
+// spec does: counts kept from the one read, own-peak values pooled over
+// 5 years, ordered by peak year. Read and Select are timed apart.
+func BenchmarkLoadCatalog(b *testing.B) {
+	spec, size := bigFeatureWith(b, 4000, 134, "terms: {top: 4000, min-total: 0}\norder: peak-year\nscale: {values: own-peak, y-range: shared, rolling: {years: 5}}\n")
+	s, err := specs.Load(spec)
+	require.NoError(b, err)
+	b.Run("read", func(b *testing.B) {
+		b.SetBytes(size)
+		for b.Loop() {
+			_, err := ReadTable(s)
+			require.NoError(b, err)
+		}
+	})
+	b.Run("select", func(b *testing.B) {
+		t, err := ReadTable(s)
+		require.NoError(b, err)
+		for b.Loop() {
+			_, err := t.Select(s)
+			require.NoError(b, err)
+		}
+	})
 }
 
 func BenchmarkLoadSmall(b *testing.B) {

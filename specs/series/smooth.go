@@ -35,30 +35,73 @@ func PoolInto(pooled, pooledExposure, counts, exposure []float64, years int) ([]
 	if years > 1 {
 		half = years / 2
 	}
-	gap := func(j int) bool { return math.IsNaN(counts[j]) || math.IsNaN(exposure[j]) }
 	for j := 0; j < n; {
-		if gap(j) {
+		if math.IsNaN(counts[j]) || math.IsNaN(exposure[j]) {
 			pooled[j], pooledExposure[j] = math.NaN(), math.NaN()
 			j++
 			continue
 		}
 		// The run of years with data that j starts: [start, end).
-		start, end := j, j
-		for end < n && !gap(end) {
+		end := j + 1
+		for end < n && !math.IsNaN(counts[end]) && !math.IsNaN(exposure[end]) {
 			end++
 		}
-		for i := start; i < end; i++ {
-			lo, hi := max(start, i-half), min(end-1, i+half)
-			var c, e float64
-			for k := lo; k <= hi; k++ {
-				c += counts[k]
-				e += exposure[k]
-			}
-			pooled[i], pooledExposure[i] = c, e
-		}
+		windowSums(pooled[j:end], counts[j:end], half)
+		windowSums(pooledExposure[j:end], exposure[j:end], half)
 		j = end
 	}
 	return pooled, pooledExposure
+}
+
+// windowSums sets each sums[i] to the sum of xs over the window of half
+// years either side of i, cut at the ends of xs: 0 plus xs[lo], plus
+// xs[lo+1], … up to xs[hi], in that order. When every x is a whole
+// number of at most 2^53 ÷ the window (counts and totals almost always
+// are), every partial sum is a whole number below 2^53, exact, so a
+// running sum that adds the year entering the window and subtracts the
+// one leaving gives those same sums in fewer steps.
+func windowSums(sums, xs []float64, half int) {
+	n := len(xs)
+	if half == 0 {
+		for i, x := range xs {
+			sums[i] = 0 + x // as the sum of one: 0 + -0 is +0
+		}
+		return
+	}
+	limit := float64(1<<53) / float64(2*half+1)
+	whole := true
+	for _, x := range xs {
+		// Within ±limit, x converts to int64 and back unchanged exactly
+		// when it is a whole number; NaN fails the first test.
+		if !(x >= -limit && x <= limit) || x != float64(int64(x)) {
+			whole = false
+			break
+		}
+	}
+	if !whole {
+		for i := range n {
+			lo, hi := max(0, i-half), min(n-1, i+half)
+			var c float64
+			for _, x := range xs[lo : hi+1] {
+				c += x
+			}
+			sums[i] = c
+		}
+		return
+	}
+	var c float64
+	for k := range min(half, n) {
+		c += xs[k]
+	}
+	for i := range n {
+		if k := i + half; k < n {
+			c += xs[k]
+		}
+		if k := i - half - 1; k >= 0 {
+			c -= xs[k]
+		}
+		sums[i] = c
+	}
 }
 
 // exposure is what a count is divided by in each year: the year's total
