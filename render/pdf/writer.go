@@ -740,6 +740,18 @@ func (w *Writer) Close() error {
 	return w.err
 }
 
+// Digest gives the SHA-256 and the size of the whole file, once Close
+// has succeeded: the writer hashes every byte for the /ID anyway, and the
+// trailer after it too, so a caller that records the file's hash (a
+// manifest) need not hash 10 MB a second time or read the file back.
+func (w *Writer) Digest() (sum [sha256.Size]byte, size int64, err error) {
+	if !w.closed || w.err != nil {
+		return sum, 0, errors.New("pdf: Digest before a successful Close")
+	}
+	w.hash.Sum(sum[:0])
+	return sum, w.n, nil
+}
+
 // writeFont embeds a font as a Type 0 font (ISO 32000-1 §9.7) with
 // Identity-H encoding, widths and a ToUnicode CMap: TrueType as a
 // CIDFontType2 descendant (CIDToGIDMap Identity, FontFile2), CFF as a

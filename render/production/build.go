@@ -6,6 +6,7 @@ import (
 	"context"
 	"crypto/sha256"
 	"encoding/binary"
+	"encoding/hex"
 	"errors"
 	"fmt"
 	"hash/crc32"
@@ -175,6 +176,11 @@ func Build(ctx context.Context, job *feature.Job, opts Options) (*Result, error)
 			return nil, err
 		}
 	}
+	// The terms' hashes (for the pages' inputs, screen outputs' and the
+	// manifest) are taken on the other core while fonts load and the
+	// layout and preflight run on this one.
+	terms := startTerms(ctx, job.Data)
+	defer terms.get() // no hashing left running after the build
 	var outs []*specs.Output
 	for i := range spec.Outputs {
 		o := &spec.Outputs[i]
@@ -284,7 +290,7 @@ func Build(ctx context.Context, job *feature.Job, opts Options) (*Result, error)
 	}
 	b := &build{ctx: ctx, j: job, final: final, shown: dir, date: opts.Date, only: opts.Only, noProofs: opts.NoProofs, full: opts.Full,
 		progress: opts.Progress, hooks: opts.Hooks, widths: widths, lentWidths: lentWidths, pre: pre, sums: map[string]fileSum{}, insertPreps: inserts,
-		findingsSum: res.FindingsSum, pages: pdf.NewPageEncoder()}
+		findingsSum: res.FindingsSum, pages: pdf.NewPageEncoder(), terms: terms}
 	files, err := b.run(preps)
 	if err != nil {
 		return res, err
@@ -365,9 +371,8 @@ type build struct {
 	widths       map[string][]byte // by output: its fonts' saved widths
 	lentWidths   map[string][]byte // by output not built whose inserts were laid out
 	pre          *prefetch
-	termsDone    chan struct{} // closed when termList and termMap are ready
-	termList     []TermHash    // termHashes of the data
-	termMap      map[string]string
+	terms        *termSet // hashed from the moment the data is read
+	fontSums     fontSums
 	sumsMu       sync.Mutex
 	sums         map[string]fileSum // files this build wrote, by slash path relative to the stage
 	stale        []string           // proofs a --no-proofs build did not keep (slash paths in DIR)
@@ -389,10 +394,7 @@ func (b *build) note(path string, m fileMeta) { b.meta[rel(b.stage.dir, path)] =
 
 // termSums maps every selected term to the hash of its data; it waits
 // for the hashing started with the build.
-func (b *build) termSums() map[string]string {
-	<-b.termsDone
-	return b.termMap
-}
+func (b *build) termSums() map[string]string { return b.terms.get().byTerm }
 
 // OutputStats counts what a build did for one output or insert.
 type OutputStats struct {
@@ -516,18 +518,6 @@ func (b *build) run(preps []*feature.Output) (files []string, err error) {
 			b.stage.abort()
 		}
 	}()
-	// The terms' hashes are for the manifest at the end, and for screen
-	// outputs' inputs: they are taken while print pages are drawn.
-	b.termsDone = make(chan struct{})
-	go func() {
-		defer close(b.termsDone)
-		b.termList = termHashes(b.ctx, b.j.Data)
-		b.termMap = make(map[string]string, len(b.termList))
-		for _, t := range b.termList {
-			b.termMap[t.Term] = t.SHA256
-		}
-	}()
-	defer func() { <-b.termsDone }() // no hashing left running after the build
 	b.meta = map[string]fileMeta{}
 	for _, p := range preps {
 		if err := b.ctx.Err(); err != nil {
@@ -551,7 +541,7 @@ func (b *build) run(preps []*feature.Output) (files []string, err error) {
 				return nil, err
 			}
 		}
-		b.fonts = append(b.fonts, fontHashes(p.Spec.Name, p.Fonts)...)
+		b.fonts = append(b.fonts, b.fontSums.hashes(p.Spec.Name, p.Fonts)...)
 		files = append(files, written...)
 	}
 	// Inserts are built here, into b.stage.dir, when the spec has them.
@@ -632,11 +622,12 @@ func (b *build) entryOf(p *feature.Output, dpi float64) (OutputEntry, error) {
 	if len(p.Plan.Pages) == 0 {
 		return e, nil
 	}
-	fontSum := fontsSum(p.Fonts)
+	fontSum := b.fontSums.sum(p.Fonts)
+	termSums := b.terms.get().bySeries
 	e.Pages = make([]PageEntry, len(p.Plan.Pages))
 	err := each(b.ctx, len(e.Pages), func(i int) (PageEntry, error) {
 		return PageEntry{Page: i + 1, Terms: pageTerms(b.j, p, i),
-			Inputs: pageInputs(b.j, p, i, b.setup(p, i), b.specSum, fontSum)}, nil
+			Inputs: pageInputs(b.j, p, i, b.setup(p, i), b.specSum, fontSum, termSums)}, nil
 	}, func(i int, pe PageEntry) error {
 		e.Pages[i] = pe
 		return nil
@@ -692,9 +683,12 @@ func (b *build) buildPrint(p *feature.Output) ([]string, error) {
 	pdfPath := filepath.Join(odir, out.Name+".pdf")
 	// Pages go into the PDF as they are ready, in order, while later ones
 	// are still being drawn.
+	// The PDF writer hashes what it writes (for the /ID): its digest is
+	// the manifest's, so the 10 MB are hashed once.
 	var encErr error
-	err = b.writeHashed(pdfPath, func(w io.Writer) error {
-		pw := pdf.NewWriter(w, pdf.Options{Title: b.j.Spec.Title, Version: Version, Date: b.date, Press: p.Press})
+	var pw *pdf.Writer
+	err = WriteAtomic(pdfPath, func(w io.Writer) error {
+		pw = pdf.NewWriter(w, pdf.Options{Title: b.j.Spec.Title, Version: Version, Date: b.date, Press: p.Press})
 		// Pages from the cache name their fonts by hash only.
 		for _, st := range []fonts.Style{fonts.Regular, fonts.Bold, fonts.Italic} {
 			if _, err := pw.RegisterFont(p.Fonts.Font(st)); err != nil {
@@ -712,6 +706,11 @@ func (b *build) buildPrint(p *feature.Output) ([]string, error) {
 	if err != nil {
 		return nil, err
 	}
+	sum, size, err := pw.Digest()
+	if err != nil {
+		return nil, err
+	}
+	b.known(pdfPath, fileSum{hex.EncodeToString(sum[:]), size})
 	b.note(pdfPath, fileMeta{pages: entry.Pages})
 	files := []string{pdfPath}
 	if b.noProofs {
@@ -1273,8 +1272,7 @@ func (b *build) manifest() (*Manifest, error) {
 		}
 		m.Data = append(m.Data, FileHash{Path: d, SHA256: fs.sum})
 	}
-	<-b.termsDone
-	m.Terms = b.termList
+	m.Terms = b.terms.get().list
 	m.Fonts = b.fonts
 	m.Inserts = b.inserts
 	m.Outputs = b.outputs
