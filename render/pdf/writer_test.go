@@ -221,3 +221,26 @@ func TestDigest(t *testing.T) {
 	_, _, err = empty.Digest()
 	assert.Error(t, err, "a digest after a failed Close")
 }
+
+// TestBlockHasher: blocks hashed on their own goroutines give the
+// SHA-256 (FIPS 180-4, here crypto/sha256 in one pass) of all the bytes
+// in the order written, though the caller reuses its buffer at once
+// (as bufio does) and more blocks are written than may wait at once.
+func TestBlockHasher(t *testing.T) {
+	var out bytes.Buffer
+	b := &blockHasher{w: &out, h: sha256.New(), inFlight: make(chan struct{}, 2), free: make(chan []byte, 2)}
+	buf := make([]byte, 0, 70000)
+	for i := range 200 {
+		buf = buf[:1+(i*7919)%70000]
+		for k := range buf {
+			buf[k] = byte(i*31 + k)
+		}
+		n, err := b.Write(buf)
+		require.NoError(t, err)
+		require.Equal(t, len(buf), n)
+		clear(buf) // the writer must have copied what it hashes
+	}
+	want := sha256.Sum256(out.Bytes())
+	assert.Equal(t, want[:], b.sum(nil), "blocks hashed in order, as written")
+	assert.Equal(t, want[:], b.sum(nil), "a second sum is the same")
+}

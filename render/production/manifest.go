@@ -369,33 +369,33 @@ func termSumWith(h *hasher, sr *series.Series) string {
 	return h.sum()
 }
 
-// termHashes hashes every term, on all cores: ten thousand terms of two
-// hundred years are megabytes of SHA-256. Cancelled, it returns what it
-// has (the build is stopping).
+// termHashes hashes every term, sorted by term. Cancelled, it returns
+// what it has (the build is stopping).
 func termHashes(ctx context.Context, d *series.Set) []TermHash {
 	ts := termHashesInOrder(ctx, d)
 	sort.Slice(ts, func(i, j int) bool { return ts[i].Term < ts[j].Term })
 	return ts
 }
 
-// termHashesInOrder is termHashes in the data's order of series.
+// termHashesInOrder is termHashes in the data's order of series, on one
+// goroutine: it runs beside the build's one busy goroutine (layout,
+// preflight), on the core that one leaves idle, and ten thousand terms
+// of two hundred years are a few megabytes of SHA-256, done long before
+// the pages want them.
 func termHashesInOrder(ctx context.Context, d *series.Set) []TermHash {
 	ts := make([]TermHash, len(d.Series))
-	// In runs of terms, one hasher and one buffer a run: a hasher a term
-	// was megabytes of fresh memory for the catalog's 4,000 terms.
-	const run = 64
-	each(ctx, (len(ts)+run-1)/run, func(k int) (struct{}, error) {
-		h := newHasher(termKind)
-		for i := k * run; i < min(len(ts), (k+1)*run); i++ {
-			ts[i] = TermHash{Term: d.Series[i].Term, SHA256: termSumWith(h, &d.Series[i]), Peak: d.Series[i].PeakYear}
+	h := newHasher(termKind) // one hasher and buffer for all: one a term was megabytes of fresh memory
+	for i := range ts {
+		if i%256 == 0 && ctx.Err() != nil {
+			return ts
 		}
-		return struct{}{}, nil
-	}, func(int, struct{}) error { return nil })
+		ts[i] = TermHash{Term: d.Series[i].Term, SHA256: termSumWith(h, &d.Series[i]), Peak: d.Series[i].PeakYear}
+	}
 	return ts
 }
 
-// termSet is the hashes of every selected term, taken on all cores from
-// the moment the data is read (startTerms) while the layout and
+// termSet is the hashes of every selected term, taken on the other core
+// from the moment the data is read (startTerms) while the layout and
 // preflight run: the pages' inputs, screen outputs' and the manifest
 // wait for them (get).
 type termSet struct {

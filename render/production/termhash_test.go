@@ -12,10 +12,10 @@ import (
 	"sheaf/specs/series"
 )
 
-// TestTermHashesInRuns: hashing terms in runs with one hasher gives each
-// term the hash it has alone (termSum), for counts that do not divide
-// into runs evenly and series of unequal lengths (a reused buffer must
-// not leak one term's bytes into the next).
+// TestTermHashesInRuns: hashing terms one after another with one hasher
+// gives each term the hash it has alone (termSum), for series of unequal
+// lengths (a reused buffer must not leak one term's bytes into the
+// next).
 func TestTermHashesInRuns(t *testing.T) {
 	d := termData(150)
 	got := termHashes(context.Background(), d)
