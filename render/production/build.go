@@ -578,7 +578,15 @@ func (b *build) run(preps []*feature.Output) (files []string, err error) {
 	}
 	// The manifest is written while the change report is made from it.
 	wrote := make(chan error, 1)
-	go func() { wrote <- writeJSONFile(filepath.Join(b.stage.dir, ManifestFile), m) }()
+	go func() {
+		wrote <- WriteAtomic(filepath.Join(b.stage.dir, ManifestFile), func(w io.Writer) error {
+			j, err := appendManifest(nil, m)
+			if err == nil {
+				_, err = w.Write(j)
+			}
+			return err
+		})
+	}()
 	b.changes = compareManifests(b.prev, m, b.stats)
 	sort.Strings(b.stale)
 	b.changes.Stale = append(b.changes.Stale, b.stale...)
