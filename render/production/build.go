@@ -16,6 +16,7 @@ import (
 	"maps"
 	"os"
 	"path/filepath"
+	"runtime/debug"
 	"slices"
 	"sort"
 	"strings"
@@ -171,16 +172,6 @@ func Build(ctx context.Context, job *feature.Job, opts Options) (*Result, error)
 	spec := job.Spec
 	pre := startPrefetch(final, spec, !opts.Full)
 	defer pre.stop() // no reading left running after the build
-	if job.Data == nil {
-		if job, err = feature.LoadData(spec); err != nil {
-			return nil, err
-		}
-	}
-	// The terms' hashes (for the pages' inputs, screen outputs' and the
-	// manifest) are taken on the other core while fonts load and the
-	// layout and preflight run on this one.
-	terms := startTerms(ctx, job.Data)
-	defer terms.get() // no hashing left running after the build
 	var outs []*specs.Output
 	for i := range spec.Outputs {
 		o := &spec.Outputs[i]
@@ -188,6 +179,41 @@ func Build(ctx context.Context, job *feature.Job, opts Options) (*Result, error)
 			outs = append(outs, o)
 		}
 	}
+	// The outputs' fonts, and the text widths the last build saved, load
+	// on the other core while the table is read on this one: both are
+	// needed before anything is laid out. Errors are the fonts' own, met
+	// again (fonts that failed are not kept) where they are reported.
+	warmed := false
+	if job.Data == nil {
+		job = &feature.Job{Spec: spec}
+		warm := make(chan string, 1)
+		go func() {
+			defer func() {
+				if p := recover(); p != nil {
+					warm <- fmt.Sprintf("%v\n\nin the goroutine loading fonts:\n%s", p, debug.Stack())
+				}
+				close(warm)
+			}()
+			for _, o := range outs {
+				if fs, err := job.Fonts(o); err == nil && !opts.Full {
+					loadWidths(final, o.Name, fs)
+				}
+			}
+		}()
+		err := job.ReadData()
+		if p, ok := <-warm; ok {
+			panic(p) // raised here, where it was before, with the stack it had
+		}
+		if err != nil {
+			return nil, err
+		}
+		warmed = true
+	}
+	// The terms' hashes (for the pages' inputs, screen outputs' and the
+	// manifest) are taken on the other core while fonts load and the
+	// layout and preflight run on this one.
+	terms := startTerms(ctx, job.Data)
+	defer terms.get() // no hashing left running after the build
 	if len(outs) == 0 {
 		var names []string
 		for _, o := range spec.Outputs {
@@ -205,7 +231,9 @@ func Build(ctx context.Context, job *feature.Job, opts Options) (*Result, error)
 			if err != nil {
 				return nil, err
 			}
-			loadWidths(final, o.Name, fs)
+			if !warmed {
+				loadWidths(final, o.Name, fs)
+			}
 		}
 	}
 	// Prepare every output first: bad input stops the build before any
