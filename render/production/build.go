@@ -170,8 +170,6 @@ func Build(ctx context.Context, job *feature.Job, opts Options) (*Result, error)
 		return nil, err
 	}
 	spec := job.Spec
-	pre := startPrefetch(final, spec, !opts.Full)
-	defer pre.stop() // no reading left running after the build
 	var outs []*specs.Output
 	for i := range spec.Outputs {
 		o := &spec.Outputs[i]
@@ -180,34 +178,32 @@ func Build(ctx context.Context, job *feature.Job, opts Options) (*Result, error)
 		}
 	}
 	// The outputs' fonts, and the text widths the last build saved, load
-	// on the other core while the table is read on this one: both are
-	// needed before anything is laid out. Errors are the fonts' own, met
-	// again (fonts that failed are not kept) where they are reported.
-	warmed := false
-	if job.Data == nil {
+	// on the other core while the table is read on this one, before the
+	// rest of what is read from the last build: both are needed before
+	// anything is laid out. Errors are the fonts' own, met again (fonts
+	// that failed are not kept) where they are reported.
+	var warm func()
+	loaded := job.Data != nil
+	if !loaded {
 		job = &feature.Job{Spec: spec}
-		warm := make(chan string, 1)
-		go func() {
-			defer func() {
-				if p := recover(); p != nil {
-					warm <- fmt.Sprintf("%v\n\nin the goroutine loading fonts:\n%s", p, debug.Stack())
-				}
-				close(warm)
-			}()
+		warm = func() {
 			for _, o := range outs {
 				if fs, err := job.Fonts(o); err == nil && !opts.Full {
 					loadWidths(final, o.Name, fs)
 				}
 			}
-		}()
+		}
+	}
+	pre := startPrefetch(final, spec, !opts.Full, warm)
+	defer pre.stop() // no reading left running after the build
+	if !loaded {
 		err := job.ReadData()
-		if p, ok := <-warm; ok {
+		if p, ok := <-pre.warmed; ok {
 			panic(p) // raised here, where it was before, with the stack it had
 		}
 		if err != nil {
 			return nil, err
 		}
-		warmed = true
 	}
 	// The terms' hashes (for the pages' inputs, screen outputs' and the
 	// manifest) are taken on the other core while fonts load and the
@@ -231,7 +227,7 @@ func Build(ctx context.Context, job *feature.Job, opts Options) (*Result, error)
 			if err != nil {
 				return nil, err
 			}
-			if !warmed {
+			if loaded {
 				loadWidths(final, o.Name, fs)
 			}
 		}
@@ -951,6 +947,7 @@ const maxCachedPage = 1 << 30
 // core's work; this is the other's.
 type prefetch struct {
 	done         chan struct{}
+	warmed       chan string   // closed when the first work is done; a panic in it, with its stack, first
 	manifestRead chan struct{} // closed when prev and prevErr are set
 	stopped      atomic.Bool
 	prev         *Manifest
@@ -964,10 +961,24 @@ type fileSum struct {
 	size int64
 }
 
-func startPrefetch(dir string, s *specs.Spec, pages bool) *prefetch {
-	p := &prefetch{done: make(chan struct{}), manifestRead: make(chan struct{}), data: map[string]fileSum{}, pages: map[string]*pdf.EncodedPage{}}
+// startPrefetch starts the reading; first (when not nil) runs before it,
+// on the same goroutine: one goroutine beside the build's keeps the build
+// its core.
+func startPrefetch(dir string, s *specs.Spec, pages bool, first func()) *prefetch {
+	p := &prefetch{done: make(chan struct{}), warmed: make(chan string, 1), manifestRead: make(chan struct{}), data: map[string]fileSum{}, pages: map[string]*pdf.EncodedPage{}}
 	go func() {
 		defer close(p.done)
+		func() {
+			defer func() {
+				if r := recover(); r != nil {
+					p.warmed <- fmt.Sprintf("%v\n\nin the goroutine reading beside the data:\n%s", r, debug.Stack())
+				}
+				close(p.warmed)
+			}()
+			if first != nil {
+				first()
+			}
+		}()
 		p.prev, p.prevErr = ReadManifest(dir)
 		close(p.manifestRead)
 		if p.stopped.Load() {
