@@ -431,14 +431,9 @@ func (t *termSet) get() *termSet {
 	return t
 }
 
-// fontHashes lists the fonts of an output with the hash of their raw
-// bytes; the built-in Go fonts too, so a sheaf upgrade that changes them
-// shows.
-func fontHashes(output string, fs *fonts.Set) []FontHash {
-	return fontHashesOf(output, fs, fontSHA256s(fs))
-}
-
-// fontHashesOf is fontHashes with the fonts' hashes already taken.
+// fontHashesOf lists the fonts of an output with the hash of their raw
+// bytes (sums, in fontStyles' order); the built-in Go fonts too, so a
+// sheaf upgrade that changes them shows.
 func fontHashesOf(output string, fs *fonts.Set, sums [3]string) []FontHash {
 	var out []FontHash
 	for k, st := range fontStyles {

@@ -2,6 +2,8 @@ package production
 
 import (
 	"context"
+	"crypto/sha256"
+	"encoding/hex"
 	"fmt"
 	"reflect"
 	"testing"
@@ -10,6 +12,7 @@ import (
 	"github.com/stretchr/testify/require"
 
 	"sheaf/layout"
+	"sheaf/layout/fonts"
 	"sheaf/palette/press"
 	"sheaf/render/pdf"
 )
@@ -148,4 +151,29 @@ func TestStartTerms(t *testing.T) {
 		assert.Equal(t, want, ts.byTerm[d.Series[i].Term], "term %q", d.Series[i].Term)
 	}
 	assert.Equal(t, termHashes(context.Background(), termData(40)), ts.list)
+}
+
+// TestFontSums: a build's font hashes are the SHA-256 (FIPS 180-4, here
+// crypto/sha256) of each style's bytes, in the manifest's order regular,
+// bold, italic, taken once per Set and given again unchanged.
+func TestFontSums(t *testing.T) {
+	j := demoJob(t, "")
+	fs, err := j.Fonts(&j.Spec.Outputs[0])
+	require.NoError(t, err)
+	var c fontSums
+	got := c.hashes("print", fs)
+	require.Len(t, got, 3)
+	var sums [3]string
+	for k, st := range []fonts.Style{fonts.Regular, fonts.Bold, fonts.Italic} {
+		s := sha256.Sum256(fs.Bytes(st))
+		sums[k] = hex.EncodeToString(s[:])
+		assert.Equal(t, FontHash{Output: "print", Style: st.String(), Name: fs.Name(st), Path: fs.Path(st), SHA256: sums[k]}, got[k])
+	}
+	h := newHasher("sheaf fonts v1")
+	for _, s := range sums {
+		h.str(s)
+	}
+	assert.Equal(t, h.sum(), c.sum(fs), "one hash over the three, as pages' inputs had it")
+	assert.Equal(t, got, c.hashes("print", fs), "the same a second time")
+	assert.NotEqual(t, sums[0], sums[1], "regular and bold are different files")
 }

@@ -75,9 +75,7 @@ func pageInputs(j *feature.Job, p *feature.Output, i int, setup pdf.PageSetup, s
 	return h.sum()
 }
 
-// fontsSum is one hash over the SHA-256 of each of an output's fonts.
-func fontsSum(fs *fonts.Set) string { return fontsSumOf(fontSHA256s(fs)) }
-
+// fontsSumOf is one hash over the SHA-256 of each of an output's fonts.
 func fontsSumOf(sums [3]string) string {
 	h := newHasher("sheaf fonts v1")
 	for _, s := range sums {
@@ -120,10 +118,11 @@ func (c *fontSums) of(fs *fonts.Set) [3]string {
 	return s
 }
 
-// sum is fontsSum(fs).
+// sum is one hash over the SHA-256 of each of fs's fonts (fontsSumOf).
 func (c *fontSums) sum(fs *fonts.Set) string { return fontsSumOf(c.of(fs)) }
 
-// hashes is fontHashes(output, fs).
+// hashes lists the fonts of an output with the hash of their bytes
+// (fontHashesOf).
 func (c *fontSums) hashes(output string, fs *fonts.Set) []FontHash {
 	return fontHashesOf(output, fs, c.of(fs))
 }
