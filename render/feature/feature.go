@@ -112,6 +112,19 @@ func (j *Job) loadFontsAhead() {
 	}()
 }
 
+// ReadData reads the data tables into j, whose Data is nil, as LoadData
+// does, and keeps the fonts j has loaded: a caller may load them
+// (Fonts) on another goroutine while the table is read, since neither
+// reads what the other writes.
+func (j *Job) ReadData() error {
+	d, err := LoadData(j.Spec)
+	if err != nil {
+		return err
+	}
+	j.Data, j.table = d.Data, d.table
+	return nil
+}
+
 // Fonts gives out's fonts, loaded once for the job: Prepare and the
 // inserts that borrow out get the same Set, so a caller can first give
 // it what an earlier run knew (fonts.Set.LoadWidths) and the layout

@@ -119,7 +119,7 @@ const (
 // when Close succeeds.
 type Writer struct {
 	out  *bufio.Writer
-	hash hash.Hash
+	hash *blockHasher
 	n    int64
 
 	opts    Options
@@ -169,7 +169,6 @@ type pending struct {
 func NewWriter(w io.Writer, opts Options) *Writer {
 	procs := runtime.GOMAXPROCS(0)
 	pw := &Writer{
-		hash:      sha256.New(),
 		opts:      opts,
 		level:     opts.Compression,
 		nextObj:   firstFreeObj,
@@ -184,7 +183,8 @@ func NewWriter(w io.Writer, opts Options) *Writer {
 		sem:       make(chan struct{}, procs),
 		window:    2 * procs,
 	}
-	pw.out = bufio.NewWriterSize(io.MultiWriter(w, pw.hash), 256<<10)
+	pw.hash = &blockHasher{w: w, h: sha256.New(), inFlight: make(chan struct{}, 8), free: make(chan []byte, 8)}
+	pw.out = bufio.NewWriterSize(pw.hash, 256<<10)
 	if sf := slugFont(); sf != nil {
 		pw.registry[sf.key] = sf
 	}
@@ -729,7 +729,7 @@ func (w *Writer) Close() error {
 	}
 	// /ID: a digest of everything before the trailer (§14.4; PDF/X
 	// requires it). Both halves are equal for a newly made file.
-	id := fmt.Sprintf("%X", w.hash.Sum(nil)[:16])
+	id := fmt.Sprintf("%X", w.hash.sum(nil)[:16])
 	w.write([]byte(fmt.Sprintf("trailer\n<< /Size %d /Root %s /Info %s /ID [<%s> <%s>] >>\nstartxref\n%d\n%%%%EOF\n",
 		len(w.offsets), ref(objCatalog), ref(objInfo), id, id, xref)))
 	if w.err == nil {
@@ -738,6 +738,70 @@ func (w *Writer) Close() error {
 		}
 	}
 	return w.err
+}
+
+// Digest gives the SHA-256 and the size of the whole file, once Close
+// has succeeded: the writer hashes every byte for the /ID anyway, and the
+// trailer after it too, so a caller that records the file's hash (a
+// manifest) need not hash 10 MB a second time or read the file back.
+func (w *Writer) Digest() (sum [sha256.Size]byte, size int64, err error) {
+	if !w.closed || w.err != nil {
+		return sum, 0, errors.New("pdf: Digest before a successful Close")
+	}
+	w.hash.sum(sum[:0])
+	return sum, w.n, nil
+}
+
+// blockHasher writes through to w and hashes each block written on
+// another goroutine, blocks in order, so that the SHA-256 of a 10 MB
+// file (the /ID, and Digest) overlaps the writing instead of following
+// it. A block's goroutine ends when the block is hashed: a writer given
+// up after an error leaves nothing running. At most cap(inFlight) blocks
+// wait to be hashed at once.
+type blockHasher struct {
+	w        io.Writer
+	h        hash.Hash
+	last     chan struct{} // closed when every block handed over is hashed
+	inFlight chan struct{}
+	free     chan []byte // hashed blocks' memory, for the next
+}
+
+func (b *blockHasher) Write(p []byte) (int, error) {
+	n, err := b.w.Write(p)
+	if n == 0 {
+		return n, err
+	}
+	var c []byte
+	select {
+	case c = <-b.free:
+	default:
+	}
+	c = append(c[:0], p[:n]...)
+	prev, done := b.last, make(chan struct{})
+	b.last = done
+	b.inFlight <- struct{}{}
+	go func() {
+		if prev != nil {
+			<-prev
+		}
+		b.h.Write(c)
+		select {
+		case b.free <- c:
+		default:
+		}
+		<-b.inFlight
+		close(done)
+	}()
+	return n, err
+}
+
+// sum waits for the blocks written so far and appends their SHA-256 to
+// in.
+func (b *blockHasher) sum(in []byte) []byte {
+	if b.last != nil {
+		<-b.last
+	}
+	return b.h.Sum(in)
 }
 
 // writeFont embeds a font as a Type 0 font (ISO 32000-1 §9.7) with

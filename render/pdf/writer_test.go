@@ -2,6 +2,7 @@ package pdf
 
 import (
 	"bytes"
+	"crypto/sha256"
 	"encoding/gob"
 	"errors"
 	"math"
@@ -14,6 +15,7 @@ import (
 	"github.com/stretchr/testify/require"
 	"github.com/tdewolff/canvas"
 	"golang.org/x/image/font/gofont/gobold"
+	"golang.org/x/image/font/gofont/goregular"
 )
 
 func TestAppendNum(t *testing.T) {
@@ -195,4 +197,50 @@ func TestStitchingFunction(t *testing.T) {
 	}
 	_, err := stitching([]Stop{{0.5, 0, 0, 0, nil}, {0.2, 0, 0, 0, nil}})
 	assert.Error(t, err, "stops out of order accepted")
+}
+
+// TestDigest: the writer's digest is the SHA-256 (FIPS 180-4, here
+// crypto/sha256 over the bytes written) and the length of the whole file,
+// trailer included, and it is given only after a successful Close.
+func TestDigest(t *testing.T) {
+	reg, bold := loadFont(t, goregular.TTF), loadFont(t, gobold.TTF)
+	var buf bytes.Buffer
+	w := NewWriter(&buf, Options{Title: "Digest", Date: testDate})
+	require.NoError(t, w.AddPage(PageSetup{Boxes: a5Boxes()}, testDrawing(reg, bold)))
+	_, _, err := w.Digest()
+	require.Error(t, err, "a digest before Close")
+	require.NoError(t, w.Close())
+	sum, size, err := w.Digest()
+	require.NoError(t, err)
+	assert.Equal(t, sha256.Sum256(buf.Bytes()), sum, "the digest, and SHA-256 of the bytes written")
+	assert.Equal(t, int64(buf.Len()), size, "the size, and the bytes written")
+	assert.True(t, bytes.HasSuffix(buf.Bytes(), []byte("%%EOF\n")), "the file ends with its trailer")
+
+	empty := NewWriter(&bytes.Buffer{}, Options{})
+	require.Error(t, empty.Close())
+	_, _, err = empty.Digest()
+	assert.Error(t, err, "a digest after a failed Close")
+}
+
+// TestBlockHasher: blocks hashed on their own goroutines give the
+// SHA-256 (FIPS 180-4, here crypto/sha256 in one pass) of all the bytes
+// in the order written, though the caller reuses its buffer at once
+// (as bufio does) and more blocks are written than may wait at once.
+func TestBlockHasher(t *testing.T) {
+	var out bytes.Buffer
+	b := &blockHasher{w: &out, h: sha256.New(), inFlight: make(chan struct{}, 2), free: make(chan []byte, 2)}
+	buf := make([]byte, 0, 70000)
+	for i := range 200 {
+		buf = buf[:1+(i*7919)%70000]
+		for k := range buf {
+			buf[k] = byte(i*31 + k)
+		}
+		n, err := b.Write(buf)
+		require.NoError(t, err)
+		require.Equal(t, len(buf), n)
+		clear(buf) // the writer must have copied what it hashes
+	}
+	want := sha256.Sum256(out.Bytes())
+	assert.Equal(t, want[:], b.sum(nil), "blocks hashed in order, as written")
+	assert.Equal(t, want[:], b.sum(nil), "a second sum is the same")
 }

@@ -6,6 +6,7 @@ import (
 	"context"
 	"crypto/sha256"
 	"encoding/binary"
+	"encoding/hex"
 	"errors"
 	"fmt"
 	"hash/crc32"
@@ -15,6 +16,7 @@ import (
 	"maps"
 	"os"
 	"path/filepath"
+	"runtime/debug"
 	"slices"
 	"sort"
 	"strings"
@@ -168,13 +170,6 @@ func Build(ctx context.Context, job *feature.Job, opts Options) (*Result, error)
 		return nil, err
 	}
 	spec := job.Spec
-	pre := startPrefetch(final, spec, !opts.Full)
-	defer pre.stop() // no reading left running after the build
-	if job.Data == nil {
-		if job, err = feature.LoadData(spec); err != nil {
-			return nil, err
-		}
-	}
 	var outs []*specs.Output
 	for i := range spec.Outputs {
 		o := &spec.Outputs[i]
@@ -182,6 +177,39 @@ func Build(ctx context.Context, job *feature.Job, opts Options) (*Result, error)
 			outs = append(outs, o)
 		}
 	}
+	// The outputs' fonts, and the text widths the last build saved, load
+	// on the other core while the table is read on this one, before the
+	// rest of what is read from the last build: both are needed before
+	// anything is laid out. Errors are the fonts' own, met again (fonts
+	// that failed are not kept) where they are reported.
+	var warm func()
+	loaded := job.Data != nil
+	if !loaded {
+		job = &feature.Job{Spec: spec}
+		warm = func() {
+			for _, o := range outs {
+				if fs, err := job.Fonts(o); err == nil && !opts.Full {
+					loadWidths(final, o.Name, fs)
+				}
+			}
+		}
+	}
+	pre := startPrefetch(final, spec, !opts.Full, warm)
+	defer pre.stop() // no reading left running after the build
+	if !loaded {
+		err := job.ReadData()
+		if p, ok := <-pre.warmed; ok {
+			panic(p) // raised here, where it was before, with the stack it had
+		}
+		if err != nil {
+			return nil, err
+		}
+	}
+	// The terms' hashes (for the pages' inputs, screen outputs' and the
+	// manifest) are taken on the other core while fonts load and the
+	// layout and preflight run on this one.
+	terms := startTerms(ctx, job.Data)
+	defer terms.get() // no hashing left running after the build
 	if len(outs) == 0 {
 		var names []string
 		for _, o := range spec.Outputs {
@@ -199,7 +227,9 @@ func Build(ctx context.Context, job *feature.Job, opts Options) (*Result, error)
 			if err != nil {
 				return nil, err
 			}
-			loadWidths(final, o.Name, fs)
+			if loaded {
+				loadWidths(final, o.Name, fs)
+			}
 		}
 	}
 	// Prepare every output first: bad input stops the build before any
@@ -299,7 +329,7 @@ func Build(ctx context.Context, job *feature.Job, opts Options) (*Result, error)
 	}
 	b := &build{ctx: ctx, j: job, final: final, shown: dir, date: opts.Date, only: opts.Only, noProofs: opts.NoProofs, full: opts.Full,
 		progress: opts.Progress, hooks: opts.Hooks, widths: widths, lentWidths: lentWidths, pre: pre, sums: map[string]fileSum{}, insertPreps: inserts,
-		findingsSum: res.FindingsSum, pages: pdf.NewPageEncoder()}
+		findingsSum: res.FindingsSum, pages: pdf.NewPageEncoder(), terms: terms}
 	files, err := b.run(preps)
 	if err != nil {
 		return res, err
@@ -380,9 +410,8 @@ type build struct {
 	widths       map[string][]byte // by output: its fonts' saved widths
 	lentWidths   map[string][]byte // by output not built whose inserts were laid out
 	pre          *prefetch
-	termsDone    chan struct{} // closed when termList and termMap are ready
-	termList     []TermHash    // termHashes of the data
-	termMap      map[string]string
+	terms        *termSet // hashed from the moment the data is read
+	fontSums     fontSums
 	sumsMu       sync.Mutex
 	sums         map[string]fileSum // files this build wrote, by slash path relative to the stage
 	stale        []string           // proofs a --no-proofs build did not keep (slash paths in DIR)
@@ -404,10 +433,7 @@ func (b *build) note(path string, m fileMeta) { b.meta[rel(b.stage.dir, path)] =
 
 // termSums maps every selected term to the hash of its data; it waits
 // for the hashing started with the build.
-func (b *build) termSums() map[string]string {
-	<-b.termsDone
-	return b.termMap
-}
+func (b *build) termSums() map[string]string { return b.terms.get().byTerm }
 
 // OutputStats counts what a build did for one output or insert.
 type OutputStats struct {
@@ -531,18 +557,6 @@ func (b *build) run(preps []*feature.Output) (files []string, err error) {
 			b.stage.abort()
 		}
 	}()
-	// The terms' hashes are for the manifest at the end, and for screen
-	// outputs' inputs: they are taken while print pages are drawn.
-	b.termsDone = make(chan struct{})
-	go func() {
-		defer close(b.termsDone)
-		b.termList = termHashes(b.ctx, b.j.Data)
-		b.termMap = make(map[string]string, len(b.termList))
-		for _, t := range b.termList {
-			b.termMap[t.Term] = t.SHA256
-		}
-	}()
-	defer func() { <-b.termsDone }() // no hashing left running after the build
 	b.meta = map[string]fileMeta{}
 	for _, p := range preps {
 		if err := b.ctx.Err(); err != nil {
@@ -566,7 +580,7 @@ func (b *build) run(preps []*feature.Output) (files []string, err error) {
 				return nil, err
 			}
 		}
-		b.fonts = append(b.fonts, fontHashes(p.Spec.Name, p.Fonts)...)
+		b.fonts = append(b.fonts, b.fontSums.hashes(p.Spec.Name, p.Fonts)...)
 		files = append(files, written...)
 	}
 	// Inserts are built here, into b.stage.dir, when the spec has them.
@@ -603,7 +617,15 @@ func (b *build) run(preps []*feature.Output) (files []string, err error) {
 	}
 	// The manifest is written while the change report is made from it.
 	wrote := make(chan error, 1)
-	go func() { wrote <- writeJSONFile(filepath.Join(b.stage.dir, ManifestFile), m) }()
+	go func() {
+		wrote <- WriteAtomic(filepath.Join(b.stage.dir, ManifestFile), func(w io.Writer) error {
+			j, err := appendManifest(nil, m)
+			if err == nil {
+				_, err = w.Write(j)
+			}
+			return err
+		})
+	}()
 	b.changes = compareManifests(b.prev, m, b.stats)
 	sort.Strings(b.stale)
 	b.changes.Stale = append(b.changes.Stale, b.stale...)
@@ -647,11 +669,12 @@ func (b *build) entryOf(p *feature.Output, dpi float64) (OutputEntry, error) {
 	if len(p.Plan.Pages) == 0 {
 		return e, nil
 	}
-	fontSum := fontsSum(p.Fonts)
+	fontSum := b.fontSums.sum(p.Fonts)
+	termSums := b.terms.get().bySeries
 	e.Pages = make([]PageEntry, len(p.Plan.Pages))
 	err := each(b.ctx, len(e.Pages), func(i int) (PageEntry, error) {
 		return PageEntry{Page: i + 1, Terms: pageTerms(b.j, p, i),
-			Inputs: pageInputs(b.j, p, i, b.setup(p, i), b.specSum, fontSum)}, nil
+			Inputs: pageInputs(b.j, p, i, b.setup(p, i), b.specSum, fontSum, termSums)}, nil
 	}, func(i int, pe PageEntry) error {
 		e.Pages[i] = pe
 		return nil
@@ -707,9 +730,12 @@ func (b *build) buildPrint(p *feature.Output) ([]string, error) {
 	pdfPath := filepath.Join(odir, out.Name+".pdf")
 	// Pages go into the PDF as they are ready, in order, while later ones
 	// are still being drawn.
+	// The PDF writer hashes what it writes (for the /ID): its digest is
+	// the manifest's, so the 10 MB are hashed once.
 	var encErr error
-	err = b.writeHashed(pdfPath, func(w io.Writer) error {
-		pw := pdf.NewWriter(w, pdf.Options{Title: b.j.Spec.Title, Version: Version, Date: b.date, Press: p.Press})
+	var pw *pdf.Writer
+	err = WriteAtomic(pdfPath, func(w io.Writer) error {
+		pw = pdf.NewWriter(w, pdf.Options{Title: b.j.Spec.Title, Version: Version, Date: b.date, Press: p.Press})
 		// Pages from the cache name their fonts by hash only.
 		for _, st := range []fonts.Style{fonts.Regular, fonts.Bold, fonts.Italic} {
 			if _, err := pw.RegisterFont(p.Fonts.Font(st)); err != nil {
@@ -727,6 +753,11 @@ func (b *build) buildPrint(p *feature.Output) ([]string, error) {
 	if err != nil {
 		return nil, err
 	}
+	sum, size, err := pw.Digest()
+	if err != nil {
+		return nil, err
+	}
+	b.known(pdfPath, fileSum{hex.EncodeToString(sum[:]), size})
 	b.note(pdfPath, fileMeta{pages: entry.Pages})
 	files := []string{pdfPath}
 	if b.noProofs {
@@ -956,6 +987,7 @@ const maxCachedPage = 1 << 30
 // core's work; this is the other's.
 type prefetch struct {
 	done         chan struct{}
+	warmed       chan string   // closed when the first work is done; a panic in it, with its stack, first
 	manifestRead chan struct{} // closed when prev and prevErr are set
 	stopped      atomic.Bool
 	prev         *Manifest
@@ -969,10 +1001,24 @@ type fileSum struct {
 	size int64
 }
 
-func startPrefetch(dir string, s *specs.Spec, pages bool) *prefetch {
-	p := &prefetch{done: make(chan struct{}), manifestRead: make(chan struct{}), data: map[string]fileSum{}, pages: map[string]*pdf.EncodedPage{}}
+// startPrefetch starts the reading; first (when not nil) runs before it,
+// on the same goroutine: one goroutine beside the build's keeps the build
+// its core.
+func startPrefetch(dir string, s *specs.Spec, pages bool, first func()) *prefetch {
+	p := &prefetch{done: make(chan struct{}), warmed: make(chan string, 1), manifestRead: make(chan struct{}), data: map[string]fileSum{}, pages: map[string]*pdf.EncodedPage{}}
 	go func() {
 		defer close(p.done)
+		func() {
+			defer func() {
+				if r := recover(); r != nil {
+					p.warmed <- fmt.Sprintf("%v\n\nin the goroutine reading beside the data:\n%s", r, debug.Stack())
+				}
+				close(p.warmed)
+			}()
+			if first != nil {
+				first()
+			}
+		}()
 		p.prev, p.prevErr = ReadManifest(dir)
 		close(p.manifestRead)
 		if p.stopped.Load() {
@@ -1313,8 +1359,7 @@ func (b *build) manifest() (*Manifest, error) {
 		}
 		m.Data = append(m.Data, FileHash{Path: d, SHA256: fs.sum})
 	}
-	<-b.termsDone
-	m.Terms = b.termList
+	m.Terms = b.terms.get().list
 	m.Fonts = b.fonts
 	m.Inserts = b.inserts
 	m.Outputs = b.outputs

@@ -130,14 +130,13 @@ func compareManifests(prev, cur *Manifest, work []OutputStats) *ChangeReport {
 	for _, t := range prev.Terms {
 		oldTerms[t.Term] = t.SHA256
 	}
-	newPlaces, oldPlaces := places(cur), places(prev)
 	for _, t := range cur.Terms {
 		sum, ok := oldTerms[t.Term]
 		switch {
 		case !ok:
-			r.Terms = append(r.Terms, TermChange{Term: t.Term, Change: "added", Pages: newPlaces[t.Term]})
+			r.Terms = append(r.Terms, TermChange{Term: t.Term, Change: "added"})
 		case sum != t.SHA256:
-			r.Terms = append(r.Terms, TermChange{Term: t.Term, Change: "changed", Pages: newPlaces[t.Term]})
+			r.Terms = append(r.Terms, TermChange{Term: t.Term, Change: "changed"})
 		}
 		delete(oldTerms, t.Term)
 	}
@@ -147,7 +146,7 @@ func compareManifests(prev, cur *Manifest, work []OutputStats) *ChangeReport {
 	}
 	sort.Strings(gone)
 	for _, t := range gone {
-		r.Terms = append(r.Terms, TermChange{Term: t, Change: "removed", Pages: oldPlaces[t]})
+		r.Terms = append(r.Terms, TermChange{Term: t, Change: "removed"})
 	}
 	// An insert's terms need not be among the feature's: one that is not,
 	// and whose data changed, is listed with its inserts.
@@ -172,7 +171,25 @@ func compareManifests(prev, cur *Manifest, work []OutputStats) *ChangeReport {
 	}
 	sort.Strings(insertOnly)
 	for _, t := range insertOnly {
-		r.Terms = append(r.Terms, TermChange{Term: t, Change: "changed", Pages: newPlaces[t]})
+		r.Terms = append(r.Terms, TermChange{Term: t, Change: "changed"})
+	}
+	// Where each listed term is: only theirs are looked up, a rebuild
+	// lists a few of thousands.
+	newWanted, oldWanted := map[string]bool{}, map[string]bool{}
+	for _, t := range r.Terms {
+		if t.Change == "removed" {
+			oldWanted[t.Term] = true
+		} else {
+			newWanted[t.Term] = true
+		}
+	}
+	newPlaces, oldPlaces := places(cur, newWanted), places(prev, oldWanted)
+	for i, t := range r.Terms {
+		if t.Change == "removed" {
+			r.Terms[i].Pages = oldPlaces[t.Term]
+		} else {
+			r.Terms[i].Pages = newPlaces[t.Term]
+		}
 	}
 	for i := range r.Terms {
 		if r.Terms[i].Pages == nil {
@@ -202,20 +219,27 @@ func changedPages(old, cur []PageEntry) []int {
 	return out
 }
 
-// places maps every term to "OUTPUT p. N" for each page it is on, then
-// "insert NAME" for each insert that shows it.
-func places(m *Manifest) map[string][]string {
+// places maps each wanted term to "OUTPUT p. N" for each page it is on,
+// then "insert NAME" for each insert that shows it.
+func places(m *Manifest, wanted map[string]bool) map[string][]string {
 	out := map[string][]string{}
+	if len(wanted) == 0 {
+		return out
+	}
 	for _, o := range m.Outputs {
 		for _, p := range o.Pages {
 			for _, t := range p.Terms {
-				out[t] = append(out[t], o.Name+" p. "+strconv.Itoa(p.Page))
+				if wanted[t] {
+					out[t] = append(out[t], o.Name+" p. "+strconv.Itoa(p.Page))
+				}
 			}
 		}
 	}
 	for _, in := range m.Inserts {
 		for _, t := range in.Terms {
-			out[t.Term] = append(out[t.Term], "insert "+in.Name)
+			if wanted[t.Term] {
+				out[t.Term] = append(out[t.Term], "insert "+in.Name)
+			}
 		}
 	}
 	return out

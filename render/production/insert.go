@@ -173,7 +173,7 @@ func (b *build) insertInputs(p *feature.Insert, terms []TermHash) string {
 		r := s.Color
 		h.floats([]float64{s.Year, r.R, r.G, r.B})
 	}
-	h.str(fontsSum(p.Graphic.Fonts))
+	h.str(b.fontSums.sum(p.Graphic.Fonts))
 	if p.Press != nil {
 		h.str("press " + p.Press.Fingerprint())
 	}

@@ -14,8 +14,10 @@ import (
 	"math"
 	"os"
 	"path/filepath"
+	"reflect"
 	"sort"
 	"strings"
+	"sync"
 
 	"sheaf/layout/fonts"
 	"sheaf/specs/series"
@@ -122,6 +124,9 @@ func ReadManifest(dir string) (*Manifest, error) {
 	}
 	if err != nil {
 		return nil, err
+	}
+	if m, ok := decodeManifest(b); ok {
+		return m, nil
 	}
 	var m Manifest
 	if err := json.Unmarshal(b, &m); err != nil {
@@ -275,6 +280,82 @@ func (h *hasher) floats(vs []float64) {
 
 func (h *hasher) sum() string { return hexSum(h.h) }
 
+// value hashes v depth first: numbers by their bits, strings and slices
+// with their lengths, a pointer's nil-ness before what it points to, and
+// of a struct its exported fields in declaration order, without those
+// encoding/json leaves out (tagged "-"). It is what hashing v's JSON
+// was, a page's layout in full, without formatting every float as text
+// first. Kinds with no fixed order (maps, interfaces) are hashed as
+// their JSON.
+func (h *hasher) value(v reflect.Value) {
+	switch v.Kind() {
+	case reflect.Bool:
+		if v.Bool() {
+			h.int(1)
+		} else {
+			h.int(0)
+		}
+	case reflect.Int, reflect.Int8, reflect.Int16, reflect.Int32, reflect.Int64:
+		h.int(int(v.Int()))
+	case reflect.Uint, reflect.Uint8, reflect.Uint16, reflect.Uint32, reflect.Uint64, reflect.Uintptr:
+		h.int(int(v.Uint()))
+	case reflect.Float32, reflect.Float64:
+		h.float(v.Float())
+	case reflect.String:
+		h.str(v.String())
+	case reflect.Slice:
+		if v.IsNil() {
+			h.int(-1)
+			return
+		}
+		fallthrough
+	case reflect.Array:
+		h.int(v.Len())
+		for i := range v.Len() {
+			h.value(v.Index(i))
+		}
+	case reflect.Pointer:
+		if v.IsNil() {
+			h.int(0)
+			return
+		}
+		h.int(1)
+		h.value(v.Elem())
+	case reflect.Struct:
+		for _, i := range hashedFields(v.Type()) {
+			h.value(v.Field(i))
+		}
+	default:
+		b, err := json.Marshal(v.Interface())
+		if err != nil {
+			b = []byte(err.Error())
+		}
+		h.bytes(b)
+	}
+}
+
+// structFields caches hashedFields by type.
+var structFields sync.Map // reflect.Type → []int
+
+// hashedFields lists the indexes of t's exported fields that
+// encoding/json would write.
+func hashedFields(t reflect.Type) []int {
+	if f, ok := structFields.Load(t); ok {
+		return f.([]int)
+	}
+	var out []int
+	for i := range t.NumField() {
+		f := t.Field(i)
+		// An embedded struct's fields are written as its parent's.
+		embedded := f.Anonymous && (f.Type.Kind() == reflect.Struct || f.Type.Kind() == reflect.Pointer && f.Type.Elem().Kind() == reflect.Struct)
+		if (f.IsExported() || embedded) && f.Tag.Get("json") != "-" {
+			out = append(out, i)
+		}
+	}
+	structFields.Store(t, out)
+	return out
+}
+
 // termSum is the hash of a term's data as drawn: counts and plotted
 // values, year by year.
 func termSum(sr *series.Series) string {
@@ -291,32 +372,72 @@ func termSumWith(h *hasher, sr *series.Series) string {
 	return h.sum()
 }
 
-// termHashes hashes every term, on all cores: ten thousand terms of two
-// hundred years are megabytes of SHA-256. Cancelled, it returns what it
-// has (the build is stopping).
+// termHashes hashes every term, sorted by term. Cancelled, it returns
+// what it has (the build is stopping).
 func termHashes(ctx context.Context, d *series.Set) []TermHash {
-	ts := make([]TermHash, len(d.Series))
-	// In runs of terms, one hasher and one buffer a run: a hasher a term
-	// was megabytes of fresh memory for the catalog's 4,000 terms.
-	const run = 64
-	each(ctx, (len(ts)+run-1)/run, func(k int) (struct{}, error) {
-		h := newHasher(termKind)
-		for i := k * run; i < min(len(ts), (k+1)*run); i++ {
-			ts[i] = TermHash{Term: d.Series[i].Term, SHA256: termSumWith(h, &d.Series[i]), Peak: d.Series[i].PeakYear}
-		}
-		return struct{}{}, nil
-	}, func(int, struct{}) error { return nil })
+	ts := termHashesInOrder(ctx, d)
 	sort.Slice(ts, func(i, j int) bool { return ts[i].Term < ts[j].Term })
 	return ts
 }
 
-// fontHashes lists the fonts of an output with the hash of their raw
-// bytes; the built-in Go fonts too, so a sheaf upgrade that changes them
-// shows.
-func fontHashes(output string, fs *fonts.Set) []FontHash {
+// termHashesInOrder is termHashes in the data's order of series, on one
+// goroutine: it runs beside the build's one busy goroutine (layout,
+// preflight), on the core that one leaves idle, and ten thousand terms
+// of two hundred years are a few megabytes of SHA-256, done long before
+// the pages want them.
+func termHashesInOrder(ctx context.Context, d *series.Set) []TermHash {
+	ts := make([]TermHash, len(d.Series))
+	h := newHasher(termKind) // one hasher and buffer for all: one a term was megabytes of fresh memory
+	for i := range ts {
+		if i%256 == 0 && ctx.Err() != nil {
+			return ts
+		}
+		ts[i] = TermHash{Term: d.Series[i].Term, SHA256: termSumWith(h, &d.Series[i]), Peak: d.Series[i].PeakYear}
+	}
+	return ts
+}
+
+// termSet is the hashes of every selected term, taken on the other core
+// from the moment the data is read (startTerms) while the layout and
+// preflight run: the pages' inputs, screen outputs' and the manifest
+// wait for them (get).
+type termSet struct {
+	done     chan struct{}
+	list     []TermHash        // sorted by term, for the manifest
+	byTerm   map[string]string // SHA256 by term
+	bySeries []string          // SHA256 by index into the data's Series
+}
+
+func startTerms(ctx context.Context, d *series.Set) *termSet {
+	t := &termSet{done: make(chan struct{})}
+	go func() {
+		defer close(t.done)
+		inOrder := termHashesInOrder(ctx, d)
+		t.bySeries = make([]string, len(inOrder))
+		t.byTerm = make(map[string]string, len(inOrder))
+		for i, th := range inOrder {
+			t.bySeries[i] = th.SHA256
+			t.byTerm[th.Term] = th.SHA256
+		}
+		t.list = inOrder
+		sort.Slice(t.list, func(i, j int) bool { return t.list[i].Term < t.list[j].Term })
+	}()
+	return t
+}
+
+// get waits for the hashing and gives the set.
+func (t *termSet) get() *termSet {
+	<-t.done
+	return t
+}
+
+// fontHashesOf lists the fonts of an output with the hash of their raw
+// bytes (sums, in fontStyles' order); the built-in Go fonts too, so a
+// sheaf upgrade that changes them shows.
+func fontHashesOf(output string, fs *fonts.Set, sums [3]string) []FontHash {
 	var out []FontHash
-	for _, st := range []fonts.Style{fonts.Regular, fonts.Bold, fonts.Italic} {
-		out = append(out, FontHash{Output: output, Style: st.String(), Name: fs.Name(st), Path: fs.Path(st), SHA256: sumBytes(fs.Bytes(st))})
+	for k, st := range fontStyles {
+		out = append(out, FontHash{Output: output, Style: st.String(), Name: fs.Name(st), Path: fs.Path(st), SHA256: sums[k]})
 	}
 	return out
 }

@@ -1,7 +1,8 @@
 package production
 
 import (
-	"encoding/json"
+	"reflect"
+	"sync"
 
 	"sheaf/layout/fonts"
 	"sheaf/render/feature"
@@ -28,26 +29,25 @@ import (
 //   - the SHA-256 of each font's bytes;
 //   - the printing condition's fingerprint (profile bytes and settings),
 //     since the profile file can change with the spec unchanged.
-func pageInputs(j *feature.Job, p *feature.Output, i int, setup pdf.PageSetup, specSum, fontSum string) string {
-	h := newHasher("sheaf page v1")
+//
+// The setup and the layout are hashed field by field (hasher.value), and
+// a panel's term and data by the term's hash (termSums, by series index:
+// its counts and plotted values), which the build takes once anyway.
+func pageInputs(j *feature.Job, p *feature.Output, i int, setup pdf.PageSetup, specSum, fontSum string, termSums []string) string {
+	h := newHasher("sheaf page v2")
 	h.str(Version)
 	h.str(specSum)
 	h.str(p.Spec.Name)
 	h.int(i)
 	h.int(len(p.Plan.Pages))
-	if s, err := json.Marshal(setup); err == nil {
-		h.bytes(s)
-	}
+	h.value(reflect.ValueOf(&setup).Elem())
 	pg := &p.Plan.Pages[i]
-	if s, err := json.Marshal(pg); err == nil {
-		h.bytes(s)
-	}
+	h.value(reflect.ValueOf(pg).Elem())
 	d := j.Data
 	labels := p.Feature.Labels()
 	for _, pn := range pg.Panels {
 		sr := &d.Series[pn.Item]
-		h.str(sr.Term)
-		h.floats(sr.Values)
+		h.str(termSums[pn.Item])
 		h.float(sr.Peak)
 		h.int(sr.PeakYear)
 		h.float(sr.YMax)
@@ -75,13 +75,56 @@ func pageInputs(j *feature.Job, p *feature.Output, i int, setup pdf.PageSetup, s
 	return h.sum()
 }
 
-// fontsSum is one hash over the SHA-256 of each of an output's fonts.
-func fontsSum(fs *fonts.Set) string {
+// fontsSumOf is one hash over the SHA-256 of each of an output's fonts.
+func fontsSumOf(sums [3]string) string {
 	h := newHasher("sheaf fonts v1")
-	for _, st := range []fonts.Style{fonts.Regular, fonts.Bold, fonts.Italic} {
-		h.str(sumBytes(fs.Bytes(st)))
+	for _, s := range sums {
+		h.str(s)
 	}
 	return h.sum()
+}
+
+// fontStyles are the styles a Set holds, in the order they are hashed.
+var fontStyles = [3]fonts.Style{fonts.Regular, fonts.Bold, fonts.Italic}
+
+// fontSHA256s hashes the bytes of each of a Set's fonts.
+func fontSHA256s(fs *fonts.Set) [3]string {
+	var out [3]string
+	for k, st := range fontStyles {
+		out[k] = sumBytes(fs.Bytes(st))
+	}
+	return out
+}
+
+// fontSums remembers each Set's font hashes for one build: the pages',
+// the screen outputs', the inserts' inputs and the manifest all want
+// them, and each font is a few hundred KB of SHA-256.
+type fontSums struct {
+	mu   sync.Mutex
+	sets map[*fonts.Set][3]string
+}
+
+func (c *fontSums) of(fs *fonts.Set) [3]string {
+	c.mu.Lock()
+	defer c.mu.Unlock()
+	if s, ok := c.sets[fs]; ok {
+		return s
+	}
+	if c.sets == nil {
+		c.sets = map[*fonts.Set][3]string{}
+	}
+	s := fontSHA256s(fs)
+	c.sets[fs] = s
+	return s
+}
+
+// sum is one hash over the SHA-256 of each of fs's fonts (fontsSumOf).
+func (c *fontSums) sum(fs *fonts.Set) string { return fontsSumOf(c.of(fs)) }
+
+// hashes lists the fonts of an output with the hash of their bytes
+// (fontHashesOf).
+func (c *fontSums) hashes(output string, fs *fonts.Set) []FontHash {
+	return fontHashesOf(output, fs, c.of(fs))
 }
 
 // pageTerms lists the terms on page i, in panel order.

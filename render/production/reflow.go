@@ -37,28 +37,38 @@ type PageReason struct {
 	Terms  []string `json:"terms,omitempty"`
 }
 
-// slots maps every term to its slot in each output with pages.
-func slots(m *Manifest) map[string]map[string]Slot {
-	out := map[string]map[string]Slot{}
-	for _, o := range m.Outputs {
-		at := map[string]Slot{}
-		for _, p := range o.Pages {
-			for k, t := range p.Terms {
-				if _, dup := at[t]; !dup {
-					at[t] = Slot{Output: o.Name, Page: p.Page, Slot: k + 1}
-				}
+// slots maps every term of an output to its slot.
+func slots(o *OutputEntry) map[string]Slot {
+	at := map[string]Slot{}
+	for _, p := range o.Pages {
+		for k, t := range p.Terms {
+			if _, dup := at[t]; !dup {
+				at[t] = Slot{Output: o.Name, Page: p.Page, Slot: k + 1}
 			}
 		}
-		out[o.Name] = at
 	}
-	return out
+	return at
+}
+
+// samePlaces reports whether two outputs' pages hold the same terms in
+// the same order: then no panel moved, came or went, and slots need not
+// be mapped (a rebuild's usual case, thousands of terms).
+func samePlaces(a, b *OutputEntry) bool {
+	if len(a.Pages) != len(b.Pages) {
+		return false
+	}
+	for i := range a.Pages {
+		if a.Pages[i].Page != b.Pages[i].Page || !sameStrings(a.Pages[i].Terms, b.Pages[i].Terms) {
+			return false
+		}
+	}
+	return true
 }
 
 // reflow fills r.Moves, r.PageReasons and r.Summary from the two
 // manifests; r.Terms must be filled.
 func (r *ChangeReport) reflow(prev, cur *Manifest) {
 	r.Moves, r.PageReasons = []PanelMove{}, []PageReason{}
-	oldAt, newAt := slots(prev), slots(cur)
 	data := map[string]bool{} // terms whose data changed or which came
 	for _, t := range r.Terms {
 		if t.Change != "removed" {
@@ -70,34 +80,9 @@ func (r *ChangeReport) reflow(prev, cur *Manifest) {
 		if po == nil {
 			continue
 		}
-		was, is := oldAt[o.Name], newAt[o.Name]
-		var names []string
-		for t := range is {
-			names = append(names, t)
+		if !samePlaces(po, &o) {
+			r.Moves = append(r.Moves, moves(slots(po), slots(&o))...)
 		}
-		for t := range was {
-			if _, ok := is[t]; !ok {
-				names = append(names, t)
-			}
-		}
-		var moves []PanelMove
-		for _, t := range names {
-			a, hadA := was[t]
-			b, hasB := is[t]
-			if hadA && hasB && a == b {
-				continue
-			}
-			mv := PanelMove{Term: t}
-			if hadA {
-				mv.From = &a
-			}
-			if hasB {
-				mv.To = &b
-			}
-			moves = append(moves, mv)
-		}
-		sort.Slice(moves, func(i, j int) bool { return slotKey(moves[i]) < slotKey(moves[j]) })
-		r.Moves = append(r.Moves, moves...)
 		for _, p := range o.Pages {
 			var old *PageEntry
 			if p.Page-1 < len(po.Pages) {
@@ -125,6 +110,38 @@ func (r *ChangeReport) reflow(prev, cur *Manifest) {
 		}
 	}
 	r.Summary = r.summary(prev, cur)
+}
+
+// moves lists the terms whose slot differs between was and is, ordered
+// by where they land.
+func moves(was, is map[string]Slot) []PanelMove {
+	var names []string
+	for t := range is {
+		names = append(names, t)
+	}
+	for t := range was {
+		if _, ok := is[t]; !ok {
+			names = append(names, t)
+		}
+	}
+	var out []PanelMove
+	for _, t := range names {
+		a, hadA := was[t]
+		b, hasB := is[t]
+		if hadA && hasB && a == b {
+			continue
+		}
+		mv := PanelMove{Term: t}
+		if hadA {
+			mv.From = &a
+		}
+		if hasB {
+			mv.To = &b
+		}
+		out = append(out, mv)
+	}
+	sort.Slice(out, func(i, j int) bool { return slotKey(out[i]) < slotKey(out[j]) })
+	return out
 }
 
 // slotKey orders moves by where the panel lands (then where it came from).

@@ -174,7 +174,7 @@ func (b *build) screenInputs(p *feature.Output, pages []PageEntry) string {
 		r := s.Color
 		h.floats([]float64{s.Year, r.R, r.G, r.B})
 	}
-	h.str(fontsSum(p.Fonts))
+	h.str(b.fontSums.sum(p.Fonts))
 	h.str(p.Plan.Summary())
 	return h.sum()
 }
@@ -383,7 +383,7 @@ func screenPNGTasks(p *feature.Output, odir string) (tasks []pngTask, skipped []
 // bands.go): bands whose inputs are in the last build's cache are taken
 // from it, the others drawn, in parallel.
 func (b *build) writeScreenPNGs(p *feature.Output, tasks []pngTask, st *OutputStats) (files []string, err error) {
-	fontSum := fontsSum(p.Fonts)
+	fontSum := b.fontSums.sum(p.Fonts)
 	pages := map[int]*pageBands{}
 	type job struct {
 		task int
@@ -492,7 +492,7 @@ func (b *build) writePanelFiles(p *feature.Output, pdir string, st *OutputStats)
 	pfs := panelFiles(j, p)
 	b.progress.Begin(p.Spec.Name+": panel files", len(pfs))
 	files := make([]string, len(pfs))
-	fontSum := fontsSum(p.Fonts)
+	fontSum := b.fontSums.sum(p.Fonts)
 	var drawn, reused atomic.Int64
 	err := each(b.ctx, len(pfs), func(k int) (struct{}, error) {
 		defer b.progress.Step()
