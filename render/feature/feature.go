@@ -73,24 +73,10 @@ func Load(path string) (*Job, error) {
 func LoadData(s *specs.Spec) (*Job, error) {
 	j := &Job{Spec: s}
 	j.loadFontsAhead()
-	// Whatever happens here, nothing is left running after return.
-	fail := func(err error) (*Job, error) {
-		<-j.early.done
-		return nil, specs.BadInput(err)
+	if err := j.readData(); err != nil {
+		<-j.early.done // nothing left running after return
+		return nil, err
 	}
-	t, err := series.ReadTable(s)
-	if err != nil {
-		return fail(err)
-	}
-	d, err := t.Select(s)
-	if err != nil {
-		return fail(err)
-	}
-	s.DataGaps = append([]int(nil), d.Gaps...)
-	if err := checkEditorialTerms(s, d); err != nil {
-		return fail(err)
-	}
-	j.Data, j.table = d, t
 	return j, nil
 }
 
@@ -115,13 +101,24 @@ func (j *Job) loadFontsAhead() {
 // ReadData reads the data tables into j, whose Data is nil, as LoadData
 // does, and keeps the fonts j has loaded: a caller may load them
 // (Fonts) on another goroutine while the table is read, since neither
-// reads what the other writes.
-func (j *Job) ReadData() error {
-	d, err := LoadData(j.Spec)
+// reads what the other writes. It starts no loading of its own.
+func (j *Job) ReadData() error { return j.readData() }
+
+func (j *Job) readData() error {
+	s := j.Spec
+	t, err := series.ReadTable(s)
 	if err != nil {
-		return err
+		return specs.BadInput(err)
 	}
-	j.Data, j.table = d.Data, d.table
+	d, err := t.Select(s)
+	if err != nil {
+		return specs.BadInput(err)
+	}
+	s.DataGaps = append([]int(nil), d.Gaps...)
+	if err := checkEditorialTerms(s, d); err != nil {
+		return specs.BadInput(err)
+	}
+	j.Data, j.table = d, t
 	return nil
 }
 
