@@ -18,7 +18,9 @@ import (
 	"github.com/go-fonts/dejavu/dejavusanscondensed"
 	"github.com/go-fonts/dejavu/dejavusanscondensedbold"
 	"github.com/go-fonts/dejavu/dejavusanscondensedoblique"
+	"github.com/go-text/typesetting/harfbuzz"
 	"github.com/tdewolff/canvas"
+	canvastext "github.com/tdewolff/canvas/text"
 	"github.com/tdewolff/font"
 
 	"sheaf/specs"
@@ -120,6 +122,16 @@ type advances struct {
 	// go-text cannot read the face, and canvas's shaper measures.
 	shapers [numStyles]*shaper
 	tried   [numStyles]bool
+	// glyphs are the shaped glyphs behind m's advances, kept for drawing
+	// (Glyphs): a label measured is drawn soon after, and shaping it once
+	// is half the cost. dir is the direction harfbuzz chose; a drawing
+	// that asks another shapes afresh.
+	glyphs map[advanceKey]shapedRun
+}
+
+type shapedRun struct {
+	dir    harfbuzz.Direction
+	glyphs []canvastext.Glyph
 }
 
 // ShareShaping makes s measure with o's shaped advances when both hold
@@ -605,7 +617,14 @@ func (s *Set) measure(st Style, size float64, text string) (float64, error) {
 	units, ok := s.adv.m[k]
 	if !ok {
 		if sh := s.shaper(st); sh != nil {
-			units = sh.advance(text)
+			var run shapedRun
+			units, run = sh.advanceAndGlyphs(text)
+			if s.adv.glyphs == nil {
+				s.adv.glyphs = make(map[advanceKey]shapedRun)
+			}
+			if len(s.adv.glyphs) < maxAdvances {
+				s.adv.glyphs[k] = run
+			}
 		} else {
 			// go-text cannot read the face as it is; canvas's shaper
 			// reads it as tdewolff/font writes it out.

@@ -31,6 +31,13 @@ func (s *Set) Glyphs(st Style, text string, dir canvastext.Direction) (glyphs []
 	if sh == nil {
 		return nil, false
 	}
+	// Shaped when measured, with the direction harfbuzz guessed: the
+	// same buffer settings once that direction is asked for explicitly
+	// (GuessSegmentProperties keeps a set direction and guesses the
+	// script from the text either way), so the same glyphs.
+	if run, ok := s.adv.glyphs[advanceKey{st, text}]; ok && run.dir == harfbuzz.Direction(dir) {
+		return append([]canvastext.Glyph(nil), run.glyphs...), true
+	}
 	return sh.glyphs(text, dir), true
 }
 
@@ -38,16 +45,40 @@ func (s *Set) Glyphs(st Style, text string, dir canvastext.Direction) (glyphs []
 // the pure-Go shaper) on s's buffer, for a face with no script or
 // language.
 func (s *shaper) glyphs(text string, dir canvastext.Direction) []canvastext.Glyph {
+	rtext := s.shape(text, harfbuzz.Direction(dir))
+	return s.fromBuffer(text, rtext)
+}
+
+// advanceAndGlyphs is advance, and the glyphs of text with the direction
+// harfbuzz guessed for it.
+func (s *shaper) advanceAndGlyphs(text string) (int32, shapedRun) {
+	rtext := s.shape(text, 0)
+	var units int32
+	for _, p := range s.buf.Pos {
+		units += int32(p.XAdvance)
+	}
+	return units, shapedRun{dir: s.buf.Props.Direction, glyphs: s.fromBuffer(text, rtext)}
+}
+
+// shape shapes text into s's buffer as canvas's Shaper.Shape does, with
+// direction dir (0: harfbuzz guesses it), and returns text's runes.
+func (s *shaper) shape(text string, dir harfbuzz.Direction) []rune {
 	b := s.buf
 	b.Clear()
 	rtext := []rune(text)
 	b.AddRunes(rtext, 0, -1)
 	b.ClusterLevel = harfbuzz.MonotoneCharacters
-	b.Props.Direction = harfbuzz.Direction(dir)
+	b.Props.Direction = dir
 	b.Props.Script = language.Script(0)
 	b.Props.Language = language.NewLanguage("")
 	b.GuessSegmentProperties()
 	b.Shape(s.font, s.features)
+	return rtext
+}
+
+// fromBuffer is the buffer's glyphs as canvas's Glyph values.
+func (s *shaper) fromBuffer(text string, rtext []rune) []canvastext.Glyph {
+	b := s.buf
 
 	// harfbuzz's clusters index runes; canvas's index bytes.
 	runeMap := make([]int, len(rtext)+1)

@@ -6,6 +6,7 @@ import (
 
 	"github.com/go-fonts/latin-modern/lmsans10bold"
 	"github.com/go-fonts/latin-modern/lmsans10regular"
+	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
 	canvastext "github.com/tdewolff/canvas/text"
 )
@@ -50,6 +51,47 @@ func TestGlyphsAreCanvasGlyphs(t *testing.T) {
 			}
 		}
 	}
+}
+
+// TestGlyphsKeptFromMeasuring: a label measured first is drawn from the
+// glyphs measuring shaped (harfbuzz's guessed direction kept with them);
+// they are still canvas's glyphs for the direction drawing asks
+// (canvas's FontFace.Glyphs, the reference), the kept copy is the
+// caller's, and a drawing in the other direction shapes afresh.
+func TestGlyphsKeptFromMeasuring(t *testing.T) {
+	labels := demoLabels(t)
+	for name, s := range glyphSets(t) {
+		for _, st := range []Style{Regular, Bold, Figures} {
+			for _, text := range labels {
+				s.Width(st, 6.5, text) // measuring keeps the glyphs
+			}
+			for _, dir := range []canvastext.Direction{canvastext.LeftToRight, canvastext.RightToLeft} {
+				face := s.Face(st, 6.5)
+				face.Direction = dir
+				for _, text := range labels {
+					got, ok := s.Glyphs(st, text, dir)
+					require.True(t, ok)
+					require.Equal(t, face.Glyphs(text), got, "%s %v dir %d %q", name, st, dir, text)
+				}
+			}
+		}
+		// The caller's own copy: changing it changes nothing kept.
+		text := labels[0]
+		s.Width(Regular, 6.5, text)
+		a, _ := s.Glyphs(Regular, text, canvastext.LeftToRight)
+		require.NotEmpty(t, a)
+		a[0].ID++
+		b, _ := s.Glyphs(Regular, text, canvastext.LeftToRight)
+		assert.NotEqual(t, a[0].ID, b[0].ID, name)
+	}
+	// The kept glyphs are used: a Set that measured has them.
+	s := mustDefault(t)
+	s.Width(Bold, 7, "telegraph")
+	s.adv.mu.Lock()
+	run, ok := s.adv.glyphs[advanceKey{Bold, "telegraph"}]
+	s.adv.mu.Unlock()
+	require.True(t, ok, "measuring keeps the glyphs")
+	assert.Len(t, run.glyphs, len("telegraph"), "one glyph a letter in DejaVu (no ligature here)")
 }
 
 // Pages are drawn on several goroutines: shaping through one Set from
