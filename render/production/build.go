@@ -188,9 +188,18 @@ func Build(ctx context.Context, job *feature.Job, opts Options) (*Result, error)
 		job = &feature.Job{Spec: spec}
 		warm = func() {
 			for _, o := range outs {
-				if fs, err := job.Fonts(o); err == nil && !opts.Full {
+				fs, err := job.Fonts(o)
+				if err != nil {
+					continue
+				}
+				if !opts.Full {
 					loadWidths(final, o.Name, fs)
 				}
+				// canvas's parse of the faces for drawing (about 25 ms
+				// for four faces), here rather than on the layout's
+				// goroutine at its first drawing; its error, if any, is
+				// met again where drawing checks Ready.
+				fs.Ready()
 			}
 		}
 	}
