@@ -672,6 +672,25 @@ func (s *Set) shaper(st Style) *shaper {
 	return a.shapers[st]
 }
 
+// PrepareShaping parses the faces of styles for shaping now (measuring
+// and drawing parse them on first use otherwise), so a caller can have
+// it done on a goroutine beside other work. It measures nothing: the
+// widths a run used, which SaveWidths keeps, are the same with or
+// without it. A face go-text cannot read is left to measuring, which
+// says so.
+func (s *Set) PrepareShaping(styles ...Style) {
+	s.mu.Lock()
+	defer s.mu.Unlock()
+	if s.adv == nil {
+		s.adv = &advances{}
+	}
+	s.adv.mu.Lock()
+	defer s.adv.mu.Unlock()
+	for _, st := range styles {
+		s.shaper(s.valid(st))
+	}
+}
+
 // maxAdvances bounds the advances kept: a few per panel of a large
 // catalog, a few bytes each beside the text the labels hold anyway.
 const maxAdvances = 1 << 16

@@ -1,6 +1,7 @@
 package fonts
 
 import (
+	"bytes"
 	"sync"
 	"testing"
 
@@ -145,4 +146,34 @@ func BenchmarkShapeLabels(b *testing.B) {
 			}
 		}
 	})
+}
+
+// TestPrepareShapingMeasuresNothing: parsing faces for shaping ahead of
+// time (PrepareShaping) leaves what measuring gives, and what SaveWidths
+// keeps, exactly as without it: it asks for no width.
+func TestPrepareShapingMeasuresNothing(t *testing.T) {
+	labels := demoLabels(t)[:300]
+	run := func(prepare bool) ([]float64, []byte) {
+		s := mustDefault(t)
+		if prepare {
+			s.PrepareShaping(Bold, Regular, Figures)
+			s.adv.mu.Lock()
+			for _, st := range []Style{Bold, Regular, Figures} {
+				assert.True(t, s.adv.tried[st], "parsed for shaping: %v", st)
+			}
+			assert.Empty(t, s.adv.m, "nothing shaped")
+			s.adv.mu.Unlock()
+		}
+		var ws []float64
+		for _, l := range labels {
+			ws = append(ws, s.Width(Bold, 6.5, l), s.Width(Figures, 5.5, l))
+		}
+		var buf bytes.Buffer
+		require.NoError(t, s.SaveWidths(&buf))
+		return ws, buf.Bytes()
+	}
+	w0, saved0 := run(false)
+	w1, saved1 := run(true)
+	assert.Equal(t, w0, w1)
+	assert.Equal(t, saved0, saved1)
 }

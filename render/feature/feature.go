@@ -90,10 +90,19 @@ func (j *Job) loadFontsAhead() {
 	outs := j.Spec.Outputs
 	go func() {
 		defer close(e.done)
+		var loaded []*fonts.Set
 		for i := range outs {
-			if _, err := j.loadFonts(&outs[i]); err != nil {
+			fs, err := j.loadFonts(&outs[i])
+			if err != nil {
 				e.errs[outs[i].Name] = err
+				continue
 			}
+			loaded = append(loaded, fs)
+		}
+		// The faces labels and figures are measured in, parsed for
+		// shaping here too, while the table is still being read.
+		for _, fs := range loaded {
+			fs.PrepareShaping(fonts.Bold, fonts.Regular, fonts.Figures)
 		}
 	}()
 }

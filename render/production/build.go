@@ -195,10 +195,12 @@ func Build(ctx context.Context, job *feature.Job, opts Options) (*Result, error)
 				if !opts.Full {
 					loadWidths(final, o.Name, fs)
 				}
-				// canvas's parse of the faces for drawing (about 25 ms
-				// for four faces), here rather than on the layout's
-				// goroutine at its first drawing; its error, if any, is
-				// met again where drawing checks Ready.
+				// The faces parsed for shaping (measuring and drawing
+				// labels) and canvas's parse of them for drawing (about
+				// 10 and 25 ms), here rather than on the layout's
+				// goroutine when it first needs them; errors, if any,
+				// are met again where measuring and drawing check.
+				fs.PrepareShaping(fonts.Bold, fonts.Regular, fonts.Figures)
 				fs.Ready()
 			}
 		}
