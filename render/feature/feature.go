@@ -20,6 +20,7 @@ import (
 	"sheaf/palette"
 	"sheaf/palette/press"
 	"sheaf/render/page"
+	"sheaf/render/preflight"
 	"sheaf/specs"
 	"sheaf/specs/series"
 )
@@ -44,6 +45,11 @@ type Job struct {
 	palOnce sync.Once
 	pal     []PaletteCheck
 	palErr  error
+
+	// facts are preflight's checks of the data alone, worked out once
+	// for every output.
+	factsOnce sync.Once
+	facts     *preflight.Facts
 }
 
 // earlyFonts is the fonts of every output, loaded on a goroutine of

@@ -43,8 +43,9 @@ func (j *Job) Preflight(outs []*Output, inserts ...*Insert) ([]preflight.Finding
 // PreflightInput is what preflight checks for one prepared output, with
 // its palette report from pal (CheckPalette).
 func (j *Job) PreflightInput(o *Output, pal []PaletteCheck) preflight.Input {
+	j.factsOnce.Do(func() { j.facts = preflight.DataFacts(j.Spec, j.Data) }) // the same for every output
 	in := preflight.Input{Spec: j.Spec, Output: o.Spec, Plan: o.Plan, Data: j.Data, Fonts: o.Fonts, Labels: o.Feature.Labels(),
-		Scale: &o.Feature.Palette, Press: o.Press}
+		Scale: &o.Feature.Palette, Press: o.Press, Facts: j.facts}
 	for i := range pal {
 		if pal[i].Output == o.Spec.Name {
 			in.Palette = &pal[i].Report

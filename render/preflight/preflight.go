@@ -140,6 +140,52 @@ type Input struct {
 	// checks.
 	Scale *palette.Scale
 	Press *press.Condition
+	// Facts are the data's own checks (DataFacts): the same for every
+	// output of a job, so a caller checking several works them out once.
+	// nil, or facts of other data or thresholds: Check works them out.
+	Facts *Facts
+}
+
+// Facts are what the data alone says, term by term: each term's highest
+// and next-highest yearly value (spikes, empty panels) and the median of
+// the counts its plotted values rest on (sparse terms). Every output of
+// a job shows the same data, so its checks need them once.
+type Facts struct {
+	data  *series.Set
+	th    specs.Preflight
+	terms []termFacts
+}
+
+type termFacts struct {
+	top, second float64
+	year        int // of top, from the span's first
+	med         float64
+	medOK       bool // a median exists (see MedianActive)
+}
+
+// DataFacts works out the facts of d for the spec's thresholds
+// (specs.Preflight): pure; the findings Check makes from them are the
+// ones it makes without them.
+func DataFacts(s *specs.Spec, d *series.Set) *Facts {
+	f := &Facts{data: d, th: s.Preflight, terms: make([]termFacts, len(d.Series))}
+	var yearly, pooled, exposure, scratch []float64
+	for i := range d.Series {
+		sr := &d.Series[i]
+		y := d.YearlyInto(sr, yearly)
+		if len(sr.Counts) > 0 {
+			yearly = y // scratch; a series without counts gave its own values
+		}
+		tf := &f.terms[i]
+		tf.top, tf.second, tf.year = Spike(y)
+		if tf.top <= 0 || s.Preflight.MinCount <= 0 {
+			continue
+		}
+		var p []float64
+		p, exposure = d.PooledInto(sr, pooled[:cap(pooled)], exposure[:cap(exposure)])
+		pooled = p
+		tf.med, tf.medOK, scratch = medianActive(sr.Counts, p, scratch)
+	}
+	return f
 }
 
 // Check runs every check on in with the spec's thresholds
@@ -259,9 +305,6 @@ type checker struct {
 	out    string
 	pageOf map[int]int // series index → 1-based page
 	found  []Finding
-
-	// scratch for sparse, reused from term to term
-	pooled, exposure, scratch, yearly []float64
 }
 
 func (c *checker) add(f Finding) {
@@ -466,24 +509,25 @@ func clip(s string, n int) string {
 // the values before any rolling window (count ÷ the year's total, or the
 // count itself), which smoothing would hide.
 func (c *checker) panels() {
+	f := c.in.Facts
+	if f == nil || f.data != c.in.Data || f.th != c.th {
+		f = DataFacts(c.in.Spec, c.in.Data)
+	}
 	k := c.th.SpikeRatio
 	for i := range c.in.Data.Series {
 		sr := &c.in.Data.Series[i]
-		yearly := c.in.Data.YearlyInto(sr, c.yearly)
-		if len(sr.Counts) > 0 {
-			c.yearly = yearly // scratch; a series without counts gave its own values
-		}
-		top, second, year := Spike(yearly)
+		tf := f.terms[i]
+		top, second := tf.top, tf.second
 		if top <= 0 {
 			c.add(Finding{ID: IDNoData, Severity: Warning, Page: c.pageOf[i], Term: sr.Term,
 				Message: fmt.Sprintf("no data in %d–%d: every year is zero or a gap; the panel is empty", c.in.Data.Span.From, c.in.Data.Span.To)})
 			continue
 		}
-		c.sparse(i, sr)
+		c.sparse(i, sr, tf)
 		if k <= 0 || top <= k*second {
 			continue
 		}
-		y := c.in.Data.Span.From + year
+		y := c.in.Data.Span.From + tf.year
 		ratio := "no other year has any"
 		if second > 0 {
 			ratio = fmt.Sprintf("%.1f× its next-highest year", top/second)
@@ -499,18 +543,13 @@ func (c *checker) panels() {
 // one each plotted value rests on: the year's, or the rolling window's
 // pooled count; typical is the median over the years from the term's
 // first occurrence to its last (gap years left out), so years before a
-// word existed do not count against it.
-func (c *checker) sparse(i int, sr *series.Series) {
+// word existed do not count against it (DataFacts works it out).
+func (c *checker) sparse(i int, sr *series.Series, tf termFacts) {
 	floor := c.th.MinCount
 	if floor <= 0 {
 		return
 	}
-	var pooled []float64
-	pooled, c.exposure = c.in.Data.PooledInto(sr, c.pooled[:cap(c.pooled)], c.exposure[:cap(c.exposure)])
-	c.pooled = pooled
-	var med float64
-	var ok bool
-	med, ok, c.scratch = medianActive(sr.Counts, pooled, c.scratch)
+	med, ok := tf.med, tf.medOK
 	if !ok || med >= floor {
 		return
 	}
