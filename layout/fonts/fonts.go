@@ -127,6 +127,7 @@ type advances struct {
 	// is half the cost. dir is the direction harfbuzz chose; a drawing
 	// that asks another shapes afresh.
 	glyphs map[advanceKey]shapedRun
+	keep   bool // KeepGlyphs: a Set sharing these advances will draw
 }
 
 type shapedRun struct {
@@ -617,13 +618,17 @@ func (s *Set) measure(st Style, size float64, text string) (float64, error) {
 	units, ok := s.adv.m[k]
 	if !ok {
 		if sh := s.shaper(st); sh != nil {
-			var run shapedRun
-			units, run = sh.advanceAndGlyphs(text)
-			if s.adv.glyphs == nil {
-				s.adv.glyphs = make(map[advanceKey]shapedRun)
-			}
-			if len(s.adv.glyphs) < maxAdvances {
-				s.adv.glyphs[k] = run
+			if s.adv.keep {
+				var run shapedRun
+				units, run = sh.advanceAndGlyphs(text)
+				if s.adv.glyphs == nil {
+					s.adv.glyphs = make(map[advanceKey]shapedRun)
+				}
+				if len(s.adv.glyphs) < maxAdvances {
+					s.adv.glyphs[k] = run
+				}
+			} else {
+				units = sh.advance(text)
 			}
 		} else {
 			// go-text cannot read the face as it is; canvas's shaper
@@ -670,6 +675,21 @@ func (s *Set) shaper(st Style) *shaper {
 		a.shapers[st] = newShaper(s.raw[st], feats)
 	}
 	return a.shapers[st]
+}
+
+// KeepGlyphs has measuring keep the glyphs it shapes, for drawing them
+// (Glyphs) without shaping again: for a Set that will draw what it
+// measures, as a build's do. A Set that only measures (check) leaves it
+// off and keeps only advances.
+func (s *Set) KeepGlyphs() {
+	s.mu.Lock()
+	defer s.mu.Unlock()
+	if s.adv == nil {
+		s.adv = &advances{}
+	}
+	s.adv.mu.Lock()
+	s.adv.keep = true
+	s.adv.mu.Unlock()
 }
 
 // PrepareShaping parses the faces of styles for shaping now (measuring

@@ -200,6 +200,7 @@ func Build(ctx context.Context, job *feature.Job, opts Options) (*Result, error)
 				// 10 and 25 ms), here rather than on the layout's
 				// goroutine when it first needs them; errors, if any,
 				// are met again where measuring and drawing check.
+				fs.KeepGlyphs() // labels measured are drawn
 				fs.PrepareShaping(fonts.Bold, fonts.Regular, fonts.Figures)
 				fs.Ready()
 			}
