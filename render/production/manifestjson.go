@@ -16,8 +16,7 @@ import (
 func appendManifest(b []byte, m *Manifest) ([]byte, error) {
 	w := jsonWriter{b: b}
 	w.object(func() {
-		w.field("sheaf")
-		w.str(m.Sheaf)
+		w.strField("sheaf", m.Sheaf)
 		w.field("spec")
 		w.fileHash(m.Spec)
 		w.field("data")
@@ -35,8 +34,7 @@ func appendManifest(b []byte, m *Manifest) ([]byte, error) {
 		w.field("files")
 		w.array(m.Files == nil, len(m.Files), func(i int) { w.fileEntry(&m.Files[i]) })
 		if m.Findings != "" {
-			w.field("findings")
-			w.str(m.Findings)
+			w.strField("findings", m.Findings)
 		}
 	})
 	if w.err != nil {
@@ -139,31 +137,30 @@ func appendJSONString(b []byte, s string) []byte {
 
 func (w *jsonWriter) int(n int64) { w.b = strconv.AppendInt(w.b, n, 10) }
 
+// strField writes a field whose value is a string.
+func (w *jsonWriter) strField(name, v string) {
+	w.field(name)
+	w.str(v)
+}
+
 func (w *jsonWriter) strs(ss []string) {
 	w.array(ss == nil, len(ss), func(i int) { w.str(ss[i]) })
 }
 
 func (w *jsonWriter) fileHash(f FileHash) {
 	w.object(func() {
-		w.field("path")
-		w.str(f.Path)
-		w.field("sha256")
-		w.str(f.SHA256)
+		w.strField("path", f.Path)
+		w.strField("sha256", f.SHA256)
 	})
 }
 
 func (w *jsonWriter) fontHash(f *FontHash) {
 	w.object(func() {
-		w.field("output")
-		w.str(f.Output)
-		w.field("style")
-		w.str(f.Style)
-		w.field("name")
-		w.str(f.Name)
-		w.field("path")
-		w.str(f.Path)
-		w.field("sha256")
-		w.str(f.SHA256)
+		w.strField("output", f.Output)
+		w.strField("style", f.Style)
+		w.strField("name", f.Name)
+		w.strField("path", f.Path)
+		w.strField("sha256", f.SHA256)
 	})
 }
 
@@ -171,10 +168,8 @@ func (w *jsonWriter) termHashes(ts []TermHash) {
 	w.array(ts == nil, len(ts), func(i int) {
 		t := &ts[i]
 		w.object(func() {
-			w.field("term")
-			w.str(t.Term)
-			w.field("sha256")
-			w.str(t.SHA256)
+			w.strField("term", t.Term)
+			w.strField("sha256", t.SHA256)
 			if t.Peak != 0 {
 				w.field("peak")
 				w.int(int64(t.Peak))
@@ -191,18 +186,15 @@ func (w *jsonWriter) pageEntries(ps []PageEntry) {
 			w.int(int64(p.Page))
 			w.field("terms")
 			w.strs(p.Terms)
-			w.field("inputs")
-			w.str(p.Inputs)
+			w.strField("inputs", p.Inputs)
 		})
 	})
 }
 
 func (w *jsonWriter) outputEntry(o *OutputEntry) {
 	w.object(func() {
-		w.field("name")
-		w.str(o.Name)
-		w.field("kind")
-		w.str(o.Kind)
+		w.strField("name", o.Name)
+		w.strField("kind", o.Kind)
 		if o.Proofs != 0 {
 			w.field("proof_dpi")
 			b, err := json.Marshal(o.Proofs) // encoding/json's float format, and its error for NaN
@@ -212,8 +204,7 @@ func (w *jsonWriter) outputEntry(o *OutputEntry) {
 			w.b = append(w.b, b...)
 		}
 		if o.Inputs != "" {
-			w.field("inputs")
-			w.str(o.Inputs)
+			w.strField("inputs", o.Inputs)
 		}
 		w.field("pages")
 		w.pageEntries(o.Pages)
@@ -222,32 +213,25 @@ func (w *jsonWriter) outputEntry(o *OutputEntry) {
 
 func (w *jsonWriter) insertEntry(e *InsertEntry) {
 	w.object(func() {
-		w.field("name")
-		w.str(e.Name)
-		w.field("output")
-		w.str(e.Output)
+		w.strField("name", e.Name)
+		w.strField("output", e.Output)
 		w.field("terms")
 		w.termHashes(e.Terms)
-		w.field("inputs")
-		w.str(e.Inputs)
+		w.strField("inputs", e.Inputs)
 	})
 }
 
 func (w *jsonWriter) fileEntry(f *FileEntry) {
 	w.object(func() {
-		w.field("path")
-		w.str(f.Path)
+		w.strField("path", f.Path)
 		if f.Output != "" {
-			w.field("output")
-			w.str(f.Output)
+			w.strField("output", f.Output)
 		}
-		w.field("sha256")
-		w.str(f.SHA256)
+		w.strField("sha256", f.SHA256)
 		w.field("size")
 		w.int(f.Size)
 		if f.Insert != "" {
-			w.field("insert")
-			w.str(f.Insert)
+			w.strField("insert", f.Insert)
 		}
 		if len(f.Terms) > 0 {
 			w.field("terms")

@@ -601,12 +601,8 @@ type seenTerm struct {
 // It reports false when reading must stop (too many errors).
 func (x *tally) block(b []byte, first int) bool {
 	for n := first; len(b) > 0; n++ {
-		nl := bytes.IndexByte(b, '\n')
-		line := b[:nl]
-		b = b[nl+1:]
-		if k := len(line); k > 0 && line[k-1] == '\r' {
-			line = line[:k-1] // CRLF is read as LF
-		}
+		var line []byte
+		line, b = blockLine(b)
 		if term, y, v, ok := x.read(line); ok && x.add(term, y, v) {
 			continue
 		}
@@ -615,6 +611,17 @@ func (x *tally) block(b []byte, first int) bool {
 		}
 	}
 	return true
+}
+
+// blockLine splits the first line off a block (records.block: whole
+// lines, each ending in '\n'), CRLF read as LF.
+func blockLine(b []byte) (line, rest []byte) {
+	nl := bytes.IndexByte(b, '\n')
+	line, rest = b[:nl], b[nl+1:]
+	if k := len(line); k > 0 && line[k-1] == '\r' {
+		line = line[:k-1]
+	}
+	return line, rest
 }
 
 // slow reads line n of a block as a record would be read: its errors,
@@ -1006,12 +1013,8 @@ func (r *reader) pass2(aggs map[string]*agg, selected []string) {
 		if !r.noBlocks {
 			if b, first := c.block(); b != nil {
 				for n := first; len(b) > 0; n++ {
-					nl := bytes.IndexByte(b, '\n')
-					line := b[:nl]
-					b = b[nl+1:]
-					if k := len(line); k > 0 && line[k-1] == '\r' {
-						line = line[:k-1] // CRLF is read as LF
-					}
+					var line []byte
+					line, b = blockLine(b)
 					if term, y, v, ok := x.read(line); ok {
 						add(term, y, v)
 						continue
