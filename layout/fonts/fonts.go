@@ -682,14 +682,23 @@ func (s *Set) shaper(st Style) *shaper {
 // measures, as a build's do. A Set that only measures (check) leaves it
 // off and keeps only advances.
 func (s *Set) KeepGlyphs() {
+	defer s.lockAdvances()()
+	s.adv.keep = true
+}
+
+// lockAdvances takes the Set's lock, then its advances' (made on first
+// use), in that order, and returns what releases both.
+func (s *Set) lockAdvances() (unlock func()) {
 	s.mu.Lock()
-	defer s.mu.Unlock()
 	if s.adv == nil {
 		s.adv = &advances{}
 	}
-	s.adv.mu.Lock()
-	s.adv.keep = true
-	s.adv.mu.Unlock()
+	a := s.adv
+	a.mu.Lock()
+	return func() {
+		a.mu.Unlock()
+		s.mu.Unlock()
+	}
 }
 
 // PrepareShaping parses the faces of styles for shaping now (measuring
@@ -699,13 +708,7 @@ func (s *Set) KeepGlyphs() {
 // without it. A face go-text cannot read is left to measuring, which
 // says so.
 func (s *Set) PrepareShaping(styles ...Style) {
-	s.mu.Lock()
-	defer s.mu.Unlock()
-	if s.adv == nil {
-		s.adv = &advances{}
-	}
-	s.adv.mu.Lock()
-	defer s.adv.mu.Unlock()
+	defer s.lockAdvances()()
 	for _, st := range styles {
 		s.shaper(s.valid(st))
 	}

@@ -20,13 +20,7 @@ func (s *Set) Glyphs(st Style, text string, dir canvastext.Direction) (glyphs []
 		return nil, true
 	}
 	st = s.valid(st)
-	s.mu.Lock()
-	defer s.mu.Unlock()
-	if s.adv == nil {
-		s.adv = &advances{}
-	}
-	s.adv.mu.Lock()
-	defer s.adv.mu.Unlock()
+	defer s.lockAdvances()()
 	sh := s.shaper(st)
 	if sh == nil {
 		return nil, false
