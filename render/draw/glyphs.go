@@ -34,6 +34,16 @@ type SpanImage interface {
 	Text() *canvas.Text
 }
 
+// Recording is a recording (*canvas.Canvas) that its caller replays only
+// into renderers that know a SpanImage (render/pdf's encoder, which
+// draws it as glyphs; render/svg and render/raster, which draw it as
+// canvas's text): on it, the Pen records a line as a SpanImage instead
+// of having canvas shape it again. On a plain *canvas.Canvas the Pen
+// records canvas's text, so a recording replayed into canvas's own
+// renderers (which would take a SpanImage for an empty image) keeps its
+// text.
+type Recording struct{ *canvas.Canvas }
+
 // spanImage is the SpanImage the Pen records.
 type spanImage struct {
 	span  canvas.TextSpan
@@ -56,14 +66,13 @@ func (*spanImage) At(int, int) color.Color { return color.RGBA{} }
 // (one script item: one script, one bidi level), and reports whether it
 // did; otherwise the caller draws through canvas.
 //
-// A *canvas.Canvas is a recording: the Pen records the span as a
-// SpanImage, which render/pdf's encoder (the renderer sheaf replays its
-// recordings into) draws as glyphs, and sheaf's other renderers draw as
-// canvas's text.
+// On a Recording the Pen records the span as a SpanImage, which
+// render/pdf's encoder draws as glyphs, and sheaf's other renderers draw
+// as canvas's text.
 func (p Pen) textSpan(face *canvas.FontFace, st fonts.Style, x, y float64, align canvas.TextAlign, s string) bool {
 	direct, ok := p.Ctx.Renderer.(SpanRenderer)
 	if !ok {
-		if _, rec := p.Ctx.Renderer.(*canvas.Canvas); !rec {
+		if _, rec := p.Ctx.Renderer.(Recording); !rec {
 			return false
 		}
 	}

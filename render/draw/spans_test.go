@@ -11,6 +11,7 @@ import (
 
 	"github.com/go-fonts/latin-modern/lmsans10bold"
 	"github.com/go-fonts/latin-modern/lmsans10regular"
+	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
 	"github.com/tdewolff/canvas"
 
@@ -84,7 +85,7 @@ func TestPenSpansSameBytes(t *testing.T) {
 				require.NoError(t, w.AddPage(pdf.PageSetup{Boxes: pdf.PageBoxes{Media: box, Bleed: box, Trim: box}}, func(c *canvas.Canvas) error {
 					var r canvas.Renderer = canvasOnly{c}
 					if spans {
-						r = c
+						r = draw.Recording{Canvas: c}
 					}
 					penLines(draw.Pen{Ctx: canvas.NewContext(r), Fonts: fs}, labels)
 					if spans {
@@ -135,7 +136,7 @@ func TestPenSpansSameSVGAndPixels(t *testing.T) {
 		d, err := svg.New(600, 800, svg.Options{Title: "spans", EmbedFonts: true})
 		require.NoError(t, err)
 		c := canvas.New(600*mmPerPt, 800*mmPerPt)
-		var r canvas.Renderer = c
+		var r canvas.Renderer = draw.Recording{Canvas: c}
 		if !spans {
 			r = canvasOnly{c}
 		}
@@ -154,7 +155,7 @@ func TestPenSpansSameSVGAndPixels(t *testing.T) {
 	pixels := func(spans bool) []byte {
 		img, err := raster.Draw(600, 800, 72, color.White, func(ctx *canvas.Context) error {
 			c := canvas.New(600*mmPerPt, 800*mmPerPt)
-			var r canvas.Renderer = c
+			var r canvas.Renderer = draw.Recording{Canvas: c}
 			if !spans {
 				r = canvasOnly{c}
 			}
@@ -166,4 +167,29 @@ func TestPenSpansSameSVGAndPixels(t *testing.T) {
 		return img.Pix
 	}
 	require.True(t, bytes.Equal(pixels(false), pixels(true)), "the rasters differ")
+}
+
+// On a plain *canvas.Canvas (not a draw.Recording) the Pen records
+// canvas's own text, never a SpanImage: a recording its caller replays
+// into canvas's renderers (which would take a SpanImage for an empty
+// image) keeps every line.
+func TestPlainCanvasGetsCanvasText(t *testing.T) {
+	labels := draw.GlyphLabels(t)[:100]
+	fs := defaultFonts(t)
+	for name, rec := range map[string]bool{"plain canvas": false, "Recording": true} {
+		c := canvas.New(600*mmPerPt, 800*mmPerPt)
+		var r canvas.Renderer = c
+		if rec {
+			r = draw.Recording{Canvas: c}
+		}
+		penLines(draw.Pen{Ctx: canvas.NewContext(r), Fonts: fs}, labels)
+		var counted spanCounter
+		c.RenderTo(&counted)
+		if rec {
+			assert.Greater(t, counted.spans, counted.texts, name)
+		} else {
+			assert.Zero(t, counted.spans, name)
+			assert.GreaterOrEqual(t, counted.texts, len(labels), name)
+		}
+	}
 }

@@ -10,6 +10,7 @@ import (
 	"github.com/tdewolff/canvas"
 
 	"sheaf/render/contact"
+	"sheaf/render/draw"
 	"sheaf/render/insert"
 	"sheaf/render/pdf"
 	"sheaf/render/production"
@@ -58,7 +59,7 @@ func WriteSheets(ctx context.Context, rep *Report, gs []*insert.Graphic, dir str
 			gw, gh := g.Size()
 			box := canvas.Rect{X0: 0, Y0: 0, X1: gw, Y1: gh}
 			if err := doc.AddPage(pdf.PageSetup{Boxes: pdf.PageBoxes{Media: box, Bleed: box, Trim: box}}, func(c *canvas.Canvas) error {
-				return g.Draw(canvas.NewContext(c))
+				return g.Draw(canvas.NewContext(draw.Recording{Canvas: c})) // replayed into our PDF encoder
 			}); err != nil {
 				return err
 			}

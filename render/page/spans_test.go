@@ -53,7 +53,7 @@ func pagePDF(t *testing.T, f *Feature, pages []int, cond *press.Condition, spans
 			if !spans {
 				return f.Draw(canvas.NewContext(canvasOnly{c}), i)
 			}
-			if err := f.Draw(canvas.NewContext(c), i); err != nil {
+			if err := f.Draw(canvas.NewContext(draw.Recording{Canvas: c}), i); err != nil {
 				return err
 			}
 			c.RenderTo(n)

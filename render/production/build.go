@@ -30,6 +30,7 @@ import (
 	"sheaf/layout"
 	"sheaf/layout/fonts"
 	"sheaf/render/contact"
+	"sheaf/render/draw"
 	"sheaf/render/feature"
 	"sheaf/render/pdf"
 	"sheaf/render/preflight"
@@ -843,7 +844,7 @@ func (b *build) encode(p *feature.Output, i int) (*pdf.EncodedPage, error) {
 			return nil, err
 		}
 	}
-	return b.pages.Encode(b.setup(p, i), func(c *canvas.Canvas) error { return p.Feature.Draw(canvas.NewContext(c), i) })
+	return b.pages.Encode(b.setup(p, i), func(c *canvas.Canvas) error { return p.Feature.Draw(canvas.NewContext(draw.Recording{Canvas: c}), i) })
 }
 
 // widthsFile holds an output's text widths between builds (see

@@ -10,6 +10,7 @@ import (
 
 	"github.com/tdewolff/canvas"
 
+	"sheaf/render/draw"
 	"sheaf/render/feature"
 	"sheaf/render/pdf"
 	"sheaf/render/raster"
@@ -189,13 +190,13 @@ func (b *build) drawInsert(p *feature.Insert, dir string) error {
 	if p.Output.Kind == specs.Print {
 		// An insert is placed by the article's layout, which adds its
 		// own bleed: the file is trimmed, media = trim.
-		draw := func(c *canvas.Canvas) error { return p.Graphic.Draw(canvas.NewContext(c)) }
+		paint := func(c *canvas.Canvas) error { return p.Graphic.Draw(canvas.NewContext(draw.Recording{Canvas: c})) }
 		path := filepath.Join(dir, p.Spec.Name+".pdf")
 		box := canvas.Rect{X0: 0, Y0: 0, X1: w, Y1: h}
 		title, _ := p.Graphic.Describe()
 		return WriteAtomic(path, func(wr io.Writer) error {
 			pw := pdf.NewWriter(wr, pdf.Options{Title: title, Version: Version, Date: b.date, Press: p.Press})
-			if err := pw.AddPage(pdf.PageSetup{Boxes: pdf.PageBoxes{Media: box, Bleed: box, Trim: box}, Press: p.Press}, draw); err != nil {
+			if err := pw.AddPage(pdf.PageSetup{Boxes: pdf.PageBoxes{Media: box, Bleed: box, Trim: box}, Press: p.Press}, paint); err != nil {
 				return err
 			}
 			return pw.Close()
