@@ -125,9 +125,6 @@ func ReadManifest(dir string) (*Manifest, error) {
 	if err != nil {
 		return nil, err
 	}
-	if m, ok := decodeManifest(b); ok {
-		return m, nil
-	}
 	var m Manifest
 	if err := json.Unmarshal(b, &m); err != nil {
 		return nil, fmt.Errorf("%s: %v", filepath.Join(dir, ManifestFile), err)
